@@ -1,0 +1,89 @@
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type NonAttribute,
+} from "sequelize";
+import { sequelize } from "~/db.server";
+import { recordAudit } from "~/models/audit-event.server";
+import { Site } from "~/models/site.server";
+
+export type JobStatus = "open" | "closed";
+
+/** A job is a work order at a customer site; it holds the lifts planned for it. */
+export class Job extends Model<InferAttributes<Job>, InferCreationAttributes<Job>> {
+  declare id: CreationOptional<number>;
+  declare organisationId: number;
+  declare siteId: number;
+  declare workOrder: string;
+  declare title: string;
+  declare description: CreationOptional<string>;
+  declare status: CreationOptional<JobStatus>;
+  declare startsOn: string | null;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+  declare site?: NonAttribute<Site>;
+}
+
+Job.init(
+  {
+    id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+    organisationId: { type: DataTypes.INTEGER, allowNull: false },
+    siteId: { type: DataTypes.INTEGER, allowNull: false },
+    workOrder: { type: DataTypes.STRING(60), allowNull: false },
+    title: { type: DataTypes.STRING(200), allowNull: false },
+    description: { type: DataTypes.TEXT, allowNull: false, defaultValue: "" },
+    status: { type: DataTypes.STRING(10), allowNull: false, defaultValue: "open" },
+    startsOn: { type: DataTypes.DATEONLY, allowNull: true },
+    createdAt: DataTypes.DATE,
+    updatedAt: DataTypes.DATE,
+  },
+  { sequelize, tableName: "jobs", underscored: true },
+);
+
+Job.belongsTo(Site, { foreignKey: "siteId", as: "site" });
+Site.hasMany(Job, { foreignKey: "siteId", as: "jobs" });
+
+export type JobInput = {
+  siteId: number;
+  workOrder: string;
+  title: string;
+  description: string;
+  status: JobStatus;
+  startsOn: string | null;
+};
+
+export async function listJobs(organisationId: number, options: { siteId?: number } = {}) {
+  return Job.findAll({
+    where: { organisationId, ...(options.siteId ? { siteId: options.siteId } : {}) },
+    include: [{ model: Site, as: "site" }],
+    order: [["status", "DESC"], ["startsOn", "ASC"], ["workOrder", "ASC"]],
+  });
+}
+
+export async function getJob(organisationId: number, jobId: number) {
+  return Job.findOne({ where: { organisationId, id: jobId }, include: [{ model: Site, as: "site" }] });
+}
+
+export async function isWorkOrderTaken(organisationId: number, workOrder: string, exceptJobId?: number) {
+  const job = await Job.findOne({ where: { organisationId, workOrder } });
+  return !!job && job.id !== exceptJobId;
+}
+
+export async function createJob(organisationId: number, input: JobInput, actorId: number) {
+  return sequelize.transaction(async (transaction) => {
+    const job = await Job.create({ organisationId, ...input }, { transaction });
+    await recordAudit({ organisationId, userId: actorId, entity: "job", entityId: job.id, action: "created" }, transaction);
+    return job;
+  });
+}
+
+export async function updateJob(organisationId: number, jobId: number, input: JobInput, actorId: number) {
+  return sequelize.transaction(async (transaction) => {
+    const [count] = await Job.update(input, { where: { organisationId, id: jobId }, transaction });
+    if (count) await recordAudit({ organisationId, userId: actorId, entity: "job", entityId: jobId, action: "updated" }, transaction);
+    return count === 1;
+  });
+}

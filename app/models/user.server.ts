@@ -1,0 +1,229 @@
+import bcrypt from "bcryptjs";
+import {
+  DataTypes,
+  Model,
+  Op,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type NonAttribute,
+} from "sequelize";
+import { sequelize } from "~/db.server";
+import { recordAudit } from "~/models/audit-event.server";
+import { Organisation } from "~/models/organisation.server";
+import { ROLES, type Role } from "~/roles";
+
+export type Units = "metric" | "imperial";
+
+export class User extends Model<InferAttributes<User>, InferCreationAttributes<User>> {
+  declare id: CreationOptional<number>;
+  declare organisationId: number;
+  declare email: string;
+  declare name: string;
+  declare passwordHash: string | null;
+  declare units: CreationOptional<Units>;
+  declare active: CreationOptional<boolean>;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+  declare userRoles?: NonAttribute<UserRole[]>;
+  declare organisation?: NonAttribute<Organisation>;
+}
+
+export class UserRole extends Model<InferAttributes<UserRole>, InferCreationAttributes<UserRole>> {
+  declare userId: number;
+  declare role: Role;
+}
+
+User.init(
+  {
+    id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+    organisationId: { type: DataTypes.INTEGER, allowNull: false },
+    email: { type: DataTypes.STRING(320), allowNull: false, unique: true },
+    name: { type: DataTypes.STRING(200), allowNull: false },
+    passwordHash: { type: DataTypes.STRING(100), allowNull: true },
+    units: { type: DataTypes.STRING(10), allowNull: false, defaultValue: "metric" },
+    active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
+    createdAt: DataTypes.DATE,
+    updatedAt: DataTypes.DATE,
+  },
+  { sequelize, tableName: "users", underscored: true },
+);
+
+UserRole.init(
+  {
+    userId: { type: DataTypes.INTEGER, primaryKey: true },
+    role: { type: DataTypes.STRING(20), primaryKey: true },
+  },
+  { sequelize, tableName: "user_roles", underscored: true, timestamps: false },
+);
+
+User.hasMany(UserRole, { foreignKey: "userId", as: "userRoles" });
+UserRole.belongsTo(User, { foreignKey: "userId" });
+User.belongsTo(Organisation, { foreignKey: "organisationId", as: "organisation" });
+Organisation.hasMany(User, { foreignKey: "organisationId" });
+
+/** What the rest of the app knows of a signed-in user. */
+export type SessionUser = {
+  id: number;
+  organisationId: number;
+  organisationName: string;
+  email: string;
+  name: string;
+  units: Units;
+  roles: Role[];
+};
+
+const BCRYPT_ROUNDS = 10;
+let dummyHash: string | undefined;
+
+export function normaliseEmail(email: string) {
+  return email.trim().toLowerCase();
+}
+
+export async function hashPassword(password: string) {
+  return bcrypt.hash(password, BCRYPT_ROUNDS);
+}
+
+function toSessionUser(user: User): SessionUser {
+  const order = (r: Role) => ROLES.indexOf(r);
+  return {
+    id: user.id,
+    organisationId: user.organisationId,
+    organisationName: user.organisation?.name ?? "",
+    email: user.email,
+    name: user.name,
+    units: user.units,
+    roles: (user.userRoles ?? []).map((r) => r.role).sort((a, b) => order(a) - order(b)),
+  };
+}
+
+const withRolesAndOrganisation = [
+  { model: UserRole, as: "userRoles" },
+  { model: Organisation, as: "organisation" },
+];
+
+/** The active user with this id, or null (a deactivated user has no session). */
+export async function getActiveSessionUser(userId: number): Promise<SessionUser | null> {
+  const user = await User.findOne({ where: { id: userId, active: true }, include: withRolesAndOrganisation });
+  return user ? toSessionUser(user) : null;
+}
+
+/** Checks an e-mail and password; null when they do not match an active user with a password. */
+export async function verifyLogin(email: string, password: string): Promise<SessionUser | null> {
+  const user = await User.findOne({ where: { email: normaliseEmail(email) }, include: withRolesAndOrganisation });
+  // Compare against a dummy hash when there is no user, so the reply takes as long either way.
+  const hash = user?.passwordHash ?? (dummyHash ??= await hashPassword("no such user"));
+  const matches = await bcrypt.compare(password, hash);
+  if (!user || !user.active || !user.passwordHash || !matches) return null;
+  return toSessionUser(user);
+}
+
+export async function verifyPassword(userId: number, password: string): Promise<boolean> {
+  const user = await User.findByPk(userId);
+  if (!user?.passwordHash || !user.active) return false;
+  return bcrypt.compare(password, user.passwordHash);
+}
+
+export async function setPassword(userId: number, password: string) {
+  await User.update({ passwordHash: await hashPassword(password) }, { where: { id: userId } });
+}
+
+export async function setUnits(userId: number, units: Units) {
+  await User.update({ units }, { where: { id: userId } });
+}
+
+export type UserRow = {
+  id: number;
+  name: string;
+  email: string;
+  roles: Role[];
+  active: boolean;
+  hasPassword: boolean;
+  createdAt: string;
+};
+
+export async function listOrganisationUsers(organisationId: number): Promise<UserRow[]> {
+  const users = await User.findAll({
+    where: { organisationId },
+    include: [{ model: UserRole, as: "userRoles" }],
+    order: [["active", "DESC"], ["name", "ASC"]],
+  });
+  return users.map((u) => ({
+    id: u.id,
+    name: u.name,
+    email: u.email,
+    roles: toSessionUser(u).roles,
+    active: u.active,
+    hasPassword: !!u.passwordHash,
+    createdAt: u.createdAt.toISOString(),
+  }));
+}
+
+export async function findUserByEmail(email: string) {
+  return User.findOne({ where: { email: normaliseEmail(email) } });
+}
+
+export async function getOrganisationUser(organisationId: number, userId: number) {
+  return User.findOne({ where: { id: userId, organisationId }, include: [{ model: UserRole, as: "userRoles" }] });
+}
+
+/** The active users of an organisation holding `role`, e.g. to notify every appointed person. */
+export async function listUsersWithRole(organisationId: number, role: Role) {
+  return User.findAll({
+    where: { organisationId, active: true },
+    include: [{ model: UserRole, as: "userRoles", where: { role }, required: true }],
+    order: [["name", "ASC"]],
+  });
+}
+
+export async function createUser(
+  input: { organisationId: number; email: string; name: string; roles: Role[]; password?: string },
+  actorId: number | null,
+) {
+  return sequelize.transaction(async (transaction) => {
+    const user = await User.create(
+      {
+        organisationId: input.organisationId,
+        email: normaliseEmail(input.email),
+        name: input.name.trim(),
+        passwordHash: input.password ? await hashPassword(input.password) : null,
+      },
+      { transaction },
+    );
+    await UserRole.bulkCreate(
+      [...new Set(input.roles)].map((role) => ({ userId: user.id, role })),
+      { transaction },
+    );
+    await recordAudit(
+      { organisationId: input.organisationId, userId: actorId, entity: "user", entityId: user.id, action: "created", details: { roles: input.roles } },
+      transaction,
+    );
+    return user;
+  });
+}
+
+export async function updateUserRoles(organisationId: number, userId: number, roles: Role[], actorId: number) {
+  await sequelize.transaction(async (transaction) => {
+    await UserRole.destroy({ where: { userId }, transaction });
+    await UserRole.bulkCreate([...new Set(roles)].map((role) => ({ userId, role })), { transaction });
+    await recordAudit({ organisationId, userId: actorId, entity: "user", entityId: userId, action: "roles changed", details: { roles } }, transaction);
+  });
+}
+
+export async function setUserActive(organisationId: number, userId: number, active: boolean, actorId: number) {
+  await sequelize.transaction(async (transaction) => {
+    await User.update({ active }, { where: { id: userId, organisationId }, transaction });
+    await recordAudit(
+      { organisationId, userId: actorId, entity: "user", entityId: userId, action: active ? "reactivated" : "deactivated" },
+      transaction,
+    );
+  });
+}
+
+/** How many active admins an organisation has besides `exceptUserId` (an organisation never loses its last admin). */
+export async function countOtherActiveAdmins(organisationId: number, exceptUserId: number) {
+  return User.count({
+    where: { organisationId, active: true, id: { [Op.ne]: exceptUserId } },
+    include: [{ model: UserRole, as: "userRoles", where: { role: "admin" }, required: true }],
+  });
+}

@@ -1,0 +1,75 @@
+import "@fontsource/barlow/400.css";
+import "@fontsource/barlow/500.css";
+import "@fontsource/barlow/600.css";
+import "@fontsource/barlow/700.css";
+import "./app.css";
+import { useEffect } from "react";
+import { data, isRouteErrorResponse, Links, Meta, Outlet, Scripts, ScrollRestoration, useRouteLoaderData } from "react-router";
+import type { Route } from "./+types/root";
+import { AppShell } from "~/components/app-shell";
+import { readFlash, getUser } from "~/session.server";
+
+export const meta: Route.MetaFunction = () => [{ title: "Plumbline" }];
+
+export async function loader({ request }: Route.LoaderArgs) {
+  const user = await getUser(request);
+  const flash = await readFlash(request);
+  return data({ user, flash: flash.message }, flash.setCookie ? { headers: { "Set-Cookie": flash.setCookie } } : undefined);
+}
+
+export function Layout({ children }: { children: React.ReactNode }) {
+  const rootData = useRouteLoaderData<typeof loader>("root");
+  useEffect(() => {
+    document.documentElement.dataset.hydrated = "true";
+  }, []);
+  return (
+    <html lang="en-GB">
+      <head>
+        <meta charSet="utf-8" />
+        <meta name="viewport" content="width=device-width, initial-scale=1" />
+        <Meta />
+        <Links />
+      </head>
+      <body className="min-h-screen">
+        <AppShell user={rootData?.user ?? null} flash={rootData?.flash ?? null}>
+          {children}
+        </AppShell>
+        <ScrollRestoration />
+        <Scripts />
+      </body>
+    </html>
+  );
+}
+
+export default function App() {
+  return <Outlet />;
+}
+
+export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
+  let title = "Something went wrong";
+  let detail = "The page could not be shown. Try again; if it keeps happening, tell your admin what you were doing.";
+  if (isRouteErrorResponse(error)) {
+    const message = typeof error.data === "object" && error.data && "message" in error.data ? String(error.data.message) : null;
+    if (error.status === 403) {
+      title = "Not for your role";
+      detail = message ?? "Your roles do not include this page.";
+    } else if (error.status === 404) {
+      title = "Not found";
+      detail = message ?? "There is nothing at this address in your organisation.";
+    } else {
+      title = `${error.status} ${error.statusText}`;
+      detail = message ?? (typeof error.data === "string" ? error.data : detail);
+    }
+  } else if (import.meta.env.DEV && error instanceof Error) {
+    detail = error.message;
+  }
+  return (
+    <section className="mx-auto max-w-xl py-12" role="alert">
+      <h1>{title}</h1>
+      <p className="mt-3 text-ink-soft">{detail}</p>
+      <p className="mt-6">
+        <a href="/">Back to the dashboard</a>
+      </p>
+    </section>
+  );
+}

@@ -1,0 +1,33 @@
+import { index, prefix, route, type RouteConfig } from "@react-router/dev/routes";
+
+export default [
+  index("routes/_index.tsx"),
+  route("login", "routes/login.tsx"),
+  route("logout", "routes/logout.tsx"),
+  route("forgot-password", "routes/forgot-password.tsx"),
+  route("set-password/:token", "routes/set-password.$token.tsx"),
+  route("settings", "routes/settings.tsx"),
+
+  ...prefix("sites", [
+    index("routes/sites._index.tsx"),
+    route("new", "routes/sites.new.tsx"),
+    route(":siteId", "routes/sites.$siteId.tsx"),
+  ]),
+  ...prefix("jobs", [
+    index("routes/jobs._index.tsx"),
+    route("new", "routes/jobs.new.tsx"),
+    route(":jobId", "routes/jobs.$jobId.tsx"),
+    route(":jobId/edit", "routes/jobs.$jobId.edit.tsx"),
+  ]),
+
+  ...prefix("admin", [
+    index("routes/admin._index.tsx"),
+    route("users/new", "routes/admin.users.new.tsx"),
+    route("users/:userId", "routes/admin.users.$userId.tsx"),
+    route("settings", "routes/admin.settings.tsx"),
+    route("outbox", "routes/admin.outbox.tsx"),
+    route("outbox/:mailId", "routes/admin.outbox.$mailId.tsx"),
+  ]),
+
+  ...prefix("api", [route("ping", "routes/api.ping.ts")]),
+] satisfies RouteConfig;

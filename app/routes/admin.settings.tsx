@@ -1,0 +1,67 @@
+import { data, Form, redirect } from "react-router";
+import { z } from "zod";
+import type { Route } from "./+types/admin.settings";
+import { Button, Card, Field, PageHeader } from "~/components/ui/form";
+import { parseForm, requiredText } from "~/forms";
+import { recordAudit } from "~/models/audit-event.server";
+import { getOrganisation, updateOrganisationSettings } from "~/models/organisation.server";
+import { flashNotice, requireUserWithRole } from "~/session.server";
+
+const schema = z.object({
+  name: requiredText("organisation's name", 200),
+  allowSelfApproval: z.preprocess((v) => v === "on", z.boolean()),
+});
+
+export const meta: Route.MetaFunction = () => [{ title: "Organisation settings · Plumbline" }];
+
+export async function loader({ request }: Route.LoaderArgs) {
+  const admin = await requireUserWithRole(request, "admin");
+  const organisation = await getOrganisation(admin.organisationId);
+  if (!organisation) throw data({ message: "Your organisation was not found." }, { status: 404 });
+  return { name: organisation.name, allowSelfApproval: organisation.allowSelfApproval };
+}
+
+export async function action({ request }: Route.ActionArgs) {
+  const admin = await requireUserWithRole(request, "admin");
+  const form = parseForm(schema, await request.formData());
+  if (!form.ok) return data({ errors: form.errors }, { status: 400 });
+  await updateOrganisationSettings(admin.organisationId, form.data);
+  await recordAudit({
+    organisationId: admin.organisationId,
+    userId: admin.id,
+    entity: "organisation",
+    entityId: admin.organisationId,
+    action: "settings changed",
+    details: form.data,
+  });
+  throw redirect("/admin/settings", { headers: { "Set-Cookie": await flashNotice(request, "Settings saved.") } });
+}
+
+export default function OrganisationSettings({ loaderData, actionData }: Route.ComponentProps) {
+  const errors: Record<string, string[] | undefined> = actionData?.errors ?? {};
+  return (
+    <>
+      <PageHeader title="Organisation settings">
+        <a href="/admin" className="px-2 py-2 text-sm">
+          Users
+        </a>
+      </PageHeader>
+      <Card className="max-w-xl">
+        <Form method="post" className="space-y-4">
+          <Field label="Organisation name" name="name" defaultValue={loaderData.name} required errors={errors.name} />
+          <label className="flex items-start gap-2 text-sm">
+            <input type="checkbox" name="allowSelfApproval" defaultChecked={loaderData.allowSelfApproval} className="mt-1" />
+            <span>
+              <span className="font-semibold">Allow an appointed person to approve a plan they planned themselves</span>
+              <span className="block text-ink-soft">
+                Only for one-person firms. Each plan approved this way says so on its printed copy. Leave it off where a
+                second competent person can check the plan.
+              </span>
+            </span>
+          </label>
+          <Button type="submit">Save settings</Button>
+        </Form>
+      </Card>
+    </>
+  );
+}

@@ -1,0 +1,59 @@
+import { data, Form, redirect } from "react-router";
+import { z } from "zod";
+import type { Route } from "./+types/admin.users.new";
+import { sendInvitation } from "~/account-mail.server";
+import { RoleCheckboxes } from "~/components/role-checkboxes";
+import { Button, Card, Field, PageHeader } from "~/components/ui/form";
+import { parseForm, requiredText } from "~/forms";
+import { createUser, findUserByEmail } from "~/models/user.server";
+import { ROLES } from "~/roles";
+import { flashNotice, requireUserWithRole } from "~/session.server";
+
+const schema = z.object({
+  name: requiredText("name", 200),
+  email: z.string({ error: "Enter an e-mail address." }).trim().toLowerCase().email("Enter a valid e-mail address.").max(320),
+  roles: z.array(z.enum(ROLES)).min(1, "Give the user at least one role."),
+});
+
+export const meta: Route.MetaFunction = () => [{ title: "Add a user · Plumbline" }];
+
+export async function loader({ request }: Route.LoaderArgs) {
+  await requireUserWithRole(request, "admin");
+  return null;
+}
+
+export async function action({ request }: Route.ActionArgs) {
+  const admin = await requireUserWithRole(request, "admin");
+  const form = parseForm(schema, await request.formData(), ["roles"]);
+  if (!form.ok) return data({ errors: form.errors }, { status: 400 });
+  if (await findUserByEmail(form.data.email)) {
+    return data({ errors: { email: ["That e-mail address already has an account."] } as Record<string, string[]> }, { status: 400 });
+  }
+  const user = await createUser({ organisationId: admin.organisationId, ...form.data }, admin.id);
+  await sendInvitation(user, admin.name, admin.organisationName, request);
+  throw redirect("/admin", {
+    headers: { "Set-Cookie": await flashNotice(request, `${user.name} is added; an invitation to set a password went to ${user.email}.`) },
+  });
+}
+
+export default function NewUser({ actionData }: Route.ComponentProps) {
+  const errors: Record<string, string[] | undefined> = actionData?.errors ?? {};
+  return (
+    <>
+      <PageHeader title="Add a user" lead="They get an e-mail with a single-use link (valid 72 hours) to choose their password." />
+      <Card className="max-w-xl">
+        <Form method="post" className="space-y-4">
+          <Field label="Name" name="name" required autoComplete="off" errors={errors.name} />
+          <Field label="E-mail" name="email" type="email" required autoComplete="off" errors={errors.email} />
+          <RoleCheckboxes selected={[]} errors={errors.roles} />
+          <div className="flex gap-2">
+            <Button type="submit">Add and send invitation</Button>
+            <a href="/admin" className="px-4 py-2 text-sm">
+              Cancel
+            </a>
+          </div>
+        </Form>
+      </Card>
+    </>
+  );
+}

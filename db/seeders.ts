@@ -1,0 +1,16 @@
+import type { Sequelize } from "sequelize";
+import { SequelizeStorage, Umzug } from "umzug";
+import * as demoScenario from "./seeders/0001-demo-scenario";
+
+type Seeder = { up: () => Promise<void> };
+
+/** Seeders of the invented demo scenario; never run in production. Each runs once (recorded in SequelizeData). */
+export const demoSeeders: Array<[name: string, module: Seeder]> = [["0001-demo-scenario", demoScenario]];
+
+export function createDemoSeeder(sequelize: Sequelize) {
+  return new Umzug({
+    migrations: demoSeeders.map(([name, module]) => ({ name, up: () => module.up() })),
+    storage: new SequelizeStorage({ sequelize, modelName: "SequelizeData" }),
+    logger: undefined,
+  });
+}
