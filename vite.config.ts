@@ -8,10 +8,28 @@ export default defineConfig({
   resolve: { tsconfigPaths: true },
   server: { watch: { ignored: ["**/data/**", "**/build/**", "**/test-results/**"] } },
   test: {
-    include: ["app/**/*.test.ts", "app/**/*.test.tsx", "db/**/*.test.ts", "tests/integration/**/*.test.ts"],
-    environment: "node",
     pool: "forks",
-    globalSetup: [],
     testTimeout: 20000,
+    projects: [
+      {
+        extends: true,
+        test: {
+          name: "unit",
+          include: ["app/**/*.test.ts", "db/**/*.test.ts", "tests/integration/**/*.test.ts"],
+          setupFiles: ["tests/support/database.ts"],
+        },
+      },
+      {
+        extends: true,
+        test: {
+          name: "e2e",
+          include: ["tests/e2e/**/*.e2e.ts"],
+          globalSetup: ["tests/e2e/global-setup.ts"],
+          testTimeout: 60000,
+          hookTimeout: 120000,
+          fileParallelism: false,
+        },
+      },
+    ],
   },
 });

@@ -18,8 +18,9 @@ const envSchema = z.object({
 
 export type AppEnvironment = "production" | "demo" | "development" | "test";
 
-function readEnv() {
-  const parsed = envSchema.safeParse(process.env);
+/** Reads and checks the configuration; throws a readable error when it is not fit to run on. */
+export function parseEnvironment(source: Record<string, string | undefined>) {
+  const parsed = envSchema.safeParse(source);
   if (!parsed.success) {
     const lines = parsed.error.issues.map((i) => `  ${i.path.join(".")}: ${i.message}`);
     throw new Error(`Plumbline cannot start: the environment is not valid.\n${lines.join("\n")}`);
@@ -27,7 +28,7 @@ function readEnv() {
   const raw = parsed.data;
   const appEnv: AppEnvironment =
     raw.PLUMBLINE_ENV ??
-    (raw.NODE_ENV === "production" ? "production" : raw.NODE_ENV === "test" || process.env.VITEST ? "test" : "development");
+    (raw.NODE_ENV === "production" ? "production" : raw.NODE_ENV === "test" || source.VITEST ? "test" : "development");
 
   const secrets = (raw.SESSION_SECRET ?? DEV_SESSION_SECRET).split(",").map((s) => s.trim()).filter(Boolean);
   if (appEnv === "production") {
@@ -52,4 +53,4 @@ function readEnv() {
   };
 }
 
-export const env = readEnv();
+export const env = parseEnvironment(process.env);

@@ -9,6 +9,7 @@ import {
   type NonAttribute,
 } from "sequelize";
 import { sequelize } from "~/db.server";
+import { env } from "~/env.server";
 import { recordAudit } from "~/models/audit-event.server";
 import { Organisation } from "~/models/organisation.server";
 import { ROLES, type Role } from "~/roles";
@@ -73,7 +74,8 @@ export type SessionUser = {
   roles: Role[];
 };
 
-const BCRYPT_ROUNDS = 10;
+// Tests use cheap hashes; everywhere else 10 rounds.
+const BCRYPT_ROUNDS = env.appEnv === "test" ? 4 : 10;
 let dummyHash: string | undefined;
 
 export function normaliseEmail(email: string) {

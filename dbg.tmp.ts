@@ -1,0 +1,12 @@
+import { solveGivenLengths, solveLevel } from "./app/statics/bridle";
+import { distance } from "./app/statics/vector";
+const c = {"load":{"massKg":1,"cog":{"x":0,"y":0,"z":0}},"points":[{"id":"A","position":{"x":0.2,"y":1.876502161990421e-9,"z":0.6365012934631439},"axis":{"x":0,"y":0,"z":1}},{"id":"B","position":{"x":1.2246467991473533e-17,"y":0.2,"z":1.144284634727567},"axis":{"x":0,"y":0,"z":1}},{"id":"C","position":{"x":-0.37900990005468355,"y":4.6415326094712646e-17,"z":0.3},"axis":{"x":0,"y":0,"z":1}},{"id":"D","position":{"x":-3.6739403974420595e-17,"y":-0.2,"z":0.3},"axis":{"x":0,"y":0,"z":1}}],"hookZ":1.444284634727567};
+const l = solveLevel(c.load, c.points, c.hookZ);
+if (!l.ok) throw 0;
+console.log(l.solution.legs.map(x=>[x.tensionKg, x.slack]));
+const lengths = l.solution.legs.map(x=>x.lengthM);
+const far = Math.max(...c.points.map((p) => distance(p.position, c.points[3]!.position)));
+lengths[3] = Math.max(...lengths) + far + 1;
+const r = solveGivenLengths(c.load, c.points, lengths);
+if (!r.ok) throw 0;
+console.log(r.solution.method, r.solution.tiltDeg, r.solution.hook, r.solution.legs.map(x=>[x.tensionKg, x.slack, distance(r.solution.hook, c.points.find(p=>p.id===x.liftPointId)!.position) - x.lengthM]));
