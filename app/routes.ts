@@ -20,6 +20,13 @@ export default [
     route(":jobId/edit", "routes/jobs.$jobId.edit.tsx"),
   ]),
 
+  ...prefix("components", [
+    index("routes/components._index.tsx"),
+    route("new", "routes/components.new.tsx"),
+    route(":componentId", "routes/components.$componentId.tsx"),
+    route(":componentId/edit", "routes/components.$componentId.edit.tsx"),
+  ]),
+
   ...prefix("admin", [
     index("routes/admin._index.tsx"),
     route("users/new", "routes/admin.users.new.tsx"),

@@ -1,11 +1,15 @@
 import type { Sequelize } from "sequelize";
 import { SequelizeStorage, Umzug } from "umzug";
 import * as demoScenario from "./seeders/0001-demo-scenario";
+import * as demoComponents from "./seeders/0003-demo-components";
 
 type Seeder = { up: () => Promise<void> };
 
 /** Seeders of the invented demo scenario; never run in production. Each runs once (recorded in SequelizeData). */
-export const demoSeeders: Array<[name: string, module: Seeder]> = [["0001-demo-scenario", demoScenario]];
+export const demoSeeders: Array<[name: string, module: Seeder]> = [
+  ["0001-demo-scenario", demoScenario],
+  ["0003-demo-components", demoComponents],
+];
 
 export function createDemoSeeder(sequelize: Sequelize) {
   return new Umzug({

@@ -2,6 +2,7 @@ import type { QueryInterface, Sequelize } from "sequelize";
 import { SequelizeStorage, Umzug } from "umzug";
 import * as organisationsAndUsers from "./migrations/0001-organisations-and-users";
 import * as sitesAndJobs from "./migrations/0002-sites-and-jobs";
+import * as components from "./migrations/0003-components";
 
 export type Migration = (params: { context: QueryInterface }) => Promise<void>;
 type MigrationModule = { up: Migration; down: Migration };
@@ -13,6 +14,7 @@ type MigrationModule = { up: Migration; down: Migration };
 export const migrations: Array<[name: string, module: MigrationModule]> = [
   ["0001-organisations-and-users", organisationsAndUsers],
   ["0002-sites-and-jobs", sitesAndJobs],
+  ["0003-components", components],
 ];
 
 /** The umzug runner over `sequelize`, recording applied migrations in SequelizeMeta. */

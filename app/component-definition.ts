@@ -1,0 +1,79 @@
+import { z } from "zod";
+
+/** Where a mass figure came from, most to least trustworthy. */
+export const MASS_SOURCES = ["weighed", "certified", "calculated", "estimated"] as const;
+export type MassSource = (typeof MASS_SOURCES)[number];
+
+export const MASS_SOURCE_LABELS: Record<MassSource, string> = {
+  weighed: "Weighed (load cell or crane scale)",
+  certified: "Nameplate or manufacturer's certificate",
+  calculated: "Calculated from drawings",
+  estimated: "Estimated",
+};
+
+/**
+ * Default contingency on the mass by its source, in percent (common practice, a judgement
+ * rather than a published table: the less certain the figure, the larger the allowance).
+ */
+export const DEFAULT_CONTINGENCY_PCT: Record<MassSource, number> = { weighed: 0, certified: 3, calculated: 10, estimated: 20 };
+
+export const COG_SOURCES = ["measured", "manufacturer", "calculated", "estimated"] as const;
+export type CogSource = (typeof COG_SOURCES)[number];
+
+export const COG_SOURCE_LABELS: Record<CogSource, string> = {
+  measured: "Measured (trial lift or weighing at points)",
+  manufacturer: "Manufacturer's drawing or data",
+  calculated: "Calculated from parts",
+  estimated: "Estimated",
+};
+
+const finite = z.number().finite();
+const point2 = z.tuple([finite, finite]);
+const vec3 = z.object({ x: finite, y: finite, z: finite });
+
+/** A component as the statics and the plans see it: SI units (kg, m), component frame with z up. */
+export const componentDefinitionSchema = z.object({
+  name: z.string(),
+  description: z.string(),
+  massKg: finite.positive(),
+  massSource: z.enum(MASS_SOURCES),
+  massNote: z.string(),
+  contingencyPct: finite.min(0),
+  lengthM: finite.positive(),
+  widthM: finite.positive(),
+  heightM: finite.positive(),
+  cog: vec3,
+  cogSource: z.enum(COG_SOURCES),
+  cogNote: z.string(),
+  outlineElevation: z.array(point2),
+  outlinePlan: z.array(point2),
+  liftPoints: z.array(
+    z.object({
+      label: z.string(),
+      position: vec3,
+      axis: vec3,
+      thread: z.string(),
+      engagementMm: finite.nullable(),
+    }),
+  ),
+  parts: z.array(z.object({ name: z.string(), massKg: finite, position: vec3 })),
+});
+
+export type ComponentDefinition = z.infer<typeof componentDefinitionSchema>;
+
+/** The default outlines: a box of the overall dimensions, centred on x and y, standing on z = 0. */
+export function rectangleOutlines(lengthM: number, widthM: number, heightM: number) {
+  const hl = lengthM / 2;
+  const hw = widthM / 2;
+  return {
+    outlineElevation: [[-hl, 0], [hl, 0], [hl, heightM], [-hl, heightM]] as Array<[number, number]>,
+    outlinePlan: [[-hl, -hw], [hl, -hw], [hl, hw], [-hl, hw]] as Array<[number, number]>,
+  };
+}
+
+/** The extents of a polygon: [min a, max a, min b, max b]. */
+export function polygonBounds(points: ReadonlyArray<readonly [number, number]>) {
+  const as = points.map((p) => p[0]);
+  const bs = points.map((p) => p[1]);
+  return { minA: Math.min(...as), maxA: Math.max(...as), minB: Math.min(...bs), maxB: Math.max(...bs) };
+}

@@ -1,0 +1,274 @@
+import {
+  DataTypes,
+  Model,
+  Op,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type NonAttribute,
+} from "sequelize";
+import type { ComponentDefinition, CogSource, MassSource } from "~/component-definition";
+import { sequelize } from "~/db.server";
+import { recordAudit } from "~/models/audit-event.server";
+
+export class Component extends Model<InferAttributes<Component>, InferCreationAttributes<Component>> {
+  declare id: CreationOptional<number>;
+  declare organisationId: number;
+  declare name: string;
+  declare description: string;
+  declare massKg: number;
+  declare massSource: MassSource;
+  declare massNote: string;
+  declare contingencyPct: number;
+  declare lengthM: number;
+  declare widthM: number;
+  declare heightM: number;
+  declare cogXM: number;
+  declare cogYM: number;
+  declare cogZM: number;
+  declare cogSource: CogSource;
+  declare cogNote: string;
+  declare outlineElevation: string;
+  declare outlinePlan: string;
+  declare version: CreationOptional<number>;
+  declare archivedAt: Date | null;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+  declare liftPoints?: NonAttribute<ComponentLiftPoint[]>;
+  declare parts?: NonAttribute<ComponentPart[]>;
+}
+
+export class ComponentLiftPoint extends Model<InferAttributes<ComponentLiftPoint>, InferCreationAttributes<ComponentLiftPoint>> {
+  declare id: CreationOptional<number>;
+  declare componentId: number;
+  declare position: number;
+  declare label: string;
+  declare xM: number;
+  declare yM: number;
+  declare zM: number;
+  declare axisX: number;
+  declare axisY: number;
+  declare axisZ: number;
+  declare thread: string;
+  declare engagementMm: number | null;
+}
+
+export class ComponentPart extends Model<InferAttributes<ComponentPart>, InferCreationAttributes<ComponentPart>> {
+  declare id: CreationOptional<number>;
+  declare componentId: number;
+  declare position: number;
+  declare name: string;
+  declare massKg: number;
+  declare xM: number;
+  declare yM: number;
+  declare zM: number;
+}
+
+const double = (allowNull = false) => ({ type: DataTypes.DOUBLE, allowNull });
+
+Component.init(
+  {
+    id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+    organisationId: { type: DataTypes.INTEGER, allowNull: false },
+    name: { type: DataTypes.STRING(200), allowNull: false },
+    description: { type: DataTypes.TEXT, allowNull: false },
+    massKg: double(),
+    massSource: { type: DataTypes.STRING(20), allowNull: false },
+    massNote: { type: DataTypes.STRING(500), allowNull: false },
+    contingencyPct: double(),
+    lengthM: double(),
+    widthM: double(),
+    heightM: double(),
+    cogXM: { ...double(), field: "cog_x_m" },
+    cogYM: { ...double(), field: "cog_y_m" },
+    cogZM: { ...double(), field: "cog_z_m" },
+    cogSource: { type: DataTypes.STRING(20), allowNull: false },
+    cogNote: { type: DataTypes.STRING(500), allowNull: false },
+    outlineElevation: { type: DataTypes.TEXT, allowNull: false },
+    outlinePlan: { type: DataTypes.TEXT, allowNull: false },
+    version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
+    archivedAt: { type: DataTypes.DATE, allowNull: true },
+    createdAt: DataTypes.DATE,
+    updatedAt: DataTypes.DATE,
+  },
+  { sequelize, tableName: "components", underscored: true },
+);
+
+ComponentLiftPoint.init(
+  {
+    id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+    componentId: { type: DataTypes.INTEGER, allowNull: false },
+    position: { type: DataTypes.INTEGER, allowNull: false },
+    label: { type: DataTypes.STRING(10), allowNull: false },
+    xM: { ...double(), field: "x_m" },
+    yM: { ...double(), field: "y_m" },
+    zM: { ...double(), field: "z_m" },
+    axisX: double(),
+    axisY: double(),
+    axisZ: double(),
+    thread: { type: DataTypes.STRING(20), allowNull: false },
+    engagementMm: double(true),
+  },
+  { sequelize, tableName: "component_lift_points", underscored: true, timestamps: false },
+);
+
+ComponentPart.init(
+  {
+    id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+    componentId: { type: DataTypes.INTEGER, allowNull: false },
+    position: { type: DataTypes.INTEGER, allowNull: false },
+    name: { type: DataTypes.STRING(200), allowNull: false },
+    massKg: double(),
+    xM: { ...double(), field: "x_m" },
+    yM: { ...double(), field: "y_m" },
+    zM: { ...double(), field: "z_m" },
+  },
+  { sequelize, tableName: "component_parts", underscored: true, timestamps: false },
+);
+
+Component.hasMany(ComponentLiftPoint, { foreignKey: "componentId", as: "liftPoints" });
+Component.hasMany(ComponentPart, { foreignKey: "componentId", as: "parts" });
+
+/** The component as a plain SI definition (what a plan snapshots). */
+export function toDefinition(component: Component): ComponentDefinition {
+  return {
+    name: component.name,
+    description: component.description,
+    massKg: component.massKg,
+    massSource: component.massSource,
+    massNote: component.massNote,
+    contingencyPct: component.contingencyPct,
+    lengthM: component.lengthM,
+    widthM: component.widthM,
+    heightM: component.heightM,
+    cog: { x: component.cogXM, y: component.cogYM, z: component.cogZM },
+    cogSource: component.cogSource,
+    cogNote: component.cogNote,
+    outlineElevation: JSON.parse(component.outlineElevation) as Array<[number, number]>,
+    outlinePlan: JSON.parse(component.outlinePlan) as Array<[number, number]>,
+    liftPoints: [...(component.liftPoints ?? [])]
+      .sort((a, b) => a.position - b.position)
+      .map((p) => ({
+        label: p.label,
+        position: { x: p.xM, y: p.yM, z: p.zM },
+        axis: { x: p.axisX, y: p.axisY, z: p.axisZ },
+        thread: p.thread,
+        engagementMm: p.engagementMm,
+      })),
+    parts: [...(component.parts ?? [])]
+      .sort((a, b) => a.position - b.position)
+      .map((p) => ({ name: p.name, massKg: p.massKg, position: { x: p.xM, y: p.yM, z: p.zM } })),
+  };
+}
+
+function columns(def: ComponentDefinition) {
+  return {
+    name: def.name,
+    description: def.description,
+    massKg: def.massKg,
+    massSource: def.massSource,
+    massNote: def.massNote,
+    contingencyPct: def.contingencyPct,
+    lengthM: def.lengthM,
+    widthM: def.widthM,
+    heightM: def.heightM,
+    cogXM: def.cog.x,
+    cogYM: def.cog.y,
+    cogZM: def.cog.z,
+    cogSource: def.cogSource,
+    cogNote: def.cogNote,
+    outlineElevation: JSON.stringify(def.outlineElevation),
+    outlinePlan: JSON.stringify(def.outlinePlan),
+  };
+}
+
+const withChildren = [
+  { model: ComponentLiftPoint, as: "liftPoints" },
+  { model: ComponentPart, as: "parts" },
+];
+
+export async function listComponents(organisationId: number, options: { archived?: boolean; query?: string } = {}) {
+  return Component.findAll({
+    where: {
+      organisationId,
+      archivedAt: options.archived ? { [Op.ne]: null } : null,
+      ...(options.query ? { name: { [Op.like]: `%${options.query.replace(/[%_\\]/g, (c) => `\\${c}`)}%` } } : {}),
+    },
+    include: [{ model: ComponentLiftPoint, as: "liftPoints" }],
+    order: [["name", "ASC"]],
+  });
+}
+
+export async function getComponent(organisationId: number, componentId: number) {
+  return Component.findOne({ where: { organisationId, id: componentId }, include: withChildren });
+}
+
+async function writeChildren(componentId: number, def: ComponentDefinition, transaction: import("sequelize").Transaction) {
+  await ComponentLiftPoint.destroy({ where: { componentId }, transaction });
+  await ComponentPart.destroy({ where: { componentId }, transaction });
+  await ComponentLiftPoint.bulkCreate(
+    def.liftPoints.map((p, position) => ({
+      componentId,
+      position,
+      label: p.label,
+      xM: p.position.x,
+      yM: p.position.y,
+      zM: p.position.z,
+      axisX: p.axis.x,
+      axisY: p.axis.y,
+      axisZ: p.axis.z,
+      thread: p.thread,
+      engagementMm: p.engagementMm,
+    })),
+    { transaction },
+  );
+  await ComponentPart.bulkCreate(
+    def.parts.map((p, position) => ({ componentId, position, name: p.name, massKg: p.massKg, xM: p.position.x, yM: p.position.y, zM: p.position.z })),
+    { transaction },
+  );
+}
+
+export async function createComponent(organisationId: number, def: ComponentDefinition, actorId: number) {
+  return sequelize.transaction(async (transaction) => {
+    const component = await Component.create({ organisationId, ...columns(def), archivedAt: null }, { transaction });
+    await writeChildren(component.id, def, transaction);
+    await recordAudit({ organisationId, userId: actorId, entity: "component", entityId: component.id, action: "created" }, transaction);
+    return component;
+  });
+}
+
+/**
+ * Saves a new version of the component when `expectedVersion` is still current; returns the new
+ * version, or null when someone else saved first (nothing is written then).
+ */
+export async function updateComponent(organisationId: number, componentId: number, def: ComponentDefinition, expectedVersion: number, actorId: number) {
+  return sequelize.transaction(async (transaction) => {
+    const [count] = await Component.update(
+      { ...columns(def), version: expectedVersion + 1 },
+      { where: { organisationId, id: componentId, version: expectedVersion }, transaction },
+    );
+    if (count !== 1) return null;
+    await writeChildren(componentId, def, transaction);
+    await recordAudit(
+      { organisationId, userId: actorId, entity: "component", entityId: componentId, action: "updated", details: { version: expectedVersion + 1 } },
+      transaction,
+    );
+    return expectedVersion + 1;
+  });
+}
+
+export async function setComponentArchived(organisationId: number, componentId: number, archived: boolean, actorId: number) {
+  return sequelize.transaction(async (transaction) => {
+    const [count] = await Component.update(
+      { archivedAt: archived ? new Date() : null },
+      { where: { organisationId, id: componentId }, transaction },
+    );
+    if (count) {
+      await recordAudit(
+        { organisationId, userId: actorId, entity: "component", entityId: componentId, action: archived ? "archived" : "restored" },
+        transaction,
+      );
+    }
+    return count === 1;
+  });
+}

@@ -1,0 +1,78 @@
+import { describe, expect, it } from "vitest";
+import * as newComponent from "~/routes/components.new";
+import * as editComponent from "~/routes/components.$componentId.edit";
+import * as componentPage from "~/routes/components.$componentId";
+import * as componentList from "~/routes/components._index";
+import { Component, ComponentLiftPoint, getComponent } from "~/models/component.server";
+import { componentFields } from "../support/component-fields";
+import { callRoute, getRequest, makeUser, postForm } from "../support/factories";
+
+async function plannerWithComponent() {
+  const planner = await makeUser(["planner"]);
+  const res = await callRoute(newComponent.action, await postForm("/components/new", componentFields(), planner));
+  expect(res.status).toBe(302);
+  const id = res.headers.get("Location")!.split("/").pop()!;
+  return { planner, id };
+}
+
+describe("components", () => {
+  it("a planner builds a component with lift points and reads it back in their units", async () => {
+    const { planner, id } = await plannerWithComponent();
+    const page = await callRoute(componentPage.loader, await getRequest(`/components/${id}`, planner), { componentId: id });
+    expect(page.data).toMatchObject({ version: 1, definition: { name: "Test element", massKg: 2000, liftPoints: [{ label: "A" }, { label: "B" }] } });
+  });
+
+  it("bad input changes nothing", async () => {
+    const { planner, id } = await plannerWithComponent();
+    const res = await callRoute(
+      editComponent.action,
+      await postForm(`/components/${id}/edit`, { ...componentFields({ mass: "heavy", "lp-0-label": "" }), version: "1" }, planner),
+      { componentId: id },
+    );
+    expect(res.status).toBe(400);
+    const component = await getComponent(planner.organisationId, Number(id));
+    expect(component?.massKg).toBe(2000);
+    expect(component?.version).toBe(1);
+    expect(await ComponentLiftPoint.count({ where: { componentId: Number(id) } })).toBe(2);
+  });
+
+  it("a stale edit gets 409 and does not overwrite the newer version", async () => {
+    const { planner, id } = await plannerWithComponent();
+    const first = await callRoute(editComponent.action, await postForm(`/components/${id}/edit`, { ...componentFields({ mass: "2100" }), version: "1" }, planner), { componentId: id });
+    expect(first.status).toBe(302);
+    const stale = await callRoute(editComponent.action, await postForm(`/components/${id}/edit`, { ...componentFields({ mass: "9999" }), version: "1" }, planner), { componentId: id });
+    expect(stale.status).toBe(409);
+    const component = await getComponent(planner.organisationId, Number(id));
+    expect(component?.massKg).toBe(2100);
+    expect(component?.version).toBe(2);
+  });
+
+  it("archiving hides a component from the list; restoring brings it back", async () => {
+    const { planner, id } = await plannerWithComponent();
+    await callRoute(componentPage.action, await postForm(`/components/${id}`, { intent: "archive" }, planner), { componentId: id });
+    const list = await callRoute(componentList.loader, await getRequest("/components", planner));
+    expect((list.data as { components: unknown[] }).components).toHaveLength(0);
+    const archived = await callRoute(componentList.loader, await getRequest("/components?archived=1", planner));
+    expect((archived.data as { components: Array<{ id: number }> }).components.map((c) => c.id)).toEqual([Number(id)]);
+    await callRoute(componentPage.action, await postForm(`/components/${id}`, { intent: "restore" }, planner), { componentId: id });
+    expect((await Component.findByPk(Number(id)))?.archivedAt).toBeNull();
+  });
+
+  it("riggers read components but cannot change them", async () => {
+    const { planner, id } = await plannerWithComponent();
+    const rigger = await makeUser(["rigger"], { organisationId: planner.organisationId });
+    expect((await callRoute(componentPage.loader, await getRequest(`/components/${id}`, rigger), { componentId: id })).status).toBe(200);
+    expect((await callRoute(newComponent.action, await postForm("/components/new", componentFields(), rigger))).status).toBe(403);
+    expect((await callRoute(componentPage.action, await postForm(`/components/${id}`, { intent: "archive" }, rigger), { componentId: id })).status).toBe(403);
+    expect((await callRoute(editComponent.loader, await getRequest(`/components/${id}/edit`, rigger), { componentId: id })).status).toBe(403);
+  });
+
+  it("another organisation's component is not found", async () => {
+    const { id } = await plannerWithComponent();
+    const stranger = await makeUser(["planner"]);
+    expect((await callRoute(componentPage.loader, await getRequest(`/components/${id}`, stranger), { componentId: id })).status).toBe(404);
+    const edit = await callRoute(editComponent.action, await postForm(`/components/${id}/edit`, { ...componentFields({ name: "Hijack" }), version: "1" }, stranger), { componentId: id });
+    expect(edit.status).toBe(404);
+    expect((await Component.findByPk(Number(id)))?.name).toBe("Test element");
+  });
+});
