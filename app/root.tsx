@@ -11,6 +11,8 @@ import { readFlash, getUser } from "~/session.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Plumbline" }];
 
+export const links: Route.LinksFunction = () => [{ rel: "icon", href: "/favicon.svg", type: "image/svg+xml" }];
+
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await getUser(request);
   const flash = await readFlash(request);

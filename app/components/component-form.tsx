@@ -176,7 +176,7 @@ export function ComponentForm({
     <Form method="post" className="space-y-6">
       {version !== undefined && <input type="hidden" name="version" value={version} />}
       <FormError message={errors._form?.join(" ")} />
-      <div className="grid gap-6 lg:grid-cols-[1fr_22rem]">
+      <div className="grid gap-6 lg:grid-cols-[minmax(0,1fr)_22rem]">
         <div className="space-y-6">
           <Card title="The component">
             <div className="grid gap-4 sm:grid-cols-2">

@@ -64,7 +64,7 @@ export default function ComponentPage({ loaderData }: Route.ComponentProps) {
           </Form>
         )}
       </PageHeader>
-      <div className="grid gap-6 lg:grid-cols-[1fr_24rem]">
+      <div className="grid gap-6 lg:grid-cols-[minmax(0,1fr)_24rem]">
         <div className="space-y-6">
           <Card title="Load">
             <dl className="grid gap-x-6 gap-y-2 text-sm sm:grid-cols-2">
