@@ -7,6 +7,7 @@ export default [
   route("forgot-password", "routes/forgot-password.tsx"),
   route("set-password/:token", "routes/set-password.$token.tsx"),
   route("settings", "routes/settings.tsx"),
+  route("reference", "routes/reference.tsx"),
 
   ...prefix("sites", [
     index("routes/sites._index.tsx"),
@@ -36,5 +37,5 @@ export default [
     route("outbox/:mailId", "routes/admin.outbox.$mailId.tsx"),
   ]),
 
-  ...prefix("api", [route("ping", "routes/api.ping.ts")]),
+  ...prefix("api", [route("ping", "routes/api.ping.ts"), route("solve", "routes/api.solve.ts")]),
 ] satisfies RouteConfig;

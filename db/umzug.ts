@@ -3,6 +3,8 @@ import { SequelizeStorage, Umzug } from "umzug";
 import * as organisationsAndUsers from "./migrations/0001-organisations-and-users";
 import * as sitesAndJobs from "./migrations/0002-sites-and-jobs";
 import * as components from "./migrations/0003-components";
+import * as gearRegister from "./migrations/0004-gear-register";
+import * as referenceTables from "./migrations/0005-reference-tables";
 
 export type Migration = (params: { context: QueryInterface }) => Promise<void>;
 type MigrationModule = { up: Migration; down: Migration };
@@ -15,6 +17,8 @@ export const migrations: Array<[name: string, module: MigrationModule]> = [
   ["0001-organisations-and-users", organisationsAndUsers],
   ["0002-sites-and-jobs", sitesAndJobs],
   ["0003-components", components],
+  ["0004-gear-register", gearRegister],
+  ["0005-reference-tables", referenceTables],
 ];
 
 /** The umzug runner over `sequelize`, recording applied migrations in SequelizeMeta. */

@@ -73,6 +73,12 @@ export function AppShell({ user, flash, children }: { user: ShellUser | null; fl
       <main className="mx-auto w-full max-w-6xl flex-1 px-4 py-6">{children}</main>
       <footer className="no-print border-t border-rule py-3 text-center text-xs text-ink-soft">
         Plumbline supports, and does not replace, the judgement of the appointed person and your local lifting regulations.
+        {user && (
+          <>
+            {" "}
+            · <a href="/reference">Reference tables and their sources</a>
+          </>
+        )}
       </footer>
     </div>
   );

@@ -1,0 +1,28 @@
+import { DataTypes } from "sequelize";
+import type { Migration } from "../umzug";
+import { REFERENCE_TABLES } from "../seeders/reference-data";
+
+/** The published WLL tables the checks use, one row per table row, each with its source. */
+export const up: Migration = async ({ context: qi }) => {
+  await qi.createTable("reference_rows", {
+    id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+    table_name: { type: DataTypes.STRING(40), allowNull: false },
+    position: { type: DataTypes.INTEGER, allowNull: false },
+    data: { type: DataTypes.TEXT, allowNull: false },
+    source: { type: DataTypes.STRING(500), allowNull: false },
+  });
+  await qi.addIndex("reference_rows", ["table_name", "position"], { unique: true });
+  const rows = Object.entries(REFERENCE_TABLES).flatMap(([tableName, tableRows]) =>
+    (tableRows as ReadonlyArray<{ source: string }>).map((row, position) => ({
+      table_name: tableName,
+      position,
+      data: JSON.stringify(row),
+      source: row.source,
+    })),
+  );
+  await qi.bulkInsert("reference_rows", rows);
+};
+
+export const down: Migration = async ({ context: qi }) => {
+  await qi.dropTable("reference_rows");
+};
