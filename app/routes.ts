@@ -28,6 +28,16 @@ export default [
     route(":componentId/edit", "routes/components.$componentId.edit.tsx"),
   ]),
 
+  ...prefix("gear", [
+    index("routes/gear._index.tsx"),
+    route("new", "routes/gear.new.tsx"),
+    route("import", "routes/gear.import.tsx"),
+    route("export.csv", "routes/gear.export.csv.ts"),
+    route(":itemId", "routes/gear.$itemId.tsx"),
+    route(":itemId/edit", "routes/gear.$itemId.edit.tsx"),
+  ]),
+  route("files/:fileId", "routes/files.$fileId.ts"),
+
   ...prefix("admin", [
     index("routes/admin._index.tsx"),
     route("users/new", "routes/admin.users.new.tsx"),
@@ -37,5 +47,17 @@ export default [
     route("outbox/:mailId", "routes/admin.outbox.$mailId.tsx"),
   ]),
 
-  ...prefix("api", [route("ping", "routes/api.ping.ts"), route("solve", "routes/api.solve.ts")]),
+  ...prefix("plans", [
+    route("new", "routes/plans.new.tsx"),
+    route(":planId", "routes/plans.$planId.tsx"),
+    route(":planId/details", "routes/plans.$planId.details.tsx"),
+  ]),
+
+  ...prefix("api", [
+    route("ping", "routes/api.ping.ts"),
+    route("solve", "routes/api.solve.ts"),
+    route("gear", "routes/api.gear.ts"),
+    route("plans", "routes/api.plans.ts"),
+    route("plans/:planId", "routes/api.plans.$planId.ts"),
+  ]),
 ] satisfies RouteConfig;

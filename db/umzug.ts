@@ -5,6 +5,8 @@ import * as sitesAndJobs from "./migrations/0002-sites-and-jobs";
 import * as components from "./migrations/0003-components";
 import * as gearRegister from "./migrations/0004-gear-register";
 import * as referenceTables from "./migrations/0005-reference-tables";
+import * as plans from "./migrations/0006-plans";
+import * as componentFiles from "./migrations/0007-component-files";
 
 export type Migration = (params: { context: QueryInterface }) => Promise<void>;
 type MigrationModule = { up: Migration; down: Migration };
@@ -19,6 +21,8 @@ export const migrations: Array<[name: string, module: MigrationModule]> = [
   ["0003-components", components],
   ["0004-gear-register", gearRegister],
   ["0005-reference-tables", referenceTables],
+  ["0006-plans", plans],
+  ["0007-component-files", componentFiles],
 ];
 
 /** The umzug runner over `sequelize`, recording applied migrations in SequelizeMeta. */

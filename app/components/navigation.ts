@@ -6,6 +6,7 @@ export type NavItem = { to: string; label: string; roles: Role[] | "all" };
 export const NAV_ITEMS: NavItem[] = [
   { to: "/", label: "Dashboard", roles: "all" },
   { to: "/jobs", label: "Jobs", roles: "all" },
+  { to: "/gear", label: "Gear", roles: "all" },
   { to: "/components", label: "Components", roles: "all" },
   { to: "/sites", label: "Sites", roles: ["admin", "planner"] },
   { to: "/admin", label: "Admin", roles: ["admin"] },

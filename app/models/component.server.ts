@@ -10,6 +10,8 @@ import {
 import type { ComponentDefinition, CogSource, MassSource } from "~/component-definition";
 import { sequelize } from "~/db.server";
 import { recordAudit } from "~/models/audit-event.server";
+import { StoredFile } from "~/models/stored-file.server";
+import { transactionWithFiles, type CheckedUpload } from "~/uploads.server";
 
 export class Component extends Model<InferAttributes<Component>, InferCreationAttributes<Component>> {
   declare id: CreationOptional<number>;
@@ -268,6 +270,66 @@ export async function setComponentArchived(organisationId: number, componentId: 
         { organisationId, userId: actorId, entity: "component", entityId: componentId, action: archived ? "archived" : "restored" },
         transaction,
       );
+    }
+    return count === 1;
+  });
+}
+
+export type ComponentFileKind = "drawing" | "photo";
+
+/** A drawing or photo of a component: a link to a stored file. */
+export class ComponentFile extends Model<InferAttributes<ComponentFile>, InferCreationAttributes<ComponentFile>> {
+  declare id: CreationOptional<number>;
+  declare componentId: number;
+  declare storedFileId: number;
+  declare kind: ComponentFileKind;
+  declare caption: string;
+  declare createdAt: CreationOptional<Date>;
+  declare storedFile?: NonAttribute<StoredFile>;
+}
+
+ComponentFile.init(
+  {
+    id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+    componentId: { type: DataTypes.INTEGER, allowNull: false },
+    storedFileId: { type: DataTypes.INTEGER, allowNull: false },
+    kind: { type: DataTypes.STRING(10), allowNull: false },
+    caption: { type: DataTypes.STRING(200), allowNull: false, defaultValue: "" },
+    createdAt: DataTypes.DATE,
+  },
+  { sequelize, tableName: "component_files", underscored: true, updatedAt: false },
+);
+
+ComponentFile.belongsTo(StoredFile, { foreignKey: "storedFileId", as: "storedFile" });
+
+export async function listComponentFiles(componentId: number) {
+  return ComponentFile.findAll({ where: { componentId }, include: [{ model: StoredFile, as: "storedFile" }], order: [["id", "ASC"]] });
+}
+
+/** Stores a checked upload and links it to the component, in one transaction (bytes removed again on failure). */
+export async function addComponentFile(
+  organisationId: number,
+  componentId: number,
+  upload: CheckedUpload,
+  input: { kind: ComponentFileKind; caption: string },
+  actorId: number,
+) {
+  return transactionWithFiles(async (transaction, store) => {
+    const stored = await store(upload, { organisationId, purpose: input.kind, uploadedBy: actorId });
+    const link = await ComponentFile.create({ componentId, storedFileId: stored.id, kind: input.kind, caption: input.caption }, { transaction });
+    await recordAudit(
+      { organisationId, userId: actorId, entity: "component", entityId: componentId, action: `${input.kind} added`, details: { file: upload.originalName } },
+      transaction,
+    );
+    return link;
+  });
+}
+
+export async function removeComponentFile(organisationId: number, componentId: number, componentFileId: number, actorId: number) {
+  return sequelize.transaction(async (transaction) => {
+    const count = await ComponentFile.destroy({ where: { id: componentFileId, componentId }, transaction });
+    if (count) {
+      await recordAudit({ organisationId, userId: actorId, entity: "component", entityId: componentId, action: "file removed" }, transaction);
     }
     return count === 1;
   });

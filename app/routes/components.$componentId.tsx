@@ -2,15 +2,32 @@ import { data, Form, redirect } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/components.$componentId";
 import { ComponentViews } from "~/components/component-views";
-import { Button, Card, PageHeader } from "~/components/ui/form";
+import { Button, Card, FormError, PageHeader, SelectField } from "~/components/ui/form";
 import { COG_SOURCE_LABELS, MASS_SOURCE_LABELS } from "~/component-definition";
 import { parseForm } from "~/forms";
-import { getComponent, setComponentArchived, toDefinition } from "~/models/component.server";
+import {
+  addComponentFile,
+  getComponent,
+  listComponentFiles,
+  removeComponentFile,
+  setComponentArchived,
+  toDefinition,
+} from "~/models/component.server";
+import { checkUpload, readUploadForm, uploadedFile } from "~/uploads.server";
 import { hasAnyRole } from "~/roles";
 import { flashNotice, requireUser, requireUserWithRole } from "~/session.server";
 import { formatLength, formatMass } from "~/units-format";
 
-const schema = z.object({ intent: z.enum(["archive", "restore"]) });
+const schema = z.discriminatedUnion("intent", [
+  z.object({ intent: z.literal("archive") }),
+  z.object({ intent: z.literal("restore") }),
+  z.object({
+    intent: z.literal("upload"),
+    kind: z.enum(["drawing", "photo"], { error: "Say whether it is a drawing or a photo." }),
+    caption: z.preprocess((v) => (typeof v === "string" ? v.trim() : ""), z.string().max(200, "At most 200 characters.")),
+  }),
+  z.object({ intent: z.literal("remove-file"), fileId: z.coerce.number().int().positive() }),
+]);
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.definition.name ?? "Component"} · Plumbline` }];
 
@@ -24,7 +41,16 @@ async function requireComponent(organisationId: number, rawId: string) {
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUser(request);
   const component = await requireComponent(user.organisationId, params.componentId);
+  const files = await listComponentFiles(component.id);
   return {
+    files: files.map((f) => ({
+      id: f.id,
+      fileId: f.storedFileId,
+      kind: f.kind,
+      caption: f.caption,
+      name: f.storedFile?.originalName ?? "",
+      contentType: f.storedFile?.contentType ?? "",
+    })),
     id: component.id,
     version: component.version,
     archived: component.archivedAt !== null,
@@ -37,15 +63,37 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireUserWithRole(request, "planner", "admin");
   const component = await requireComponent(user.organisationId, params.componentId);
-  const form = parseForm(schema, await request.formData());
+  const upload = await readUploadForm(request, { maxFiles: 1 });
+  if (!upload.ok) return data({ errors: { file: [upload.message] } as Record<string, string[]> }, { status: upload.status });
+  const form = parseForm(schema, upload.formData);
   if (!form.ok) return data({ errors: form.errors }, { status: 400 });
-  await setComponentArchived(user.organisationId, component.id, form.data.intent === "archive", user.id);
-  const notice = form.data.intent === "archive" ? `${component.name} is archived; plans made from it keep their copy.` : `${component.name} is back in the list.`;
-  throw redirect(`/components/${component.id}`, { headers: { "Set-Cookie": await flashNotice(request, notice) } });
+  const back = async (notice: string) =>
+    redirect(`/components/${component.id}`, { headers: { "Set-Cookie": await flashNotice(request, notice) } });
+  switch (form.data.intent) {
+    case "archive":
+    case "restore": {
+      await setComponentArchived(user.organisationId, component.id, form.data.intent === "archive", user.id);
+      return back(form.data.intent === "archive" ? `${component.name} is archived; plans made from it keep their copy.` : `${component.name} is back in the list.`);
+    }
+    case "upload": {
+      const file = uploadedFile(upload.formData, "file");
+      if (!file) return data({ errors: { file: ["Choose a drawing or photo to upload."] } as Record<string, string[]> }, { status: 400 });
+      const checked = await checkUpload(file, ["png", "jpeg", "pdf"]);
+      if (!checked.ok) return data({ errors: { file: [checked.message] } as Record<string, string[]> }, { status: 400 });
+      await addComponentFile(user.organisationId, component.id, checked.upload, { kind: form.data.kind, caption: form.data.caption }, user.id);
+      return back(`${checked.upload.originalName} is added.`);
+    }
+    case "remove-file": {
+      const removed = await removeComponentFile(user.organisationId, component.id, form.data.fileId, user.id);
+      if (!removed) throw data({ message: "That file is not attached to this component." }, { status: 404 });
+      return back("The file is removed from the component.");
+    }
+  }
 }
 
-export default function ComponentPage({ loaderData }: Route.ComponentProps) {
-  const { definition: d, units, canEdit, archived, id, version } = loaderData;
+export default function ComponentPage({ loaderData, actionData }: Route.ComponentProps) {
+  const { definition: d, units, canEdit, archived, id, version, files } = loaderData;
+  const errors: Record<string, string[] | undefined> = actionData?.errors ?? {};
   const planMass = d.massKg * (1 + d.contingencyPct / 100);
   return (
     <>
@@ -152,8 +200,66 @@ export default function ComponentPage({ loaderData }: Route.ComponentProps) {
             </Card>
           )}
         </div>
-        <aside>
+        <aside className="space-y-6">
           <ComponentViews data={d} units={units} />
+          <Card title="Drawings and photos">
+            {files.length === 0 ? (
+              <p className="text-sm text-ink-soft">None yet.{canEdit ? " Upload the general arrangement drawing or a photo of the lift points." : ""}</p>
+            ) : (
+              <ul className="space-y-3">
+                {files.map((f) => (
+                  <li key={f.id} className="text-sm">
+                    {f.contentType.startsWith("image/") && (
+                      <a href={`/files/${f.fileId}`}>
+                        <img src={`/files/${f.fileId}`} alt={f.caption || f.name} className="mb-1 max-h-40 rounded border border-rule" />
+                      </a>
+                    )}
+                    <a href={`/files/${f.fileId}`}>{f.name}</a> <span className="text-ink-soft">({f.kind === "drawing" ? "drawing" : "photo"})</span>
+                    {f.caption && <span className="block text-ink-soft">{f.caption}</span>}
+                    {canEdit && (
+                      <Form method="post" className="inline">
+                        <input type="hidden" name="intent" value="remove-file" />
+                        <input type="hidden" name="fileId" value={f.id} />
+                        <button type="submit" className="ml-2 text-xs text-fail underline">
+                          Remove
+                        </button>
+                      </Form>
+                    )}
+                  </li>
+                ))}
+              </ul>
+            )}
+            {canEdit && (
+              <Form method="post" encType="multipart/form-data" className="mt-4 space-y-3 border-t border-rule pt-3">
+                <input type="hidden" name="intent" value="upload" />
+                <FormError message={errors.file?.join(" ")} />
+                <div>
+                  <label htmlFor="component-file" className="block text-sm font-medium">
+                    File (PNG, JPEG or PDF, at most 10 MB)
+                  </label>
+                  <input id="component-file" name="file" type="file" accept="image/png,image/jpeg,application/pdf" required className="mt-1 block w-full text-sm" />
+                </div>
+                <SelectField
+                  label="It is a"
+                  name="kind"
+                  errors={errors.kind}
+                  options={[
+                    { value: "drawing", label: "Drawing" },
+                    { value: "photo", label: "Photo" },
+                  ]}
+                />
+                <div>
+                  <label htmlFor="component-file-caption" className="block text-sm font-medium">
+                    Caption
+                  </label>
+                  <input id="component-file-caption" name="caption" maxLength={200} className="mt-1 block w-full rounded border border-rule px-3 py-1.5" />
+                </div>
+                <Button type="submit" tone="secondary">
+                  Upload
+                </Button>
+              </Form>
+            )}
+          </Card>
         </aside>
       </div>
     </>

@@ -2,6 +2,8 @@ import { data } from "react-router";
 import type { Route } from "./+types/jobs.$jobId";
 import { Card, EmptyState, PageHeader } from "~/components/ui/form";
 import { getJob } from "~/models/job.server";
+import { listPlans } from "~/models/plan.server";
+import { PLAN_STATUS_LABELS } from "~/plan-document";
 import { hasAnyRole } from "~/roles";
 import { requireUser } from "~/session.server";
 
@@ -12,7 +14,9 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const id = Number(params.jobId);
   const job = Number.isInteger(id) ? await getJob(user.organisationId, id) : null;
   if (!job) throw data({ message: "There is no such job in your organisation." }, { status: 404 });
+  const plans = await listPlans(user.organisationId, { jobId: job.id });
   return {
+    plans: plans.map((p) => ({ id: p.id, title: p.title, status: p.status, revision: p.revision })),
     canEdit: hasAnyRole(user, "planner", "admin"),
     job: {
       id: job.id,
@@ -27,7 +31,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 }
 
 export default function JobPage({ loaderData }: Route.ComponentProps) {
-  const { job, canEdit } = loaderData;
+  const { job, canEdit, plans } = loaderData;
   return (
     <>
       <PageHeader title={`${job.workOrder}: ${job.title}`} lead={`${job.site.name} · ${job.site.customer}`}>
@@ -39,7 +43,31 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
       </PageHeader>
       <div className="grid gap-6 md:grid-cols-3">
         <Card title="Lifts" className="md:col-span-2">
-          <EmptyState title="No lift plans yet">Lift plans for this job will be listed here.</EmptyState>
+          {plans.length === 0 ? (
+            <EmptyState title="No lift plans yet">
+              {canEdit ? <a href={`/plans/new?jobId=${job.id}`}>Plan a lift</a> : "Lift plans for this job will be listed here."}
+            </EmptyState>
+          ) : (
+            <>
+              <ul className="divide-y divide-rule text-sm">
+                {plans.map((p) => (
+                  <li key={p.id} className="flex flex-wrap items-baseline justify-between gap-2 py-2">
+                    <a href={`/plans/${p.id}`} className="font-medium">
+                      {p.title}
+                    </a>
+                    <span className="text-ink-soft">
+                      Revision {p.revision} · {PLAN_STATUS_LABELS[p.status]}
+                    </span>
+                  </li>
+                ))}
+              </ul>
+              {canEdit && (
+                <a href={`/plans/new?jobId=${job.id}`} className="mt-3 inline-block rounded bg-steel px-4 py-2 text-sm font-semibold text-white no-underline hover:no-underline">
+                  Plan a lift
+                </a>
+              )}
+            </>
+          )}
         </Card>
         <Card title="Job">
           <dl className="space-y-2 text-sm">

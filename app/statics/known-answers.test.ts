@@ -21,6 +21,7 @@ import {
   usMultiLegRatedLoad,
 } from "./reference";
 import {
+  convertLength,
   convertMass,
   forceKnToKgf,
   loadAngleFactor,
@@ -47,6 +48,12 @@ describe("constants (CHECK-VALUES.md Constants)", () => {
     expect(convertMass(1, "shortTon", "kg")).toBeCloseTo(907.18474, 9);
   });
   it("lbf = 4.4482216152605 N", () => expect(POUND_FORCE_N).toBeCloseTo(4.4482216152605, 12));
+  it("1 in = 25.4 mm exact and 1 t = 1000 kg (international yard 1959; SI) through mathjs", () => {
+    expect(convertLength(25.4, "mm", "in")).toBeCloseTo(1, 12);
+    expect(convertLength(1, "ft", "mm")).toBeCloseTo(304.8, 9);
+    expect(convertMass(1, "t", "kg")).toBeCloseTo(1000, 9);
+    expect(convertMass(1, "shortTon", "lb")).toBeCloseTo(2000, 9);
+  });
   it("1 t weighs 9.80665 kN and back to 1000 kgf (g exact)", () => {
     expect(massKgToWeightKn(1000)).toBeCloseTo(9.80665, 12);
     expect(forceKnToKgf(9.80665)).toBeCloseTo(1000, 9);

@@ -42,7 +42,7 @@ describe("an admin invites a new rigger", () => {
     await expect.poll(() => page.getByRole("status").innerText()).toContain("Your password is set");
 
     await signIn(page, "sian.castell@example.com", "rigging-is-fun-1");
-    expect(await mainNavLabels(page)).toEqual(["Dashboard", "Jobs", "Components"]);
+    expect(await mainNavLabels(page)).toEqual(["Dashboard", "Jobs", "Gear", "Components"]);
 
     await page.goto(link!);
     await expect.poll(() => page.getByRole("heading", { name: "This link no longer works" }).isVisible()).toBe(true);

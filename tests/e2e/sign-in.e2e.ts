@@ -30,10 +30,10 @@ describe("signing in to the demo", () => {
   });
 
   const navByUser: Array<[string, string[]]> = [
-    ["admin@example.com", ["Dashboard", "Jobs", "Components", "Sites", "Admin"]],
-    ["planner@example.com", ["Dashboard", "Jobs", "Components", "Sites"]],
-    ["approver@example.com", ["Dashboard", "Jobs", "Components"]],
-    ["rigger@example.com", ["Dashboard", "Jobs", "Components"]],
+    ["admin@example.com", ["Dashboard", "Jobs", "Gear", "Components", "Sites", "Admin"]],
+    ["planner@example.com", ["Dashboard", "Jobs", "Gear", "Components", "Sites"]],
+    ["approver@example.com", ["Dashboard", "Jobs", "Gear", "Components"]],
+    ["rigger@example.com", ["Dashboard", "Jobs", "Gear", "Components"]],
   ];
   for (const [email, expected] of navByUser) {
     it(`${email} signs in and sees their role's navigation`, async () => {

@@ -3,9 +3,10 @@ import * as newComponent from "~/routes/components.new";
 import * as editComponent from "~/routes/components.$componentId.edit";
 import * as componentPage from "~/routes/components.$componentId";
 import * as componentList from "~/routes/components._index";
-import { Component, ComponentLiftPoint, getComponent } from "~/models/component.server";
+import { Component, ComponentLiftPoint, getComponent, listComponentFiles } from "~/models/component.server";
+import { StoredFile } from "~/models/stored-file.server";
 import { componentFields } from "../support/component-fields";
-import { callRoute, getRequest, makeUser, postForm } from "../support/factories";
+import { callRoute, getRequest, makeUser, postForm, sessionCookie } from "../support/factories";
 
 async function plannerWithComponent() {
   const planner = await makeUser(["planner"]);
@@ -74,5 +75,48 @@ describe("components", () => {
     const edit = await callRoute(editComponent.action, await postForm(`/components/${id}/edit`, { ...componentFields({ name: "Hijack" }), version: "1" }, stranger), { componentId: id });
     expect(edit.status).toBe(404);
     expect((await Component.findByPk(Number(id)))?.name).toBe("Test element");
+  });
+});
+
+const PNG_BYTES = Uint8Array.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13, 0x49, 0x48, 0x44, 0x52, 0, 0, 0, 1, 0, 0, 0, 1, 8, 2, 0, 0, 0]);
+const ELF_BYTES = Uint8Array.from([0x7f, 0x45, 0x4c, 0x46, 2, 1, 1, 0, 0, 0, 0, 0]);
+
+async function uploadRequest(id: string, user: { id: number }, file: File, fields: Record<string, string> = {}) {
+  const form = new FormData();
+  form.set("intent", "upload");
+  form.set("kind", "photo");
+  form.set("caption", "Lift points seen from above");
+  for (const [k, v] of Object.entries(fields)) form.set(k, v);
+  form.set("file", file);
+  return new Request(`http://localhost:3000/components/${id}`, { method: "POST", body: form, headers: { Cookie: await sessionCookie(user) } });
+}
+
+describe("component drawings and photos", () => {
+  it("stores an upload by its content type, not its name, and lists it", async () => {
+    const { planner, id } = await plannerWithComponent();
+    const res = await callRoute(componentPage.action, await uploadRequest(id, planner, new File([PNG_BYTES], "drawing.pdf", { type: "application/pdf" })), { componentId: id });
+    expect(res.status).toBe(302);
+    const [file] = await listComponentFiles(Number(id));
+    expect(file?.storedFile?.contentType).toBe("image/png");
+    expect(file?.storedFile?.storageKey).toMatch(/^[a-f0-9]{32}$/);
+    const page = await callRoute(componentPage.loader, await getRequest(`/components/${id}`, planner), { componentId: id });
+    expect((page.data as { files: Array<{ caption: string }> }).files).toEqual([expect.objectContaining({ caption: "Lift points seen from above", contentType: "image/png" })]);
+  });
+
+  it("refuses an executable and an empty form, keeping nothing", async () => {
+    const { planner, id } = await plannerWithComponent();
+    const exe = await callRoute(componentPage.action, await uploadRequest(id, planner, new File([ELF_BYTES], "photo.png", { type: "image/png" })), { componentId: id });
+    expect(exe.status).toBe(400);
+    expect((exe.data as { errors: { file: string[] } }).errors.file[0]).toMatch(/./);
+    expect(await listComponentFiles(Number(id))).toHaveLength(0);
+    expect(await StoredFile.count({ where: { organisationId: planner.organisationId } })).toBe(0);
+  });
+
+  it("riggers cannot upload", async () => {
+    const { planner, id } = await plannerWithComponent();
+    const rigger = await makeUser(["rigger"], { organisationId: planner.organisationId });
+    const res = await callRoute(componentPage.action, await uploadRequest(id, rigger, new File([PNG_BYTES], "p.png")), { componentId: id });
+    expect(res.status).toBe(403);
+    expect(await StoredFile.count({ where: { organisationId: planner.organisationId } })).toBe(0);
   });
 });

@@ -1,0 +1,291 @@
+// The plan editor's drawing, in Konva: one view (elevation x-z or plan x-y) of the load with its
+// outline, CoG, lift points, legs and hook, to scale with a grid and scale bar. Browser only:
+// loaded with lazy() after hydration, never rendered on the server.
+import type Konva from "konva";
+import { useEffect, useMemo, useRef, useState } from "react";
+import { Circle, Group, Image as KonvaImage, Layer, Line, Rect, Stage, Text } from "react-konva";
+import {
+  fitView,
+  scaleBarLengthM,
+  screenToWorld,
+  snapViewPoint,
+  worldToScreen,
+  zoomAbout,
+  type EditorAction,
+  type PlanEdit,
+  type Vec3,
+  type ViewTransform,
+} from "~/plan-editor-state";
+import { formatLength, type Units } from "~/units-format";
+
+export type ViewKind = "elevation" | "plan";
+
+export type LegFigure = { label: string; text: string; tone: "pass" | "warn" | "fail" | "none"; slack: boolean };
+
+export type Backdrop = { image: HTMLImageElement; metresPerPixel: number; originA: number; originB: number; opacity: number };
+
+export type PlanCanvasProps = {
+  view: ViewKind;
+  width: number;
+  height: number;
+  edit: PlanEdit;
+  outline: ReadonlyArray<readonly [number, number]>;
+  /** The hook point in the component frame, as solved (or as set, in level mode). */
+  hook: Vec3 | null;
+  legs: LegFigure[];
+  units: Units;
+  gridM: number;
+  snap: boolean;
+  dispatch: (action: EditorAction) => void;
+  backdrop?: Backdrop | null;
+  /** When set, clicks report world points (for setting a drawing's scale) instead of editing. */
+  onPick?: ((point: { a: number; b: number; x: number; y: number }) => void) | null;
+};
+
+const COLOURS = {
+  outline: "#2f5d7c",
+  fill: "#dbe8f1",
+  grid: "#e6e1d6",
+  gridMajor: "#d2cbbb",
+  ink: "#17212b",
+  point: "#9a6a14",
+  pass: "#2e7346",
+  warn: "#9a5b00",
+  fail: "#a8261d",
+  none: "#3d4a57",
+};
+
+const axes: Record<ViewKind, [keyof Vec3, keyof Vec3]> = { elevation: ["x", "z"], plan: ["x", "y"] };
+
+function project(p: Vec3, view: ViewKind) {
+  const [a, b] = axes[view];
+  return { a: p[a], b: p[b] };
+}
+
+function unproject(base: Vec3, view: ViewKind, a: number, b: number): Vec3 {
+  const [ka, kb] = axes[view];
+  return { ...base, [ka]: a, [kb]: b };
+}
+
+/** One view of the plan, drawn to scale; lift points, CoG and (in elevation, level mode) the hook can be dragged. */
+export default function PlanCanvas(props: PlanCanvasProps) {
+  const { view, width, height, edit, outline, hook, legs, units, gridM, snap, dispatch, backdrop, onPick } = props;
+  const stageRef = useRef<Konva.Stage>(null);
+
+  const box = useMemo(() => {
+    const pts = [...outline.map(([a, b]) => ({ a, b })), ...edit.liftPoints.map((p) => project(p.position, view)), project(edit.cog, view)];
+    if (hook) pts.push(project(hook, view));
+    const as = pts.map((p) => p.a);
+    const bs = pts.map((p) => p.b);
+    return { minA: Math.min(...as), maxA: Math.max(...as), minB: Math.min(...bs), maxB: Math.max(...bs) };
+    // Fit once per load and view size, not on every drag.
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [outline, view, width, height]);
+  const [transform, setTransform] = useState<ViewTransform>(() => fitView(box, width, height));
+  useEffect(() => setTransform(fitView(box, width, height)), [box, width, height]);
+
+  const S = (a: number, b: number) => worldToScreen(transform, a, b);
+  const usedLabels = new Set(edit.arrangement.liftPointLabels);
+  const candidates = edit.liftPoints.map((p) => project(p.position, view));
+
+  // Grid: the finest multiple of the step that keeps lines at least 12 px apart.
+  let step = gridM;
+  while (step * transform.scalePxPerM < 12) step *= 5;
+  const topLeft = screenToWorld(transform, 0, 0);
+  const bottomRight = screenToWorld(transform, width, height);
+  const gridLines: Array<{ points: number[]; major: boolean }> = [];
+  for (let a = Math.floor(topLeft.a / step) * step; a <= bottomRight.a; a += step) {
+    const x = S(a, 0).x;
+    gridLines.push({ points: [x, 0, x, height], major: Math.abs(a) < step / 2 });
+  }
+  for (let b = Math.floor(bottomRight.b / step) * step; b <= topLeft.b; b += step) {
+    const y = S(0, b).y;
+    gridLines.push({ points: [0, y, width, y], major: Math.abs(b) < step / 2 });
+  }
+
+  const bar = scaleBarLengthM((width * 0.3) / transform.scalePxPerM);
+
+  function dragToWorld(node: Konva.Node, exclude?: { a: number; b: number }) {
+    const world = screenToWorld(transform, node.x(), node.y());
+    const snapped = snapViewPoint(world, {
+      gridM,
+      radiusM: 10 / transform.scalePxPerM,
+      candidates: exclude ? candidates.filter((c) => c !== exclude) : candidates,
+      enabled: snap,
+    });
+    const screen = S(snapped.a, snapped.b);
+    node.position(screen);
+    return snapped;
+  }
+
+  function onWheel(e: Konva.KonvaEventObject<WheelEvent>) {
+    e.evt.preventDefault();
+    const pointer = stageRef.current?.getPointerPosition();
+    if (!pointer) return;
+    setTransform((t) => zoomAbout(t, e.evt.deltaY < 0 ? 1.15 : 1 / 1.15, pointer.x, pointer.y));
+  }
+
+  const panStart = useRef<{ x: number; y: number; originX: number; originY: number } | null>(null);
+
+  const hookScreen = hook ? S(project(hook, view).a, project(hook, view).b) : null;
+  const level = edit.arrangement.mode === "level";
+
+  return (
+    <Stage
+      ref={stageRef}
+      width={width}
+      height={height}
+      onWheel={onWheel}
+      onMouseDown={(e) => {
+        if (e.target !== e.target.getStage()) return;
+        const p = stageRef.current?.getPointerPosition();
+        if (!p) return;
+        if (onPick) {
+          const w = screenToWorld(transform, p.x, p.y);
+          onPick({ ...w, x: p.x, y: p.y });
+          return;
+        }
+        panStart.current = { x: p.x, y: p.y, originX: transform.originX, originY: transform.originY };
+      }}
+      onMouseMove={() => {
+        const start = panStart.current;
+        const p = stageRef.current?.getPointerPosition();
+        if (!start || !p) return;
+        setTransform((t) => ({ ...t, originX: start.originX + p.x - start.x, originY: start.originY + p.y - start.y }));
+      }}
+      onMouseUp={() => (panStart.current = null)}
+      onMouseLeave={() => (panStart.current = null)}
+      style={{ cursor: onPick ? "crosshair" : "grab" }}
+    >
+      <Layer listening={false}>
+        <Rect x={0} y={0} width={width} height={height} fill="#ffffff" />
+        {backdrop && (
+          <KonvaImage
+            image={backdrop.image}
+            x={S(backdrop.originA, backdrop.originB).x}
+            y={S(backdrop.originA, backdrop.originB).y}
+            scaleX={backdrop.metresPerPixel * transform.scalePxPerM}
+            scaleY={backdrop.metresPerPixel * transform.scalePxPerM}
+            opacity={backdrop.opacity}
+          />
+        )}
+        {gridLines.map((g, i) => (
+          <Line key={i} points={g.points} stroke={g.major ? COLOURS.gridMajor : COLOURS.grid} strokeWidth={1} />
+        ))}
+        <Line
+          points={outline.flatMap(([a, b]) => {
+            const s = S(a, b);
+            return [s.x, s.y];
+          })}
+          closed
+          fill={COLOURS.fill}
+          opacity={backdrop ? 0.6 : 1}
+          stroke={COLOURS.outline}
+          strokeWidth={2}
+        />
+        {hookScreen &&
+          edit.liftPoints
+            .filter((p) => usedLabels.has(p.label))
+            .map((p) => {
+              const s = S(project(p.position, view).a, project(p.position, view).b);
+              const figure = legs.find((l) => l.label === p.label);
+              const colour = COLOURS[figure?.tone ?? "none"];
+              return (
+                <Group key={`leg-${p.label}`}>
+                  <Line points={[hookScreen.x, hookScreen.y, s.x, s.y]} stroke={colour} strokeWidth={figure?.tone === "fail" ? 4 : 3} dash={figure?.slack ? [8, 6] : undefined} />
+                  {figure && (
+                    <Text
+                      x={(hookScreen.x + s.x) / 2 + 6}
+                      y={(hookScreen.y + s.y) / 2 - 8}
+                      text={figure.text}
+                      fontSize={12}
+                      fontFamily="Barlow, sans-serif"
+                      fill={colour}
+                      padding={2}
+                    />
+                  )}
+                </Group>
+              );
+            })}
+        <Group>
+          <Line points={[16, height - 16, 16 + bar * transform.scalePxPerM, height - 16]} stroke={COLOURS.ink} strokeWidth={3} />
+          <Text x={16} y={height - 34} text={formatLength(bar, units)} fontSize={12} fontFamily="Barlow, sans-serif" fill={COLOURS.ink} />
+          <Text
+            x={width - 120}
+            y={height - 22}
+            width={110}
+            align="right"
+            text={view === "elevation" ? "x →   z ↑" : "x →   y ↑"}
+            fontSize={12}
+            fontFamily="Barlow, sans-serif"
+            fill={COLOURS.none}
+          />
+        </Group>
+      </Layer>
+      <Layer>
+        {edit.liftPoints.map((p) => {
+          const at = project(p.position, view);
+          const s = S(at.a, at.b);
+          const used = usedLabels.has(p.label);
+          return (
+            <Group
+              key={p.label}
+              x={s.x}
+              y={s.y}
+              draggable={!onPick}
+              onDragStart={() => dispatch({ type: "checkpoint" })}
+              onDragMove={(e) => {
+                const w = dragToWorld(e.target, at);
+                dispatch({ type: "move-lift-point", label: p.label, position: unproject(p.position, view, w.a, w.b), transient: true });
+              }}
+              onDblClick={() => dispatch({ type: "toggle-lift-point", label: p.label })}
+            >
+              <Circle radius={7} fill={used ? COLOURS.point : "#ffffff"} stroke={COLOURS.point} strokeWidth={2} />
+              <Text x={9} y={-20} text={p.label} fontSize={14} fontStyle="bold" fontFamily="Barlow, sans-serif" fill={COLOURS.ink} />
+            </Group>
+          );
+        })}
+        {(() => {
+          const at = project(edit.cog, view);
+          const s = S(at.a, at.b);
+          return (
+            <Group
+              x={s.x}
+              y={s.y}
+              draggable={!onPick}
+              onDragStart={() => dispatch({ type: "checkpoint" })}
+              onDragMove={(e) => {
+                const w = dragToWorld(e.target);
+                dispatch({ type: "move-cog", cog: unproject(edit.cog, view, w.a, w.b), transient: true });
+              }}
+            >
+              <Circle radius={9} fill="#ffffff" stroke={COLOURS.ink} strokeWidth={2} />
+              <Line points={[0, -9, 0, 9]} stroke={COLOURS.ink} strokeWidth={1} />
+              <Line points={[-9, 0, 9, 0]} stroke={COLOURS.ink} strokeWidth={1} />
+              <Text x={11} y={4} text="CoG" fontSize={12} fontFamily="Barlow, sans-serif" fill={COLOURS.ink} />
+            </Group>
+          );
+        })()}
+        {hookScreen && (
+          <Group
+            x={hookScreen.x}
+            y={hookScreen.y}
+            draggable={view === "elevation" && level && !onPick}
+            dragBoundFunc={(pos) => ({ x: hookScreen.x, y: Math.min(pos.y, height - 4) })}
+            onDragStart={() => dispatch({ type: "checkpoint" })}
+            onDragMove={(e) => {
+              const w = screenToWorld(transform, e.target.x(), e.target.y());
+              const z = snap ? Math.round(w.b / gridM) * gridM : w.b;
+              e.target.y(S(0, z).y);
+              dispatch({ type: "set-hook-height", hookHeightM: z, transient: true });
+            }}
+          >
+            <Rect x={-10} y={-14} width={20} height={12} fill={COLOURS.ink} cornerRadius={2} />
+            <Circle radius={5} stroke={COLOURS.ink} strokeWidth={2} />
+            <Text x={12} y={-16} text="Hook" fontSize={12} fontFamily="Barlow, sans-serif" fill={COLOURS.ink} />
+          </Group>
+        )}
+      </Layer>
+    </Stage>
+  );
+}

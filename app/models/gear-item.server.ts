@@ -1,0 +1,444 @@
+import {
+  DataTypes,
+  Model,
+  Op,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type NonAttribute,
+  type Transaction,
+  type WhereOptions,
+} from "sequelize";
+import { sequelize } from "~/db.server";
+import { addDays, dueState, DUE_SOON_DAYS, type DueState } from "~/gear-due";
+import { GEAR_STATUS_LABELS, SPEC_FIELDS, type GearKind, type GearStatus } from "~/gear-kinds";
+import type { GearItemInput } from "~/gear-schema";
+import { AuditEvent, listAuditEvents, recordAudit } from "~/models/audit-event.server";
+import { Site } from "~/models/site.server";
+import { User } from "~/models/user.server";
+import { massToKg, type MassUnit } from "~/statics/units";
+
+/** One physical item of lifting gear, marked with the organisation's own id. */
+export class GearItem extends Model<InferAttributes<GearItem>, InferCreationAttributes<GearItem>> {
+  declare id: CreationOptional<number>;
+  declare organisationId: number;
+  declare itemCode: string;
+  declare kind: GearKind;
+  declare description: CreationOptional<string>;
+  declare manufacturer: CreationOptional<string>;
+  declare serial: CreationOptional<string>;
+  declare wllValue: number;
+  declare wllUnit: MassUnit;
+  declare wllKg: number;
+  declare thread: string | null;
+  declare eyeboltFamily: string | null;
+  declare shackleType: string | null;
+  declare pinType: string | null;
+  declare chainGrade: number | null;
+  declare diameterMm: number | null;
+  declare legs: number | null;
+  declare lengthM: number | null;
+  declare hookHeightM: number | null;
+  declare beamMassKg: number | null;
+  declare homeSiteId: number | null;
+  declare status: CreationOptional<GearStatus>;
+  declare statusReason: CreationOptional<string>;
+  declare statusChangedBy: CreationOptional<number | null>;
+  declare statusChangedAt: CreationOptional<Date | null>;
+  declare lastExaminedOn: CreationOptional<string | null>;
+  declare nextDueOn: CreationOptional<string | null>;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+  declare homeSite?: NonAttribute<Site | null>;
+  declare statusChanger?: NonAttribute<User | null>;
+}
+
+GearItem.init(
+  {
+    id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+    organisationId: { type: DataTypes.INTEGER, allowNull: false },
+    itemCode: { type: DataTypes.STRING(40), allowNull: false },
+    kind: { type: DataTypes.STRING(20), allowNull: false },
+    description: { type: DataTypes.STRING(300), allowNull: false, defaultValue: "" },
+    manufacturer: { type: DataTypes.STRING(120), allowNull: false, defaultValue: "" },
+    serial: { type: DataTypes.STRING(80), allowNull: false, defaultValue: "" },
+    wllValue: { type: DataTypes.DOUBLE, allowNull: false },
+    wllUnit: { type: DataTypes.STRING(10), allowNull: false },
+    wllKg: { type: DataTypes.DOUBLE, allowNull: false },
+    thread: { type: DataTypes.STRING(20), allowNull: true },
+    eyeboltFamily: { type: DataTypes.STRING(10), allowNull: true },
+    shackleType: { type: DataTypes.STRING(10), allowNull: true },
+    pinType: { type: DataTypes.STRING(10), allowNull: true },
+    chainGrade: { type: DataTypes.INTEGER, allowNull: true },
+    diameterMm: { type: DataTypes.DOUBLE, allowNull: true },
+    legs: { type: DataTypes.INTEGER, allowNull: true },
+    lengthM: { type: DataTypes.DOUBLE, allowNull: true },
+    hookHeightM: { type: DataTypes.DOUBLE, allowNull: true },
+    beamMassKg: { type: DataTypes.DOUBLE, allowNull: true },
+    homeSiteId: { type: DataTypes.INTEGER, allowNull: true },
+    status: { type: DataTypes.STRING(15), allowNull: false, defaultValue: "in_service" },
+    statusReason: { type: DataTypes.TEXT, allowNull: false, defaultValue: "" },
+    statusChangedBy: { type: DataTypes.INTEGER, allowNull: true },
+    statusChangedAt: { type: DataTypes.DATE, allowNull: true },
+    lastExaminedOn: { type: DataTypes.DATEONLY, allowNull: true },
+    nextDueOn: { type: DataTypes.DATEONLY, allowNull: true },
+    createdAt: DataTypes.DATE,
+    updatedAt: DataTypes.DATE,
+  },
+  { sequelize, tableName: "gear_items", underscored: true },
+);
+
+GearItem.belongsTo(Site, { foreignKey: "homeSiteId", as: "homeSite" });
+GearItem.belongsTo(User, { foreignKey: "statusChangedBy", as: "statusChanger" });
+
+const ENTITY = "gear_item";
+
+/** The stored columns for a checked input: the marked WLL as marked, plus its value in kg. */
+function columnsFor(input: GearItemInput) {
+  return { ...input, wllKg: massToKg(input.wllValue, input.wllUnit) };
+}
+
+/** The fields an import or an edit compares, in CSV order. */
+export const COMPARED_FIELDS = [
+  "itemCode",
+  "kind",
+  "description",
+  "manufacturer",
+  "serial",
+  "wllValue",
+  "wllUnit",
+  ...SPEC_FIELDS,
+  "homeSiteId",
+] as const satisfies ReadonlyArray<keyof GearItemInput>;
+
+/** The names of the fields in which `input` differs from the stored item. */
+export function changedFields(item: GearItem, input: GearItemInput): string[] {
+  return COMPARED_FIELDS.filter((f) => (item[f] ?? null) !== (input[f] ?? null));
+}
+
+// ----- the register -----
+
+export const GEAR_SORT_KEYS = ["itemCode", "kind", "wllKg", "status", "nextDueOn", "site"] as const;
+export type GearSortKey = (typeof GEAR_SORT_KEYS)[number];
+
+export type GearSearch = {
+  q?: string;
+  kind?: GearKind;
+  status?: GearStatus;
+  /** A site id, or "none" for items with no home site. */
+  site?: number | "none";
+  due?: DueState;
+  sort: GearSortKey;
+  dir: "asc" | "desc";
+  page: number;
+  pageSize: number;
+};
+
+export type GearRow = {
+  id: number;
+  itemCode: string;
+  kind: GearKind;
+  description: string;
+  wllValue: number;
+  wllUnit: MassUnit;
+  wllKg: number;
+  thread: string | null;
+  eyeboltFamily: string | null;
+  shackleType: string | null;
+  pinType: string | null;
+  chainGrade: number | null;
+  diameterMm: number | null;
+  legs: number | null;
+  lengthM: number | null;
+  hookHeightM: number | null;
+  beamMassKg: number | null;
+  status: GearStatus;
+  siteName: string | null;
+  lastExaminedOn: string | null;
+  nextDueOn: string | null;
+  dueState: DueState;
+};
+
+function contains(column: string, q: string) {
+  // instr() needs no escaping of % and _ the way LIKE would.
+  return sequelize.where(sequelize.fn("instr", sequelize.fn("lower", sequelize.col(column)), q.toLowerCase()), Op.gt, 0);
+}
+
+function dueWhere(due: DueState, today: string): WhereOptions {
+  const soon = addDays(today, DUE_SOON_DAYS);
+  switch (due) {
+    case "overdue":
+      return { nextDueOn: { [Op.lt]: today } };
+    case "due_soon":
+      return { nextDueOn: { [Op.gte]: today, [Op.lte]: soon } };
+    case "in_date":
+      return { nextDueOn: { [Op.gt]: soon } };
+    case "never_examined":
+      return { nextDueOn: null };
+  }
+}
+
+function toRow(item: GearItem, today: string): GearRow {
+  return {
+    id: item.id,
+    itemCode: item.itemCode,
+    kind: item.kind,
+    description: item.description,
+    wllValue: item.wllValue,
+    wllUnit: item.wllUnit,
+    wllKg: item.wllKg,
+    thread: item.thread,
+    eyeboltFamily: item.eyeboltFamily,
+    shackleType: item.shackleType,
+    pinType: item.pinType,
+    chainGrade: item.chainGrade,
+    diameterMm: item.diameterMm,
+    legs: item.legs,
+    lengthM: item.lengthM,
+    hookHeightM: item.hookHeightM,
+    beamMassKg: item.beamMassKg,
+    status: item.status,
+    siteName: item.homeSite?.name ?? null,
+    lastExaminedOn: item.lastExaminedOn,
+    nextDueOn: item.nextDueOn,
+    dueState: dueState(item.nextDueOn, today),
+  };
+}
+
+/** One page of the organisation's register, filtered and sorted in the database. */
+export async function searchGearItems(organisationId: number, search: GearSearch, today: string): Promise<{ rows: GearRow[]; total: number }> {
+  const and: WhereOptions[] = [{ organisationId }];
+  if (search.kind) and.push({ kind: search.kind });
+  if (search.status) and.push({ status: search.status });
+  if (search.site === "none") and.push({ homeSiteId: null });
+  else if (search.site) and.push({ homeSiteId: search.site });
+  if (search.due) and.push(dueWhere(search.due, today));
+  const q = search.q?.trim();
+  if (q) {
+    and.push({
+      [Op.or]: ["GearItem.item_code", "GearItem.description", "GearItem.manufacturer", "GearItem.serial"].map((c) => contains(c, q)),
+    });
+  }
+  const dir = search.dir === "desc" ? "DESC" : "ASC";
+  const order: Array<[string, string] | [{ model: typeof Site; as: string }, string, string]> =
+    search.sort === "site" ? [[{ model: Site, as: "homeSite" }, "name", dir]] : [[search.sort, dir]];
+  if (search.sort !== "itemCode") order.push(["itemCode", "ASC"]);
+  const { rows, count } = await GearItem.findAndCountAll({
+    where: { [Op.and]: and },
+    include: [{ model: Site, as: "homeSite", required: false }],
+    order: order as never,
+    limit: search.pageSize,
+    offset: (search.page - 1) * search.pageSize,
+  });
+  return { rows: rows.map((r) => toRow(r, today)), total: count };
+}
+
+/** How many items not withdrawn are overdue, and due within DUE_SOON_DAYS, on `today`. */
+export async function countGearDue(organisationId: number, today: string) {
+  const base = { organisationId, status: { [Op.ne]: "withdrawn" } };
+  const [overdue, dueSoon] = await Promise.all([
+    GearItem.count({ where: { ...base, ...dueWhere("overdue", today) } }),
+    GearItem.count({ where: { ...base, ...dueWhere("due_soon", today) } }),
+  ]);
+  return { overdue, dueSoon };
+}
+
+/** Every item of the organisation in item id order, for the CSV export. */
+export async function listAllGearItems(organisationId: number) {
+  return GearItem.findAll({ where: { organisationId }, include: [{ model: Site, as: "homeSite" }], order: [["itemCode", "ASC"]] });
+}
+
+export async function getGearItem(organisationId: number, itemId: number) {
+  return GearItem.findOne({
+    where: { organisationId, id: itemId },
+    include: [
+      { model: Site, as: "homeSite" },
+      { model: User, as: "statusChanger", attributes: ["id", "name"] },
+    ],
+  });
+}
+
+export async function isItemCodeTaken(organisationId: number, itemCode: string, exceptItemId?: number) {
+  const item = await GearItem.findOne({ where: { organisationId, itemCode }, attributes: ["id"] });
+  return !!item && item.id !== exceptItemId;
+}
+
+export async function createGearItem(organisationId: number, input: GearItemInput, actorId: number) {
+  return sequelize.transaction(async (transaction) => {
+    const item = await GearItem.create({ organisationId, ...columnsFor(input) }, { transaction });
+    await recordAudit({ organisationId, userId: actorId, entity: ENTITY, entityId: item.id, action: "created" }, transaction);
+    return item;
+  });
+}
+
+/** Saves an edit; false when the item is not the organisation's. Status is changed only by changeGearStatus. */
+export async function updateGearItem(organisationId: number, itemId: number, input: GearItemInput, actorId: number) {
+  return sequelize.transaction(async (transaction) => {
+    const item = await GearItem.findOne({ where: { organisationId, id: itemId }, transaction });
+    if (!item) return false;
+    const changed = changedFields(item, input);
+    if (!changed.length) return true;
+    await item.update(columnsFor(input), { transaction });
+    await recordAudit({ organisationId, userId: actorId, entity: ENTITY, entityId: itemId, action: "updated", details: { fields: changed } }, transaction);
+    return true;
+  });
+}
+
+export type StatusChangeResult = { ok: true; item: GearItem } | { ok: false; message: string };
+
+/** Sets an item's status inside `transaction`, with the reason, who and when, and records it in the audit trail. */
+export async function setGearStatus(
+  item: GearItem,
+  change: { status: GearStatus; reason: string; actorId: number; action?: string; details?: Record<string, unknown> },
+  transaction: Transaction,
+) {
+  const from = item.status;
+  await item.update({ status: change.status, statusReason: change.reason, statusChangedBy: change.actorId, statusChangedAt: new Date() }, { transaction });
+  await recordAudit(
+    {
+      organisationId: item.organisationId,
+      userId: change.actorId,
+      entity: ENTITY,
+      entityId: item.id,
+      action: change.action ?? "status changed",
+      details: { from, to: change.status, reason: change.reason, ...change.details },
+    },
+    transaction,
+  );
+}
+
+/**
+ * An admin's change of status. An item whose latest thorough examination failed cannot go back
+ * into service until a passing examination is recorded.
+ */
+export async function changeGearStatus(
+  organisationId: number,
+  itemId: number,
+  change: { status: GearStatus; reason: string },
+  actorId: number,
+  latestResult: "pass" | "fail" | null,
+): Promise<StatusChangeResult> {
+  return sequelize.transaction(async (transaction) => {
+    const item = await GearItem.findOne({ where: { organisationId, id: itemId }, transaction });
+    if (!item) return { ok: false, message: "There is no such item in your organisation." };
+    if (item.status === change.status) return { ok: false, message: `The item is already ${GEAR_STATUS_LABELS[change.status].toLowerCase()}.` };
+    if (change.status === "in_service" && latestResult === "fail") {
+      return { ok: false, message: "The latest thorough examination failed: record a passing examination before returning the item to service." };
+    }
+    await setGearStatus(item, { ...change, actorId }, transaction);
+    return { ok: true, item };
+  });
+}
+
+/**
+ * A defect reported by anyone who handles the item: an item in service is quarantined at once
+ * with the report as its reason; an item already out of service keeps its status, and the report
+ * is recorded either way.
+ */
+export async function reportGearDefect(organisationId: number, itemId: number, defect: string, reporter: { id: number; name: string }) {
+  return sequelize.transaction(async (transaction) => {
+    const item = await GearItem.findOne({ where: { organisationId, id: itemId }, transaction });
+    if (!item) return null;
+    const quarantined = item.status === "in_service";
+    if (quarantined) {
+      await setGearStatus(
+        item,
+        { status: "quarantined", reason: `Defect reported by ${reporter.name}: ${defect}`, actorId: reporter.id, action: "defect reported", details: { defect } },
+        transaction,
+      );
+    } else {
+      await recordAudit(
+        { organisationId, userId: reporter.id, entity: ENTITY, entityId: item.id, action: "defect reported", details: { defect, from: item.status, to: item.status } },
+        transaction,
+      );
+    }
+    return { item, quarantined };
+  });
+}
+
+export type GearHistoryEntry = { id: number; at: string; who: string; action: string; details: Record<string, unknown> };
+
+/** The item's audit trail, oldest first, with the name of whoever acted. */
+export async function listGearHistory(organisationId: number, itemId: number): Promise<GearHistoryEntry[]> {
+  const events = await listAuditEvents(organisationId, ENTITY, itemId);
+  const userIds = [...new Set(events.map((e) => e.userId).filter((id): id is number => id !== null))];
+  const users = userIds.length ? await User.findAll({ where: { organisationId, id: userIds }, attributes: ["id", "name"] }) : [];
+  const names = new Map(users.map((u) => [u.id, u.name]));
+  return events.map((e) => ({
+    id: e.id,
+    at: e.createdAt.toISOString(),
+    who: e.userId === null ? "Plumbline" : (names.get(e.userId) ?? "a former user"),
+    action: e.action,
+    details: e.details ? (JSON.parse(e.details) as Record<string, unknown>) : {},
+  }));
+}
+
+/** Items not withdrawn whose next examination falls on or before `until` (overdue included), per organisation. */
+export async function listGearDueBy(until: string) {
+  return GearItem.findAll({
+    where: { status: { [Op.ne]: "withdrawn" }, nextDueOn: { [Op.lte]: until } },
+    include: [{ model: Site, as: "homeSite" }],
+    order: [["organisationId", "ASC"], ["nextDueOn", "ASC"], ["itemCode", "ASC"]],
+  });
+}
+
+// ----- import -----
+
+export type ImportCounts = { created: number; updated: number; unchanged: number };
+
+/** What importing `inputs` would do, matched by item id: new codes are created, changed items updated. */
+export async function planGearImport(organisationId: number, inputs: GearItemInput[], transaction?: Transaction) {
+  // The whole register, not an IN list: an import may name thousands of ids.
+  const existing = await GearItem.findAll({ where: { organisationId }, transaction });
+  const byCode = new Map(existing.map((item) => [item.itemCode, item]));
+  const plan = inputs.map((input) => {
+    const item = byCode.get(input.itemCode);
+    if (!item) return { input, item: null, changed: [] as string[], action: "create" as const };
+    const changed = changedFields(item, input);
+    return { input, item, changed, action: changed.length ? ("update" as const) : ("unchanged" as const) };
+  });
+  const counts: ImportCounts = {
+    created: plan.filter((p) => p.action === "create").length,
+    updated: plan.filter((p) => p.action === "update").length,
+    unchanged: plan.filter((p) => p.action === "unchanged").length,
+  };
+  return { plan, counts };
+}
+
+/** Applies an import in one transaction: every row or none. Status and examinations are never changed by an import. */
+export async function applyGearImport(organisationId: number, inputs: GearItemInput[], actorId: number, source: { fileId: number; fileName: string }) {
+  return sequelize.transaction(async (transaction) => {
+    const { plan, counts } = await planGearImport(organisationId, inputs, transaction);
+    const toCreate = plan.filter((p) => p.action === "create");
+    const created = await GearItem.bulkCreate(
+      toCreate.map((p) => ({ organisationId, ...columnsFor(p.input) })),
+      { transaction },
+    );
+    const audits: Array<Omit<InferCreationAttributes<AuditEvent>, "id" | "createdAt">> = created.map((item) => ({
+      organisationId,
+      userId: actorId,
+      entity: ENTITY,
+      entityId: item.id,
+      action: "imported",
+      details: JSON.stringify({ fileId: source.fileId, fileName: source.fileName }),
+    }));
+    for (const p of plan) {
+      if (p.action !== "update" || !p.item) continue;
+      await p.item.update(columnsFor(p.input), { transaction });
+      audits.push({
+        organisationId,
+        userId: actorId,
+        entity: ENTITY,
+        entityId: p.item.id,
+        action: "updated by import",
+        details: JSON.stringify({ fields: p.changed, fileId: source.fileId, fileName: source.fileName }),
+      });
+    }
+    await AuditEvent.bulkCreate(audits, { transaction });
+    await recordAudit(
+      { organisationId, userId: actorId, entity: "gear_import", entityId: source.fileId, action: "imported", details: { ...counts, fileName: source.fileName } },
+      transaction,
+    );
+    return counts;
+  });
+}

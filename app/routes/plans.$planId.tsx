@@ -1,0 +1,391 @@
+import { data, Form, redirect } from "react-router";
+import { z } from "zod";
+import type { Route } from "./+types/plans.$planId";
+import { ComponentViews } from "~/components/component-views";
+import { Button, Card, EmptyState, FormError, PageHeader } from "~/components/ui/form";
+import { COG_SOURCE_LABELS, MASS_SOURCE_LABELS } from "~/component-definition";
+import { parseForm } from "~/forms";
+import { compareWithComponent, getPlan, pullComponentVersion } from "~/models/plan.server";
+import { HITCH_LABELS, PERSON_ROLE_LABELS, PLAN_CAUTION, PLAN_STATUS_LABELS, type PlanResults } from "~/plan-document";
+import { hasAnyRole } from "~/roles";
+import { flashNotice, requireUser, requireUserWithRole } from "~/session.server";
+import type { CheckStatus } from "~/statics/checks";
+import { ceilTo } from "~/statics/units";
+import { formatLength, formatMass, type Units } from "~/units-format";
+
+const schema = z.object({ intent: z.literal("pull-component"), version: z.coerce.number().int().positive() });
+
+export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.plan.title ?? "Lift plan"} · Plumbline` }];
+
+async function requirePlan(organisationId: number, rawId: string) {
+  const found = await getPlan(organisationId, Number(rawId));
+  if (!found) throw data({ message: "There is no such plan in your organisation." }, { status: 404 });
+  return found;
+}
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const user = await requireUser(request);
+  const { plan, revision } = await requirePlan(user.organisationId, params.planId);
+  const comparison = await compareWithComponent(user.organisationId, revision);
+  const site = plan.job?.site;
+  return {
+    plan: { id: plan.id, title: plan.title },
+    job: { id: plan.jobId, workOrder: plan.job?.workOrder ?? "", title: plan.job?.title ?? "", site: site ? `${site.name} · ${site.customer}` : "" },
+    revision,
+    comparison,
+    units: user.units,
+    canEdit: hasAnyRole(user, "planner", "admin") && revision.status === "draft",
+  };
+}
+
+export async function action({ request, params }: Route.ActionArgs) {
+  const user = await requireUserWithRole(request, "planner", "admin");
+  const { plan } = await requirePlan(user.organisationId, params.planId);
+  const form = parseForm(schema, await request.formData());
+  if (!form.ok) return data({ error: "The request is missing its version; reload the page and try again." }, { status: 400 });
+  const pulled = await pullComponentVersion(user.organisationId, plan.id, form.data.version, user.id);
+  switch (pulled.status) {
+    case "not-found":
+      throw data({ message: "There is no such plan in your organisation." }, { status: 404 });
+    case "stale":
+      return data({ error: "Someone else saved this plan after you loaded it. Reload to see their changes, then pull the new version again." }, { status: 409 });
+    case "frozen":
+      return data({ error: "This revision is no longer a draft; it cannot take a new component version." }, { status: 409 });
+    case "no-component":
+      return data({ error: "The component this plan was made from is no longer in your organisation." }, { status: 400 });
+    case "up-to-date":
+      return data({ error: "The plan already has the component's current version." }, { status: 400 });
+    case "pulled": {
+      const notice = `Component version ${pulled.componentVersion} pulled in: ${pulled.changes.map((c) => c.message).join(" ") || "no change to the figures."} The results are recomputed.`;
+      throw redirect(`/plans/${plan.id}`, { headers: { "Set-Cookie": await flashNotice(request, notice) } });
+    }
+  }
+}
+
+const STATUS_STYLE: Record<CheckStatus, { label: string; className: string }> = {
+  pass: { label: "Pass", className: "bg-pass-soft text-pass" },
+  warn: { label: "Warning", className: "bg-warn-soft text-warn" },
+  fail: { label: "Fail", className: "bg-fail-soft text-fail" },
+};
+
+function StatusTag({ status }: { status: CheckStatus }) {
+  const s = STATUS_STYLE[status];
+  return <span className={`inline-block rounded px-2 py-0.5 text-xs font-semibold ${s.className}`}>{s.label}</span>;
+}
+
+/** Utilisation as a percentage, only ever rounded up. */
+function utilisationText(u: number | null) {
+  if (u === null) return "—";
+  if (!Number.isFinite(u)) return "no capacity";
+  return `${ceilTo(u * 100, 0)} %`;
+}
+
+const kn = (x: number) => `${ceilTo(x, 2).toFixed(2)} kN`;
+const degText = (x: number) => `${x.toFixed(1)}°`;
+
+function Results({ results, units }: { results: PlanResults; units: Units }) {
+  if (results.status !== 200) {
+    return (
+      <div role="alert" className="rounded border border-fail/40 bg-fail-soft px-3 py-2 text-sm text-fail">
+        <p className="font-semibold">The load cannot hang as arranged.</p>
+        <p>{results.body.error}</p>
+      </div>
+    );
+  }
+  const r = results.body;
+  const checks = r.checks ?? [];
+  const worst: CheckStatus = checks.some((c) => c.status === "fail") ? "fail" : checks.some((c) => c.status === "warn") ? "warn" : "pass";
+  return (
+    <div className="space-y-4">
+      <p className="text-sm">
+        {results.kind === "beam" ? "Vertical drops from a lifting beam" : r.mode === "level" ? "Level lift from one hook" : "Given sling lengths"}
+        {" · "}
+        {r.method === "elastic" ? "share of a rigid load on equally stretchy legs (four legs are statically indeterminate)" : "statically determinate"}
+        {r.tiltDeg > 0.05 ? ` · the load tilts ${degText(r.tiltDeg)}` : ""}
+        {" · computed on "}
+        {results.computedOn}
+      </p>
+      <div className="overflow-x-auto">
+        <table>
+          <thead>
+            <tr>
+              <th scope="col">{results.kind === "beam" ? "Drop to" : "Leg to"}</th>
+              <th scope="col">Length</th>
+              <th scope="col">Tension</th>
+              <th scope="col">Rated for</th>
+              <th scope="col">From vertical</th>
+              <th scope="col">Off the bolt axis</th>
+            </tr>
+          </thead>
+          <tbody>
+            {r.legs.map((leg) => {
+              const design = r.rating.legs.find((l) => l.liftPointId === leg.liftPointId);
+              return (
+                <tr key={leg.liftPointId}>
+                  <td className="font-semibold">{leg.liftPointId}</td>
+                  <td>{formatLength(leg.lengthM, units)}</td>
+                  <td>{leg.slack ? "slack" : `${kn(leg.tensionKn)} (${formatMass(Math.ceil(leg.tensionKg), units)})`}</td>
+                  <td>{design ? `${kn(design.designTensionKn)} (${formatMass(Math.ceil(design.designTensionKg), units)})` : "—"}</td>
+                  <td>{degText(leg.angleFromVerticalDeg)}</td>
+                  <td>{degText(leg.axisAngleDeg)}</td>
+                </tr>
+              );
+            })}
+          </tbody>
+        </table>
+      </div>
+      <p className="text-xs text-ink-soft">
+        Rating: {r.rating.rule} ({r.rating.source}). Tensions are before contingency; the checks add it.
+      </p>
+      {r.beam && (
+        <p className="text-sm">
+          Beam {formatMass(r.beam.massKg, units)}, marked WLL {formatMass(r.beam.wllKg, units)}; the hook carries {formatMass(Math.ceil(r.beam.hookMassKg), units)} before contingency.
+        </p>
+      )}
+      {r.warnings.length > 0 && (
+        <ul className="space-y-1 text-sm">
+          {r.warnings.map((w, i) => (
+            <li key={i} className="rounded border border-warn/40 bg-warn-soft px-3 py-1 text-warn">
+              {w.message}
+            </li>
+          ))}
+        </ul>
+      )}
+      <h3 className="text-base font-semibold">
+        Checks <StatusTag status={worst} />
+      </h3>
+      {checks.length === 0 ? (
+        <p className="text-sm text-ink-soft">No checks yet.</p>
+      ) : (
+        <div className="overflow-x-auto">
+          <table>
+            <thead>
+              <tr>
+                <th scope="col">Item</th>
+                <th scope="col">Result</th>
+                <th scope="col">Utilisation</th>
+                <th scope="col">What it means</th>
+              </tr>
+            </thead>
+            <tbody>
+              {checks.map((c) => (
+                <tr key={c.id}>
+                  <td>{c.item}</td>
+                  <td>
+                    <StatusTag status={c.status} />
+                  </td>
+                  <td>{utilisationText(c.utilisation)}</td>
+                  <td>
+                    {c.message}
+                    <span className="block text-xs text-ink-soft">
+                      {c.rule} · {c.source}
+                    </span>
+                  </td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+    </div>
+  );
+}
+
+export default function PlanPage({ loaderData, actionData }: Route.ComponentProps) {
+  const { plan, job, revision, comparison, units, canEdit } = loaderData;
+  const { snapshot: s, arrangement: a, rigging, details } = revision;
+  const planMass = s.massKg * (1 + s.contingencyPct / 100);
+  return (
+    <>
+      <PageHeader title={plan.title} lead={`${job.workOrder}: ${job.title}${job.site ? ` · ${job.site}` : ""}`}>
+        <a href={`/jobs/${job.id}`} className="px-2 py-2 text-sm">
+          Back to the job
+        </a>
+        {canEdit && (
+          <a href={`/plans/${plan.id}/details`} className="rounded bg-steel px-4 py-2 text-sm font-semibold text-white no-underline hover:no-underline">
+            Edit sequence, hazards and people
+          </a>
+        )}
+      </PageHeader>
+      <p className="mb-4 text-sm">
+        Revision {revision.revision} · <span className="font-semibold">{PLAN_STATUS_LABELS[revision.status]}</span> · saved version {revision.version}
+      </p>
+      <p role="note" className="mb-6 rounded border border-brass/40 bg-brass-soft px-3 py-2 text-sm">
+        {PLAN_CAUTION}
+      </p>
+      {comparison?.newer && (
+        <div className="mb-6 rounded border border-steel/40 bg-steel-soft px-3 py-2 text-sm">
+          <p className="font-semibold">
+            The component has a newer version ({comparison.latestVersion}); this plan uses version {revision.componentVersion}.
+          </p>
+          {comparison.changes.length > 0 ? (
+            <ul className="my-2 list-disc pl-5">
+              {comparison.changes.map((c, i) => (
+                <li key={i}>{c.message}</li>
+              ))}
+            </ul>
+          ) : (
+            <p className="my-2">Nothing the plan uses has changed.</p>
+          )}
+          {canEdit && (
+            <Form method="post">
+              <input type="hidden" name="intent" value="pull-component" />
+              <input type="hidden" name="version" value={revision.version} />
+              <Button type="submit">Pull the new version into this plan</Button>
+            </Form>
+          )}
+        </div>
+      )}
+      <FormError message={actionData?.error} />
+      <div className="grid gap-6 lg:grid-cols-[minmax(0,1fr)_24rem]">
+        <div className="space-y-6">
+          <Card title="Load (as copied into this plan)">
+            <dl className="grid gap-x-6 gap-y-2 text-sm sm:grid-cols-2">
+              <div>
+                <dt className="text-ink-soft">Component</dt>
+                <dd className="font-semibold">
+                  {revision.componentId ? <a href={`/components/${revision.componentId}`}>{s.name}</a> : s.name}
+                </dd>
+                <dd className="text-ink-soft">version {revision.componentVersion ?? "—"}</dd>
+              </div>
+              <div>
+                <dt className="text-ink-soft">Mass</dt>
+                <dd className="font-semibold">{formatMass(s.massKg, units)}</dd>
+                <dd>
+                  {MASS_SOURCE_LABELS[s.massSource]}
+                  {s.massNote ? ` · ${s.massNote}` : ""}
+                </dd>
+              </div>
+              <div>
+                <dt className="text-ink-soft">With contingency ({s.contingencyPct} %)</dt>
+                <dd className="font-semibold">{formatMass(planMass, units)}</dd>
+              </div>
+              <div>
+                <dt className="text-ink-soft">Centre of gravity (x, y, z)</dt>
+                <dd className="font-semibold">
+                  {formatLength(s.cog.x, units)}, {formatLength(s.cog.y, units)}, {formatLength(s.cog.z, units)}
+                </dd>
+                <dd>
+                  {COG_SOURCE_LABELS[s.cogSource]}
+                  {s.cogNote ? ` · ${s.cogNote}` : ""}
+                </dd>
+              </div>
+            </dl>
+          </Card>
+          <Card title="Arrangement">
+            <dl className="grid gap-x-6 gap-y-2 text-sm sm:grid-cols-2">
+              <div>
+                <dt className="text-ink-soft">Rigging</dt>
+                <dd>
+                  {a.kind === "beam" ? "Lifting beam with vertical drops" : `${a.liftPointLabels.length}-leg bridle from one hook`},{" "}
+                  {a.mode === "level" ? "hanging level" : "on slings of given length"}
+                </dd>
+              </div>
+              <div>
+                <dt className="text-ink-soft">Lift points</dt>
+                <dd>{a.liftPointLabels.join(", ")}</dd>
+              </div>
+              {a.mode === "level" ? (
+                <div>
+                  <dt className="text-ink-soft">Hook point height (component frame)</dt>
+                  <dd>{formatLength(a.hookHeightM, units)}</dd>
+                </div>
+              ) : (
+                <div>
+                  <dt className="text-ink-soft">Leg lengths</dt>
+                  <dd>{a.liftPointLabels.map((l) => `${l}: ${formatLength(a.legLengthsM[l] ?? 0, units)}`).join(" · ")}</dd>
+                </div>
+              )}
+              {a.beam && (
+                <div>
+                  <dt className="text-ink-soft">Beam</dt>
+                  <dd>
+                    {formatLength(a.beam.lengthM, units)} long, {formatMass(a.beam.massKg, units)}, WLL {formatMass(a.beam.wllKg, units)}, drops{" "}
+                    {formatLength(a.beam.dropLengthM, units)}
+                  </dd>
+                </div>
+              )}
+              <div>
+                <dt className="text-ink-soft">Gear allocated</dt>
+                <dd>
+                  {Object.keys(rigging.legs).length === 0 && !rigging.craneItemId && !rigging.masterLinkItemId
+                    ? "None yet"
+                    : Object.entries(rigging.legs)
+                        .map(([leg, r]) => `${leg}: ${[r.eyeboltItemId && "eyebolt", r.shackleItemId && "shackle", r.slingItemId && `sling (${HITCH_LABELS[r.hitch].toLowerCase()})`].filter(Boolean).join(", ") || "nothing"}`)
+                        .concat(rigging.masterLinkItemId ? ["master link"] : [], rigging.craneItemId ? ["crane or hoist"] : [])
+                        .join(" · ")}
+                </dd>
+              </div>
+            </dl>
+          </Card>
+          <Card title="Results (computed by Plumbline on every save)">
+            <Results results={revision.results} units={units} />
+          </Card>
+          <Card title="Sequence of the lift">
+            <ol className="list-decimal space-y-2 pl-5 text-sm">
+              {details.sequence.map((step, i) => (
+                <li key={i}>
+                  <span className="font-semibold">{step.title}</span>
+                  {step.holdPoint && <span className="ml-2 rounded bg-brass-soft px-2 py-0.5 text-xs font-semibold text-brass">Hold point: stop until cleared</span>}
+                  {step.notes && <span className="block text-ink-soft">{step.notes}</span>}
+                </li>
+              ))}
+            </ol>
+          </Card>
+          <Card title="Hazards and controls">
+            {details.hazards.length === 0 ? (
+              <EmptyState title="No hazards recorded yet">Every lift has some: list each with its control before the plan goes for review.</EmptyState>
+            ) : (
+              <table>
+                <thead>
+                  <tr>
+                    <th scope="col">Hazard</th>
+                    <th scope="col">Control</th>
+                  </tr>
+                </thead>
+                <tbody>
+                  {details.hazards.map((h, i) => (
+                    <tr key={i}>
+                      <td>{h.hazard}</td>
+                      <td>{h.control}</td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+            )}
+            <dl className="mt-4 grid gap-x-6 gap-y-2 text-sm sm:grid-cols-2">
+              <div>
+                <dt className="text-ink-soft">Exclusion zone</dt>
+                <dd className="whitespace-pre-line">{details.exclusionZone || "—"}</dd>
+              </div>
+              <div>
+                <dt className="text-ink-soft">Communication</dt>
+                <dd className="whitespace-pre-line">{details.communication || "—"}</dd>
+              </div>
+              <div>
+                <dt className="text-ink-soft">Underside clear of the floor by</dt>
+                <dd>{formatLength(details.floorClearanceM, units)}</dd>
+              </div>
+            </dl>
+          </Card>
+          <Card title="People">
+            {details.people.length === 0 ? (
+              <p className="text-sm text-ink-soft">Nobody named yet.</p>
+            ) : (
+              <ul className="space-y-1 text-sm">
+                {details.people.map((p, i) => (
+                  <li key={i}>
+                    <span className="font-semibold">{p.name}</span> · {PERSON_ROLE_LABELS[p.role]}
+                  </li>
+                ))}
+              </ul>
+            )}
+          </Card>
+        </div>
+        <aside>
+          <ComponentViews data={{ ...s, liftPoints: s.liftPoints.filter((p) => a.liftPointLabels.includes(p.label)) }} units={units} />
+        </aside>
+      </div>
+    </>
+  );
+}

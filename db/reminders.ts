@@ -1,0 +1,21 @@
+// `npm run reminders`: e-mails each organisation's admins the gear overdue or due for thorough
+// examination within 30 days. Meant for a daily or weekly scheduler (cron, systemd timer).
+import { sequelize } from "~/db.server";
+import { sendExaminationReminders } from "~/reminders.server";
+
+async function main() {
+  const summaries = await sendExaminationReminders();
+  if (!summaries.length) console.log("No gear is overdue or due within 30 days: no reminders sent.");
+  for (const s of summaries) {
+    const to = s.recipients.length ? `sent to ${s.recipients.join(", ")}` : "NOT sent: the organisation has no active admin";
+    console.log(`Organisation ${s.organisationId}: ${s.overdue} overdue, ${s.dueSoon} due soon; ${to}.`);
+  }
+  await sequelize.close();
+}
+
+main()
+  .then(() => process.exit(0))
+  .catch((error: unknown) => {
+    console.error(error instanceof Error ? error.message : error);
+    process.exit(1);
+  });

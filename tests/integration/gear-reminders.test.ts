@@ -1,0 +1,55 @@
+import { describe, expect, it } from "vitest";
+import { addDays } from "~/gear-due";
+import { CaughtMail, listCaughtMail } from "~/models/caught-mail.server";
+import { sendExaminationReminders } from "~/reminders.server";
+import { makeUser } from "../support/factories";
+import { adminWithSite, makeGearItem } from "./gear-support";
+
+const TODAY = "2031-05-10";
+
+describe("examination reminders", () => {
+  it("e-mails each organisation's admins a table of the items overdue and due within 30 days, and nothing else", async () => {
+    const { admin, rigger, site } = await adminWithSite("Fernbrook Brewery");
+    const due = async (itemCode: string, nextDueOn: string | null, extra: Parameters<typeof makeGearItem>[1] = {}) => {
+      const item = await makeGearItem(admin, { itemCode, ...extra });
+      await item.update({ nextDueOn });
+      return item;
+    };
+    await due("R-OVERDUE", addDays(TODAY, -3), { description: "Dee shackle 2 t", homeSiteId: site.id });
+    await due("R-SOON", addDays(TODAY, 30));
+    await due("R-LATER", addDays(TODAY, 31));
+    await due("R-NEVER", null);
+    const withdrawn = await due("R-WITHDRAWN", addDays(TODAY, -100));
+    await withdrawn.update({ status: "withdrawn" });
+
+    const quiet = await makeUser(["admin"]);
+    await makeGearItem(quiet, { itemCode: "Q-1" }).then((i) => i.update({ nextDueOn: addDays(TODAY, 200) }));
+
+    const summaries = await sendExaminationReminders(TODAY);
+    const mine = summaries.find((s) => s.organisationId === admin.organisationId);
+    expect(mine).toEqual({ organisationId: admin.organisationId, overdue: 1, dueSoon: 1, recipients: [admin.email] });
+    expect(summaries.find((s) => s.organisationId === quiet.organisationId)).toBeUndefined();
+
+    const [mail, ...more] = await listCaughtMail(admin.organisationId);
+    expect(more).toEqual([]);
+    expect(mail!.subject).toBe("Gear examinations: 1 overdue, 1 due within 30 days");
+    expect(mail!.toAddress).toContain(admin.email);
+    expect(mail!.toAddress).not.toContain(rigger.email);
+    expect(mail!.textBody).toContain("OVERDUE (do not use until examined):");
+    expect(mail!.textBody).toMatch(/R-OVERDUE\s+2031-05-07\s+Shackle, Dee shackle 2 t \(Fernbrook Brewery\)/);
+    expect(mail!.textBody).toMatch(/Due within 30 days:\n\s+R-SOON\s+2031-06-09/);
+    for (const absent of ["R-LATER", "R-NEVER", "R-WITHDRAWN"]) expect(mail!.textBody).not.toContain(absent);
+    expect(mail!.htmlBody).toContain("<td>R-OVERDUE</td>");
+    expect(mail!.htmlBody).toContain("<strong>OVERDUE</strong>");
+    expect(await CaughtMail.count({ where: { organisationId: quiet.organisationId } })).toBe(0);
+  });
+
+  it("escapes item text in the HTML table", async () => {
+    const { admin } = await adminWithSite();
+    await makeGearItem(admin, { itemCode: "H-1", description: "<script>x</script>" }).then((i) => i.update({ nextDueOn: TODAY }));
+    await sendExaminationReminders(TODAY);
+    const [mail] = await listCaughtMail(admin.organisationId);
+    expect(mail!.htmlBody).toContain("&lt;script&gt;x&lt;/script&gt;");
+    expect(mail!.htmlBody).not.toContain("<script>");
+  });
+});
