@@ -169,10 +169,44 @@ export const planDocumentSchema = z.object({
 });
 export type PlanDocument = z.infer<typeof planDocumentSchema>;
 
+const coordinate = (label: string) =>
+  finite(label).min(-MAX_PLAN_LENGTH_M, `The ${label} is out of range.`).max(MAX_PLAN_LENGTH_M, `The ${label} is out of range.`);
+const position = z.object({ x: coordinate("x coordinate"), y: coordinate("y coordinate"), z: coordinate("z coordinate") });
+
+/**
+ * Edits the editor makes to the plan's own copy of the load: where the CoG and the lift points are.
+ * The component itself is never changed from a plan.
+ */
+export const loadEditSchema = z.object({
+  cog: position,
+  liftPoints: z.array(z.object({ label: liftPointLabel, position })).max(12, "At most 12 lift points."),
+});
+export type LoadEdit = z.infer<typeof loadEditSchema>;
+
 /** A PUT of the document: the version the editor loaded and the editable parts. Anything else (results, figures) is dropped. */
 export const planPutSchema = planDocumentSchema.extend({
   version: z.number({ error: "Send the version of the plan you loaded." }).int().positive("Send the version of the plan you loaded."),
+  load: loadEditSchema.optional(),
 });
+
+/** The snapshot with the editor's load edits applied; issues for lift points the snapshot does not have. */
+export function applyLoadEdit(snapshot: ComponentDefinition, edit: LoadEdit | undefined): { snapshot: ComponentDefinition; issues: PlanIssue[] } {
+  if (!edit) return { snapshot, issues: [] };
+  const issues: PlanIssue[] = [];
+  const moved = new Map(edit.liftPoints.map((p) => [p.label, p.position]));
+  const known = new Set(snapshot.liftPoints.map((p) => p.label));
+  edit.liftPoints.forEach((p, i) => {
+    if (!known.has(p.label)) issues.push({ path: ["load", "liftPoints", i, "label"], message: `The load has no lift point ${p.label}.` });
+  });
+  return {
+    snapshot: {
+      ...snapshot,
+      cog: edit.cog,
+      liftPoints: snapshot.liftPoints.map((p) => ({ ...p, position: moved.get(p.label) ?? p.position })),
+    },
+    issues,
+  };
+}
 
 export type PlanIssue = { path: Array<string | number>; message: string };
 

@@ -50,6 +50,7 @@ export default [
   ...prefix("plans", [
     route("new", "routes/plans.new.tsx"),
     route(":planId", "routes/plans.$planId.tsx"),
+    route(":planId/edit", "routes/plans.$planId.edit.tsx"),
     route(":planId/details", "routes/plans.$planId.details.tsx"),
   ]),
 

@@ -133,6 +133,7 @@ export default function PlanCanvas(props: PlanCanvasProps) {
   return (
     <Stage
       ref={stageRef}
+      name={`view-${view}`}
       width={width}
       height={height}
       onWheel={onWheel}
@@ -193,20 +194,26 @@ export default function PlanCanvas(props: PlanCanvasProps) {
               return (
                 <Group key={`leg-${p.label}`}>
                   <Line points={[hookScreen.x, hookScreen.y, s.x, s.y]} stroke={colour} strokeWidth={figure?.tone === "fail" ? 4 : 3} dash={figure?.slack ? [8, 6] : undefined} />
-                  {figure && (
-                    <Text
-                      x={(hookScreen.x + s.x) / 2 + 6}
-                      y={(hookScreen.y + s.y) / 2 - 8}
-                      text={figure.text}
-                      fontSize={12}
-                      fontFamily="Barlow, sans-serif"
-                      fill={colour}
-                      padding={2}
-                    />
-                  )}
                 </Group>
               );
             })}
+        {legs.length > 0 && (
+          <Group x={8} y={8}>
+            <Rect width={Math.min(width - 16, 250)} height={legs.length * 17 + 8} fill="#ffffff" opacity={0.85} cornerRadius={3} />
+            {legs.map((leg, i) => (
+              <Text
+                key={leg.label}
+                x={6}
+                y={5 + i * 17}
+                text={`${leg.text}${leg.slack ? " (slack)" : ""}`}
+                fontSize={12}
+                fontStyle="bold"
+                fontFamily="Barlow, sans-serif"
+                fill={COLOURS[leg.tone]}
+              />
+            ))}
+          </Group>
+        )}
         <Group>
           <Line points={[16, height - 16, 16 + bar * transform.scalePxPerM, height - 16]} stroke={COLOURS.ink} strokeWidth={3} />
           <Text x={16} y={height - 34} text={formatLength(bar, units)} fontSize={12} fontFamily="Barlow, sans-serif" fill={COLOURS.ink} />
@@ -230,6 +237,7 @@ export default function PlanCanvas(props: PlanCanvasProps) {
           return (
             <Group
               key={p.label}
+              name={`lift-point-${p.label}`}
               x={s.x}
               y={s.y}
               draggable={!onPick}

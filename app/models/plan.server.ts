@@ -17,6 +17,7 @@ import { getReferenceTables } from "~/models/reference-row.server";
 import {
   arrangementSchema,
   defaultArrangement,
+  applyLoadEdit,
   defaultDetails,
   detailsSchema,
   diffComponentDefinitions,
@@ -25,6 +26,7 @@ import {
   snapshotIssues,
   type Arrangement,
   type ComponentChange,
+  type LoadEdit,
   type PlanDetails,
   type PlanDocument,
   type PlanIssue,
@@ -260,15 +262,24 @@ async function updateDraft(revisionId: number, expectedVersion: number, values: 
  * Saves the draft revision's document when `expectedVersion` is still current, recomputing the results on
  * the server. Nothing is written unless everything is valid and the version matches.
  */
-export async function savePlanRevision(organisationId: number, planId: number, expectedVersion: number, document: PlanDocument, actorId: number): Promise<SaveResult> {
+export async function savePlanRevision(
+  organisationId: number,
+  planId: number,
+  expectedVersion: number,
+  document: PlanDocument,
+  actorId: number,
+  loadEdit?: LoadEdit,
+): Promise<SaveResult> {
   const tables = await getReferenceTables();
   return sequelize.transaction(async (transaction) => {
     const locked = await lockedWrite(organisationId, planId, expectedVersion, transaction);
     if (!locked.ok) return locked.result;
     const { plan, revision } = locked.found;
-    const issues = snapshotIssues(document, revision.snapshot);
+    const edited = applyLoadEdit(revision.snapshot, loadEdit);
+    const snapshot = edited.snapshot;
+    const issues = [...edited.issues, ...snapshotIssues(document, snapshot)];
     if (issues.length > 0) return { status: "invalid", issues, error: `The plan does not fit its load: ${issues[0]!.message}` };
-    const results = await computePlanResults(revision.snapshot, document.arrangement, document.rigging, organisationId, todayIso(), {
+    const results = await computePlanResults(snapshot, document.arrangement, document.rigging, organisationId, todayIso(), {
       details: document.details,
       tables,
       transaction,
@@ -278,6 +289,7 @@ export async function savePlanRevision(organisationId: number, planId: number, e
       revision.id,
       expectedVersion,
       {
+        ...(loadEdit ? { loadSnapshot: JSON.stringify(snapshot) } : {}),
         arrangement: JSON.stringify(document.arrangement),
         rigging: JSON.stringify(document.rigging),
         details: JSON.stringify(document.details),

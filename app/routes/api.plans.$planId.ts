@@ -47,8 +47,8 @@ export async function action({ request, params }: Route.ActionArgs) {
     const issues = zodIssues(parsed.error);
     return badRequest(`The plan is not valid: ${describeIssue(issues[0]!)}`, issues);
   }
-  const { version, ...document } = parsed.data;
-  const saved = await savePlanRevision(user.organisationId, planId, version, document, user.id);
+  const { version, load, ...document } = parsed.data;
+  const saved = await savePlanRevision(user.organisationId, planId, version, document, user.id, load);
   switch (saved.status) {
     case "not-found":
       return notFound();
