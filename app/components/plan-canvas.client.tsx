@@ -38,6 +38,8 @@ export type PlanCanvasProps = {
   snap: boolean;
   dispatch: (action: EditorAction) => void;
   backdrop?: Backdrop | null;
+  /** A lifting beam: its height (z, component frame); drops hang vertically from it to the lift points, its lug sits over the CoG. */
+  beamZM?: number | null;
   /** When set, clicks report world points (for setting a drawing's scale) instead of editing. */
   onPick?: ((point: { a: number; b: number; x: number; y: number }) => void) | null;
 };
@@ -69,7 +71,7 @@ function unproject(base: Vec3, view: ViewKind, a: number, b: number): Vec3 {
 
 /** One view of the plan, drawn to scale; lift points, CoG and (in elevation, level mode) the hook can be dragged. */
 export default function PlanCanvas(props: PlanCanvasProps) {
-  const { view, width, height, edit, outline, hook, legs, units, gridM, snap, dispatch, backdrop, onPick } = props;
+  const { view, width, height, edit, outline, hook, legs, units, gridM, snap, dispatch, backdrop, onPick, beamZM = null } = props;
   const stageRef = useRef<Konva.Stage>(null);
 
   const box = useMemo(() => {
@@ -184,7 +186,7 @@ export default function PlanCanvas(props: PlanCanvasProps) {
           stroke={COLOURS.outline}
           strokeWidth={2}
         />
-        {hookScreen &&
+        {hookScreen && beamZM === null &&
           edit.liftPoints
             .filter((p) => usedLabels.has(p.label))
             .map((p) => {
@@ -192,11 +194,36 @@ export default function PlanCanvas(props: PlanCanvasProps) {
               const figure = legs.find((l) => l.label === p.label);
               const colour = COLOURS[figure?.tone ?? "none"];
               return (
-                <Group key={`leg-${p.label}`}>
-                  <Line points={[hookScreen.x, hookScreen.y, s.x, s.y]} stroke={colour} strokeWidth={figure?.tone === "fail" ? 4 : 3} dash={figure?.slack ? [8, 6] : undefined} />
-                </Group>
+                <Line
+                  key={`leg-${p.label}`}
+                  points={[hookScreen.x, hookScreen.y, s.x, s.y]}
+                  stroke={colour}
+                  strokeWidth={figure?.tone === "fail" ? 4 : 3}
+                  dash={figure?.slack ? [8, 6] : undefined}
+                />
               );
             })}
+        {hookScreen && beamZM !== null && (() => {
+          const used = edit.liftPoints.filter((p) => usedLabels.has(p.label));
+          const lug = project({ x: edit.cog.x, y: edit.cog.y, z: beamZM }, view);
+          const lugScreen = S(lug.a, lug.b);
+          const ends = used.map((p) => project({ ...p.position, z: beamZM }, view));
+          const as = ends.map((e) => e.a);
+          const beamStart = view === "elevation" ? S(Math.min(...as, lug.a), lug.b) : S(ends[0]?.a ?? lug.a, ends[0]?.b ?? lug.b);
+          const beamEnd = view === "elevation" ? S(Math.max(...as, lug.a), lug.b) : S(ends.at(-1)?.a ?? lug.a, ends.at(-1)?.b ?? lug.b);
+          return (
+            <Group>
+              {used.map((p) => {
+                const figure = legs.find((l) => l.label === p.label);
+                const bottom = S(project(p.position, view).a, project(p.position, view).b);
+                const top = S(project({ ...p.position, z: beamZM }, view).a, project({ ...p.position, z: beamZM }, view).b);
+                return <Line key={`drop-${p.label}`} points={[top.x, top.y, bottom.x, bottom.y]} stroke={COLOURS[figure?.tone ?? "none"]} strokeWidth={3} />;
+              })}
+              <Line points={[beamStart.x, beamStart.y, beamEnd.x, beamEnd.y]} stroke={COLOURS.ink} strokeWidth={8} lineCap="round" />
+              <Line points={[hookScreen.x, hookScreen.y, lugScreen.x, lugScreen.y]} stroke={COLOURS.ink} strokeWidth={3} />
+            </Group>
+          );
+        })()}
         {legs.length > 0 && (
           <Group x={8} y={8}>
             <Rect width={Math.min(width - 16, 250)} height={legs.length * 17 + 8} fill="#ffffff" opacity={0.85} cornerRadius={3} />

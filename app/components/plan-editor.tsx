@@ -318,6 +318,10 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
     setCalibrationDistance("");
   }
 
+  const beamZM =
+    edit.arrangement.kind === "beam" && edit.arrangement.beam
+      ? Math.max(...edit.liftPoints.filter((p) => edit.arrangement.liftPointLabels.includes(p.label)).map((p) => p.position.z)) + edit.arrangement.beam.dropLengthM
+      : null;
   const viewWidth = viewsWidth >= 900 ? Math.floor((viewsWidth - 16) / 2) : viewsWidth;
   const viewHeight = Math.max(260, Math.min(460, Math.round(viewWidth * 0.75)));
   const usedPoints = edit.liftPoints.filter((p) => edit.arrangement.liftPointLabels.includes(p.label));
@@ -374,6 +378,7 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
                   snap={snap}
                   dispatch={canEdit ? dispatch : () => undefined}
                   backdrop={view === "elevation" ? backdrop : null}
+                  beamZM={beamZM}
                   onPick={calibration && view === "elevation" ? pickForCalibration : null}
                 />
               </Suspense>
