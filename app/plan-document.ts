@@ -19,7 +19,7 @@ export const PLAN_STATUS_LABELS: Record<PlanStatus, string> = {
 
 /** Shown wherever plan figures appear (results, print, approval). */
 export const PLAN_CAUTION =
-  "This plan supports, and does not replace, the judgement of the appointed person and local lifting regulations (LOLER / BS 7121, OSHA / ASME B30, or the local equivalent); figures assume a rigid load, legs meeting at one point, the marked WLLs and the mass and CoG as entered.";
+  "This plan supports, and does not replace, the judgement of the appointed person and local lifting regulations (LOLER / BS 7121, OSHA / ASME B30, or the local equivalent); work within the equipment's marked limits. Figures assume a rigid load, legs meeting at one point, the marked WLLs and the mass and CoG as entered.";
 
 /** Longest plan title, characters. */
 export const MAX_TITLE = 200;

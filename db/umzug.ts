@@ -7,6 +7,7 @@ import * as gearRegister from "./migrations/0004-gear-register";
 import * as referenceTables from "./migrations/0005-reference-tables";
 import * as plans from "./migrations/0006-plans";
 import * as componentFiles from "./migrations/0007-component-files";
+import * as planWorkflow from "./migrations/0008-plan-workflow";
 
 export type Migration = (params: { context: QueryInterface }) => Promise<void>;
 type MigrationModule = { up: Migration; down: Migration };
@@ -23,6 +24,7 @@ export const migrations: Array<[name: string, module: MigrationModule]> = [
   ["0005-reference-tables", referenceTables],
   ["0006-plans", plans],
   ["0007-component-files", componentFiles],
+  ["0008-plan-workflow", planWorkflow],
 ];
 
 /** The umzug runner over `sequelize`, recording applied migrations in SequelizeMeta. */

@@ -1,5 +1,6 @@
 import {
   DataTypes,
+  Op,
   Model,
   type CreationOptional,
   type InferAttributes,
@@ -66,6 +67,19 @@ export class PlanRevision extends Model<InferAttributes<PlanRevision>, InferCrea
   declare results: string;
   declare details: string;
   declare plannedBy: number;
+  declare submittedBy: CreationOptional<number | null>;
+  declare submittedAt: CreationOptional<Date | null>;
+  declare approvedBy: CreationOptional<number | null>;
+  declare approvedAt: CreationOptional<Date | null>;
+  declare approverName: CreationOptional<string | null>;
+  declare approvalComment: CreationOptional<string | null>;
+  declare selfApproved: CreationOptional<boolean>;
+  declare fingerprint: CreationOptional<string | null>;
+  declare verifyToken: CreationOptional<string | null>;
+  declare assignedRiggerId: CreationOptional<number | null>;
+  declare supersededByRevision: CreationOptional<number | null>;
+  declare closedReason: CreationOptional<string | null>;
+  declare closedAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -100,6 +114,19 @@ PlanRevision.init(
     results: { type: DataTypes.TEXT, allowNull: false },
     details: { type: DataTypes.TEXT, allowNull: false },
     plannedBy: { type: DataTypes.INTEGER, allowNull: false },
+    submittedBy: { type: DataTypes.INTEGER, allowNull: true },
+    submittedAt: { type: DataTypes.DATE, allowNull: true },
+    approvedBy: { type: DataTypes.INTEGER, allowNull: true },
+    approvedAt: { type: DataTypes.DATE, allowNull: true },
+    approverName: { type: DataTypes.STRING(200), allowNull: true },
+    approvalComment: { type: DataTypes.TEXT, allowNull: true },
+    selfApproved: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
+    fingerprint: { type: DataTypes.STRING(64), allowNull: true },
+    verifyToken: { type: DataTypes.STRING(64), allowNull: true },
+    assignedRiggerId: { type: DataTypes.INTEGER, allowNull: true },
+    supersededByRevision: { type: DataTypes.INTEGER, allowNull: true },
+    closedReason: { type: DataTypes.TEXT, allowNull: true },
+    closedAt: { type: DataTypes.DATE, allowNull: true },
     createdAt: DataTypes.DATE,
     updatedAt: DataTypes.DATE,
   },
@@ -132,6 +159,18 @@ export function readRevision(revision: PlanRevision) {
     details: detailsSchema.parse(JSON.parse(revision.details)) as PlanDetails,
     results: JSON.parse(revision.results) as PlanResults,
     plannedBy: revision.plannedBy,
+    submittedBy: revision.submittedBy ?? null,
+    submittedAt: revision.submittedAt ?? null,
+    approvedBy: revision.approvedBy ?? null,
+    approvedAt: revision.approvedAt ?? null,
+    approverName: revision.approverName ?? null,
+    approvalComment: revision.approvalComment ?? null,
+    selfApproved: revision.selfApproved ?? false,
+    fingerprint: revision.fingerprint ?? null,
+    assignedRiggerId: revision.assignedRiggerId ?? null,
+    supersededByRevision: revision.supersededByRevision ?? null,
+    closedReason: revision.closedReason ?? null,
+    closedAt: revision.closedAt ?? null,
     updatedAt: revision.updatedAt,
   };
 }
@@ -244,16 +283,19 @@ async function lockedWrite(
 ): Promise<{ ok: true; found: NonNullable<Awaited<ReturnType<typeof getPlan>>> } | { ok: false; result: SaveResult }> {
   const found = await getPlan(organisationId, planId, transaction);
   if (!found) return { ok: false, result: { status: "not-found" } };
-  if (found.revision.status !== "draft") return { ok: false, result: { status: "frozen", planStatus: found.revision.status } };
+  if (!EDITABLE_STATUSES.includes(found.revision.status)) return { ok: false, result: { status: "frozen", planStatus: found.revision.status } };
   if (found.revision.version !== expectedVersion) return { ok: false, result: { status: "stale", version: found.revision.version } };
   return { ok: true, found };
 }
 
-/** UPDATE ... WHERE version = expected AND status = draft; false when someone else got there first. */
+/** Revisions a planner may still change: drafts, and revisions returned with comments (saving one makes it a draft again). */
+export const EDITABLE_STATUSES: readonly PlanStatus[] = ["draft", "returned"];
+
+/** UPDATE ... WHERE version = expected AND status is editable; false when someone else got there first. */
 async function updateDraft(revisionId: number, expectedVersion: number, values: Partial<InferAttributes<PlanRevision>>, transaction: Transaction) {
   const [count] = await PlanRevision.update(
-    { ...values, version: expectedVersion + 1 },
-    { where: { id: revisionId, version: expectedVersion, status: "draft" }, transaction },
+    { ...values, status: "draft", version: expectedVersion + 1 },
+    { where: { id: revisionId, version: expectedVersion, status: { [Op.in]: [...EDITABLE_STATUSES] } }, transaction },
   );
   return count === 1;
 }
