@@ -8,6 +8,7 @@ export default [
   route("set-password/:token", "routes/set-password.$token.tsx"),
   route("settings", "routes/settings.tsx"),
   route("reference", "routes/reference.tsx"),
+  route("verify/:token", "routes/verify.$token.tsx"),
 
   ...prefix("sites", [
     index("routes/sites._index.tsx"),
@@ -52,6 +53,10 @@ export default [
     route(":planId", "routes/plans.$planId.tsx"),
     route(":planId/edit", "routes/plans.$planId.edit.tsx"),
     route(":planId/details", "routes/plans.$planId.details.tsx"),
+    route(":planId/submit", "routes/plans.$planId.submit.tsx"),
+    route(":planId/review", "routes/plans.$planId.review.tsx"),
+    route(":planId/history", "routes/plans.$planId.history.tsx"),
+    route(":planId/lift", "routes/plans.$planId.lift.tsx"),
   ]),
 
   ...prefix("api", [

@@ -382,6 +382,15 @@ export async function listGearDueBy(until: string) {
   });
 }
 
+/** One organisation's items overdue or due by `until`, soonest first (the admin's dashboard). */
+export async function listOrganisationGearDueBy(organisationId: number, until: string, limit = 15) {
+  return GearItem.findAll({
+    where: { organisationId, status: { [Op.ne]: "withdrawn" }, nextDueOn: { [Op.lte]: until } },
+    order: [["nextDueOn", "ASC"], ["itemCode", "ASC"]],
+    limit,
+  });
+}
+
 // ----- import -----
 
 export type ImportCounts = { created: number; updated: number; unchanged: number };

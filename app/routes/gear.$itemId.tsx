@@ -243,7 +243,7 @@ export default function GearItemPage({ loaderData, actionData }: Route.Component
           )}
 
           <Card title="Report a defect">
-            <Form method="post" className="space-y-3">
+            <Form method="post" className="space-y-3" id="report-defect">
               <input type="hidden" name="intent" value="defect" />
               <FormError message={errorsFor("defect")._form?.join(" ")} />
               <p className="text-sm text-ink-soft">

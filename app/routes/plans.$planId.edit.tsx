@@ -32,7 +32,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
         .filter((f) => f.storedFile?.contentType.startsWith("image/"))
         .map((f) => ({ fileId: f.storedFileId, name: f.storedFile?.originalName ?? "", caption: f.caption }))
     : [];
-  return { plan, picks, files, units: user.units, canEdit: plan.status === "draft" };
+  return { plan, picks, files, units: user.units, canEdit: plan.status === "draft" || plan.status === "returned" };
 }
 
 function useHydrated() {

@@ -5,7 +5,10 @@ import { ComponentViews } from "~/components/component-views";
 import { Button, Card, EmptyState, FormError, PageHeader } from "~/components/ui/form";
 import { COG_SOURCE_LABELS, MASS_SOURCE_LABELS } from "~/component-definition";
 import { parseForm } from "~/forms";
-import { compareWithComponent, getPlan, pullComponentVersion } from "~/models/plan.server";
+import { compareWithComponent, EDITABLE_STATUSES, getPlan, pullComponentVersion } from "~/models/plan.server";
+import { assignRigger, cancelPlan, getWorkflowView, startNewRevision } from "~/models/plan-workflow.server";
+import { listUsersWithRole } from "~/models/user.server";
+import { WorkflowPanel } from "~/components/plan-workflow-panel";
 import { HITCH_LABELS, PERSON_ROLE_LABELS, PLAN_CAUTION, PLAN_STATUS_LABELS, type PlanResults } from "~/plan-document";
 import { hasAnyRole } from "~/roles";
 import { flashNotice, requireUser, requireUserWithRole } from "~/session.server";
@@ -13,7 +16,12 @@ import type { CheckStatus } from "~/statics/checks";
 import { ceilTo } from "~/statics/units";
 import { formatLength, formatMass, type Units } from "~/units-format";
 
-const schema = z.object({ intent: z.literal("pull-component"), version: z.coerce.number().int().positive() });
+const schema = z.discriminatedUnion("intent", [
+  z.object({ intent: z.literal("pull-component"), version: z.coerce.number().int().positive() }),
+  z.object({ intent: z.literal("new-revision") }),
+  z.object({ intent: z.literal("cancel"), reason: z.string({ error: "Say why the plan is cancelled." }) }),
+  z.object({ intent: z.literal("assign-rigger"), riggerId: z.coerce.number({ error: "Choose a rigger." }).int().positive("Choose a rigger.") }),
+]);
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.plan.title ?? "Lift plan"} · Plumbline` }];
 
@@ -34,15 +42,37 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     revision,
     comparison,
     units: user.units,
-    canEdit: hasAnyRole(user, "planner", "admin") && revision.status === "draft",
+    canEdit: hasAnyRole(user, "planner", "admin") && EDITABLE_STATUSES.includes(revision.status),
+    workflow: await getWorkflowView(user.organisationId, plan.id, user),
+    riggers: (await listUsersWithRole(user.organisationId, "rigger")).map((r) => ({ id: r.id, name: r.name })),
   };
 }
 
 export async function action({ request, params }: Route.ActionArgs) {
-  const user = await requireUserWithRole(request, "planner", "admin");
+  const user = await requireUserWithRole(request, "planner", "admin", "approver");
   const { plan } = await requirePlan(user.organisationId, params.planId);
   const form = parseForm(schema, await request.formData());
-  if (!form.ok) return data({ error: "The request is missing its version; reload the page and try again." }, { status: 400 });
+  if (!form.ok) return data({ error: Object.values(form.errors).flat()[0] ?? "The request is not complete; reload the page and try again." }, { status: 400 });
+  if (form.data.intent !== "pull-component") {
+    const done =
+      form.data.intent === "new-revision"
+        ? await startNewRevision(user.organisationId, plan.id, user)
+        : form.data.intent === "cancel"
+          ? await cancelPlan(user.organisationId, plan.id, user, form.data.reason)
+          : await assignRigger(user.organisationId, plan.id, user, form.data.riggerId, request);
+    if (!done.ok) {
+      if (done.status === 404) throw data({ message: done.message }, { status: 404 });
+      return data({ error: done.message }, { status: done.status });
+    }
+    const notice =
+      form.data.intent === "new-revision"
+        ? "A new draft revision is started from the approved one, which stays approved until the new one is approved."
+        : form.data.intent === "cancel"
+          ? "The plan is cancelled."
+          : "The rigger is assigned and told by e-mail.";
+    throw redirect(form.data.intent === "new-revision" ? `/plans/${plan.id}/edit` : `/plans/${plan.id}`, { headers: { "Set-Cookie": await flashNotice(request, notice) } });
+  }
+  if (!hasAnyRole(user, "planner", "admin")) throw data({ message: "This needs the Planner or Admin role." }, { status: 403 });
   const pulled = await pullComponentVersion(user.organisationId, plan.id, form.data.version, user.id);
   switch (pulled.status) {
     case "not-found":
@@ -192,7 +222,7 @@ function Results({ results, units }: { results: PlanResults; units: Units }) {
 }
 
 export default function PlanPage({ loaderData, actionData }: Route.ComponentProps) {
-  const { plan, job, revision, comparison, units, canEdit } = loaderData;
+  const { plan, job, revision, comparison, units, canEdit, workflow, riggers } = loaderData;
   const { snapshot: s, arrangement: a, rigging, details } = revision;
   const planMass = s.massKg * (1 + s.contingencyPct / 100);
   return (
@@ -202,10 +232,18 @@ export default function PlanPage({ loaderData, actionData }: Route.ComponentProp
           Back to the job
         </a>
         {canEdit && (
-          <a href={`/plans/${plan.id}/details`} className="rounded bg-steel px-4 py-2 text-sm font-semibold text-white no-underline hover:no-underline">
-            Edit sequence, hazards and people
+          <a href={`/plans/${plan.id}/edit`} className="rounded bg-steel px-4 py-2 text-sm font-semibold text-white no-underline hover:no-underline">
+            Lay out the lift
           </a>
         )}
+        {canEdit && (
+          <a href={`/plans/${plan.id}/details`} className="rounded border border-rule bg-white px-4 py-2 text-sm font-semibold text-ink no-underline">
+            Sequence, hazards and people
+          </a>
+        )}
+        <a href={`/plans/${plan.id}/history`} className="rounded border border-rule bg-white px-4 py-2 text-sm font-semibold text-ink no-underline">
+          History
+        </a>
       </PageHeader>
       <p className="mb-4 text-sm">
         Revision {revision.revision} · <span className="font-semibold">{PLAN_STATUS_LABELS[revision.status]}</span> · saved version {revision.version}
@@ -237,6 +275,7 @@ export default function PlanPage({ loaderData, actionData }: Route.ComponentProp
         </div>
       )}
       <FormError message={actionData?.error} />
+      {workflow && <WorkflowPanel planId={plan.id} workflow={workflow} riggers={riggers} />}
       <div className="grid gap-6 lg:grid-cols-[minmax(0,1fr)_24rem]">
         <div className="space-y-6">
           <Card title="Load (as copied into this plan)">

@@ -1,0 +1,61 @@
+import { data } from "react-router";
+import type { Route } from "./+types/plans.$planId.history";
+import { EmptyState, PageHeader } from "~/components/ui/form";
+import { getPlan } from "~/models/plan.server";
+import { listPlanHistory } from "~/models/plan-workflow.server";
+import { requireUser } from "~/session.server";
+
+export const meta: Route.MetaFunction = () => [{ title: "History · Plumbline" }];
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const user = await requireUser(request);
+  const found = await getPlan(user.organisationId, Number(params.planId));
+  if (!found) throw data({ message: "There is no such plan in your organisation." }, { status: 404 });
+  return { plan: { id: found.plan.id, title: found.plan.title }, events: await listPlanHistory(user.organisationId, found.plan.id) };
+}
+
+function describe(details: Record<string, unknown>) {
+  return Object.entries(details)
+    .filter(([k]) => k !== "fingerprint")
+    .map(([k, v]) => `${k.replace(/([A-Z])/g, " $1").toLowerCase()}: ${typeof v === "object" ? JSON.stringify(v) : String(v)}`)
+    .join(" · ");
+}
+
+export default function PlanHistory({ loaderData }: Route.ComponentProps) {
+  const { plan, events } = loaderData;
+  return (
+    <>
+      <PageHeader title={`History of ${plan.title}`} lead="Every state change, acknowledgement, approval, print and record, with who and when. It cannot be edited.">
+        <a href={`/plans/${plan.id}`} className="px-2 py-2 text-sm">
+          Back to the plan
+        </a>
+      </PageHeader>
+      {events.length === 0 ? (
+        <EmptyState title="Nothing yet">The plan's history starts when it is created.</EmptyState>
+      ) : (
+        <div className="overflow-x-auto rounded border border-rule bg-card">
+          <table data-testid="history">
+            <thead>
+              <tr>
+                <th scope="col">When (UTC)</th>
+                <th scope="col">Who</th>
+                <th scope="col">What</th>
+                <th scope="col">Details</th>
+              </tr>
+            </thead>
+            <tbody>
+              {events.map((e) => (
+                <tr key={e.id}>
+                  <td className="whitespace-nowrap">{new Date(e.at).toLocaleString("en-GB", { timeZone: "UTC" })}</td>
+                  <td>{e.by}</td>
+                  <td className="font-semibold">{e.action}</td>
+                  <td className="text-ink-soft">{describe(e.details)}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+    </>
+  );
+}

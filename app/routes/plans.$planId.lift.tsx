@@ -1,0 +1,174 @@
+import { data, Form, redirect } from "react-router";
+import type { Route } from "./+types/plans.$planId.lift";
+import { Button, Card, FormError, PageHeader } from "~/components/ui/form";
+import { gearPicksByIds } from "~/gear-picks.server";
+import { getReferenceTables } from "~/models/reference-row.server";
+import { getWorkflowView, PRE_LIFT_CHECKLIST, recordLift, type ChecklistId } from "~/models/plan-workflow.server";
+import { getPlan } from "~/models/plan.server";
+import { PERSON_ROLE_LABELS, PLAN_CAUTION, type RiggingAllocation } from "~/plan-document";
+import { GEAR_ROLE_LABELS } from "~/plan-rigging";
+import { flashNotice, requireUserWithRole } from "~/session.server";
+import { checkUpload, readUploadForm, type CheckedUpload } from "~/uploads.server";
+import { formatMass } from "~/units-format";
+
+export const meta: Route.MetaFunction = () => [{ title: "At the lift · Plumbline" }];
+
+function scheduleOf(rigging: RiggingAllocation) {
+  const rows: Array<{ position: string; itemId: number }> = [];
+  for (const [leg, r] of Object.entries(rigging.legs)) {
+    if (r.eyeboltItemId) rows.push({ position: `Leg ${leg} eyebolt`, itemId: r.eyeboltItemId });
+    if (r.shackleItemId) rows.push({ position: `Leg ${leg} shackle`, itemId: r.shackleItemId });
+    if (r.slingItemId) rows.push({ position: `Leg ${leg} sling`, itemId: r.slingItemId });
+  }
+  if (rigging.masterLinkItemId) rows.push({ position: "Master link", itemId: rigging.masterLinkItemId });
+  if (rigging.craneItemId) rows.push({ position: "Crane or hoist", itemId: rigging.craneItemId });
+  return rows;
+}
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const user = await requireUserWithRole(request, "rigger");
+  const found = await getPlan(user.organisationId, Number(params.planId));
+  if (!found) throw data({ message: "There is no such plan in your organisation." }, { status: 404 });
+  const workflow = (await getWorkflowView(user.organisationId, found.plan.id, user))!;
+  const approved = workflow.approved;
+  if (!approved || approved.status !== "approved") {
+    throw data({ message: "This plan has no approved revision to lift: only an approved, current revision goes to the lift." }, { status: 409 });
+  }
+  const rows = scheduleOf(approved.rigging);
+  const picks = new Map((await gearPicksByIds(user.organisationId, rows.map((r) => r.itemId), await getReferenceTables())).map((p) => [p.id, p]));
+  return {
+    plan: { id: found.plan.id, title: found.plan.title, revision: approved.revision, approverName: approved.approverName },
+    massKg: approved.snapshot.massKg * (1 + approved.snapshot.contingencyPct / 100),
+    schedule: rows.map((r) => {
+      const p = picks.get(r.itemId);
+      return { ...r, itemCode: p?.itemCode ?? `#${r.itemId}`, description: p?.description ?? "", wllKg: p?.wllKg ?? null, role: p ? GEAR_ROLE_LABELS[p.role] : "", nextDueOn: p?.nextDueOn ?? null, status: p?.status ?? null };
+    }),
+    details: approved.details,
+    canRecord: workflow.permissions["record-lift"].allowed,
+    units: user.units,
+  };
+}
+
+export async function action({ request, params }: Route.ActionArgs) {
+  const user = await requireUserWithRole(request, "rigger");
+  const planId = Number(params.planId);
+  const upload = await readUploadForm(request, { maxFiles: 3 });
+  if (!upload.ok) return data({ error: upload.message }, { status: upload.status });
+  const form = upload.formData;
+  const checklist = Object.fromEntries(PRE_LIFT_CHECKLIST.map((c) => [c.id, form.get(`check-${c.id}`) === "on"])) as Record<ChecklistId, boolean>;
+  const liftedRaw = String(form.get("liftedAt") ?? "");
+  const liftedAt = liftedRaw ? new Date(`${liftedRaw}Z`) : new Date();
+  if (Number.isNaN(liftedAt.getTime())) return data({ error: "Give the time of the lift as a date and time." }, { status: 400 });
+  const photos: CheckedUpload[] = [];
+  for (const value of form.getAll("photos")) {
+    if (!(value instanceof File) || (value.size === 0 && !value.name)) continue;
+    const checked = await checkUpload(value, ["png", "jpeg"]);
+    if (!checked.ok) return data({ error: checked.message }, { status: 400 });
+    photos.push(checked.upload);
+  }
+  const result = await recordLift(
+    user.organisationId,
+    planId,
+    user,
+    {
+      checklist,
+      liftedAt,
+      notes: String(form.get("notes") ?? ""),
+      nearMiss: form.get("nearMiss") === "on",
+      nearMissDetails: String(form.get("nearMissDetails") ?? ""),
+    },
+    photos,
+  );
+  if (!result.ok) {
+    if (result.status === 404) throw data({ message: result.message }, { status: 404 });
+    return data({ error: result.message }, { status: result.status });
+  }
+  throw redirect(`/plans/${planId}`, { headers: { "Set-Cookie": await flashNotice(request, "The lift is recorded and the plan is completed.") } });
+}
+
+export default function AtTheLift({ loaderData, actionData }: Route.ComponentProps) {
+  const { plan, schedule, details, canRecord, massKg, units } = loaderData;
+  return (
+    <>
+      <PageHeader title={plan.title} lead={`Approved revision ${plan.revision}${plan.approverName ? `, approved by ${plan.approverName}` : ""} · load with contingency ${formatMass(massKg, units)}`}>
+        <a href={`/plans/${plan.id}/print.pdf`} className="rounded border border-rule bg-white px-4 py-2 text-sm font-semibold text-ink no-underline">
+          Print (PDF)
+        </a>
+      </PageHeader>
+      <p role="note" className="mb-4 rounded border border-brass/40 bg-brass-soft px-3 py-2 text-sm">
+        {PLAN_CAUTION}
+      </p>
+      <div className="space-y-4">
+        <Card title="Gear on the hook must match these ids">
+          <ul className="divide-y divide-rule text-sm" data-testid="schedule">
+            {schedule.map((row) => (
+              <li key={row.position} className="py-2">
+                <span className="font-semibold">{row.position}</span>: {row.itemCode} {row.description && <span className="text-ink-soft">({row.description})</span>}
+                {row.wllKg !== null && <span className="block">WLL {formatMass(row.wllKg, units)} · next examination {row.nextDueOn ?? "none on record"}</span>}
+                <a href={`/gear/${row.itemId}#report-defect`} className="text-sm">
+                  Report a defect on {row.itemCode}
+                </a>
+              </li>
+            ))}
+          </ul>
+        </Card>
+        <Card title="Sequence">
+          <ol className="list-decimal space-y-1 pl-5 text-sm">
+            {details.sequence.map((s, i) => (
+              <li key={i}>
+                <span className="font-semibold">{s.title}</span>
+                {s.holdPoint && <span className="ml-1 rounded bg-brass-soft px-1 text-xs font-semibold text-brass">HOLD POINT</span>}
+                {s.notes && <span className="block text-ink-soft">{s.notes}</span>}
+              </li>
+            ))}
+          </ol>
+          {details.exclusionZone && <p className="mt-2 text-sm">Exclusion zone: {details.exclusionZone}</p>}
+          {details.communication && <p className="text-sm">Communication: {details.communication}</p>}
+          {details.people.length > 0 && (
+            <p className="text-sm">People: {details.people.map((p) => `${p.name} (${PERSON_ROLE_LABELS[p.role]})`).join(", ")}</p>
+          )}
+        </Card>
+        {canRecord ? (
+          <Card title="Pre-lift checklist and lift record">
+            <Form method="post" encType="multipart/form-data" className="space-y-4">
+              <FormError message={actionData?.error} />
+              <fieldset className="space-y-3">
+                <legend className="text-sm font-semibold">Tick each before lifting</legend>
+                {PRE_LIFT_CHECKLIST.map((c) => (
+                  <label key={c.id} className="flex items-start gap-3 text-base">
+                    <input type="checkbox" name={`check-${c.id}`} className="mt-1 h-5 w-5" />
+                    <span>{c.text}</span>
+                  </label>
+                ))}
+              </fieldset>
+              <label className="block text-sm">
+                When the load was landed (UTC)
+                <input type="datetime-local" name="liftedAt" className="mt-1 block w-full rounded border border-rule px-2 py-2" />
+              </label>
+              <label className="block text-sm">
+                Notes
+                <textarea name="notes" rows={3} className="mt-1 block w-full rounded border border-rule px-2 py-2" />
+              </label>
+              <label className="flex items-center gap-2 text-sm">
+                <input type="checkbox" name="nearMiss" className="h-5 w-5" /> There was a near miss
+              </label>
+              <label className="block text-sm">
+                What happened (for a near miss)
+                <textarea name="nearMissDetails" rows={2} className="mt-1 block w-full rounded border border-rule px-2 py-2" />
+              </label>
+              <label className="block text-sm">
+                Photos (PNG or JPEG, up to 3, 10 MB each)
+                <input type="file" name="photos" accept="image/png,image/jpeg" multiple className="mt-1 block w-full" />
+              </label>
+              <Button type="submit" className="w-full">
+                Record the lift as done
+              </Button>
+            </Form>
+          </Card>
+        ) : (
+          <p className="text-sm text-ink-soft">Only a rigger records the lift on the current approved revision.</p>
+        )}
+      </div>
+    </>
+  );
+}

@@ -1,0 +1,73 @@
+import type { Route } from "./+types/verify.$token";
+import { findRevisionByVerifyToken } from "~/models/plan-workflow.server";
+import { getUser } from "~/session.server";
+
+export const meta: Route.MetaFunction = () => [{ title: "Check a printed lift plan · Plumbline" }, { name: "robots", content: "noindex" }];
+
+/** Open to anyone holding the printed plan: says whether that revision is still the current approved one. */
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const found = await findRevisionByVerifyToken(params.token);
+  if (!found) return { found: null, canOpen: false };
+  const user = await getUser(request);
+  return {
+    found: {
+      title: found.title,
+      site: found.site,
+      revision: found.revision,
+      status: found.status,
+      supersededByRevision: found.supersededByRevision,
+      planId: found.planId,
+    },
+    canOpen: user?.organisationId === found.organisationId,
+  };
+}
+
+const VERDICTS = {
+  approved: { title: "Current approved revision", tone: "border-pass bg-pass-soft text-pass", say: "This is the current approved revision of the plan. Lift only as it says, after the pre-lift checks." },
+  superseded: { title: "Superseded: do not use this copy", tone: "border-fail bg-fail-soft text-fail", say: "A newer revision has been approved. Get the current plan before lifting." },
+  cancelled: { title: "Cancelled: do not use this copy", tone: "border-fail bg-fail-soft text-fail", say: "This plan has been cancelled. Do not lift to it." },
+  completed: { title: "Lift completed", tone: "border-steel bg-steel-soft text-steel", say: "This lift has been made and recorded. A new lift needs a new approved plan." },
+} as const;
+
+export default function Verify({ loaderData }: Route.ComponentProps) {
+  const { found, canOpen } = loaderData;
+  if (!found) {
+    return (
+      <section className="mx-auto max-w-lg py-8" role="alert">
+        <h1>Not a Plumbline plan we know</h1>
+        <p className="mt-2">This code does not match any approved lift plan. Do not use the printed copy: ask the appointed person for the current plan.</p>
+      </section>
+    );
+  }
+  const verdict = VERDICTS[found.status as keyof typeof VERDICTS] ?? VERDICTS.cancelled;
+  return (
+    <section className="mx-auto max-w-lg py-8" data-testid="verify">
+      <div className={`rounded border-2 p-4 ${verdict.tone}`} role="status">
+        <h1 className="text-2xl">{verdict.title}</h1>
+        <p className="mt-2 text-ink">
+          {verdict.say}
+          {found.status === "superseded" && found.supersededByRevision ? ` It was replaced by revision ${found.supersededByRevision}.` : ""}
+        </p>
+      </div>
+      <dl className="mt-4 space-y-1 text-sm">
+        <div>
+          <dt className="inline text-ink-soft">Plan: </dt>
+          <dd className="inline font-semibold">{found.title}</dd>
+        </div>
+        <div>
+          <dt className="inline text-ink-soft">Site: </dt>
+          <dd className="inline">{found.site}</dd>
+        </div>
+        <div>
+          <dt className="inline text-ink-soft">Revision on this copy: </dt>
+          <dd className="inline">{found.revision}</dd>
+        </div>
+      </dl>
+      {canOpen && (
+        <p className="mt-4">
+          <a href={`/plans/${found.planId}`}>Open the plan</a>
+        </p>
+      )}
+    </section>
+  );
+}
