@@ -60,3 +60,14 @@ export function permission(action: WorkflowAction, ctx: WorkflowContext): Permis
       return ctx.isCurrentApproved ? yes : no("Only the current approved revision can be printed: a draft, superseded, completed or cancelled revision cannot.");
   }
 }
+
+/** The pre-lift checklist the rigger ticks before lifting (common practice; BS 7121 and LOLER reg 8 call for it). */
+export const PRE_LIFT_CHECKLIST = [
+  { id: "gear-matches", text: "Gear on the hook matches the schedule by id" },
+  { id: "gear-in-date", text: "Every item in date for thorough examination and in service" },
+  { id: "briefing", text: "Briefing held with everyone on the lift" },
+  { id: "exclusion-zone", text: "Exclusion zone set and kept" },
+  { id: "communication", text: "Communication checked between signaller and operator" },
+  { id: "trial-lift", text: "Trial lift made a short way off the floor: load level and steady" },
+] as const;
+export type ChecklistId = (typeof PRE_LIFT_CHECKLIST)[number]["id"];

@@ -20,7 +20,7 @@ import { getReferenceTables } from "~/models/reference-row.server";
 import { listUsersWithRole, User, verifyPassword, type SessionUser } from "~/models/user.server";
 import type { PlanResults, PlanStatus } from "~/plan-document";
 import { computePlanResults } from "~/plan-results.server";
-import { permission, type WorkflowAction, type WorkflowContext } from "~/plan-workflow";
+import { permission, PRE_LIFT_CHECKLIST, type ChecklistId, type WorkflowAction, type WorkflowContext } from "~/plan-workflow";
 import type { CheckResult } from "~/statics/checks";
 import { transactionWithFiles, type CheckedUpload } from "~/uploads.server";
 
@@ -114,16 +114,6 @@ LiftRecordPhoto.init(
 
 const ENTITY = "plan";
 
-/** The pre-lift checklist the rigger ticks before lifting (common practice; BS 7121 and LOLER reg 8 call for it). */
-export const PRE_LIFT_CHECKLIST = [
-  { id: "gear-matches", text: "Gear on the hook matches the schedule by id" },
-  { id: "gear-in-date", text: "Every item in date for thorough examination and in service" },
-  { id: "briefing", text: "Briefing held with everyone on the lift" },
-  { id: "exclusion-zone", text: "Exclusion zone set and kept" },
-  { id: "communication", text: "Communication checked between signaller and operator" },
-  { id: "trial-lift", text: "Trial lift made a short way off the floor: load level and steady" },
-] as const;
-export type ChecklistId = (typeof PRE_LIFT_CHECKLIST)[number]["id"];
 
 export type WorkflowFailure = { ok: false; status: 400 | 403 | 404 | 409; message: string; field?: string };
 export type WorkflowResult<T = object> = ({ ok: true } & T) | WorkflowFailure;

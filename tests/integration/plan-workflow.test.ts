@@ -8,12 +8,12 @@ import {
   findRevisionByVerifyToken,
   getWorkflowView,
   listPlanHistory,
-  PRE_LIFT_CHECKLIST,
   recordLift,
   returnRevision,
   startNewRevision,
   submitRevision,
 } from "~/models/plan-workflow.server";
+import { PRE_LIFT_CHECKLIST } from "~/plan-workflow";
 import { makeUser, TEST_PASSWORD } from "../support/factories";
 import { allowSelfApproval, readyPlan } from "../support/workflow";
 
