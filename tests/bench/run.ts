@@ -1,6 +1,7 @@
 // `npm run bench`: the statics core's solves per second, and /api/solve against a trivial JSON
 // route on the same built server in the same run. A benchmark, never a timed test: it prints.
 import { startBuiltServer, signInCookie } from "../support/built-server";
+import { runPdfBench } from "./pdf";
 import { runStaticsBench, type BenchResult } from "./statics";
 
 function median(values: number[]) {
@@ -67,5 +68,5 @@ function print(results: BenchResult[]) {
   }
 }
 
-const results = [...(await runStaticsBench()), ...(await runHttpBench())];
+const results = [...(await runStaticsBench()), ...(await runPdfBench()), ...(await runHttpBench())];
 print(results);

@@ -48,7 +48,7 @@ const inService = (itemId: string, examinationDue: string) => ({ itemId, status:
 /** The solve body for the gearbox: hook 800 mm above the lift points, chain legs, M30 collar eyebolts, 2 t shackles. */
 function gearboxSolveBody(def: ComponentDefinition): SolveBody {
   const legGear = (leg: "A" | "B") => ({
-    sling: { kind: "chain" as const, diameterMm: 8, hitch: "straight" as const, inspection: inService(`NW-CH8-0${leg === "A" ? 1 : 2}`, "2025-10-30") },
+    sling: { kind: "chain" as const, diameterMm: 10, hitch: "straight" as const, inspection: inService(`NW-CH10-0${leg === "A" ? 1 : 2}`, "2025-10-30") },
     shackle: { wllKg: 2000, type: "bow" as const, pin: "screw" as const, inspection: inService(`NW-SH2-1${leg === "A" ? 1 : 2}`, "2025-09-15") },
     eyebolt: { family: "collar" as const, thread: "M30", inspection: inService(`NW-EB30-0${leg === "A" ? 3 : 4}`, leg === "A" ? "2025-05-30" : "2025-11-02") },
   });
@@ -87,10 +87,10 @@ function scheduleFrom(results: PlanResultsBody): PrintableScheduleRow[] {
   return [
     row("Leg A eyebolt", "NW-EB30-03", "Collar eyebolt M30, DIN 580", 3200, "eyebolt-A", "2025-05-30"),
     row("Leg A shackle", "NW-SH2-11", "Bow shackle 2 t, screw pin", 2000, "shackle-A", "2025-09-15"),
-    row("Leg A sling", "NW-CH8-01", "Chain sling leg 8 mm grade 8, 1.2 m", 2000, "sling-leg-A", "2025-10-30"),
+    row("Leg A sling", "NW-CH10-01", "Chain sling leg 10 mm grade 8, 1.2 m", 3150, "sling-leg-A", "2025-10-30"),
     row("Leg B eyebolt", "NW-EB30-04", "Collar eyebolt M30, DIN 580", 3200, "eyebolt-B", "2025-11-02"),
     row("Leg B shackle", "NW-SH2-12", "Bow shackle 2 t, screw pin", 2000, "shackle-B", "2025-09-15"),
-    row("Leg B sling", "NW-CH8-02", "Chain sling leg 8 mm grade 8, 1.2 m", 2000, "sling-leg-B", "2025-10-30"),
+    row("Leg B sling", "NW-CH10-02", "Chain sling leg 10 mm grade 8, 1.2 m", 3150, "sling-leg-B", "2025-10-30"),
     row("Master link", "NW-ML-07", "Master link grade 8, 4.25 t", 4250, "master-link", "2025-08-01"),
     row("Crane or hoist", "NW-OHC-5T", "Overhead travelling crane, bay 2, 5 t", 5000, "crane-load", "2025-12-01"),
   ];

@@ -1,0 +1,33 @@
+import type { Route } from "./+types/plans.$planId.print.pdf";
+import { recordAudit } from "~/models/audit-event.server";
+import { buildPlanPdf } from "~/plan-pdf.server";
+import { buildPrintablePlan } from "~/printable-plan.server";
+import { requireUser } from "~/session.server";
+
+/** GET /plans/:planId/print.pdf: the current approved revision as a PDF; anything else is a 409 with a sentence. */
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const user = await requireUser(request);
+  const planId = Number(params.planId);
+  const outcome = await buildPrintablePlan(user, planId, request);
+  if (!outcome.ok) {
+    return new Response(outcome.message, { status: outcome.status, headers: { "Content-Type": "text/plain; charset=utf-8" } });
+  }
+  const bytes = await buildPlanPdf(outcome.printable);
+  await recordAudit({
+    organisationId: user.organisationId,
+    userId: user.id,
+    entity: "plan",
+    entityId: planId,
+    action: "printed",
+    details: { revision: outcome.revision, fingerprint: outcome.printable.fingerprint },
+  });
+  const name = `lift-plan-${planId}-rev-${outcome.revision}.pdf`;
+  return new Response(bytes as Uint8Array<ArrayBuffer>, {
+    headers: {
+      "Content-Type": "application/pdf",
+      "Content-Disposition": `inline; filename="${name}"`,
+      "Cache-Control": "private, no-store",
+      "X-Content-Type-Options": "nosniff",
+    },
+  });
+}

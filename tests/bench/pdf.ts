@@ -1,0 +1,41 @@
+// The printed plan: median time to build the PDF of a typical plan, and its size, against the
+// targets (<= 150 ms, <= 300 KB). Run: npx tsx tests/bench/pdf.ts
+import { buildPlanPdf } from "../../app/plan-pdf.server";
+import { printablePlanFixture } from "../support/printable-plan";
+import type { BenchResult } from "./statics";
+
+const WARM_UP_RUNS = 5;
+const TIMED_RUNS = 30;
+export const PDF_MEDIAN_TARGET_MS = 150;
+export const PDF_SIZE_TARGET_KB = 300;
+
+function median(values: number[]) {
+  const sorted = [...values].sort((a, b) => a - b);
+  const mid = Math.floor(sorted.length / 2);
+  return sorted.length % 2 === 1 ? sorted[mid]! : (sorted[mid - 1]! + sorted[mid]!) / 2;
+}
+
+/** Median build time of buildPlanPdf over 30 runs after a warm-up, and the file size, for the typical plan fixture. */
+export async function runPdfBench(): Promise<BenchResult[]> {
+  const plan = printablePlanFixture();
+  let bytes = await buildPlanPdf(plan);
+  for (let i = 1; i < WARM_UP_RUNS; i++) await buildPlanPdf(plan);
+  const times: number[] = [];
+  for (let i = 0; i < TIMED_RUNS; i++) {
+    const start = performance.now();
+    bytes = await buildPlanPdf(plan);
+    times.push(performance.now() - start);
+  }
+  const ms = median(times);
+  const kb = bytes.length / 1024;
+  return [
+    { name: "printed plan PDF median build", value: ms, unit: "ms", target: PDF_MEDIAN_TARGET_MS, ok: ms <= PDF_MEDIAN_TARGET_MS },
+    { name: "printed plan PDF size", value: kb, unit: "KB", target: PDF_SIZE_TARGET_KB, ok: kb <= PDF_SIZE_TARGET_KB },
+  ];
+}
+
+if (import.meta.url === `file://${process.argv[1]}`) {
+  const results = await runPdfBench();
+  for (const r of results) console.log(`${r.name}: ${r.value.toFixed(1)} ${r.unit} (target <= ${r.target}) ${r.ok ? "OK" : "MISSED"}`);
+  if (results.some((r) => !r.ok)) process.exitCode = 1;
+}
