@@ -63,7 +63,8 @@ async function runHttpBench(): Promise<BenchResult[]> {
 function print(results: BenchResult[]) {
   for (const r of results) {
     const value = r.unit === "solves/s" ? Math.round(r.value).toLocaleString("en-GB") : r.value.toFixed(3);
-    const target = Number.isNaN(r.target) ? "" : ` (target ${r.unit === "x" ? "<=" : ">="} ${r.target.toLocaleString("en-GB")})`;
+    const atMost = r.unit === "x" || r.unit === "ms" || r.unit === "KB";
+    const target = Number.isNaN(r.target) ? "" : ` (target ${atMost ? "<=" : ">="} ${r.target.toLocaleString("en-GB")})`;
     console.log(`${r.name}: ${value} ${r.unit}${target}${Number.isNaN(r.target) ? "" : r.ok ? " OK" : " MISSED"}`);
   }
 }
