@@ -7,6 +7,7 @@ import { Component, ComponentLiftPoint, getComponent, listComponentFiles } from 
 import { StoredFile } from "~/models/stored-file.server";
 import { componentFields } from "../support/component-fields";
 import { callRoute, getRequest, makeUser, postForm, sessionCookie } from "../support/factories";
+import { ELF_BYTES, PNG_BYTES } from "../support/gear";
 
 async function plannerWithComponent() {
   const planner = await makeUser(["planner"]);
@@ -78,8 +79,6 @@ describe("components", () => {
   });
 });
 
-const PNG_BYTES = Uint8Array.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13, 0x49, 0x48, 0x44, 0x52, 0, 0, 0, 1, 0, 0, 0, 1, 8, 2, 0, 0, 0]);
-const ELF_BYTES = Uint8Array.from([0x7f, 0x45, 0x4c, 0x46, 2, 1, 1, 0, 0, 0, 0, 0]);
 
 async function uploadRequest(id: string, user: { id: number }, file: File, fields: Record<string, string> = {}) {
   const form = new FormData();

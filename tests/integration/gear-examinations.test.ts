@@ -9,7 +9,7 @@ import { Examination } from "~/models/examination.server";
 import { GearItem } from "~/models/gear-item.server";
 import { StoredFile } from "~/models/stored-file.server";
 import { callRoute, getRequest, makeUser, postForm } from "../support/factories";
-import { adminWithSite, ELF_BYTES, makeGearItem, MZ_BYTES, PDF_BYTES, PNG_BYTES, postMultipart } from "./gear-support";
+import { adminWithSite, ELF_BYTES, makeGearItem, MZ_BYTES, PDF_BYTES, PNG_BYTES, postMultipart } from "../support/gear";
 
 const examine = (fields: Record<string, string>) => ({ intent: "examination", examiner: "Ruth Calloway", result: "pass", ...fields });
 

@@ -3,7 +3,7 @@ import * as filePage from "~/routes/files.$fileId";
 import { StoredFile } from "~/models/stored-file.server";
 import { checkUpload, contentDisposition, readUploadForm, transactionWithFiles } from "~/uploads.server";
 import { callRoute, getRequest, makeUser } from "../support/factories";
-import { ELF_BYTES, PDF_BYTES, PNG_BYTES, postMultipart } from "./gear-support";
+import { ELF_BYTES, PDF_BYTES, PNG_BYTES, postMultipart } from "../support/gear";
 
 async function storeFile(user: { id: number; organisationId: number }, bytes: Uint8Array, name: string, accepted: Array<"pdf" | "png" | "jpeg">) {
   const checked = await checkUpload(new File([bytes as Uint8Array<ArrayBuffer>], name), accepted);

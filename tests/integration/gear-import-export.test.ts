@@ -5,7 +5,7 @@ import { AuditEvent } from "~/models/audit-event.server";
 import { GearItem } from "~/models/gear-item.server";
 import { StoredFile } from "~/models/stored-file.server";
 import { callRoute, getRequest, makeUser, postForm } from "../support/factories";
-import { adminWithSite, ELF_BYTES, makeGearItem, PNG_BYTES, postMultipart } from "./gear-support";
+import { adminWithSite, ELF_BYTES, makeGearItem, PNG_BYTES, postMultipart } from "../support/gear";
 
 type Preview = { fileId: number; rowCount: number; validCount: number; errorCount: number; errors: Array<{ line: number; itemCode: string; messages: string[] }>; counts: Record<string, number> };
 type Result = { intent: string; error?: string; preview?: Preview; done?: Record<string, number> };

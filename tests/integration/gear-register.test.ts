@@ -8,7 +8,7 @@ import { Examination } from "~/models/examination.server";
 import { GearItem } from "~/models/gear-item.server";
 import { addDays, todayIso } from "~/gear-due";
 import { callRoute, getRequest, makeUser, postForm } from "../support/factories";
-import { adminWithSite, makeGearItem, SHACKLE_FIELDS } from "./gear-support";
+import { adminWithSite, makeGearItem, SHACKLE_FIELDS } from "../support/gear";
 
 type RegisterData = { rows: Array<{ itemCode: string; dueState: string; siteName: string | null }>; total: number; pageCount: number; canEdit: boolean; due: { overdue: number; dueSoon: number } };
 

@@ -3,7 +3,7 @@ import { addDays } from "~/gear-due";
 import { CaughtMail, listCaughtMail } from "~/models/caught-mail.server";
 import { sendExaminationReminders } from "~/reminders.server";
 import { makeUser } from "../support/factories";
-import { adminWithSite, makeGearItem } from "./gear-support";
+import { adminWithSite, makeGearItem } from "../support/gear";
 
 const TODAY = "2031-05-10";
 

@@ -8,6 +8,7 @@ import { createSite } from "~/models/site.server";
 import type { SessionUser } from "~/models/user.server";
 import type { GearKind } from "~/gear-kinds";
 import { sessionCookie } from "./factories";
+import { BLANK_GEAR_FIELDS } from "./gear";
 
 /** A 2000 kg element with two M20 lift points 800 mm either side of its CoG, 400 mm above it. */
 export function twoPointElement(overrides: Partial<ComponentDefinition> = {}): ComponentDefinition {
@@ -60,17 +61,7 @@ export async function makeGear(organisationId: number, kind: GearKind, fields: P
     kind,
     wllValue: fields.wllKg,
     wllUnit: "kg",
-    thread: null,
-    eyeboltFamily: null,
-    shackleType: null,
-    pinType: null,
-    chainGrade: null,
-    diameterMm: null,
-    legs: null,
-    lengthM: null,
-    hookHeightM: null,
-    beamMassKg: null,
-    homeSiteId: null,
+    ...BLANK_GEAR_FIELDS,
     nextDueOn: "2099-01-01",
     ...fields,
   });

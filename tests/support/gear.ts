@@ -3,7 +3,7 @@ import { createGearItem } from "~/models/gear-item.server";
 import { createSite } from "~/models/site.server";
 import type { SessionUser } from "~/models/user.server";
 import type { GearItemInput } from "~/gear-schema";
-import { makeUser, sessionCookie } from "../support/factories";
+import { makeUser, sessionCookie } from "./factories";
 
 const BASE = "http://localhost:3000";
 
@@ -20,7 +20,8 @@ export const SHACKLE_FIELDS = {
   diameterMm: "13",
 } as const;
 
-const BLANK: Omit<GearItemInput, "itemCode" | "kind" | "wllValue" | "wllUnit"> = {
+/** Every optional field of a register item, empty: spread it and set what the test needs. */
+export const BLANK_GEAR_FIELDS: Omit<GearItemInput, "itemCode" | "kind" | "wllValue" | "wllUnit"> = {
   description: "",
   manufacturer: "",
   serial: "",
@@ -41,7 +42,7 @@ const BLANK: Omit<GearItemInput, "itemCode" | "kind" | "wllValue" | "wllUnit"> =
 export async function makeGearItem(user: Pick<SessionUser, "id" | "organisationId">, input: Partial<GearItemInput> = {}) {
   return createGearItem(
     user.organisationId,
-    { ...BLANK, itemCode: `T-${Math.random().toString(36).slice(2, 8)}`, kind: "shackle", wllValue: 2, wllUnit: "t", shackleType: "bow", pinType: "screw", ...input },
+    { ...BLANK_GEAR_FIELDS, itemCode: `T-${Math.random().toString(36).slice(2, 8)}`, kind: "shackle", wllValue: 2, wllUnit: "t", shackleType: "bow", pinType: "screw", ...input },
     user.id,
   );
 }
