@@ -35,6 +35,15 @@ describe("the component form", () => {
     expect(result.data.liftPoints[0]!.engagementMm).toBeCloseTo(25.4, 9);
   });
 
+  it("refuses control characters in lift point ids, threads and part names, which the multi-row insert cannot store", () => {
+    const result = parseComponentForm(
+      form(componentFields({ "lp-1-label": "B\u0000", "lp-0-thread": "M20\u001b", "part-0-name": "Motor\u0000", "part-0-mass": "100", "part-0-x": "0", "part-0-y": "0", "part-0-z": "400" })),
+      "metric",
+    );
+    const message = "Remove the control character (an invisible one, such as NUL) from this field.";
+    expect(result).toEqual({ ok: false, errors: { "lp-0-thread": [message], "lp-1-label": [message], "part-0-name": [message] } });
+  });
+
   it("an estimated mass must carry a contingency", () => {
     const result = parseComponentForm(form(componentFields({ massSource: "estimated", contingencyPct: "0" })), "metric");
     expect(result).toEqual({ ok: false, errors: { contingencyPct: ["An estimated mass must carry a contingency above 0 %."] } });

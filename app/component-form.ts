@@ -6,7 +6,7 @@ import {
   rectangleOutlines,
   type ComponentDefinition,
 } from "~/component-definition";
-import type { FormResult } from "~/forms";
+import { CONTROL_CHARACTER_MESSAGE, hasControlCharacters, type FormResult } from "~/forms";
 import { convertLength } from "~/statics/units";
 import { fromDisplayLength, fromDisplayMass, type Units } from "~/units-format";
 
@@ -14,9 +14,14 @@ import { fromDisplayLength, fromDisplayMass, type Units } from "~/units-format";
 export const MAX_LIFT_POINTS = 12;
 export const MAX_PARTS = 30;
 
-const text = (max: number) => z.preprocess((v) => (typeof v === "string" ? v.trim() : ""), z.string().max(max, `At most ${max} characters.`));
+// Lift points and parts are written in one multi-row insert, which cannot carry a NUL; no field here needs control characters.
+const text = (max: number) =>
+  z.preprocess((v) => (typeof v === "string" ? v.trim() : ""), z.string().max(max, `At most ${max} characters.`).refine((s) => !hasControlCharacters(s), CONTROL_CHARACTER_MESSAGE));
 const required = (label: string, max: number) =>
-  z.preprocess((v) => (typeof v === "string" ? v.trim() : ""), z.string().min(1, `Enter the ${label}.`).max(max, `At most ${max} characters.`));
+  z.preprocess(
+    (v) => (typeof v === "string" ? v.trim() : ""),
+    z.string().min(1, `Enter the ${label}.`).max(max, `At most ${max} characters.`).refine((s) => !hasControlCharacters(s), CONTROL_CHARACTER_MESSAGE),
+  );
 const number = (label: string) =>
   z.preprocess(
     (v) => (typeof v === "string" && v.trim() !== "" ? Number(v.trim().replace(/,/g, "")) : undefined),

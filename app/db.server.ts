@@ -1,6 +1,7 @@
+import { AsyncLocalStorage } from "node:async_hooks";
 import fs from "node:fs";
 import path from "node:path";
-import { Sequelize } from "sequelize";
+import { QueryTypes, Sequelize, Transaction } from "sequelize";
 import sqlite3 from "sqlite3";
 import { env } from "~/env.server";
 
@@ -23,17 +24,50 @@ class ConfiguredDatabase extends sqlite3.Database {
 
 const dialectModule = { ...sqlite3, Database: ConfiguredDatabase };
 
+const WRITE_QUERY_TYPES = new Set<string>([QueryTypes.INSERT, QueryTypes.UPDATE, QueryTypes.BULKUPDATE, QueryTypes.DELETE, QueryTypes.BULKDELETE, QueryTypes.UPSERT]);
+
+/**
+ * One writer at a time in this process. SQLite has one write lock, and a connection waiting for it
+ * sleeps in the busy handler on one of libuv's four threads: a few waiters starve the holder of the
+ * thread its next statement needs, and they all time out with SQLITE_BUSY. Queued here, writers
+ * wait in JavaScript instead; work started inside a queued transaction runs at once (no self-deadlock).
+ */
+function serialiseWrites(db: Sequelize) {
+  const inside = new AsyncLocalStorage<true>();
+  let tail: Promise<unknown> = Promise.resolve();
+  const queued = <T>(work: () => Promise<T>): Promise<T> => {
+    if (inside.getStore()) return work();
+    const run = tail.then(() => inside.run(true, work));
+    tail = run.catch(() => undefined);
+    return run;
+  };
+  const transaction = db.transaction.bind(db) as (...args: unknown[]) => Promise<unknown>;
+  db.transaction = ((...args: unknown[]) =>
+    args.some((a) => typeof a === "function") ? queued(() => transaction(...args)) : transaction(...args)) as typeof db.transaction;
+  const query = db.query.bind(db) as (...args: unknown[]) => Promise<unknown>;
+  db.query = ((sql: unknown, options?: { transaction?: unknown; type?: string }) =>
+    !options?.transaction && options?.type && WRITE_QUERY_TYPES.has(options.type)
+      ? queued(() => query(sql, options))
+      : query(sql, options)) as typeof db.query;
+  return db;
+}
+
 /** Opens (creating its folder if needed) the SQLite file at `storage`. */
 export function openDatabase(storage: string): Sequelize {
   if (storage !== ":memory:") fs.mkdirSync(path.dirname(path.resolve(storage)), { recursive: true });
-  return new Sequelize({
-    dialect: "sqlite",
-    dialectModule,
-    storage,
-    logging: false,
-    define: { underscored: true },
-    retry: { max: 5, match: [/SQLITE_BUSY/] },
-  });
+  return serialiseWrites(
+    new Sequelize({
+      dialect: "sqlite",
+      dialectModule,
+      storage,
+      logging: false,
+      define: { underscored: true },
+      // IMMEDIATE takes the write lock at BEGIN: a transaction that reads and then writes cannot find its
+      // snapshot stale at the first write (SQLITE_BUSY_SNAPSHOT, which no busy timeout cures).
+      transactionType: Transaction.TYPES.IMMEDIATE,
+      retry: { max: 5, match: [/SQLITE_BUSY/] },
+    }),
+  );
 }
 
 declare global {

@@ -14,6 +14,8 @@ const envSchema = z.object({
   MAIL_CATCHER_PORT: z.coerce.number().int().min(0).max(65535).default(0),
   PUBLIC_URL: z.string().url().optional(),
   PORT: z.coerce.number().int().min(1).max(65535).default(3000),
+  // How many reverse proxies in front of Plumbline append to X-Forwarded-For (0: none, the header is ignored).
+  TRUST_PROXY: z.coerce.number().int().min(0).max(10).default(0),
 });
 
 export type AppEnvironment = "production" | "demo" | "development" | "test";
@@ -50,6 +52,7 @@ export function parseEnvironment(source: Record<string, string | undefined>) {
     mailCatcherPort: raw.MAIL_CATCHER_PORT,
     publicUrl: raw.PUBLIC_URL ?? `http://localhost:${raw.PORT}`,
     publicUrlIsSet: !!raw.PUBLIC_URL,
+    trustedProxyHops: raw.TRUST_PROXY,
   };
 }
 

@@ -1,3 +1,4 @@
+import { data } from "react-router";
 import { z } from "zod";
 
 /** FormData as a plain object; fields named in `arrayFields` always come out as string arrays. Files are dropped. */
@@ -9,6 +10,32 @@ export function formToObject(formData: FormData, arrayFields: readonly string[] 
   }
   for (const key of arrayFields) result[key] ??= [];
   return result;
+}
+
+/** The request's form fields; a body that is not a readable form (a broken multipart, JSON) is refused with a thrown 400, never a 500. */
+export async function requireFormData(request: Request): Promise<FormData> {
+  try {
+    return await request.formData();
+  } catch {
+    throw data({ message: "The form could not be read. Reload the page and send it again." }, { status: 400 });
+  }
+}
+
+// Sequelize writes text into SQLite statements inline when it filters or inserts several rows, and a NUL there ends the
+// statement early: text that reaches a WHERE clause or a multi-row insert must not carry control characters.
+// eslint-disable-next-line no-control-regex
+const CONTROL_CHARACTERS = /[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f]/g;
+
+export const CONTROL_CHARACTER_MESSAGE = "Remove the control character (an invisible one, such as NUL) from this field.";
+
+/** Whether `text` holds a control character other than tab, CR and LF. */
+export function hasControlCharacters(text: string): boolean {
+  return text.search(CONTROL_CHARACTERS) !== -1;
+}
+
+/** `text` with its control characters (other than tab, CR and LF) taken out: for search boxes. */
+export function withoutControlCharacters(text: string): string {
+  return text.replace(CONTROL_CHARACTERS, "");
 }
 
 export type FormResult<T> = { ok: true; data: T } | { ok: false; errors: Record<string, string[]> };

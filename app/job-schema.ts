@@ -1,9 +1,10 @@
 import { z } from "zod";
-import { optionalText, requiredText } from "~/forms";
+import { CONTROL_CHARACTER_MESSAGE, hasControlCharacters, optionalText, requiredText } from "~/forms";
 
 export const jobSchema = z.object({
   siteId: z.coerce.number({ error: "Choose the site." }).int().positive("Choose the site."),
-  workOrder: requiredText("work order number", 60),
+  // The work order is looked up to keep it unique, so it must be text a query can carry.
+  workOrder: requiredText("work order number", 60).refine((v) => !hasControlCharacters(v), CONTROL_CHARACTER_MESSAGE),
   title: requiredText("title", 200),
   description: optionalText(4000),
   status: z.enum(["open", "closed"], { error: "Choose open or closed." }).default("open"),

@@ -20,8 +20,20 @@ function isApiRequest(request: Request) {
   return new URL(request.url).pathname.startsWith("/api/");
 }
 
-/** The signed-in, active user, or null. */
-export async function getUser(request: Request): Promise<SessionUser | null> {
+// The root loader and the route's loader both ask for the user of one request; the second gets the first's answer.
+const usersByRequest = new WeakMap<Request, Promise<SessionUser | null>>();
+
+/** The signed-in, active user, or null (looked up once per request). */
+export function getUser(request: Request): Promise<SessionUser | null> {
+  let user = usersByRequest.get(request);
+  if (!user) {
+    user = lookUpUser(request);
+    usersByRequest.set(request, user);
+  }
+  return user;
+}
+
+async function lookUpUser(request: Request): Promise<SessionUser | null> {
   const session = await sessionStorage.getSession(request.headers.get("Cookie"));
   const userId = session.get("userId");
   if (typeof userId !== "number") return null;

@@ -34,8 +34,13 @@ export function inputNumber(value: number, decimals = 3) {
   return String(Number(value.toFixed(decimals)));
 }
 
-const grouped = (value: number, decimals: number) =>
-  value.toLocaleString("en-GB", { minimumFractionDigits: decimals, maximumFractionDigits: decimals });
+// toLocaleString with options builds a new Intl.NumberFormat on every call (a plan page formats hundreds).
+const formatters = new Map<number, Intl.NumberFormat>();
+function grouped(value: number, decimals: number) {
+  let format = formatters.get(decimals);
+  if (!format) formatters.set(decimals, (format = new Intl.NumberFormat("en-GB", { minimumFractionDigits: decimals, maximumFractionDigits: decimals })));
+  return format.format(value);
+}
 
 /** "1,250 mm" or "49.21 in". */
 export function formatLength(m: number, units: Units) {

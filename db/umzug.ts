@@ -8,6 +8,8 @@ import * as referenceTables from "./migrations/0005-reference-tables";
 import * as plans from "./migrations/0006-plans";
 import * as componentFiles from "./migrations/0007-component-files";
 import * as planWorkflow from "./migrations/0008-plan-workflow";
+import * as signInAttempts from "./migrations/0009-sign-in-attempts";
+import * as indexes from "./migrations/0010-indexes";
 
 export type Migration = (params: { context: QueryInterface }) => Promise<void>;
 type MigrationModule = { up: Migration; down: Migration };
@@ -25,6 +27,8 @@ export const migrations: Array<[name: string, module: MigrationModule]> = [
   ["0006-plans", plans],
   ["0007-component-files", componentFiles],
   ["0008-plan-workflow", planWorkflow],
+  ["0009-sign-in-attempts", signInAttempts],
+  ["0010-indexes", indexes],
 ];
 
 /** The umzug runner over `sequelize`, recording applied migrations in SequelizeMeta. */

@@ -18,7 +18,7 @@ import { getOrganisation } from "~/models/organisation.server";
 import { Plan, PlanRevision, readRevision, todayIso, type RevisionView } from "~/models/plan.server";
 import { getReferenceTables } from "~/models/reference-row.server";
 import { listUsersWithRole, User, verifyPassword, type SessionUser } from "~/models/user.server";
-import type { PlanResults, PlanStatus } from "~/plan-document";
+import type { PlanResults, PlanStatus, RiggingAllocation } from "~/plan-document";
 import { computePlanResults } from "~/plan-results.server";
 import { permission, PRE_LIFT_CHECKLIST, type ChecklistId, type WorkflowAction, type WorkflowContext } from "~/plan-workflow";
 import type { CheckResult } from "~/statics/checks";
@@ -164,6 +164,11 @@ async function freshResults(organisationId: number, view: RevisionView, transact
   });
 }
 
+function hasAllocatedGear(rigging: RiggingAllocation): boolean {
+  const legItems = Object.values(rigging.legs).some((leg) => leg.eyeboltItemId !== undefined || leg.shackleItemId !== undefined || leg.slingItemId !== undefined);
+  return legItems || rigging.masterLinkItemId !== undefined || rigging.craneItemId !== undefined;
+}
+
 function checksOf(results: PlanResults): CheckResult[] {
   return results.status === 200 ? (results.body.checks ?? []) : [];
 }
@@ -187,7 +192,8 @@ export async function submitRevision(organisationId: number, planId: number, use
     const results = await freshResults(organisationId, view, transaction);
     if (results.status !== 200) return fail(409, `The lift cannot be worked out as laid out: ${results.body.error} Fix the layout before submitting.`);
     const checks = checksOf(results);
-    if (checks.length === 0) return fail(409, "No gear is allocated, so nothing has been checked: allocate the rigging before submitting.");
+    // Leg-angle checks come out with no gear at all, so "nothing checked" is judged by the allocation itself.
+    if (checks.length === 0 || !hasAllocatedGear(view.rigging)) return fail(409, "No gear is allocated, so nothing has been checked: allocate the rigging before submitting.");
     const failing = checks.filter((c) => c.status === "fail");
     if (failing.length) return fail(409, `${failing.length} check${failing.length > 1 ? "s fail" : " fails"}: ${failing.map((c) => c.item).join("; ")}. Change the layout or the gear first.`);
     const warnings = checks.filter((c) => c.status === "warn");

@@ -220,6 +220,12 @@ export async function getPlan(organisationId: number, planId: number, transactio
   return { plan, revision: readRevision(plan.currentRevision) };
 }
 
+/** Whether the organisation has this plan: a cheap check for actions that answer another organisation's plan with 404 first. */
+export async function planExists(organisationId: number, planId: number): Promise<boolean> {
+  if (!Number.isSafeInteger(planId)) return false;
+  return (await Plan.count({ where: { organisationId, id: planId } })) > 0;
+}
+
 export type CreatePlanResult = { ok: true; plan: Plan } | { ok: false; field: "jobId" | "componentId"; message: string };
 
 /** A new plan with revision 1 (draft): the component's definition copied in, a default arrangement and sequence, results computed. */

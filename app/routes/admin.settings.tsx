@@ -2,7 +2,7 @@ import { data, Form, redirect } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/admin.settings";
 import { Button, Card, Field, PageHeader } from "~/components/ui/form";
-import { parseForm, requiredText } from "~/forms";
+import { parseForm, requiredText, requireFormData } from "~/forms";
 import { recordAudit } from "~/models/audit-event.server";
 import { getOrganisation, updateOrganisationSettings } from "~/models/organisation.server";
 import { flashNotice, requireUserWithRole } from "~/session.server";
@@ -23,7 +23,7 @@ export async function loader({ request }: Route.LoaderArgs) {
 
 export async function action({ request }: Route.ActionArgs) {
   const admin = await requireUserWithRole(request, "admin");
-  const form = parseForm(schema, await request.formData());
+  const form = parseForm(schema, await requireFormData(request));
   if (!form.ok) return data({ errors: form.errors }, { status: 400 });
   await updateOrganisationSettings(admin.organisationId, form.data);
   await recordAudit({

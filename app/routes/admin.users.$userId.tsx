@@ -4,7 +4,7 @@ import type { Route } from "./+types/admin.users.$userId";
 import { sendInvitation } from "~/account-mail.server";
 import { RoleCheckboxes } from "~/components/role-checkboxes";
 import { Button, Card, FormError, PageHeader } from "~/components/ui/form";
-import { parseForm } from "~/forms";
+import { parseForm, requireFormData } from "~/forms";
 import { countOtherActiveAdmins, getOrganisationUser, setUserActive, updateUserRoles } from "~/models/user.server";
 import { ROLES } from "~/roles";
 import { flashNotice, requireUserWithRole } from "~/session.server";
@@ -44,7 +44,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 export async function action({ request, params }: Route.ActionArgs) {
   const admin = await requireUserWithRole(request, "admin");
   const user = await requireTargetUser(admin.organisationId, params.userId);
-  const form = parseForm(schema, await request.formData(), ["roles"]);
+  const form = parseForm(schema, await requireFormData(request), ["roles"]);
   if (!form.ok) return data({ errors: form.errors }, { status: 400 });
   const fail = (message: string) => data({ errors: { _form: [message] } as Record<string, string[]> }, { status: 400 });
   const back = async (notice: string) =>

@@ -4,7 +4,7 @@ import type { Route } from "./+types/admin.users.new";
 import { sendInvitation } from "~/account-mail.server";
 import { RoleCheckboxes } from "~/components/role-checkboxes";
 import { Button, Card, Field, PageHeader } from "~/components/ui/form";
-import { parseForm, requiredText } from "~/forms";
+import { parseForm, requiredText, requireFormData } from "~/forms";
 import { createUser, findUserByEmail } from "~/models/user.server";
 import { ROLES } from "~/roles";
 import { flashNotice, requireUserWithRole } from "~/session.server";
@@ -24,7 +24,7 @@ export async function loader({ request }: Route.LoaderArgs) {
 
 export async function action({ request }: Route.ActionArgs) {
   const admin = await requireUserWithRole(request, "admin");
-  const form = parseForm(schema, await request.formData(), ["roles"]);
+  const form = parseForm(schema, await requireFormData(request), ["roles"]);
   if (!form.ok) return data({ errors: form.errors }, { status: 400 });
   if (await findUserByEmail(form.data.email)) {
     return data({ errors: { email: ["That e-mail address already has an account."] } as Record<string, string[]> }, { status: 400 });

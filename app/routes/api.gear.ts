@@ -1,11 +1,12 @@
 import { z } from "zod";
 import type { Route } from "./+types/api.gear";
+import { withoutControlCharacters } from "~/forms";
 import { searchGearPicks } from "~/gear-picks.server";
 import { getReferenceTables } from "~/models/reference-row.server";
 import { requireUser } from "~/session.server";
 
 const querySchema = z.object({
-  query: z.string().max(100, "The search is at most 100 characters.").default(""),
+  query: z.string().max(100, "The search is at most 100 characters.").transform(withoutControlCharacters).default(""),
   role: z.enum(["eyebolt", "shackle", "sling", "masterLink", "crane"], { error: "role is one of eyebolt, shackle, sling, masterLink, crane." }).optional(),
   limit: z.coerce.number().int().min(1).max(200).default(50),
 });

@@ -4,6 +4,7 @@ import type { Route } from "./+types/components.$componentId.edit";
 import { ComponentForm } from "~/components/component-form";
 import { PageHeader } from "~/components/ui/form";
 import { parseComponentForm } from "~/component-form";
+import { requireFormData } from "~/forms";
 import { getComponent, toDefinition, updateComponent } from "~/models/component.server";
 import { flashNotice, requireUserWithRole } from "~/session.server";
 
@@ -27,7 +28,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireUserWithRole(request, "planner", "admin");
   const component = await requireComponent(user.organisationId, params.componentId);
-  const formData = await request.formData();
+  const formData = await requireFormData(request);
   const version = versionSchema.safeParse(formData.get("version"));
   if (!version.success) return data({ errors: { _form: ["The form is missing its version; reload the page and try again."] } as Record<string, string[]> }, { status: 400 });
   const form = parseComponentForm(formData, user.units);

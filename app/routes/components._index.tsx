@@ -2,6 +2,7 @@ import { Form } from "react-router";
 import type { Route } from "./+types/components._index";
 import { EmptyState, PageHeader } from "~/components/ui/form";
 import { MASS_SOURCE_LABELS } from "~/component-definition";
+import { withoutControlCharacters } from "~/forms";
 import { listComponents } from "~/models/component.server";
 import { hasAnyRole } from "~/roles";
 import { requireUser } from "~/session.server";
@@ -13,7 +14,7 @@ export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request);
   const url = new URL(request.url);
   const archived = url.searchParams.get("archived") === "1";
-  const query = (url.searchParams.get("q") ?? "").trim().slice(0, 100);
+  const query = withoutControlCharacters(url.searchParams.get("q") ?? "").trim().slice(0, 100);
   const components = await listComponents(user.organisationId, { archived, query });
   return {
     units: user.units,

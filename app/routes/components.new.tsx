@@ -3,6 +3,7 @@ import type { Route } from "./+types/components.new";
 import { ComponentForm } from "~/components/component-form";
 import { PageHeader } from "~/components/ui/form";
 import { parseComponentForm } from "~/component-form";
+import { requireFormData } from "~/forms";
 import { createComponent } from "~/models/component.server";
 import { flashNotice, requireUserWithRole } from "~/session.server";
 
@@ -15,7 +16,7 @@ export async function loader({ request }: Route.LoaderArgs) {
 
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireUserWithRole(request, "planner", "admin");
-  const form = parseComponentForm(await request.formData(), user.units);
+  const form = parseComponentForm(await requireFormData(request), user.units);
   if (!form.ok) return data({ errors: form.errors }, { status: 400 });
   const component = await createComponent(user.organisationId, form.data, user.id);
   throw redirect(`/components/${component.id}`, { headers: { "Set-Cookie": await flashNotice(request, `${component.name} is saved.`) } });

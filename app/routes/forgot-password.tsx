@@ -2,9 +2,11 @@ import { data, Form } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/forgot-password";
 import { sendPasswordReset } from "~/account-mail.server";
-import { Button, Field } from "~/components/ui/form";
-import { parseForm } from "~/forms";
+import { Button, Field, FormError } from "~/components/ui/form";
+import { parseForm, requireFormData } from "~/forms";
+import { startPasswordResetRequest } from "~/models/sign-in-attempt.server";
 import { findUserByEmail } from "~/models/user.server";
+import { clientAddressKey } from "~/security.server";
 
 const schema = z.object({
   email: z.string({ error: "Enter your e-mail address." }).trim().email("Enter a valid e-mail address.").max(320),
@@ -13,9 +15,13 @@ const schema = z.object({
 export const meta: Route.MetaFunction = () => [{ title: "Reset password · Plumbline" }];
 
 export async function action({ request }: Route.ActionArgs) {
-  const form = parseForm(schema, await request.formData());
+  const form = parseForm(schema, await requireFormData(request));
   if (!form.ok) return data({ errors: form.errors, sent: false }, { status: 400 });
-  const user = await findUserByEmail(form.data.email);
+  const limit = await startPasswordResetRequest({ email: form.data.email, addressKey: clientAddressKey(request) });
+  if (!limit.ok) {
+    return data({ errors: { _form: [limit.message] } as Record<string, string[]>, sent: false }, { status: 429, headers: { "Retry-After": String(limit.retryAfterSeconds) } });
+  }
+  const user = limit.sendMail ? await findUserByEmail(form.data.email) : null;
   if (user?.active) await sendPasswordReset(user, request);
   // The same answer either way, so the form does not reveal who has an account.
   return { errors: null, sent: true };
@@ -32,6 +38,7 @@ export default function ForgotPassword({ actionData }: Route.ComponentProps) {
         </p>
       ) : (
         <Form method="post" className="mt-6 space-y-4 rounded border border-rule bg-card p-5">
+          <FormError message={actionData?.errors?._form?.join(" ")} />
           <Field label="E-mail" name="email" type="email" autoComplete="username" required errors={actionData?.errors?.email} />
           <Button type="submit" className="w-full">
             Send me a link

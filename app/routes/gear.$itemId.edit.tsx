@@ -2,6 +2,7 @@ import { data, redirect } from "react-router";
 import type { Route } from "./+types/gear.$itemId.edit";
 import { GearItemForm } from "~/components/gear-form";
 import { Card, PageHeader } from "~/components/ui/form";
+import { requireFormData } from "~/forms";
 import { parseGearItemForm } from "~/gear-form.server";
 import { getGearItem, updateGearItem } from "~/models/gear-item.server";
 import { listSites } from "~/models/site.server";
@@ -49,7 +50,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireUserWithRole(request, "admin");
   const item = await requireItem(user.organisationId, params.itemId);
-  const form = await parseGearItemForm(user.organisationId, await request.formData(), item.id);
+  const form = await parseGearItemForm(user.organisationId, await requireFormData(request), item.id);
   if (!form.ok) return data({ errors: form.errors }, { status: 400 });
   await updateGearItem(user.organisationId, item.id, form.data, user.id);
   throw redirect(`/gear/${item.id}`, { headers: { "Set-Cookie": await flashNotice(request, `${form.data.itemCode} saved.`) } });

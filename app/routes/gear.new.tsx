@@ -2,6 +2,7 @@ import { data, redirect } from "react-router";
 import type { Route } from "./+types/gear.new";
 import { GearItemForm } from "~/components/gear-form";
 import { Card, PageHeader } from "~/components/ui/form";
+import { requireFormData } from "~/forms";
 import { parseGearItemForm } from "~/gear-form.server";
 import { createGearItem } from "~/models/gear-item.server";
 import { listSites } from "~/models/site.server";
@@ -17,7 +18,7 @@ export async function loader({ request }: Route.LoaderArgs) {
 
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireUserWithRole(request, "admin");
-  const form = await parseGearItemForm(user.organisationId, await request.formData());
+  const form = await parseGearItemForm(user.organisationId, await requireFormData(request));
   if (!form.ok) return data({ errors: form.errors }, { status: 400 });
   const item = await createGearItem(user.organisationId, form.data, user.id);
   throw redirect(`/gear/${item.id}`, {

@@ -2,6 +2,7 @@ import { data, redirect } from "react-router";
 import type { Route } from "./+types/jobs.$jobId.edit";
 import { JobForm } from "~/components/job-form";
 import { Card, PageHeader } from "~/components/ui/form";
+import { requireFormData } from "~/forms";
 import { parseJobForm } from "~/job-form.server";
 import { getJob, updateJob } from "~/models/job.server";
 import { listSites } from "~/models/site.server";
@@ -29,7 +30,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireUserWithRole(request, "planner", "admin");
   const job = await requireJob(user.organisationId, params.jobId);
-  const form = await parseJobForm(user.organisationId, await request.formData(), job.id);
+  const form = await parseJobForm(user.organisationId, await requireFormData(request), job.id);
   if (!form.ok) return data({ errors: form.errors }, { status: 400 });
   await updateJob(user.organisationId, job.id, form.data, user.id);
   throw redirect(`/jobs/${job.id}`, { headers: { "Set-Cookie": await flashNotice(request, "Job saved.") } });

@@ -2,6 +2,7 @@ import { data, redirect } from "react-router";
 import type { Route } from "./+types/jobs.new";
 import { JobForm } from "~/components/job-form";
 import { Card, EmptyState, PageHeader } from "~/components/ui/form";
+import { requireFormData } from "~/forms";
 import { parseJobForm } from "~/job-form.server";
 import { createJob } from "~/models/job.server";
 import { listSites } from "~/models/site.server";
@@ -18,7 +19,7 @@ export async function loader({ request }: Route.LoaderArgs) {
 
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireUserWithRole(request, "planner", "admin");
-  const form = await parseJobForm(user.organisationId, await request.formData());
+  const form = await parseJobForm(user.organisationId, await requireFormData(request));
   if (!form.ok) return data({ errors: form.errors }, { status: 400 });
   const job = await createJob(user.organisationId, form.data, user.id);
   throw redirect(`/jobs/${job.id}`, { headers: { "Set-Cookie": await flashNotice(request, `Job ${job.workOrder} is open.`) } });

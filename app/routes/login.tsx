@@ -2,6 +2,9 @@ import { data, Form, redirect, useNavigation, useSearchParams } from "react-rout
 import type { Route } from "./+types/login";
 import { authenticator, SignInError } from "~/auth.server";
 import { Button, Field, FormError } from "~/components/ui/form";
+import { requireFormData } from "~/forms";
+import { clearSignInFailures, startSignInAttempt } from "~/models/sign-in-attempt.server";
+import { clientAddressKey } from "~/security.server";
 import { createUserSession, getUser, safeRedirectPath } from "~/session.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Sign in · Plumbline" }];
@@ -13,11 +16,14 @@ export async function loader({ request }: Route.LoaderArgs) {
 }
 
 export async function action({ request }: Route.ActionArgs) {
-  const form = await request.clone().formData();
+  const form = await requireFormData(request.clone());
   const redirectTo = safeRedirectPath(form.get("redirectTo"));
   const email = typeof form.get("email") === "string" ? String(form.get("email")) : "";
+  const attempt = await startSignInAttempt({ email, addressKey: clientAddressKey(request) });
+  if (!attempt.ok) return data({ error: attempt.message, email }, { status: 429, headers: { "Retry-After": String(attempt.retryAfterSeconds) } });
   try {
     const user = await authenticator.authenticate("password", request);
+    await clearSignInFailures(email);
     return createUserSession(request, user.id, redirectTo);
   } catch (error) {
     if (error instanceof SignInError) return data({ error: error.message, email }, { status: 401 });

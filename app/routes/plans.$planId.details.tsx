@@ -3,6 +3,7 @@ import { data, Form, redirect } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/plans.$planId.details";
 import { Button, Card, FieldError, FormError, PageHeader } from "~/components/ui/form";
+import { requireFormData } from "~/forms";
 import { getPlan, savePlanRevision } from "~/models/plan.server";
 import { parseDetailsForm } from "~/plan-details-form";
 import { MAX_HAZARDS, MAX_PEOPLE, MAX_STEPS, PERSON_ROLE_LABELS, PERSON_ROLES, type PlanDetails } from "~/plan-document";
@@ -30,7 +31,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireUserWithRole(request, "planner", "admin");
   const { plan, revision } = await requirePlan(user.organisationId, params.planId);
-  const formData = await request.formData();
+  const formData = await requireFormData(request);
   const version = versionSchema.safeParse(formData.get("version"));
   if (!version.success) return data({ errors: { _form: ["The form is missing its version; reload the page and try again."] } as Errors }, { status: 400 });
   const form = parseDetailsForm(formData, user.units);

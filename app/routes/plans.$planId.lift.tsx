@@ -5,7 +5,7 @@ import { gearPicksByIds } from "~/gear-picks.server";
 import { getReferenceTables } from "~/models/reference-row.server";
 import { getWorkflowView, recordLift } from "~/models/plan-workflow.server";
 import { PRE_LIFT_CHECKLIST, type ChecklistId } from "~/plan-workflow";
-import { getPlan } from "~/models/plan.server";
+import { getPlan, planExists } from "~/models/plan.server";
 import { PERSON_ROLE_LABELS, PLAN_CAUTION, type RiggingAllocation } from "~/plan-document";
 import { GEAR_ROLE_LABELS } from "~/plan-rigging";
 import { flashNotice, requireUserWithRole } from "~/session.server";
@@ -53,6 +53,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireUserWithRole(request, "rigger");
   const planId = Number(params.planId);
+  // Another organisation's plan is not found whatever the form says, as on every other plan route.
+  if (!(await planExists(user.organisationId, planId))) throw data({ message: "There is no such plan in your organisation." }, { status: 404 });
   const upload = await readUploadForm(request, { maxFiles: 3 });
   if (!upload.ok) return data({ error: upload.message }, { status: upload.status });
   const form = upload.formData;

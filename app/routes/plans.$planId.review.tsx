@@ -3,8 +3,8 @@ import { z } from "zod";
 import type { Route } from "./+types/plans.$planId.review";
 import { StatusBadge, utilisationText } from "~/components/live-results";
 import { Button, Card, Field, FormError, PageHeader, TextAreaField } from "~/components/ui/form";
-import { parseForm } from "~/forms";
-import { getPlan } from "~/models/plan.server";
+import { parseForm, requireFormData } from "~/forms";
+import { getPlan, planExists } from "~/models/plan.server";
 import { approveRevision, getWorkflowView, returnRevision } from "~/models/plan-workflow.server";
 import { PLAN_CAUTION, PLAN_STATUS_LABELS } from "~/plan-document";
 import { flashNotice, requireUserWithRole } from "~/session.server";
@@ -41,7 +41,9 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireUserWithRole(request, "approver");
   const planId = Number(params.planId);
-  const form = parseForm(schema, await request.formData());
+  // Another organisation's plan is not found whatever the form says, as on every other plan route.
+  if (!(await planExists(user.organisationId, planId))) throw data({ message: "There is no such plan in your organisation." }, { status: 404 });
+  const form = parseForm(schema, await requireFormData(request));
   if (!form.ok) return data({ error: Object.values(form.errors).flat()[0] ?? "The form is not complete.", field: Object.keys(form.errors)[0] ?? null }, { status: 400 });
   const result =
     form.data.intent === "approve"

@@ -2,6 +2,7 @@ import { data, Form, redirect } from "react-router";
 import type { Route } from "./+types/plans.$planId.submit";
 import { StatusBadge, utilisationText } from "~/components/live-results";
 import { Button, Card, FormError, PageHeader } from "~/components/ui/form";
+import { requireFormData } from "~/forms";
 import { getPlan } from "~/models/plan.server";
 import { submitRevision } from "~/models/plan-workflow.server";
 import { PLAN_CAUTION } from "~/plan-document";
@@ -24,7 +25,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireUserWithRole(request, "planner", "admin");
   const planId = Number(params.planId);
-  const form = await request.formData();
+  const form = await requireFormData(request);
   const acknowledgements: Record<string, string> = {};
   for (const [key, value] of form.entries()) if (key.startsWith("ack-") && typeof value === "string") acknowledgements[key.slice(4)] = value;
   const result = await submitRevision(user.organisationId, planId, user, acknowledgements, request);

@@ -4,7 +4,7 @@ import type { Route } from "./+types/plans.$planId";
 import { ComponentViews } from "~/components/component-views";
 import { Button, Card, EmptyState, FormError, PageHeader } from "~/components/ui/form";
 import { COG_SOURCE_LABELS, MASS_SOURCE_LABELS } from "~/component-definition";
-import { parseForm } from "~/forms";
+import { parseForm, requireFormData } from "~/forms";
 import { compareWithComponent, EDITABLE_STATUSES, getPlan, pullComponentVersion } from "~/models/plan.server";
 import { assignRigger, cancelPlan, getWorkflowView, startNewRevision } from "~/models/plan-workflow.server";
 import { listUsersWithRole } from "~/models/user.server";
@@ -51,7 +51,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireUserWithRole(request, "planner", "admin", "approver");
   const { plan } = await requirePlan(user.organisationId, params.planId);
-  const form = parseForm(schema, await request.formData());
+  const form = parseForm(schema, await requireFormData(request));
   if (!form.ok) return data({ error: Object.values(form.errors).flat()[0] ?? "The request is not complete; reload the page and try again." }, { status: 400 });
   if (form.data.intent !== "pull-component") {
     const done =

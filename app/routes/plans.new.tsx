@@ -2,7 +2,7 @@ import { data, Form, redirect } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/plans.new";
 import { Button, Card, EmptyState, Field, FormError, PageHeader, SelectField } from "~/components/ui/form";
-import { parseForm, requiredText } from "~/forms";
+import { parseForm, requiredText, requireFormData } from "~/forms";
 import { listComponents } from "~/models/component.server";
 import { listJobs } from "~/models/job.server";
 import { createPlanFromComponent } from "~/models/plan.server";
@@ -32,7 +32,7 @@ export async function loader({ request }: Route.LoaderArgs) {
 
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireUserWithRole(request, "planner", "admin");
-  const form = parseForm(schema, await request.formData());
+  const form = parseForm(schema, await requireFormData(request));
   if (!form.ok) return data({ errors: form.errors }, { status: 400 });
   const created = await createPlanFromComponent(user.organisationId, form.data.jobId, form.data.componentId, form.data.title, user.id);
   if (!created.ok) return data({ errors: { [created.field]: [created.message] } as Record<string, string[]> }, { status: 400 });

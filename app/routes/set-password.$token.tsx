@@ -2,7 +2,7 @@ import { data, Form, redirect } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/set-password.$token";
 import { Button, Field, FormError } from "~/components/ui/form";
-import { newPasswordSchema, parseForm } from "~/forms";
+import { newPasswordSchema, parseForm, requireFormData } from "~/forms";
 import { findUsableToken, redeemPasswordToken } from "~/models/password-token.server";
 import { flashNotice } from "~/session.server";
 
@@ -19,7 +19,7 @@ export async function loader({ params }: Route.LoaderArgs) {
 }
 
 export async function action({ request, params }: Route.ActionArgs) {
-  const form = parseForm(schema, await request.formData());
+  const form = parseForm(schema, await requireFormData(request));
   if (!form.ok) return data({ errors: form.errors, error: null }, { status: 400 });
   const userId = await redeemPasswordToken(params.token, form.data.password);
   if (!userId) {

@@ -2,7 +2,7 @@ import { data, Form, redirect } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/settings";
 import { Button, Card, Field, FormError, PageHeader, SelectField } from "~/components/ui/form";
-import { newPasswordSchema, parseForm } from "~/forms";
+import { newPasswordSchema, parseForm, requireFormData } from "~/forms";
 import { setPassword, setUnits, verifyPassword } from "~/models/user.server";
 import { ROLE_DUTIES, ROLE_LABELS } from "~/roles";
 import { flashNotice, requireUser } from "~/session.server";
@@ -28,7 +28,7 @@ export async function loader({ request }: Route.LoaderArgs) {
 
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireUser(request);
-  const form = parseForm(schema, await request.formData());
+  const form = parseForm(schema, await requireFormData(request));
   if (!form.ok) return data({ errors: form.errors }, { status: 400 });
   if (form.data.intent === "units") {
     await setUnits(user.id, form.data.units);

@@ -2,7 +2,7 @@ import { data, redirect } from "react-router";
 import type { Route } from "./+types/sites.$siteId";
 import { SiteForm } from "~/components/site-form";
 import { Card, EmptyState, PageHeader } from "~/components/ui/form";
-import { parseForm } from "~/forms";
+import { parseForm, requireFormData } from "~/forms";
 import { listJobs } from "~/models/job.server";
 import { getSite, updateSite } from "~/models/site.server";
 import { flashNotice, requireUserWithRole } from "~/session.server";
@@ -30,7 +30,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireUserWithRole(request, "planner", "admin");
   const site = await requireSite(user.organisationId, params.siteId);
-  const form = parseForm(siteSchema, await request.formData());
+  const form = parseForm(siteSchema, await requireFormData(request));
   if (!form.ok) return data({ errors: form.errors }, { status: 400 });
   await updateSite(user.organisationId, site.id, form.data, user.id);
   throw redirect(`/sites/${site.id}`, { headers: { "Set-Cookie": await flashNotice(request, "Site saved.") } });

@@ -2,7 +2,7 @@ import { data, redirect } from "react-router";
 import type { Route } from "./+types/sites.new";
 import { SiteForm } from "~/components/site-form";
 import { Card, PageHeader } from "~/components/ui/form";
-import { parseForm } from "~/forms";
+import { parseForm, requireFormData } from "~/forms";
 import { createSite } from "~/models/site.server";
 import { flashNotice, requireUserWithRole } from "~/session.server";
 import { siteSchema } from "~/site-schema";
@@ -16,7 +16,7 @@ export async function loader({ request }: Route.LoaderArgs) {
 
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireUserWithRole(request, "planner", "admin");
-  const form = parseForm(siteSchema, await request.formData());
+  const form = parseForm(siteSchema, await requireFormData(request));
   if (!form.ok) return data({ errors: form.errors }, { status: 400 });
   const site = await createSite(user.organisationId, form.data, user.id);
   throw redirect(`/sites/${site.id}`, { headers: { "Set-Cookie": await flashNotice(request, `${site.name} is added.`) } });

@@ -1,6 +1,6 @@
-// Constants and unit conversions at the edges of the statics core. Display conversions go
-// through mathjs units; the exact constants below are checked against mathjs in the tests.
-import { unit } from "mathjs";
+// Constants and unit conversions at the edges of the statics core. Conversions multiply by the
+// exact definitions below; units.test.ts checks every factor against mathjs's units, which stay
+// out of the bundles (mathjs alone was 63 KB gzipped on every page that formats a mass or length).
 
 /** Standard gravity in m/s^2 (exact, 3rd CGPM 1901). */
 export const STANDARD_GRAVITY_MS2 = 9.80665;
@@ -14,8 +14,10 @@ export const POUND_FORCE_N = POUND_KG * STANDARD_GRAVITY_MS2;
 export type MassUnit = "kg" | "t" | "lb" | "shortTon";
 export type LengthUnit = "m" | "mm" | "in" | "ft";
 
-const MATHJS_MASS: Record<MassUnit, string> = { kg: "kg", t: "tonne", lb: "lbm", shortTon: "ton" };
-const MATHJS_LENGTH: Record<LengthUnit, string> = { m: "m", mm: "mm", in: "in", ft: "ft" };
+/** Each unit in kg (exact). */
+export const MASS_UNIT_KG: Record<MassUnit, number> = { kg: 1, t: 1000, lb: POUND_KG, shortTon: SHORT_TON_KG };
+/** Each unit in m (exact: 1 in = 25.4 mm, international yard 1959). */
+export const LENGTH_UNIT_M: Record<LengthUnit, number> = { m: 1, mm: 0.001, in: 0.0254, ft: 0.3048 };
 
 /** Weight in kN of a mass in kg under standard gravity. */
 export function massKgToWeightKn(massKg: number): number {
@@ -32,10 +34,10 @@ export function kgfToForceKn(forceKgf: number): number {
   return (forceKgf * STANDARD_GRAVITY_MS2) / 1000;
 }
 
-/** Converts a mass between kg, tonne, lb and US short ton (via mathjs). */
+/** Converts a mass between kg, tonne, lb and US short ton. */
 export function convertMass(value: number, from: MassUnit, to: MassUnit): number {
   if (from === to) return value;
-  return unit(value, MATHJS_MASS[from]).toNumber(MATHJS_MASS[to]);
+  return (value * MASS_UNIT_KG[from]) / MASS_UNIT_KG[to];
 }
 
 /** A mass in any supported unit, in kg. */
@@ -43,10 +45,10 @@ export function massToKg(value: number, from: MassUnit): number {
   return convertMass(value, from, "kg");
 }
 
-/** Converts a length between m, mm, in and ft (via mathjs). */
+/** Converts a length between m, mm, in and ft. */
 export function convertLength(value: number, from: LengthUnit, to: LengthUnit): number {
   if (from === to) return value;
-  return unit(value, MATHJS_LENGTH[from]).toNumber(MATHJS_LENGTH[to]);
+  return (value * LENGTH_UNIT_M[from]) / LENGTH_UNIT_M[to];
 }
 
 /** Rounds x up (toward +infinity) to the given decimals, for display of utilisations; never rounds down. */

@@ -1,6 +1,7 @@
 // `npm run bench`: the statics core's solves per second, and /api/solve against a trivial JSON
 // route on the same built server in the same run. A benchmark, never a timed test: it prints.
 import { startBuiltServer, signInCookie } from "../support/built-server";
+import { runLoadBench } from "./load";
 import { runPdfBench } from "./pdf";
 import { runStaticsBench, type BenchResult } from "./statics";
 
@@ -37,7 +38,7 @@ async function runHttpBench(): Promise<BenchResult[]> {
     const cookie = await signInCookie(server.baseUrl, "planner@example.com");
     const ping = () => fetch(`${server.baseUrl}/api/ping`, { headers: { Cookie: cookie } });
     const solve = () =>
-      fetch(`${server.baseUrl}/api/solve`, { method: "POST", body: SOLVE_BODY, headers: { Cookie: cookie, "Content-Type": "application/json" } });
+      fetch(`${server.baseUrl}/api/solve`, { method: "POST", body: SOLVE_BODY, headers: { Cookie: cookie, Origin: server.baseUrl, "Content-Type": "application/json" } });
     await timeRequests(ping, 200);
     await timeRequests(solve, 200);
     const pingTimes: number[] = [];
@@ -69,5 +70,5 @@ function print(results: BenchResult[]) {
   }
 }
 
-const results = [...(await runStaticsBench()), ...(await runPdfBench()), ...(await runHttpBench())];
+const results = [...(await runStaticsBench()), ...(await runPdfBench()), ...(await runHttpBench()), ...(await runLoadBench())];
 print(results);

@@ -15,6 +15,7 @@ import {
 } from "~/models/plan-workflow.server";
 import { PRE_LIFT_CHECKLIST } from "~/plan-workflow";
 import { makeUser, TEST_PASSWORD } from "../support/factories";
+import { makePlan } from "../support/plans";
 import { allowSelfApproval, readyPlan } from "../support/workflow";
 
 const allTicked = Object.fromEntries(PRE_LIFT_CHECKLIST.map((c) => [c.id, true])) as Record<(typeof PRE_LIFT_CHECKLIST)[number]["id"], boolean>;
@@ -93,6 +94,16 @@ describe("a plan moves from draft to completed", () => {
     const { planner, plan } = await readyPlan({ overdueEyebolt: true });
     const refused = await submitRevision(planner.organisationId, plan.id, planner, {});
     expect(refused).toMatchObject({ ok: false, status: 409 });
+    expect(await status(plan.id, planner.organisationId)).toBe("draft");
+  });
+
+  it("a plan with no gear allocated cannot be submitted, though its leg angles are checked", async () => {
+    const planner = await makeUser(["planner"]);
+    const { plan } = await makePlan(planner);
+    const results = (await getPlan(planner.organisationId, plan.id))!.revision.results;
+    expect(results.status === 200 && results.body.checks?.some((c) => c.id.startsWith("angle-"))).toBe(true);
+    const refused = await submitRevision(planner.organisationId, plan.id, planner, {});
+    expect(refused).toEqual({ ok: false, status: 409, message: "No gear is allocated, so nothing has been checked: allocate the rigging before submitting.", field: undefined });
     expect(await status(plan.id, planner.organisationId)).toBe("draft");
   });
 

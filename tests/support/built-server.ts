@@ -1,12 +1,24 @@
 // Serves the production build (as `npm run demo` does) on a free loopback port over a fresh
-// database seeded with the demo scenario. Used by the browser tests and the benchmark.
+// database seeded with the demo scenario (or an existing database). Used by the browser tests,
+// the durability tests and the benchmarks.
 import { spawn, spawnSync } from "node:child_process";
 import fs from "node:fs";
 import net from "node:net";
 import os from "node:os";
 import path from "node:path";
 
-export type BuiltServer = { baseUrl: string; databasePath: string; workDir: string; stop: () => Promise<void> };
+export type BuiltServer = {
+  baseUrl: string;
+  databasePath: string;
+  workDir: string;
+  /** The server process's pid (for fault tests that kill it). */
+  pid: number;
+  /** Settles when the server process has exited, however it ended. */
+  exited: Promise<void>;
+  /** What the server printed so far. */
+  output: () => string;
+  stop: () => Promise<void>;
+};
 
 export function freePort(): Promise<number> {
   return new Promise((resolve, reject) => {
@@ -19,26 +31,42 @@ export function freePort(): Promise<number> {
   });
 }
 
-export async function startBuiltServer(options: { extraEnv?: Record<string, string>; prepare?: (env: NodeJS.ProcessEnv) => void } = {}): Promise<BuiltServer> {
+export type StartOptions = {
+  extraEnv?: Record<string, string>;
+  /** Runs after the database is ready and before the server starts, with the server's environment. */
+  prepare?: (env: NodeJS.ProcessEnv) => void;
+  /**
+   * Serve this existing database instead of a fresh demo one: nothing is seeded, uploads are looked for
+   * beside it, and stop() leaves its folder alone (the caller made it, the caller removes it).
+   */
+  databasePath?: string;
+};
+
+export async function startBuiltServer(options: StartOptions = {}): Promise<BuiltServer> {
   if (!fs.existsSync("build/server/index.js")) throw new Error("Build the app first (npm run build).");
-  const workDir = fs.mkdtempSync(path.join(os.tmpdir(), "plumbline-served-"));
+  const existing = options.databasePath;
+  const workDir = existing ? path.dirname(path.resolve(existing)) : fs.mkdtempSync(path.join(os.tmpdir(), "plumbline-served-"));
   const env: NodeJS.ProcessEnv = {
     ...process.env,
     NODE_ENV: "production",
     PLUMBLINE_ENV: "demo",
-    DATABASE_PATH: path.join(workDir, "plumbline.sqlite"),
+    DATABASE_PATH: existing ? path.resolve(existing) : path.join(workDir, "plumbline.sqlite"),
     UPLOAD_DIR: path.join(workDir, "uploads"),
     HOST: "127.0.0.1",
     ...options.extraEnv,
   };
-  const seeded = spawnSync(process.execPath, ["node_modules/tsx/dist/cli.mjs", "db/cli.ts", "setup"], { env, encoding: "utf8" });
-  if (seeded.status !== 0) throw new Error(`db setup failed: ${seeded.stderr}`);
+  if (!existing) {
+    const seeded = spawnSync(process.execPath, ["node_modules/tsx/dist/cli.mjs", "db/cli.ts", "setup"], { env, encoding: "utf8" });
+    if (seeded.status !== 0) throw new Error(`db setup failed: ${seeded.stderr}`);
+  }
   options.prepare?.(env);
   const port = await freePort();
   const child = spawn(process.execPath, ["node_modules/@react-router/serve/bin.js", "build/server/index.js"], {
     env: { ...env, PORT: String(port) },
     stdio: ["ignore", "pipe", "pipe"],
   });
+  const exited = new Promise<void>((resolve) => child.once("exit", () => resolve()));
+  const isRunning = () => child.exitCode === null && child.signalCode === null;
   let output = "";
   child.stdout?.on("data", (d) => (output += d));
   child.stderr?.on("data", (d) => (output += d));
@@ -50,19 +78,25 @@ export async function startBuiltServer(options: { extraEnv?: Record<string, stri
     } catch {
       // not up yet
     }
-    if (child.exitCode !== null || Date.now() > deadline) throw new Error(`The app did not start:\n${output}`);
+    if (!isRunning() || Date.now() > deadline) {
+      if (isRunning()) child.kill("SIGKILL");
+      throw new Error(`The app did not start:\n${output}`);
+    }
     await new Promise((r) => setTimeout(r, 200));
   }
   return {
     baseUrl,
     databasePath: env.DATABASE_PATH!,
     workDir,
+    pid: child.pid!,
+    exited,
+    output: () => output,
     stop: async () => {
-      if (child.exitCode === null) {
+      if (isRunning()) {
         child.kill("SIGTERM");
-        await new Promise((r) => child.once("exit", r));
+        await exited;
       }
-      fs.rmSync(workDir, { recursive: true, force: true });
+      if (!existing) fs.rmSync(workDir, { recursive: true, force: true });
     },
   };
 }
