@@ -39,6 +39,10 @@ function close(db: sqlite3.Database): Promise<void> {
   return new Promise((resolve, reject) => db.close((err) => (err ? reject(err) : resolve())));
 }
 
+function isBusy(error: unknown) {
+  return error instanceof Error && /SQLITE_(BUSY|LOCKED)/.test(error.message);
+}
+
 function removeSidecars(file: string) {
   for (const suffix of ["-wal", "-shm", "-journal"]) fs.rmSync(file + suffix, { force: true });
 }
@@ -125,8 +129,7 @@ export async function backupDatabase(databasePath: string, target: string): Prom
       try {
         await new Promise<void>((resolve, reject) => backup.step(-1, (err) => (err ? reject(err) : resolve())));
       } catch (error) {
-        const busy = error instanceof Error && /SQLITE_(BUSY|LOCKED)/.test(error.message);
-        if (!busy || attempt >= 20) {
+        if (!isBusy(error) || attempt >= 20) {
           await new Promise<void>((resolve) => backup.finish(() => resolve()));
           throw error;
         }
@@ -165,9 +168,16 @@ export async function backupDatabase(databasePath: string, target: string): Prom
 /**
  * True when another connection has the database open (the app, `npm run reminders`, a shell):
  * exclusive locking mode cannot take the file while any other WAL connection holds it, even idle.
+ * A file SQLite cannot read at all (the corrupt database a restore replaces) counts as not in use. A process
+ * that has not opened the database yet (Sequelize connects on the first query) holds nothing and is not seen.
  */
 export async function isDatabaseInUse(databasePath: string): Promise<boolean> {
-  const db = await open(databasePath, sqlite3.OPEN_READWRITE);
+  let db: sqlite3.Database;
+  try {
+    db = await open(databasePath, sqlite3.OPEN_READWRITE);
+  } catch (error) {
+    return isBusy(error);
+  }
   try {
     await exec(db, "PRAGMA busy_timeout=0; PRAGMA locking_mode=EXCLUSIVE;");
     await all(db, "SELECT count(*) FROM sqlite_master");
@@ -176,10 +186,9 @@ export async function isDatabaseInUse(databasePath: string): Promise<boolean> {
     await exec(db, "PRAGMA wal_checkpoint(TRUNCATE)");
     return false;
   } catch (error) {
-    if (error instanceof Error && /SQLITE_(BUSY|LOCKED)/.test(error.message)) return true;
-    throw error;
+    return isBusy(error);
   } finally {
-    await close(db);
+    await close(db).catch(() => undefined);
   }
 }
 
@@ -216,7 +225,7 @@ export async function restoreDatabase(backupFile: string, databasePath: string, 
       previousKeptAs = `${dbResolved}.before-restore-${stamp}`;
       if (fs.existsSync(previousKeptAs)) throw new Error(`Not restored: ${previousKeptAs} exists already; try again in a second.`);
       fs.renameSync(dbResolved, previousKeptAs);
-      // The checkpoint emptied the log; a leftover one belongs to the previous file, so it goes with it.
+      // The checkpoint emptied the log; one left over (an unreadable file was not checkpointed) goes with its file.
       if (fs.existsSync(`${dbResolved}-wal`) && fs.statSync(`${dbResolved}-wal`).size > 0) fs.renameSync(`${dbResolved}-wal`, `${previousKeptAs}-wal`);
     }
     removeSidecars(dbResolved);

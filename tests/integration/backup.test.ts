@@ -152,6 +152,18 @@ describe("database backup and restore", () => {
     expect(fs.readdirSync(dir).filter((f) => f.includes("restoring") || (f.startsWith(path.basename(dbPath)) && f.includes("before-restore")))).toEqual([]);
   });
 
+  it("restores over a database that is no longer readable, keeping it aside", async () => {
+    const backup = path.join(dir, `good-${randomUUID()}.sqlite`);
+    await backupDatabase(livePath, backup);
+    const dbPath = path.join(dir, `broken-${randomUUID()}.sqlite`);
+    fs.writeFileSync(dbPath, Buffer.alloc(8192, 0x42));
+    fs.writeFileSync(`${dbPath}-wal`, "not a log SQLite could replay");
+    const done = await restoreDatabase(backup, dbPath);
+    expect(fs.readFileSync(done.previousKeptAs!).equals(Buffer.alloc(8192, 0x42))).toBe(true);
+    expect(fs.existsSync(`${dbPath}-wal`)).toBe(false);
+    expect(await checkPlumblineDatabase(dbPath)).toMatchObject({ ok: true });
+  });
+
   it("names default backups by UTC time beside the database and never overwrites one", async () => {
     expect(defaultBackupPath("data/plumbline.sqlite", new Date("2026-03-14T10:22:05.123Z"))).toBe(path.resolve("data/backups/plumbline-20260314T102205Z.sqlite"));
     const target = path.join(dir, `once-${randomUUID()}.sqlite`);
