@@ -173,3 +173,21 @@ export const defectReportSchema = z.object({
 });
 
 export type { GearStatus };
+
+/** Every optional field of a register item, empty: spread it and set what the test needs. */
+export const BLANK_GEAR_FIELDS: Omit<GearItemInput, "itemCode" | "kind" | "wllValue" | "wllUnit"> = {
+  description: "",
+  manufacturer: "",
+  serial: "",
+  thread: null,
+  eyeboltFamily: null,
+  shackleType: null,
+  pinType: null,
+  chainGrade: null,
+  diameterMm: null,
+  legs: null,
+  lengthM: null,
+  hookHeightM: null,
+  beamMassKg: null,
+  homeSiteId: null,
+};

@@ -1,7 +1,7 @@
 // The invented demo company's gear register. Dates are relative to the day of seeding, so the
 // demo always shows items in date, due within 30 days, one overdue, one quarantined and one withdrawn.
 import { addDays, addMonths, examinationIntervalMonths, todayIso } from "~/gear-due";
-import type { GearItemInput } from "~/gear-schema";
+import { BLANK_GEAR_FIELDS, type GearItemInput } from "~/gear-schema";
 import { recordExamination } from "~/models/examination.server";
 import { changeGearStatus, createGearItem, GearItem, reportGearDefect } from "~/models/gear-item.server";
 import { listSites } from "~/models/site.server";
@@ -13,21 +13,7 @@ const WATER_WORKS = "Castlemere Treatment Works, blower hall";
 
 const EXAMINERS = ["Ruth Calloway, Northfold Inspection Services", "Ivan Petrakis, Northfold Inspection Services"];
 
-const NONE = {
-  thread: null,
-  eyeboltFamily: null,
-  shackleType: null,
-  pinType: null,
-  chainGrade: null,
-  diameterMm: null,
-  legs: null,
-  lengthM: null,
-  hookHeightM: null,
-  beamMassKg: null,
-  homeSiteId: null,
-  manufacturer: "",
-  serial: "",
-} as const;
+const NONE = BLANK_GEAR_FIELDS;
 
 /**
  * When the item was last examined, as days before its next examination falls due (negative:

@@ -2,7 +2,7 @@
 import { createGearItem } from "~/models/gear-item.server";
 import { createSite } from "~/models/site.server";
 import type { SessionUser } from "~/models/user.server";
-import type { GearItemInput } from "~/gear-schema";
+import { BLANK_GEAR_FIELDS, type GearItemInput } from "~/gear-schema";
 import { makeUser, sessionCookie } from "./factories";
 
 const BASE = "http://localhost:3000";
@@ -20,23 +20,7 @@ export const SHACKLE_FIELDS = {
   diameterMm: "13",
 } as const;
 
-/** Every optional field of a register item, empty: spread it and set what the test needs. */
-export const BLANK_GEAR_FIELDS: Omit<GearItemInput, "itemCode" | "kind" | "wllValue" | "wllUnit"> = {
-  description: "",
-  manufacturer: "",
-  serial: "",
-  thread: null,
-  eyeboltFamily: null,
-  shackleType: null,
-  pinType: null,
-  chainGrade: null,
-  diameterMm: null,
-  legs: null,
-  lengthM: null,
-  hookHeightM: null,
-  beamMassKg: null,
-  homeSiteId: null,
-};
+export { BLANK_GEAR_FIELDS };
 
 /** An item straight into the register (no route), a bow shackle unless told otherwise. */
 export async function makeGearItem(user: Pick<SessionUser, "id" | "organisationId">, input: Partial<GearItemInput> = {}) {
