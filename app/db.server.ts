@@ -7,6 +7,24 @@ import { env } from "~/env.server";
 
 const CONNECTION_PRAGMAS = "PRAGMA journal_mode=WAL; PRAGMA foreign_keys=ON; PRAGMA busy_timeout=10000; PRAGMA synchronous=NORMAL;";
 
+type RowsCallback = (this: sqlite3.Statement, err: Error | null, rows: unknown[]) => void;
+
+const TABLE_INFO = /^PRAGMA table_info\(`([^`]+)`\)$/;
+const SCHEMA_CHANGE = /^\s*(?:CREATE|ALTER|DROP)\b/i;
+
+/**
+ * Column declarations by table, shared by this process's connections. Sequelize's sqlite dialect asks
+ * `PRAGMA table_info` of every table a SELECT names, on every SELECT, to learn how to read dates and
+ * booleans: several extra round trips through the one serialised connection per query. The schema
+ * changes only by migration, so the answers are kept until a statement here creates, alters or drops.
+ * (A migration run by another process is followed by a restart: `npm start` migrates, then serves.)
+ */
+const tableInfoCache = new Map<string, unknown[]>();
+
+function forgetSchemaOnChange(sql: unknown) {
+  if (typeof sql === "string" && SCHEMA_CHANGE.test(sql)) tableInfoCache.clear();
+}
+
 /**
  * Sequelize's sqlite dialect opens a connection per transaction and never runs afterConnect
  * hooks, so every connection is configured here, in the constructor Sequelize calls.
@@ -19,6 +37,35 @@ class ConfiguredDatabase extends sqlite3.Database {
       self.exec(CONNECTION_PRAGMAS, (pragmaErr) => callback?.(pragmaErr ?? null));
     });
     self = this;
+  }
+
+  override all(sql: string, ...rest: unknown[]): this {
+    const table = rest.length === 1 && typeof rest[0] === "function" ? TABLE_INFO.exec(sql)?.[1] : undefined;
+    if (table === undefined) {
+      forgetSchemaOnChange(sql);
+      return (super.all as (sql: string, ...rest: unknown[]) => this)(sql, ...rest);
+    }
+    const callback = rest[0] as RowsCallback;
+    const cached = tableInfoCache.get(table);
+    if (cached) {
+      process.nextTick(() => callback.call(undefined as unknown as sqlite3.Statement, null, cached));
+      return this;
+    }
+    return super.all(sql, function (this: sqlite3.Statement, err: Error | null, rows: unknown[]) {
+      // An empty answer is a table not made yet: ask again next time.
+      if (!err && rows.length > 0) tableInfoCache.set(table, rows);
+      callback.call(this, err, rows);
+    });
+  }
+
+  override run(sql: string, ...rest: unknown[]): this {
+    forgetSchemaOnChange(sql);
+    return (super.run as (sql: string, ...rest: unknown[]) => this)(sql, ...rest);
+  }
+
+  override exec(sql: string, callback?: (this: sqlite3.Statement, err: Error | null) => void): this {
+    forgetSchemaOnChange(sql);
+    return super.exec(sql, callback);
   }
 }
 

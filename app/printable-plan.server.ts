@@ -32,7 +32,7 @@ export type PrintableOutcome = { ok: true; printable: PrintablePlan; revision: n
 export async function buildPrintablePlan(user: SessionUser, planId: number, request: Request): Promise<PrintableOutcome> {
   const found = await getPlan(user.organisationId, planId);
   if (!found) return { ok: false, status: 404, message: "There is no such plan in your organisation." };
-  const workflow = await getWorkflowView(user.organisationId, planId, user);
+  const workflow = await getWorkflowView(user.organisationId, planId, user, found);
   const approved = workflow?.approved;
   if (!workflow || !approved || approved.status !== "approved" || !workflow.permissions.print.allowed) {
     return {

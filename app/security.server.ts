@@ -150,7 +150,7 @@ export function addressKeyOf(raw: string): string | null {
 }
 
 /**
- * The client's address key for attempt limits. Loaders under react-router-serve do not see the socket's address,
+ * The client's address key for attempt limits. Loaders are not given the socket's address,
  * so it comes from X-Forwarded-For, and only when TRUST_PROXY says how many proxies in front append to it: the
  * entry that many places from the right is the one our own proxy wrote (entries to its left are the client's
  * say-so). Without a trusted proxy, or with an unusable header, every client shares the key "direct".

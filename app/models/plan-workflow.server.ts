@@ -138,13 +138,13 @@ async function loadPlan(organisationId: number, planId: number, transaction?: Tr
 }
 
 /** What the user may do with the plan's revisions: the working one and the current approved one. */
-export async function workflowContext(user: SessionUser, loaded: Loaded, revision: PlanRevision): Promise<WorkflowContext> {
-  const organisation = await getOrganisation(user.organisationId);
+export async function workflowContext(user: SessionUser, loaded: Loaded, revision: PlanRevision, allowSelfApproval?: boolean): Promise<WorkflowContext> {
+  allowSelfApproval ??= (await getOrganisation(user.organisationId))?.allowSelfApproval ?? false;
   return {
     status: revision.status,
     roles: user.roles,
     isOwnPlan: revision.plannedBy === user.id || revision.submittedBy === user.id,
-    allowSelfApproval: organisation?.allowSelfApproval ?? false,
+    allowSelfApproval,
     isCurrentApproved: revision.status === "approved",
     hasNewerRevision: revision.status === "approved" && loaded.current.id !== revision.id,
   };
@@ -505,15 +505,34 @@ export type WorkflowView = {
   permissions: Record<WorkflowAction, { allowed: boolean; reason?: string }>;
 };
 
-/** Everything the plan page needs about where the plan stands and what the user may do next. */
-export async function getWorkflowView(organisationId: number, planId: number, user: SessionUser): Promise<WorkflowView | null> {
-  const loaded = await loadPlan(organisationId, planId);
-  if (!loaded) return null;
-  const working = readRevision(loaded.current);
-  const approvedRow = loaded.approved ?? (await PlanRevision.findOne({ where: { planId, status: "completed" }, order: [["revision", "DESC"]] }));
-  const approved = approvedRow ? { ...readRevision(approvedRow), verifyToken: approvedRow.verifyToken ?? null } : null;
-  const revisionsById = new Map((await PlanRevision.findAll({ where: { planId }, attributes: ["id", "revision"] })).map((r) => [r.id, r.revision]));
-  const users = new Map((await User.findAll({ where: { organisationId }, attributes: ["id", "name"] })).map((u) => [u.id, u.name]));
+/** The latest revision with `status`, if any. */
+function latestWith(revisions: PlanRevision[], status: PlanStatus): PlanRevision | null {
+  return revisions.filter((r) => r.status === status).reduce<PlanRevision | null>((latest, r) => (!latest || r.revision > latest.revision ? r : latest), null);
+}
+
+/**
+ * Everything the plan page needs about where the plan stands and what the user may do next. Pages that
+ * have just read the plan with `getPlan` pass what they read (`found`), so it is not read again.
+ */
+export async function getWorkflowView(
+  organisationId: number,
+  planId: number,
+  user: SessionUser,
+  found?: { plan: Plan; revision: RevisionView },
+): Promise<WorkflowView | null> {
+  if (!Number.isSafeInteger(planId)) return null;
+  const plan = found?.plan ?? (await Plan.findOne({ where: { organisationId, id: planId } }));
+  if (!plan?.currentRevisionId || plan.organisationId !== organisationId) return null;
+  // Every revision in one read: the working one, the current approved one, a completed one, and their numbers.
+  const revisions = await PlanRevision.findAll({ where: { planId: plan.id } });
+  const current = revisions.find((r) => r.id === plan.currentRevisionId);
+  if (!current) return null;
+  const loaded: Loaded = { plan, current, approved: latestWith(revisions, "approved") };
+  const working = found && found.revision.id === current.id ? found.revision : readRevision(current);
+  const approvedRow = loaded.approved ?? latestWith(revisions, "completed");
+  const approved = approvedRow ? { ...(approvedRow.id === working.id ? working : readRevision(approvedRow)), verifyToken: approvedRow.verifyToken ?? null } : null;
+  const revisionsById = new Map(revisions.map((r) => [r.id, r.revision]));
+  const users = new Map((await User.findAll({ where: { organisationId }, attributes: ["id", "name"], raw: true })).map((u) => [u.id, u.name]));
   const acknowledgements = (await PlanAcknowledgement.findAll({ where: { revisionId: loaded.current.id }, order: [["id", "ASC"]] })).map((a) => ({
     checkItem: a.checkItem,
     checkMessage: a.checkMessage,
@@ -528,11 +547,13 @@ export async function getWorkflowView(organisationId: number, planId: number, us
     at: c.createdAt.toISOString(),
     revision: revisionsById.get(c.revisionId) ?? 0,
   }));
-  const record = approvedRow ? await LiftRecord.findOne({ where: { revisionId: approvedRow.id } }) : null;
+  // Only recording the lift completes a revision, so only a completed one has a record.
+  const record = approvedRow?.status === "completed" ? await LiftRecord.findOne({ where: { revisionId: approvedRow.id } }) : null;
   const photos = record ? (await LiftRecordPhoto.findAll({ where: { liftRecordId: record.id } })).map((p) => p.storedFileId) : [];
   const permissions = {} as WorkflowView["permissions"];
-  const workingCtx = await workflowContext(user, loaded, loaded.current);
-  const approvedCtx = loaded.approved ? await workflowContext(user, loaded, loaded.approved) : null;
+  const allowSelfApproval = (await getOrganisation(organisationId))?.allowSelfApproval ?? false;
+  const workingCtx = await workflowContext(user, loaded, loaded.current, allowSelfApproval);
+  const approvedCtx = loaded.approved ? await workflowContext(user, loaded, loaded.approved, allowSelfApproval) : null;
   for (const action of ["edit", "submit", "approve", "return", "cancel"] as const) permissions[action] = permission(action, workingCtx);
   for (const action of ["new-revision", "assign-rigger", "record-lift", "print"] as const) {
     permissions[action] = approvedCtx ? permission(action, approvedCtx) : { allowed: false, reason: "The plan has no approved revision yet." };

@@ -428,14 +428,16 @@ export async function pullComponentVersion(organisationId: number, planId: numbe
 /** The component's current version and what differs from the plan's snapshot; null when the component is gone. */
 export async function compareWithComponent(organisationId: number, revision: RevisionView) {
   if (revision.componentId === null) return null;
-  const component = await getComponent(organisationId, revision.componentId);
-  if (!component) return null;
-  const newer = component.version !== revision.componentVersion;
+  // The version alone settles the usual case (nothing newer); the definition is read only to list changes.
+  const latest = await Component.findOne({ where: { organisationId, id: revision.componentId }, attributes: ["id", "version"], raw: true });
+  if (!latest) return null;
+  const newer = latest.version !== revision.componentVersion;
+  const component = newer ? await getComponent(organisationId, revision.componentId) : null;
   return {
-    componentId: component.id,
-    latestVersion: component.version,
+    componentId: latest.id,
+    latestVersion: component?.version ?? latest.version,
     newer,
-    changes: newer ? diffComponentDefinitions(revision.snapshot, toDefinition(component)) : [],
+    changes: component ? diffComponentDefinitions(revision.snapshot, toDefinition(component)) : [],
   };
 }
 

@@ -30,7 +30,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUserWithRole(request, "rigger");
   const found = await getPlan(user.organisationId, Number(params.planId));
   if (!found) throw data({ message: "There is no such plan in your organisation." }, { status: 404 });
-  const workflow = (await getWorkflowView(user.organisationId, found.plan.id, user))!;
+  const workflow = (await getWorkflowView(user.organisationId, found.plan.id, user, found))!;
   const approved = workflow.approved;
   if (!approved || approved.status !== "approved") {
     throw data({ message: "This plan has no approved revision to lift: only an approved, current revision goes to the lift." }, { status: 409 });

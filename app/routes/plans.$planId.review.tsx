@@ -26,7 +26,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUserWithRole(request, "approver");
   const found = await getPlan(user.organisationId, Number(params.planId));
   if (!found) throw data({ message: "There is no such plan in your organisation." }, { status: 404 });
-  const workflow = (await getWorkflowView(user.organisationId, found.plan.id, user))!;
+  const workflow = (await getWorkflowView(user.organisationId, found.plan.id, user, found))!;
   const r = found.revision;
   return {
     plan: { id: found.plan.id, title: found.plan.title },

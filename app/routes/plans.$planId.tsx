@@ -35,6 +35,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUser(request);
   const { plan, revision } = await requirePlan(user.organisationId, params.planId);
   const comparison = await compareWithComponent(user.organisationId, revision);
+  const workflow = await getWorkflowView(user.organisationId, plan.id, user, { plan, revision });
   const site = plan.job?.site;
   return {
     plan: { id: plan.id, title: plan.title },
@@ -43,8 +44,9 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     comparison,
     units: user.units,
     canEdit: hasAnyRole(user, "planner", "admin") && EDITABLE_STATUSES.includes(revision.status),
-    workflow: await getWorkflowView(user.organisationId, plan.id, user),
-    riggers: (await listUsersWithRole(user.organisationId, "rigger")).map((r) => ({ id: r.id, name: r.name })),
+    workflow,
+    // Only the assignment form lists the riggers.
+    riggers: workflow?.permissions["assign-rigger"].allowed ? (await listUsersWithRole(user.organisationId, "rigger")).map((r) => ({ id: r.id, name: r.name })) : [],
   };
 }
 

@@ -1,0 +1,113 @@
+// The production server (`npm start`, `npm run demo`): the React Router build behind Express, one worker
+// process per core (WEB_CONCURRENCY, default the cores Node may use), each serving the same SQLite file
+// (WAL lets readers run beside the one writer; the busy timeout and IMMEDIATE transactions order the
+// writers of different processes). The primary only forks and watches its workers.
+//
+// Against React Router's stock server this keeps two costs off every request: a file-system lookup in
+// the static folders for each page and API path (only files the build holds are looked up), and
+// source-map translation of the stack trace Sequelize captures on every query.
+import cluster from "node:cluster";
+import fs from "node:fs";
+import os from "node:os";
+import path from "node:path";
+import { pathToFileURL } from "node:url";
+import { createRequestHandler } from "@react-router/express";
+import compression from "compression";
+import express, { type RequestHandler } from "express";
+import morgan from "morgan";
+import type { ServerBuild } from "react-router";
+
+const BUILD_PATH = path.resolve(process.argv[2] ?? "build/server/index.js");
+const CLIENT_DIR = path.resolve(path.dirname(BUILD_PATH), "../client");
+const PORT = Number(process.env.PORT ?? 3000);
+const HOST = process.env.HOST || undefined;
+
+/** Headers for files from the build (pages and API answers get theirs, a CSP included, from the root middleware). */
+function setStaticHeaders(res: express.Response) {
+  res.setHeader("X-Content-Type-Options", "nosniff");
+  res.setHeader("Referrer-Policy", "same-origin");
+  res.setHeader("Cross-Origin-Resource-Policy", "same-origin");
+}
+
+/** Every file in `dir`, as URL paths ("/favicon.svg"), listed once at start. */
+function listFiles(dir: string, prefix = ""): string[] {
+  if (!fs.existsSync(dir)) return [];
+  return fs.readdirSync(dir, { withFileTypes: true }).flatMap((entry) => {
+    const urlPath = `${prefix}/${entry.name}`;
+    return entry.isDirectory() ? listFiles(path.join(dir, entry.name), urlPath) : [urlPath];
+  });
+}
+
+/** Serves the build's files other than /assets (icons and the like): a lookup only for paths the build holds. */
+function buildFiles(): RequestHandler {
+  const known = new Set(listFiles(CLIENT_DIR).filter((p) => !p.startsWith("/assets/")));
+  const serve = express.static(CLIENT_DIR, { maxAge: "1h", index: false, setHeaders: setStaticHeaders });
+  return (req, res, next) => (known.has(req.path) ? serve(req, res, next) : next());
+}
+
+async function startWorker() {
+  // Node maps stack traces through source maps only when asked; tsx asks. Sequelize formats a trace on every query.
+  process.setSourceMapsEnabled(false);
+  const build = (await import(pathToFileURL(BUILD_PATH).href)) as ServerBuild;
+  const app = express();
+  app.disable("x-powered-by");
+  app.use(compression());
+  app.use("/assets", express.static(path.join(CLIENT_DIR, "assets"), { immutable: true, maxAge: "1y", index: false, setHeaders: setStaticHeaders }));
+  app.use(buildFiles());
+  app.use(morgan("tiny"));
+  app.all("*", createRequestHandler({ build, mode: process.env.NODE_ENV }));
+  const onListening = () => {
+    if (cluster.isPrimary) console.log(`Plumbline on http://${HOST ?? "localhost"}:${PORT}`);
+    process.send?.({ listening: true });
+  };
+  const server = HOST ? app.listen(PORT, HOST, onListening) : app.listen(PORT, onListening);
+  server.on("error", (error) => {
+    console.error(`Plumbline could not listen on ${HOST ?? "any address"}:${PORT}: ${error.message}`);
+    process.exit(1);
+  });
+  // Finish the requests in hand, then leave; a second signal, or 10 s, ends it at once.
+  const stop = () => {
+    server.close(() => process.exit(0));
+    server.closeIdleConnections();
+    setTimeout(() => process.exit(0), 10_000).unref();
+  };
+  process.once("SIGTERM", stop);
+  process.once("SIGINT", stop);
+}
+
+function startPrimary(workers: number) {
+  let stopping = false;
+  const listeningWorkers = new Set<number>();
+  for (let i = 0; i < workers; i++) cluster.fork();
+  cluster.on("message", (worker, message: { listening?: boolean }) => {
+    if (!message?.listening) return;
+    listeningWorkers.add(worker.id);
+    if (listeningWorkers.size === workers) console.log(`Plumbline on http://${HOST ?? "localhost"}:${PORT} (${workers} workers)`);
+  });
+  const stopAll = () => {
+    stopping = true;
+    for (const worker of Object.values(cluster.workers ?? {})) worker?.process.kill("SIGTERM");
+  };
+  cluster.on("exit", (worker, code, signal) => {
+    const hadListened = listeningWorkers.delete(worker.id);
+    const how = signal ?? `exit code ${code}`;
+    if (!stopping && hadListened) {
+      console.error(`A Plumbline worker stopped (${how}); starting another.`);
+      cluster.fork();
+      return;
+    }
+    if (!stopping) {
+      // It never served: a setting or the database is wrong, and another would fail the same way.
+      console.error(`A Plumbline worker stopped before it could serve (${how}); see its message above. Stopping.`);
+      process.exitCode = 1;
+      stopAll();
+    }
+    if (Object.keys(cluster.workers ?? {}).length === 0) process.exit();
+  });
+  process.once("SIGTERM", stopAll);
+  process.once("SIGINT", stopAll);
+}
+
+const workers = Math.max(1, Math.floor(Number(process.env.WEB_CONCURRENCY ?? os.availableParallelism())) || 1);
+if (cluster.isPrimary && workers > 1) startPrimary(workers);
+else await startWorker();
