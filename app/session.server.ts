@@ -33,8 +33,20 @@ export function getUser(request: Request): Promise<SessionUser | null> {
   return user;
 }
 
+// A page's root loader reads the session twice (user, notice); the signature is checked once per request.
+const sessionsByRequest = new WeakMap<Request, ReturnType<typeof sessionStorage.getSession>>();
+
+function requestSession(request: Request) {
+  let session = sessionsByRequest.get(request);
+  if (!session) {
+    session = sessionStorage.getSession(request.headers.get("Cookie"));
+    sessionsByRequest.set(request, session);
+  }
+  return session;
+}
+
 async function lookUpUser(request: Request): Promise<SessionUser | null> {
-  const session = await sessionStorage.getSession(request.headers.get("Cookie"));
+  const session = await requestSession(request);
   const userId = session.get("userId");
   if (typeof userId !== "number") return null;
   return getActiveSessionUser(userId);
@@ -95,7 +107,7 @@ export async function flashNotice(request: Request, message: string) {
 
 /** Reads (and so clears) the one-time notice. */
 export async function readFlash(request: Request) {
-  const session = await sessionStorage.getSession(request.headers.get("Cookie"));
+  const session = await requestSession(request);
   const message = session.get("flash") ?? null;
   return { message, setCookie: message ? await sessionStorage.commitSession(session) : null };
 }
