@@ -6,7 +6,11 @@ import {
   canUndo,
   editorReducer,
   fitView,
+  handleKey,
   initialEditorState,
+  movableHandles,
+  nextListIndex,
+  nudgeHandle,
   scaleBarLengthM,
   screenToWorld,
   snapToGrid,
@@ -154,5 +158,77 @@ describe("tracing over a drawing", () => {
   it("a distance typed in inches calibrates the same drawing (1 in = 25.4 mm exactly)", () => {
     const perPixel = calibrateImageScale({ x: 0, y: 0 }, { x: 254, y: 0 }, fromDisplayLength(10, "imperial"))!;
     expect(toDisplayLength(perPixel, "metric")).toBeCloseTo(1, 12);
+  });
+});
+
+describe("the keyboard", () => {
+  const fine = { gridM: 0.05, coarse: false, snap: true };
+
+  it("the arrow keys can move every lift point, the CoG and, in a level lift, the hook", () => {
+    expect(movableHandles(edit).map(handleKey)).toEqual(["lift-point:A", "lift-point:B", "lift-point:C", "cog", "hook"]);
+    const lengths: PlanEdit = { ...edit, arrangement: { ...edit.arrangement, mode: "lengths" } };
+    expect(movableHandles(lengths).map(handleKey)).not.toContain("hook");
+  });
+
+  it("→ moves a lift point one grid step along x in either view; ↑ is z in the elevation and y in the plan", () => {
+    const b = { kind: "lift-point", label: "B" } as const;
+    expect(nudgeHandle(edit, b, "elevation", "ArrowRight", fine)).toEqual({ type: "move-lift-point", label: "B", position: { x: 0.25, y: 0, z: 0.9 } });
+    expect(nudgeHandle(edit, b, "elevation", "ArrowUp", fine)).toEqual({ type: "move-lift-point", label: "B", position: { x: 0.2, y: 0, z: 0.95 } });
+    expect(nudgeHandle(edit, b, "plan", "ArrowDown", fine)).toEqual({ type: "move-lift-point", label: "B", position: { x: 0.2, y: -0.05, z: 0.9 } });
+    expect(nudgeHandle(edit, { kind: "cog" }, "plan", "ArrowLeft", { ...fine, coarse: true })).toEqual({ type: "move-cog", cog: { x: -0.5, y: 0, z: 0.4 } });
+  });
+
+  it("with snapping on, a step from off the grid lands on the grid in the direction pressed", () => {
+    const off: PlanEdit = { ...edit, cog: { x: 0.03, y: 0, z: 0.4 } };
+    expect(nudgeHandle(off, { kind: "cog" }, "elevation", "ArrowRight", fine)).toEqual({ type: "move-cog", cog: { x: 0.1, y: 0, z: 0.4 } });
+    expect(nudgeHandle(off, { kind: "cog" }, "elevation", "ArrowLeft", fine)).toEqual({ type: "move-cog", cog: { x: 0, y: 0, z: 0.4 } });
+    expect(nudgeHandle(off, { kind: "cog" }, "elevation", "ArrowLeft", { ...fine, snap: false })).toEqual({ type: "move-cog", cog: { x: -0.02, y: 0, z: 0.4 } });
+  });
+
+  it("the hook goes only up and down, only in the elevation and only in a level lift", () => {
+    const hook = { kind: "hook" } as const;
+    expect(nudgeHandle(edit, hook, "elevation", "ArrowUp", { ...fine, coarse: true })).toEqual({ type: "set-hook-height", hookHeightM: 2.2 });
+    expect(nudgeHandle(edit, hook, "elevation", "ArrowLeft", fine)).toBeNull();
+    expect(nudgeHandle(edit, hook, "plan", "ArrowUp", fine)).toBeNull();
+    expect(nudgeHandle({ ...edit, arrangement: { ...edit.arrangement, mode: "lengths" } }, hook, "elevation", "ArrowUp", fine)).toBeNull();
+  });
+
+  it("other keys and unknown lift points move nothing", () => {
+    expect(nudgeHandle(edit, { kind: "cog" }, "elevation", "Enter", fine)).toBeNull();
+    expect(nudgeHandle(edit, { kind: "lift-point", label: "Z" }, "elevation", "ArrowUp", fine)).toBeNull();
+  });
+
+  it("a nudge is one undo step", () => {
+    let s = initialEditorState(edit);
+    s = editorReducer(s, nudgeHandle(edit, { kind: "lift-point", label: "A" }, "elevation", "ArrowRight", fine)!);
+    expect(s.present.liftPoints[0]!.position.x).toBeCloseTo(-0.75, 12);
+    s = editorReducer(s, { type: "undo" });
+    expect(s.present).toEqual(edit);
+  });
+
+  it("law: ← undoes →, and ↓ undoes ↑, whenever the start is on the grid", () => {
+    fc.assert(
+      fc.property(fc.integer({ min: -200, max: 200 }), fc.integer({ min: -200, max: 200 }), fc.boolean(), (i, k, coarse) => {
+        const start: PlanEdit = { ...edit, cog: { x: i * 0.05, y: 0, z: k * 0.05 } };
+        const options = { ...fine, coarse };
+        const right = nudgeHandle(start, { kind: "cog" }, "elevation", "ArrowRight", options) as { cog: PlanEdit["cog"] };
+        const back = nudgeHandle({ ...start, cog: right.cog }, { kind: "cog" }, "elevation", "ArrowLeft", options) as { cog: PlanEdit["cog"] };
+        expect(back.cog.x).toBeCloseTo(start.cog.x, 9);
+        const upped = nudgeHandle(start, { kind: "cog" }, "elevation", "ArrowUp", options) as { cog: PlanEdit["cog"] };
+        expect(upped.cog.z - start.cog.z).toBeCloseTo(coarse ? 0.5 : 0.05, 9);
+      }),
+    );
+  });
+
+  it("a list is walked with ↓ and ↑ from its search box and back, Home and End within it", () => {
+    expect(nextListIndex("ArrowDown", null, 3)).toBe(0);
+    expect(nextListIndex("ArrowDown", 2, 3)).toBe(2);
+    expect(nextListIndex("ArrowUp", 1, 3)).toBe(0);
+    expect(nextListIndex("ArrowUp", 0, 3)).toBeNull();
+    expect(nextListIndex("End", 0, 3)).toBe(2);
+    expect(nextListIndex("Home", 2, 3)).toBe(0);
+    expect(nextListIndex("Home", null, 3)).toBeUndefined();
+    expect(nextListIndex("ArrowDown", null, 0)).toBeUndefined();
+    expect(nextListIndex("a", 1, 3)).toBeUndefined();
   });
 });

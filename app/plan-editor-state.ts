@@ -211,3 +211,91 @@ export function scaleBarLengthM(maxM: number) {
   const power = 10 ** Math.floor(Math.log10(maxM));
   return [5, 2, 1].map((m) => m * power).find((v) => v <= maxM) ?? power;
 }
+
+// ----- the keyboard -----
+
+/** Something on the drawing that can be moved: a lift point, the CoG or the hook. */
+export type Handle = { kind: "lift-point"; label: string } | { kind: "cog" } | { kind: "hook" };
+
+export type DrawingView = "elevation" | "plan";
+
+/** The component-frame axes across (a, to the right) and up (b) each view. */
+export const VIEW_AXES: Record<DrawingView, readonly [keyof Vec3, keyof Vec3]> = { elevation: ["x", "z"], plan: ["x", "y"] };
+
+/** A handle's stable key, for radio values and comparisons: "lift-point:A", "cog", "hook". */
+export function handleKey(handle: Handle) {
+  return handle.kind === "lift-point" ? `lift-point:${handle.label}` : handle.kind;
+}
+
+export function handleName(handle: Handle) {
+  return handle.kind === "lift-point" ? `Lift point ${handle.label}` : handle.kind === "cog" ? "CoG" : "Hook";
+}
+
+/** What the arrow keys can move: every lift point, the CoG, and the hook when its height is what is given (level mode). */
+export function movableHandles(edit: PlanEdit): Handle[] {
+  const handles: Handle[] = edit.liftPoints.map((p) => ({ kind: "lift-point", label: p.label }));
+  handles.push({ kind: "cog" });
+  if (edit.arrangement.mode === "level") handles.push({ kind: "hook" });
+  return handles;
+}
+
+const ARROWS: Record<string, { axis: 0 | 1; sign: 1 | -1 }> = {
+  ArrowRight: { axis: 0, sign: 1 },
+  ArrowLeft: { axis: 0, sign: -1 },
+  ArrowUp: { axis: 1, sign: 1 },
+  ArrowDown: { axis: 1, sign: -1 },
+};
+
+/** A coordinate stepped by a key: one grid step (ten when coarse), landing on the grid when snapping is on; to the micrometre. */
+function stepped(valueM: number, sign: 1 | -1, options: { gridM: number; coarse: boolean; snap: boolean }) {
+  const moved = valueM + sign * options.gridM * (options.coarse ? 10 : 1);
+  const micrometres = Math.round((options.snap ? snapToGrid(moved, options.gridM) : moved) * 1e6);
+  // Adding 0 turns -0 into 0, so a point stepped back onto zero reads and saves as 0.
+  return micrometres / 1e6 + 0;
+}
+
+/**
+ * The edit an arrow key makes to a handle in a view, as one undo step, or null when that key does
+ * not move it there. ← → move along the view's across axis (x), ↑ ↓ along its up axis (z in the
+ * elevation, y in the plan); the hook only goes up and down, in the elevation.
+ */
+export function nudgeHandle(
+  edit: PlanEdit,
+  handle: Handle,
+  view: DrawingView,
+  key: string,
+  options: { gridM: number; coarse: boolean; snap: boolean },
+): EditorAction | null {
+  const arrow = ARROWS[key];
+  if (!arrow) return null;
+  const axis = VIEW_AXES[view][arrow.axis];
+  if (handle.kind === "hook") {
+    if (view !== "elevation" || arrow.axis !== 1 || edit.arrangement.mode !== "level") return null;
+    return { type: "set-hook-height", hookHeightM: stepped(edit.arrangement.hookHeightM, arrow.sign, options) };
+  }
+  if (handle.kind === "cog") return { type: "move-cog", cog: { ...edit.cog, [axis]: stepped(edit.cog[axis], arrow.sign, options) } };
+  const point = edit.liftPoints.find((p) => p.label === handle.label);
+  if (!point) return null;
+  return { type: "move-lift-point", label: point.label, position: { ...point.position, [axis]: stepped(point.position[axis], arrow.sign, options) } };
+}
+
+/**
+ * Where focus goes in a list for a key: ↓ from the box above it (null) to the first item and on
+ * down, ↑ back up and from the first item to the box, Home and End within the list. Undefined
+ * when the key does not move focus (so the box keeps its own Home and End).
+ */
+export function nextListIndex(key: string, current: number | null, count: number): number | null | undefined {
+  if (count === 0) return undefined;
+  switch (key) {
+    case "ArrowDown":
+      return current === null ? 0 : Math.min(current + 1, count - 1);
+    case "ArrowUp":
+      return current === null || current === 0 ? null : current - 1;
+    case "Home":
+      return current === null ? undefined : 0;
+    case "End":
+      return current === null ? undefined : count - 1;
+    default:
+      return undefined;
+  }
+}

@@ -1,4 +1,5 @@
 import { useEffect, useId, useRef, useState } from "react";
+import { nextListIndex } from "~/plan-editor-state";
 import { GEAR_ROLE_LABELS, type GearPick, type GearRole } from "~/plan-rigging";
 
 function dueNote(pick: GearPick, today = new Date().toISOString().slice(0, 10)) {
@@ -24,7 +25,11 @@ export function fitNotes(pick: GearPick, thread: string | null, loadKg: number |
   return notes;
 }
 
-/** A searchable picker over GET /api/gear for one position of the rigging. */
+/**
+ * A searchable picker over GET /api/gear for one position of the rigging. Keyboard: Enter or Space on the
+ * button opens it with the search box focused; ↓ and ↑ move through the results, Enter picks one, Escape
+ * closes it; focus goes back to the button either way, and tabbing out of it closes it.
+ */
 export function GearPicker({
   role,
   label,
@@ -35,6 +40,7 @@ export function GearPicker({
   onPick,
 }: {
   role: GearRole;
+  /** What the position is, e.g. "Eyebolt for leg A"; read out before the chosen item. */
   label: string;
   selected: GearPick | null;
   thread: string | null;
@@ -46,8 +52,11 @@ export function GearPicker({
   const [query, setQuery] = useState("");
   const [items, setItems] = useState<GearPick[] | null>(null);
   const [error, setError] = useState<string | null>(null);
-  const listId = useId();
+  const popupId = useId();
   const rootRef = useRef<HTMLDivElement>(null);
+  const triggerRef = useRef<HTMLButtonElement>(null);
+  const searchRef = useRef<HTMLInputElement>(null);
+  const resultsRef = useRef<HTMLUListElement>(null);
 
   useEffect(() => {
     if (!open) return;
@@ -81,18 +90,54 @@ export function GearPicker({
     return () => document.removeEventListener("mousedown", close);
   }, [open]);
 
+  function closeAndReturnFocus() {
+    setOpen(false);
+    triggerRef.current?.focus();
+  }
+
+  function choose(pick: GearPick | null) {
+    onPick(pick);
+    closeAndReturnFocus();
+  }
+
+  // Arrow keys walk from the search box through the result buttons and back up to the search box.
+  function onPopupKeyDown(e: React.KeyboardEvent) {
+    if (e.key === "Escape") {
+      e.preventDefault();
+      closeAndReturnFocus();
+      return;
+    }
+    const buttons = [...(resultsRef.current?.querySelectorAll<HTMLButtonElement>("button") ?? [])];
+    const current = buttons.indexOf(document.activeElement as HTMLButtonElement);
+    const next = nextListIndex(e.key, current === -1 ? null : current, buttons.length);
+    if (next === undefined) return;
+    e.preventDefault();
+    if (next === null) searchRef.current?.focus();
+    else buttons[next]?.focus();
+  }
+
   const selectedNotes = selected ? fitNotes(selected, thread, loadKg).filter((n) => n.bad) : [];
+  const plural = `${GEAR_ROLE_LABELS[role].toLowerCase()}s`;
 
   return (
-    <div ref={rootRef} className="relative">
+    <div
+      ref={rootRef}
+      className="relative"
+      onBlur={(e) => {
+        // Tabbing out closes the picker; a click on its own background moves focus nowhere and keeps it open.
+        if (open && e.relatedTarget && !rootRef.current?.contains(e.relatedTarget as Node)) setOpen(false);
+      }}
+    >
       <button
+        ref={triggerRef}
         type="button"
         className="w-full rounded border border-rule bg-white px-2 py-1 text-left text-sm disabled:opacity-60"
-        aria-label={`Choose the ${label}`}
         aria-expanded={open}
+        aria-controls={open ? popupId : undefined}
         disabled={disabled}
         onClick={() => setOpen((o) => !o)}
       >
+        <span className="sr-only">{label}: </span>
         {selected ? (
           <>
             <span className="font-semibold">{selected.itemCode}</span> <span className="text-ink-soft">{Math.round(selected.wllKg).toLocaleString("en-GB")} kg</span>
@@ -107,25 +152,27 @@ export function GearPicker({
         </span>
       ))}
       {open && (
-        <div className="absolute z-20 mt-1 w-80 rounded border border-rule bg-white p-2 shadow-lg">
-          <label className="block text-xs text-ink-soft" htmlFor={`${listId}-q`}>
-            Search {GEAR_ROLE_LABELS[role].toLowerCase()}s by id, description or thread
+        // In the page's flow rather than floating: the gear table scrolls sideways on narrow screens, and its scrolling box would clip a floating panel.
+        <div id={popupId} className="mt-1 w-80 rounded border border-rule bg-white p-2" onKeyDown={onPopupKeyDown}>
+          <label className="block text-xs text-ink-soft" htmlFor={`${popupId}-q`}>
+            Search {plural} by id, description or thread
           </label>
           <input
-            id={`${listId}-q`}
+            ref={searchRef}
+            id={`${popupId}-q`}
             autoFocus
             className="mt-1 w-full rounded border border-rule px-2 py-1 text-sm"
             value={query}
             onChange={(e) => setQuery(e.target.value)}
-            onKeyDown={(e) => {
-              if (e.key === "Escape") setOpen(false);
-            }}
           />
           {error && <p className="mt-1 text-xs text-fail">{error}</p>}
-          <ul className="mt-2 max-h-64 overflow-y-auto text-sm" role="listbox" aria-label={`${GEAR_ROLE_LABELS[role]}s in the register`}>
+          <p className="sr-only" role="status">
+            {items === null ? "Searching the register…" : `${items.length} ${items.length === 1 ? "item" : "items"} found; arrow down to the list.`}
+          </p>
+          <ul ref={resultsRef} className="mt-2 max-h-64 overflow-y-auto text-sm" aria-label={`${GEAR_ROLE_LABELS[role]}s in the register`}>
             {selected && (
               <li>
-                <button type="button" className="w-full px-1 py-1 text-left text-fail hover:bg-paper" onClick={() => (onPick(null), setOpen(false))}>
+                <button type="button" className="w-full px-1 py-1 text-left text-fail hover:bg-paper focus-visible:-outline-offset-2" onClick={() => choose(null)}>
                   Remove {selected.itemCode} from this position
                 </button>
               </li>
@@ -134,10 +181,17 @@ export function GearPicker({
             {items?.map((pick) => {
               const notes = fitNotes(pick, thread, loadKg);
               const fits = notes.every((n) => !n.bad);
+              const chosen = selected?.id === pick.id;
               return (
-                <li key={pick.id} role="option" aria-selected={selected?.id === pick.id}>
-                  <button type="button" className="w-full rounded px-1 py-1 text-left hover:bg-paper" onClick={() => (onPick(pick), setOpen(false))}>
+                <li key={pick.id}>
+                  <button
+                    type="button"
+                    className={`w-full rounded px-1 py-1 text-left hover:bg-paper focus-visible:-outline-offset-2 ${chosen ? "bg-steel-soft" : ""}`}
+                    aria-current={chosen ? "true" : undefined}
+                    onClick={() => choose(pick)}
+                  >
                     <span className="font-semibold">{pick.itemCode}</span> {pick.description} · {Math.round(pick.wllKg).toLocaleString("en-GB")} kg
+                    {chosen && <span className="ml-1 text-xs font-semibold">(chosen)</span>}
                     <span className={`block text-xs ${fits ? "text-pass" : "text-fail"}`}>
                       {fits ? "✓ fits" : "✗"} {notes.map((n) => n.text).join(" · ")}
                     </span>

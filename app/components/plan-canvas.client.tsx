@@ -1,24 +1,31 @@
 // The plan editor's drawing, in Konva: one view (elevation x-z or plan x-y) of the load with its
 // outline, CoG, lift points, legs and hook, to scale with a grid and scale bar. Browser only:
-// loaded with lazy() after hydration, never rendered on the server.
+// loaded with lazy() after hydration, never rendered on the server. The drawing is one tab stop:
+// with focus, the arrow keys move the selected handle, + and - zoom, 0 fits the view, G snaps.
 import type Konva from "konva";
 import { useEffect, useMemo, useRef, useState } from "react";
 import { Circle, Group, Image as KonvaImage, Layer, Line, Rect, Stage, Text } from "react-konva";
 import {
   fitView,
+  handleKey,
+  handleName,
+  nudgeHandle,
   scaleBarLengthM,
   screenToWorld,
   snapViewPoint,
+  VIEW_AXES,
   worldToScreen,
   zoomAbout,
+  type DrawingView,
   type EditorAction,
+  type Handle,
   type PlanEdit,
   type Vec3,
   type ViewTransform,
 } from "~/plan-editor-state";
 import { formatLength, type Units } from "~/units-format";
 
-export type ViewKind = "elevation" | "plan";
+export type ViewKind = DrawingView;
 
 export type LegFigure = { label: string; text: string; tone: "pass" | "warn" | "fail" | "none"; slack: boolean };
 
@@ -42,6 +49,13 @@ export type PlanCanvasProps = {
   beamZM?: number | null;
   /** When set, clicks report world points (for setting a drawing's scale) instead of editing. */
   onPick?: ((point: { a: number; b: number; x: number; y: number }) => void) | null;
+  /** The handle the arrow keys move (shared by both views); pressing on a handle selects it. */
+  selected: Handle | null;
+  onSelect: (handle: Handle) => void;
+  onToggleSnap: () => void;
+  /** The drawing's name for assistive technology, and the id of the text that tells how to work it. */
+  label: string;
+  describedBy?: string;
 };
 
 const COLOURS = {
@@ -55,24 +69,38 @@ const COLOURS = {
   warn: "#9a5b00",
   fail: "#a8261d",
   none: "#3d4a57",
+  /** The selection ring: the brass of the page's focus outline. */
+  focus: "#9a6a14",
 };
 
-const axes: Record<ViewKind, [keyof Vec3, keyof Vec3]> = { elevation: ["x", "z"], plan: ["x", "y"] };
-
 function project(p: Vec3, view: ViewKind) {
-  const [a, b] = axes[view];
+  const [a, b] = VIEW_AXES[view];
   return { a: p[a], b: p[b] };
 }
 
 function unproject(base: Vec3, view: ViewKind, a: number, b: number): Vec3 {
-  const [ka, kb] = axes[view];
+  const [ka, kb] = VIEW_AXES[view];
   return { ...base, [ka]: a, [kb]: b };
+}
+
+/** The selected handle's place in this view, in words, for the drawing's live region. */
+function describeHandle(handle: Handle, edit: PlanEdit, hook: Vec3 | null, view: ViewKind, units: Units) {
+  const [ka, kb] = VIEW_AXES[view];
+  const at = (p: Vec3) => `${ka} ${formatLength(p[ka], units)}, ${kb} ${formatLength(p[kb], units)}`;
+  if (handle.kind === "hook") {
+    if (!hook) return "Hook: not placed";
+    return view === "elevation" ? `Hook: z ${formatLength(hook.z, units)}` : "Hook: moves up and down in the elevation";
+  }
+  if (handle.kind === "cog") return `CoG: ${at(edit.cog)}`;
+  const point = edit.liftPoints.find((p) => p.label === handle.label);
+  return point ? `${handleName(handle)}: ${at(point.position)}` : handleName(handle);
 }
 
 /** One view of the plan, drawn to scale; lift points, CoG and (in elevation, level mode) the hook can be dragged. */
 export default function PlanCanvas(props: PlanCanvasProps) {
-  const { view, width, height, edit, outline, hook, legs, units, gridM, snap, dispatch, backdrop, onPick, beamZM = null } = props;
+  const { view, width, height, edit, outline, hook, legs, units, gridM, snap, dispatch, backdrop, onPick, beamZM = null, selected, onSelect } = props;
   const stageRef = useRef<Konva.Stage>(null);
+  const [focused, setFocused] = useState(false);
 
   const box = useMemo(() => {
     const pts = [...outline.map(([a, b]) => ({ a, b })), ...edit.liftPoints.map((p) => project(p.position, view)), project(edit.cog, view)];
@@ -132,195 +160,252 @@ export default function PlanCanvas(props: PlanCanvasProps) {
   const hookScreen = hook ? S(project(hook, view).a, project(hook, view).b) : null;
   const level = edit.arrangement.mode === "level";
 
+  function handleScreen(handle: Handle) {
+    if (handle.kind === "hook") return hookScreen;
+    const point = handle.kind === "cog" ? edit.cog : edit.liftPoints.find((p) => p.label === handle.label)?.position;
+    if (!point) return null;
+    const at = project(point, view);
+    return S(at.a, at.b);
+  }
+
+  function onKeyDown(e: React.KeyboardEvent) {
+    if (e.ctrlKey || e.metaKey || e.altKey) return;
+    if (e.key.startsWith("Arrow")) {
+      // Arrows always belong to the drawing while it has focus, so the page does not scroll under a move.
+      e.preventDefault();
+      const action = selected ? nudgeHandle(edit, selected, view, e.key, { gridM, coarse: e.shiftKey, snap }) : null;
+      if (action) dispatch(action);
+    } else if (e.key === "+" || e.key === "=" || e.key === "-") {
+      // Zoom about the selected handle, so the keyboard can look closely at what it is moving without panning.
+      e.preventDefault();
+      const about = (selected && handleScreen(selected)) ?? { x: width / 2, y: height / 2 };
+      setTransform((t) => zoomAbout(t, e.key === "-" ? 1 / 1.25 : 1.25, about.x, about.y));
+    } else if (e.key === "0") {
+      e.preventDefault();
+      setTransform(fitView(box, width, height));
+    } else if (e.key.toLowerCase() === "g") {
+      e.preventDefault();
+      props.onToggleSnap();
+    }
+  }
+
+  /** The ring round the selected handle: dashed, and solid and heavier while the drawing has keyboard focus. */
+  const ringFor = (handle: Handle, radius: number) =>
+    selected && handleKey(selected) === handleKey(handle) ? (
+      <Circle radius={radius} stroke={COLOURS.focus} strokeWidth={focused ? 3 : 2} dash={focused ? undefined : [4, 3]} listening={false} />
+    ) : null;
+
   return (
-    <Stage
-      ref={stageRef}
-      name={`view-${view}`}
-      width={width}
-      height={height}
-      onWheel={onWheel}
-      onMouseDown={(e) => {
-        if (e.target !== e.target.getStage()) return;
-        const p = stageRef.current?.getPointerPosition();
-        if (!p) return;
-        if (onPick) {
-          const w = screenToWorld(transform, p.x, p.y);
-          onPick({ ...w, x: p.x, y: p.y });
-          return;
-        }
-        panStart.current = { x: p.x, y: p.y, originX: transform.originX, originY: transform.originY };
-      }}
-      onMouseMove={() => {
-        const start = panStart.current;
-        const p = stageRef.current?.getPointerPosition();
-        if (!start || !p) return;
-        setTransform((t) => ({ ...t, originX: start.originX + p.x - start.x, originY: start.originY + p.y - start.y }));
-      }}
-      onMouseUp={() => (panStart.current = null)}
-      onMouseLeave={() => (panStart.current = null)}
-      style={{ cursor: onPick ? "crosshair" : "grab" }}
+    <div
+      tabIndex={0}
+      role="application"
+      aria-label={props.label}
+      aria-describedby={props.describedBy}
+      className="group relative focus-visible:outline-none"
+      onKeyDown={onKeyDown}
+      onFocus={() => setFocused(true)}
+      onBlur={() => setFocused(false)}
     >
-      <Layer listening={false}>
-        <Rect x={0} y={0} width={width} height={height} fill="#ffffff" />
-        {backdrop && (
-          <KonvaImage
-            image={backdrop.image}
-            x={S(backdrop.originA, backdrop.originB).x}
-            y={S(backdrop.originA, backdrop.originB).y}
-            scaleX={backdrop.metresPerPixel * transform.scalePxPerM}
-            scaleY={backdrop.metresPerPixel * transform.scalePxPerM}
-            opacity={backdrop.opacity}
-          />
-        )}
-        {gridLines.map((g, i) => (
-          <Line key={i} points={g.points} stroke={g.major ? COLOURS.gridMajor : COLOURS.grid} strokeWidth={1} />
-        ))}
-        <Line
-          points={outline.flatMap(([a, b]) => {
-            const s = S(a, b);
-            return [s.x, s.y];
-          })}
-          closed
-          fill={COLOURS.fill}
-          opacity={backdrop ? 0.6 : 1}
-          stroke={COLOURS.outline}
-          strokeWidth={2}
-        />
-        {hookScreen && beamZM === null &&
-          edit.liftPoints
-            .filter((p) => usedLabels.has(p.label))
-            .map((p) => {
-              const s = S(project(p.position, view).a, project(p.position, view).b);
-              const figure = legs.find((l) => l.label === p.label);
-              const colour = COLOURS[figure?.tone ?? "none"];
-              return (
-                <Line
-                  key={`leg-${p.label}`}
-                  points={[hookScreen.x, hookScreen.y, s.x, s.y]}
-                  stroke={colour}
-                  strokeWidth={figure?.tone === "fail" ? 4 : 3}
-                  dash={figure?.slack ? [8, 6] : undefined}
-                />
-              );
+      <Stage
+        ref={stageRef}
+        name={`view-${view}`}
+        width={width}
+        height={height}
+        onWheel={onWheel}
+        onMouseDown={(e) => {
+          if (e.target !== e.target.getStage()) return;
+          const p = stageRef.current?.getPointerPosition();
+          if (!p) return;
+          if (onPick) {
+            const w = screenToWorld(transform, p.x, p.y);
+            onPick({ ...w, x: p.x, y: p.y });
+            return;
+          }
+          panStart.current = { x: p.x, y: p.y, originX: transform.originX, originY: transform.originY };
+        }}
+        onMouseMove={() => {
+          const start = panStart.current;
+          const p = stageRef.current?.getPointerPosition();
+          if (!start || !p) return;
+          setTransform((t) => ({ ...t, originX: start.originX + p.x - start.x, originY: start.originY + p.y - start.y }));
+        }}
+        onMouseUp={() => (panStart.current = null)}
+        onMouseLeave={() => (panStart.current = null)}
+        style={{ cursor: onPick ? "crosshair" : "grab" }}
+      >
+        <Layer listening={false}>
+          <Rect x={0} y={0} width={width} height={height} fill="#ffffff" />
+          {backdrop && (
+            <KonvaImage
+              image={backdrop.image}
+              x={S(backdrop.originA, backdrop.originB).x}
+              y={S(backdrop.originA, backdrop.originB).y}
+              scaleX={backdrop.metresPerPixel * transform.scalePxPerM}
+              scaleY={backdrop.metresPerPixel * transform.scalePxPerM}
+              opacity={backdrop.opacity}
+            />
+          )}
+          {gridLines.map((g, i) => (
+            <Line key={i} points={g.points} stroke={g.major ? COLOURS.gridMajor : COLOURS.grid} strokeWidth={1} />
+          ))}
+          <Line
+            points={outline.flatMap(([a, b]) => {
+              const s = S(a, b);
+              return [s.x, s.y];
             })}
-        {hookScreen && beamZM !== null && (() => {
-          const used = edit.liftPoints.filter((p) => usedLabels.has(p.label));
-          const lug = project({ x: edit.cog.x, y: edit.cog.y, z: beamZM }, view);
-          const lugScreen = S(lug.a, lug.b);
-          const ends = used.map((p) => project({ ...p.position, z: beamZM }, view));
-          const as = ends.map((e) => e.a);
-          const beamStart = view === "elevation" ? S(Math.min(...as, lug.a), lug.b) : S(ends[0]?.a ?? lug.a, ends[0]?.b ?? lug.b);
-          const beamEnd = view === "elevation" ? S(Math.max(...as, lug.a), lug.b) : S(ends.at(-1)?.a ?? lug.a, ends.at(-1)?.b ?? lug.b);
-          return (
-            <Group>
-              {used.map((p) => {
-                const figure = legs.find((l) => l.label === p.label);
-                const bottom = S(project(p.position, view).a, project(p.position, view).b);
-                const top = S(project({ ...p.position, z: beamZM }, view).a, project({ ...p.position, z: beamZM }, view).b);
-                return <Line key={`drop-${p.label}`} points={[top.x, top.y, bottom.x, bottom.y]} stroke={COLOURS[figure?.tone ?? "none"]} strokeWidth={3} />;
-              })}
-              <Line points={[beamStart.x, beamStart.y, beamEnd.x, beamEnd.y]} stroke={COLOURS.ink} strokeWidth={8} lineCap="round" />
-              <Line points={[hookScreen.x, hookScreen.y, lugScreen.x, lugScreen.y]} stroke={COLOURS.ink} strokeWidth={3} />
-            </Group>
-          );
-        })()}
-        {legs.length > 0 && (
-          <Group x={8} y={8}>
-            <Rect width={Math.min(width - 16, 250)} height={legs.length * 17 + 8} fill="#ffffff" opacity={0.85} cornerRadius={3} />
-            {legs.map((leg, i) => (
-              <Text
-                key={leg.label}
-                x={6}
-                y={5 + i * 17}
-                text={`${leg.text}${leg.slack ? " (slack)" : ""}`}
-                fontSize={12}
-                fontStyle="bold"
-                fontFamily="Barlow, sans-serif"
-                fill={COLOURS[leg.tone]}
-              />
-            ))}
-          </Group>
-        )}
-        <Group>
-          <Line points={[16, height - 16, 16 + bar * transform.scalePxPerM, height - 16]} stroke={COLOURS.ink} strokeWidth={3} />
-          <Text x={16} y={height - 34} text={formatLength(bar, units)} fontSize={12} fontFamily="Barlow, sans-serif" fill={COLOURS.ink} />
-          <Text
-            x={width - 120}
-            y={height - 22}
-            width={110}
-            align="right"
-            text={view === "elevation" ? "x →   z ↑" : "x →   y ↑"}
-            fontSize={12}
-            fontFamily="Barlow, sans-serif"
-            fill={COLOURS.none}
+            closed
+            fill={COLOURS.fill}
+            opacity={backdrop ? 0.6 : 1}
+            stroke={COLOURS.outline}
+            strokeWidth={2}
           />
-        </Group>
-      </Layer>
-      <Layer>
-        {edit.liftPoints.map((p) => {
-          const at = project(p.position, view);
-          const s = S(at.a, at.b);
-          const used = usedLabels.has(p.label);
-          return (
-            <Group
-              key={p.label}
-              name={`lift-point-${p.label}`}
-              x={s.x}
-              y={s.y}
-              draggable={!onPick}
-              onDragStart={() => dispatch({ type: "checkpoint" })}
-              onDragMove={(e) => {
-                const w = dragToWorld(e.target, at);
-                dispatch({ type: "move-lift-point", label: p.label, position: unproject(p.position, view, w.a, w.b), transient: true });
-              }}
-              onDblClick={() => dispatch({ type: "toggle-lift-point", label: p.label })}
-            >
-              <Circle radius={7} fill={used ? COLOURS.point : "#ffffff"} stroke={COLOURS.point} strokeWidth={2} />
-              <Text x={9} y={-20} text={p.label} fontSize={14} fontStyle="bold" fontFamily="Barlow, sans-serif" fill={COLOURS.ink} />
+          {hookScreen && beamZM === null &&
+            edit.liftPoints
+              .filter((p) => usedLabels.has(p.label))
+              .map((p) => {
+                const s = S(project(p.position, view).a, project(p.position, view).b);
+                const figure = legs.find((l) => l.label === p.label);
+                const colour = COLOURS[figure?.tone ?? "none"];
+                return (
+                  <Line
+                    key={`leg-${p.label}`}
+                    points={[hookScreen.x, hookScreen.y, s.x, s.y]}
+                    stroke={colour}
+                    strokeWidth={figure?.tone === "fail" ? 4 : 3}
+                    dash={figure?.slack ? [8, 6] : undefined}
+                  />
+                );
+              })}
+          {hookScreen && beamZM !== null && (() => {
+            const used = edit.liftPoints.filter((p) => usedLabels.has(p.label));
+            const lug = project({ x: edit.cog.x, y: edit.cog.y, z: beamZM }, view);
+            const lugScreen = S(lug.a, lug.b);
+            const ends = used.map((p) => project({ ...p.position, z: beamZM }, view));
+            const as = ends.map((e) => e.a);
+            const beamStart = view === "elevation" ? S(Math.min(...as, lug.a), lug.b) : S(ends[0]?.a ?? lug.a, ends[0]?.b ?? lug.b);
+            const beamEnd = view === "elevation" ? S(Math.max(...as, lug.a), lug.b) : S(ends.at(-1)?.a ?? lug.a, ends.at(-1)?.b ?? lug.b);
+            return (
+              <Group>
+                {used.map((p) => {
+                  const figure = legs.find((l) => l.label === p.label);
+                  const bottom = S(project(p.position, view).a, project(p.position, view).b);
+                  const top = S(project({ ...p.position, z: beamZM }, view).a, project({ ...p.position, z: beamZM }, view).b);
+                  return <Line key={`drop-${p.label}`} points={[top.x, top.y, bottom.x, bottom.y]} stroke={COLOURS[figure?.tone ?? "none"]} strokeWidth={3} />;
+                })}
+                <Line points={[beamStart.x, beamStart.y, beamEnd.x, beamEnd.y]} stroke={COLOURS.ink} strokeWidth={8} lineCap="round" />
+                <Line points={[hookScreen.x, hookScreen.y, lugScreen.x, lugScreen.y]} stroke={COLOURS.ink} strokeWidth={3} />
+              </Group>
+            );
+          })()}
+          {legs.length > 0 && (
+            <Group x={8} y={8}>
+              <Rect width={Math.min(width - 16, 250)} height={legs.length * 17 + 8} fill="#ffffff" opacity={0.85} cornerRadius={3} />
+              {legs.map((leg, i) => (
+                <Text
+                  key={leg.label}
+                  x={6}
+                  y={5 + i * 17}
+                  text={`${leg.text}${leg.slack ? " (slack)" : ""}`}
+                  fontSize={12}
+                  fontStyle="bold"
+                  fontFamily="Barlow, sans-serif"
+                  fill={COLOURS[leg.tone]}
+                />
+              ))}
             </Group>
-          );
-        })}
-        {(() => {
-          const at = project(edit.cog, view);
-          const s = S(at.a, at.b);
-          return (
-            <Group
-              x={s.x}
-              y={s.y}
-              draggable={!onPick}
-              onDragStart={() => dispatch({ type: "checkpoint" })}
-              onDragMove={(e) => {
-                const w = dragToWorld(e.target);
-                dispatch({ type: "move-cog", cog: unproject(edit.cog, view, w.a, w.b), transient: true });
-              }}
-            >
-              <Circle radius={9} fill="#ffffff" stroke={COLOURS.ink} strokeWidth={2} />
-              <Line points={[0, -9, 0, 9]} stroke={COLOURS.ink} strokeWidth={1} />
-              <Line points={[-9, 0, 9, 0]} stroke={COLOURS.ink} strokeWidth={1} />
-              <Text x={11} y={4} text="CoG" fontSize={12} fontFamily="Barlow, sans-serif" fill={COLOURS.ink} />
-            </Group>
-          );
-        })()}
-        {hookScreen && (
-          <Group
-            x={hookScreen.x}
-            y={hookScreen.y}
-            draggable={view === "elevation" && level && !onPick}
-            dragBoundFunc={(pos) => ({ x: hookScreen.x, y: Math.min(pos.y, height - 4) })}
-            onDragStart={() => dispatch({ type: "checkpoint" })}
-            onDragMove={(e) => {
-              const w = screenToWorld(transform, e.target.x(), e.target.y());
-              const z = snap ? Math.round(w.b / gridM) * gridM : w.b;
-              e.target.y(S(0, z).y);
-              dispatch({ type: "set-hook-height", hookHeightM: z, transient: true });
-            }}
-          >
-            <Rect x={-10} y={-14} width={20} height={12} fill={COLOURS.ink} cornerRadius={2} />
-            <Circle radius={5} stroke={COLOURS.ink} strokeWidth={2} />
-            <Text x={12} y={-16} text="Hook" fontSize={12} fontFamily="Barlow, sans-serif" fill={COLOURS.ink} />
+          )}
+          <Group>
+            <Line points={[16, height - 16, 16 + bar * transform.scalePxPerM, height - 16]} stroke={COLOURS.ink} strokeWidth={3} />
+            <Text x={16} y={height - 34} text={formatLength(bar, units)} fontSize={12} fontFamily="Barlow, sans-serif" fill={COLOURS.ink} />
+            <Text
+              x={width - 120}
+              y={height - 22}
+              width={110}
+              align="right"
+              text={view === "elevation" ? "x →   z ↑" : "x →   y ↑"}
+              fontSize={12}
+              fontFamily="Barlow, sans-serif"
+              fill={COLOURS.none}
+            />
           </Group>
-        )}
-      </Layer>
-    </Stage>
+        </Layer>
+        <Layer>
+          {edit.liftPoints.map((p) => {
+            const at = project(p.position, view);
+            const s = S(at.a, at.b);
+            const used = usedLabels.has(p.label);
+            return (
+              <Group
+                key={p.label}
+                name={`lift-point-${p.label}`}
+                x={s.x}
+                y={s.y}
+                draggable={!onPick}
+                onPointerDown={() => onSelect({ kind: "lift-point", label: p.label })}
+                onDragStart={() => dispatch({ type: "checkpoint" })}
+                onDragMove={(e) => {
+                  const w = dragToWorld(e.target, at);
+                  dispatch({ type: "move-lift-point", label: p.label, position: unproject(p.position, view, w.a, w.b), transient: true });
+                }}
+                onDblClick={() => dispatch({ type: "toggle-lift-point", label: p.label })}
+              >
+                {ringFor({ kind: "lift-point", label: p.label }, 13)}
+                <Circle radius={7} fill={used ? COLOURS.point : "#ffffff"} stroke={COLOURS.point} strokeWidth={2} />
+                <Text x={9} y={-20} text={p.label} fontSize={14} fontStyle="bold" fontFamily="Barlow, sans-serif" fill={COLOURS.ink} />
+              </Group>
+            );
+          })}
+          {(() => {
+            const at = project(edit.cog, view);
+            const s = S(at.a, at.b);
+            return (
+              <Group
+                x={s.x}
+                y={s.y}
+                draggable={!onPick}
+                onPointerDown={() => onSelect({ kind: "cog" })}
+                onDragStart={() => dispatch({ type: "checkpoint" })}
+                onDragMove={(e) => {
+                  const w = dragToWorld(e.target);
+                  dispatch({ type: "move-cog", cog: unproject(edit.cog, view, w.a, w.b), transient: true });
+                }}
+              >
+                {ringFor({ kind: "cog" }, 15)}
+                <Circle radius={9} fill="#ffffff" stroke={COLOURS.ink} strokeWidth={2} />
+                <Line points={[0, -9, 0, 9]} stroke={COLOURS.ink} strokeWidth={1} />
+                <Line points={[-9, 0, 9, 0]} stroke={COLOURS.ink} strokeWidth={1} />
+                <Text x={11} y={4} text="CoG" fontSize={12} fontFamily="Barlow, sans-serif" fill={COLOURS.ink} />
+              </Group>
+            );
+          })()}
+          {hookScreen && (
+            <Group
+              x={hookScreen.x}
+              y={hookScreen.y}
+              draggable={view === "elevation" && level && !onPick}
+              dragBoundFunc={(pos) => ({ x: hookScreen.x, y: Math.min(pos.y, height - 4) })}
+              onPointerDown={() => level && onSelect({ kind: "hook" })}
+              onDragStart={() => dispatch({ type: "checkpoint" })}
+              onDragMove={(e) => {
+                const w = screenToWorld(transform, e.target.x(), e.target.y());
+                const z = snap ? Math.round(w.b / gridM) * gridM : w.b;
+                e.target.y(S(0, z).y);
+                dispatch({ type: "set-hook-height", hookHeightM: z, transient: true });
+              }}
+            >
+              {ringFor({ kind: "hook" }, 17)}
+              <Rect x={-10} y={-14} width={20} height={12} fill={COLOURS.ink} cornerRadius={2} />
+              <Circle radius={5} stroke={COLOURS.ink} strokeWidth={2} />
+              <Text x={12} y={-16} text="Hook" fontSize={12} fontFamily="Barlow, sans-serif" fill={COLOURS.ink} />
+            </Group>
+          )}
+        </Layer>
+      </Stage>
+      {/* The focus ring sits on a layer over the canvas: Konva's positioned container would paint over an outline of the drawing itself. */}
+      <div data-focus-ring aria-hidden="true" className="pointer-events-none absolute inset-0 group-focus-visible:outline-3 group-focus-visible:-outline-offset-3 group-focus-visible:outline-brass" />
+      <p className="sr-only" aria-live="polite">
+        {focused && selected ? describeHandle(selected, edit, hook, view, units) : ""}
+      </p>
+    </div>
   );
 }

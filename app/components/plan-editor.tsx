@@ -1,7 +1,7 @@
 // The plan editor: two linked views of the load drawn to scale (Konva, browser only), a
 // properties panel for exact values, live results from /api/solve, gear allocation, the
 // hook-height chart and autosave through PUT /api/plans/:planId.
-import { lazy, Suspense, useCallback, useEffect, useMemo, useReducer, useRef, useState } from "react";
+import { lazy, Suspense, useCallback, useEffect, useId, useMemo, useReducer, useRef, useState } from "react";
 import type { ComponentDefinition } from "~/component-definition";
 import type { Backdrop, LegFigure } from "~/components/plan-canvas.client";
 import { Button } from "~/components/ui/form";
@@ -9,8 +9,21 @@ import { HookHeightChart } from "~/components/hook-height-chart";
 import { GearPicker } from "~/components/gear-picker";
 import { LiveResults, worstStatusForLeg, type ResultState } from "~/components/live-results";
 import { HITCH_LABELS, HITCHES, type PlanDetails, type PlanResults, type RiggingAllocation, type Arrangement } from "~/plan-document";
-import { canRedo, canUndo, editorReducer, gridStepM, initialEditorState, type EditorAction, type PlanEdit, calibrateImageScale } from "~/plan-editor-state";
-import { assembleRigging, type GearPick, type GearRole } from "~/plan-rigging";
+import {
+  calibrateImageScale,
+  canRedo,
+  canUndo,
+  editorReducer,
+  gridStepM,
+  handleKey,
+  handleName,
+  initialEditorState,
+  movableHandles,
+  type EditorAction,
+  type Handle,
+  type PlanEdit,
+} from "~/plan-editor-state";
+import { assembleRigging, GEAR_ROLE_LABELS, type GearPick, type GearRole } from "~/plan-rigging";
 import { solveLevel } from "~/statics/bridle";
 import { formatLength, fromDisplayLength, inputNumber, lengthUnitLabel, toDisplayLength, type Units } from "~/units-format";
 
@@ -94,12 +107,16 @@ function useLiveSolve(body: unknown | null): ResultState {
   return state;
 }
 
-/** Saves the plan a moment after the last change; a stale version stops saving and says so. */
+/**
+ * Saves the plan a moment after the last change; a stale version stops saving and says so. Also
+ * returns `saveNow`, which sends a waiting change at once (the Save now button, Ctrl+S).
+ */
 function useAutosave(planId: number, initialVersion: number, doc: unknown, enabled: boolean, onSaved: (results: PlanResults | null) => void) {
   const [save, setSave] = useState<SaveState>({ kind: "saved", version: initialVersion, at: null });
   const versionRef = useRef(initialVersion);
   const first = useRef(true);
   const blocked = useRef(false);
+  const flush = useRef<(() => void) | null>(null);
   const key = JSON.stringify(doc);
   useEffect(() => {
     if (first.current) {
@@ -108,7 +125,8 @@ function useAutosave(planId: number, initialVersion: number, doc: unknown, enabl
     }
     if (!enabled || blocked.current) return;
     setSave({ kind: "pending", version: versionRef.current });
-    const timer = setTimeout(async () => {
+    const send = async () => {
+      flush.current = null;
       setSave({ kind: "saving", version: versionRef.current });
       try {
         const res = await fetch(`/api/plans/${planId}`, {
@@ -130,12 +148,21 @@ function useAutosave(planId: number, initialVersion: number, doc: unknown, enabl
       } catch {
         setSave({ kind: "error", version: versionRef.current, message: "The plan could not be saved: the server did not answer. It will try again on your next change." });
       }
-    }, 900);
-    return () => clearTimeout(timer);
+    };
+    const timer = setTimeout(send, 900);
+    flush.current = () => {
+      clearTimeout(timer);
+      void send();
+    };
+    return () => {
+      clearTimeout(timer);
+      flush.current = null;
+    };
     // onSaved is stable enough; saving follows the document only.
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [key, enabled, planId]);
-  return save;
+  const saveNow = useCallback(() => flush.current?.(), []);
+  return [save, saveNow] as const;
 }
 
 function useElementWidth<T extends HTMLElement>() {
@@ -194,6 +221,8 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
   const [state, dispatch] = useReducer(editorReducer, plan, (p) => initialEditorState(toEdit(p)));
   const edit = state.present;
   const [snap, setSnap] = useState(true);
+  const [selectedKey, setSelectedKey] = useState<string | null>(null);
+  const helpId = useId();
   const [picks, setPicks] = useState(() => new Map(initialPicks.map((p) => [p.id, p])));
   const [savedResults, setSavedResults] = useState<PlanResults | null>(plan.results);
   const [backdrop, setBackdrop] = useState<Backdrop | null>(null);
@@ -218,7 +247,7 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
     }),
     [edit, plan.title, plan.details],
   );
-  const save = useAutosave(plan.id, plan.version, doc, canEdit, setSavedResults);
+  const [save, saveNow] = useAutosave(plan.id, plan.version, doc, canEdit, setSavedResults);
 
   // The figures on the drawing: the live answer for bridles, the saved server result for beams.
   const shown: ResultState =
@@ -237,26 +266,40 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
     slack: leg.slack,
   }));
 
+  // The handle the arrow keys move in a focused drawing; the first lift point until another is chosen.
+  const handles = movableHandles(edit);
+  const selected = handles.find((h) => handleKey(h) === selectedKey) ?? handles[0] ?? null;
+  const selectHandle = useCallback((h: Handle) => setSelectedKey(handleKey(h)), []);
+  const toggleSnap = useCallback(() => setSnap((s) => !s), []);
+
+  // Editor-wide shortcuts. Single keys (arrows, G, + and -) belong to the focused drawing only, so they never
+  // take over the page's scrolling or a key typed elsewhere.
   const onKey = useCallback(
     (e: KeyboardEvent) => {
       const target = e.target as HTMLElement | null;
-      if (target && (target.tagName === "INPUT" || target.tagName === "TEXTAREA" || target.tagName === "SELECT")) return;
       const mod = e.ctrlKey || e.metaKey;
+      if (mod && !e.shiftKey && !e.altKey && e.key.toLowerCase() === "s") {
+        e.preventDefault();
+        // A number being typed is committed on blur; send the save once that change has rendered.
+        if (target instanceof HTMLInputElement) {
+          target.blur();
+          target.focus();
+        }
+        setTimeout(saveNow, 0);
+        return;
+      }
+      // In a text box or list, Ctrl+Z is the field's own; on a checkbox, radio or button it is the editor's.
+      const typing = target instanceof HTMLTextAreaElement || target instanceof HTMLSelectElement || (target instanceof HTMLInputElement && !["checkbox", "radio"].includes(target.type));
+      if (typing) return;
       if (mod && e.key.toLowerCase() === "z" && !e.shiftKey) {
         e.preventDefault();
         dispatch({ type: "undo" });
       } else if (mod && (e.key.toLowerCase() === "y" || (e.key.toLowerCase() === "z" && e.shiftKey))) {
         e.preventDefault();
         dispatch({ type: "redo" });
-      } else if (!mod && e.key.toLowerCase() === "g") {
-        setSnap((s) => !s);
-      } else if (!mod && (e.key === "ArrowUp" || e.key === "ArrowDown") && edit.arrangement.mode === "level") {
-        e.preventDefault();
-        const stepM = e.shiftKey ? gridM * 10 : gridM;
-        dispatch({ type: "set-hook-height", hookHeightM: edit.arrangement.hookHeightM + (e.key === "ArrowUp" ? stepM : -stepM) });
       }
     },
-    [edit.arrangement.mode, edit.arrangement.hookHeightM, gridM],
+    [saveNow],
   );
   useEffect(() => {
     window.addEventListener("keydown", onKey);
@@ -330,12 +373,24 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
   return (
     <div className="space-y-4">
       <div className="no-print flex flex-wrap items-center gap-2 rounded border border-rule bg-card px-3 py-2" role="toolbar" aria-label="Editor">
-        <Button type="button" tone="secondary" onClick={() => dispatch({ type: "undo" })} disabled={!canUndo(state)} title="Undo (Ctrl+Z)">
+        <Button type="button" tone="secondary" onClick={() => dispatch({ type: "undo" })} disabled={!canUndo(state)} title="Undo (Ctrl+Z)" aria-keyshortcuts="Control+Z">
           Undo
         </Button>
-        <Button type="button" tone="secondary" onClick={() => dispatch({ type: "redo" })} disabled={!canRedo(state)} title="Redo (Ctrl+Shift+Z or Ctrl+Y)">
+        <Button
+          type="button"
+          tone="secondary"
+          onClick={() => dispatch({ type: "redo" })}
+          disabled={!canRedo(state)}
+          title="Redo (Ctrl+Shift+Z or Ctrl+Y)"
+          aria-keyshortcuts="Control+Shift+Z Control+Y"
+        >
           Redo
         </Button>
+        {canEdit && (
+          <Button type="button" tone="secondary" onClick={saveNow} disabled={save.kind !== "pending"} title="Save now (Ctrl+S)" aria-keyshortcuts="Control+S">
+            Save now
+          </Button>
+        )}
         <label className="ml-2 flex items-center gap-1 text-sm">
           <input type="checkbox" checked={snap} onChange={(e) => setSnap(e.target.checked)} /> Snap to grid and lift points (G)
         </label>
@@ -354,10 +409,22 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
           </button>
         </div>
       )}
-      <p className="text-xs text-ink-soft">
-        Drag the lift points and the CoG in either view; drag the hook up and down in the elevation (level mode) or use ↑ ↓ (Shift for ×10). Wheel to
-        zoom, drag the background to pan, double-click a lift point to use it or not. Grid {formatLength(gridM, units)}.
+      <p id={helpId} className="text-xs text-ink-soft">
+        Drag the lift points and the CoG in either view and the hook up and down in the elevation (level mode); wheel to zoom, drag the background to
+        pan, double-click a lift point to use it or not. From the keyboard: choose what to move, Tab into a drawing and use the arrow keys (Shift for
+        ten grid steps); + and − zoom about it, 0 fits the view, G turns snapping on and off; Ctrl+S saves at once. Grid {formatLength(gridM, units)}.
       </p>
+      {canEdit && (
+        <fieldset className="no-print flex flex-wrap items-center gap-x-4 gap-y-1 text-sm">
+          <legend className="float-left mr-2 font-semibold">The arrow keys move</legend>
+          {handles.map((h) => (
+            <label key={handleKey(h)} className="flex items-center gap-1">
+              <input type="radio" name="moved-handle" value={handleKey(h)} checked={selected !== null && handleKey(selected) === handleKey(h)} onChange={() => selectHandle(h)} />
+              {handleName(h)}
+            </label>
+          ))}
+        </fieldset>
+      )}
 
       <div ref={viewsRef} className="grid gap-4 xl:grid-cols-2">
         {(["elevation", "plan"] as const).map((view) => (
@@ -380,6 +447,11 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
                   backdrop={view === "elevation" ? backdrop : null}
                   beamZM={beamZM}
                   onPick={calibration && view === "elevation" ? pickForCalibration : null}
+                  selected={canEdit ? selected : null}
+                  onSelect={selectHandle}
+                  onToggleSnap={toggleSnap}
+                  label={`${view === "elevation" ? "Elevation" : "Plan"} drawing${canEdit && selected ? `, moving ${handleName(selected)}` : ""}`}
+                  describedBy={helpId}
                 />
               </Suspense>
             ) : (
@@ -402,11 +474,12 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
           <fieldset className="flex flex-wrap gap-4 text-sm" disabled={!canEdit}>
             <legend className="sr-only">How the load is hung</legend>
             <label className="flex items-center gap-1">
-              <input type="radio" checked={edit.arrangement.kind === "bridle"} onChange={() => dispatch({ type: "set-kind", kind: "bridle" })} /> Legs to one hook
+              <input type="radio" name="hung-by" checked={edit.arrangement.kind === "bridle"} onChange={() => dispatch({ type: "set-kind", kind: "bridle" })} /> Legs to one hook
             </label>
             <label className="flex items-center gap-1">
               <input
                 type="radio"
+                name="hung-by"
                 checked={edit.arrangement.kind === "beam"}
                 onChange={() =>
                   dispatch({
@@ -423,11 +496,11 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
             <fieldset className="flex flex-wrap gap-4 text-sm" disabled={!canEdit}>
               <legend className="sr-only">What is given</legend>
               <label className="flex items-center gap-1">
-                <input type="radio" checked={edit.arrangement.mode === "level"} onChange={() => setMode("level")} /> Level lift: the hook height gives the
+                <input type="radio" name="given" checked={edit.arrangement.mode === "level"} onChange={() => setMode("level")} /> Level lift: the hook height gives the
                 leg lengths
               </label>
               <label className="flex items-center gap-1">
-                <input type="radio" checked={edit.arrangement.mode === "lengths"} onChange={() => setMode("lengths")} /> Given sling lengths: find the tilt
+                <input type="radio" name="given" checked={edit.arrangement.mode === "lengths"} onChange={() => setMode("lengths")} /> Given sling lengths: find the tilt
               </label>
             </fieldset>
           )}
@@ -595,7 +668,7 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
                 const slot = (role: GearRole, key: "eyeboltItemId" | "shackleItemId" | "slingItemId") => (
                   <GearPicker
                     role={role}
-                    label={`${role} for leg ${p.label}`}
+                    label={`${GEAR_ROLE_LABELS[role]} for leg ${p.label}`}
                     selected={leg?.[key] !== undefined ? (picks.get(leg[key]!) ?? null) : null}
                     thread={role === "eyebolt" ? p.thread : null}
                     loadKg={legLoadKg(p.label)}
@@ -636,7 +709,7 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
                   <span className="block text-xs text-ink-soft">Master link</span>
                   <GearPicker
                     role="masterLink"
-                    label="master link"
+                    label="Master link"
                     selected={edit.rigging.masterLinkItemId !== undefined ? (picks.get(edit.rigging.masterLinkItemId) ?? null) : null}
                     thread={null}
                     loadKg={plan.snapshot.massKg * (1 + plan.snapshot.contingencyPct / 100)}
@@ -651,7 +724,7 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
                   <span className="block text-xs text-ink-soft">Crane or hoist</span>
                   <GearPicker
                     role="crane"
-                    label="crane or hoist"
+                    label="Crane or hoist"
                     selected={edit.rigging.craneItemId !== undefined ? (picks.get(edit.rigging.craneItemId) ?? null) : null}
                     thread={null}
                     loadKg={plan.snapshot.massKg * (1 + plan.snapshot.contingencyPct / 100)}

@@ -158,12 +158,12 @@ export default function GearRegister({ loaderData }: Route.ComponentProps) {
       {(due.overdue > 0 || due.dueSoon > 0) && (
         <p className="mb-4 flex flex-wrap gap-2 text-sm" aria-label="Examinations falling due">
           {due.overdue > 0 && (
-            <Link to={searchHref(search, { due: "overdue", page: 1 })} className="rounded border border-fail/50 bg-fail-soft px-2 py-1 font-bold text-fail">
+            <Link to={searchHref(search, { due: "overdue", page: 1 })} className="rounded border border-fail/50 bg-fail-soft px-2 py-1 font-bold text-fail no-underline">
               ! {due.overdue} OVERDUE
             </Link>
           )}
           {due.dueSoon > 0 && (
-            <Link to={searchHref(search, { due: "due_soon", page: 1 })} className="rounded border border-warn/50 bg-warn-soft px-2 py-1 font-semibold text-warn">
+            <Link to={searchHref(search, { due: "due_soon", page: 1 })} className="rounded border border-warn/50 bg-warn-soft px-2 py-1 font-semibold text-warn no-underline">
               ◷ {due.dueSoon} due within {DUE_SOON_DAYS} days
             </Link>
           )}

@@ -120,7 +120,7 @@ export default function AtTheLift({ loaderData, actionData }: Route.ComponentPro
             {details.sequence.map((s, i) => (
               <li key={i}>
                 <span className="font-semibold">{s.title}</span>
-                {s.holdPoint && <span className="ml-1 rounded bg-brass-soft px-1 text-xs font-semibold text-brass">HOLD POINT</span>}
+                {s.holdPoint && <span className="ml-1 rounded bg-brass-soft px-1 text-xs font-semibold text-brass-deep">HOLD POINT</span>}
                 {s.notes && <span className="block text-ink-soft">{s.notes}</span>}
               </li>
             ))}

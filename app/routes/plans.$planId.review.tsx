@@ -120,7 +120,7 @@ export default function ReviewPlan({ loaderData, actionData }: Route.ComponentPr
             <ol className="list-decimal pl-5 text-sm">
               {revision.details.sequence.map((step, i) => (
                 <li key={i}>
-                  {step.title} {step.holdPoint && <span className="font-semibold text-brass">(hold point)</span>}
+                  {step.title} {step.holdPoint && <span className="font-semibold text-brass-deep">(hold point)</span>}
                 </li>
               ))}
             </ol>

@@ -367,7 +367,7 @@ export default function PlanPage({ loaderData, actionData }: Route.ComponentProp
               {details.sequence.map((step, i) => (
                 <li key={i}>
                   <span className="font-semibold">{step.title}</span>
-                  {step.holdPoint && <span className="ml-2 rounded bg-brass-soft px-2 py-0.5 text-xs font-semibold text-brass">Hold point: stop until cleared</span>}
+                  {step.holdPoint && <span className="ml-2 rounded bg-brass-soft px-2 py-0.5 text-xs font-semibold text-brass-deep">Hold point: stop until cleared</span>}
                   {step.notes && <span className="block text-ink-soft">{step.notes}</span>}
                 </li>
               ))}
