@@ -178,6 +178,11 @@ function dueWhere(due: DueState, today: string): WhereOptions {
   }
 }
 
+/** The item as its edit form starts: its id and every field a register entry is made of. */
+export function toFormValues(item: GearItem): GearItemInput & { id: number } {
+  return { id: item.id, ...(Object.fromEntries(COMPARED_FIELDS.map((f) => [f, item[f]])) as GearItemInput) };
+}
+
 const ROW_ATTRIBUTES = [
   "id", "itemCode", "kind", "description", "wllValue", "wllUnit", "wllKg", "thread", "eyeboltFamily", "shackleType", "pinType", "chainGrade",
   "diameterMm", "legs", "lengthM", "hookHeightM", "beamMassKg", "status", "lastExaminedOn", "nextDueOn",

@@ -4,52 +4,26 @@ import { GearItemForm } from "~/components/gear-form";
 import { Card, PageHeader } from "~/components/ui/form";
 import { requireFormData } from "~/forms";
 import { parseGearItemForm } from "~/gear-form.server";
-import { getGearItem, updateGearItem } from "~/models/gear-item.server";
+import { toFormValues, updateGearItem } from "~/models/gear-item.server";
+import { requireGearItem } from "./gear.$itemId.server";
 import { listSites } from "~/models/site.server";
 import { flashNotice, requireUserWithRole } from "~/session.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `Edit ${data?.item.itemCode ?? "gear"} · Plumbline` }];
 
-async function requireItem(organisationId: number, rawId: string) {
-  const id = Number(rawId);
-  const item = Number.isInteger(id) ? await getGearItem(organisationId, id) : null;
-  if (!item) throw data({ message: "There is no such item in your organisation's register." }, { status: 404 });
-  return item;
-}
-
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUserWithRole(request, "admin");
-  const item = await requireItem(user.organisationId, params.itemId);
+  const item = await requireGearItem(user.organisationId, params.itemId);
   const sites = await listSites(user.organisationId);
   return {
     sites: sites.map((s) => ({ id: s.id, name: s.name })),
-    item: {
-      id: item.id,
-      itemCode: item.itemCode,
-      kind: item.kind,
-      description: item.description,
-      manufacturer: item.manufacturer,
-      serial: item.serial,
-      wllValue: item.wllValue,
-      wllUnit: item.wllUnit,
-      thread: item.thread,
-      eyeboltFamily: item.eyeboltFamily,
-      shackleType: item.shackleType,
-      pinType: item.pinType,
-      chainGrade: item.chainGrade,
-      diameterMm: item.diameterMm,
-      legs: item.legs,
-      lengthM: item.lengthM,
-      hookHeightM: item.hookHeightM,
-      beamMassKg: item.beamMassKg,
-      homeSiteId: item.homeSiteId,
-    },
+    item: toFormValues(item),
   };
 }
 
 export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireUserWithRole(request, "admin");
-  const item = await requireItem(user.organisationId, params.itemId);
+  const item = await requireGearItem(user.organisationId, params.itemId);
   const form = await parseGearItemForm(user.organisationId, await requireFormData(request), item.id);
   if (!form.ok) return data({ errors: form.errors }, { status: 400 });
   await updateGearItem(user.organisationId, item.id, form.data, user.id);

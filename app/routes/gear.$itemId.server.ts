@@ -5,12 +5,20 @@ import { GEAR_STATUS_LABELS } from "~/gear-kinds";
 import { sendDefectReportMail } from "~/gear-mail.server";
 import { defectReportSchema, examinationSchema, statusChangeSchema } from "~/gear-schema";
 import { getLatestExamination, recordExamination } from "~/models/examination.server";
-import { changeGearStatus, reportGearDefect, type GearItem } from "~/models/gear-item.server";
+import { changeGearStatus, getGearItem, reportGearDefect, type GearItem } from "~/models/gear-item.server";
 import type { SessionUser } from "~/models/user.server";
 import { flashNotice } from "~/session.server";
 import { checkUpload, readUploadForm, uploadedFile } from "~/uploads.server";
 
 export type GearIntent = "examination" | "status" | "defect";
+
+/** The organisation's item with the id in the URL, or a 404 with a sentence (the item page and its edit form). */
+export async function requireGearItem(organisationId: number, rawId: string | undefined) {
+  const id = Number(rawId);
+  const item = Number.isInteger(id) ? await getGearItem(organisationId, id) : null;
+  if (!item) throw data({ message: "There is no such item in your organisation's register." }, { status: 404 });
+  return item;
+}
 type Errors = Record<string, string[]>;
 
 function refuse(intent: GearIntent, errors: Errors, status = 400) {

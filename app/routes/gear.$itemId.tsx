@@ -1,7 +1,7 @@
 import { useState } from "react";
-import { data, Form, useNavigation } from "react-router";
+import { Form, useNavigation } from "react-router";
 import type { Route } from "./+types/gear.$itemId";
-import { handleGearItemAction, type GearIntent } from "./gear.$itemId.server";
+import { handleGearItemAction, requireGearItem, type GearIntent } from "./gear.$itemId.server";
 import { DueLabel, StatusLabel, formatWll } from "~/components/gear-labels";
 import { Button, Card, EmptyState, Field, FormError, PageHeader, SelectField, TextAreaField } from "~/components/ui/form";
 import { defaultNextDue, dueState, examinationIntervalMonths, isIsoDate, todayIso } from "~/gear-due";
@@ -14,22 +14,15 @@ import {
   type GearStatus,
 } from "~/gear-kinds";
 import { listExaminations } from "~/models/examination.server";
-import { getGearItem, listGearHistory, type GearHistoryEntry } from "~/models/gear-item.server";
+import { listGearHistory, type GearHistoryEntry } from "~/models/gear-item.server";
 import { hasAnyRole } from "~/roles";
 import { requireUser } from "~/session.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.item.itemCode ?? "Gear"} · Plumbline` }];
 
-async function requireItem(organisationId: number, rawId: string) {
-  const id = Number(rawId);
-  const item = Number.isInteger(id) ? await getGearItem(organisationId, id) : null;
-  if (!item) throw data({ message: "There is no such item in your organisation's register." }, { status: 404 });
-  return item;
-}
-
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUser(request);
-  const item = await requireItem(user.organisationId, params.itemId);
+  const item = await requireGearItem(user.organisationId, params.itemId);
   const [examinations, history] = await Promise.all([listExaminations(user.organisationId, item.id), listGearHistory(user.organisationId, item.id)]);
   const today = todayIso();
   return {
@@ -71,7 +64,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 
 export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireUser(request);
-  const item = await requireItem(user.organisationId, params.itemId);
+  const item = await requireGearItem(user.organisationId, params.itemId);
   return handleGearItemAction(request, user, item);
 }
 
