@@ -3,7 +3,7 @@
 import type { Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { axeFindings, describeFindings } from "./axe";
-import { DEMO_PASSWORD, hydrated, openBrowser, signIn, type BrowserSession } from "./browser";
+import { DEMO_PASSWORD, hydrated, openBrowser, sendComponentWithBadMass, signIn, type BrowserSession } from "./browser";
 
 let browser: BrowserSession;
 beforeAll(async () => {
@@ -65,14 +65,7 @@ async function planByTitle(page: Page, start: string) {
 const componentFormWithRowsAndErrors = async (page: Page) => {
   await page.getByRole("button", { name: "Add a lift point" }).click();
   await page.getByRole("button", { name: "Add a part" }).click();
-  await page.getByLabel("Name", { exact: true }).fill("Audit casing");
-  await page.getByLabel("Mass (kg)").fill("-3");
-  await page.getByLabel("Length along x (mm)").fill("1000");
-  await page.getByLabel("Width along y (mm)").fill("500");
-  await page.getByLabel("Height along z (mm)").fill("500");
-  await page.getByLabel("CoG z (mm)").fill("200");
-  await page.getByRole("button", { name: "Save component" }).click();
-  await expect.poll(() => page.locator("main").innerText()).toContain("The mass must be more than zero.");
+  await sendComponentWithBadMass(page, "Audit casing");
 };
 
 const editorReady = async (page: Page) => {

@@ -75,3 +75,15 @@ export async function mainNavLabels(page: Page) {
   await expect.poll(async () => nav.getByRole("link").count()).toBeGreaterThan(0);
   return nav.getByRole("link").allInnerTexts();
 }
+
+/** Fills the component form's name and figures with a mass it must refuse, sends it, and waits for the refusal beside the field. */
+export async function sendComponentWithBadMass(page: Page, name: string) {
+  await page.getByLabel("Name", { exact: true }).fill(name);
+  await page.getByLabel("Mass (kg)").fill("-3");
+  await page.getByLabel("Length along x (mm)").fill("1000");
+  await page.getByLabel("Width along y (mm)").fill("500");
+  await page.getByLabel("Height along z (mm)").fill("500");
+  await page.getByLabel("CoG z (mm)").fill("200");
+  await page.getByRole("button", { name: "Save component" }).click();
+  await expect.poll(() => page.locator("main").innerText()).toContain("The mass must be more than zero.");
+}

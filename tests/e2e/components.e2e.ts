@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { hydrated, openBrowser, screenshot, signIn, type BrowserSession } from "./browser";
+import { hydrated, openBrowser, screenshot, sendComponentWithBadMass, signIn, type BrowserSession } from "./browser";
 
 let browser: BrowserSession;
 beforeAll(async () => {
@@ -59,14 +59,7 @@ describe("a planner builds a component", () => {
     const { page } = browser;
     await page.goto("/components/new");
     await hydrated(page);
-    await page.getByLabel("Name").fill("Broken");
-    await page.getByLabel("Mass (kg)").fill("-3");
-    await page.getByLabel("Length along x (mm)").fill("1000");
-    await page.getByLabel("Width along y (mm)").fill("500");
-    await page.getByLabel("Height along z (mm)").fill("500");
-    await page.getByLabel("CoG z (mm)").fill("200");
-    await page.getByRole("button", { name: "Save component" }).click();
-    await expect.poll(() => page.locator("main").innerText()).toContain("The mass must be more than zero.");
+    await sendComponentWithBadMass(page, "Broken");
     expect(new URL(page.url()).pathname).toBe("/components/new");
   });
 });
