@@ -3,7 +3,7 @@ import type { Config } from "@react-router/dev/config";
 export default {
   ssr: true,
   future: { unstable_optimizeDeps: true, v8_middleware: true },
-  // Cross-site mutations are refused by the root middleware (app/security.server.ts), which runs before every
+  // Cross-site mutations are refused by the root middleware (app/utils/security.server.ts), which runs before every
   // action, resource routes included, answers 403 with a sentence and also accepts PUBLIC_URL's origin (behind a
   // TLS proxy the request URL says http). React Router's own check would answer a bare 400 first for pages only,
   // and only knows origins at build time, so it is handed every host here and the middleware decides.

@@ -4,8 +4,8 @@ import { createReadableStreamFromReadable } from "@react-router/node";
 import { isbot } from "isbot";
 import { renderToPipeableStream, type RenderToPipeableStreamOptions } from "react-dom/server";
 import { ServerRouter, type EntryContext, type RouterContextProvider } from "react-router";
-import { CspNonceContext } from "~/csp-nonce";
-import { cspNonceContext, newCspNonce, setSecurityHeaders } from "~/security.server";
+import { CspNonceContext } from "~/utils/csp-nonce";
+import { cspNonceContext, newCspNonce, setSecurityHeaders } from "~/utils/security.server";
 
 export const streamTimeout = 5_000;
 

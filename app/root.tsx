@@ -7,9 +7,9 @@ import { useEffect } from "react";
 import { data, isRouteErrorResponse, Links, Meta, Outlet, Scripts, ScrollRestoration, useRouteLoaderData } from "react-router";
 import type { Route } from "./+types/root";
 import { AppShell } from "~/components/app-shell";
-import { useCspNonce } from "~/csp-nonce";
-import { securityMiddleware } from "~/security.server";
-import { readFlash, getUser } from "~/session.server";
+import { useCspNonce } from "~/utils/csp-nonce";
+import { securityMiddleware } from "~/utils/security.server";
+import { readFlash, getUser } from "~/utils/session.server";
 
 // First on every request: refuses cross-site mutations before any action and sets the security headers.
 export const middleware: Route.MiddlewareFunction[] = [securityMiddleware];

@@ -1,5 +1,5 @@
-import { env } from "~/env.server";
-import { sequelize } from "~/db.server";
+import { env } from "~/utils/env.server";
+import { sequelize } from "~/utils/db.server";
 import { createMigrator } from "./umzug";
 import { createDemoSeeder } from "./seeders";
 import { backupDatabase, defaultBackupPath, restoreDatabase } from "./backup";

@@ -1,7 +1,7 @@
 // `npm run reminders`: e-mails each organisation's admins the gear overdue or due for thorough
 // examination within 30 days. Meant for a daily or weekly scheduler (cron, systemd timer).
-import { sequelize } from "~/db.server";
-import { sendExaminationReminders } from "~/reminders.server";
+import { sequelize } from "~/utils/db.server";
+import { sendExaminationReminders } from "~/gear/reminders.server";
 
 async function main() {
   const summaries = await sendExaminationReminders();

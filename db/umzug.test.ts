@@ -2,7 +2,7 @@ import fs from "node:fs";
 import path from "node:path";
 import { QueryTypes } from "sequelize";
 import { describe, expect, it } from "vitest";
-import { sequelize } from "~/db.server";
+import { sequelize } from "~/utils/db.server";
 import { createMigrator, migrations } from "./umzug";
 
 describe("migrations", () => {

@@ -1,6 +1,6 @@
 import { Form, NavLink } from "react-router";
 import { navItemsFor } from "~/components/navigation";
-import { ROLE_LABELS, type Role } from "~/roles";
+import { ROLE_LABELS, type Role } from "~/utils/roles";
 
 type ShellUser = { name: string; organisationName: string; roles: Role[] };
 

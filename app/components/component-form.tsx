@@ -11,8 +11,8 @@ import {
   rectangleOutlines,
   type ComponentDefinition,
   type MassSource,
-} from "~/component-definition";
-import { MAX_LIFT_POINTS, MAX_PARTS } from "~/component-form";
+} from "~/loads/component-definition";
+import { MAX_LIFT_POINTS, MAX_PARTS } from "~/loads/component-input";
 import { compositeMassAndCog } from "~/statics/composite";
 import { convertLength } from "~/statics/units";
 import {
@@ -26,7 +26,7 @@ import {
   toDisplayLength,
   toDisplayMass,
   type Units,
-} from "~/units-format";
+} from "~/utils/format";
 
 type Errors = Record<string, string[] | undefined>;
 type LiftRow = { key: number; label: string; x: string; y: string; z: string; ax: string; ay: string; az: string; thread: string; engagement: string };

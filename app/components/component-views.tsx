@@ -1,4 +1,4 @@
-import { formatLength, type Units } from "~/units-format";
+import { formatLength, type Units } from "~/utils/format";
 
 type Point2 = readonly [number, number];
 type Vec3 = { x: number; y: number; z: number };

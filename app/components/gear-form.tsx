@@ -14,7 +14,7 @@ import {
   isGearKind,
   type GearKind,
   type SpecField,
-} from "~/gear-kinds";
+} from "~/gear/kinds";
 
 export type GearFormValues = Partial<Record<string, string | number | null>>;
 

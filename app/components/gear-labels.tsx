@@ -1,5 +1,5 @@
-import { DUE_STATE_LABELS, type DueState } from "~/gear-due";
-import { GEAR_STATUS_LABELS, WLL_UNIT_LABELS, type GearStatus } from "~/gear-kinds";
+import { DUE_STATE_LABELS, type DueState } from "~/gear/due";
+import { GEAR_STATUS_LABELS, WLL_UNIT_LABELS, type GearStatus } from "~/gear/kinds";
 import type { MassUnit } from "~/statics/units";
 
 const DUE_TONES: Record<DueState, string> = {

@@ -1,6 +1,6 @@
 import { useEffect, useId, useRef, useState } from "react";
-import { nextListIndex } from "~/plan-editor-state";
-import { GEAR_ROLE_LABELS, type GearPick, type GearRole } from "~/plan-rigging";
+import { nextListIndex } from "~/plans/editor-state";
+import { GEAR_ROLE_LABELS, type GearPick, type GearRole } from "~/plans/rigging";
 
 function dueNote(pick: GearPick, today = new Date().toISOString().slice(0, 10)) {
   if (pick.status === "quarantined") return { text: "quarantined", bad: true };

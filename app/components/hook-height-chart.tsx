@@ -1,6 +1,6 @@
 import { useMemo } from "react";
 import { solveLevel, type LiftPoint } from "~/statics/bridle";
-import { formatLength, type Units } from "~/units-format";
+import { formatLength, type Units } from "~/utils/format";
 
 const W = 640;
 const H = 220;

@@ -1,6 +1,6 @@
 import type { CheckResult } from "~/statics/checks";
 import { ceilTo } from "~/statics/units";
-import { formatLength, type Units } from "~/units-format";
+import { formatLength, type Units } from "~/utils/format";
 
 export type ResultState =
   | { kind: "idle" }

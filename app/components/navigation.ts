@@ -1,4 +1,4 @@
-import type { Role } from "~/roles";
+import type { Role } from "~/utils/roles";
 
 export type NavItem = { to: string; label: string; roles: Role[] | "all" };
 

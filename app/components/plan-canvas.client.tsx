@@ -22,8 +22,8 @@ import {
   type PlanEdit,
   type Vec3,
   type ViewTransform,
-} from "~/plan-editor-state";
-import { formatLength, type Units } from "~/units-format";
+} from "~/plans/editor-state";
+import { formatLength, type Units } from "~/utils/format";
 
 export type ViewKind = DrawingView;
 

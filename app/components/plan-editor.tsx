@@ -2,13 +2,13 @@
 // properties panel for exact values, live results from /api/solve, gear allocation, the
 // hook-height chart and autosave through PUT /api/plans/:planId.
 import { lazy, Suspense, useCallback, useEffect, useId, useMemo, useReducer, useRef, useState } from "react";
-import type { ComponentDefinition } from "~/component-definition";
+import type { ComponentDefinition } from "~/loads/component-definition";
 import type { Backdrop, LegFigure } from "~/components/plan-canvas.client";
 import { Button } from "~/components/ui/form";
 import { HookHeightChart } from "~/components/hook-height-chart";
 import { GearPicker } from "~/components/gear-picker";
 import { LiveResults, worstStatusForLeg, type ResultState } from "~/components/live-results";
-import { HITCH_LABELS, HITCHES, type PlanDetails, type PlanResults, type RiggingAllocation, type Arrangement } from "~/plan-document";
+import { HITCH_LABELS, HITCHES, type PlanDetails, type PlanResults, type RiggingAllocation, type Arrangement } from "~/plans/document";
 import {
   calibrateImageScale,
   canRedo,
@@ -22,10 +22,10 @@ import {
   type EditorAction,
   type Handle,
   type PlanEdit,
-} from "~/plan-editor-state";
-import { assembleRigging, GEAR_ROLE_LABELS, type GearPick, type GearRole } from "~/plan-rigging";
+} from "~/plans/editor-state";
+import { assembleRigging, GEAR_ROLE_LABELS, type GearPick, type GearRole } from "~/plans/rigging";
 import { solveLevel } from "~/statics/bridle";
-import { formatLength, fromDisplayLength, inputNumber, lengthUnitLabel, toDisplayLength, type Units } from "~/units-format";
+import { formatLength, fromDisplayLength, inputNumber, lengthUnitLabel, toDisplayLength, type Units } from "~/utils/format";
 
 const PlanCanvas = lazy(() => import("~/components/plan-canvas.client"));
 

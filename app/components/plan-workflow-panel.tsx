@@ -1,7 +1,7 @@
 import { Form } from "react-router";
 import { Button } from "~/components/ui/form";
-import { PLAN_STATUS_LABELS, type PlanStatus } from "~/plan-document";
-import type { WorkflowAction } from "~/plan-workflow";
+import { PLAN_STATUS_LABELS, type PlanStatus } from "~/plans/document";
+import type { WorkflowAction } from "~/plans/workflow";
 
 type Permission = { allowed: boolean; reason?: string };
 

@@ -1,5 +1,5 @@
 import { FieldError } from "~/components/ui/form";
-import { ROLE_DUTIES, ROLE_LABELS, ROLES, type Role } from "~/roles";
+import { ROLE_DUTIES, ROLE_LABELS, ROLES, type Role } from "~/utils/roles";
 
 export function RoleCheckboxes({ selected, errors }: { selected: readonly Role[]; errors?: string[] }) {
   return (

@@ -1,5 +1,5 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Transaction } from "sequelize";
-import { sequelize } from "~/db.server";
+import { sequelize } from "~/utils/db.server";
 
 /** A row of the audit trail: appended, never updated or deleted. */
 export class AuditEvent extends Model<InferAttributes<AuditEvent>, InferCreationAttributes<AuditEvent>> {

@@ -7,11 +7,11 @@ import {
   type InferCreationAttributes,
   type NonAttribute,
 } from "sequelize";
-import type { ComponentDefinition, CogSource, MassSource } from "~/component-definition";
-import { sequelize } from "~/db.server";
+import type { ComponentDefinition, CogSource, MassSource } from "~/loads/component-definition";
+import { sequelize } from "~/utils/db.server";
 import { recordAudit } from "~/models/audit-event.server";
 import { StoredFile } from "~/models/stored-file.server";
-import { transactionWithFiles, type CheckedUpload } from "~/uploads.server";
+import { transactionWithFiles, type CheckedUpload } from "~/utils/uploads.server";
 
 export class Component extends Model<InferAttributes<Component>, InferCreationAttributes<Component>> {
   declare id: CreationOptional<number>;

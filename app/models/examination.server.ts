@@ -7,14 +7,14 @@ import {
   type NonAttribute,
   type Transaction,
 } from "sequelize";
-import { defaultNextDue } from "~/gear-due";
-import { sequelize } from "~/db.server";
-import type { ExaminationFields } from "~/gear-schema";
+import { defaultNextDue } from "~/gear/due";
+import { sequelize } from "~/utils/db.server";
+import type { ExaminationFields } from "~/gear/schema";
 import { recordAudit } from "~/models/audit-event.server";
 import { GearItem, setGearStatus } from "~/models/gear-item.server";
 import { StoredFile } from "~/models/stored-file.server";
 import { User } from "~/models/user.server";
-import { transactionWithFiles, type CheckedUpload } from "~/uploads.server";
+import { transactionWithFiles, type CheckedUpload } from "~/utils/uploads.server";
 
 /** A thorough examination of one item by a competent person (LOLER 1998 reg 9), as its report records it. */
 export class Examination extends Model<InferAttributes<Examination>, InferCreationAttributes<Examination>> {

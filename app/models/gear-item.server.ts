@@ -9,10 +9,10 @@ import {
   type Transaction,
   type WhereOptions,
 } from "sequelize";
-import { sequelize } from "~/db.server";
-import { addDays, dueState, DUE_SOON_DAYS, type DueState } from "~/gear-due";
-import { GEAR_STATUS_LABELS, SPEC_FIELDS, type GearKind, type GearStatus } from "~/gear-kinds";
-import type { GearItemInput } from "~/gear-schema";
+import { sequelize } from "~/utils/db.server";
+import { addDays, dueState, DUE_SOON_DAYS, type DueState } from "~/gear/due";
+import { GEAR_STATUS_LABELS, SPEC_FIELDS, type GearKind, type GearStatus } from "~/gear/kinds";
+import type { GearItemInput } from "~/gear/schema";
 import { AuditEvent, listAuditEvents, recordAudit } from "~/models/audit-event.server";
 import { Site } from "~/models/site.server";
 import { User } from "~/models/user.server";

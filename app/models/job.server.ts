@@ -6,7 +6,7 @@ import {
   type InferCreationAttributes,
   type NonAttribute,
 } from "sequelize";
-import { sequelize } from "~/db.server";
+import { sequelize } from "~/utils/db.server";
 import { recordAudit } from "~/models/audit-event.server";
 import { Site } from "~/models/site.server";
 

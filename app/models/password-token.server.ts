@@ -1,6 +1,6 @@
 import crypto from "node:crypto";
 import { DataTypes, Model, Op, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
-import { sequelize } from "~/db.server";
+import { sequelize } from "~/utils/db.server";
 import { hashPassword, User } from "~/models/user.server";
 
 export type TokenPurpose = "invite" | "reset";

@@ -1,7 +1,7 @@
 // What waits for each role on the dashboard.
 import { Job } from "~/models/job.server";
 import { Plan, PlanRevision } from "~/models/plan.server";
-import type { PlanStatus } from "~/plan-document";
+import type { PlanStatus } from "~/plans/document";
 
 export type QueueRow = { planId: number; title: string; revision: number; status: PlanStatus; workOrder: string; updatedAt: string };
 

@@ -11,18 +11,18 @@ import {
   type InferCreationAttributes,
   type Transaction,
 } from "sequelize";
-import { sequelize } from "~/db.server";
-import { absoluteUrl, sendMail } from "~/mail.server";
+import { sequelize } from "~/utils/db.server";
+import { absoluteUrl, sendMail } from "~/utils/mail.server";
 import { AuditEvent, recordAudit } from "~/models/audit-event.server";
 import { getOrganisation } from "~/models/organisation.server";
 import { Plan, PlanRevision, readRevision, todayIso, type RevisionView } from "~/models/plan.server";
 import { getReferenceTables } from "~/models/reference-row.server";
 import { listUsersWithRole, User, verifyPassword, type SessionUser } from "~/models/user.server";
-import type { PlanResults, PlanStatus, RiggingAllocation } from "~/plan-document";
-import { computePlanResults } from "~/plan-results.server";
-import { permission, PRE_LIFT_CHECKLIST, type ChecklistId, type WorkflowAction, type WorkflowContext } from "~/plan-workflow";
+import type { PlanResults, PlanStatus, RiggingAllocation } from "~/plans/document";
+import { computePlanResults } from "~/plans/results.server";
+import { permission, PRE_LIFT_CHECKLIST, type ChecklistId, type WorkflowAction, type WorkflowContext } from "~/plans/workflow";
 import type { CheckResult } from "~/statics/checks";
-import { transactionWithFiles, type CheckedUpload } from "~/uploads.server";
+import { transactionWithFiles, type CheckedUpload } from "~/utils/uploads.server";
 
 export class PlanAcknowledgement extends Model<InferAttributes<PlanAcknowledgement>, InferCreationAttributes<PlanAcknowledgement>> {
   declare id: CreationOptional<number>;

@@ -8,8 +8,8 @@ import {
   type NonAttribute,
   type Transaction,
 } from "sequelize";
-import { componentDefinitionSchema, type ComponentDefinition } from "~/component-definition";
-import { sequelize } from "~/db.server";
+import { componentDefinitionSchema, type ComponentDefinition } from "~/loads/component-definition";
+import { sequelize } from "~/utils/db.server";
 import { recordAudit } from "~/models/audit-event.server";
 import { Component, getComponent, toDefinition } from "~/models/component.server";
 import { Job } from "~/models/job.server";
@@ -34,8 +34,8 @@ import {
   type PlanResults,
   type PlanStatus,
   type RiggingAllocation,
-} from "~/plan-document";
-import { computePlanResults } from "~/plan-results.server";
+} from "~/plans/document";
+import { computePlanResults } from "~/plans/results.server";
 
 /** A lift plan: one lift of one job; its content lives in its revisions. */
 export class Plan extends Model<InferAttributes<Plan>, InferCreationAttributes<Plan>> {

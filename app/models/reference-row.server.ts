@@ -1,5 +1,5 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
-import { sequelize } from "~/db.server";
+import { sequelize } from "~/utils/db.server";
 import type { ReferenceTables } from "~/statics/reference";
 
 /** One row of a published reference table (kept as JSON), with its source. */

@@ -1,5 +1,5 @@
 import { DataTypes, Model, Op, type CreationOptional, type InferAttributes, type InferCreationAttributes, type WhereOptions } from "sequelize";
-import { sequelize } from "~/db.server";
+import { sequelize } from "~/utils/db.server";
 import { normaliseEmail } from "~/models/user.server";
 
 export type AttemptScope = "sign-in" | "password-reset";

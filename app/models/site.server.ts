@@ -1,5 +1,5 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
-import { sequelize } from "~/db.server";
+import { sequelize } from "~/utils/db.server";
 import { recordAudit } from "~/models/audit-event.server";
 
 export class Site extends Model<InferAttributes<Site>, InferCreationAttributes<Site>> {

@@ -1,5 +1,5 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Transaction } from "sequelize";
-import { sequelize } from "~/db.server";
+import { sequelize } from "~/utils/db.server";
 
 /** What a stored file is for; a staged import is a CSV kept between its preview and its confirmation. */
 export type FilePurpose = "certificate" | "gear-import" | "drawing" | "photo";

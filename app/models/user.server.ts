@@ -9,11 +9,11 @@ import {
   type InferCreationAttributes,
   type NonAttribute,
 } from "sequelize";
-import { sequelize } from "~/db.server";
-import { env } from "~/env.server";
+import { sequelize } from "~/utils/db.server";
+import { env } from "~/utils/env.server";
 import { recordAudit } from "~/models/audit-event.server";
 import { Organisation } from "~/models/organisation.server";
-import { ROLES, type Role } from "~/roles";
+import { ROLES, type Role } from "~/utils/roles";
 
 export type Units = "metric" | "imperial";
 

@@ -4,10 +4,10 @@ import { listJobs } from "~/models/job.server";
 import { listOrganisationUsers } from "~/models/user.server";
 import { plannerQueue, reviewQueue, riggerQueue, type QueueRow } from "~/models/plan-queue.server";
 import { listOrganisationGearDueBy } from "~/models/gear-item.server";
-import { addDays, DUE_SOON_DAYS, todayIso } from "~/gear-due";
-import { PLAN_STATUS_LABELS } from "~/plan-document";
-import { ROLE_LABELS } from "~/roles";
-import { requireUser } from "~/session.server";
+import { addDays, DUE_SOON_DAYS, todayIso } from "~/gear/due";
+import { PLAN_STATUS_LABELS } from "~/plans/document";
+import { ROLE_LABELS } from "~/utils/roles";
+import { requireUser } from "~/utils/session.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Dashboard · Plumbline" }];
 

@@ -1,9 +1,9 @@
 import type { Route } from "./+types/admin._index";
 import { PageHeader } from "~/components/ui/form";
-import { isMailCaught } from "~/mail.server";
+import { isMailCaught } from "~/utils/mail.server";
 import { listOrganisationUsers } from "~/models/user.server";
-import { ROLE_LABELS } from "~/roles";
-import { requireUserWithRole } from "~/session.server";
+import { ROLE_LABELS } from "~/utils/roles";
+import { requireUserWithRole } from "~/utils/session.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Admin · Plumbline" }];
 

@@ -1,9 +1,9 @@
 import { data } from "react-router";
 import type { Route } from "./+types/admin.outbox.$mailId";
 import { PageHeader } from "~/components/ui/form";
-import { isMailCaught } from "~/mail.server";
+import { isMailCaught } from "~/utils/mail.server";
 import { getCaughtMail } from "~/models/caught-mail.server";
-import { requireUserWithRole } from "~/session.server";
+import { requireUserWithRole } from "~/utils/session.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Message · Plumbline" }];
 

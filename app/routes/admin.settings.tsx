@@ -2,10 +2,10 @@ import { data, Form, redirect } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/admin.settings";
 import { Button, Card, Field, PageHeader } from "~/components/ui/form";
-import { parseForm, requiredText, requireFormData } from "~/forms";
+import { parseForm, requiredText, requireFormData } from "~/utils/forms";
 import { recordAudit } from "~/models/audit-event.server";
 import { getOrganisation, updateOrganisationSettings } from "~/models/organisation.server";
-import { flashNotice, requireUserWithRole } from "~/session.server";
+import { flashNotice, requireUserWithRole } from "~/utils/session.server";
 
 const schema = z.object({
   name: requiredText("organisation's name", 200),

@@ -1,13 +1,13 @@
 import { data, Form, redirect } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/admin.users.$userId";
-import { sendInvitation } from "~/account-mail.server";
+import { sendInvitation } from "~/accounts/account-mail.server";
 import { RoleCheckboxes } from "~/components/role-checkboxes";
 import { Button, Card, FormError, PageHeader } from "~/components/ui/form";
-import { parseForm, requireFormData } from "~/forms";
+import { parseForm, requireFormData } from "~/utils/forms";
 import { countOtherActiveAdmins, getOrganisationUser, setUserActive, updateUserRoles } from "~/models/user.server";
-import { ROLES } from "~/roles";
-import { flashNotice, requireUserWithRole } from "~/session.server";
+import { ROLES } from "~/utils/roles";
+import { flashNotice, requireUserWithRole } from "~/utils/session.server";
 
 const schema = z.discriminatedUnion("intent", [
   z.object({ intent: z.literal("roles"), roles: z.array(z.enum(ROLES)).min(1, "Give the user at least one role.") }),

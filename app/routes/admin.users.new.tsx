@@ -1,13 +1,13 @@
 import { data, Form, redirect } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/admin.users.new";
-import { sendInvitation } from "~/account-mail.server";
+import { sendInvitation } from "~/accounts/account-mail.server";
 import { RoleCheckboxes } from "~/components/role-checkboxes";
 import { Button, Card, Field, PageHeader } from "~/components/ui/form";
-import { parseForm, requiredText, requireFormData } from "~/forms";
+import { parseForm, requiredText, requireFormData } from "~/utils/forms";
 import { createUser, findUserByEmail } from "~/models/user.server";
-import { ROLES } from "~/roles";
-import { flashNotice, requireUserWithRole } from "~/session.server";
+import { ROLES } from "~/utils/roles";
+import { flashNotice, requireUserWithRole } from "~/utils/session.server";
 
 const schema = z.object({
   name: requiredText("name", 200),

@@ -1,9 +1,9 @@
 import { z } from "zod";
 import type { Route } from "./+types/api.gear";
-import { withoutControlCharacters } from "~/forms";
-import { searchGearPicks } from "~/gear-picks.server";
+import { withoutControlCharacters } from "~/utils/forms";
+import { searchGearPicks } from "~/gear/picks.server";
 import { getReferenceTables } from "~/models/reference-row.server";
-import { requireUser } from "~/session.server";
+import { requireUser } from "~/utils/session.server";
 
 const querySchema = z.object({
   query: z.string().max(100, "The search is at most 100 characters.").transform(withoutControlCharacters).default(""),

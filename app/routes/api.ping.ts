@@ -1,5 +1,5 @@
 import type { Route } from "./+types/api.ping";
-import { requireUser } from "~/session.server";
+import { requireUser } from "~/utils/session.server";
 
 /** A trivial signed-in JSON route: a health check, and the baseline the benchmark compares against. */
 export async function loader({ request }: Route.LoaderArgs) {

@@ -1,8 +1,8 @@
 import type { Route } from "./+types/api.plans.$planId";
 import { getPlan, savePlanRevision } from "~/models/plan.server";
-import { planJson } from "~/plan-api.server";
-import { describeIssue, planPutSchema, zodIssues } from "~/plan-document";
-import { requireUser, requireUserWithRole } from "~/session.server";
+import { planJson } from "~/plans/api.server";
+import { describeIssue, planPutSchema, zodIssues } from "~/plans/document";
+import { requireUser, requireUserWithRole } from "~/utils/session.server";
 
 /** Bodies larger than this are refused before parsing (a plan document is a few kilobytes). */
 const MAX_BODY_BYTES = 256 * 1024;

@@ -1,6 +1,6 @@
 import type { Route } from "./+types/api.plans";
 import { listPlans } from "~/models/plan.server";
-import { requireUser } from "~/session.server";
+import { requireUser } from "~/utils/session.server";
 
 /** The organisation's plans: GET /api/plans (optionally ?jobId=). */
 export async function loader({ request }: Route.LoaderArgs) {

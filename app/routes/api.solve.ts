@@ -1,6 +1,6 @@
 import type { Route } from "./+types/api.solve";
 import { getReferenceTables } from "~/models/reference-row.server";
-import { requireUser } from "~/session.server";
+import { requireUser } from "~/utils/session.server";
 import { handleSolve } from "~/statics/api";
 
 /** Bodies larger than this are refused before parsing (a solve body is a few hundred bytes). */

@@ -3,10 +3,10 @@ import { z } from "zod";
 import type { Route } from "./+types/components.$componentId.edit";
 import { ComponentForm } from "~/components/component-form";
 import { PageHeader } from "~/components/ui/form";
-import { parseComponentForm } from "~/component-form";
-import { requireFormData } from "~/forms";
+import { parseComponentForm } from "~/loads/component-input";
+import { requireFormData } from "~/utils/forms";
 import { getComponent, toDefinition, updateComponent } from "~/models/component.server";
-import { flashNotice, requireUserWithRole } from "~/session.server";
+import { flashNotice, requireUserWithRole } from "~/utils/session.server";
 
 const versionSchema = z.coerce.number().int().positive();
 

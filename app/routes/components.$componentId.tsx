@@ -3,8 +3,8 @@ import { z } from "zod";
 import type { Route } from "./+types/components.$componentId";
 import { ComponentViews } from "~/components/component-views";
 import { Button, Card, FormError, PageHeader, SelectField } from "~/components/ui/form";
-import { COG_SOURCE_LABELS, MASS_SOURCE_LABELS } from "~/component-definition";
-import { parseForm } from "~/forms";
+import { COG_SOURCE_LABELS, MASS_SOURCE_LABELS } from "~/loads/component-definition";
+import { parseForm } from "~/utils/forms";
 import {
   addComponentFile,
   getComponent,
@@ -13,10 +13,10 @@ import {
   setComponentArchived,
   toDefinition,
 } from "~/models/component.server";
-import { checkUpload, readUploadForm, uploadedFile } from "~/uploads.server";
-import { hasAnyRole } from "~/roles";
-import { flashNotice, requireUser, requireUserWithRole } from "~/session.server";
-import { formatLength, formatMass } from "~/units-format";
+import { checkUpload, readUploadForm, uploadedFile } from "~/utils/uploads.server";
+import { hasAnyRole } from "~/utils/roles";
+import { flashNotice, requireUser, requireUserWithRole } from "~/utils/session.server";
+import { formatLength, formatMass } from "~/utils/format";
 
 const schema = z.discriminatedUnion("intent", [
   z.object({ intent: z.literal("archive") }),

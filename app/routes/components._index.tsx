@@ -1,12 +1,12 @@
 import { Form } from "react-router";
 import type { Route } from "./+types/components._index";
 import { EmptyState, PageHeader } from "~/components/ui/form";
-import { MASS_SOURCE_LABELS } from "~/component-definition";
-import { withoutControlCharacters } from "~/forms";
+import { MASS_SOURCE_LABELS } from "~/loads/component-definition";
+import { withoutControlCharacters } from "~/utils/forms";
 import { listComponents } from "~/models/component.server";
-import { hasAnyRole } from "~/roles";
-import { requireUser } from "~/session.server";
-import { formatMass } from "~/units-format";
+import { hasAnyRole } from "~/utils/roles";
+import { requireUser } from "~/utils/session.server";
+import { formatMass } from "~/utils/format";
 
 export const meta: Route.MetaFunction = () => [{ title: "Components · Plumbline" }];
 

@@ -2,10 +2,10 @@ import { data, redirect } from "react-router";
 import type { Route } from "./+types/components.new";
 import { ComponentForm } from "~/components/component-form";
 import { PageHeader } from "~/components/ui/form";
-import { parseComponentForm } from "~/component-form";
-import { requireFormData } from "~/forms";
+import { parseComponentForm } from "~/loads/component-input";
+import { requireFormData } from "~/utils/forms";
 import { createComponent } from "~/models/component.server";
-import { flashNotice, requireUserWithRole } from "~/session.server";
+import { flashNotice, requireUserWithRole } from "~/utils/session.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "New component · Plumbline" }];
 

@@ -1,8 +1,8 @@
 import { data } from "react-router";
 import type { Route } from "./+types/files.$fileId";
 import { getStoredFile } from "~/models/stored-file.server";
-import { requireUser } from "~/session.server";
-import { contentDisposition, readStoredBytes } from "~/uploads.server";
+import { requireUser } from "~/utils/session.server";
+import { contentDisposition, readStoredBytes } from "~/utils/uploads.server";
 
 /** One stored file, to signed-in users of the organisation that owns it; anyone else gets a 404. */
 export async function loader({ request, params }: Route.LoaderArgs) {

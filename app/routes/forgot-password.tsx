@@ -1,12 +1,12 @@
 import { data, Form } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/forgot-password";
-import { sendPasswordReset } from "~/account-mail.server";
+import { sendPasswordReset } from "~/accounts/account-mail.server";
 import { Button, Field, FormError } from "~/components/ui/form";
-import { parseForm, requireFormData } from "~/forms";
+import { parseForm, requireFormData } from "~/utils/forms";
 import { startPasswordResetRequest } from "~/models/sign-in-attempt.server";
 import { findUserByEmail } from "~/models/user.server";
-import { clientAddressKey } from "~/security.server";
+import { clientAddressKey } from "~/utils/security.server";
 
 const schema = z.object({
   email: z.string({ error: "Enter your e-mail address." }).trim().email("Enter a valid e-mail address.").max(320),

@@ -2,12 +2,12 @@ import { data, redirect } from "react-router";
 import type { Route } from "./+types/gear.$itemId.edit";
 import { GearItemForm } from "~/components/gear-form";
 import { Card, PageHeader } from "~/components/ui/form";
-import { requireFormData } from "~/forms";
-import { parseGearItemForm } from "~/gear-form.server";
+import { requireFormData } from "~/utils/forms";
+import { parseGearItemForm } from "~/gear/form.server";
 import { toFormValues, updateGearItem } from "~/models/gear-item.server";
 import { requireGearItem } from "./gear.$itemId.server";
 import { listSites } from "~/models/site.server";
-import { flashNotice, requireUserWithRole } from "~/session.server";
+import { flashNotice, requireUserWithRole } from "~/utils/session.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `Edit ${data?.item.itemCode ?? "gear"} · Plumbline` }];
 

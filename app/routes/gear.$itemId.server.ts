@@ -1,14 +1,14 @@
 import { data, redirect } from "react-router";
-import { parseForm } from "~/forms";
-import { todayIso } from "~/gear-due";
-import { GEAR_STATUS_LABELS } from "~/gear-kinds";
-import { sendDefectReportMail } from "~/gear-mail.server";
-import { defectReportSchema, examinationSchema, statusChangeSchema } from "~/gear-schema";
+import { parseForm } from "~/utils/forms";
+import { todayIso } from "~/gear/due";
+import { GEAR_STATUS_LABELS } from "~/gear/kinds";
+import { sendDefectReportMail } from "~/gear/mail.server";
+import { defectReportSchema, examinationSchema, statusChangeSchema } from "~/gear/schema";
 import { getLatestExamination, recordExamination } from "~/models/examination.server";
 import { changeGearStatus, getGearItem, reportGearDefect, type GearItem } from "~/models/gear-item.server";
 import type { SessionUser } from "~/models/user.server";
-import { flashNotice } from "~/session.server";
-import { checkUpload, readUploadForm, uploadedFile } from "~/uploads.server";
+import { flashNotice } from "~/utils/session.server";
+import { checkUpload, readUploadForm, uploadedFile } from "~/utils/uploads.server";
 
 export type GearIntent = "examination" | "status" | "defect";
 

@@ -4,7 +4,7 @@ import type { Route } from "./+types/gear.$itemId";
 import { handleGearItemAction, requireGearItem, type GearIntent } from "./gear.$itemId.server";
 import { DueLabel, StatusLabel, formatWll } from "~/components/gear-labels";
 import { Button, Card, EmptyState, Field, FormError, PageHeader, SelectField, TextAreaField } from "~/components/ui/form";
-import { defaultNextDue, dueState, examinationIntervalMonths, isIsoDate, todayIso } from "~/gear-due";
+import { defaultNextDue, dueState, examinationIntervalMonths, isIsoDate, todayIso } from "~/gear/due";
 import {
   GEAR_KIND_INFO,
   GEAR_STATUS_LABELS,
@@ -12,11 +12,11 @@ import {
   SPEC_FIELD_LABELS,
   type GearKind,
   type GearStatus,
-} from "~/gear-kinds";
+} from "~/gear/kinds";
 import { listExaminations } from "~/models/examination.server";
 import { listGearHistory, type GearHistoryEntry } from "~/models/gear-item.server";
-import { hasAnyRole } from "~/roles";
-import { requireUser } from "~/session.server";
+import { hasAnyRole } from "~/utils/roles";
+import { requireUser } from "~/utils/session.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.item.itemCode ?? "Gear"} · Plumbline` }];
 

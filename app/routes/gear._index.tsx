@@ -4,13 +4,13 @@ import { z } from "zod";
 import type { Route } from "./+types/gear._index";
 import { DueLabel, StatusLabel, formatWll } from "~/components/gear-labels";
 import { Button, EmptyState, PageHeader } from "~/components/ui/form";
-import { withoutControlCharacters } from "~/forms";
-import { DUE_SOON_DAYS, DUE_STATE_LABELS, DUE_STATES, todayIso } from "~/gear-due";
-import { GEAR_KIND_INFO, GEAR_KINDS, GEAR_STATUS_LABELS, GEAR_STATUSES, kindLabel, sizeSummary } from "~/gear-kinds";
+import { withoutControlCharacters } from "~/utils/forms";
+import { DUE_SOON_DAYS, DUE_STATE_LABELS, DUE_STATES, todayIso } from "~/gear/due";
+import { GEAR_KIND_INFO, GEAR_KINDS, GEAR_STATUS_LABELS, GEAR_STATUSES, kindLabel, sizeSummary } from "~/gear/kinds";
 import { countGearDue, GEAR_SORT_KEYS, searchGearItems, type GearRow, type GearSortKey } from "~/models/gear-item.server";
 import { listSites } from "~/models/site.server";
-import { hasAnyRole } from "~/roles";
-import { requireUser } from "~/session.server";
+import { hasAnyRole } from "~/utils/roles";
+import { requireUser } from "~/utils/session.server";
 
 const PAGE_SIZE = 50;
 

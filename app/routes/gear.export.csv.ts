@@ -1,8 +1,8 @@
 import type { Route } from "./+types/gear.export.csv";
-import { CSV_HEADERS, exportRow, toCsv } from "~/gear-csv";
-import { dueState, todayIso } from "~/gear-due";
+import { CSV_HEADERS, exportRow, toCsv } from "~/gear/csv";
+import { dueState, todayIso } from "~/gear/due";
 import { listAllGearItems } from "~/models/gear-item.server";
-import { requireUser } from "~/session.server";
+import { requireUser } from "~/utils/session.server";
 
 /** The whole register as CSV, in the format the import reads back (formula-looking cells neutralised). */
 export async function loader({ request }: Route.LoaderArgs) {

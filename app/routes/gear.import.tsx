@@ -2,11 +2,11 @@ import { data, useFetcher } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/gear.import";
 import { Button, Card, FormError, PageHeader } from "~/components/ui/form";
-import { CSV_HEADERS, MAX_IMPORT_BYTES, MAX_IMPORT_ROWS, READ_ONLY_COLUMNS, REQUIRED_HEADERS } from "~/gear-csv";
-import { confirmGearImport, stageGearImport, type ImportPreview } from "~/gear-import.server";
+import { CSV_HEADERS, MAX_IMPORT_BYTES, MAX_IMPORT_ROWS, READ_ONLY_COLUMNS, REQUIRED_HEADERS } from "~/gear/csv";
+import { confirmGearImport, stageGearImport, type ImportPreview } from "~/gear/import.server";
 import type { ImportCounts } from "~/models/gear-item.server";
-import { requireUserWithRole } from "~/session.server";
-import { readUploadForm, uploadedFile } from "~/uploads.server";
+import { requireUserWithRole } from "~/utils/session.server";
+import { readUploadForm, uploadedFile } from "~/utils/uploads.server";
 
 const confirmSchema = z.object({
   intent: z.literal("confirm"),

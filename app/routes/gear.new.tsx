@@ -2,11 +2,11 @@ import { data, redirect } from "react-router";
 import type { Route } from "./+types/gear.new";
 import { GearItemForm } from "~/components/gear-form";
 import { Card, PageHeader } from "~/components/ui/form";
-import { requireFormData } from "~/forms";
-import { parseGearItemForm } from "~/gear-form.server";
+import { requireFormData } from "~/utils/forms";
+import { parseGearItemForm } from "~/gear/form.server";
 import { createGearItem } from "~/models/gear-item.server";
 import { listSites } from "~/models/site.server";
-import { flashNotice, requireUserWithRole } from "~/session.server";
+import { flashNotice, requireUserWithRole } from "~/utils/session.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Add gear · Plumbline" }];
 

@@ -2,11 +2,11 @@ import { data, redirect } from "react-router";
 import type { Route } from "./+types/jobs.$jobId.edit";
 import { JobForm } from "~/components/job-form";
 import { Card, PageHeader } from "~/components/ui/form";
-import { requireFormData } from "~/forms";
-import { parseJobForm } from "~/job-form.server";
+import { requireFormData } from "~/utils/forms";
+import { parseJobForm } from "~/sites-and-jobs/job-form.server";
 import { getJob, updateJob } from "~/models/job.server";
 import { listSites } from "~/models/site.server";
-import { flashNotice, requireUserWithRole } from "~/session.server";
+import { flashNotice, requireUserWithRole } from "~/utils/session.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Edit job · Plumbline" }];
 

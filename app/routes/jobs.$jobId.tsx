@@ -3,9 +3,9 @@ import type { Route } from "./+types/jobs.$jobId";
 import { Card, EmptyState, PageHeader } from "~/components/ui/form";
 import { getJob } from "~/models/job.server";
 import { listPlans } from "~/models/plan.server";
-import { PLAN_STATUS_LABELS } from "~/plan-document";
-import { hasAnyRole } from "~/roles";
-import { requireUser } from "~/session.server";
+import { PLAN_STATUS_LABELS } from "~/plans/document";
+import { hasAnyRole } from "~/utils/roles";
+import { requireUser } from "~/utils/session.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.job.workOrder ?? "Job"} · Plumbline` }];
 

@@ -1,8 +1,8 @@
 import type { Route } from "./+types/jobs._index";
 import { EmptyState, PageHeader } from "~/components/ui/form";
 import { listJobs } from "~/models/job.server";
-import { hasAnyRole } from "~/roles";
-import { requireUser } from "~/session.server";
+import { hasAnyRole } from "~/utils/roles";
+import { requireUser } from "~/utils/session.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Jobs · Plumbline" }];
 

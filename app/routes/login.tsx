@@ -1,11 +1,11 @@
 import { data, Form, redirect, useNavigation, useSearchParams } from "react-router";
 import type { Route } from "./+types/login";
-import { authenticator, SignInError } from "~/auth.server";
+import { authenticator, SignInError } from "~/utils/auth.server";
 import { Button, Field, FormError } from "~/components/ui/form";
-import { requireFormData } from "~/forms";
+import { requireFormData } from "~/utils/forms";
 import { clearSignInFailures, startSignInAttempt } from "~/models/sign-in-attempt.server";
-import { clientAddressKey } from "~/security.server";
-import { createUserSession, getUser, safeRedirectPath } from "~/session.server";
+import { clientAddressKey } from "~/utils/security.server";
+import { createUserSession, getUser, safeRedirectPath } from "~/utils/session.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Sign in · Plumbline" }];
 

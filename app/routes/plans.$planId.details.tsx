@@ -3,12 +3,12 @@ import { data, Form, redirect } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/plans.$planId.details";
 import { Button, Card, FieldError, FormError, PageHeader } from "~/components/ui/form";
-import { requireFormData } from "~/forms";
+import { requireFormData } from "~/utils/forms";
 import { getPlan, savePlanRevision } from "~/models/plan.server";
-import { parseDetailsForm } from "~/plan-details-form";
-import { MAX_HAZARDS, MAX_PEOPLE, MAX_STEPS, PERSON_ROLE_LABELS, PERSON_ROLES, type PlanDetails } from "~/plan-document";
-import { flashNotice, requireUserWithRole } from "~/session.server";
-import { inputNumber, lengthUnitLabel, toDisplayLength } from "~/units-format";
+import { parseDetailsForm } from "~/plans/details-form";
+import { MAX_HAZARDS, MAX_PEOPLE, MAX_STEPS, PERSON_ROLE_LABELS, PERSON_ROLES, type PlanDetails } from "~/plans/document";
+import { flashNotice, requireUserWithRole } from "~/utils/session.server";
+import { inputNumber, lengthUnitLabel, toDisplayLength } from "~/utils/format";
 
 const versionSchema = z.coerce.number().int().positive();
 

@@ -3,13 +3,13 @@ import { data } from "react-router";
 import type { Route } from "./+types/plans.$planId.edit";
 import { PlanEditor } from "~/components/plan-editor";
 import { PageHeader } from "~/components/ui/form";
-import { gearPicksByIds } from "~/gear-picks.server";
+import { gearPicksByIds } from "~/gear/picks.server";
 import { listComponentFiles } from "~/models/component.server";
 import { getPlan } from "~/models/plan.server";
 import { getReferenceTables } from "~/models/reference-row.server";
-import { planJson } from "~/plan-api.server";
-import { PLAN_STATUS_LABELS, type PlanStatus, type RiggingAllocation } from "~/plan-document";
-import { requireUserWithRole } from "~/session.server";
+import { planJson } from "~/plans/api.server";
+import { PLAN_STATUS_LABELS, type PlanStatus, type RiggingAllocation } from "~/plans/document";
+import { requireUserWithRole } from "~/utils/session.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `Edit ${data?.plan.title ?? "lift plan"} · Plumbline` }];
 

@@ -3,7 +3,7 @@ import type { Route } from "./+types/plans.$planId.history";
 import { EmptyState, PageHeader } from "~/components/ui/form";
 import { getPlan } from "~/models/plan.server";
 import { listPlanHistory } from "~/models/plan-workflow.server";
-import { requireUser } from "~/session.server";
+import { requireUser } from "~/utils/session.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "History · Plumbline" }];
 

@@ -1,16 +1,16 @@
 import { data, Form, redirect } from "react-router";
 import type { Route } from "./+types/plans.$planId.lift";
 import { Button, Card, FormError, PageHeader } from "~/components/ui/form";
-import { gearPicksByIds } from "~/gear-picks.server";
+import { gearPicksByIds } from "~/gear/picks.server";
 import { getReferenceTables } from "~/models/reference-row.server";
 import { getWorkflowView, recordLift } from "~/models/plan-workflow.server";
-import { PRE_LIFT_CHECKLIST, type ChecklistId } from "~/plan-workflow";
+import { PRE_LIFT_CHECKLIST, type ChecklistId } from "~/plans/workflow";
 import { getPlan, planExists } from "~/models/plan.server";
-import { PERSON_ROLE_LABELS, PLAN_CAUTION, type RiggingAllocation } from "~/plan-document";
-import { GEAR_ROLE_LABELS } from "~/plan-rigging";
-import { flashNotice, requireUserWithRole } from "~/session.server";
-import { checkUpload, readUploadForm, type CheckedUpload } from "~/uploads.server";
-import { formatMass } from "~/units-format";
+import { PERSON_ROLE_LABELS, PLAN_CAUTION, type RiggingAllocation } from "~/plans/document";
+import { GEAR_ROLE_LABELS } from "~/plans/rigging";
+import { flashNotice, requireUserWithRole } from "~/utils/session.server";
+import { checkUpload, readUploadForm, type CheckedUpload } from "~/utils/uploads.server";
+import { formatMass } from "~/utils/format";
 
 export const meta: Route.MetaFunction = () => [{ title: "At the lift · Plumbline" }];
 

@@ -1,8 +1,8 @@
 import type { Route } from "./+types/plans.$planId.print.pdf";
 import { recordAudit } from "~/models/audit-event.server";
-import { buildPlanPdf } from "~/plan-pdf.server";
-import { buildPrintablePlan } from "~/printable-plan.server";
-import { requireUser } from "~/session.server";
+import { buildPlanPdf } from "~/plans/pdf.server";
+import { buildPrintablePlan } from "~/plans/printable.server";
+import { requireUser } from "~/utils/session.server";
 
 /** GET /plans/:planId/print.pdf: the current approved revision as a PDF; anything else is a 409 with a sentence. */
 export async function loader({ request, params }: Route.LoaderArgs) {

@@ -3,12 +3,12 @@ import { z } from "zod";
 import type { Route } from "./+types/plans.$planId.review";
 import { StatusBadge, utilisationText } from "~/components/live-results";
 import { Button, Card, Field, FormError, PageHeader, TextAreaField } from "~/components/ui/form";
-import { parseForm, requireFormData } from "~/forms";
+import { parseForm, requireFormData } from "~/utils/forms";
 import { getPlan, planExists } from "~/models/plan.server";
 import { approveRevision, getWorkflowView, returnRevision } from "~/models/plan-workflow.server";
-import { PLAN_CAUTION, PLAN_STATUS_LABELS } from "~/plan-document";
-import { flashNotice, requireUserWithRole } from "~/session.server";
-import { formatLength, formatMass } from "~/units-format";
+import { PLAN_CAUTION, PLAN_STATUS_LABELS } from "~/plans/document";
+import { flashNotice, requireUserWithRole } from "~/utils/session.server";
+import { formatLength, formatMass } from "~/utils/format";
 
 const schema = z.discriminatedUnion("intent", [
   z.object({

@@ -2,11 +2,11 @@ import { data, Form, redirect } from "react-router";
 import type { Route } from "./+types/plans.$planId.submit";
 import { StatusBadge, utilisationText } from "~/components/live-results";
 import { Button, Card, FormError, PageHeader } from "~/components/ui/form";
-import { requireFormData } from "~/forms";
+import { requireFormData } from "~/utils/forms";
 import { getPlan } from "~/models/plan.server";
 import { submitRevision } from "~/models/plan-workflow.server";
-import { PLAN_CAUTION } from "~/plan-document";
-import { flashNotice, requireUserWithRole } from "~/session.server";
+import { PLAN_CAUTION } from "~/plans/document";
+import { flashNotice, requireUserWithRole } from "~/utils/session.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Submit for review · Plumbline" }];
 

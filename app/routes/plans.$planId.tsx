@@ -3,18 +3,18 @@ import { z } from "zod";
 import type { Route } from "./+types/plans.$planId";
 import { ComponentViews } from "~/components/component-views";
 import { Button, Card, EmptyState, FormError, PageHeader } from "~/components/ui/form";
-import { COG_SOURCE_LABELS, MASS_SOURCE_LABELS } from "~/component-definition";
-import { parseForm, requireFormData } from "~/forms";
+import { COG_SOURCE_LABELS, MASS_SOURCE_LABELS } from "~/loads/component-definition";
+import { parseForm, requireFormData } from "~/utils/forms";
 import { compareWithComponent, EDITABLE_STATUSES, getPlan, pullComponentVersion } from "~/models/plan.server";
 import { assignRigger, cancelPlan, getWorkflowView, startNewRevision } from "~/models/plan-workflow.server";
 import { listUsersWithRole } from "~/models/user.server";
 import { WorkflowPanel } from "~/components/plan-workflow-panel";
-import { HITCH_LABELS, PERSON_ROLE_LABELS, PLAN_CAUTION, PLAN_STATUS_LABELS, type PlanResults } from "~/plan-document";
-import { hasAnyRole } from "~/roles";
-import { flashNotice, requireUser, requireUserWithRole } from "~/session.server";
+import { HITCH_LABELS, PERSON_ROLE_LABELS, PLAN_CAUTION, PLAN_STATUS_LABELS, type PlanResults } from "~/plans/document";
+import { hasAnyRole } from "~/utils/roles";
+import { flashNotice, requireUser, requireUserWithRole } from "~/utils/session.server";
 import type { CheckStatus } from "~/statics/checks";
 import { ceilTo } from "~/statics/units";
-import { formatLength, formatMass, type Units } from "~/units-format";
+import { formatLength, formatMass, type Units } from "~/utils/format";
 
 const schema = z.discriminatedUnion("intent", [
   z.object({ intent: z.literal("pull-component"), version: z.coerce.number().int().positive() }),

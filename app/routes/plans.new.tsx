@@ -2,12 +2,12 @@ import { data, Form, redirect } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/plans.new";
 import { Button, Card, EmptyState, Field, FormError, PageHeader, SelectField } from "~/components/ui/form";
-import { parseForm, requiredText, requireFormData } from "~/forms";
+import { parseForm, requiredText, requireFormData } from "~/utils/forms";
 import { listComponents } from "~/models/component.server";
 import { listJobs } from "~/models/job.server";
 import { createPlanFromComponent } from "~/models/plan.server";
-import { MAX_TITLE } from "~/plan-document";
-import { flashNotice, requireUserWithRole } from "~/session.server";
+import { MAX_TITLE } from "~/plans/document";
+import { flashNotice, requireUserWithRole } from "~/utils/session.server";
 
 const schema = z.object({
   jobId: z.coerce.number({ error: "Choose the job." }).int("Choose the job.").positive("Choose the job."),

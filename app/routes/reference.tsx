@@ -1,7 +1,7 @@
 import type { Route } from "./+types/reference";
 import { Card, PageHeader } from "~/components/ui/form";
 import { getReferenceTables } from "~/models/reference-row.server";
-import { requireUser } from "~/session.server";
+import { requireUser } from "~/utils/session.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Reference tables · Plumbline" }];
 

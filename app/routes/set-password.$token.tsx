@@ -2,9 +2,9 @@ import { data, Form, redirect } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/set-password.$token";
 import { Button, Field, FormError } from "~/components/ui/form";
-import { newPasswordSchema, parseForm, requireFormData } from "~/forms";
+import { newPasswordSchema, parseForm, requireFormData } from "~/utils/forms";
 import { findUsableToken, redeemPasswordToken } from "~/models/password-token.server";
-import { flashNotice } from "~/session.server";
+import { flashNotice } from "~/utils/session.server";
 
 const schema = z
   .object({ password: newPasswordSchema, confirm: z.string({ error: "Repeat the password." }) })

@@ -2,10 +2,10 @@ import { data, Form, redirect } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/settings";
 import { Button, Card, Field, FormError, PageHeader, SelectField } from "~/components/ui/form";
-import { newPasswordSchema, parseForm, requireFormData } from "~/forms";
+import { newPasswordSchema, parseForm, requireFormData } from "~/utils/forms";
 import { setPassword, setUnits, verifyPassword } from "~/models/user.server";
-import { ROLE_DUTIES, ROLE_LABELS } from "~/roles";
-import { flashNotice, requireUser } from "~/session.server";
+import { ROLE_DUTIES, ROLE_LABELS } from "~/utils/roles";
+import { flashNotice, requireUser } from "~/utils/session.server";
 
 const schema = z.discriminatedUnion("intent", [
   z.object({ intent: z.literal("units"), units: z.enum(["metric", "imperial"], { error: "Choose metric or imperial." }) }),

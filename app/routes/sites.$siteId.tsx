@@ -2,11 +2,11 @@ import { data, redirect } from "react-router";
 import type { Route } from "./+types/sites.$siteId";
 import { SiteForm } from "~/components/site-form";
 import { Card, EmptyState, PageHeader } from "~/components/ui/form";
-import { parseForm, requireFormData } from "~/forms";
+import { parseForm, requireFormData } from "~/utils/forms";
 import { listJobs } from "~/models/job.server";
 import { getSite, updateSite } from "~/models/site.server";
-import { flashNotice, requireUserWithRole } from "~/session.server";
-import { siteSchema } from "~/site-schema";
+import { flashNotice, requireUserWithRole } from "~/utils/session.server";
+import { siteSchema } from "~/sites-and-jobs/site-schema";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.site.name ?? "Site"} · Plumbline` }];
 

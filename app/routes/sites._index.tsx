@@ -1,7 +1,7 @@
 import type { Route } from "./+types/sites._index";
 import { EmptyState, PageHeader } from "~/components/ui/form";
 import { listSites } from "~/models/site.server";
-import { requireUserWithRole } from "~/session.server";
+import { requireUserWithRole } from "~/utils/session.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Sites · Plumbline" }];
 

@@ -2,10 +2,10 @@ import { data, redirect } from "react-router";
 import type { Route } from "./+types/sites.new";
 import { SiteForm } from "~/components/site-form";
 import { Card, PageHeader } from "~/components/ui/form";
-import { parseForm, requireFormData } from "~/forms";
+import { parseForm, requireFormData } from "~/utils/forms";
 import { createSite } from "~/models/site.server";
-import { flashNotice, requireUserWithRole } from "~/session.server";
-import { siteSchema } from "~/site-schema";
+import { flashNotice, requireUserWithRole } from "~/utils/session.server";
+import { siteSchema } from "~/sites-and-jobs/site-schema";
 
 export const meta: Route.MetaFunction = () => [{ title: "Add a site · Plumbline" }];
 

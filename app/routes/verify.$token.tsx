@@ -1,6 +1,6 @@
 import type { Route } from "./+types/verify.$token";
 import { findRevisionByVerifyToken } from "~/models/plan-workflow.server";
-import { getUser } from "~/session.server";
+import { getUser } from "~/utils/session.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Check a printed lift plan · Plumbline" }, { name: "robots", content: "noindex" }];
 

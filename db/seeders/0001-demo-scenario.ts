@@ -2,7 +2,7 @@ import { Organisation } from "~/models/organisation.server";
 import { createUser, findUserByEmail } from "~/models/user.server";
 import { createJob } from "~/models/job.server";
 import { createSite } from "~/models/site.server";
-import type { Role } from "~/roles";
+import type { Role } from "~/utils/roles";
 
 /** The password of every demo account. */
 export const DEMO_PASSWORD = "plumbline-demo";

@@ -1,7 +1,7 @@
 // The invented demo company's gear register. Dates are relative to the day of seeding, so the
 // demo always shows items in date, due within 30 days, one overdue, one quarantined and one withdrawn.
-import { addDays, addMonths, examinationIntervalMonths, todayIso } from "~/gear-due";
-import { BLANK_GEAR_FIELDS, type GearItemInput } from "~/gear-schema";
+import { addDays, addMonths, examinationIntervalMonths, todayIso } from "~/gear/due";
+import { BLANK_GEAR_FIELDS, type GearItemInput } from "~/gear/schema";
 import { recordExamination } from "~/models/examination.server";
 import { changeGearStatus, createGearItem, GearItem, reportGearDefect } from "~/models/gear-item.server";
 import { listSites } from "~/models/site.server";

@@ -1,4 +1,4 @@
-import { rectangleOutlines, type ComponentDefinition } from "~/component-definition";
+import { rectangleOutlines, type ComponentDefinition } from "~/loads/component-definition";
 import { Component, createComponent } from "~/models/component.server";
 import { findUserByEmail } from "~/models/user.server";
 import { compositeMassAndCog } from "~/statics/composite";

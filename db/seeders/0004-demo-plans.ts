@@ -6,8 +6,8 @@ import { GearItem } from "~/models/gear-item.server";
 import { Job } from "~/models/job.server";
 import { createPlanFromComponent, getPlan, Plan, savePlanRevision } from "~/models/plan.server";
 import { findUserByEmail } from "~/models/user.server";
-import type { GearKind } from "~/gear-kinds";
-import { defaultDetails, type PlanDetails, type RiggingAllocation } from "~/plan-document";
+import type { GearKind } from "~/gear/kinds";
+import { defaultDetails, type PlanDetails, type RiggingAllocation } from "~/plans/document";
 
 type DemoPlan = {
   workOrder: string;

@@ -3,10 +3,10 @@
 // with one examination each. Rows are checked with the gear form's own schema and written in bulk.
 // Run: DATABASE_PATH=... PLUMBLINE_ENV=demo tsx tests/bench/load-seed.ts 10000 5000 (after db/cli.ts setup)
 import { randomBytes } from "node:crypto";
-import { sequelize } from "~/db.server";
-import { addDays, addMonths, examinationIntervalMonths, todayIso } from "~/gear-due";
-import { gearItemSchema } from "~/gear-schema";
-import type { GearKind } from "~/gear-kinds";
+import { sequelize } from "~/utils/db.server";
+import { addDays, addMonths, examinationIntervalMonths, todayIso } from "~/gear/due";
+import { gearItemSchema } from "~/gear/schema";
+import type { GearKind } from "~/gear/kinds";
 import { Examination } from "~/models/examination.server";
 import { GearItem } from "~/models/gear-item.server";
 import { Plan, PlanRevision } from "~/models/plan.server";

@@ -1,4 +1,4 @@
-// The production server (app/serve.server.ts) as `npm start` runs it: the build's files with their
+// The production server (app/utils/serve.server.ts) as `npm start` runs it: the build's files with their
 // headers, page paths never looked up on disk, a worker that dies replaced, a misconfigured start
 // refused with its reason, and SIGTERM stopping every process.
 import { spawn, spawnSync } from "node:child_process";
@@ -107,7 +107,7 @@ describe("worker processes", () => {
       const port = await freePort();
       const env: NodeJS.ProcessEnv = { ...process.env, NODE_ENV: "production", PORT: String(port), HOST: "127.0.0.1", DATABASE_PATH: path.join(dir, "db.sqlite"), WEB_CONCURRENCY: "2" };
       for (const name of ["PLUMBLINE_ENV", "SESSION_SECRET", "SMTP_URL", "PUBLIC_URL"]) delete env[name];
-      const child = spawn(process.execPath, ["--import", "tsx", "app/serve.server.ts", "build/server/index.js"], { env, stdio: ["ignore", "pipe", "pipe"] });
+      const child = spawn(process.execPath, ["--import", "tsx", "app/utils/serve.server.ts", "build/server/index.js"], { env, stdio: ["ignore", "pipe", "pipe"] });
       let output = "";
       child.stdout.on("data", (d) => (output += d));
       child.stderr.on("data", (d) => (output += d));

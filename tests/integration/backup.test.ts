@@ -4,7 +4,7 @@ import os from "node:os";
 import path from "node:path";
 import sqlite3 from "sqlite3";
 import { afterAll, describe, expect, it } from "vitest";
-import { sequelize } from "~/db.server";
+import { sequelize } from "~/utils/db.server";
 import { Organisation } from "~/models/organisation.server";
 import { backupDatabase, checkPlumblineDatabase, defaultBackupPath, restoreDatabase } from "../../db/backup";
 

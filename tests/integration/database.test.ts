@@ -1,9 +1,9 @@
-// The connection layer of app/db.server.ts: Sequelize's per-SELECT `PRAGMA table_info` is answered from a
+// The connection layer of app/utils/db.server.ts: Sequelize's per-SELECT `PRAGMA table_info` is answered from a
 // cache that a schema change clears, so reads stay right after a migration and cost one statement otherwise.
 import { DataTypes, Model, type Sequelize } from "sequelize";
 import type sqlite3 from "sqlite3";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { sequelize } from "~/db.server";
+import { sequelize } from "~/utils/db.server";
 
 class Probe extends Model {
   declare id: number;

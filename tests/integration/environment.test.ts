@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { DEV_SESSION_SECRET, parseEnvironment } from "~/env.server";
+import { DEV_SESSION_SECRET, parseEnvironment } from "~/utils/env.server";
 
 const productionBase = {
   NODE_ENV: "production",

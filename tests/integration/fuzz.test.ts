@@ -36,10 +36,10 @@ import * as setPassword from "~/routes/set-password.$token";
 import * as settings from "~/routes/settings";
 import * as siteEdit from "~/routes/sites.$siteId";
 import * as siteNew from "~/routes/sites.new";
-import { sequelize } from "~/db.server";
-import { env } from "~/env.server";
-import { sendMail } from "~/mail.server";
-import { stageGearImport } from "~/gear-import.server";
+import { sequelize } from "~/utils/db.server";
+import { env } from "~/utils/env.server";
+import { sendMail } from "~/utils/mail.server";
+import { stageGearImport } from "~/gear/import.server";
 import { addComponentFile, Component, createComponent } from "~/models/component.server";
 import { GearItem } from "~/models/gear-item.server";
 import { createJob } from "~/models/job.server";
@@ -48,9 +48,9 @@ import { approveRevision, LiftRecord, LiftRecordPhoto, submitRevision } from "~/
 import { getPlan, PlanRevision } from "~/models/plan.server";
 import { createSite } from "~/models/site.server";
 import type { SessionUser } from "~/models/user.server";
-import { PRE_LIFT_CHECKLIST } from "~/plan-workflow";
-import { sessionStorage } from "~/session.server";
-import { checkUpload } from "~/uploads.server";
+import { PRE_LIFT_CHECKLIST } from "~/plans/workflow";
+import { sessionStorage } from "~/utils/session.server";
+import { checkUpload } from "~/utils/uploads.server";
 import { callRoute, makeUser, sessionCookie, TEST_PASSWORD } from "../support/factories";
 import { componentFields } from "../support/component-fields";
 import { ELF_BYTES, makeGearItem, MZ_BYTES, PDF_BYTES, PNG_BYTES, SHACKLE_FIELDS } from "../support/gear";
@@ -58,7 +58,7 @@ import { twoPointElement } from "../support/plans";
 import { readyPlan } from "../support/workflow";
 
 // Mail is counted, not delivered: a refusal must send none, and a success need not pay for SMTP.
-vi.mock("~/mail.server", async (importOriginal) => ({ ...(await importOriginal<typeof import("~/mail.server")>()), sendMail: vi.fn(async () => undefined) }));
+vi.mock("~/utils/mail.server", async (importOriginal) => ({ ...(await importOriginal<typeof import("~/utils/mail.server")>()), sendMail: vi.fn(async () => undefined) }));
 
 // The signed-in user is looked up once and kept until a form that changes users succeeds: a refusal
 // writes nothing (the property checks it), so the user cannot have changed meanwhile. Saves a query a run.

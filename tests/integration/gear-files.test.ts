@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import * as filePage from "~/routes/files.$fileId";
 import { StoredFile } from "~/models/stored-file.server";
-import { checkUpload, contentDisposition, readUploadForm, transactionWithFiles } from "~/uploads.server";
+import { checkUpload, contentDisposition, readUploadForm, transactionWithFiles } from "~/utils/uploads.server";
 import { callRoute, getRequest, makeUser } from "../support/factories";
 import { ELF_BYTES, PDF_BYTES, PNG_BYTES, postMultipart } from "../support/gear";
 
@@ -77,7 +77,7 @@ describe("upload handling", () => {
       }),
     ).rejects.toThrow("later step failed");
     expect(await StoredFile.count()).toBe(before);
-    const { readStoredBytes } = await import("~/uploads.server");
+    const { readStoredBytes } = await import("~/utils/uploads.server");
     expect(await readStoredBytes({ storageKey: key })).toBeNull();
   });
 

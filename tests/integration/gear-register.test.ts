@@ -6,7 +6,7 @@ import * as editItem from "~/routes/gear.$itemId.edit";
 import { AuditEvent } from "~/models/audit-event.server";
 import { Examination } from "~/models/examination.server";
 import { GearItem } from "~/models/gear-item.server";
-import { addDays, todayIso } from "~/gear-due";
+import { addDays, todayIso } from "~/gear/due";
 import { callRoute, getRequest, makeUser, postForm } from "../support/factories";
 import { adminWithSite, makeGearItem, SHACKLE_FIELDS } from "../support/gear";
 

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
-import { addDays } from "~/gear-due";
+import { addDays } from "~/gear/due";
 import { CaughtMail, listCaughtMail } from "~/models/caught-mail.server";
-import { sendExaminationReminders } from "~/reminders.server";
+import { sendExaminationReminders } from "~/gear/reminders.server";
 import { makeUser } from "../support/factories";
 import { adminWithSite, makeGearItem } from "../support/gear";
 

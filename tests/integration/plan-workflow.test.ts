@@ -13,7 +13,7 @@ import {
   startNewRevision,
   submitRevision,
 } from "~/models/plan-workflow.server";
-import { PRE_LIFT_CHECKLIST } from "~/plan-workflow";
+import { PRE_LIFT_CHECKLIST } from "~/plans/workflow";
 import { makeUser, TEST_PASSWORD } from "../support/factories";
 import { makePlan } from "../support/plans";
 import { allowSelfApproval, readyPlan } from "../support/workflow";

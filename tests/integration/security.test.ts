@@ -1,7 +1,7 @@
 import { afterEach, beforeAll, describe, expect, it, vi } from "vitest";
 import * as forgotPassword from "~/routes/forgot-password";
 import * as login from "~/routes/login";
-import { env } from "~/env.server";
+import { env } from "~/utils/env.server";
 import { getOrganisation } from "~/models/organisation.server";
 import { Plan, PlanRevision } from "~/models/plan.server";
 import {
@@ -14,8 +14,8 @@ import {
   startPasswordResetRequest,
   startSignInAttempt,
 } from "~/models/sign-in-attempt.server";
-import { addressKeyOf, clientAddressKey, isCrossSiteMutation, securityHeaders } from "~/security.server";
-import { checkUpload, transactionWithFiles } from "~/uploads.server";
+import { addressKeyOf, clientAddressKey, isCrossSiteMutation, securityHeaders } from "~/utils/security.server";
+import { checkUpload, transactionWithFiles } from "~/utils/uploads.server";
 import { createAppHandler } from "../support/app-handler";
 import { callRoute, makeUser, postForm, sessionCookie, TEST_PASSWORD } from "../support/factories";
 import { PNG_BYTES } from "../support/gear";

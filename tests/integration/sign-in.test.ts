@@ -5,7 +5,7 @@ import * as adminHome from "~/routes/admin._index";
 import * as dashboard from "~/routes/_index";
 import * as ping from "~/routes/api.ping";
 import { setUserActive } from "~/models/user.server";
-import { getUser, safeRedirectPath } from "~/session.server";
+import { getUser, safeRedirectPath } from "~/utils/session.server";
 import { callRoute, getRequest, makeUser, postForm, TEST_PASSWORD } from "../support/factories";
 
 describe("signing in", () => {

@@ -1,6 +1,6 @@
 // The whole app as React Router serves it, in the test process: every route of app/routes.ts under root.tsx,
 // the custom entry.server.tsx and the future flags of react-router.config.ts, so a Request goes through the
-// root middleware, React Router's own checks and the document render, as it does under the production server (app/serve.server.ts).
+// root middleware, React Router's own checks and the document render, as it does under the production server (app/utils/serve.server.ts).
 import path from "node:path";
 import type { RouteConfigEntry } from "@react-router/dev/routes";
 import {

@@ -61,7 +61,7 @@ export async function startBuiltServer(options: StartOptions = {}): Promise<Buil
   }
   options.prepare?.(env);
   const port = await freePort();
-  const child = spawn(process.execPath, ["--import", "tsx", "app/serve.server.ts", "build/server/index.js"], {
+  const child = spawn(process.execPath, ["--import", "tsx", "app/utils/serve.server.ts", "build/server/index.js"], {
     env: { ...env, PORT: String(port) },
     stdio: ["ignore", "pipe", "pipe"],
   });

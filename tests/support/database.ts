@@ -11,7 +11,7 @@ process.env.UPLOAD_DIR = path.join(os.tmpdir(), `plumbline-uploads-${randomUUID(
 globalThis.__plumblineSequelize = undefined;
 globalThis.__plumblineMail = undefined;
 
-const { sequelize } = await import("~/db.server");
+const { sequelize } = await import("~/utils/db.server");
 const { createMigrator } = await import("../../db/umzug");
 await createMigrator(sequelize).up();
 

@@ -1,8 +1,8 @@
 import { randomUUID } from "node:crypto";
 import { Organisation } from "~/models/organisation.server";
 import { createUser, getActiveSessionUser, type SessionUser } from "~/models/user.server";
-import type { Role } from "~/roles";
-import { sessionStorage } from "~/session.server";
+import type { Role } from "~/utils/roles";
+import { sessionStorage } from "~/utils/session.server";
 
 export const TEST_PASSWORD = "correct horse battery";
 

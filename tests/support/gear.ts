@@ -2,7 +2,7 @@
 import { createGearItem } from "~/models/gear-item.server";
 import { createSite } from "~/models/site.server";
 import type { SessionUser } from "~/models/user.server";
-import { BLANK_GEAR_FIELDS, type GearItemInput } from "~/gear-schema";
+import { BLANK_GEAR_FIELDS, type GearItemInput } from "~/gear/schema";
 import { makeUser, sessionCookie } from "./factories";
 
 const BASE = "http://localhost:3000";

@@ -1,12 +1,12 @@
 // Helpers for the plan tests: a job, a component and a plan made through the routes' own queries.
-import { rectangleOutlines, type ComponentDefinition } from "~/component-definition";
+import { rectangleOutlines, type ComponentDefinition } from "~/loads/component-definition";
 import { createComponent } from "~/models/component.server";
 import { GearItem } from "~/models/gear-item.server";
 import { createJob } from "~/models/job.server";
 import { createPlanFromComponent } from "~/models/plan.server";
 import { createSite } from "~/models/site.server";
 import type { SessionUser } from "~/models/user.server";
-import type { GearKind } from "~/gear-kinds";
+import type { GearKind } from "~/gear/kinds";
 import { sessionCookie } from "./factories";
 import { BLANK_GEAR_FIELDS } from "./gear";
 

@@ -1,8 +1,8 @@
 // Printable plans for the PDF tests and the PDF benchmark, built from a real statics solve of an
 // invented scenario (invented organisation, site, people and gear).
-import type { ComponentDefinition } from "~/component-definition";
-import { defaultSequence, type PlanResultsBody } from "~/plan-document";
-import type { PrintablePlan, PrintableScheduleRow } from "~/printable-plan";
+import type { ComponentDefinition } from "~/loads/component-definition";
+import { defaultSequence, type PlanResultsBody } from "~/plans/document";
+import type { PrintablePlan, PrintableScheduleRow } from "~/plans/printable";
 import { handleSolve, type SolveBody } from "~/statics/api";
 import { REFERENCE_TABLES } from "../../db/seeders/reference-data";
 

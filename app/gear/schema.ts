@@ -1,0 +1,193 @@
+import { z } from "zod";
+import { isIsoDate } from "~/gear/due";
+import {
+  CHAIN_GRADES,
+  EYEBOLT_FAMILIES,
+  GEAR_KIND_INFO,
+  GEAR_KINDS,
+  GEAR_STATUSES,
+  PIN_TYPES,
+  SHACKLE_TYPES,
+  SPEC_FIELD_LABELS,
+  SPEC_FIELDS,
+  WLL_UNITS,
+  type GearKind,
+  type GearStatus,
+  type SpecField,
+} from "~/gear/kinds";
+import type { MassUnit } from "~/statics/units";
+
+const trimmed = (v: unknown) => (typeof v === "string" ? v.trim() : v == null ? "" : v);
+const blankToNull = (v: unknown) => {
+  const t = trimmed(v);
+  return t === "" ? null : t;
+};
+
+const text = (max: number) => z.preprocess(trimmed, z.string().max(max, `At most ${max} characters.`));
+
+function optionalNumber(label: string, { min, max, integer = false }: { min: number; max: number; integer?: boolean }) {
+  return z.preprocess(
+    (v) => {
+      const t = blankToNull(v);
+      return typeof t === "string" ? Number(t.replace(/,/g, "")) : t;
+    },
+    z
+      .number({ error: `Enter the ${label} as a number.` })
+      .refine((n) => Number.isFinite(n), `Enter the ${label} as a number.`)
+      .refine((n) => !integer || Number.isInteger(n), `The ${label} must be a whole number.`)
+      .refine((n) => n >= min && n <= max, `The ${label} must be from ${min} to ${max}.`)
+      .nullable(),
+  );
+}
+
+function optionalChoice<T extends readonly [string, ...string[]]>(label: string, values: T) {
+  return z.preprocess(
+    (v) => {
+      const t = blankToNull(v);
+      return typeof t === "string" ? t.toLowerCase() : t;
+    },
+    z.enum(values, { error: `Choose the ${label}: ${values.join(", ")}.` }).nullable(),
+  );
+}
+
+function withArticle(noun: string) {
+  return `${/^[aeiou]/.test(noun) ? "an" : "a"} ${noun}`;
+}
+
+/** An organisation's own id marked on the item: letters, digits and a few separators. */
+export const itemCodeSchema = z.preprocess(
+  trimmed,
+  z
+    .string()
+    .min(1, "Enter the item's id as marked on it.")
+    .max(40, "The item id can be at most 40 characters.")
+    .regex(/^[A-Za-z0-9][A-Za-z0-9 ._/-]*$/, "Use letters, digits, spaces and . _ / - in the item id (starting with a letter or digit)."),
+);
+
+const specShape = {
+  thread: z.preprocess(blankToNull, z.string().max(20, "At most 20 characters.").nullable()),
+  eyeboltFamily: optionalChoice("eyebolt type", EYEBOLT_FAMILIES),
+  shackleType: optionalChoice("shackle shape", SHACKLE_TYPES),
+  pinType: optionalChoice("pin type", PIN_TYPES),
+  chainGrade: z.preprocess(
+    (v) => {
+      const t = blankToNull(v);
+      return typeof t === "string" ? Number(t) : t;
+    },
+    z
+      .number({ error: `Give the chain grade as ${CHAIN_GRADES.join(" or ")}.` })
+      .refine((n) => (CHAIN_GRADES as readonly number[]).includes(n), `Give the chain grade as ${CHAIN_GRADES.join(" or ")}.`)
+      .nullable(),
+  ),
+  diameterMm: optionalNumber("diameter", { min: 1, max: 500 }),
+  legs: optionalNumber("number of legs", { min: 1, max: 4, integer: true }),
+  lengthM: optionalNumber("length", { min: 0.05, max: 200 }),
+  hookHeightM: optionalNumber("hook height", { min: 0.5, max: 200 }),
+  beamMassKg: optionalNumber("beam mass", { min: 0.1, max: 100_000 }),
+} satisfies Record<SpecField, z.ZodType>;
+
+/** The fields of a gear item as a form or a CSV row gives them (strings), checked against its kind. */
+export const gearItemSchema = z
+  .object({
+    itemCode: itemCodeSchema,
+    kind: z.preprocess(
+      (v) => (typeof v === "string" ? v.trim().toLowerCase().replace(/[\s-]+/g, "_") : v),
+      z.enum(GEAR_KINDS, { error: `Choose the kind of item (${GEAR_KINDS.join(", ")}).` }),
+    ),
+    description: text(300),
+    manufacturer: text(120),
+    serial: text(80),
+    wllValue: z.preprocess(
+      (v) => {
+        const t = blankToNull(v);
+        return typeof t === "string" ? Number(t.replace(/,/g, "")) : t;
+      },
+      z
+        .number({ error: "Enter the WLL marked on the item, as a number." })
+        .refine((n) => Number.isFinite(n), "Enter the WLL marked on the item, as a number.")
+        .refine((n) => n > 0, "The WLL must be more than zero.")
+        .refine((n) => n <= 1_000_000, "That WLL is beyond anything the register holds; check the figure and its unit."),
+    ),
+    wllUnit: z.preprocess(
+      (v) => {
+        const t = trimmed(v);
+        return t === "US ton" || t === "short ton" || t === "shortton" ? "shortTon" : t;
+      },
+      z.enum(WLL_UNITS, { error: "Choose the WLL's unit as marked: kg, t, lb or shortTon." }),
+    ),
+    ...specShape,
+  })
+  .superRefine((item, ctx) => {
+    const info = GEAR_KIND_INFO[item.kind];
+    const what = withArticle(info.label.toLowerCase());
+    for (const field of SPEC_FIELDS) {
+      const present = item[field] !== null;
+      if (present && !info.fields.includes(field)) {
+        ctx.addIssue({ code: "custom", path: [field], message: `${SPEC_FIELD_LABELS[field]} does not apply to ${what}; leave it empty.` });
+      } else if (!present && info.required.includes(field)) {
+        ctx.addIssue({ code: "custom", path: [field], message: `Enter the ${SPEC_FIELD_LABELS[field].replace(/ \(.*\)$/, "").toLowerCase()} for ${what}.` });
+      }
+    }
+  });
+
+export type GearItemFields = z.output<typeof gearItemSchema>;
+
+/** A gear item as the model stores it: the checked fields and the home site. */
+export type GearItemInput = GearItemFields & { homeSiteId: number | null };
+
+export type GearSpec = Pick<GearItemFields, SpecField> & { kind: GearKind; wllUnit: MassUnit };
+
+const isoDate = (label: string) =>
+  z.preprocess(trimmed, z.string().refine(isIsoDate, `Give the ${label} as a date (YYYY-MM-DD).`));
+
+/** A thorough examination as the form gives it; the next due date may be left empty for the default. */
+export const examinationSchema = z
+  .object({
+    examinedOn: isoDate("examination date"),
+    examiner: z.preprocess(
+      trimmed,
+      z.string().min(1, "Enter the competent person who examined the item.").max(200, "At most 200 characters."),
+    ),
+    result: z.enum(["pass", "fail"], { error: "Choose pass or fail." }),
+    defects: text(4000),
+    nextDueOn: z.preprocess(blankToNull, z.string().refine(isIsoDate, "Give the next due date as a date (YYYY-MM-DD).").nullable()),
+  })
+  .superRefine((exam, ctx) => {
+    if (exam.result === "fail" && !exam.defects) {
+      ctx.addIssue({ code: "custom", path: ["defects"], message: "A failed examination needs the defects found." });
+    }
+    if (exam.nextDueOn && exam.nextDueOn <= exam.examinedOn) {
+      ctx.addIssue({ code: "custom", path: ["nextDueOn"], message: "The next examination must fall after this one." });
+    }
+  });
+
+export type ExaminationFields = z.output<typeof examinationSchema>;
+
+export const statusChangeSchema = z.object({
+  status: z.enum(GEAR_STATUSES, { error: "Choose in service, quarantined or withdrawn." }),
+  reason: z.preprocess(trimmed, z.string().min(1, "Give the reason for the change; it goes in the item's history.").max(1000, "At most 1000 characters.")),
+});
+
+export const defectReportSchema = z.object({
+  defect: z.preprocess(trimmed, z.string().min(3, "Describe the defect you found.").max(2000, "At most 2000 characters.")),
+});
+
+export type { GearStatus };
+
+/** Every optional field of a register item, empty: spread it and set what the test needs. */
+export const BLANK_GEAR_FIELDS: Omit<GearItemInput, "itemCode" | "kind" | "wllValue" | "wllUnit"> = {
+  description: "",
+  manufacturer: "",
+  serial: "",
+  thread: null,
+  eyeboltFamily: null,
+  shackleType: null,
+  pinType: null,
+  chainGrade: null,
+  diameterMm: null,
+  legs: null,
+  lengthM: null,
+  hookHeightM: null,
+  beamMassKg: null,
+  homeSiteId: null,
+};

@@ -1,0 +1,81 @@
+import { describe, expect, it } from "vitest";
+import { componentFields } from "../../tests/support/component-fields";
+import { indexedRows, parseComponentForm, parsePolygon } from "~/loads/component-input";
+
+function form(fields: Record<string, string>) {
+  const fd = new FormData();
+  for (const [k, v] of Object.entries(fields)) fd.append(k, v);
+  return fd;
+}
+
+describe("the component form", () => {
+  it("turns millimetres and kilograms into SI and normalises threads", () => {
+    const result = parseComponentForm(form(componentFields()), "metric");
+    expect(result.ok).toBe(true);
+    if (!result.ok) return;
+    expect(result.data.massKg).toBe(2000);
+    expect(result.data.lengthM).toBeCloseTo(1.6, 12);
+    expect(result.data.cog.z).toBeCloseTo(0.4, 12);
+    expect(result.data.liftPoints.map((p) => [p.label, p.position.x, p.thread, p.engagementMm])).toEqual([
+      ["A", -0.8, "M20", 30],
+      ["B", 0.2, "M20", null],
+    ]);
+    expect(result.data.outlineElevation).toEqual([[-0.8, 0], [0.8, 0], [0.8, 0.9], [-0.8, 0.9]]);
+  });
+
+  it("reads inches and pounds for an imperial user (1 in = 25.4 mm, 1 lb = 0.45359237 kg, exact)", () => {
+    const result = parseComponentForm(
+      form(componentFields({ mass: "1000", length: "60", width: "30", height: "36", cogZ: "18", "lp-0-x": "-30", "lp-0-z": "36", "lp-1-x": "10", "lp-1-z": "36", "lp-0-engagement": "1" })),
+      "imperial",
+    );
+    expect(result.ok).toBe(true);
+    if (!result.ok) return;
+    expect(result.data.massKg).toBeCloseTo(453.59237, 9);
+    expect(result.data.lengthM).toBeCloseTo(1.524, 12);
+    expect(result.data.liftPoints[0]!.engagementMm).toBeCloseTo(25.4, 9);
+  });
+
+  it("refuses control characters in lift point ids, threads and part names, which the multi-row insert cannot store", () => {
+    const result = parseComponentForm(
+      form(componentFields({ "lp-1-label": "B\u0000", "lp-0-thread": "M20\u001b", "part-0-name": "Motor\u0000", "part-0-mass": "100", "part-0-x": "0", "part-0-y": "0", "part-0-z": "400" })),
+      "metric",
+    );
+    const message = "Remove the control character (an invisible one, such as NUL) from this field.";
+    expect(result).toEqual({ ok: false, errors: { "lp-0-thread": [message], "lp-1-label": [message], "part-0-name": [message] } });
+  });
+
+  it("an estimated mass must carry a contingency", () => {
+    const result = parseComponentForm(form(componentFields({ massSource: "estimated", contingencyPct: "0" })), "metric");
+    expect(result).toEqual({ ok: false, errors: { contingencyPct: ["An estimated mass must carry a contingency above 0 %."] } });
+  });
+
+  it("names each bad field", () => {
+    const result = parseComponentForm(
+      form(componentFields({ mass: "-5", cogZ: "2000", "lp-1-label": "a", "lp-0-ax": "0", "lp-0-az": "0", "lp-1-x": "wide" })),
+      "metric",
+    );
+    expect(result.ok).toBe(false);
+    if (result.ok) return;
+    expect(Object.keys(result.errors).sort()).toEqual(["lp-0-ax", "lp-1-x", "mass"].sort());
+    const again = parseComponentForm(form(componentFields({ cogZ: "2000", "lp-1-label": "a" })), "metric");
+    expect(again.ok).toBe(false);
+    if (again.ok) return;
+    expect(again.errors.cogZ?.[0]).toMatch(/outside the component's outline along z/);
+    expect(again.errors["lp-1-label"]?.[0]).toMatch(/listed twice/);
+  });
+
+  it("takes a custom outline and refuses a broken one with the line number", () => {
+    const ok = parseComponentForm(
+      form(componentFields({ outlineMode: "custom", outlineElevation: "-800, 0\n800, 0\n800, 900\n-800,900", outlinePlan: "-800 -400\n800 -400\n0 400" })),
+      "metric",
+    );
+    expect(ok.ok).toBe(true);
+    expect(parsePolygon("1, 2\n3\n4, 5")).toBe('Line 2 should hold two numbers, like "-600, 0".');
+    expect(parsePolygon("1, 2\n3, 4")).toMatch(/at least three corners/);
+  });
+
+  it("ignores empty rows and keeps the order of the indices", () => {
+    const fd = form({ "lp-3-label": "C", "lp-1-label": "A", "lp-2-label": "", "lp-2-x": " " });
+    expect(indexedRows(fd, "lp").map((r) => r.values.label)).toEqual(["A", "C"]);
+  });
+});

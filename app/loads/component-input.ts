@@ -1,0 +1,214 @@
+import { z } from "zod";
+import {
+  COG_SOURCES,
+  MASS_SOURCES,
+  polygonBounds,
+  rectangleOutlines,
+  type ComponentDefinition,
+} from "~/loads/component-definition";
+import { CONTROL_CHARACTER_MESSAGE, hasControlCharacters, type FormResult } from "~/utils/forms";
+import { convertLength } from "~/statics/units";
+import { fromDisplayLength, fromDisplayMass, type Units } from "~/utils/format";
+
+/** At most this many tapped lift points and composite parts on one component. */
+export const MAX_LIFT_POINTS = 12;
+export const MAX_PARTS = 30;
+
+// Lift points and parts are written in one multi-row insert, which cannot carry a NUL; no field here needs control characters.
+const text = (max: number) =>
+  z.preprocess((v) => (typeof v === "string" ? v.trim() : ""), z.string().max(max, `At most ${max} characters.`).refine((s) => !hasControlCharacters(s), CONTROL_CHARACTER_MESSAGE));
+const required = (label: string, max: number) =>
+  z.preprocess(
+    (v) => (typeof v === "string" ? v.trim() : ""),
+    z.string().min(1, `Enter the ${label}.`).max(max, `At most ${max} characters.`).refine((s) => !hasControlCharacters(s), CONTROL_CHARACTER_MESSAGE),
+  );
+const number = (label: string) =>
+  z.preprocess(
+    (v) => (typeof v === "string" && v.trim() !== "" ? Number(v.trim().replace(/,/g, "")) : undefined),
+    z.number({ error: `Enter the ${label} as a number.` }).finite(`Enter the ${label} as a number.`),
+  );
+const optionalNumber = (label: string) =>
+  z.preprocess(
+    (v) => (typeof v === "string" && v.trim() !== "" ? Number(v.trim().replace(/,/g, "")) : null),
+    z.number({ error: `Enter the ${label} as a number.` }).finite(`Enter the ${label} as a number.`).nullable(),
+  );
+
+const headSchema = z.object({
+  name: required("component's name", 200),
+  description: text(4000),
+  mass: number("mass").refine((v) => v > 0, "The mass must be more than zero."),
+  massSource: z.enum(MASS_SOURCES, { error: "Say where the mass comes from." }),
+  massNote: text(500),
+  contingencyPct: number("contingency").refine((v) => v >= 0 && v <= 100, "Give a contingency from 0 to 100 %."),
+  length: number("length").refine((v) => v > 0, "The length must be more than zero."),
+  width: number("width").refine((v) => v > 0, "The width must be more than zero."),
+  height: number("height").refine((v) => v > 0, "The height must be more than zero."),
+  cogX: number("CoG x"),
+  cogY: number("CoG y"),
+  cogZ: number("CoG z"),
+  cogSource: z.enum(COG_SOURCES, { error: "Say where the CoG comes from." }),
+  cogNote: text(500),
+  outlineMode: z.enum(["rectangle", "custom"]).default("rectangle"),
+  outlineElevation: text(20000),
+  outlinePlan: text(20000),
+});
+
+const liftPointSchema = z.object({
+  label: required("lift point's id", 10),
+  x: number("x"),
+  y: number("y"),
+  z: number("z"),
+  ax: number("axis x").default(0),
+  ay: number("axis y").default(0),
+  az: number("axis z").default(1),
+  thread: text(20),
+  engagement: optionalNumber("thread engagement"),
+});
+
+const partSchema = z.object({
+  name: required("part's name", 200),
+  mass: number("mass").refine((v) => v > 0, "A part's mass must be more than zero."),
+  x: number("x"),
+  y: number("y"),
+  z: number("z"),
+});
+
+/** Rows of fields named `${prefix}-${i}-${field}`, in index order; rows whose fields are all empty are left out. */
+export function indexedRows(formData: FormData, prefix: string): Array<{ index: number; values: Record<string, string> }> {
+  const rows = new Map<number, Record<string, string>>();
+  for (const [key, value] of formData.entries()) {
+    const match = new RegExp(`^${prefix}-(\\d{1,3})-([a-z]+)$`).exec(key);
+    if (!match || typeof value !== "string") continue;
+    const index = Number(match[1]);
+    const row = rows.get(index) ?? {};
+    row[match[2]!] = value;
+    rows.set(index, row);
+  }
+  return [...rows.entries()]
+    .sort(([a], [b]) => a - b)
+    .filter(([, values]) => Object.values(values).some((v) => v.trim() !== ""))
+    .map(([index, values]) => ({ index, values }));
+}
+
+/** Parses "a, b" per line into points (in display units). */
+export function parsePolygon(textValue: string): Array<[number, number]> | string {
+  const lines = textValue.split(/\r?\n/).map((l) => l.trim()).filter(Boolean);
+  const points: Array<[number, number]> = [];
+  for (const [i, line] of lines.entries()) {
+    const parts = line.split(/[\s,;]+/).filter(Boolean);
+    const a = Number(parts[0]);
+    const b = Number(parts[1]);
+    if (parts.length !== 2 || !Number.isFinite(a) || !Number.isFinite(b)) return `Line ${i + 1} should hold two numbers, like "-600, 0".`;
+    points.push([a, b]);
+  }
+  if (points.length < 3) return "An outline needs at least three corners, one per line.";
+  if (points.length > 200) return "An outline can have at most 200 corners.";
+  return points;
+}
+
+const MAX_MASS_KG = 1_000_000;
+const MAX_DIMENSION_M = 100;
+const TOLERANCE_M = 0.001;
+
+/** Parses the component form, typed in the user's units, into an SI definition, with field errors keyed by field name. */
+export function parseComponentForm(formData: FormData, units: Units): FormResult<ComponentDefinition> {
+  const errors: Record<string, string[]> = {};
+  const add = (key: string, message: string) => (errors[key] ??= []).push(message);
+  const head = headSchema.safeParse(Object.fromEntries([...formData.entries()].filter(([, v]) => typeof v === "string")));
+  if (!head.success) for (const issue of head.error.issues) add(String(issue.path[0] ?? "_form"), issue.message);
+
+  const L = (v: number) => fromDisplayLength(v, units);
+
+  const liftRows = indexedRows(formData, "lp");
+  if (liftRows.length > MAX_LIFT_POINTS) add("liftPoints", `A component can have at most ${MAX_LIFT_POINTS} lift points.`);
+  const liftPoints: ComponentDefinition["liftPoints"] = [];
+  const labels = new Set<string>();
+  for (const { index, values } of liftRows) {
+    const row = liftPointSchema.safeParse(values);
+    if (!row.success) {
+      for (const issue of row.error.issues) add(`lp-${index}-${String(issue.path[0])}`, issue.message);
+      continue;
+    }
+    const p = row.data;
+    const key = p.label.toUpperCase();
+    if (labels.has(key)) add(`lp-${index}-label`, `Lift point ${p.label} is listed twice; give each its own id.`);
+    labels.add(key);
+    const axisLength = Math.hypot(p.ax, p.ay, p.az);
+    if (!(axisLength > 1e-9)) {
+      add(`lp-${index}-ax`, "The axis needs a direction: it cannot be 0, 0, 0.");
+      continue;
+    }
+    if (p.engagement !== null && p.engagement <= 0) add(`lp-${index}-engagement`, "Thread engagement must be more than zero.");
+    liftPoints.push({
+      label: p.label,
+      position: { x: L(p.x), y: L(p.y), z: L(p.z) },
+      axis: { x: p.ax / axisLength, y: p.ay / axisLength, z: p.az / axisLength },
+      thread: p.thread.toUpperCase().replace(/\s+/g, ""),
+      engagementMm: p.engagement === null ? null : convertLength(p.engagement, units === "metric" ? "mm" : "in", "mm"),
+    });
+  }
+
+  const partRows = indexedRows(formData, "part");
+  if (partRows.length > MAX_PARTS) add("parts", `At most ${MAX_PARTS} parts.`);
+  const parts: ComponentDefinition["parts"] = [];
+  for (const { index, values } of partRows) {
+    const row = partSchema.safeParse(values);
+    if (!row.success) {
+      for (const issue of row.error.issues) add(`part-${index}-${String(issue.path[0])}`, issue.message);
+      continue;
+    }
+    parts.push({ name: row.data.name, massKg: fromDisplayMass(row.data.mass, units), position: { x: L(row.data.x), y: L(row.data.y), z: L(row.data.z) } });
+  }
+
+  if (!head.success) return { ok: false, errors };
+  const h = head.data;
+  const massKg = fromDisplayMass(h.mass, units);
+  if (massKg > MAX_MASS_KG) add("mass", "That mass is over 1,000 t; check the figure and its unit.");
+  if (h.massSource === "estimated" && !(h.contingencyPct > 0)) add("contingencyPct", "An estimated mass must carry a contingency above 0 %.");
+  const dims = { lengthM: L(h.length), widthM: L(h.width), heightM: L(h.height) };
+  for (const [field, value] of [["length", dims.lengthM], ["width", dims.widthM], ["height", dims.heightM]] as const) {
+    if (value > MAX_DIMENSION_M) add(field, "That is over 100 m; check the figure and its unit.");
+  }
+
+  let outlines = rectangleOutlines(dims.lengthM, dims.widthM, dims.heightM);
+  if (h.outlineMode === "custom") {
+    const elevation = parsePolygon(h.outlineElevation);
+    const plan = parsePolygon(h.outlinePlan);
+    if (typeof elevation === "string") add("outlineElevation", elevation);
+    if (typeof plan === "string") add("outlinePlan", plan);
+    if (typeof elevation !== "string" && typeof plan !== "string") {
+      outlines = {
+        outlineElevation: elevation.map(([a, b]) => [L(a), L(b)]),
+        outlinePlan: plan.map(([a, b]) => [L(a), L(b)]),
+      };
+    }
+  }
+
+  const cog = { x: L(h.cogX), y: L(h.cogY), z: L(h.cogZ) };
+  const elevation = polygonBounds(outlines.outlineElevation);
+  const plan = polygonBounds(outlines.outlinePlan);
+  const inside = (v: number, min: number, max: number) => v >= min - TOLERANCE_M && v <= max + TOLERANCE_M;
+  if (!inside(cog.x, Math.min(elevation.minA, plan.minA), Math.max(elevation.maxA, plan.maxA))) add("cogX", "The CoG lies outside the component's outline along x; check the figure and the datum.");
+  if (!inside(cog.y, plan.minB, plan.maxB)) add("cogY", "The CoG lies outside the component's outline along y; check the figure and the datum.");
+  if (!inside(cog.z, elevation.minB, elevation.maxB)) add("cogZ", "The CoG lies outside the component's outline along z; check the figure and the datum.");
+
+  if (Object.keys(errors).length) return { ok: false, errors };
+  return {
+    ok: true,
+    data: {
+      name: h.name,
+      description: h.description,
+      massKg,
+      massSource: h.massSource,
+      massNote: h.massNote,
+      contingencyPct: h.contingencyPct,
+      ...dims,
+      cog,
+      cogSource: h.cogSource,
+      cogNote: h.cogNote,
+      ...outlines,
+      liftPoints,
+      parts,
+    },
+  };
+}

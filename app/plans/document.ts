@@ -1,0 +1,378 @@
+// The editable lift plan document (arrangement, gear allocation, details) and its checks against
+// the load snapshot. Pure and shared with the browser: no I/O, no server imports.
+import { z } from "zod";
+import type { ComponentDefinition } from "~/loads/component-definition";
+import type { SolveResponseBody } from "~/statics/api";
+
+export const PLAN_STATUSES = ["draft", "in_review", "returned", "approved", "superseded", "completed", "cancelled"] as const;
+export type PlanStatus = (typeof PLAN_STATUSES)[number];
+
+export const PLAN_STATUS_LABELS: Record<PlanStatus, string> = {
+  draft: "Draft",
+  in_review: "In review",
+  returned: "Returned with comments",
+  approved: "Approved",
+  superseded: "Superseded",
+  completed: "Completed",
+  cancelled: "Cancelled",
+};
+
+/** Shown wherever plan figures appear (results, print, approval). */
+export const PLAN_CAUTION =
+  "This plan supports, and does not replace, the judgement of the appointed person and local lifting regulations (LOLER / BS 7121, OSHA / ASME B30, or the local equivalent); work within the equipment's marked limits. Figures assume a rigid load, legs meeting at one point, the marked WLLs and the mass and CoG as entered.";
+
+/** Longest plan title, characters. */
+export const MAX_TITLE = 200;
+/** Largest hook height or leg length accepted, m (matches the solve API's coordinate bound). */
+export const MAX_PLAN_LENGTH_M = 1000;
+
+const finite = (label: string) => z.number({ error: `Give the ${label} as a number.` }).finite();
+const liftPointLabel = z.string().min(1, "A lift point label cannot be empty.").max(10, "A lift point label is at most 10 characters.");
+const gearItemId = z.number({ error: "A gear item is given by its number." }).int("A gear item is given by its number.").positive("A gear item is given by its number.");
+
+// ----- arrangement -----
+
+export const beamSchema = z.object({
+  massKg: finite("beam's mass").min(0, "The beam's mass cannot be negative.").max(100_000, "The beam's mass is at most 100,000 kg."),
+  wllKg: finite("beam's WLL").gt(0, "Give the beam's marked WLL.").max(1e8, "The beam's WLL is at most 100,000 t."),
+  lengthM: finite("beam's length").gt(0, "Give the beam's length.").max(100, "The beam is at most 100 m long."),
+  dropLengthM: finite("drop length").gt(0, "Give the length of the vertical drops.").max(100, "A drop is at most 100 m long."),
+});
+export type BeamArrangement = z.infer<typeof beamSchema>;
+
+export const arrangementSchema = z
+  .object({
+    kind: z.enum(["bridle", "beam"], { error: 'The arrangement is "bridle" (legs to one hook) or "beam" (vertical drops from a beam).' }),
+    mode: z.enum(["level", "lengths"], { error: 'The mode is "level" (hook height given) or "lengths" (sling lengths given).' }),
+    hookHeightM: finite("hook height").min(-MAX_PLAN_LENGTH_M, "The hook height is out of range.").max(MAX_PLAN_LENGTH_M, "The hook height is out of range."),
+    legLengthsM: z
+      .record(liftPointLabel, finite("leg length").gt(0, "A leg must be longer than zero.").max(MAX_PLAN_LENGTH_M, "A leg is at most 1,000 m long."))
+      .default({}),
+    liftPointLabels: z.array(liftPointLabel).min(1, "Use at least one lift point.").max(4, "Use at most four lift points."),
+    beam: beamSchema.optional(),
+  })
+  .superRefine((a, ctx) => {
+    const seen = new Set<string>();
+    a.liftPointLabels.forEach((label, i) => {
+      if (seen.has(label)) ctx.addIssue({ code: "custom", path: ["liftPointLabels", i], message: `Lift point ${label} is listed twice.` });
+      seen.add(label);
+    });
+    if (a.kind === "beam") {
+      if (!a.beam) ctx.addIssue({ code: "custom", path: ["beam"], message: "A beam arrangement needs the beam's mass, WLL, length and drop length." });
+      if (a.mode !== "level") ctx.addIssue({ code: "custom", path: ["mode"], message: "A beam hangs its drops vertically: use the level mode." });
+    }
+    if (a.kind === "bridle" && a.mode === "lengths") {
+      for (const label of a.liftPointLabels) {
+        if (!Object.hasOwn(a.legLengthsM, label)) ctx.addIssue({ code: "custom", path: ["legLengthsM", label], message: `Give the length of the leg to lift point ${label}.` });
+      }
+    }
+    for (const key of Object.keys(a.legLengthsM)) {
+      if (!seen.has(key)) ctx.addIssue({ code: "custom", path: ["legLengthsM", key], message: `Leg length ${key} names no lift point in use.` });
+    }
+  });
+export type Arrangement = z.infer<typeof arrangementSchema>;
+
+// ----- gear allocation -----
+
+export const HITCHES = ["straight", "choke", "basket"] as const;
+export const HITCH_LABELS: Record<(typeof HITCHES)[number], string> = { straight: "Straight", choke: "Choke", basket: "Basket" };
+
+export const legRiggingSchema = z.object({
+  eyeboltItemId: gearItemId.optional(),
+  shackleItemId: gearItemId.optional(),
+  slingItemId: gearItemId.optional(),
+  hitch: z.enum(HITCHES, { error: 'The hitch is "straight", "choke" or "basket".' }).default("straight"),
+});
+export type LegRiggingAllocation = z.infer<typeof legRiggingSchema>;
+
+export const riggingAllocationSchema = z.object({
+  legs: z.record(liftPointLabel, legRiggingSchema).default({}),
+  masterLinkItemId: gearItemId.optional(),
+  craneItemId: gearItemId.optional(),
+});
+export type RiggingAllocation = z.infer<typeof riggingAllocationSchema>;
+
+// ----- details: sequence, hazards, people -----
+
+export const PERSON_ROLES = ["appointed_person", "lift_supervisor", "slinger_signaller", "crane_operator", "other"] as const;
+export type PersonRole = (typeof PERSON_ROLES)[number];
+export const PERSON_ROLE_LABELS: Record<PersonRole, string> = {
+  appointed_person: "Appointed person",
+  lift_supervisor: "Lift supervisor",
+  slinger_signaller: "Slinger/signaller",
+  crane_operator: "Crane operator",
+  other: "Other",
+};
+
+const text = (label: string, max: number) => z.string({ error: `Give the ${label} as text.` }).trim().max(max, `The ${label} can be at most ${max} characters.`);
+const requiredText = (label: string, max: number) => text(label, max).min(1, `Enter the ${label}.`);
+
+export const sequenceStepSchema = z.object({
+  title: requiredText("step's title", 120),
+  holdPoint: z.boolean({ error: "Say whether the step is a hold point (true or false)." }),
+  notes: text("step's notes", 2000).default(""),
+});
+export type SequenceStep = z.infer<typeof sequenceStepSchema>;
+
+export const MAX_STEPS = 40;
+export const MAX_HAZARDS = 40;
+export const MAX_PEOPLE = 30;
+/** Highest floor clearance accepted, m. */
+export const MAX_FLOOR_CLEARANCE_M = 50;
+
+export const detailsSchema = z.object({
+  sequence: z.array(sequenceStepSchema).min(1, "The lift needs at least one step.").max(MAX_STEPS, `At most ${MAX_STEPS} steps.`),
+  hazards: z
+    .array(z.object({ hazard: requiredText("hazard", 300), control: requiredText("control for the hazard", 1000) }))
+    .max(MAX_HAZARDS, `At most ${MAX_HAZARDS} hazards.`),
+  exclusionZone: text("exclusion zone", 2000),
+  communication: text("communication method", 1000),
+  people: z
+    .array(z.object({ name: requiredText("person's name", 120), role: z.enum(PERSON_ROLES, { error: "Choose the person's role." }) }))
+    .max(MAX_PEOPLE, `At most ${MAX_PEOPLE} people.`),
+  floorClearanceM: finite("floor clearance")
+    .min(0, "The floor clearance cannot be negative.")
+    .max(MAX_FLOOR_CLEARANCE_M, `The floor clearance is at most ${MAX_FLOOR_CLEARANCE_M} m.`),
+});
+export type PlanDetails = z.infer<typeof detailsSchema>;
+
+/** The lift as most component lifts go (common practice): the trial lift and the level check are hold points. */
+export function defaultSequence(): SequenceStep[] {
+  return [
+    { title: "Rig", holdPoint: false, notes: "Fit the eyebolts and shackles, hang the legs from the master link, check every item against the plan." },
+    { title: "Trial lift a short way off the floor and hold", holdPoint: true, notes: "Take the weight and lift no more than a short way clear; stop and hold." },
+    { title: "Check level and balance", holdPoint: true, notes: "Check the load hangs level and steady and the rigging sits as planned; land and re-rig if not." },
+    { title: "Travel", holdPoint: false, notes: "Move slowly along the planned path, load low, tag lines as needed." },
+    { title: "Land", holdPoint: false, notes: "Lower onto the prepared landing or dowels under control." },
+    { title: "De-rig", holdPoint: false, notes: "Slacken off, remove the rigging, return the gear for inspection." },
+  ];
+}
+
+export function defaultDetails(): PlanDetails {
+  return {
+    sequence: defaultSequence(),
+    hazards: [],
+    exclusionZone: "",
+    communication: "Hand signals to BS 7121 from one appointed signaller in sight of the operator.",
+    people: [],
+    floorClearanceM: 0.1,
+  };
+}
+
+// ----- the whole document -----
+
+export const planDocumentSchema = z.object({
+  title: requiredText("plan title", MAX_TITLE),
+  arrangement: arrangementSchema,
+  rigging: riggingAllocationSchema,
+  details: detailsSchema,
+});
+export type PlanDocument = z.infer<typeof planDocumentSchema>;
+
+const coordinate = (label: string) =>
+  finite(label).min(-MAX_PLAN_LENGTH_M, `The ${label} is out of range.`).max(MAX_PLAN_LENGTH_M, `The ${label} is out of range.`);
+const position = z.object({ x: coordinate("x coordinate"), y: coordinate("y coordinate"), z: coordinate("z coordinate") });
+
+/**
+ * Edits the editor makes to the plan's own copy of the load: where the CoG and the lift points are.
+ * The component itself is never changed from a plan.
+ */
+export const loadEditSchema = z.object({
+  cog: position,
+  liftPoints: z.array(z.object({ label: liftPointLabel, position })).max(12, "At most 12 lift points."),
+});
+export type LoadEdit = z.infer<typeof loadEditSchema>;
+
+/** A PUT of the document: the version the editor loaded and the editable parts. Anything else (results, figures) is dropped. */
+export const planPutSchema = planDocumentSchema.extend({
+  version: z.number({ error: "Send the version of the plan you loaded." }).int().positive("Send the version of the plan you loaded."),
+  load: loadEditSchema.optional(),
+});
+
+/** The snapshot with the editor's load edits applied; issues for lift points the snapshot does not have. */
+export function applyLoadEdit(snapshot: ComponentDefinition, edit: LoadEdit | undefined): { snapshot: ComponentDefinition; issues: PlanIssue[] } {
+  if (!edit) return { snapshot, issues: [] };
+  const issues: PlanIssue[] = [];
+  const moved = new Map(edit.liftPoints.map((p) => [p.label, p.position]));
+  const known = new Set(snapshot.liftPoints.map((p) => p.label));
+  edit.liftPoints.forEach((p, i) => {
+    if (!known.has(p.label)) issues.push({ path: ["load", "liftPoints", i, "label"], message: `The load has no lift point ${p.label}.` });
+  });
+  return {
+    snapshot: {
+      ...snapshot,
+      cog: edit.cog,
+      liftPoints: snapshot.liftPoints.map((p) => ({ ...p, position: moved.get(p.label) ?? p.position })),
+    },
+    issues,
+  };
+}
+
+export type PlanIssue = { path: Array<string | number>; message: string };
+
+export function zodIssues(error: z.ZodError): PlanIssue[] {
+  return error.issues.map((i) => ({ path: i.path.map((p) => (typeof p === "number" ? p : String(p))), message: i.message }));
+}
+
+/** "arrangement.hookHeightM: The hook height is out of range." */
+export function describeIssue(issue: PlanIssue): string {
+  const path = issue.path.join(".");
+  return path ? `${path}: ${issue.message}` : issue.message;
+}
+
+/** Where the document does not fit its load snapshot: unknown lift points, rigging for legs not in use. */
+export function snapshotIssues(doc: Pick<PlanDocument, "arrangement" | "rigging">, snapshot: ComponentDefinition): PlanIssue[] {
+  const issues: PlanIssue[] = [];
+  const known = new Set(snapshot.liftPoints.map((p) => p.label));
+  doc.arrangement.liftPointLabels.forEach((label, i) => {
+    if (!known.has(label)) issues.push({ path: ["arrangement", "liftPointLabels", i], message: `The load has no lift point ${label}.` });
+  });
+  const used = new Set(doc.arrangement.liftPointLabels);
+  for (const label of Object.keys(doc.rigging.legs)) {
+    if (!used.has(label)) issues.push({ path: ["rigging", "legs", label], message: `Gear is allocated to leg ${label}, which is not in the arrangement.` });
+  }
+  return issues;
+}
+
+// ----- default arrangement -----
+
+/** Angle from vertical the default hook height aims the longest leg at, deg (well inside the 45 deg warning). */
+export const DEFAULT_LEG_ANGLE_DEG = 30;
+/** Least rise from the highest lift point to the hook in the default, m. */
+export const MIN_HOOK_RISE_M = 0.3;
+
+/**
+ * The starting arrangement for a load: a level bridle from its first (up to) four lift points, the
+ * hook high enough that the leg farthest from the CoG's plumb line hangs 30 deg from vertical.
+ */
+export function defaultArrangement(snapshot: ComponentDefinition): Arrangement {
+  const points = snapshot.liftPoints.slice(0, 4);
+  const zMax = points.length ? Math.max(...points.map((p) => p.position.z)) : snapshot.heightM;
+  const reach = points.length ? Math.max(...points.map((p) => Math.hypot(p.position.x - snapshot.cog.x, p.position.y - snapshot.cog.y))) : 0;
+  const rise = Math.max(reach / Math.tan((DEFAULT_LEG_ANGLE_DEG * Math.PI) / 180), MIN_HOOK_RISE_M);
+  return {
+    kind: "bridle",
+    mode: "level",
+    hookHeightM: Number((zMax + rise).toFixed(3)),
+    legLengthsM: {},
+    liftPointLabels: points.map((p) => p.label),
+  };
+}
+
+/** Drops the labels the snapshot no longer has from an arrangement and its rigging; falls back to the default arrangement when none are left. */
+export function fitToSnapshot(doc: Pick<PlanDocument, "arrangement" | "rigging">, snapshot: ComponentDefinition) {
+  const known = new Set(snapshot.liftPoints.map((p) => p.label));
+  const labels = doc.arrangement.liftPointLabels.filter((l) => known.has(l));
+  const arrangement: Arrangement =
+    labels.length === 0
+      ? defaultArrangement(snapshot)
+      : {
+          ...doc.arrangement,
+          liftPointLabels: labels,
+          legLengthsM: Object.fromEntries(Object.entries(doc.arrangement.legLengthsM).filter(([k]) => labels.includes(k))),
+        };
+  const rigging: RiggingAllocation = {
+    ...doc.rigging,
+    legs: Object.fromEntries(Object.entries(doc.rigging.legs).filter(([k]) => arrangement.liftPointLabels.includes(k))),
+  };
+  return { arrangement, rigging };
+}
+
+// ----- results, as the server stores them -----
+
+/** One leg of a bridle, or one vertical drop of a beam. */
+export type PlanLeg = SolveResponseBody["legs"][number];
+
+export type PlanResultsBody = SolveResponseBody & {
+  /** Beam arrangements only: the beam and what it adds at the hook. */
+  beam?: { massKg: number; wllKg: number; hookMassKg: number; topLegs: PlanLeg[] };
+};
+
+/** Results computed by the server on every save; never taken from the browser. */
+export type PlanResults = { kind: "bridle" | "beam"; computedOn: string } & (
+  | { status: 200; body: PlanResultsBody }
+  | { status: 400; body: { error: string; issues: unknown[] } }
+  | { status: 422; body: { error: string; code: string } }
+);
+
+// ----- what changed between two versions of a component -----
+
+export type ComponentChangeKind =
+  | "name"
+  | "mass"
+  | "mass-source"
+  | "contingency"
+  | "cog"
+  | "cog-source"
+  | "dimensions"
+  | "outline"
+  | "lift-point-added"
+  | "lift-point-removed"
+  | "lift-point-moved"
+  | "lift-point-axis"
+  | "lift-point-thread"
+  | "parts";
+
+export type ComponentChange = { kind: ComponentChangeKind; message: string };
+
+/** Differences below these are noise from unit conversion, not changes. */
+const LENGTH_TOL_M = 5e-4;
+const MASS_TOL_KG = 1e-6;
+
+const mm = (m: number) => `${Math.round(m * 1000).toLocaleString("en-GB")} mm`;
+const kgText = (kg: number) => `${Number(kg.toFixed(kg < 10 ? 2 : 1)).toLocaleString("en-GB")} kg`;
+const point = (p: { x: number; y: number; z: number }) => `(${mm(p.x)}, ${mm(p.y)}, ${mm(p.z)})`;
+const dist = (a: { x: number; y: number; z: number }, b: { x: number; y: number; z: number }) => Math.hypot(a.x - b.x, a.y - b.y, a.z - b.z);
+
+function samePolygon(a: ReadonlyArray<readonly [number, number]>, b: ReadonlyArray<readonly [number, number]>) {
+  return a.length === b.length && a.every((p, i) => Math.abs(p[0] - b[i]![0]) <= LENGTH_TOL_M && Math.abs(p[1] - b[i]![1]) <= LENGTH_TOL_M);
+}
+
+/** What changed from component definition `before` to `after`, in plain sentences (SI: mm, kg). Empty when nothing that matters changed. */
+export function diffComponentDefinitions(before: ComponentDefinition, after: ComponentDefinition): ComponentChange[] {
+  const changes: ComponentChange[] = [];
+  if (before.name !== after.name) changes.push({ kind: "name", message: `Renamed from "${before.name}" to "${after.name}".` });
+  if (Math.abs(before.massKg - after.massKg) > MASS_TOL_KG) {
+    changes.push({ kind: "mass", message: `Mass ${kgText(before.massKg)} → ${kgText(after.massKg)}.` });
+  }
+  if (before.massSource !== after.massSource) changes.push({ kind: "mass-source", message: `Mass source ${before.massSource} → ${after.massSource}.` });
+  if (before.contingencyPct !== after.contingencyPct) {
+    changes.push({ kind: "contingency", message: `Contingency ${before.contingencyPct} % → ${after.contingencyPct} %.` });
+  }
+  const cogMove = dist(before.cog, after.cog);
+  if (cogMove > LENGTH_TOL_M) {
+    changes.push({ kind: "cog", message: `CoG moved ${mm(cogMove)}: ${point(before.cog)} → ${point(after.cog)}.` });
+  }
+  if (before.cogSource !== after.cogSource) changes.push({ kind: "cog-source", message: `CoG source ${before.cogSource} → ${after.cogSource}.` });
+  const dims = (d: ComponentDefinition) => [d.lengthM, d.widthM, d.heightM] as const;
+  if (dims(before).some((v, i) => Math.abs(v - dims(after)[i]!) > LENGTH_TOL_M)) {
+    const f = (d: ComponentDefinition) => dims(d).map(mm).join(" × ");
+    changes.push({ kind: "dimensions", message: `Overall size ${f(before)} → ${f(after)}.` });
+  }
+  if (!samePolygon(before.outlineElevation, after.outlineElevation) || !samePolygon(before.outlinePlan, after.outlinePlan)) {
+    changes.push({ kind: "outline", message: "The outline drawing changed." });
+  }
+  const beforePoints = new Map(before.liftPoints.map((p) => [p.label, p]));
+  const afterPoints = new Map(after.liftPoints.map((p) => [p.label, p]));
+  for (const [label, p] of afterPoints) {
+    const old = beforePoints.get(label);
+    if (!old) {
+      changes.push({ kind: "lift-point-added", message: `Lift point ${label} added at ${point(p.position)}.` });
+      continue;
+    }
+    const moved = dist(old.position, p.position);
+    if (moved > LENGTH_TOL_M) {
+      changes.push({ kind: "lift-point-moved", message: `Lift point ${label} moved ${mm(moved)}: ${point(old.position)} → ${point(p.position)}.` });
+    }
+    if (dist(old.axis, p.axis) > 1e-6) changes.push({ kind: "lift-point-axis", message: `Lift point ${label}'s axis changed.` });
+    if (old.thread !== p.thread) {
+      changes.push({ kind: "lift-point-thread", message: `Lift point ${label}'s thread ${old.thread || "none"} → ${p.thread || "none"}.` });
+    }
+  }
+  for (const label of beforePoints.keys()) {
+    if (!afterPoints.has(label)) changes.push({ kind: "lift-point-removed", message: `Lift point ${label} removed.` });
+  }
+  const partsKey = (d: ComponentDefinition) => JSON.stringify(d.parts);
+  if (partsKey(before) !== partsKey(after)) changes.push({ kind: "parts", message: "The composite parts changed." });
+  return changes;
+}

@@ -1,0 +1,43 @@
+// What the printed plan shows: everything is decided before printing (server side) and handed to
+// the PDF builder as plain data, so the PDF never works anything out for itself.
+import type { ComponentDefinition } from "~/loads/component-definition";
+import type { Arrangement, PlanDetails, PlanResultsBody } from "~/plans/document";
+import type { Units } from "~/utils/format";
+
+export type PrintableScheduleRow = {
+  /** "Leg A eyebolt", "Master link", "Crane or hoist" */
+  position: string;
+  itemCode: string;
+  description: string;
+  wllKg: number;
+  /** The load this item carries in the plan, kg (with contingency where the check applies it). */
+  loadKg: number | null;
+  /** load / derated WLL, unrounded; printed rounded up. */
+  utilisation: number | null;
+  nextDueOn: string | null;
+};
+
+export type PrintablePlan = {
+  organisationName: string;
+  title: string;
+  site: { name: string; customer: string; address: string };
+  job: { workOrder: string; title: string };
+  revision: number;
+  status: "approved" | "superseded" | "completed" | "cancelled";
+  units: Units;
+  planner: { name: string };
+  approval: { name: string; role: string; approvedAt: string; comment: string; selfApproved: boolean };
+  /** SHA-256 (hex) of the approved content. */
+  fingerprint: string;
+  /** Absolute URL of /verify/<token>, for the QR code. */
+  verifyUrl: string;
+  printedAt: string;
+  printedBy: string;
+  snapshot: ComponentDefinition;
+  arrangement: Arrangement;
+  /** The server's results (status 200 body) of the approved revision. */
+  results: PlanResultsBody;
+  schedule: PrintableScheduleRow[];
+  details: PlanDetails;
+  acknowledgements: Array<{ checkItem: string; reason: string; by: string; at: string }>;
+};

@@ -1,0 +1,125 @@
+import { AsyncLocalStorage } from "node:async_hooks";
+import fs from "node:fs";
+import path from "node:path";
+import { QueryTypes, Sequelize, Transaction } from "sequelize";
+import sqlite3 from "sqlite3";
+import { env } from "~/utils/env.server";
+
+const CONNECTION_PRAGMAS = "PRAGMA journal_mode=WAL; PRAGMA foreign_keys=ON; PRAGMA busy_timeout=10000; PRAGMA synchronous=NORMAL;";
+
+type RowsCallback = (this: sqlite3.Statement, err: Error | null, rows: unknown[]) => void;
+
+const TABLE_INFO = /^PRAGMA table_info\(`([^`]+)`\)$/;
+const SCHEMA_CHANGE = /^\s*(?:CREATE|ALTER|DROP)\b/i;
+
+/**
+ * Column declarations by table, shared by this process's connections. Sequelize's sqlite dialect asks
+ * `PRAGMA table_info` of every table a SELECT names, on every SELECT, to learn how to read dates and
+ * booleans: several extra round trips through the one serialised connection per query. The schema
+ * changes only by migration, so the answers are kept until a statement here creates, alters or drops.
+ * (A migration run by another process is followed by a restart: `npm start` migrates, then serves.)
+ */
+const tableInfoCache = new Map<string, unknown[]>();
+
+function forgetSchemaOnChange(sql: unknown) {
+  if (typeof sql === "string" && SCHEMA_CHANGE.test(sql)) tableInfoCache.clear();
+}
+
+/**
+ * Sequelize's sqlite dialect opens a connection per transaction and never runs afterConnect
+ * hooks, so every connection is configured here, in the constructor Sequelize calls.
+ */
+class ConfiguredDatabase extends sqlite3.Database {
+  constructor(filename: string, mode?: number, callback?: (err: Error | null) => void) {
+    let self: sqlite3.Database | undefined = undefined;
+    super(filename, mode ?? sqlite3.OPEN_READWRITE | sqlite3.OPEN_CREATE, (err) => {
+      if (err || !self) return callback?.(err);
+      self.exec(CONNECTION_PRAGMAS, (pragmaErr) => callback?.(pragmaErr ?? null));
+    });
+    self = this;
+  }
+
+  override all(sql: string, ...rest: unknown[]): this {
+    const table = rest.length === 1 && typeof rest[0] === "function" ? TABLE_INFO.exec(sql)?.[1] : undefined;
+    if (table === undefined) {
+      forgetSchemaOnChange(sql);
+      return (super.all as (sql: string, ...rest: unknown[]) => this)(sql, ...rest);
+    }
+    const callback = rest[0] as RowsCallback;
+    const cached = tableInfoCache.get(table);
+    if (cached) {
+      process.nextTick(() => callback.call(undefined as unknown as sqlite3.Statement, null, cached));
+      return this;
+    }
+    return super.all(sql, function (this: sqlite3.Statement, err: Error | null, rows: unknown[]) {
+      // An empty answer is a table not made yet: ask again next time.
+      if (!err && rows.length > 0) tableInfoCache.set(table, rows);
+      callback.call(this, err, rows);
+    });
+  }
+
+  override run(sql: string, ...rest: unknown[]): this {
+    forgetSchemaOnChange(sql);
+    return (super.run as (sql: string, ...rest: unknown[]) => this)(sql, ...rest);
+  }
+
+  override exec(sql: string, callback?: (this: sqlite3.Statement, err: Error | null) => void): this {
+    forgetSchemaOnChange(sql);
+    return super.exec(sql, callback);
+  }
+}
+
+const dialectModule = { ...sqlite3, Database: ConfiguredDatabase };
+
+const WRITE_QUERY_TYPES = new Set<string>([QueryTypes.INSERT, QueryTypes.UPDATE, QueryTypes.BULKUPDATE, QueryTypes.DELETE, QueryTypes.BULKDELETE, QueryTypes.UPSERT]);
+
+/**
+ * One writer at a time in this process. SQLite has one write lock, and a connection waiting for it
+ * sleeps in the busy handler on one of libuv's four threads: a few waiters starve the holder of the
+ * thread its next statement needs, and they all time out with SQLITE_BUSY. Queued here, writers
+ * wait in JavaScript instead; work started inside a queued transaction runs at once (no self-deadlock).
+ */
+function serialiseWrites(db: Sequelize) {
+  const inside = new AsyncLocalStorage<true>();
+  let tail: Promise<unknown> = Promise.resolve();
+  const queued = <T>(work: () => Promise<T>): Promise<T> => {
+    if (inside.getStore()) return work();
+    const run = tail.then(() => inside.run(true, work));
+    tail = run.catch(() => undefined);
+    return run;
+  };
+  const transaction = db.transaction.bind(db) as (...args: unknown[]) => Promise<unknown>;
+  db.transaction = ((...args: unknown[]) =>
+    args.some((a) => typeof a === "function") ? queued(() => transaction(...args)) : transaction(...args)) as typeof db.transaction;
+  const query = db.query.bind(db) as (...args: unknown[]) => Promise<unknown>;
+  db.query = ((sql: unknown, options?: { transaction?: unknown; type?: string }) =>
+    !options?.transaction && options?.type && WRITE_QUERY_TYPES.has(options.type)
+      ? queued(() => query(sql, options))
+      : query(sql, options)) as typeof db.query;
+  return db;
+}
+
+/** Opens (creating its folder if needed) the SQLite file at `storage`. */
+export function openDatabase(storage: string): Sequelize {
+  if (storage !== ":memory:") fs.mkdirSync(path.dirname(path.resolve(storage)), { recursive: true });
+  return serialiseWrites(
+    new Sequelize({
+      dialect: "sqlite",
+      dialectModule,
+      storage,
+      logging: false,
+      define: { underscored: true },
+      // IMMEDIATE takes the write lock at BEGIN: a transaction that reads and then writes cannot find its
+      // snapshot stale at the first write (SQLITE_BUSY_SNAPSHOT, which no busy timeout cures).
+      transactionType: Transaction.TYPES.IMMEDIATE,
+      retry: { max: 5, match: [/SQLITE_BUSY/] },
+    }),
+  );
+}
+
+declare global {
+  var __plumblineSequelize: Sequelize | undefined;
+}
+
+/** The application's one connection to its database (kept across dev reloads). */
+export const sequelize: Sequelize = (globalThis.__plumblineSequelize ??= openDatabase(env.databasePath));

@@ -1,0 +1,166 @@
+import crypto from "node:crypto";
+import net from "node:net";
+import { createContext, type MiddlewareFunction } from "react-router";
+import { env } from "~/utils/env.server";
+import { SHARED_ADDRESS_KEY } from "~/models/sign-in-attempt.server";
+
+/** The nonce of this request's inline scripts; set by `securityMiddleware`, read by entry.server.tsx. */
+export const cspNonceContext = createContext<string>("");
+
+const SAFE_METHODS = new Set(["GET", "HEAD"]);
+
+const CROSS_SITE_MESSAGE =
+  "Plumbline refused this request because it did not come from one of its own pages. If you sent a form, reload the page and send it again.";
+
+/** The Content-Security-Policy of every response that does not set its own; `nonce` admits React Router's inline scripts. */
+export function contentSecurityPolicy(nonce: string) {
+  return [
+    "default-src 'self'",
+    `script-src 'self' 'nonce-${nonce}'`,
+    // Tailwind's stylesheet is a file, but React `style` attributes and Konva's canvas wrappers are inline.
+    "style-src 'self' 'unsafe-inline'",
+    "img-src 'self' data: blob:",
+    "font-src 'self'",
+    "connect-src 'self'",
+    "object-src 'none'",
+    "base-uri 'self'",
+    "form-action 'self'",
+    "frame-ancestors 'none'",
+  ].join("; ");
+}
+
+/** The headers every response carries (Content-Security-Policy only where the response has none of its own). */
+export function securityHeaders(nonce: string, isProduction = env.isProduction): Record<string, string> {
+  return {
+    "Content-Security-Policy": contentSecurityPolicy(nonce),
+    "X-Content-Type-Options": "nosniff",
+    "Referrer-Policy": "same-origin",
+    "X-Frame-Options": "DENY",
+    "Permissions-Policy": "camera=(), microphone=(), geolocation=()",
+    "Cross-Origin-Opener-Policy": "same-origin",
+    // Only where Plumbline is served over https for real; the demo and development run on plain http.
+    ...(isProduction ? { "Strict-Transport-Security": "max-age=31536000" } : {}),
+  };
+}
+
+/** A fresh nonce for one response's inline scripts. */
+export function newCspNonce() {
+  return crypto.randomBytes(16).toString("base64");
+}
+
+/** Sets the security headers on `headers`, keeping a Content-Security-Policy already there. */
+export function setSecurityHeaders(headers: Headers, nonce: string) {
+  for (const [name, value] of Object.entries(securityHeaders(nonce))) {
+    if (name !== "Content-Security-Policy" || !headers.has(name)) headers.set(name, value);
+  }
+}
+
+function withSecurityHeaders(response: Response, nonce: string): Response {
+  try {
+    setSecurityHeaders(response.headers, nonce);
+    return response;
+  } catch {
+    // A Response whose headers are immutable (one passed on from fetch): answer with a copy.
+    const copy = new Response(response.body, response);
+    setSecurityHeaders(copy.headers, nonce);
+    return copy;
+  }
+}
+
+function originOf(value: string): string | null {
+  if (value === "null") return null;
+  try {
+    return new URL(value).origin;
+  } catch {
+    return null;
+  }
+}
+
+/** The origins a mutation may come from: the request's own and, when set, PUBLIC_URL's (behind a TLS proxy they differ). */
+function allowedOrigins(request: Request, publicUrl: string | null): Set<string> {
+  const allowed = new Set([new URL(request.url).origin]);
+  if (publicUrl) allowed.add(new URL(publicUrl).origin);
+  return allowed;
+}
+
+/**
+ * Whether a request is a mutation from somewhere other than Plumbline's own pages. GET and HEAD never are.
+ * Otherwise the Origin header (or, when a browser sent none, the Referer) must name Plumbline itself; a request
+ * with neither passes only if it carries no cookie, so nobody's session can be ridden. Browsers send Origin on
+ * every POST, so a real page never meets this.
+ */
+export function isCrossSiteMutation(request: Request, publicUrl: string | null = env.publicUrlIsSet ? env.publicUrl : null): boolean {
+  if (SAFE_METHODS.has(request.method.toUpperCase())) return false;
+  const allowed = allowedOrigins(request, publicUrl);
+  const source = request.headers.get("Origin") ?? request.headers.get("Referer");
+  if (source === null) return request.headers.has("Cookie");
+  const origin = originOf(source.trim());
+  return origin === null || !allowed.has(origin);
+}
+
+/** The 403 answer to a cross-site mutation: JSON under /api, a plain sentence elsewhere. */
+export function crossSiteRefusal(request: Request): Response {
+  if (new URL(request.url).pathname.startsWith("/api/")) return Response.json({ error: CROSS_SITE_MESSAGE }, { status: 403 });
+  return new Response(CROSS_SITE_MESSAGE, { status: 403, headers: { "Content-Type": "text/plain; charset=utf-8" } });
+}
+
+/**
+ * Runs first on every request React Router serves (pages, data requests, resource routes): refuses cross-site
+ * mutations before any loader or action, picks the request's CSP nonce and puts the security headers on the answer.
+ */
+export const securityMiddleware: MiddlewareFunction<Response> = async ({ request, context }, next) => {
+  const nonce = newCspNonce();
+  context.set(cspNonceContext, nonce);
+  const response = isCrossSiteMutation(request) ? crossSiteRefusal(request) : await next();
+  return withSecurityHeaders(response, nonce);
+};
+
+/** The eight 16-bit groups of an IPv6 address that `net.isIPv6` has accepted, or null. */
+function ipv6Groups(address: string): number[] | null {
+  let text = address;
+  const tail: number[] = [];
+  const dotted = text.match(/^(.*:)(\d+\.\d+\.\d+\.\d+)$/);
+  if (dotted) {
+    const octets = dotted[2]!.split(".").map(Number);
+    tail.push((octets[0]! << 8) | octets[1]!, (octets[2]! << 8) | octets[3]!);
+    text = dotted[1]!.endsWith("::") ? dotted[1]! : dotted[1]!.slice(0, -1);
+  }
+  const [head, rest] = text.split("::") as [string, string | undefined];
+  const parse = (part: string) => (part === "" ? [] : part.split(":").map((g) => parseInt(g, 16)));
+  const left = parse(head);
+  const right = [...(rest === undefined ? [] : parse(rest)), ...tail];
+  const missing = 8 - left.length - right.length;
+  if (rest === undefined ? missing !== 0 : missing < 0) return null;
+  return [...left, ...new Array<number>(rest === undefined ? 0 : missing).fill(0), ...right];
+}
+
+/** The key one client address counts under: an IPv4 address as is, an IPv6 address by its /64 (one site's network). */
+export function addressKeyOf(raw: string): string | null {
+  let address = raw.trim();
+  if (address.startsWith("[")) address = address.slice(1, address.indexOf("]") > 0 ? address.indexOf("]") : undefined);
+  address = address.replace(/%.*$/, "");
+  const withPort = address.match(/^(\d+\.\d+\.\d+\.\d+):\d+$/);
+  if (withPort) address = withPort[1]!;
+  const mapped = address.match(/^::ffff:(\d+\.\d+\.\d+\.\d+)$/i);
+  if (mapped) address = mapped[1]!;
+  if (net.isIPv4(address)) return address;
+  if (!net.isIPv6(address)) return null;
+  const groups = ipv6Groups(address.toLowerCase());
+  return groups ? `${groups.slice(0, 4).map((g) => g.toString(16)).join(":")}::/64` : null;
+}
+
+/**
+ * The client's address key for attempt limits. Loaders are not given the socket's address,
+ * so it comes from X-Forwarded-For, and only when TRUST_PROXY says how many proxies in front append to it: the
+ * entry that many places from the right is the one our own proxy wrote (entries to its left are the client's
+ * say-so). Without a trusted proxy, or with an unusable header, every client shares the key "direct".
+ */
+export function clientAddressKey(request: Request, trustedProxyHops = env.trustedProxyHops): string {
+  if (trustedProxyHops > 0) {
+    const hops = (request.headers.get("X-Forwarded-For") ?? "").split(",").map((h) => h.trim()).filter(Boolean);
+    const entry = hops[hops.length - trustedProxyHops];
+    const key = entry ? addressKeyOf(entry) : null;
+    if (key) return key;
+  }
+  return SHARED_ADDRESS_KEY;
+}
