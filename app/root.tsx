@@ -4,7 +4,16 @@ import "@fontsource/barlow/600.css";
 import "@fontsource/barlow/700.css";
 import "./app.css";
 import { useEffect } from "react";
-import { data, isRouteErrorResponse, Links, Meta, Outlet, Scripts, ScrollRestoration, useRouteLoaderData } from "react-router";
+import {
+  data,
+  isRouteErrorResponse,
+  Links,
+  Meta,
+  Outlet,
+  Scripts,
+  ScrollRestoration,
+  useRouteLoaderData,
+} from "react-router";
 import type { Route } from "./+types/root";
 import { AppShell } from "~/components/app-shell";
 import { useCspNonce } from "~/utils/csp-nonce";
@@ -21,7 +30,10 @@ export const links: Route.LinksFunction = () => [{ rel: "icon", href: "/favicon.
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await getUser(request);
   const flash = await readFlash(request);
-  return data({ user, flash: flash.message }, flash.setCookie ? { headers: { "Set-Cookie": flash.setCookie } } : undefined);
+  return data(
+    { user, flash: flash.message },
+    flash.setCookie ? { headers: { "Set-Cookie": flash.setCookie } } : undefined,
+  );
 }
 
 export function Layout({ children }: { children: React.ReactNode }) {
@@ -37,7 +49,11 @@ export function Layout({ children }: { children: React.ReactNode }) {
         <meta name="viewport" content="width=device-width, initial-scale=1" />
         {/* zod probes `new Function` when it builds its first object schema; the CSP refuses that and reports it as
             a violation, so zod is told to go without before any module runs. */}
-        <script nonce={nonce} suppressHydrationWarning dangerouslySetInnerHTML={{ __html: "globalThis.__zod_globalConfig={jitless:true};" }} />
+        <script
+          nonce={nonce}
+          suppressHydrationWarning
+          dangerouslySetInnerHTML={{ __html: "globalThis.__zod_globalConfig={jitless:true};" }}
+        />
         <Meta />
         {/* Stylesheets and icons need no nonce (style-src allows inline styles, links are same-origin). An empty one stops
             React Router giving them the script nonce, which the browser hides from the page, so hydration saw a mismatch. */}
@@ -62,7 +78,8 @@ export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
   let title = "Something went wrong";
   let detail = "The page could not be shown. Try again; if it keeps happening, tell your admin what you were doing.";
   if (isRouteErrorResponse(error)) {
-    const message = typeof error.data === "object" && error.data && "message" in error.data ? String(error.data.message) : null;
+    const message =
+      typeof error.data === "object" && error.data && "message" in error.data ? String(error.data.message) : null;
     if (error.status === 403) {
       title = "Not for your role";
       detail = message ?? "Your roles do not include this page.";

@@ -19,7 +19,9 @@ interface SqliteBackup {
   readonly pageCount: number;
   retryErrors: number[];
 }
-type DatabaseWithBackup = sqlite3.Database & { backup(filename: string, callback: (err: Error | null) => void): SqliteBackup };
+type DatabaseWithBackup = sqlite3.Database & {
+  backup(filename: string, callback: (err: Error | null) => void): SqliteBackup;
+};
 
 function open(file: string, mode: number): Promise<sqlite3.Database> {
   return new Promise((resolve, reject) => {
@@ -49,7 +51,10 @@ function removeSidecars(file: string) {
 
 /** A UTC timestamp that sorts and is safe in a file name: 20260314T102205Z. */
 export function fileTimestamp(now = new Date()) {
-  return now.toISOString().replace(/[-:]/g, "").replace(/\.\d{3}Z$/, "Z");
+  return now
+    .toISOString()
+    .replace(/[-:]/g, "")
+    .replace(/\.\d{3}Z$/, "Z");
 }
 
 /** Where `db:backup` writes by default: `backups/plumbline-<UTC timestamp>.sqlite` beside the database (data/backups by default). */
@@ -82,18 +87,34 @@ export async function checkPlumblineDatabase(file: string): Promise<DatabaseChec
     if (verdict.length !== 1 || verdict[0] !== "ok") {
       return { ok: false, problem: `${file} fails PRAGMA integrity_check: ${verdict.slice(0, 3).join("; ")}` };
     }
-    const tables = await all<{ name: string }>(db, `SELECT name FROM sqlite_master WHERE type = 'table' AND name = '${MIGRATION_TABLE}'`);
-    if (tables.length === 0) return { ok: false, problem: `${file} is an SQLite database but not Plumbline's: it has no ${MIGRATION_TABLE} table.` };
-    const applied = (await all<{ name: string }>(db, `SELECT name FROM "${MIGRATION_TABLE}" ORDER BY name`)).map((r) => r.name);
-    if (applied.length === 0) return { ok: false, problem: `${file} has no migrations applied: it is not a Plumbline database in use.` };
+    const tables = await all<{ name: string }>(
+      db,
+      `SELECT name FROM sqlite_master WHERE type = 'table' AND name = '${MIGRATION_TABLE}'`,
+    );
+    if (tables.length === 0)
+      return {
+        ok: false,
+        problem: `${file} is an SQLite database but not Plumbline's: it has no ${MIGRATION_TABLE} table.`,
+      };
+    const applied = (await all<{ name: string }>(db, `SELECT name FROM "${MIGRATION_TABLE}" ORDER BY name`)).map(
+      (r) => r.name,
+    );
+    if (applied.length === 0)
+      return { ok: false, problem: `${file} has no migrations applied: it is not a Plumbline database in use.` };
     const known = new Set(migrations.map(([name]) => name));
     const unknown = applied.filter((name) => !known.has(name));
     if (unknown.length > 0) {
-      return { ok: false, problem: `${file} was made by a newer Plumbline (migrations ${unknown.join(", ")} are unknown here): deploy that version, then restore.` };
+      return {
+        ok: false,
+        problem: `${file} was made by a newer Plumbline (migrations ${unknown.join(", ")} are unknown here): deploy that version, then restore.`,
+      };
     }
     return { ok: true, migrations: applied };
   } catch (error) {
-    return { ok: false, problem: `${file} cannot be read as a database: ${error instanceof Error ? error.message : String(error)}` };
+    return {
+      ok: false,
+      problem: `${file} cannot be read as a database: ${error instanceof Error ? error.message : String(error)}`,
+    };
   } finally {
     await close(db);
   }
@@ -109,7 +130,8 @@ export type BackupResult = { file: string; bytes: number; pages: number; migrati
  */
 export async function backupDatabase(databasePath: string, target: string): Promise<BackupResult> {
   if (!fs.existsSync(databasePath)) throw new Error(`There is no database at ${databasePath}.`);
-  if (fs.existsSync(target)) throw new Error(`${target} exists already; choose another name (backups are never overwritten).`);
+  if (fs.existsSync(target))
+    throw new Error(`${target} exists already; choose another name (backups are never overwritten).`);
   fs.mkdirSync(path.dirname(path.resolve(target)), { recursive: true });
   const partial = `${target}.partial`;
   fs.rmSync(partial, { force: true });
@@ -192,7 +214,12 @@ export async function isDatabaseInUse(databasePath: string): Promise<boolean> {
   }
 }
 
-export type RestoreResult = { restoredFrom: string; databasePath: string; previousKeptAs: string | null; migrations: number };
+export type RestoreResult = {
+  restoredFrom: string;
+  databasePath: string;
+  previousKeptAs: string | null;
+  migrations: number;
+};
 
 /**
  * Replaces the database at `databasePath` with the backup `backupFile`. The app must be stopped: it
@@ -201,7 +228,11 @@ export type RestoreResult = { restoredFrom: string; databasePath: string; previo
  * `<db>.before-restore-<UTC timestamp>`, and stale -wal/-shm files are removed so SQLite cannot
  * replay the old database's log onto the restored one.
  */
-export async function restoreDatabase(backupFile: string, databasePath: string, now = new Date()): Promise<RestoreResult> {
+export async function restoreDatabase(
+  backupFile: string,
+  databasePath: string,
+  now = new Date(),
+): Promise<RestoreResult> {
   const backupResolved = path.resolve(backupFile);
   const dbResolved = path.resolve(databasePath);
   if (!fs.existsSync(backupResolved)) throw new Error(`There is no backup at ${backupFile}.`);
@@ -220,13 +251,17 @@ export async function restoreDatabase(backupFile: string, databasePath: string, 
     let previousKeptAs: string | null = null;
     if (fs.existsSync(dbResolved)) {
       if (await isDatabaseInUse(dbResolved)) {
-        throw new Error(`Not restored: ${databasePath} is in use. Stop Plumbline (and any \`npm run reminders\` run) first, then restore.`);
+        throw new Error(
+          `Not restored: ${databasePath} is in use. Stop Plumbline (and any \`npm run reminders\` run) first, then restore.`,
+        );
       }
       previousKeptAs = `${dbResolved}.before-restore-${stamp}`;
-      if (fs.existsSync(previousKeptAs)) throw new Error(`Not restored: ${previousKeptAs} exists already; try again in a second.`);
+      if (fs.existsSync(previousKeptAs))
+        throw new Error(`Not restored: ${previousKeptAs} exists already; try again in a second.`);
       fs.renameSync(dbResolved, previousKeptAs);
       // The checkpoint emptied the log; one left over (an unreadable file was not checkpointed) goes with its file.
-      if (fs.existsSync(`${dbResolved}-wal`) && fs.statSync(`${dbResolved}-wal`).size > 0) fs.renameSync(`${dbResolved}-wal`, `${previousKeptAs}-wal`);
+      if (fs.existsSync(`${dbResolved}-wal`) && fs.statSync(`${dbResolved}-wal`).size > 0)
+        fs.renameSync(`${dbResolved}-wal`, `${previousKeptAs}-wal`);
     }
     removeSidecars(dbResolved);
     const fd = fs.openSync(staged, "r");

@@ -13,7 +13,9 @@ async function main(command: string | undefined, argument: string | undefined) {
   switch (command) {
     case "migrate": {
       const applied = await migrator.up();
-      console.log(`Migrations applied: ${applied.length ? applied.map((m) => m.name).join(", ") : "none pending"} (${env.databasePath})`);
+      console.log(
+        `Migrations applied: ${applied.length ? applied.map((m) => m.name).join(", ") : "none pending"} (${env.databasePath})`,
+      );
       break;
     }
     case "setup": {
@@ -32,15 +34,25 @@ async function main(command: string | undefined, argument: string | undefined) {
     }
     case "backup": {
       const done = await backupDatabase(env.databasePath, argument ?? defaultBackupPath(env.databasePath));
-      console.log(`Backed up ${env.databasePath} to ${done.file} (${(done.bytes / 1024 / 1024).toFixed(1)} MB, ${done.migrations} migrations, integrity ok)`);
+      console.log(
+        `Backed up ${env.databasePath} to ${done.file} (${(done.bytes / 1024 / 1024).toFixed(1)} MB, ${done.migrations} migrations, integrity ok)`,
+      );
       break;
     }
     case "restore": {
       if (!argument) throw new Error("Usage: npm run db:restore <backup file> (stop the app first)");
       const done = await restoreDatabase(argument, env.databasePath);
-      console.log(`Restored ${done.databasePath} from ${done.restoredFrom} (${done.migrations} migrations, integrity ok).`);
-      console.log(done.previousKeptAs ? `The database it replaced is kept as ${done.previousKeptAs}.` : "There was no database to replace.");
-      console.log("Copy the matching uploads back into UPLOAD_DIR, then start the app (npm start applies any newer migrations).");
+      console.log(
+        `Restored ${done.databasePath} from ${done.restoredFrom} (${done.migrations} migrations, integrity ok).`,
+      );
+      console.log(
+        done.previousKeptAs
+          ? `The database it replaced is kept as ${done.previousKeptAs}.`
+          : "There was no database to replace.",
+      );
+      console.log(
+        "Copy the matching uploads back into UPLOAD_DIR, then start the app (npm start applies any newer migrations).",
+      );
       break;
     }
     default:

@@ -7,7 +7,9 @@ async function main() {
   const summaries = await sendExaminationReminders();
   if (!summaries.length) console.log("No gear is overdue or due within 30 days: no reminders sent.");
   for (const s of summaries) {
-    const to = s.recipients.length ? `sent to ${s.recipients.join(", ")}` : "NOT sent: the organisation has no active admin";
+    const to = s.recipients.length
+      ? `sent to ${s.recipients.join(", ")}`
+      : "NOT sent: the organisation has no active admin";
     console.log(`Organisation ${s.organisationId}: ${s.overdue} overdue, ${s.dueSoon} due soon; ${to}.`);
   }
   await sequelize.close();

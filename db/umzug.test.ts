@@ -27,9 +27,15 @@ describe("migrations", () => {
 
   it("open connections with foreign keys enforced and WAL journalling", async () => {
     const [fk] = await sequelize.query<{ foreign_keys: number }>("PRAGMA foreign_keys", { type: QueryTypes.SELECT });
-    const [journal] = await sequelize.query<{ journal_mode: string }>("PRAGMA journal_mode", { type: QueryTypes.SELECT });
+    const [journal] = await sequelize.query<{ journal_mode: string }>("PRAGMA journal_mode", {
+      type: QueryTypes.SELECT,
+    });
     expect(fk?.foreign_keys).toBe(1);
     expect(journal?.journal_mode).toBe("wal");
-    await expect(sequelize.query("INSERT INTO jobs (organisation_id, site_id, work_order, title, created_at, updated_at) VALUES (999, 999, 'x', 'x', 0, 0)")).rejects.toThrow(/FOREIGN KEY/);
+    await expect(
+      sequelize.query(
+        "INSERT INTO jobs (organisation_id, site_id, work_order, title, created_at, updated_at) VALUES (999, 999, 'x', 'x', 0, 0)",
+      ),
+    ).rejects.toThrow(/FOREIGN KEY/);
   });
 });

@@ -13,7 +13,15 @@ function PlumbMark() {
   );
 }
 
-export function AppShell({ user, flash, children }: { user: ShellUser | null; flash: string | null; children: React.ReactNode }) {
+export function AppShell({
+  user,
+  flash,
+  children,
+}: {
+  user: ShellUser | null;
+  flash: string | null;
+  children: React.ReactNode;
+}) {
   return (
     <div className="flex min-h-screen flex-col">
       <header className="no-print border-b border-rule bg-ink text-paper">
@@ -72,7 +80,8 @@ export function AppShell({ user, flash, children }: { user: ShellUser | null; fl
       )}
       <main className="mx-auto w-full max-w-6xl flex-1 px-4 py-6">{children}</main>
       <footer className="no-print border-t border-rule py-3 text-center text-xs text-ink-soft">
-        Plumbline supports, and does not replace, the judgement of the appointed person and your local lifting regulations.
+        Plumbline supports, and does not replace, the judgement of the appointed person and your local lifting
+        regulations.
         {user && (
           <>
             {" "}

@@ -29,7 +29,18 @@ import {
 } from "~/utils/format";
 
 type Errors = Record<string, string[] | undefined>;
-type LiftRow = { key: number; label: string; x: string; y: string; z: string; ax: string; ay: string; az: string; thread: string; engagement: string };
+type LiftRow = {
+  key: number;
+  label: string;
+  x: string;
+  y: string;
+  z: string;
+  ax: string;
+  ay: string;
+  az: string;
+  thread: string;
+  engagement: string;
+};
 type PartRow = { key: number; name: string; mass: string; x: string; y: string; z: string };
 
 let nextKey = 1;
@@ -43,7 +54,10 @@ function initialState(def: ComponentDefinition | null, units: Units) {
   const len = (m: number) => inputNumber(toDisplayLength(m, units), units === "metric" ? 1 : 3);
   const mass = (kg: number) => inputNumber(toDisplayMass(kg, units), 2);
   const rectangle = def ? rectangleOutlines(def.lengthM, def.widthM, def.heightM) : null;
-  const isRectangle = !def || JSON.stringify(def.outlineElevation) === JSON.stringify(rectangle?.outlineElevation) && JSON.stringify(def.outlinePlan) === JSON.stringify(rectangle?.outlinePlan);
+  const isRectangle =
+    !def ||
+    (JSON.stringify(def.outlineElevation) === JSON.stringify(rectangle?.outlineElevation) &&
+      JSON.stringify(def.outlinePlan) === JSON.stringify(rectangle?.outlinePlan));
   return {
     head: {
       name: def?.name ?? "",
@@ -74,9 +88,19 @@ function initialState(def: ComponentDefinition | null, units: Units) {
       ay: inputNumber(p.axis.y, 4),
       az: inputNumber(p.axis.z, 4),
       thread: p.thread,
-      engagement: p.engagementMm === null ? "" : inputNumber(units === "metric" ? p.engagementMm : convertLength(p.engagementMm, "mm", "in"), 2),
+      engagement:
+        p.engagementMm === null
+          ? ""
+          : inputNumber(units === "metric" ? p.engagementMm : convertLength(p.engagementMm, "mm", "in"), 2),
     })),
-    parts: (def?.parts ?? []).map<PartRow>((p) => ({ key: nextKey++, name: p.name, mass: mass(p.massKg), x: len(p.position.x), y: len(p.position.y), z: len(p.position.z) })),
+    parts: (def?.parts ?? []).map<PartRow>((p) => ({
+      key: nextKey++,
+      name: p.name,
+      mass: mass(p.massKg),
+      x: len(p.position.x),
+      y: len(p.position.y),
+      z: len(p.position.z),
+    })),
   };
 }
 
@@ -101,17 +125,29 @@ export function ComponentForm({
   const navigation = useNavigation();
   const lu = lengthUnitLabel(units);
   const mu = massUnitLabel(units);
-  const set = (field: keyof typeof head) => (e: React.ChangeEvent<HTMLInputElement | HTMLSelectElement | HTMLTextAreaElement>) =>
-    setHead((h) => ({ ...h, [field]: e.target.value }));
+  const set =
+    (field: keyof typeof head) => (e: React.ChangeEvent<HTMLInputElement | HTMLSelectElement | HTMLTextAreaElement>) =>
+      setHead((h) => ({ ...h, [field]: e.target.value }));
 
   const composite = useMemo(() => {
-    const parsed = parts.map((p) => ({ name: p.name, mass: toNumber(p.mass), x: toNumber(p.x), y: toNumber(p.y), z: toNumber(p.z) }));
-    if (!parsed.length || parsed.some((p) => p.mass === null || p.x === null || p.y === null || p.z === null)) return null;
+    const parsed = parts.map((p) => ({
+      name: p.name,
+      mass: toNumber(p.mass),
+      x: toNumber(p.x),
+      y: toNumber(p.y),
+      z: toNumber(p.z),
+    }));
+    if (!parsed.length || parsed.some((p) => p.mass === null || p.x === null || p.y === null || p.z === null))
+      return null;
     return compositeMassAndCog(
       parsed.map((p) => ({
         name: p.name,
         massKg: fromDisplayMass(p.mass!, units),
-        position: { x: fromDisplayLength(p.x!, units), y: fromDisplayLength(p.y!, units), z: fromDisplayLength(p.z!, units) },
+        position: {
+          x: fromDisplayLength(p.x!, units),
+          y: fromDisplayLength(p.y!, units),
+          z: fromDisplayLength(p.z!, units),
+        },
       })),
     );
   }, [parts, units]);
@@ -125,7 +161,12 @@ export function ComponentForm({
       const parse = (t: string) =>
         t
           .split(/\n/)
-          .map((line) => line.split(/[\s,;]+/).filter(Boolean).map(Number))
+          .map((line) =>
+            line
+              .split(/[\s,;]+/)
+              .filter(Boolean)
+              .map(Number),
+          )
           .filter((p) => p.length === 2 && p.every(Number.isFinite))
           .map(([a, b]) => [L(a!), L(b!)] as [number, number]);
       const elevation = parse(head.outlineElevation);
@@ -137,7 +178,10 @@ export function ComponentForm({
       cog: { x: L(toNumber(head.cogX) ?? 0), y: L(toNumber(head.cogY) ?? 0), z: L(toNumber(head.cogZ) ?? 0) },
       liftPoints: liftPoints
         .filter((p) => p.label && toNumber(p.x) !== null && toNumber(p.y) !== null && toNumber(p.z) !== null)
-        .map((p) => ({ label: p.label, position: { x: L(toNumber(p.x)!), y: L(toNumber(p.y)!), z: L(toNumber(p.z)!) } })),
+        .map((p) => ({
+          label: p.label,
+          position: { x: L(toNumber(p.x)!), y: L(toNumber(p.y)!), z: L(toNumber(p.z)!) },
+        })),
     };
   }, [head, liftPoints, units]);
 
@@ -160,8 +204,14 @@ export function ComponentForm({
     const [l, w, h] = [toNumber(head.length), toNumber(head.width), toNumber(head.height)];
     if (!l || !w || !h) return;
     const r = rectangleOutlines(l, w, h);
-    const fmt = (pts: Array<[number, number]>) => pts.map(([a, b]) => `${inputNumber(a, 3)}, ${inputNumber(b, 3)}`).join("\n");
-    setHead((s) => ({ ...s, outlineMode: "custom", outlineElevation: fmt(r.outlineElevation), outlinePlan: fmt(r.outlinePlan) }));
+    const fmt = (pts: Array<[number, number]>) =>
+      pts.map(([a, b]) => `${inputNumber(a, 3)}, ${inputNumber(b, 3)}`).join("\n");
+    setHead((s) => ({
+      ...s,
+      outlineMode: "custom",
+      outlineElevation: fmt(r.outlineElevation),
+      outlinePlan: fmt(r.outlinePlan),
+    }));
   }
 
   const nextLabel = () => {
@@ -181,23 +231,65 @@ export function ComponentForm({
           <Card title="The component">
             <div className="grid gap-4 sm:grid-cols-2">
               <Field label="Name" name="name" value={head.name} onChange={set("name")} required errors={errors.name} />
-              <TextAreaField label="Description" name="description" value={head.description} onChange={set("description")} errors={errors.description} />
-              <Field label={`Length along x (${lu})`} name="length" inputMode="decimal" value={head.length} onChange={set("length")} required errors={errors.length} />
-              <Field label={`Width along y (${lu})`} name="width" inputMode="decimal" value={head.width} onChange={set("width")} required errors={errors.width} />
-              <Field label={`Height along z (${lu})`} name="height" inputMode="decimal" value={head.height} onChange={set("height")} required errors={errors.height} />
+              <TextAreaField
+                label="Description"
+                name="description"
+                value={head.description}
+                onChange={set("description")}
+                errors={errors.description}
+              />
+              <Field
+                label={`Length along x (${lu})`}
+                name="length"
+                inputMode="decimal"
+                value={head.length}
+                onChange={set("length")}
+                required
+                errors={errors.length}
+              />
+              <Field
+                label={`Width along y (${lu})`}
+                name="width"
+                inputMode="decimal"
+                value={head.width}
+                onChange={set("width")}
+                required
+                errors={errors.width}
+              />
+              <Field
+                label={`Height along z (${lu})`}
+                name="height"
+                inputMode="decimal"
+                value={head.height}
+                onChange={set("height")}
+                required
+                errors={errors.height}
+              />
             </div>
           </Card>
 
           <Card title="Mass">
             <div className="grid gap-4 sm:grid-cols-3">
-              <Field label={`Mass (${mu})`} name="mass" inputMode="decimal" value={head.mass} onChange={set("mass")} required errors={errors.mass} />
+              <Field
+                label={`Mass (${mu})`}
+                name="mass"
+                inputMode="decimal"
+                value={head.mass}
+                onChange={set("mass")}
+                required
+                errors={errors.mass}
+              />
               <SelectField
                 label="Where the mass comes from"
                 name="massSource"
                 value={head.massSource}
                 onChange={(e) => {
                   const source = e.target.value as MassSource;
-                  setHead((h) => ({ ...h, massSource: source, contingencyPct: String(DEFAULT_CONTINGENCY_PCT[source]) }));
+                  setHead((h) => ({
+                    ...h,
+                    massSource: source,
+                    contingencyPct: String(DEFAULT_CONTINGENCY_PCT[source]),
+                  }));
                 }}
                 errors={errors.massSource}
                 options={MASS_SOURCES.map((s) => ({ value: s, label: MASS_SOURCE_LABELS[s] }))}
@@ -212,20 +304,50 @@ export function ComponentForm({
                 hint="Added to the mass in every plan. The default follows the source; an estimate must carry one."
               />
               <div className="sm:col-span-3">
-                <Field label="Mass reference (certificate, drawing, weighing record)" name="massNote" value={head.massNote} onChange={set("massNote")} errors={errors.massNote} />
+                <Field
+                  label="Mass reference (certificate, drawing, weighing record)"
+                  name="massNote"
+                  value={head.massNote}
+                  onChange={set("massNote")}
+                  errors={errors.massNote}
+                />
               </div>
             </div>
           </Card>
 
           <Card title="Centre of gravity">
             <p className="mb-3 text-sm text-ink-soft">
-              In the component's own frame: x along the length, y across, z up as it sits level. The drawn outline is centred on x and y with its
-              base at z = 0 unless you give your own outline.
+              In the component's own frame: x along the length, y across, z up as it sits level. The drawn outline is
+              centred on x and y with its base at z = 0 unless you give your own outline.
             </p>
             <div className="grid gap-4 sm:grid-cols-3">
-              <Field label={`CoG x (${lu})`} name="cogX" inputMode="decimal" value={head.cogX} onChange={set("cogX")} required errors={errors.cogX} />
-              <Field label={`CoG y (${lu})`} name="cogY" inputMode="decimal" value={head.cogY} onChange={set("cogY")} required errors={errors.cogY} />
-              <Field label={`CoG z (${lu})`} name="cogZ" inputMode="decimal" value={head.cogZ} onChange={set("cogZ")} required errors={errors.cogZ} />
+              <Field
+                label={`CoG x (${lu})`}
+                name="cogX"
+                inputMode="decimal"
+                value={head.cogX}
+                onChange={set("cogX")}
+                required
+                errors={errors.cogX}
+              />
+              <Field
+                label={`CoG y (${lu})`}
+                name="cogY"
+                inputMode="decimal"
+                value={head.cogY}
+                onChange={set("cogY")}
+                required
+                errors={errors.cogY}
+              />
+              <Field
+                label={`CoG z (${lu})`}
+                name="cogZ"
+                inputMode="decimal"
+                value={head.cogZ}
+                onChange={set("cogZ")}
+                required
+                errors={errors.cogZ}
+              />
               <SelectField
                 label="Where the CoG comes from"
                 name="cogSource"
@@ -235,15 +357,21 @@ export function ComponentForm({
                 options={COG_SOURCES.map((s) => ({ value: s, label: COG_SOURCE_LABELS[s] }))}
               />
               <div className="sm:col-span-2">
-                <Field label="CoG reference" name="cogNote" value={head.cogNote} onChange={set("cogNote")} errors={errors.cogNote} />
+                <Field
+                  label="CoG reference"
+                  name="cogNote"
+                  value={head.cogNote}
+                  onChange={set("cogNote")}
+                  errors={errors.cogNote}
+                />
               </div>
             </div>
           </Card>
 
           <Card title="Lift points">
             <p className="mb-3 text-sm text-ink-soft">
-              Each point is where a leg's line of force acts (the eye of the eyebolt, the shackle pin). The axis is the direction out of the tapped
-              hole's surface: 0, 0, 1 for a hole in the top face.
+              Each point is where a leg's line of force acts (the eye of the eyebolt, the shackle pin). The axis is the
+              direction out of the tapped hole's surface: 0, 0, 1 for a hole in the top face.
             </p>
             <FieldError errors={errors.liftPoints} />
             {liftPoints.length > 0 && (
@@ -266,7 +394,9 @@ export function ComponentForm({
                   <tbody>
                     {liftPoints.map((p, i) => {
                       const update = (field: keyof LiftRow) => (e: React.ChangeEvent<HTMLInputElement>) =>
-                        setLiftPoints((rows) => rows.map((r) => (r.key === p.key ? { ...r, [field]: e.target.value } : r)));
+                        setLiftPoints((rows) =>
+                          rows.map((r) => (r.key === p.key ? { ...r, [field]: e.target.value } : r)),
+                        );
                       const cell = (field: keyof LiftRow, label: string, width = "w-20") => (
                         <>
                           <input
@@ -292,7 +422,11 @@ export function ComponentForm({
                           <td>{cell("thread", "thread", "w-20")}</td>
                           <td>{cell("engagement", "thread engagement", "w-20")}</td>
                           <td>
-                            <button type="button" className="text-sm text-fail underline" onClick={() => setLiftPoints((rows) => rows.filter((r) => r.key !== p.key))}>
+                            <button
+                              type="button"
+                              className="text-sm text-fail underline"
+                              onClick={() => setLiftPoints((rows) => rows.filter((r) => r.key !== p.key))}
+                            >
                               Remove {p.label || "point"}
                             </button>
                           </td>
@@ -309,7 +443,21 @@ export function ComponentForm({
               className="mt-3"
               disabled={liftPoints.length >= MAX_LIFT_POINTS}
               onClick={() =>
-                setLiftPoints((rows) => [...rows, { key: nextKey++, label: nextLabel(), x: "", y: "", z: head.height, ax: "0", ay: "0", az: "1", thread: "", engagement: "" }])
+                setLiftPoints((rows) => [
+                  ...rows,
+                  {
+                    key: nextKey++,
+                    label: nextLabel(),
+                    x: "",
+                    y: "",
+                    z: head.height,
+                    ax: "0",
+                    ay: "0",
+                    az: "1",
+                    thread: "",
+                    engagement: "",
+                  },
+                ])
               }
             >
               Add a lift point
@@ -318,7 +466,8 @@ export function ComponentForm({
 
           <Card title="Composite calculator">
             <p className="mb-3 text-sm text-ink-soft">
-              Build the mass and CoG from parts (for example the element, a fitted gear and the coupling): G = Σ mᵢ rᵢ / Σ mᵢ.
+              Build the mass and CoG from parts (for example the element, a fitted gear and the coupling): G = Σ mᵢ rᵢ /
+              Σ mᵢ.
             </p>
             <FieldError errors={errors.parts} />
             {parts.length > 0 && (
@@ -361,7 +510,11 @@ export function ComponentForm({
                           <td>{cell("y", "y")}</td>
                           <td>{cell("z", "z")}</td>
                           <td>
-                            <button type="button" className="text-sm text-fail underline" onClick={() => setParts((rows) => rows.filter((r) => r.key !== p.key))}>
+                            <button
+                              type="button"
+                              className="text-sm text-fail underline"
+                              onClick={() => setParts((rows) => rows.filter((r) => r.key !== p.key))}
+                            >
                               Remove
                             </button>
                           </td>
@@ -376,10 +529,14 @@ export function ComponentForm({
               <div className="mt-3 rounded bg-steel-soft p-3 text-sm" data-testid="composite-result">
                 <p>
                   Σ m = <strong>{formatMass(composite.massKg, units)}</strong>; Σ m·x, Σ m·y, Σ m·z ={" "}
-                  {[composite.momentKgM.x, composite.momentKgM.y, composite.momentKgM.z].map((v) => v.toFixed(1)).join(", ")} kg·m
+                  {[composite.momentKgM.x, composite.momentKgM.y, composite.momentKgM.z]
+                    .map((v) => v.toFixed(1))
+                    .join(", ")}{" "}
+                  kg·m
                 </p>
                 <p>
-                  G = ({formatLength(composite.cog.x, units)}, {formatLength(composite.cog.y, units)}, {formatLength(composite.cog.z, units)})
+                  G = ({formatLength(composite.cog.x, units)}, {formatLength(composite.cog.y, units)},{" "}
+                  {formatLength(composite.cog.z, units)})
                 </p>
                 <Button type="button" tone="secondary" className="mt-2" onClick={applyComposite}>
                   Use as the component's mass and CoG
@@ -391,7 +548,9 @@ export function ComponentForm({
               tone="secondary"
               className="mt-3"
               disabled={parts.length >= MAX_PARTS}
-              onClick={() => setParts((rows) => [...rows, { key: nextKey++, name: "", mass: "", x: "0", y: "0", z: "0" }])}
+              onClick={() =>
+                setParts((rows) => [...rows, { key: nextKey++, name: "", mass: "", x: "0", y: "0", z: "0" }])
+              }
             >
               Add a part
             </Button>
@@ -401,18 +560,44 @@ export function ComponentForm({
             <fieldset className="space-y-2 text-sm">
               <legend className="sr-only">Outline</legend>
               <label className="flex items-center gap-2">
-                <input type="radio" name="outlineMode" value="rectangle" checked={head.outlineMode === "rectangle"} onChange={set("outlineMode")} />
+                <input
+                  type="radio"
+                  name="outlineMode"
+                  value="rectangle"
+                  checked={head.outlineMode === "rectangle"}
+                  onChange={set("outlineMode")}
+                />
                 A box of the overall dimensions
               </label>
               <label className="flex items-center gap-2">
-                <input type="radio" name="outlineMode" value="custom" checked={head.outlineMode === "custom"} onChange={set("outlineMode")} />
+                <input
+                  type="radio"
+                  name="outlineMode"
+                  value="custom"
+                  checked={head.outlineMode === "custom"}
+                  onChange={set("outlineMode")}
+                />
                 My own outline (corners, one "a, b" pair per line, in {lu})
               </label>
             </fieldset>
             {head.outlineMode === "custom" ? (
               <div className="mt-3 grid gap-4 sm:grid-cols-2">
-                <TextAreaField label="Elevation corners (x, z)" name="outlineElevation" rows={6} value={head.outlineElevation} onChange={set("outlineElevation")} errors={errors.outlineElevation} />
-                <TextAreaField label="Plan corners (x, y)" name="outlinePlan" rows={6} value={head.outlinePlan} onChange={set("outlinePlan")} errors={errors.outlinePlan} />
+                <TextAreaField
+                  label="Elevation corners (x, z)"
+                  name="outlineElevation"
+                  rows={6}
+                  value={head.outlineElevation}
+                  onChange={set("outlineElevation")}
+                  errors={errors.outlineElevation}
+                />
+                <TextAreaField
+                  label="Plan corners (x, y)"
+                  name="outlinePlan"
+                  rows={6}
+                  value={head.outlinePlan}
+                  onChange={set("outlinePlan")}
+                  errors={errors.outlinePlan}
+                />
                 <Button type="button" tone="secondary" onClick={useRectangle}>
                   Start from the box
                 </Button>
@@ -431,7 +616,9 @@ export function ComponentForm({
           {preview ? (
             <ComponentViews data={preview} units={units} />
           ) : (
-            <p className="rounded border border-dashed border-rule p-4 text-sm text-ink-soft">Enter the length, width and height to see the outline.</p>
+            <p className="rounded border border-dashed border-rule p-4 text-sm text-ink-soft">
+              Enter the length, width and height to see the outline.
+            </p>
           )}
           <Button type="submit" className="w-full" disabled={navigation.state === "submitting"}>
             {navigation.state === "submitting" ? "Saving…" : submitLabel}

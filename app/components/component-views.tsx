@@ -51,7 +51,12 @@ function View({
   return (
     <figure className="rounded border border-rule bg-white p-2">
       <svg viewBox={`0 0 ${SIZE} ${SIZE}`} className="h-auto w-full" role="img" aria-label={`${title}, drawn to scale`}>
-        <polygon points={outline.map((p) => `${X(p[0])},${Y(p[1])}`).join(" ")} fill="#dbe8f1" stroke="#2f5d7c" strokeWidth="1.5" />
+        <polygon
+          points={outline.map((p) => `${X(p[0])},${Y(p[1])}`).join(" ")}
+          fill="#dbe8f1"
+          stroke="#2f5d7c"
+          strokeWidth="1.5"
+        />
         {marks.map((m) => (
           <g key={m.label}>
             <circle cx={X(m.a)} cy={Y(m.b)} r="4" fill="#9a6a14" />
@@ -62,14 +67,27 @@ function View({
         ))}
         <g aria-label="centre of gravity">
           <circle cx={X(cog.a)} cy={Y(cog.b)} r="7" fill="white" stroke="#17212b" strokeWidth="1.5" />
-          <path d={`M${X(cog.a)},${Y(cog.b) - 7} A7,7 0 0,1 ${X(cog.a) + 7},${Y(cog.b)} L${X(cog.a)},${Y(cog.b)} Z`} fill="#17212b" />
-          <path d={`M${X(cog.a)},${Y(cog.b) + 7} A7,7 0 0,1 ${X(cog.a) - 7},${Y(cog.b)} L${X(cog.a)},${Y(cog.b)} Z`} fill="#17212b" />
+          <path
+            d={`M${X(cog.a)},${Y(cog.b) - 7} A7,7 0 0,1 ${X(cog.a) + 7},${Y(cog.b)} L${X(cog.a)},${Y(cog.b)} Z`}
+            fill="#17212b"
+          />
+          <path
+            d={`M${X(cog.a)},${Y(cog.b) + 7} A7,7 0 0,1 ${X(cog.a) - 7},${Y(cog.b)} L${X(cog.a)},${Y(cog.b)} Z`}
+            fill="#17212b"
+          />
           <text x={X(cog.a) + 9} y={Y(cog.b) + 14} fontSize="11" fill="#17212b">
             CoG
           </text>
         </g>
         <g>
-          <line x1={MARGIN / 2} y1={SIZE - 8} x2={MARGIN / 2 + bar * scale} y2={SIZE - 8} stroke="#17212b" strokeWidth="2" />
+          <line
+            x1={MARGIN / 2}
+            y1={SIZE - 8}
+            x2={MARGIN / 2 + bar * scale}
+            y2={SIZE - 8}
+            stroke="#17212b"
+            strokeWidth="2"
+          />
           <text x={MARGIN / 2} y={SIZE - 12} fontSize="10" fill="#3d4a57">
             {formatLength(bar, units)}
           </text>

@@ -73,7 +73,16 @@ export function GearItemForm({
     <Form method="post" className="space-y-5" noValidate>
       <FormError message={errors._form?.join(" ")} />
       <div className="grid gap-4 sm:grid-cols-2">
-        <Field label="Item id" name="itemCode" defaultValue={text("itemCode")} errors={errors.itemCode} required maxLength={40} hint="Your id as marked on the item." autoComplete="off" />
+        <Field
+          label="Item id"
+          name="itemCode"
+          defaultValue={text("itemCode")}
+          errors={errors.itemCode}
+          required
+          maxLength={40}
+          hint="Your id as marked on the item."
+          autoComplete="off"
+        />
         <SelectField
           label="Kind"
           name="kind"
@@ -83,15 +92,43 @@ export function GearItemForm({
           options={GEAR_KINDS.map((k) => ({ value: k, label: GEAR_KIND_INFO[k].label }))}
         />
         <div className="sm:col-span-2">
-          <Field label="Description" name="description" defaultValue={text("description")} errors={errors.description} maxLength={300} />
+          <Field
+            label="Description"
+            name="description"
+            defaultValue={text("description")}
+            errors={errors.description}
+            maxLength={300}
+          />
         </div>
-        <Field label="Manufacturer" name="manufacturer" defaultValue={text("manufacturer")} errors={errors.manufacturer} maxLength={120} />
-        <Field label="Serial number" name="serial" defaultValue={text("serial")} errors={errors.serial} maxLength={80} />
+        <Field
+          label="Manufacturer"
+          name="manufacturer"
+          defaultValue={text("manufacturer")}
+          errors={errors.manufacturer}
+          maxLength={120}
+        />
+        <Field
+          label="Serial number"
+          name="serial"
+          defaultValue={text("serial")}
+          errors={errors.serial}
+          maxLength={80}
+        />
       </div>
       <fieldset className="rounded border border-rule p-3">
         <legend className="px-1 text-sm font-semibold">Working load limit, as marked</legend>
         <div className="grid gap-4 sm:grid-cols-2">
-          <Field label="WLL" name="wllValue" type="number" inputMode="decimal" step="any" min="0" defaultValue={text("wllValue")} errors={errors.wllValue} required />
+          <Field
+            label="WLL"
+            name="wllValue"
+            type="number"
+            inputMode="decimal"
+            step="any"
+            min="0"
+            defaultValue={text("wllValue")}
+            errors={errors.wllValue}
+            required
+          />
           <SelectField
             label="Unit"
             name="wllUnit"
@@ -116,7 +153,10 @@ export function GearItemForm({
         name="homeSiteId"
         defaultValue={text("homeSiteId")}
         errors={errors.homeSiteId}
-        options={[{ value: "", label: "None (kept at the depot)" }, ...sites.map((s) => ({ value: String(s.id), label: s.name }))]}
+        options={[
+          { value: "", label: "None (kept at the depot)" },
+          ...sites.map((s) => ({ value: String(s.id), label: s.name })),
+        ]}
       />
       <Button type="submit">{submitLabel}</Button>
     </Form>

@@ -14,7 +14,9 @@ const DUE_MARKS: Record<DueState, string> = { overdue: "!", due_soon: "◷", in_
 /** The due state in words (and a mark), with colour only as a second signal. */
 export function DueLabel({ state }: { state: DueState }) {
   return (
-    <span className={`inline-flex items-center gap-1 whitespace-nowrap rounded border px-1.5 py-0.5 text-xs ${DUE_TONES[state]}`}>
+    <span
+      className={`inline-flex items-center gap-1 whitespace-nowrap rounded border px-1.5 py-0.5 text-xs ${DUE_TONES[state]}`}
+    >
       <span aria-hidden="true">{DUE_MARKS[state]}</span>
       {DUE_STATE_LABELS[state]}
     </span>

@@ -15,11 +15,17 @@ export function fitNotes(pick: GearPick, thread: string | null, loadKg: number |
   const notes: Array<{ text: string; bad: boolean }> = [];
   if (pick.role === "eyebolt" && thread) {
     const matches = (pick.thread ?? "").toUpperCase() === thread.toUpperCase();
-    notes.push({ text: matches ? `thread ${thread} matches` : `thread ${pick.thread ?? "?"} ≠ hole ${thread}`, bad: !matches });
+    notes.push({
+      text: matches ? `thread ${thread} matches` : `thread ${pick.thread ?? "?"} ≠ hole ${thread}`,
+      bad: !matches,
+    });
   }
   if (loadKg !== null) {
     const enough = pick.wllKg >= loadKg;
-    notes.push({ text: enough ? "WLL covers the load" : `WLL below the ${Math.ceil(loadKg).toLocaleString("en-GB")} kg load`, bad: !enough });
+    notes.push({
+      text: enough ? "WLL covers the load" : `WLL below the ${Math.ceil(loadKg).toLocaleString("en-GB")} kg load`,
+      bad: !enough,
+    });
   }
   notes.push(dueNote(pick));
   return notes;
@@ -140,7 +146,8 @@ export function GearPicker({
         <span className="sr-only">{label}: </span>
         {selected ? (
           <>
-            <span className="font-semibold">{selected.itemCode}</span> <span className="text-ink-soft">{Math.round(selected.wllKg).toLocaleString("en-GB")} kg</span>
+            <span className="font-semibold">{selected.itemCode}</span>{" "}
+            <span className="text-ink-soft">{Math.round(selected.wllKg).toLocaleString("en-GB")} kg</span>
           </>
         ) : (
           <span className="text-ink-soft">none · choose…</span>
@@ -167,12 +174,22 @@ export function GearPicker({
           />
           {error && <p className="mt-1 text-xs text-fail">{error}</p>}
           <p className="sr-only" role="status">
-            {items === null ? "Searching the register…" : `${items.length} ${items.length === 1 ? "item" : "items"} found; arrow down to the list.`}
+            {items === null
+              ? "Searching the register…"
+              : `${items.length} ${items.length === 1 ? "item" : "items"} found; arrow down to the list.`}
           </p>
-          <ul ref={resultsRef} className="mt-2 max-h-64 overflow-y-auto text-sm" aria-label={`${GEAR_ROLE_LABELS[role]}s in the register`}>
+          <ul
+            ref={resultsRef}
+            className="mt-2 max-h-64 overflow-y-auto text-sm"
+            aria-label={`${GEAR_ROLE_LABELS[role]}s in the register`}
+          >
             {selected && (
               <li>
-                <button type="button" className="w-full px-1 py-1 text-left text-fail hover:bg-paper focus-visible:-outline-offset-2" onClick={() => choose(null)}>
+                <button
+                  type="button"
+                  className="w-full px-1 py-1 text-left text-fail hover:bg-paper focus-visible:-outline-offset-2"
+                  onClick={() => choose(null)}
+                >
                   Remove {selected.itemCode} from this position
                 </button>
               </li>
@@ -190,7 +207,8 @@ export function GearPicker({
                     aria-current={chosen ? "true" : undefined}
                     onClick={() => choose(pick)}
                   >
-                    <span className="font-semibold">{pick.itemCode}</span> {pick.description} · {Math.round(pick.wllKg).toLocaleString("en-GB")} kg
+                    <span className="font-semibold">{pick.itemCode}</span> {pick.description} ·{" "}
+                    {Math.round(pick.wllKg).toLocaleString("en-GB")} kg
                     {chosen && <span className="ml-1 text-xs font-semibold">(chosen)</span>}
                     <span className={`block text-xs ${fits ? "text-pass" : "text-fail"}`}>
                       {fits ? "✓ fits" : "✗"} {notes.map((n) => n.text).join(" · ")}

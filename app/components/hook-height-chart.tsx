@@ -10,7 +10,19 @@ const PAD = { left: 56, right: 56, top: 16, bottom: 34 };
  * The largest leg tension and the largest sling angle against hook height, from the statics core,
  * with the 45 and 60 deg limits and the current setting: longer slings lower the loads.
  */
-export function HookHeightChart({ massKg, cog, points, currentHookZM, units }: { massKg: number; cog: { x: number; y: number; z: number }; points: LiftPoint[]; currentHookZM: number; units: Units }) {
+export function HookHeightChart({
+  massKg,
+  cog,
+  points,
+  currentHookZM,
+  units,
+}: {
+  massKg: number;
+  cog: { x: number; y: number; z: number };
+  points: LiftPoint[];
+  currentHookZM: number;
+  units: Units;
+}) {
   const series = useMemo(() => {
     if (points.length === 0) return [];
     const zTop = Math.max(...points.map((p) => p.position.z));
@@ -22,7 +34,11 @@ export function HookHeightChart({ massKg, cog, points, currentHookZM, units }: {
       const z = from + ((to - from) * i) / 80;
       const r = solveLevel({ massKg, cog }, points, z);
       if (!r.ok) continue;
-      out.push({ z, tensionKg: Math.max(...r.solution.legs.map((l) => l.tensionKg)), angleDeg: Math.max(...r.solution.legs.map((l) => l.angleFromVerticalDeg)) });
+      out.push({
+        z,
+        tensionKg: Math.max(...r.solution.legs.map((l) => l.tensionKg)),
+        angleDeg: Math.max(...r.solution.legs.map((l) => l.angleFromVerticalDeg)),
+      });
     }
     return out;
   }, [massKg, cog, points]);
@@ -41,14 +57,20 @@ export function HookHeightChart({ massKg, cog, points, currentHookZM, units }: {
   const X = (z: number) => PAD.left + ((z - zMin) / (zMax - zMin)) * (W - PAD.left - PAD.right);
   const YT = (t: number) => H - PAD.bottom - (t / tMax) * (H - PAD.top - PAD.bottom);
   const YA = (a: number) => H - PAD.bottom - (a / 90) * (H - PAD.top - PAD.bottom);
-  const path = (f: (s: (typeof series)[number]) => number) => series.map((s, i) => `${i ? "L" : "M"}${X(s.z).toFixed(1)},${f(s).toFixed(1)}`).join(" ");
+  const path = (f: (s: (typeof series)[number]) => number) =>
+    series.map((s, i) => `${i ? "L" : "M"}${X(s.z).toFixed(1)},${f(s).toFixed(1)}`).join(" ");
   const current = Math.min(Math.max(currentHookZM, zMin), zMax);
   return (
     <section className="rounded border border-rule bg-card p-4" aria-labelledby="hook-chart-heading">
       <h2 id="hook-chart-heading" className="text-lg">
         Hook height: leg tension and sling angle
       </h2>
-      <svg viewBox={`0 0 ${W} ${H}`} className="mt-2 h-auto w-full" role="img" aria-label="Largest leg tension and largest sling angle against hook height">
+      <svg
+        viewBox={`0 0 ${W} ${H}`}
+        className="mt-2 h-auto w-full"
+        role="img"
+        aria-label="Largest leg tension and largest sling angle against hook height"
+      >
         <line x1={PAD.left} y1={YA(45)} x2={W - PAD.right} y2={YA(45)} stroke="#9a5b00" strokeDasharray="4 4" />
         <text x={W - PAD.right - 4} y={YA(45) - 4} textAnchor="end" fontSize="11" fill="#9a5b00">
           45° warn
@@ -91,7 +113,8 @@ export function HookHeightChart({ massKg, cog, points, currentHookZM, units }: {
       </svg>
       <p className="text-xs text-ink-soft">
         <span className="font-semibold text-steel">Solid: largest leg tension (kg)</span> ·{" "}
-        <span className="font-semibold text-brass">dashed: largest angle from vertical</span>. Each point is a level-mode solve of this layout.
+        <span className="font-semibold text-brass">dashed: largest angle from vertical</span>. Each point is a
+        level-mode solve of this layout.
       </p>
     </section>
   );

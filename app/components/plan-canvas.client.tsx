@@ -29,7 +29,13 @@ export type ViewKind = DrawingView;
 
 export type LegFigure = { label: string; text: string; tone: "pass" | "warn" | "fail" | "none"; slack: boolean };
 
-export type Backdrop = { image: HTMLImageElement; metresPerPixel: number; originA: number; originB: number; opacity: number };
+export type Backdrop = {
+  image: HTMLImageElement;
+  metresPerPixel: number;
+  originA: number;
+  originB: number;
+  opacity: number;
+};
 
 export type PlanCanvasProps = {
   view: ViewKind;
@@ -98,12 +104,33 @@ function describeHandle(handle: Handle, edit: PlanEdit, hook: Vec3 | null, view:
 
 /** One view of the plan, drawn to scale; lift points, CoG and (in elevation, level mode) the hook can be dragged. */
 export default function PlanCanvas(props: PlanCanvasProps) {
-  const { view, width, height, edit, outline, hook, legs, units, gridM, snap, dispatch, backdrop, onPick, beamZM = null, selected, onSelect } = props;
+  const {
+    view,
+    width,
+    height,
+    edit,
+    outline,
+    hook,
+    legs,
+    units,
+    gridM,
+    snap,
+    dispatch,
+    backdrop,
+    onPick,
+    beamZM = null,
+    selected,
+    onSelect,
+  } = props;
   const stageRef = useRef<Konva.Stage>(null);
   const [focused, setFocused] = useState(false);
 
   const box = useMemo(() => {
-    const pts = [...outline.map(([a, b]) => ({ a, b })), ...edit.liftPoints.map((p) => project(p.position, view)), project(edit.cog, view)];
+    const pts = [
+      ...outline.map(([a, b]) => ({ a, b })),
+      ...edit.liftPoints.map((p) => project(p.position, view)),
+      project(edit.cog, view),
+    ];
     if (hook) pts.push(project(hook, view));
     const as = pts.map((p) => p.a);
     const bs = pts.map((p) => p.b);
@@ -192,7 +219,13 @@ export default function PlanCanvas(props: PlanCanvasProps) {
   /** The ring round the selected handle: dashed, and solid and heavier while the drawing has keyboard focus. */
   const ringFor = (handle: Handle, radius: number) =>
     selected && handleKey(selected) === handleKey(handle) ? (
-      <Circle radius={radius} stroke={COLOURS.focus} strokeWidth={focused ? 3 : 2} dash={focused ? undefined : [4, 3]} listening={false} />
+      <Circle
+        radius={radius}
+        stroke={COLOURS.focus}
+        strokeWidth={focused ? 3 : 2}
+        dash={focused ? undefined : [4, 3]}
+        listening={false}
+      />
     ) : null;
 
   return (
@@ -227,7 +260,11 @@ export default function PlanCanvas(props: PlanCanvasProps) {
           const start = panStart.current;
           const p = stageRef.current?.getPointerPosition();
           if (!start || !p) return;
-          setTransform((t) => ({ ...t, originX: start.originX + p.x - start.x, originY: start.originY + p.y - start.y }));
+          setTransform((t) => ({
+            ...t,
+            originX: start.originX + p.x - start.x,
+            originY: start.originY + p.y - start.y,
+          }));
         }}
         onMouseUp={() => (panStart.current = null)}
         onMouseLeave={() => (panStart.current = null)}
@@ -259,7 +296,8 @@ export default function PlanCanvas(props: PlanCanvasProps) {
             stroke={COLOURS.outline}
             strokeWidth={2}
           />
-          {hookScreen && beamZM === null &&
+          {hookScreen &&
+            beamZM === null &&
             edit.liftPoints
               .filter((p) => usedLabels.has(p.label))
               .map((p) => {
@@ -276,30 +314,61 @@ export default function PlanCanvas(props: PlanCanvasProps) {
                   />
                 );
               })}
-          {hookScreen && beamZM !== null && (() => {
-            const used = edit.liftPoints.filter((p) => usedLabels.has(p.label));
-            const lug = project({ x: edit.cog.x, y: edit.cog.y, z: beamZM }, view);
-            const lugScreen = S(lug.a, lug.b);
-            const ends = used.map((p) => project({ ...p.position, z: beamZM }, view));
-            const as = ends.map((e) => e.a);
-            const beamStart = view === "elevation" ? S(Math.min(...as, lug.a), lug.b) : S(ends[0]?.a ?? lug.a, ends[0]?.b ?? lug.b);
-            const beamEnd = view === "elevation" ? S(Math.max(...as, lug.a), lug.b) : S(ends.at(-1)?.a ?? lug.a, ends.at(-1)?.b ?? lug.b);
-            return (
-              <Group>
-                {used.map((p) => {
-                  const figure = legs.find((l) => l.label === p.label);
-                  const bottom = S(project(p.position, view).a, project(p.position, view).b);
-                  const top = S(project({ ...p.position, z: beamZM }, view).a, project({ ...p.position, z: beamZM }, view).b);
-                  return <Line key={`drop-${p.label}`} points={[top.x, top.y, bottom.x, bottom.y]} stroke={COLOURS[figure?.tone ?? "none"]} strokeWidth={3} />;
-                })}
-                <Line points={[beamStart.x, beamStart.y, beamEnd.x, beamEnd.y]} stroke={COLOURS.ink} strokeWidth={8} lineCap="round" />
-                <Line points={[hookScreen.x, hookScreen.y, lugScreen.x, lugScreen.y]} stroke={COLOURS.ink} strokeWidth={3} />
-              </Group>
-            );
-          })()}
+          {hookScreen &&
+            beamZM !== null &&
+            (() => {
+              const used = edit.liftPoints.filter((p) => usedLabels.has(p.label));
+              const lug = project({ x: edit.cog.x, y: edit.cog.y, z: beamZM }, view);
+              const lugScreen = S(lug.a, lug.b);
+              const ends = used.map((p) => project({ ...p.position, z: beamZM }, view));
+              const as = ends.map((e) => e.a);
+              const beamStart =
+                view === "elevation" ? S(Math.min(...as, lug.a), lug.b) : S(ends[0]?.a ?? lug.a, ends[0]?.b ?? lug.b);
+              const beamEnd =
+                view === "elevation"
+                  ? S(Math.max(...as, lug.a), lug.b)
+                  : S(ends.at(-1)?.a ?? lug.a, ends.at(-1)?.b ?? lug.b);
+              return (
+                <Group>
+                  {used.map((p) => {
+                    const figure = legs.find((l) => l.label === p.label);
+                    const bottom = S(project(p.position, view).a, project(p.position, view).b);
+                    const top = S(
+                      project({ ...p.position, z: beamZM }, view).a,
+                      project({ ...p.position, z: beamZM }, view).b,
+                    );
+                    return (
+                      <Line
+                        key={`drop-${p.label}`}
+                        points={[top.x, top.y, bottom.x, bottom.y]}
+                        stroke={COLOURS[figure?.tone ?? "none"]}
+                        strokeWidth={3}
+                      />
+                    );
+                  })}
+                  <Line
+                    points={[beamStart.x, beamStart.y, beamEnd.x, beamEnd.y]}
+                    stroke={COLOURS.ink}
+                    strokeWidth={8}
+                    lineCap="round"
+                  />
+                  <Line
+                    points={[hookScreen.x, hookScreen.y, lugScreen.x, lugScreen.y]}
+                    stroke={COLOURS.ink}
+                    strokeWidth={3}
+                  />
+                </Group>
+              );
+            })()}
           {legs.length > 0 && (
             <Group x={8} y={8}>
-              <Rect width={Math.min(width - 16, 250)} height={legs.length * 17 + 8} fill="#ffffff" opacity={0.85} cornerRadius={3} />
+              <Rect
+                width={Math.min(width - 16, 250)}
+                height={legs.length * 17 + 8}
+                fill="#ffffff"
+                opacity={0.85}
+                cornerRadius={3}
+              />
               {legs.map((leg, i) => (
                 <Text
                   key={leg.label}
@@ -315,8 +384,19 @@ export default function PlanCanvas(props: PlanCanvasProps) {
             </Group>
           )}
           <Group>
-            <Line points={[16, height - 16, 16 + bar * transform.scalePxPerM, height - 16]} stroke={COLOURS.ink} strokeWidth={3} />
-            <Text x={16} y={height - 34} text={formatLength(bar, units)} fontSize={12} fontFamily="Barlow, sans-serif" fill={COLOURS.ink} />
+            <Line
+              points={[16, height - 16, 16 + bar * transform.scalePxPerM, height - 16]}
+              stroke={COLOURS.ink}
+              strokeWidth={3}
+            />
+            <Text
+              x={16}
+              y={height - 34}
+              text={formatLength(bar, units)}
+              fontSize={12}
+              fontFamily="Barlow, sans-serif"
+              fill={COLOURS.ink}
+            />
             <Text
               x={width - 120}
               y={height - 22}
@@ -345,13 +425,26 @@ export default function PlanCanvas(props: PlanCanvasProps) {
                 onDragStart={() => dispatch({ type: "checkpoint" })}
                 onDragMove={(e) => {
                   const w = dragToWorld(e.target, at);
-                  dispatch({ type: "move-lift-point", label: p.label, position: unproject(p.position, view, w.a, w.b), transient: true });
+                  dispatch({
+                    type: "move-lift-point",
+                    label: p.label,
+                    position: unproject(p.position, view, w.a, w.b),
+                    transient: true,
+                  });
                 }}
                 onDblClick={() => dispatch({ type: "toggle-lift-point", label: p.label })}
               >
                 {ringFor({ kind: "lift-point", label: p.label }, 13)}
                 <Circle radius={7} fill={used ? COLOURS.point : "#ffffff"} stroke={COLOURS.point} strokeWidth={2} />
-                <Text x={9} y={-20} text={p.label} fontSize={14} fontStyle="bold" fontFamily="Barlow, sans-serif" fill={COLOURS.ink} />
+                <Text
+                  x={9}
+                  y={-20}
+                  text={p.label}
+                  fontSize={14}
+                  fontStyle="bold"
+                  fontFamily="Barlow, sans-serif"
+                  fill={COLOURS.ink}
+                />
               </Group>
             );
           })}
@@ -402,7 +495,11 @@ export default function PlanCanvas(props: PlanCanvasProps) {
         </Layer>
       </Stage>
       {/* The focus ring sits on a layer over the canvas: Konva's positioned container would paint over an outline of the drawing itself. */}
-      <div data-focus-ring aria-hidden="true" className="pointer-events-none absolute inset-0 group-focus-visible:outline-3 group-focus-visible:-outline-offset-3 group-focus-visible:outline-brass" />
+      <div
+        data-focus-ring
+        aria-hidden="true"
+        className="pointer-events-none absolute inset-0 group-focus-visible:outline-3 group-focus-visible:-outline-offset-3 group-focus-visible:outline-brass"
+      />
       <p className="sr-only" aria-live="polite">
         {focused && selected ? describeHandle(selected, edit, hook, view, units) : ""}
       </p>

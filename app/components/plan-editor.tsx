@@ -8,7 +8,14 @@ import { Button } from "~/components/ui/form";
 import { HookHeightChart } from "~/components/hook-height-chart";
 import { GearPicker } from "~/components/gear-picker";
 import { LiveResults, worstStatusForLeg, type ResultState } from "~/components/live-results";
-import { HITCH_LABELS, HITCHES, type PlanDetails, type PlanResults, type RiggingAllocation, type Arrangement } from "~/plans/document";
+import {
+  HITCH_LABELS,
+  HITCHES,
+  type PlanDetails,
+  type PlanResults,
+  type RiggingAllocation,
+  type Arrangement,
+} from "~/plans/document";
 import {
   calibrateImageScale,
   canRedo,
@@ -25,7 +32,14 @@ import {
 } from "~/plans/editor-state";
 import { assembleRigging, GEAR_ROLE_LABELS, type GearPick, type GearRole } from "~/plans/rigging";
 import { solveLevel } from "~/statics/bridle";
-import { formatLength, fromDisplayLength, inputNumber, lengthUnitLabel, toDisplayLength, type Units } from "~/utils/format";
+import {
+  formatLength,
+  fromDisplayLength,
+  inputNumber,
+  lengthUnitLabel,
+  toDisplayLength,
+  type Units,
+} from "~/utils/format";
 
 const PlanCanvas = lazy(() => import("~/components/plan-canvas.client"));
 
@@ -52,14 +66,24 @@ type SaveState =
 function toEdit(plan: EditorPlan): PlanEdit {
   return {
     cog: plan.snapshot.cog,
-    liftPoints: plan.snapshot.liftPoints.map((p) => ({ label: p.label, position: p.position, axis: p.axis, thread: p.thread })),
+    liftPoints: plan.snapshot.liftPoints.map((p) => ({
+      label: p.label,
+      position: p.position,
+      axis: p.axis,
+      thread: p.thread,
+    })),
     arrangement: plan.arrangement,
     rigging: plan.rigging,
   };
 }
 
 /** The /api/solve body for the edit (bridles only), with the rigging assembled from the picks. */
-function solveBodyFor(edit: PlanEdit, snapshot: ComponentDefinition, picks: ReadonlyMap<number, GearPick>, details: PlanDetails) {
+function solveBodyFor(
+  edit: PlanEdit,
+  snapshot: ComponentDefinition,
+  picks: ReadonlyMap<number, GearPick>,
+  details: PlanDetails,
+) {
   if (edit.arrangement.kind !== "bridle") return null;
   const byLabel = new Map(edit.liftPoints.map((p) => [p.label, p]));
   const liftPoints = edit.arrangement.liftPointLabels
@@ -73,8 +97,16 @@ function solveBodyFor(edit: PlanEdit, snapshot: ComponentDefinition, picks: Read
     liftPoints,
     ...(edit.arrangement.mode === "level"
       ? { hook: { z: edit.arrangement.hookHeightM } }
-      : { legLengths: Object.fromEntries(edit.arrangement.liftPointLabels.map((l) => [l, edit.arrangement.legLengthsM[l] ?? 0])) }),
-    rigging: assembleRigging(edit.rigging, picks, { contingencyPct: snapshot.contingencyPct, floorClearanceM: details.floorClearanceM, loadUndersideZM: underside }),
+      : {
+          legLengths: Object.fromEntries(
+            edit.arrangement.liftPointLabels.map((l) => [l, edit.arrangement.legLengthsM[l] ?? 0]),
+          ),
+        }),
+    rigging: assembleRigging(edit.rigging, picks, {
+      contingencyPct: snapshot.contingencyPct,
+      floorClearanceM: details.floorClearanceM,
+      loadUndersideZM: underside,
+    }),
   };
 }
 
@@ -90,13 +122,21 @@ function useLiveSolve(body: unknown | null): ResultState {
     setState((s) => (s.kind === "done" ? { ...s, stale: true } : { kind: "loading" }));
     const timer = setTimeout(async () => {
       try {
-        const res = await fetch("/api/solve", { method: "POST", body: key, headers: { "Content-Type": "application/json" }, signal: controller.signal });
+        const res = await fetch("/api/solve", {
+          method: "POST",
+          body: key,
+          headers: { "Content-Type": "application/json" },
+          signal: controller.signal,
+        });
         const json = (await res.json()) as unknown;
         if (id !== sequence.current) return;
         setState({ kind: "done", status: res.status, body: json, stale: false });
       } catch (error) {
         if (controller.signal.aborted || id !== sequence.current) return;
-        setState({ kind: "failed", message: error instanceof Error ? error.message : "The figures could not be fetched." });
+        setState({
+          kind: "failed",
+          message: error instanceof Error ? error.message : "The figures could not be fetched.",
+        });
       }
     }, 180);
     return () => {
@@ -111,7 +151,13 @@ function useLiveSolve(body: unknown | null): ResultState {
  * Saves the plan a moment after the last change; a stale version stops saving and says so. Also
  * returns `saveNow`, which sends a waiting change at once (the Save now button, Ctrl+S).
  */
-function useAutosave(planId: number, initialVersion: number, doc: unknown, enabled: boolean, onSaved: (results: PlanResults | null) => void) {
+function useAutosave(
+  planId: number,
+  initialVersion: number,
+  doc: unknown,
+  enabled: boolean,
+  onSaved: (results: PlanResults | null) => void,
+) {
   const [save, setSave] = useState<SaveState>({ kind: "saved", version: initialVersion, at: null });
   const versionRef = useRef(initialVersion);
   const first = useRef(true);
@@ -141,12 +187,24 @@ function useAutosave(planId: number, initialVersion: number, doc: unknown, enabl
           onSaved(json.results ?? null);
         } else if (res.status === 409) {
           blocked.current = true;
-          setSave({ kind: "conflict", version: versionRef.current, message: json.error ?? "Someone else saved this plan." });
+          setSave({
+            kind: "conflict",
+            version: versionRef.current,
+            message: json.error ?? "Someone else saved this plan.",
+          });
         } else {
-          setSave({ kind: "error", version: versionRef.current, message: json.error ?? `The plan could not be saved (${res.status}).` });
+          setSave({
+            kind: "error",
+            version: versionRef.current,
+            message: json.error ?? `The plan could not be saved (${res.status}).`,
+          });
         }
       } catch {
-        setSave({ kind: "error", version: versionRef.current, message: "The plan could not be saved: the server did not answer. It will try again on your next change." });
+        setSave({
+          kind: "error",
+          version: versionRef.current,
+          message: "The plan could not be saved: the server did not answer. It will try again on your next change.",
+        });
       }
     };
     const timer = setTimeout(send, 900);
@@ -217,7 +275,19 @@ function NumberInput({
   );
 }
 
-export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan: EditorPlan; units: Units; initialPicks: GearPick[]; files: EditorFile[]; canEdit: boolean }) {
+export function PlanEditor({
+  plan,
+  units,
+  initialPicks,
+  files,
+  canEdit,
+}: {
+  plan: EditorPlan;
+  units: Units;
+  initialPicks: GearPick[];
+  files: EditorFile[];
+  canEdit: boolean;
+}) {
   const [state, dispatch] = useReducer(editorReducer, plan, (p) => initialEditorState(toEdit(p)));
   const edit = state.present;
   const [snap, setSnap] = useState(true);
@@ -226,7 +296,11 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
   const [picks, setPicks] = useState(() => new Map(initialPicks.map((p) => [p.id, p])));
   const [savedResults, setSavedResults] = useState<PlanResults | null>(plan.results);
   const [backdrop, setBackdrop] = useState<Backdrop | null>(null);
-  const [calibration, setCalibration] = useState<{ fileId: number; image: HTMLImageElement; clicks: Array<{ x: number; y: number; a: number; b: number }> } | null>(null);
+  const [calibration, setCalibration] = useState<{
+    fileId: number;
+    image: HTMLImageElement;
+    clicks: Array<{ x: number; y: number; a: number; b: number }>;
+  } | null>(null);
   const [calibrationDistance, setCalibrationDistance] = useState("");
   const [viewsRef, viewsWidth] = useElementWidth<HTMLDivElement>();
   const gridM = gridStepM(units);
@@ -234,7 +308,10 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
 
   const addPick = useCallback((pick: GearPick) => setPicks((m) => new Map(m).set(pick.id, pick)), []);
 
-  const body = useMemo(() => solveBodyFor(edit, plan.snapshot, picks, plan.details), [edit, plan.snapshot, picks, plan.details]);
+  const body = useMemo(
+    () => solveBodyFor(edit, plan.snapshot, picks, plan.details),
+    [edit, plan.snapshot, picks, plan.details],
+  );
   const live = useLiveSolve(body);
 
   const doc = useMemo(
@@ -254,11 +331,33 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
     edit.arrangement.kind === "bridle"
       ? live
       : savedResults
-        ? { kind: "done", status: savedResults.status, body: savedResults.body, stale: save.kind === "pending" || save.kind === "saving" }
+        ? {
+            kind: "done",
+            status: savedResults.status,
+            body: savedResults.body,
+            stale: save.kind === "pending" || save.kind === "saving",
+          }
         : { kind: "idle" };
-  const solution = shown.kind === "done" && shown.status === 200 ? (shown.body as { hook: { x: number; y: number; z: number }; legs: Array<{ liftPointId: string; lengthM: number; tensionKn: number; tensionKg: number; angleFromVerticalDeg: number; slack: boolean }>; checks?: Array<{ id: string; status: "pass" | "warn" | "fail"; utilisation: number | null }>; tiltDeg: number }) : null;
+  const solution =
+    shown.kind === "done" && shown.status === 200
+      ? (shown.body as {
+          hook: { x: number; y: number; z: number };
+          legs: Array<{
+            liftPointId: string;
+            lengthM: number;
+            tensionKn: number;
+            tensionKg: number;
+            angleFromVerticalDeg: number;
+            slack: boolean;
+          }>;
+          checks?: Array<{ id: string; status: "pass" | "warn" | "fail"; utilisation: number | null }>;
+          tiltDeg: number;
+        })
+      : null;
 
-  const hook = solution?.hook ?? (edit.arrangement.mode === "level" ? { x: edit.cog.x, y: edit.cog.y, z: edit.arrangement.hookHeightM } : null);
+  const hook =
+    solution?.hook ??
+    (edit.arrangement.mode === "level" ? { x: edit.cog.x, y: edit.cog.y, z: edit.arrangement.hookHeightM } : null);
   const legFigures: LegFigure[] = (solution?.legs ?? []).map((leg) => ({
     label: leg.liftPointId,
     text: `${leg.liftPointId}: ${leg.tensionKn.toFixed(2)} kN · ${Math.round(leg.tensionKg).toLocaleString("en-GB")} kg · ${leg.angleFromVerticalDeg.toFixed(1)}°`,
@@ -289,7 +388,10 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
         return;
       }
       // In a text box or list, Ctrl+Z is the field's own; on a checkbox, radio or button it is the editor's.
-      const typing = target instanceof HTMLTextAreaElement || target instanceof HTMLSelectElement || (target instanceof HTMLInputElement && !["checkbox", "radio"].includes(target.type));
+      const typing =
+        target instanceof HTMLTextAreaElement ||
+        target instanceof HTMLSelectElement ||
+        (target instanceof HTMLInputElement && !["checkbox", "radio"].includes(target.type));
       if (typing) return;
       if (mod && e.key.toLowerCase() === "z" && !e.shiftKey) {
         e.preventDefault();
@@ -309,7 +411,10 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
   function setMode(mode: "level" | "lengths") {
     if (mode === edit.arrangement.mode) return;
     // Switching to given lengths starts from the lengths of the level solution (the slings a level lift needs).
-    const legLengthsM = mode === "lengths" && solution ? Object.fromEntries(solution.legs.map((l) => [l.liftPointId, Number(l.lengthM.toFixed(4))])) : undefined;
+    const legLengthsM =
+      mode === "lengths" && solution
+        ? Object.fromEntries(solution.legs.map((l) => [l.liftPointId, Number(l.lengthM.toFixed(4))]))
+        : undefined;
     dispatch({ type: "set-mode", mode, legLengthsM });
   }
 
@@ -331,14 +436,23 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
       .map((p) => ({ id: p.label, position: p.position, axis: p.axis }));
     const level = solveLevel({ massKg: plan.snapshot.massKg, cog: edit.cog }, points, solution.hook.z);
     if (!level.ok) return null;
-    return level.solution.legs.map((l) => ({ label: l.liftPointId, changeM: l.lengthM - (edit.arrangement.legLengthsM[l.liftPointId] ?? 0) }));
+    return level.solution.legs.map((l) => ({
+      label: l.liftPointId,
+      changeM: l.lengthM - (edit.arrangement.legLengthsM[l.liftPointId] ?? 0),
+    }));
   }, [edit, solution, plan.snapshot.massKg]);
 
   function startCalibration(fileId: number) {
     const image = new window.Image();
     image.onload = () => {
       setCalibration({ fileId, image, clicks: [] });
-      setBackdrop({ image, metresPerPixel: plan.snapshot.lengthM / image.width, originA: -plan.snapshot.lengthM / 2, originB: plan.snapshot.heightM, opacity: 0.5 });
+      setBackdrop({
+        image,
+        metresPerPixel: plan.snapshot.lengthM / image.width,
+        originA: -plan.snapshot.lengthM / 2,
+        originB: plan.snapshot.heightM,
+        opacity: 0.5,
+      });
     };
     image.src = `/files/${fileId}`;
   }
@@ -352,7 +466,10 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
     const [p1, p2] = calibration.clicks;
     if (!p1 || !p2) return;
     // The clicks are in world metres at the drawing's current scale; convert back to image pixels.
-    const toPixel = (p: { a: number; b: number }) => ({ x: (p.a - backdrop.originA) / backdrop.metresPerPixel, y: (backdrop.originB - p.b) / backdrop.metresPerPixel });
+    const toPixel = (p: { a: number; b: number }) => ({
+      x: (p.a - backdrop.originA) / backdrop.metresPerPixel,
+      y: (backdrop.originB - p.b) / backdrop.metresPerPixel,
+    });
     const distanceM = fromDisplayLength(Number(calibrationDistance), units);
     const metresPerPixel = calibrateImageScale(toPixel(p1), toPixel(p2), distanceM);
     if (metresPerPixel === null) return;
@@ -363,7 +480,9 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
 
   const beamZM =
     edit.arrangement.kind === "beam" && edit.arrangement.beam
-      ? Math.max(...edit.liftPoints.filter((p) => edit.arrangement.liftPointLabels.includes(p.label)).map((p) => p.position.z)) + edit.arrangement.beam.dropLengthM
+      ? Math.max(
+          ...edit.liftPoints.filter((p) => edit.arrangement.liftPointLabels.includes(p.label)).map((p) => p.position.z),
+        ) + edit.arrangement.beam.dropLengthM
       : null;
   const viewWidth = viewsWidth >= 900 ? Math.floor((viewsWidth - 16) / 2) : viewsWidth;
   const viewHeight = Math.max(260, Math.min(460, Math.round(viewWidth * 0.75)));
@@ -372,8 +491,19 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
 
   return (
     <div className="space-y-4">
-      <div className="no-print flex flex-wrap items-center gap-2 rounded border border-rule bg-card px-3 py-2" role="toolbar" aria-label="Editor">
-        <Button type="button" tone="secondary" onClick={() => dispatch({ type: "undo" })} disabled={!canUndo(state)} title="Undo (Ctrl+Z)" aria-keyshortcuts="Control+Z">
+      <div
+        className="no-print flex flex-wrap items-center gap-2 rounded border border-rule bg-card px-3 py-2"
+        role="toolbar"
+        aria-label="Editor"
+      >
+        <Button
+          type="button"
+          tone="secondary"
+          onClick={() => dispatch({ type: "undo" })}
+          disabled={!canUndo(state)}
+          title="Undo (Ctrl+Z)"
+          aria-keyshortcuts="Control+Z"
+        >
           Undo
         </Button>
         <Button
@@ -387,12 +517,20 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
           Redo
         </Button>
         {canEdit && (
-          <Button type="button" tone="secondary" onClick={saveNow} disabled={save.kind !== "pending"} title="Save now (Ctrl+S)" aria-keyshortcuts="Control+S">
+          <Button
+            type="button"
+            tone="secondary"
+            onClick={saveNow}
+            disabled={save.kind !== "pending"}
+            title="Save now (Ctrl+S)"
+            aria-keyshortcuts="Control+S"
+          >
             Save now
           </Button>
         )}
         <label className="ml-2 flex items-center gap-1 text-sm">
-          <input type="checkbox" checked={snap} onChange={(e) => setSnap(e.target.checked)} /> Snap to grid and lift points (G)
+          <input type="checkbox" checked={snap} onChange={(e) => setSnap(e.target.checked)} /> Snap to grid and lift
+          points (G)
         </label>
         <span className="ml-auto text-sm" role="status" aria-live="polite" data-testid="save-status">
           {save.kind === "saved" && (save.at ? `Saved · version ${save.version}` : `Version ${save.version}`)}
@@ -410,16 +548,23 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
         </div>
       )}
       <p id={helpId} className="text-xs text-ink-soft">
-        Drag the lift points and the CoG in either view and the hook up and down in the elevation (level mode); wheel to zoom, drag the background to
-        pan, double-click a lift point to use it or not. From the keyboard: choose what to move, Tab into a drawing and use the arrow keys (Shift for
-        ten grid steps); + and − zoom about it, 0 fits the view, G turns snapping on and off; Ctrl+S saves at once. Grid {formatLength(gridM, units)}.
+        Drag the lift points and the CoG in either view and the hook up and down in the elevation (level mode); wheel to
+        zoom, drag the background to pan, double-click a lift point to use it or not. From the keyboard: choose what to
+        move, Tab into a drawing and use the arrow keys (Shift for ten grid steps); + and − zoom about it, 0 fits the
+        view, G turns snapping on and off; Ctrl+S saves at once. Grid {formatLength(gridM, units)}.
       </p>
       {canEdit && (
         <fieldset className="no-print flex flex-wrap items-center gap-x-4 gap-y-1 text-sm">
           <legend className="float-left mr-2 font-semibold">The arrow keys move</legend>
           {handles.map((h) => (
             <label key={handleKey(h)} className="flex items-center gap-1">
-              <input type="radio" name="moved-handle" value={handleKey(h)} checked={selected !== null && handleKey(selected) === handleKey(h)} onChange={() => selectHandle(h)} />
+              <input
+                type="radio"
+                name="moved-handle"
+                value={handleKey(h)}
+                checked={selected !== null && handleKey(selected) === handleKey(h)}
+                onChange={() => selectHandle(h)}
+              />
               {handleName(h)}
             </label>
           ))}
@@ -428,8 +573,14 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
 
       <div ref={viewsRef} className="grid gap-4 xl:grid-cols-2">
         {(["elevation", "plan"] as const).map((view) => (
-          <figure key={view} className="overflow-hidden rounded border border-rule bg-white" data-testid={`view-${view}`}>
-            <figcaption className="border-b border-rule px-3 py-1 text-sm font-semibold">{view === "elevation" ? "Elevation (x, z)" : "Plan (x, y)"}</figcaption>
+          <figure
+            key={view}
+            className="overflow-hidden rounded border border-rule bg-white"
+            data-testid={`view-${view}`}
+          >
+            <figcaption className="border-b border-rule px-3 py-1 text-sm font-semibold">
+              {view === "elevation" ? "Elevation (x, z)" : "Plan (x, y)"}
+            </figcaption>
             {viewWidth > 0 ? (
               <Suspense fallback={<p className="p-4 text-sm text-ink-soft">Loading the drawing…</p>}>
                 <PlanCanvas
@@ -461,9 +612,11 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
         ))}
       </div>
       <p className="text-xs text-ink-soft">
-        Leg colours follow the worst check on each leg, always with the figures written beside it: <span className="font-semibold text-pass">green pass</span>,{" "}
-        <span className="font-semibold text-warn">amber warn</span>, <span className="font-semibold text-fail">red fail</span>, grey not yet checked (no gear
-        allocated). A dashed leg is slack.
+        Leg colours follow the worst check on each leg, always with the figures written beside it:{" "}
+        <span className="font-semibold text-pass">green pass</span>,{" "}
+        <span className="font-semibold text-warn">amber warn</span>,{" "}
+        <span className="font-semibold text-fail">red fail</span>, grey not yet checked (no gear allocated). A dashed
+        leg is slack.
       </p>
 
       <div className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_minmax(0,1fr)]">
@@ -474,7 +627,13 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
           <fieldset className="flex flex-wrap gap-4 text-sm" disabled={!canEdit}>
             <legend className="sr-only">How the load is hung</legend>
             <label className="flex items-center gap-1">
-              <input type="radio" name="hung-by" checked={edit.arrangement.kind === "bridle"} onChange={() => dispatch({ type: "set-kind", kind: "bridle" })} /> Legs to one hook
+              <input
+                type="radio"
+                name="hung-by"
+                checked={edit.arrangement.kind === "bridle"}
+                onChange={() => dispatch({ type: "set-kind", kind: "bridle" })}
+              />{" "}
+              Legs to one hook
             </label>
             <label className="flex items-center gap-1">
               <input
@@ -485,7 +644,12 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
                   dispatch({
                     type: "set-kind",
                     kind: "beam",
-                    beam: edit.arrangement.beam ?? { massKg: 60, wllKg: 2000, lengthM: Math.max(plan.snapshot.lengthM, 0.5), dropLengthM: 0.6 },
+                    beam: edit.arrangement.beam ?? {
+                      massKg: 60,
+                      wllKg: 2000,
+                      lengthM: Math.max(plan.snapshot.lengthM, 0.5),
+                      dropLengthM: 0.6,
+                    },
                   })
                 }
               />{" "}
@@ -496,11 +660,22 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
             <fieldset className="flex flex-wrap gap-4 text-sm" disabled={!canEdit}>
               <legend className="sr-only">What is given</legend>
               <label className="flex items-center gap-1">
-                <input type="radio" name="given" checked={edit.arrangement.mode === "level"} onChange={() => setMode("level")} /> Level lift: the hook height gives the
-                leg lengths
+                <input
+                  type="radio"
+                  name="given"
+                  checked={edit.arrangement.mode === "level"}
+                  onChange={() => setMode("level")}
+                />{" "}
+                Level lift: the hook height gives the leg lengths
               </label>
               <label className="flex items-center gap-1">
-                <input type="radio" name="given" checked={edit.arrangement.mode === "lengths"} onChange={() => setMode("lengths")} /> Given sling lengths: find the tilt
+                <input
+                  type="radio"
+                  name="given"
+                  checked={edit.arrangement.mode === "lengths"}
+                  onChange={() => setMode("lengths")}
+                />{" "}
+                Given sling lengths: find the tilt
               </label>
             </fieldset>
           )}
@@ -527,8 +702,9 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
           </div>
           {edit.arrangement.kind === "beam" && edit.arrangement.beam && (
             <p className="text-sm text-ink-soft">
-              Beam: {formatLength(edit.arrangement.beam.lengthM, units)} long, drops {formatLength(edit.arrangement.beam.dropLengthM, units)}, its mass
-              and WLL as on the plan&apos;s details. Beam figures are worked out by the server on each save.
+              Beam: {formatLength(edit.arrangement.beam.lengthM, units)} long, drops{" "}
+              {formatLength(edit.arrangement.beam.dropLengthM, units)}, its mass and WLL as on the plan&apos;s details.
+              Beam figures are worked out by the server on each save.
             </p>
           )}
           <div className="overflow-x-auto">
@@ -567,7 +743,13 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
                             valueM={p.position[axis]}
                             units={units}
                             disabled={!canEdit}
-                            onCommit={(v) => dispatch({ type: "move-lift-point", label: p.label, position: { ...p.position, [axis]: v } })}
+                            onCommit={(v) =>
+                              dispatch({
+                                type: "move-lift-point",
+                                label: p.label,
+                                position: { ...p.position, [axis]: v },
+                              })
+                            }
                           />
                         </td>
                       ))}
@@ -601,7 +783,10 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
                   <ul>
                     {levelling.map((l) => (
                       <li key={l.label}>
-                        Leg {l.label}: {Math.abs(l.changeM) < 0.0005 ? "no change" : `${l.changeM > 0 ? "lengthen" : "shorten"} by ${formatLength(Math.abs(l.changeM), units)}`}
+                        Leg {l.label}:{" "}
+                        {Math.abs(l.changeM) < 0.0005
+                          ? "no change"
+                          : `${l.changeM > 0 ? "lengthen" : "shorten"} by ${formatLength(Math.abs(l.changeM), units)}`}
                       </li>
                     ))}
                   </ul>
@@ -627,14 +812,23 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
               {calibration && (
                 <div className="mt-2 space-y-2 rounded border border-steel/30 bg-steel-soft p-2">
                   <p>
-                    Set its scale: click two points on the drawing whose distance you know ({calibration.clicks.length} of 2 clicked), then type the
-                    distance.
+                    Set its scale: click two points on the drawing whose distance you know ({calibration.clicks.length}{" "}
+                    of 2 clicked), then type the distance.
                   </p>
                   <label className="block">
                     Distance between them ({lu})
-                    <input className="ml-2 w-28 rounded border border-rule px-2 py-1" inputMode="decimal" value={calibrationDistance} onChange={(e) => setCalibrationDistance(e.target.value)} />
+                    <input
+                      className="ml-2 w-28 rounded border border-rule px-2 py-1"
+                      inputMode="decimal"
+                      value={calibrationDistance}
+                      onChange={(e) => setCalibrationDistance(e.target.value)}
+                    />
                   </label>
-                  <Button type="button" onClick={applyCalibration} disabled={calibration.clicks.length < 2 || !(Number(calibrationDistance) > 0)}>
+                  <Button
+                    type="button"
+                    onClick={applyCalibration}
+                    disabled={calibration.clicks.length < 2 || !(Number(calibrationDistance) > 0)}
+                  >
                     Set the scale
                   </Button>
                 </div>
@@ -650,7 +844,10 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
         <h2 id="gear-heading" className="text-lg">
           Gear from the register
         </h2>
-        <p className="mb-3 text-sm text-ink-soft">Search the register for each position. The picker marks what fits the lift point and the leg load, and items out of date or quarantined.</p>
+        <p className="mb-3 text-sm text-ink-soft">
+          Search the register for each position. The picker marks what fits the lift point and the leg load, and items
+          out of date or quarantined.
+        </p>
         <div className="overflow-x-auto">
           <table className="min-w-[48rem]">
             <thead>
@@ -691,7 +888,13 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
                         className="rounded border border-rule px-2 py-1 text-sm"
                         value={leg?.hitch ?? "straight"}
                         disabled={!canEdit}
-                        onChange={(e) => dispatch({ type: "set-hitch", label: p.label, hitch: e.target.value as (typeof HITCHES)[number] })}
+                        onChange={(e) =>
+                          dispatch({
+                            type: "set-hitch",
+                            label: p.label,
+                            hitch: e.target.value as (typeof HITCHES)[number],
+                          })
+                        }
                       >
                         {HITCHES.map((h) => (
                           <option key={h} value={h}>
@@ -710,7 +913,11 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
                   <GearPicker
                     role="masterLink"
                     label="Master link"
-                    selected={edit.rigging.masterLinkItemId !== undefined ? (picks.get(edit.rigging.masterLinkItemId) ?? null) : null}
+                    selected={
+                      edit.rigging.masterLinkItemId !== undefined
+                        ? (picks.get(edit.rigging.masterLinkItemId) ?? null)
+                        : null
+                    }
                     thread={null}
                     loadKg={plan.snapshot.massKg * (1 + plan.snapshot.contingencyPct / 100)}
                     disabled={!canEdit}
@@ -725,7 +932,9 @@ export function PlanEditor({ plan, units, initialPicks, files, canEdit }: { plan
                   <GearPicker
                     role="crane"
                     label="Crane or hoist"
-                    selected={edit.rigging.craneItemId !== undefined ? (picks.get(edit.rigging.craneItemId) ?? null) : null}
+                    selected={
+                      edit.rigging.craneItemId !== undefined ? (picks.get(edit.rigging.craneItemId) ?? null) : null
+                    }
                     thread={null}
                     loadKg={plan.snapshot.massKg * (1 + plan.snapshot.contingencyPct / 100)}
                     disabled={!canEdit}

@@ -7,7 +7,15 @@ type Permission = { allowed: boolean; reason?: string };
 
 export type WorkflowPanelData = {
   working: { revision: number; status: PlanStatus };
-  approved: { revision: number; status: PlanStatus; approverName: string | null; approvedAt: Date | string | null; approvalComment: string | null; selfApproved: boolean; fingerprint: string | null } | null;
+  approved: {
+    revision: number;
+    status: PlanStatus;
+    approverName: string | null;
+    approvedAt: Date | string | null;
+    approvalComment: string | null;
+    selfApproved: boolean;
+    fingerprint: string | null;
+  } | null;
   acknowledgements: Array<{ checkItem: string; reason: string; by: string; at: string }>;
   comments: Array<{ kind: string; body: string; by: string; at: string; revision: number }>;
   liftRecord: { liftedAt: string; notes: string; nearMiss: boolean; nearMissDetails: string; by: string } | null;
@@ -15,17 +23,30 @@ export type WorkflowPanelData = {
   permissions: Record<WorkflowAction, Permission>;
 };
 
-const when = (iso: Date | string | null) => (iso ? `${new Date(iso).toLocaleString("en-GB", { timeZone: "UTC" })} UTC` : "");
+const when = (iso: Date | string | null) =>
+  iso ? `${new Date(iso).toLocaleString("en-GB", { timeZone: "UTC" })} UTC` : "";
 
 const linkButton = "rounded bg-steel px-4 py-2 text-sm font-semibold text-white no-underline hover:no-underline";
 const linkSecondary = "rounded border border-rule bg-white px-4 py-2 text-sm font-semibold text-ink no-underline";
 
 /** Where the plan stands and what this user can do next; only actions they may take are offered. */
-export function WorkflowPanel({ planId, workflow, riggers }: { planId: number; workflow: WorkflowPanelData; riggers: Array<{ id: number; name: string }> }) {
+export function WorkflowPanel({
+  planId,
+  workflow,
+  riggers,
+}: {
+  planId: number;
+  workflow: WorkflowPanelData;
+  riggers: Array<{ id: number; name: string }>;
+}) {
   const { working, approved, permissions: can } = workflow;
   const lastReturn = workflow.comments.find((c) => c.kind === "return" && c.revision === working.revision);
   return (
-    <section className="mb-6 space-y-3 rounded border border-rule bg-card p-4" aria-labelledby="workflow-heading" data-testid="workflow">
+    <section
+      className="mb-6 space-y-3 rounded border border-rule bg-card p-4"
+      aria-labelledby="workflow-heading"
+      data-testid="workflow"
+    >
       <h2 id="workflow-heading" className="text-lg">
         Where the plan stands
       </h2>
@@ -34,7 +55,8 @@ export function WorkflowPanel({ planId, workflow, riggers }: { planId: number; w
         {approved && approved.revision !== working.revision && (
           <>
             {" "}
-            · revision {approved.revision} is <span className="font-semibold">{PLAN_STATUS_LABELS[approved.status]}</span>
+            · revision {approved.revision} is{" "}
+            <span className="font-semibold">{PLAN_STATUS_LABELS[approved.status]}</span>
           </>
         )}
       </p>
@@ -49,11 +71,19 @@ export function WorkflowPanel({ planId, workflow, riggers }: { planId: number; w
       {approved?.approverName && (
         <div className="rounded border border-pass/40 bg-pass-soft p-3 text-sm" data-testid="approval">
           <p>
-            Revision {approved.revision} approved by <span className="font-semibold">{approved.approverName}</span> (appointed person) on {when(approved.approvedAt)}.
+            Revision {approved.revision} approved by <span className="font-semibold">{approved.approverName}</span>{" "}
+            (appointed person) on {when(approved.approvedAt)}.
           </p>
-          {approved.selfApproved && <p className="font-semibold">The appointed person approved a plan they planned, as the organisation's setting for one-person firms allows.</p>}
+          {approved.selfApproved && (
+            <p className="font-semibold">
+              The appointed person approved a plan they planned, as the organisation's setting for one-person firms
+              allows.
+            </p>
+          )}
           {approved.approvalComment && <p>Comment: {approved.approvalComment}</p>}
-          {approved.fingerprint && <p className="break-all text-xs text-ink-soft">Fingerprint {approved.fingerprint}</p>}
+          {approved.fingerprint && (
+            <p className="break-all text-xs text-ink-soft">Fingerprint {approved.fingerprint}</p>
+          )}
         </div>
       )}
       {workflow.liftRecord && (
@@ -62,16 +92,23 @@ export function WorkflowPanel({ planId, workflow, riggers }: { planId: number; w
             Lift recorded by {workflow.liftRecord.by}, lifted {when(workflow.liftRecord.liftedAt)}.
           </p>
           {workflow.liftRecord.notes && <p>{workflow.liftRecord.notes}</p>}
-          {workflow.liftRecord.nearMiss && <p className="font-semibold text-fail">Near miss: {workflow.liftRecord.nearMissDetails}</p>}
+          {workflow.liftRecord.nearMiss && (
+            <p className="font-semibold text-fail">Near miss: {workflow.liftRecord.nearMissDetails}</p>
+          )}
         </div>
       )}
       {workflow.acknowledgements.length > 0 && (
         <details className="text-sm">
-          <summary className="cursor-pointer">Warnings acknowledged on submission ({workflow.acknowledgements.length})</summary>
+          <summary className="cursor-pointer">
+            Warnings acknowledged on submission ({workflow.acknowledgements.length})
+          </summary>
           <ul className="mt-1 space-y-1">
             {workflow.acknowledgements.map((a, i) => (
               <li key={i}>
-                <span className="font-semibold">{a.checkItem}</span>: {a.reason} <span className="text-ink-soft">({a.by}, {when(a.at)})</span>
+                <span className="font-semibold">{a.checkItem}</span>: {a.reason}{" "}
+                <span className="text-ink-soft">
+                  ({a.by}, {when(a.at)})
+                </span>
               </li>
             ))}
           </ul>
@@ -111,8 +148,14 @@ export function WorkflowPanel({ planId, workflow, riggers }: { planId: number; w
         <Form method="post" className="flex flex-wrap items-end gap-2 text-sm">
           <input type="hidden" name="intent" value="assign-rigger" />
           <label className="block">
-            <span className="block text-ink-soft">Rigger for the lift{workflow.assignedRigger ? ` (now ${workflow.assignedRigger.name})` : ""}</span>
-            <select name="riggerId" className="mt-1 rounded border border-rule px-2 py-1.5" defaultValue={workflow.assignedRigger?.id ?? ""}>
+            <span className="block text-ink-soft">
+              Rigger for the lift{workflow.assignedRigger ? ` (now ${workflow.assignedRigger.name})` : ""}
+            </span>
+            <select
+              name="riggerId"
+              className="mt-1 rounded border border-rule px-2 py-1.5"
+              defaultValue={workflow.assignedRigger?.id ?? ""}
+            >
               <option value="" disabled>
                 Choose…
               </option>
@@ -135,7 +178,12 @@ export function WorkflowPanel({ planId, workflow, riggers }: { planId: number; w
             <input type="hidden" name="intent" value="cancel" />
             <label className="block grow">
               <span className="block text-ink-soft">Why is it cancelled?</span>
-              <input name="reason" required minLength={5} className="mt-1 w-full rounded border border-rule px-2 py-1.5" />
+              <input
+                name="reason"
+                required
+                minLength={5}
+                className="mt-1 w-full rounded border border-rule px-2 py-1.5"
+              />
             </label>
             <Button type="submit" tone="danger">
               Cancel the plan
@@ -143,9 +191,11 @@ export function WorkflowPanel({ planId, workflow, riggers }: { planId: number; w
           </Form>
         </details>
       )}
-      {!can.submit.allowed && !can.approve.allowed && !can.print.allowed && can.submit.reason && working.status !== "draft" && (
-        <p className="text-xs text-ink-soft">{can.print.reason}</p>
-      )}
+      {!can.submit.allowed &&
+        !can.approve.allowed &&
+        !can.print.allowed &&
+        can.submit.reason &&
+        working.status !== "draft" && <p className="text-xs text-ink-soft">{can.print.reason}</p>}
     </section>
   );
 }

@@ -8,7 +8,13 @@ export function RoleCheckboxes({ selected, errors }: { selected: readonly Role[]
       <div className="mt-1 space-y-2">
         {ROLES.map((role) => (
           <label key={role} className="flex items-start gap-2 text-sm">
-            <input type="checkbox" name="roles" value={role} defaultChecked={selected.includes(role)} className="mt-1" />
+            <input
+              type="checkbox"
+              name="roles"
+              value={role}
+              defaultChecked={selected.includes(role)}
+              className="mt-1"
+            />
             <span>
               <span className="font-semibold">{ROLE_LABELS[role]}</span>
               <span className="block text-ink-soft">{ROLE_DUTIES[role]}</span>

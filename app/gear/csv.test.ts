@@ -35,7 +35,9 @@ describe("formula cells", () => {
 
 describe("reading CSV", () => {
   it("numbers rows by the line they start on, across quoted line breaks and blank lines", () => {
-    const rows = rowsOf(`\uFEFF${HEAD}\r\nA,shackle,1,t,,,bow,screw,\r\n\r\n"B",shackle,2,t,,,bow,screw,"multi\nline"\r\nC,shackle,3,t,,,bow,screw,\r\n`);
+    const rows = rowsOf(
+      `\uFEFF${HEAD}\r\nA,shackle,1,t,,,bow,screw,\r\n\r\n"B",shackle,2,t,,,bow,screw,"multi\nline"\r\nC,shackle,3,t,,,bow,screw,\r\n`,
+    );
     expect(rows.map((r) => [r.line, r.values.item_code])).toEqual([
       [2, "A"],
       [4, "B"],
@@ -48,8 +50,14 @@ describe("reading CSV", () => {
   });
 
   it("refuses a file without the needed columns, with repeated columns, or without rows", () => {
-    expect(parseCsv("code,kind\nA,shackle\n")).toMatchObject({ ok: false, message: expect.stringContaining("lacks item_code, wll, wll_unit") });
-    expect(parseCsv("item_code,kind,wll,wll_unit,wll\nA,shackle,1,t,2\n")).toMatchObject({ ok: false, message: expect.stringContaining("wll more than once") });
+    expect(parseCsv("code,kind\nA,shackle\n")).toMatchObject({
+      ok: false,
+      message: expect.stringContaining("lacks item_code, wll, wll_unit"),
+    });
+    expect(parseCsv("item_code,kind,wll,wll_unit,wll\nA,shackle,1,t,2\n")).toMatchObject({
+      ok: false,
+      message: expect.stringContaining("wll more than once"),
+    });
     expect(parseCsv(`${HEAD}\n`)).toMatchObject({ ok: false, message: expect.stringContaining("no items") });
     expect(parseCsv("")).toMatchObject({ ok: false, message: expect.stringContaining("empty") });
   });
@@ -60,13 +68,18 @@ describe("reading CSV", () => {
   });
 
   it("exports every column the import knows", () => {
-    expect(CSV_HEADERS).toEqual(expect.arrayContaining(["item_code", "kind", "wll", "wll_unit", "home_site", "status", "next_due_on"]));
+    expect(CSV_HEADERS).toEqual(
+      expect.arrayContaining(["item_code", "kind", "wll", "wll_unit", "home_site", "status", "next_due_on"]),
+    );
   });
 });
 
 describe("validating rows", () => {
   it("accepts good rows and matches home sites by name regardless of case", () => {
-    const { valid, errors } = validateGearRows(rowsOf(`${HEAD}\nKR-EB-1,eyebolt,700,kg,M16,collar,,,Fernbrook\nKR-SH-1,Shackle,3.25,t,,,bow,bolt,\n`), sites);
+    const { valid, errors } = validateGearRows(
+      rowsOf(`${HEAD}\nKR-EB-1,eyebolt,700,kg,M16,collar,,,Fernbrook\nKR-SH-1,Shackle,3.25,t,,,bow,bolt,\n`),
+      sites,
+    );
     expect(errors).toEqual([]);
     expect(valid.map((v) => [v.input.itemCode, v.input.kind, v.input.wllValue, v.input.homeSiteId])).toEqual([
       ["KR-EB-1", "eyebolt", 700, 7],
@@ -101,6 +114,9 @@ describe("validating rows", () => {
 
   it("asks for the size fields a kind needs", () => {
     const { errors } = validateGearRows(rowsOf(`${HEAD}\nKR-EB-9,eyebolt,700,kg,,,,,\n`), sites);
-    expect(errors[0]?.messages).toEqual(["thread: Enter the thread for an eyebolt.", "eyebolt_family: Enter the eyebolt type for an eyebolt."]);
+    expect(errors[0]?.messages).toEqual([
+      "thread: Enter the thread for an eyebolt.",
+      "eyebolt_family: Enter the eyebolt type for an eyebolt.",
+    ]);
   });
 });

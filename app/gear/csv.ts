@@ -86,19 +86,25 @@ function countNewlines(text: string, from: number, to: number) {
 }
 
 function toRows(records: Array<{ line: number; cells: string[] }>, problems: string[]): ParsedCsv {
-  if (problems.length) return { ok: false, message: `The file is not well-formed CSV (${problems.slice(0, 3).join("; ")}).` };
+  if (problems.length)
+    return { ok: false, message: `The file is not well-formed CSV (${problems.slice(0, 3).join("; ")}).` };
   const nonEmpty = records.filter((r) => r.cells.some((c) => c.trim() !== ""));
   const [head, ...data] = nonEmpty;
   if (!head) return { ok: false, message: "The file is empty: it needs a header line and at least one item." };
   const headers = head.cells.map((h) => h.trim().toLowerCase());
   const missing = REQUIRED_HEADERS.filter((h) => !headers.includes(h));
   if (missing.length) {
-    return { ok: false, message: `The header line must name the columns ${REQUIRED_HEADERS.join(", ")}; it lacks ${missing.join(", ")}.` };
+    return {
+      ok: false,
+      message: `The header line must name the columns ${REQUIRED_HEADERS.join(", ")}; it lacks ${missing.join(", ")}.`,
+    };
   }
   const repeated = headers.filter((h, i) => h && headers.indexOf(h) !== i);
-  if (repeated.length) return { ok: false, message: `The header line names ${[...new Set(repeated)].join(", ")} more than once.` };
+  if (repeated.length)
+    return { ok: false, message: `The header line names ${[...new Set(repeated)].join(", ")} more than once.` };
   if (!data.length) return { ok: false, message: "The file has a header line but no items." };
-  if (data.length > MAX_IMPORT_ROWS) return { ok: false, message: `The file has ${data.length} items; one import takes at most ${MAX_IMPORT_ROWS}.` };
+  if (data.length > MAX_IMPORT_ROWS)
+    return { ok: false, message: `The file has ${data.length} items; one import takes at most ${MAX_IMPORT_ROWS}.` };
   const known = new Set<string>(CSV_HEADERS);
   const ignoredColumns = headers.filter((h) => h && !known.has(h));
   const rows = data.map((r) => {
@@ -118,14 +124,18 @@ export type ValidRow = { line: number; input: GearItemInput };
  * Checks every row with the same schema as the item form; home sites are matched by name
  * (case-insensitive) against `siteIds`. A repeated item id is an error on each later line.
  */
-export function validateGearRows(rows: CsvRow[], siteIds: ReadonlyMap<string, number>): { valid: ValidRow[]; errors: RowError[] } {
+export function validateGearRows(
+  rows: CsvRow[],
+  siteIds: ReadonlyMap<string, number>,
+): { valid: ValidRow[]; errors: RowError[] } {
   const valid: ValidRow[] = [];
   const errors: RowError[] = [];
   const firstLine = new Map<string, number>();
   for (const row of rows) {
     const messages: string[] = [];
     const raw: Record<string, string> = {};
-    for (const column of EDITABLE_COLUMNS) if (column.field !== "homeSite") raw[column.field] = row.values[column.header] ?? "";
+    for (const column of EDITABLE_COLUMNS)
+      if (column.field !== "homeSite") raw[column.field] = row.values[column.header] ?? "";
     const parsed = gearItemSchema.safeParse(raw);
     if (!parsed.success) {
       for (const issue of parsed.error.issues) {
@@ -136,7 +146,8 @@ export function validateGearRows(rows: CsvRow[], siteIds: ReadonlyMap<string, nu
     }
     const siteName = (row.values.home_site ?? "").trim();
     const homeSiteId = siteName ? (siteIds.get(siteName.toLowerCase()) ?? null) : null;
-    if (siteName && homeSiteId === null) messages.push(`home_site: there is no site named "${siteName}" in your organisation.`);
+    if (siteName && homeSiteId === null)
+      messages.push(`home_site: there is no site named "${siteName}" in your organisation.`);
     const code = (row.values.item_code ?? "").trim();
     const seen = code ? firstLine.get(code) : undefined;
     if (seen !== undefined) messages.push(`item_code: ${code} is already on line ${seen} of this file.`);
@@ -159,5 +170,12 @@ type ExportItem = { [K in keyof GearItemInput]: string | number | null } & {
 /** The export's cells for one item, in CSV_HEADERS order. */
 export function exportRow(item: ExportItem): Array<string | number | null> {
   const editable = EDITABLE_COLUMNS.map((c) => (c.field === "homeSite" ? item.homeSiteName : (item[c.field] ?? null)));
-  return [...editable, Math.round(item.wllKg * 1000) / 1000, item.status, item.lastExaminedOn, item.nextDueOn, item.dueState];
+  return [
+    ...editable,
+    Math.round(item.wllKg * 1000) / 1000,
+    item.status,
+    item.lastExaminedOn,
+    item.nextDueOn,
+    item.dueState,
+  ];
 }

@@ -1,17 +1,36 @@
 import { describe, expect, it } from "vitest";
-import { addDays, addMonths, daysUntil, defaultNextDue, dueState, examinationIntervalMonths, isIsoDate, todayIso } from "~/gear/due";
+import {
+  addDays,
+  addMonths,
+  daysUntil,
+  defaultNextDue,
+  dueState,
+  examinationIntervalMonths,
+  isIsoDate,
+  todayIso,
+} from "~/gear/due";
 import { GEAR_KINDS } from "~/gear/kinds";
 
 describe("examination intervals", () => {
   it("LOLER 1998 reg 9(3)(a): lifting accessories at least every 6 months", () => {
-    for (const kind of ["eyebolt", "shackle", "chain_sling", "wire_rope_sling", "web_sling", "round_sling", "master_link", "beam"] as const) {
+    for (const kind of [
+      "eyebolt",
+      "shackle",
+      "chain_sling",
+      "wire_rope_sling",
+      "web_sling",
+      "round_sling",
+      "master_link",
+      "beam",
+    ] as const) {
       expect(examinationIntervalMonths(kind), kind).toBe(6);
     }
     expect(defaultNextDue("shackle", "2026-03-15")).toBe("2026-09-15");
   });
 
   it("LOLER 1998 reg 9(3)(a): other lifting equipment at least every 12 months", () => {
-    for (const kind of ["crane", "hoist", "chain_block", "lever_hoist"] as const) expect(examinationIntervalMonths(kind), kind).toBe(12);
+    for (const kind of ["crane", "hoist", "chain_block", "lever_hoist"] as const)
+      expect(examinationIntervalMonths(kind), kind).toBe(12);
     expect(defaultNextDue("crane", "2026-03-15")).toBe("2027-03-15");
   });
 

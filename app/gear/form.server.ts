@@ -4,7 +4,11 @@ import { isItemCodeTaken } from "~/models/gear-item.server";
 import { getSite } from "~/models/site.server";
 
 /** Parses and checks an item form against the organisation's sites and item ids. */
-export async function parseGearItemForm(organisationId: number, formData: FormData, exceptItemId?: number): Promise<FormResult<GearItemInput>> {
+export async function parseGearItemForm(
+  organisationId: number,
+  formData: FormData,
+  exceptItemId?: number,
+): Promise<FormResult<GearItemInput>> {
   const form = parseForm(gearItemSchema, formData);
   const rawSite = formData.get("homeSiteId");
   const siteText = typeof rawSite === "string" ? rawSite.trim() : "";

@@ -35,8 +35,18 @@ async function evaluate(organisationId: number, text: string) {
     organisationId,
     valid.map((v) => v.input),
   );
-  const updates = plan.flatMap((p, i) => (p.action === "update" ? [{ line: valid[i]!.line, itemCode: p.input.itemCode, fields: p.changed }] : []));
-  return { ok: true as const, rowCount: parsed.rows.length, valid, errors, counts, updates, ignoredColumns: parsed.ignoredColumns };
+  const updates = plan.flatMap((p, i) =>
+    p.action === "update" ? [{ line: valid[i]!.line, itemCode: p.input.itemCode, fields: p.changed }] : [],
+  );
+  return {
+    ok: true as const,
+    rowCount: parsed.rows.length,
+    valid,
+    errors,
+    counts,
+    updates,
+    ignoredColumns: parsed.ignoredColumns,
+  };
 }
 
 async function readCsv(file: File): Promise<Checked> {
@@ -49,12 +59,18 @@ async function readCsv(file: File): Promise<Checked> {
  * Checks an uploaded CSV and keeps it as a stored file so the confirmation can refer to it by id
  * (no second upload). Refuses, storing nothing, a file that is not CSV or not the register's format.
  */
-export async function stageGearImport(organisationId: number, file: File, actorId: number): Promise<{ ok: true; preview: ImportPreview } | { ok: false; message: string }> {
+export async function stageGearImport(
+  organisationId: number,
+  file: File,
+  actorId: number,
+): Promise<{ ok: true; preview: ImportPreview } | { ok: false; message: string }> {
   const read = await readCsv(file);
   if (!read.ok) return read;
   const result = await evaluate(organisationId, read.text);
   if (!result.ok) return result;
-  const stored = await transactionWithFiles((_t, store) => store(read.upload, { organisationId, purpose: "gear-import", uploadedBy: actorId }));
+  const stored = await transactionWithFiles((_t, store) =>
+    store(read.upload, { organisationId, purpose: "gear-import", uploadedBy: actorId }),
+  );
   return {
     ok: true,
     preview: {
@@ -82,7 +98,12 @@ export async function confirmGearImport(
   actorId: number,
 ): Promise<{ ok: true; counts: ImportCounts; skipped: number } | { ok: false; status: 400 | 404; message: string }> {
   const file = await getStoredFile(organisationId, fileId, "gear-import");
-  if (!file) return { ok: false, status: 404, message: "That staged import is not in your organisation; upload the file again." };
+  if (!file)
+    return {
+      ok: false,
+      status: 404,
+      message: "That staged import is not in your organisation; upload the file again.",
+    };
   const bytes = await readStoredBytes(file);
   if (!bytes) return { ok: false, status: 404, message: "The staged file is missing from storage; upload it again." };
   const result = await evaluate(organisationId, new TextDecoder("utf-8").decode(bytes));
@@ -94,7 +115,8 @@ export async function confirmGearImport(
       message: `${result.errors.length} row(s) have problems, so nothing was imported. Fix the file and upload it again, or choose to import only the ${result.valid.length} valid rows.`,
     };
   }
-  if (!result.valid.length) return { ok: false, status: 400, message: "No row of the file is valid; nothing was imported." };
+  if (!result.valid.length)
+    return { ok: false, status: 400, message: "No row of the file is valid; nothing was imported." };
   const counts = await applyGearImport(
     organisationId,
     result.valid.map((v) => v.input),

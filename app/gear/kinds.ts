@@ -42,16 +42,51 @@ type KindInfo = {
 };
 
 export const GEAR_KIND_INFO: Record<GearKind, KindInfo> = {
-  eyebolt: { label: "Eyebolt", accessory: true, fields: ["thread", "eyeboltFamily"], required: ["thread", "eyeboltFamily"] },
-  shackle: { label: "Shackle", accessory: true, fields: ["shackleType", "pinType", "diameterMm"], required: ["shackleType", "pinType"] },
-  chain_sling: { label: "Chain sling", accessory: true, fields: ["chainGrade", "diameterMm", "legs", "lengthM"], required: ["chainGrade", "diameterMm", "legs", "lengthM"] },
-  wire_rope_sling: { label: "Wire rope sling", accessory: true, fields: ["diameterMm", "legs", "lengthM"], required: ["diameterMm", "legs", "lengthM"] },
+  eyebolt: {
+    label: "Eyebolt",
+    accessory: true,
+    fields: ["thread", "eyeboltFamily"],
+    required: ["thread", "eyeboltFamily"],
+  },
+  shackle: {
+    label: "Shackle",
+    accessory: true,
+    fields: ["shackleType", "pinType", "diameterMm"],
+    required: ["shackleType", "pinType"],
+  },
+  chain_sling: {
+    label: "Chain sling",
+    accessory: true,
+    fields: ["chainGrade", "diameterMm", "legs", "lengthM"],
+    required: ["chainGrade", "diameterMm", "legs", "lengthM"],
+  },
+  wire_rope_sling: {
+    label: "Wire rope sling",
+    accessory: true,
+    fields: ["diameterMm", "legs", "lengthM"],
+    required: ["diameterMm", "legs", "lengthM"],
+  },
   web_sling: { label: "Web sling", accessory: true, fields: ["legs", "lengthM"], required: ["lengthM"] },
   round_sling: { label: "Round sling", accessory: true, fields: ["legs", "lengthM"], required: ["lengthM"] },
   master_link: { label: "Master link", accessory: true, fields: ["diameterMm"], required: [] },
-  beam: { label: "Lifting beam", accessory: true, fields: ["lengthM", "beamMassKg"], required: ["lengthM", "beamMassKg"] },
-  chain_block: { label: "Chain block", accessory: false, fields: ["chainGrade", "diameterMm", "lengthM"], required: [] },
-  lever_hoist: { label: "Lever hoist", accessory: false, fields: ["chainGrade", "diameterMm", "lengthM"], required: [] },
+  beam: {
+    label: "Lifting beam",
+    accessory: true,
+    fields: ["lengthM", "beamMassKg"],
+    required: ["lengthM", "beamMassKg"],
+  },
+  chain_block: {
+    label: "Chain block",
+    accessory: false,
+    fields: ["chainGrade", "diameterMm", "lengthM"],
+    required: [],
+  },
+  lever_hoist: {
+    label: "Lever hoist",
+    accessory: false,
+    fields: ["chainGrade", "diameterMm", "lengthM"],
+    required: [],
+  },
   hoist: { label: "Powered hoist", accessory: false, fields: ["hookHeightM"], required: [] },
   crane: { label: "Crane or gantry", accessory: false, fields: ["hookHeightM"], required: ["hookHeightM"] },
 };

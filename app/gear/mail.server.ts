@@ -18,7 +18,9 @@ export async function sendDefectReportMail(
   const admins = await listUsersWithRole(organisationId, "admin");
   if (!admins.length) return 0;
   const link = absoluteUrl(`/gear/${item.id}`, request);
-  const state = report.quarantined ? "The item is now QUARANTINED: it must not be used until an admin returns it to service." : "The item was already out of service; its status is unchanged.";
+  const state = report.quarantined
+    ? "The item is now QUARANTINED: it must not be used until an admin returns it to service."
+    : "The item was already out of service; its status is unchanged.";
   const text = [
     `${report.reporterName} reported a defect on ${item.itemCode}${item.description ? ` (${item.description})` : ""}:`,
     "",

@@ -22,7 +22,8 @@ export const ROLE_KINDS: Record<GearRole, readonly GearKind[]> = {
 };
 
 export function roleOfKind(kind: GearKind): GearRole | null {
-  for (const [role, kinds] of Object.entries(ROLE_KINDS) as Array<[GearRole, readonly GearKind[]]>) if (kinds.includes(kind)) return role;
+  for (const [role, kinds] of Object.entries(ROLE_KINDS) as Array<[GearRole, readonly GearKind[]]>)
+    if (kinds.includes(kind)) return role;
   return null;
 }
 
@@ -56,7 +57,17 @@ export function toGearPick(item: GearItem, tables: ReferenceTables): GearPick | 
   };
   switch (role) {
     case "eyebolt":
-      return { ...base, spec: { role, eyebolt: { family: (item.eyeboltFamily ?? "plain") as EyeboltFamily, thread: item.thread ?? "", wllKg: item.wllKg } } };
+      return {
+        ...base,
+        spec: {
+          role,
+          eyebolt: {
+            family: (item.eyeboltFamily ?? "plain") as EyeboltFamily,
+            thread: item.thread ?? "",
+            wllKg: item.wllKg,
+          },
+        },
+      };
     case "shackle":
       return {
         ...base,
@@ -89,12 +100,22 @@ export function toGearPick(item: GearItem, tables: ReferenceTables): GearPick | 
     case "masterLink":
       return { ...base, spec: { role, masterLink: { wllKg: item.wllKg } } };
     case "crane":
-      return { ...base, spec: { role, crane: { swlKg: item.wllKg, ...(item.hookHeightM !== null ? { maxHookHeightM: item.hookHeightM } : {}) } } };
+      return {
+        ...base,
+        spec: {
+          role,
+          crane: { swlKg: item.wllKg, ...(item.hookHeightM !== null ? { maxHookHeightM: item.hookHeightM } : {}) },
+        },
+      };
   }
 }
 
 /** The organisation's items for a role matching a text query (code, description, serial, thread), best first. */
-export async function searchGearPicks(organisationId: number, options: { role?: GearRole; query?: string; limit?: number }, tables: ReferenceTables) {
+export async function searchGearPicks(
+  organisationId: number,
+  options: { role?: GearRole; query?: string; limit?: number },
+  tables: ReferenceTables,
+) {
   const q = (options.query ?? "").trim().slice(0, 100);
   const like = `%${q.replace(/[%_\\]/g, (c) => `\\${c}`)}%`;
   const items = await GearItem.findAll({
@@ -102,9 +123,22 @@ export async function searchGearPicks(organisationId: number, options: { role?: 
       organisationId,
       status: { [Op.ne]: "withdrawn" },
       ...(options.role ? { kind: { [Op.in]: [...ROLE_KINDS[options.role]] } } : { kind: { [Op.ne]: "beam" } }),
-      ...(q ? { [Op.or]: [{ itemCode: { [Op.like]: like } }, { description: { [Op.like]: like } }, { serial: { [Op.like]: like } }, { thread: { [Op.like]: like } }] } : {}),
+      ...(q
+        ? {
+            [Op.or]: [
+              { itemCode: { [Op.like]: like } },
+              { description: { [Op.like]: like } },
+              { serial: { [Op.like]: like } },
+              { thread: { [Op.like]: like } },
+            ],
+          }
+        : {}),
     },
-    order: [["status", "ASC"], ["wllKg", "ASC"], ["itemCode", "ASC"]],
+    order: [
+      ["status", "ASC"],
+      ["wllKg", "ASC"],
+      ["itemCode", "ASC"],
+    ],
     limit: Math.min(Math.max(options.limit ?? 50, 1), 200),
   });
   return items.map((i) => toGearPick(i, tables)).filter((p): p is GearPick => p !== null);

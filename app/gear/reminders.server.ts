@@ -5,7 +5,14 @@ import { absoluteUrl, sendMail } from "~/utils/mail.server";
 import { listGearDueBy, type GearItem } from "~/models/gear-item.server";
 import { listUsersWithRole } from "~/models/user.server";
 
-export type ReminderLine = { itemCode: string; kind: string; description: string; site: string; nextDueOn: string; overdue: boolean };
+export type ReminderLine = {
+  itemCode: string;
+  kind: string;
+  description: string;
+  site: string;
+  nextDueOn: string;
+  overdue: boolean;
+};
 export type ReminderSummary = { organisationId: number; overdue: number; dueSoon: number; recipients: string[] };
 
 function lineFor(item: GearItem, today: string): ReminderLine {
@@ -24,7 +31,8 @@ export function reminderMessage(lines: ReminderLine[], today: string) {
   const overdue = lines.filter((l) => l.overdue);
   const dueSoon = lines.filter((l) => !l.overdue);
   const subject = `Gear examinations: ${overdue.length} overdue, ${dueSoon.length} due within ${DUE_SOON_DAYS} days`;
-  const textRow = (l: ReminderLine) => `  ${l.itemCode.padEnd(16)} ${l.nextDueOn}  ${l.kind}${l.description ? `, ${l.description}` : ""}${l.site ? ` (${l.site})` : ""}`;
+  const textRow = (l: ReminderLine) =>
+    `  ${l.itemCode.padEnd(16)} ${l.nextDueOn}  ${l.kind}${l.description ? `, ${l.description}` : ""}${l.site ? ` (${l.site})` : ""}`;
   const section = (title: string, rows: ReminderLine[]) => (rows.length ? [title, ...rows.map(textRow), ""] : []);
   const link = absoluteUrl("/gear?due=overdue");
   const text = [
@@ -62,9 +70,20 @@ export async function sendExaminationReminders(today = todayIso()): Promise<Remi
     const admins = await listUsersWithRole(organisationId, "admin");
     const message = reminderMessage(lines, today);
     if (admins.length) {
-      await sendMail({ organisationId, to: admins.map((a) => a.email), subject: message.subject, text: message.text, html: message.html });
+      await sendMail({
+        organisationId,
+        to: admins.map((a) => a.email),
+        subject: message.subject,
+        text: message.text,
+        html: message.html,
+      });
     }
-    summaries.push({ organisationId, overdue: message.overdue, dueSoon: message.dueSoon, recipients: admins.map((a) => a.email) });
+    summaries.push({
+      organisationId,
+      overdue: message.overdue,
+      dueSoon: message.dueSoon,
+      recipients: admins.map((a) => a.email),
+    });
   }
   return summaries;
 }

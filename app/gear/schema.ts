@@ -61,7 +61,10 @@ export const itemCodeSchema = z.preprocess(
     .string()
     .min(1, "Enter the item's id as marked on it.")
     .max(40, "The item id can be at most 40 characters.")
-    .regex(/^[A-Za-z0-9][A-Za-z0-9 ._/-]*$/, "Use letters, digits, spaces and . _ / - in the item id (starting with a letter or digit)."),
+    .regex(
+      /^[A-Za-z0-9][A-Za-z0-9 ._/-]*$/,
+      "Use letters, digits, spaces and . _ / - in the item id (starting with a letter or digit).",
+    ),
 );
 
 const specShape = {
@@ -76,7 +79,10 @@ const specShape = {
     },
     z
       .number({ error: `Give the chain grade as ${CHAIN_GRADES.join(" or ")}.` })
-      .refine((n) => (CHAIN_GRADES as readonly number[]).includes(n), `Give the chain grade as ${CHAIN_GRADES.join(" or ")}.`)
+      .refine(
+        (n) => (CHAIN_GRADES as readonly number[]).includes(n),
+        `Give the chain grade as ${CHAIN_GRADES.join(" or ")}.`,
+      )
       .nullable(),
   ),
   diameterMm: optionalNumber("diameter", { min: 1, max: 500 }),
@@ -91,7 +97,13 @@ export const gearItemSchema = z
   .object({
     itemCode: itemCodeSchema,
     kind: z.preprocess(
-      (v) => (typeof v === "string" ? v.trim().toLowerCase().replace(/[\s-]+/g, "_") : v),
+      (v) =>
+        typeof v === "string"
+          ? v
+              .trim()
+              .toLowerCase()
+              .replace(/[\s-]+/g, "_")
+          : v,
       z.enum(GEAR_KINDS, { error: `Choose the kind of item (${GEAR_KINDS.join(", ")}).` }),
     ),
     description: text(300),
@@ -106,7 +118,10 @@ export const gearItemSchema = z
         .number({ error: "Enter the WLL marked on the item, as a number." })
         .refine((n) => Number.isFinite(n), "Enter the WLL marked on the item, as a number.")
         .refine((n) => n > 0, "The WLL must be more than zero.")
-        .refine((n) => n <= 1_000_000, "That WLL is beyond anything the register holds; check the figure and its unit."),
+        .refine(
+          (n) => n <= 1_000_000,
+          "That WLL is beyond anything the register holds; check the figure and its unit.",
+        ),
     ),
     wllUnit: z.preprocess(
       (v) => {
@@ -123,9 +138,17 @@ export const gearItemSchema = z
     for (const field of SPEC_FIELDS) {
       const present = item[field] !== null;
       if (present && !info.fields.includes(field)) {
-        ctx.addIssue({ code: "custom", path: [field], message: `${SPEC_FIELD_LABELS[field]} does not apply to ${what}; leave it empty.` });
+        ctx.addIssue({
+          code: "custom",
+          path: [field],
+          message: `${SPEC_FIELD_LABELS[field]} does not apply to ${what}; leave it empty.`,
+        });
       } else if (!present && info.required.includes(field)) {
-        ctx.addIssue({ code: "custom", path: [field], message: `Enter the ${SPEC_FIELD_LABELS[field].replace(/ \(.*\)$/, "").toLowerCase()} for ${what}.` });
+        ctx.addIssue({
+          code: "custom",
+          path: [field],
+          message: `Enter the ${SPEC_FIELD_LABELS[field].replace(/ \(.*\)$/, "").toLowerCase()} for ${what}.`,
+        });
       }
     }
   });
@@ -150,7 +173,10 @@ export const examinationSchema = z
     ),
     result: z.enum(["pass", "fail"], { error: "Choose pass or fail." }),
     defects: text(4000),
-    nextDueOn: z.preprocess(blankToNull, z.string().refine(isIsoDate, "Give the next due date as a date (YYYY-MM-DD).").nullable()),
+    nextDueOn: z.preprocess(
+      blankToNull,
+      z.string().refine(isIsoDate, "Give the next due date as a date (YYYY-MM-DD).").nullable(),
+    ),
   })
   .superRefine((exam, ctx) => {
     if (exam.result === "fail" && !exam.defects) {
@@ -165,11 +191,20 @@ export type ExaminationFields = z.output<typeof examinationSchema>;
 
 export const statusChangeSchema = z.object({
   status: z.enum(GEAR_STATUSES, { error: "Choose in service, quarantined or withdrawn." }),
-  reason: z.preprocess(trimmed, z.string().min(1, "Give the reason for the change; it goes in the item's history.").max(1000, "At most 1000 characters.")),
+  reason: z.preprocess(
+    trimmed,
+    z
+      .string()
+      .min(1, "Give the reason for the change; it goes in the item's history.")
+      .max(1000, "At most 1000 characters."),
+  ),
 });
 
 export const defectReportSchema = z.object({
-  defect: z.preprocess(trimmed, z.string().min(3, "Describe the defect you found.").max(2000, "At most 2000 characters.")),
+  defect: z.preprocess(
+    trimmed,
+    z.string().min(3, "Describe the defect you found.").max(2000, "At most 2000 characters."),
+  ),
 });
 
 export type { GearStatus };

@@ -15,7 +15,12 @@ export const MASS_SOURCE_LABELS: Record<MassSource, string> = {
  * Default contingency on the mass by its source, in percent (common practice, a judgement
  * rather than a published table: the less certain the figure, the larger the allowance).
  */
-export const DEFAULT_CONTINGENCY_PCT: Record<MassSource, number> = { weighed: 0, certified: 3, calculated: 10, estimated: 20 };
+export const DEFAULT_CONTINGENCY_PCT: Record<MassSource, number> = {
+  weighed: 0,
+  certified: 3,
+  calculated: 10,
+  estimated: 20,
+};
 
 export const COG_SOURCES = ["measured", "manufacturer", "calculated", "estimated"] as const;
 export type CogSource = (typeof COG_SOURCES)[number];
@@ -66,8 +71,18 @@ export function rectangleOutlines(lengthM: number, widthM: number, heightM: numb
   const hl = lengthM / 2;
   const hw = widthM / 2;
   return {
-    outlineElevation: [[-hl, 0], [hl, 0], [hl, heightM], [-hl, heightM]] as Array<[number, number]>,
-    outlinePlan: [[-hl, -hw], [hl, -hw], [hl, hw], [-hl, hw]] as Array<[number, number]>,
+    outlineElevation: [
+      [-hl, 0],
+      [hl, 0],
+      [hl, heightM],
+      [-hl, heightM],
+    ] as Array<[number, number]>,
+    outlinePlan: [
+      [-hl, -hw],
+      [hl, -hw],
+      [hl, hw],
+      [-hl, hw],
+    ] as Array<[number, number]>,
   };
 }
 

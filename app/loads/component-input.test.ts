@@ -20,12 +20,30 @@ describe("the component form", () => {
       ["A", -0.8, "M20", 30],
       ["B", 0.2, "M20", null],
     ]);
-    expect(result.data.outlineElevation).toEqual([[-0.8, 0], [0.8, 0], [0.8, 0.9], [-0.8, 0.9]]);
+    expect(result.data.outlineElevation).toEqual([
+      [-0.8, 0],
+      [0.8, 0],
+      [0.8, 0.9],
+      [-0.8, 0.9],
+    ]);
   });
 
   it("reads inches and pounds for an imperial user (1 in = 25.4 mm, 1 lb = 0.45359237 kg, exact)", () => {
     const result = parseComponentForm(
-      form(componentFields({ mass: "1000", length: "60", width: "30", height: "36", cogZ: "18", "lp-0-x": "-30", "lp-0-z": "36", "lp-1-x": "10", "lp-1-z": "36", "lp-0-engagement": "1" })),
+      form(
+        componentFields({
+          mass: "1000",
+          length: "60",
+          width: "30",
+          height: "36",
+          cogZ: "18",
+          "lp-0-x": "-30",
+          "lp-0-z": "36",
+          "lp-1-x": "10",
+          "lp-1-z": "36",
+          "lp-0-engagement": "1",
+        }),
+      ),
       "imperial",
     );
     expect(result.ok).toBe(true);
@@ -37,21 +55,49 @@ describe("the component form", () => {
 
   it("refuses control characters in lift point ids, threads and part names, which the multi-row insert cannot store", () => {
     const result = parseComponentForm(
-      form(componentFields({ "lp-1-label": "B\u0000", "lp-0-thread": "M20\u001b", "part-0-name": "Motor\u0000", "part-0-mass": "100", "part-0-x": "0", "part-0-y": "0", "part-0-z": "400" })),
+      form(
+        componentFields({
+          "lp-1-label": "B\u0000",
+          "lp-0-thread": "M20\u001b",
+          "part-0-name": "Motor\u0000",
+          "part-0-mass": "100",
+          "part-0-x": "0",
+          "part-0-y": "0",
+          "part-0-z": "400",
+        }),
+      ),
       "metric",
     );
     const message = "Remove the control character (an invisible one, such as NUL) from this field.";
-    expect(result).toEqual({ ok: false, errors: { "lp-0-thread": [message], "lp-1-label": [message], "part-0-name": [message] } });
+    expect(result).toEqual({
+      ok: false,
+      errors: { "lp-0-thread": [message], "lp-1-label": [message], "part-0-name": [message] },
+    });
   });
 
   it("an estimated mass must carry a contingency", () => {
-    const result = parseComponentForm(form(componentFields({ massSource: "estimated", contingencyPct: "0" })), "metric");
-    expect(result).toEqual({ ok: false, errors: { contingencyPct: ["An estimated mass must carry a contingency above 0 %."] } });
+    const result = parseComponentForm(
+      form(componentFields({ massSource: "estimated", contingencyPct: "0" })),
+      "metric",
+    );
+    expect(result).toEqual({
+      ok: false,
+      errors: { contingencyPct: ["An estimated mass must carry a contingency above 0 %."] },
+    });
   });
 
   it("names each bad field", () => {
     const result = parseComponentForm(
-      form(componentFields({ mass: "-5", cogZ: "2000", "lp-1-label": "a", "lp-0-ax": "0", "lp-0-az": "0", "lp-1-x": "wide" })),
+      form(
+        componentFields({
+          mass: "-5",
+          cogZ: "2000",
+          "lp-1-label": "a",
+          "lp-0-ax": "0",
+          "lp-0-az": "0",
+          "lp-1-x": "wide",
+        }),
+      ),
       "metric",
     );
     expect(result.ok).toBe(false);
@@ -66,7 +112,13 @@ describe("the component form", () => {
 
   it("takes a custom outline and refuses a broken one with the line number", () => {
     const ok = parseComponentForm(
-      form(componentFields({ outlineMode: "custom", outlineElevation: "-800, 0\n800, 0\n800, 900\n-800,900", outlinePlan: "-800 -400\n800 -400\n0 400" })),
+      form(
+        componentFields({
+          outlineMode: "custom",
+          outlineElevation: "-800, 0\n800, 0\n800, 900\n-800,900",
+          outlinePlan: "-800 -400\n800 -400\n0 400",
+        }),
+      ),
       "metric",
     );
     expect(ok.ok).toBe(true);

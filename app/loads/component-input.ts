@@ -16,11 +16,21 @@ export const MAX_PARTS = 30;
 
 // Lift points and parts are written in one multi-row insert, which cannot carry a NUL; no field here needs control characters.
 const text = (max: number) =>
-  z.preprocess((v) => (typeof v === "string" ? v.trim() : ""), z.string().max(max, `At most ${max} characters.`).refine((s) => !hasControlCharacters(s), CONTROL_CHARACTER_MESSAGE));
+  z.preprocess(
+    (v) => (typeof v === "string" ? v.trim() : ""),
+    z
+      .string()
+      .max(max, `At most ${max} characters.`)
+      .refine((s) => !hasControlCharacters(s), CONTROL_CHARACTER_MESSAGE),
+  );
 const required = (label: string, max: number) =>
   z.preprocess(
     (v) => (typeof v === "string" ? v.trim() : ""),
-    z.string().min(1, `Enter the ${label}.`).max(max, `At most ${max} characters.`).refine((s) => !hasControlCharacters(s), CONTROL_CHARACTER_MESSAGE),
+    z
+      .string()
+      .min(1, `Enter the ${label}.`)
+      .max(max, `At most ${max} characters.`)
+      .refine((s) => !hasControlCharacters(s), CONTROL_CHARACTER_MESSAGE),
   );
 const number = (label: string) =>
   z.preprocess(
@@ -30,7 +40,10 @@ const number = (label: string) =>
 const optionalNumber = (label: string) =>
   z.preprocess(
     (v) => (typeof v === "string" && v.trim() !== "" ? Number(v.trim().replace(/,/g, "")) : null),
-    z.number({ error: `Enter the ${label} as a number.` }).finite(`Enter the ${label} as a number.`).nullable(),
+    z
+      .number({ error: `Enter the ${label} as a number.` })
+      .finite(`Enter the ${label} as a number.`)
+      .nullable(),
   );
 
 const headSchema = z.object({
@@ -74,7 +87,10 @@ const partSchema = z.object({
 });
 
 /** Rows of fields named `${prefix}-${i}-${field}`, in index order; rows whose fields are all empty are left out. */
-export function indexedRows(formData: FormData, prefix: string): Array<{ index: number; values: Record<string, string> }> {
+export function indexedRows(
+  formData: FormData,
+  prefix: string,
+): Array<{ index: number; values: Record<string, string> }> {
   const rows = new Map<number, Record<string, string>>();
   for (const [key, value] of formData.entries()) {
     const match = new RegExp(`^${prefix}-(\\d{1,3})-([a-z]+)$`).exec(key);
@@ -92,13 +108,17 @@ export function indexedRows(formData: FormData, prefix: string): Array<{ index: 
 
 /** Parses "a, b" per line into points (in display units). */
 export function parsePolygon(textValue: string): Array<[number, number]> | string {
-  const lines = textValue.split(/\r?\n/).map((l) => l.trim()).filter(Boolean);
+  const lines = textValue
+    .split(/\r?\n/)
+    .map((l) => l.trim())
+    .filter(Boolean);
   const points: Array<[number, number]> = [];
   for (const [i, line] of lines.entries()) {
     const parts = line.split(/[\s,;]+/).filter(Boolean);
     const a = Number(parts[0]);
     const b = Number(parts[1]);
-    if (parts.length !== 2 || !Number.isFinite(a) || !Number.isFinite(b)) return `Line ${i + 1} should hold two numbers, like "-600, 0".`;
+    if (parts.length !== 2 || !Number.isFinite(a) || !Number.isFinite(b))
+      return `Line ${i + 1} should hold two numbers, like "-600, 0".`;
     points.push([a, b]);
   }
   if (points.length < 3) return "An outline needs at least three corners, one per line.";
@@ -114,13 +134,16 @@ const TOLERANCE_M = 0.001;
 export function parseComponentForm(formData: FormData, units: Units): FormResult<ComponentDefinition> {
   const errors: Record<string, string[]> = {};
   const add = (key: string, message: string) => (errors[key] ??= []).push(message);
-  const head = headSchema.safeParse(Object.fromEntries([...formData.entries()].filter(([, v]) => typeof v === "string")));
+  const head = headSchema.safeParse(
+    Object.fromEntries([...formData.entries()].filter(([, v]) => typeof v === "string")),
+  );
   if (!head.success) for (const issue of head.error.issues) add(String(issue.path[0] ?? "_form"), issue.message);
 
   const L = (v: number) => fromDisplayLength(v, units);
 
   const liftRows = indexedRows(formData, "lp");
-  if (liftRows.length > MAX_LIFT_POINTS) add("liftPoints", `A component can have at most ${MAX_LIFT_POINTS} lift points.`);
+  if (liftRows.length > MAX_LIFT_POINTS)
+    add("liftPoints", `A component can have at most ${MAX_LIFT_POINTS} lift points.`);
   const liftPoints: ComponentDefinition["liftPoints"] = [];
   const labels = new Set<string>();
   for (const { index, values } of liftRows) {
@@ -138,7 +161,8 @@ export function parseComponentForm(formData: FormData, units: Units): FormResult
       add(`lp-${index}-ax`, "The axis needs a direction: it cannot be 0, 0, 0.");
       continue;
     }
-    if (p.engagement !== null && p.engagement <= 0) add(`lp-${index}-engagement`, "Thread engagement must be more than zero.");
+    if (p.engagement !== null && p.engagement <= 0)
+      add(`lp-${index}-engagement`, "Thread engagement must be more than zero.");
     liftPoints.push({
       label: p.label,
       position: { x: L(p.x), y: L(p.y), z: L(p.z) },
@@ -157,16 +181,25 @@ export function parseComponentForm(formData: FormData, units: Units): FormResult
       for (const issue of row.error.issues) add(`part-${index}-${String(issue.path[0])}`, issue.message);
       continue;
     }
-    parts.push({ name: row.data.name, massKg: fromDisplayMass(row.data.mass, units), position: { x: L(row.data.x), y: L(row.data.y), z: L(row.data.z) } });
+    parts.push({
+      name: row.data.name,
+      massKg: fromDisplayMass(row.data.mass, units),
+      position: { x: L(row.data.x), y: L(row.data.y), z: L(row.data.z) },
+    });
   }
 
   if (!head.success) return { ok: false, errors };
   const h = head.data;
   const massKg = fromDisplayMass(h.mass, units);
   if (massKg > MAX_MASS_KG) add("mass", "That mass is over 1,000 t; check the figure and its unit.");
-  if (h.massSource === "estimated" && !(h.contingencyPct > 0)) add("contingencyPct", "An estimated mass must carry a contingency above 0 %.");
+  if (h.massSource === "estimated" && !(h.contingencyPct > 0))
+    add("contingencyPct", "An estimated mass must carry a contingency above 0 %.");
   const dims = { lengthM: L(h.length), widthM: L(h.width), heightM: L(h.height) };
-  for (const [field, value] of [["length", dims.lengthM], ["width", dims.widthM], ["height", dims.heightM]] as const) {
+  for (const [field, value] of [
+    ["length", dims.lengthM],
+    ["width", dims.widthM],
+    ["height", dims.heightM],
+  ] as const) {
     if (value > MAX_DIMENSION_M) add(field, "That is over 100 m; check the figure and its unit.");
   }
 
@@ -188,9 +221,12 @@ export function parseComponentForm(formData: FormData, units: Units): FormResult
   const elevation = polygonBounds(outlines.outlineElevation);
   const plan = polygonBounds(outlines.outlinePlan);
   const inside = (v: number, min: number, max: number) => v >= min - TOLERANCE_M && v <= max + TOLERANCE_M;
-  if (!inside(cog.x, Math.min(elevation.minA, plan.minA), Math.max(elevation.maxA, plan.maxA))) add("cogX", "The CoG lies outside the component's outline along x; check the figure and the datum.");
-  if (!inside(cog.y, plan.minB, plan.maxB)) add("cogY", "The CoG lies outside the component's outline along y; check the figure and the datum.");
-  if (!inside(cog.z, elevation.minB, elevation.maxB)) add("cogZ", "The CoG lies outside the component's outline along z; check the figure and the datum.");
+  if (!inside(cog.x, Math.min(elevation.minA, plan.minA), Math.max(elevation.maxA, plan.maxA)))
+    add("cogX", "The CoG lies outside the component's outline along x; check the figure and the datum.");
+  if (!inside(cog.y, plan.minB, plan.maxB))
+    add("cogY", "The CoG lies outside the component's outline along y; check the figure and the datum.");
+  if (!inside(cog.z, elevation.minB, elevation.maxB))
+    add("cogZ", "The CoG lies outside the component's outline along z; check the figure and the datum.");
 
   if (Object.keys(errors).length) return { ok: false, errors };
   return {

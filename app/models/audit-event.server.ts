@@ -1,4 +1,11 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Transaction } from "sequelize";
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type Transaction,
+} from "sequelize";
 import { sequelize } from "~/utils/db.server";
 
 /** A row of the audit trail: appended, never updated or deleted. */

@@ -40,7 +40,10 @@ export class Component extends Model<InferAttributes<Component>, InferCreationAt
   declare parts?: NonAttribute<ComponentPart[]>;
 }
 
-export class ComponentLiftPoint extends Model<InferAttributes<ComponentLiftPoint>, InferCreationAttributes<ComponentLiftPoint>> {
+export class ComponentLiftPoint extends Model<
+  InferAttributes<ComponentLiftPoint>,
+  InferCreationAttributes<ComponentLiftPoint>
+> {
   declare id: CreationOptional<number>;
   declare componentId: number;
   declare position: number;
@@ -205,7 +208,11 @@ export async function getComponent(organisationId: number, componentId: number) 
   return Component.findOne({ where: { organisationId, id: componentId }, include: withChildren });
 }
 
-async function writeChildren(componentId: number, def: ComponentDefinition, transaction: import("sequelize").Transaction) {
+async function writeChildren(
+  componentId: number,
+  def: ComponentDefinition,
+  transaction: import("sequelize").Transaction,
+) {
   await ComponentLiftPoint.destroy({ where: { componentId }, transaction });
   await ComponentPart.destroy({ where: { componentId }, transaction });
   await ComponentLiftPoint.bulkCreate(
@@ -225,7 +232,15 @@ async function writeChildren(componentId: number, def: ComponentDefinition, tran
     { transaction },
   );
   await ComponentPart.bulkCreate(
-    def.parts.map((p, position) => ({ componentId, position, name: p.name, massKg: p.massKg, xM: p.position.x, yM: p.position.y, zM: p.position.z })),
+    def.parts.map((p, position) => ({
+      componentId,
+      position,
+      name: p.name,
+      massKg: p.massKg,
+      xM: p.position.x,
+      yM: p.position.y,
+      zM: p.position.z,
+    })),
     { transaction },
   );
 }
@@ -234,7 +249,10 @@ export async function createComponent(organisationId: number, def: ComponentDefi
   return sequelize.transaction(async (transaction) => {
     const component = await Component.create({ organisationId, ...columns(def), archivedAt: null }, { transaction });
     await writeChildren(component.id, def, transaction);
-    await recordAudit({ organisationId, userId: actorId, entity: "component", entityId: component.id, action: "created" }, transaction);
+    await recordAudit(
+      { organisationId, userId: actorId, entity: "component", entityId: component.id, action: "created" },
+      transaction,
+    );
     return component;
   });
 }
@@ -243,7 +261,13 @@ export async function createComponent(organisationId: number, def: ComponentDefi
  * Saves a new version of the component when `expectedVersion` is still current; returns the new
  * version, or null when someone else saved first (nothing is written then).
  */
-export async function updateComponent(organisationId: number, componentId: number, def: ComponentDefinition, expectedVersion: number, actorId: number) {
+export async function updateComponent(
+  organisationId: number,
+  componentId: number,
+  def: ComponentDefinition,
+  expectedVersion: number,
+  actorId: number,
+) {
   return sequelize.transaction(async (transaction) => {
     const [count] = await Component.update(
       { ...columns(def), version: expectedVersion + 1 },
@@ -252,14 +276,26 @@ export async function updateComponent(organisationId: number, componentId: numbe
     if (count !== 1) return null;
     await writeChildren(componentId, def, transaction);
     await recordAudit(
-      { organisationId, userId: actorId, entity: "component", entityId: componentId, action: "updated", details: { version: expectedVersion + 1 } },
+      {
+        organisationId,
+        userId: actorId,
+        entity: "component",
+        entityId: componentId,
+        action: "updated",
+        details: { version: expectedVersion + 1 },
+      },
       transaction,
     );
     return expectedVersion + 1;
   });
 }
 
-export async function setComponentArchived(organisationId: number, componentId: number, archived: boolean, actorId: number) {
+export async function setComponentArchived(
+  organisationId: number,
+  componentId: number,
+  archived: boolean,
+  actorId: number,
+) {
   return sequelize.transaction(async (transaction) => {
     const [count] = await Component.update(
       { archivedAt: archived ? new Date() : null },
@@ -267,7 +303,13 @@ export async function setComponentArchived(organisationId: number, componentId: 
     );
     if (count) {
       await recordAudit(
-        { organisationId, userId: actorId, entity: "component", entityId: componentId, action: archived ? "archived" : "restored" },
+        {
+          organisationId,
+          userId: actorId,
+          entity: "component",
+          entityId: componentId,
+          action: archived ? "archived" : "restored",
+        },
         transaction,
       );
     }
@@ -303,7 +345,11 @@ ComponentFile.init(
 ComponentFile.belongsTo(StoredFile, { foreignKey: "storedFileId", as: "storedFile" });
 
 export async function listComponentFiles(componentId: number) {
-  return ComponentFile.findAll({ where: { componentId }, include: [{ model: StoredFile, as: "storedFile" }], order: [["id", "ASC"]] });
+  return ComponentFile.findAll({
+    where: { componentId },
+    include: [{ model: StoredFile, as: "storedFile" }],
+    order: [["id", "ASC"]],
+  });
 }
 
 /** Stores a checked upload and links it to the component, in one transaction (bytes removed again on failure). */
@@ -316,20 +362,38 @@ export async function addComponentFile(
 ) {
   return transactionWithFiles(async (transaction, store) => {
     const stored = await store(upload, { organisationId, purpose: input.kind, uploadedBy: actorId });
-    const link = await ComponentFile.create({ componentId, storedFileId: stored.id, kind: input.kind, caption: input.caption }, { transaction });
+    const link = await ComponentFile.create(
+      { componentId, storedFileId: stored.id, kind: input.kind, caption: input.caption },
+      { transaction },
+    );
     await recordAudit(
-      { organisationId, userId: actorId, entity: "component", entityId: componentId, action: `${input.kind} added`, details: { file: upload.originalName } },
+      {
+        organisationId,
+        userId: actorId,
+        entity: "component",
+        entityId: componentId,
+        action: `${input.kind} added`,
+        details: { file: upload.originalName },
+      },
       transaction,
     );
     return link;
   });
 }
 
-export async function removeComponentFile(organisationId: number, componentId: number, componentFileId: number, actorId: number) {
+export async function removeComponentFile(
+  organisationId: number,
+  componentId: number,
+  componentFileId: number,
+  actorId: number,
+) {
   return sequelize.transaction(async (transaction) => {
     const count = await ComponentFile.destroy({ where: { id: componentFileId, componentId }, transaction });
     if (count) {
-      await recordAudit({ organisationId, userId: actorId, entity: "component", entityId: componentId, action: "file removed" }, transaction);
+      await recordAudit(
+        { organisationId, userId: actorId, entity: "component", entityId: componentId, action: "file removed" },
+        transaction,
+      );
     }
     return count === 1;
   });

@@ -63,13 +63,23 @@ export async function listExaminations(organisationId: number, gearItemId: numbe
       { model: StoredFile, as: "certificate", attributes: ["id", "originalName", "sizeBytes"] },
       { model: User, as: "recorder", attributes: ["id", "name"] },
     ],
-    order: [["examinedOn", "DESC"], ["id", "DESC"]],
+    order: [
+      ["examinedOn", "DESC"],
+      ["id", "DESC"],
+    ],
   });
 }
 
 /** The latest examination of an item (by examination date, then by when it was recorded), or null. */
 export async function getLatestExamination(organisationId: number, gearItemId: number, transaction?: Transaction) {
-  return Examination.findOne({ where: { organisationId, gearItemId }, order: [["examinedOn", "DESC"], ["id", "DESC"]], transaction });
+  return Examination.findOne({
+    where: { organisationId, gearItemId },
+    order: [
+      ["examinedOn", "DESC"],
+      ["id", "DESC"],
+    ],
+    transaction,
+  });
 }
 
 export type RecordedExamination = { examination: Examination; nextDueOn: string; quarantined: boolean } | null;
@@ -90,7 +100,9 @@ export async function recordExamination(
     const item = await GearItem.findOne({ where: { organisationId, id: gearItemId }, transaction });
     if (!item) return null;
     const nextDueOn = fields.nextDueOn ?? defaultNextDue(item.kind, fields.examinedOn);
-    const file = certificate ? await store(certificate, { organisationId, purpose: "certificate", uploadedBy: actorId }) : null;
+    const file = certificate
+      ? await store(certificate, { organisationId, purpose: "certificate", uploadedBy: actorId })
+      : null;
     const examination = await Examination.create(
       {
         organisationId,
@@ -114,7 +126,13 @@ export async function recordExamination(
         entity: "gear_item",
         entityId: gearItemId,
         action: "examination recorded",
-        details: { examinationId: examination.id, examinedOn: fields.examinedOn, result: fields.result, nextDueOn, examiner: fields.examiner },
+        details: {
+          examinationId: examination.id,
+          examinedOn: fields.examinedOn,
+          result: fields.result,
+          nextDueOn,
+          examiner: fields.examiner,
+        },
       },
       transaction,
     );
@@ -122,7 +140,11 @@ export async function recordExamination(
     if (quarantined) {
       await setGearStatus(
         item,
-        { status: "quarantined", reason: `Failed thorough examination on ${fields.examinedOn} (${fields.examiner}): ${fields.defects}`, actorId },
+        {
+          status: "quarantined",
+          reason: `Failed thorough examination on ${fields.examinedOn} (${fields.examiner}): ${fields.defects}`,
+          actorId,
+        },
         transaction,
       );
     }

@@ -161,7 +161,11 @@ export type GearRow = {
 
 function contains(column: string, q: string) {
   // instr() needs no escaping of % and _ the way LIKE would.
-  return sequelize.where(sequelize.fn("instr", sequelize.fn("lower", sequelize.col(column)), q.toLowerCase()), Op.gt, 0);
+  return sequelize.where(
+    sequelize.fn("instr", sequelize.fn("lower", sequelize.col(column)), q.toLowerCase()),
+    Op.gt,
+    0,
+  );
 }
 
 function dueWhere(due: DueState, today: string): WhereOptions {
@@ -184,8 +188,26 @@ export function toFormValues(item: GearItem): GearItemInput & { id: number } {
 }
 
 const ROW_ATTRIBUTES = [
-  "id", "itemCode", "kind", "description", "wllValue", "wllUnit", "wllKg", "thread", "eyeboltFamily", "shackleType", "pinType", "chainGrade",
-  "diameterMm", "legs", "lengthM", "hookHeightM", "beamMassKg", "status", "lastExaminedOn", "nextDueOn",
+  "id",
+  "itemCode",
+  "kind",
+  "description",
+  "wllValue",
+  "wllUnit",
+  "wllKg",
+  "thread",
+  "eyeboltFamily",
+  "shackleType",
+  "pinType",
+  "chainGrade",
+  "diameterMm",
+  "legs",
+  "lengthM",
+  "hookHeightM",
+  "beamMassKg",
+  "status",
+  "lastExaminedOn",
+  "nextDueOn",
 ] as const satisfies ReadonlyArray<keyof GearItem>;
 
 function toRow(item: GearItem, today: string): GearRow {
@@ -216,7 +238,11 @@ function toRow(item: GearItem, today: string): GearRow {
 }
 
 /** One page of the organisation's register, filtered and sorted in the database. */
-export async function searchGearItems(organisationId: number, search: GearSearch, today: string): Promise<{ rows: GearRow[]; total: number }> {
+export async function searchGearItems(
+  organisationId: number,
+  search: GearSearch,
+  today: string,
+): Promise<{ rows: GearRow[]; total: number }> {
   const and: WhereOptions[] = [{ organisationId }];
   if (search.kind) and.push({ kind: search.kind });
   if (search.status) and.push({ status: search.status });
@@ -226,7 +252,9 @@ export async function searchGearItems(organisationId: number, search: GearSearch
   const q = search.q?.trim();
   if (q) {
     and.push({
-      [Op.or]: ["GearItem.item_code", "GearItem.description", "GearItem.manufacturer", "GearItem.serial"].map((c) => contains(c, q)),
+      [Op.or]: ["GearItem.item_code", "GearItem.description", "GearItem.manufacturer", "GearItem.serial"].map((c) =>
+        contains(c, q),
+      ),
     });
   }
   const dir = search.dir === "desc" ? "DESC" : "ASC";
@@ -264,7 +292,11 @@ export async function countGearDue(organisationId: number, today: string) {
 
 /** Every item of the organisation in item id order, for the CSV export. */
 export async function listAllGearItems(organisationId: number) {
-  return GearItem.findAll({ where: { organisationId }, include: [{ model: Site, as: "homeSite" }], order: [["itemCode", "ASC"]] });
+  return GearItem.findAll({
+    where: { organisationId },
+    include: [{ model: Site, as: "homeSite" }],
+    order: [["itemCode", "ASC"]],
+  });
 }
 
 export async function getGearItem(organisationId: number, itemId: number) {
@@ -285,7 +317,10 @@ export async function isItemCodeTaken(organisationId: number, itemCode: string, 
 export async function createGearItem(organisationId: number, input: GearItemInput, actorId: number) {
   return sequelize.transaction(async (transaction) => {
     const item = await GearItem.create({ organisationId, ...columnsFor(input) }, { transaction });
-    await recordAudit({ organisationId, userId: actorId, entity: ENTITY, entityId: item.id, action: "created" }, transaction);
+    await recordAudit(
+      { organisationId, userId: actorId, entity: ENTITY, entityId: item.id, action: "created" },
+      transaction,
+    );
     return item;
   });
 }
@@ -298,7 +333,17 @@ export async function updateGearItem(organisationId: number, itemId: number, inp
     const changed = changedFields(item, input);
     if (!changed.length) return true;
     await item.update(columnsFor(input), { transaction });
-    await recordAudit({ organisationId, userId: actorId, entity: ENTITY, entityId: itemId, action: "updated", details: { fields: changed } }, transaction);
+    await recordAudit(
+      {
+        organisationId,
+        userId: actorId,
+        entity: ENTITY,
+        entityId: itemId,
+        action: "updated",
+        details: { fields: changed },
+      },
+      transaction,
+    );
     return true;
   });
 }
@@ -312,7 +357,15 @@ export async function setGearStatus(
   transaction: Transaction,
 ) {
   const from = item.status;
-  await item.update({ status: change.status, statusReason: change.reason, statusChangedBy: change.actorId, statusChangedAt: new Date() }, { transaction });
+  await item.update(
+    {
+      status: change.status,
+      statusReason: change.reason,
+      statusChangedBy: change.actorId,
+      statusChangedAt: new Date(),
+    },
+    { transaction },
+  );
   await recordAudit(
     {
       organisationId: item.organisationId,
@@ -340,9 +393,14 @@ export async function changeGearStatus(
   return sequelize.transaction(async (transaction) => {
     const item = await GearItem.findOne({ where: { organisationId, id: itemId }, transaction });
     if (!item) return { ok: false, message: "There is no such item in your organisation." };
-    if (item.status === change.status) return { ok: false, message: `The item is already ${GEAR_STATUS_LABELS[change.status].toLowerCase()}.` };
+    if (item.status === change.status)
+      return { ok: false, message: `The item is already ${GEAR_STATUS_LABELS[change.status].toLowerCase()}.` };
     if (change.status === "in_service" && latestResult === "fail") {
-      return { ok: false, message: "The latest thorough examination failed: record a passing examination before returning the item to service." };
+      return {
+        ok: false,
+        message:
+          "The latest thorough examination failed: record a passing examination before returning the item to service.",
+      };
     }
     await setGearStatus(item, { ...change, actorId }, transaction);
     return { ok: true, item };
@@ -354,7 +412,12 @@ export async function changeGearStatus(
  * with the report as its reason; an item already out of service keeps its status, and the report
  * is recorded either way.
  */
-export async function reportGearDefect(organisationId: number, itemId: number, defect: string, reporter: { id: number; name: string }) {
+export async function reportGearDefect(
+  organisationId: number,
+  itemId: number,
+  defect: string,
+  reporter: { id: number; name: string },
+) {
   return sequelize.transaction(async (transaction) => {
     const item = await GearItem.findOne({ where: { organisationId, id: itemId }, transaction });
     if (!item) return null;
@@ -362,12 +425,25 @@ export async function reportGearDefect(organisationId: number, itemId: number, d
     if (quarantined) {
       await setGearStatus(
         item,
-        { status: "quarantined", reason: `Defect reported by ${reporter.name}: ${defect}`, actorId: reporter.id, action: "defect reported", details: { defect } },
+        {
+          status: "quarantined",
+          reason: `Defect reported by ${reporter.name}: ${defect}`,
+          actorId: reporter.id,
+          action: "defect reported",
+          details: { defect },
+        },
         transaction,
       );
     } else {
       await recordAudit(
-        { organisationId, userId: reporter.id, entity: ENTITY, entityId: item.id, action: "defect reported", details: { defect, from: item.status, to: item.status } },
+        {
+          organisationId,
+          userId: reporter.id,
+          entity: ENTITY,
+          entityId: item.id,
+          action: "defect reported",
+          details: { defect, from: item.status, to: item.status },
+        },
         transaction,
       );
     }
@@ -375,13 +451,21 @@ export async function reportGearDefect(organisationId: number, itemId: number, d
   });
 }
 
-export type GearHistoryEntry = { id: number; at: string; who: string; action: string; details: Record<string, unknown> };
+export type GearHistoryEntry = {
+  id: number;
+  at: string;
+  who: string;
+  action: string;
+  details: Record<string, unknown>;
+};
 
 /** The item's audit trail, oldest first, with the name of whoever acted. */
 export async function listGearHistory(organisationId: number, itemId: number): Promise<GearHistoryEntry[]> {
   const events = await listAuditEvents(organisationId, ENTITY, itemId);
   const userIds = [...new Set(events.map((e) => e.userId).filter((id): id is number => id !== null))];
-  const users = userIds.length ? await User.findAll({ where: { organisationId, id: userIds }, attributes: ["id", "name"] }) : [];
+  const users = userIds.length
+    ? await User.findAll({ where: { organisationId, id: userIds }, attributes: ["id", "name"] })
+    : [];
   const names = new Map(users.map((u) => [u.id, u.name]));
   return events.map((e) => ({
     id: e.id,
@@ -397,7 +481,11 @@ export async function listGearDueBy(until: string) {
   return GearItem.findAll({
     where: { status: { [Op.ne]: "withdrawn" }, nextDueOn: { [Op.lte]: until } },
     include: [{ model: Site, as: "homeSite" }],
-    order: [["organisationId", "ASC"], ["nextDueOn", "ASC"], ["itemCode", "ASC"]],
+    order: [
+      ["organisationId", "ASC"],
+      ["nextDueOn", "ASC"],
+      ["itemCode", "ASC"],
+    ],
   });
 }
 
@@ -405,7 +493,10 @@ export async function listGearDueBy(until: string) {
 export async function listOrganisationGearDueBy(organisationId: number, until: string, limit = 15) {
   return GearItem.findAll({
     where: { organisationId, status: { [Op.ne]: "withdrawn" }, nextDueOn: { [Op.lte]: until } },
-    order: [["nextDueOn", "ASC"], ["itemCode", "ASC"]],
+    order: [
+      ["nextDueOn", "ASC"],
+      ["itemCode", "ASC"],
+    ],
     limit,
   });
 }
@@ -434,7 +525,12 @@ export async function planGearImport(organisationId: number, inputs: GearItemInp
 }
 
 /** Applies an import in one transaction: every row or none. Status and examinations are never changed by an import. */
-export async function applyGearImport(organisationId: number, inputs: GearItemInput[], actorId: number, source: { fileId: number; fileName: string }) {
+export async function applyGearImport(
+  organisationId: number,
+  inputs: GearItemInput[],
+  actorId: number,
+  source: { fileId: number; fileName: string },
+) {
   return sequelize.transaction(async (transaction) => {
     const { plan, counts } = await planGearImport(organisationId, inputs, transaction);
     const toCreate = plan.filter((p) => p.action === "create");
@@ -464,7 +560,14 @@ export async function applyGearImport(organisationId: number, inputs: GearItemIn
     }
     await AuditEvent.bulkCreate(audits, { transaction });
     await recordAudit(
-      { organisationId, userId: actorId, entity: "gear_import", entityId: source.fileId, action: "imported", details: { ...counts, fileName: source.fileName } },
+      {
+        organisationId,
+        userId: actorId,
+        entity: "gear_import",
+        entityId: source.fileId,
+        action: "imported",
+        details: { ...counts, fileName: source.fileName },
+      },
       transaction,
     );
     return counts;

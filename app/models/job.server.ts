@@ -59,7 +59,11 @@ export async function listJobs(organisationId: number, options: { siteId?: numbe
   return Job.findAll({
     where: { organisationId, ...(options.siteId ? { siteId: options.siteId } : {}) },
     include: [{ model: Site, as: "site" }],
-    order: [["status", "DESC"], ["startsOn", "ASC"], ["workOrder", "ASC"]],
+    order: [
+      ["status", "DESC"],
+      ["startsOn", "ASC"],
+      ["workOrder", "ASC"],
+    ],
   });
 }
 
@@ -75,7 +79,10 @@ export async function isWorkOrderTaken(organisationId: number, workOrder: string
 export async function createJob(organisationId: number, input: JobInput, actorId: number) {
   return sequelize.transaction(async (transaction) => {
     const job = await Job.create({ organisationId, ...input }, { transaction });
-    await recordAudit({ organisationId, userId: actorId, entity: "job", entityId: job.id, action: "created" }, transaction);
+    await recordAudit(
+      { organisationId, userId: actorId, entity: "job", entityId: job.id, action: "created" },
+      transaction,
+    );
     return job;
   });
 }
@@ -83,7 +90,11 @@ export async function createJob(organisationId: number, input: JobInput, actorId
 export async function updateJob(organisationId: number, jobId: number, input: JobInput, actorId: number) {
   return sequelize.transaction(async (transaction) => {
     const [count] = await Job.update(input, { where: { organisationId, id: jobId }, transaction });
-    if (count) await recordAudit({ organisationId, userId: actorId, entity: "job", entityId: jobId, action: "updated" }, transaction);
+    if (count)
+      await recordAudit(
+        { organisationId, userId: actorId, entity: "job", entityId: jobId, action: "updated" },
+        transaction,
+      );
     return count === 1;
   });
 }

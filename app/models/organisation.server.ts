@@ -24,6 +24,9 @@ export async function getOrganisation(organisationId: number) {
   return Organisation.findByPk(organisationId);
 }
 
-export async function updateOrganisationSettings(organisationId: number, settings: { name: string; allowSelfApproval: boolean }) {
+export async function updateOrganisationSettings(
+  organisationId: number,
+  settings: { name: string; allowSelfApproval: boolean },
+) {
   await Organisation.update(settings, { where: { id: organisationId } });
 }

@@ -1,5 +1,12 @@
 import crypto from "node:crypto";
-import { DataTypes, Model, Op, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
+import {
+  DataTypes,
+  Model,
+  Op,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+} from "sequelize";
 import { sequelize } from "~/utils/db.server";
 import { hashPassword, User } from "~/models/user.server";
 
@@ -61,22 +68,21 @@ export async function findUsableToken(token: string, now = new Date()) {
 /** Sets the password and spends the token in one transaction; false when the token no longer works. */
 export async function redeemPasswordToken(token: string, password: string, now = new Date()): Promise<number | null> {
   const passwordHash = await hashPassword(password);
-  return sequelize.transaction(async (transaction) => {
-    const row = await PasswordToken.findOne({
-      where: { tokenHash: hashToken(token), usedAt: null, expiresAt: { [Op.gt]: now } },
-      transaction,
+  return sequelize
+    .transaction(async (transaction) => {
+      const row = await PasswordToken.findOne({
+        where: { tokenHash: hashToken(token), usedAt: null, expiresAt: { [Op.gt]: now } },
+        transaction,
+      });
+      if (!row) return null;
+      const [spent] = await PasswordToken.update({ usedAt: now }, { where: { id: row.id, usedAt: null }, transaction });
+      if (spent !== 1) return null;
+      const [updated] = await User.update({ passwordHash }, { where: { id: row.userId, active: true }, transaction });
+      if (updated !== 1) throw new Error("token user is not active");
+      return row.userId;
+    })
+    .catch((error: unknown) => {
+      if (error instanceof Error && error.message === "token user is not active") return null;
+      throw error;
     });
-    if (!row) return null;
-    const [spent] = await PasswordToken.update(
-      { usedAt: now },
-      { where: { id: row.id, usedAt: null }, transaction },
-    );
-    if (spent !== 1) return null;
-    const [updated] = await User.update({ passwordHash }, { where: { id: row.userId, active: true }, transaction });
-    if (updated !== 1) throw new Error("token user is not active");
-    return row.userId;
-  }).catch((error: unknown) => {
-    if (error instanceof Error && error.message === "token user is not active") return null;
-    throw error;
-  });
 }

@@ -226,10 +226,17 @@ export async function planExists(organisationId: number, planId: number): Promis
   return (await Plan.count({ where: { organisationId, id: planId } })) > 0;
 }
 
-export type CreatePlanResult = { ok: true; plan: Plan } | { ok: false; field: "jobId" | "componentId"; message: string };
+export type CreatePlanResult =
+  { ok: true; plan: Plan } | { ok: false; field: "jobId" | "componentId"; message: string };
 
 /** A new plan with revision 1 (draft): the component's definition copied in, a default arrangement and sequence, results computed. */
-export async function createPlanFromComponent(organisationId: number, jobId: number, componentId: number, title: string, actorId: number): Promise<CreatePlanResult> {
+export async function createPlanFromComponent(
+  organisationId: number,
+  jobId: number,
+  componentId: number,
+  title: string,
+  actorId: number,
+): Promise<CreatePlanResult> {
   const tables = await getReferenceTables();
   return sequelize.transaction(async (transaction) => {
     const job = await Job.findOne({ where: { organisationId, id: jobId }, transaction });
@@ -239,16 +246,28 @@ export async function createPlanFromComponent(organisationId: number, jobId: num
       include: [{ association: "liftPoints" }, { association: "parts" }],
       transaction,
     });
-    if (!component) return { ok: false, field: "componentId", message: "There is no such component in your organisation." };
+    if (!component)
+      return { ok: false, field: "componentId", message: "There is no such component in your organisation." };
     const snapshot = toDefinition(component);
     if (snapshot.liftPoints.length === 0) {
-      return { ok: false, field: "componentId", message: `${snapshot.name} has no lift points yet: add them to the component first.` };
+      return {
+        ok: false,
+        field: "componentId",
+        message: `${snapshot.name} has no lift points yet: add them to the component first.`,
+      };
     }
     const arrangement = defaultArrangement(snapshot);
     const rigging: RiggingAllocation = { legs: {} };
     const details = defaultDetails();
-    const results = await computePlanResults(snapshot, arrangement, rigging, organisationId, todayIso(), { details, tables, transaction });
-    const plan = await Plan.create({ organisationId, jobId, title, createdBy: actorId, currentRevisionId: null }, { transaction });
+    const results = await computePlanResults(snapshot, arrangement, rigging, organisationId, todayIso(), {
+      details,
+      tables,
+      transaction,
+    });
+    const plan = await Plan.create(
+      { organisationId, jobId, title, createdBy: actorId, currentRevisionId: null },
+      { transaction },
+    );
     const revision = await PlanRevision.create(
       {
         planId: plan.id,
@@ -267,7 +286,14 @@ export async function createPlanFromComponent(organisationId: number, jobId: num
     );
     await plan.update({ currentRevisionId: revision.id }, { transaction });
     await recordAudit(
-      { organisationId, userId: actorId, entity: ENTITY, entityId: plan.id, action: "created", details: { revision: 1, componentId, componentVersion: component.version } },
+      {
+        organisationId,
+        userId: actorId,
+        entity: ENTITY,
+        entityId: plan.id,
+        action: "created",
+        details: { revision: 1, componentId, componentVersion: component.version },
+      },
       transaction,
     );
     return { ok: true, plan };
@@ -289,8 +315,10 @@ async function lockedWrite(
 ): Promise<{ ok: true; found: NonNullable<Awaited<ReturnType<typeof getPlan>>> } | { ok: false; result: SaveResult }> {
   const found = await getPlan(organisationId, planId, transaction);
   if (!found) return { ok: false, result: { status: "not-found" } };
-  if (!EDITABLE_STATUSES.includes(found.revision.status)) return { ok: false, result: { status: "frozen", planStatus: found.revision.status } };
-  if (found.revision.version !== expectedVersion) return { ok: false, result: { status: "stale", version: found.revision.version } };
+  if (!EDITABLE_STATUSES.includes(found.revision.status))
+    return { ok: false, result: { status: "frozen", planStatus: found.revision.status } };
+  if (found.revision.version !== expectedVersion)
+    return { ok: false, result: { status: "stale", version: found.revision.version } };
   return { ok: true, found };
 }
 
@@ -298,7 +326,12 @@ async function lockedWrite(
 export const EDITABLE_STATUSES: readonly PlanStatus[] = ["draft", "returned"];
 
 /** UPDATE ... WHERE version = expected AND status is editable; false when someone else got there first. */
-async function updateDraft(revisionId: number, expectedVersion: number, values: Partial<InferAttributes<PlanRevision>>, transaction: Transaction) {
+async function updateDraft(
+  revisionId: number,
+  expectedVersion: number,
+  values: Partial<InferAttributes<PlanRevision>>,
+  transaction: Transaction,
+) {
   const [count] = await PlanRevision.update(
     { ...values, status: "draft", version: expectedVersion + 1 },
     { where: { id: revisionId, version: expectedVersion, status: { [Op.in]: [...EDITABLE_STATUSES] } }, transaction },
@@ -326,13 +359,22 @@ export async function savePlanRevision(
     const edited = applyLoadEdit(revision.snapshot, loadEdit);
     const snapshot = edited.snapshot;
     const issues = [...edited.issues, ...snapshotIssues(document, snapshot)];
-    if (issues.length > 0) return { status: "invalid", issues, error: `The plan does not fit its load: ${issues[0]!.message}` };
-    const results = await computePlanResults(snapshot, document.arrangement, document.rigging, organisationId, todayIso(), {
-      details: document.details,
-      tables,
-      transaction,
-    });
-    if (results.status === 400) return { status: "invalid", issues: results.body.issues as PlanIssue[], error: results.body.error };
+    if (issues.length > 0)
+      return { status: "invalid", issues, error: `The plan does not fit its load: ${issues[0]!.message}` };
+    const results = await computePlanResults(
+      snapshot,
+      document.arrangement,
+      document.rigging,
+      organisationId,
+      todayIso(),
+      {
+        details: document.details,
+        tables,
+        transaction,
+      },
+    );
+    if (results.status === 400)
+      return { status: "invalid", issues: results.body.issues as PlanIssue[], error: results.body.error };
     const written = await updateDraft(
       revision.id,
       expectedVersion,
@@ -374,7 +416,12 @@ export type PullResult =
  * Replaces the draft's load snapshot with the component's current definition, drops lift points the
  * component no longer has from the arrangement and rigging, recomputes, and says what changed.
  */
-export async function pullComponentVersion(organisationId: number, planId: number, expectedVersion: number, actorId: number): Promise<PullResult> {
+export async function pullComponentVersion(
+  organisationId: number,
+  planId: number,
+  expectedVersion: number,
+  actorId: number,
+): Promise<PullResult> {
   const tables = await getReferenceTables();
   return sequelize.transaction(async (transaction) => {
     const locked = await lockedWrite(organisationId, planId, expectedVersion, transaction);
@@ -417,7 +464,12 @@ export async function pullComponentVersion(organisationId: number, planId: numbe
         entity: ENTITY,
         entityId: plan.id,
         action: "component version pulled",
-        details: { revision: revision.revision, from: revision.componentVersion, to: component.version, changes: changes.map((c) => c.message) },
+        details: {
+          revision: revision.revision,
+          from: revision.componentVersion,
+          to: component.version,
+          changes: changes.map((c) => c.message),
+        },
       },
       transaction,
     );
@@ -429,7 +481,11 @@ export async function pullComponentVersion(organisationId: number, planId: numbe
 export async function compareWithComponent(organisationId: number, revision: RevisionView) {
   if (revision.componentId === null) return null;
   // The version alone settles the usual case (nothing newer); the definition is read only to list changes.
-  const latest = await Component.findOne({ where: { organisationId, id: revision.componentId }, attributes: ["id", "version"], raw: true });
+  const latest = await Component.findOne({
+    where: { organisationId, id: revision.componentId },
+    attributes: ["id", "version"],
+    raw: true,
+  });
   if (!latest) return null;
   const newer = latest.version !== revision.componentVersion;
   const component = newer ? await getComponent(organisationId, revision.componentId) : null;
@@ -440,4 +496,3 @@ export async function compareWithComponent(organisationId: number, revision: Rev
     changes: component ? diffComponentDefinitions(revision.snapshot, toDefinition(component)) : [],
   };
 }
-

@@ -36,7 +36,12 @@ const TABLE_NAMES: Array<keyof ReferenceTables> = [
 ];
 
 async function readReferenceTables(): Promise<ReferenceTables> {
-  const rows = await ReferenceRow.findAll({ order: [["tableName", "ASC"], ["position", "ASC"]] });
+  const rows = await ReferenceRow.findAll({
+    order: [
+      ["tableName", "ASC"],
+      ["position", "ASC"],
+    ],
+  });
   const tables = Object.fromEntries(TABLE_NAMES.map((name) => [name, [] as unknown[]])) as Record<string, unknown[]>;
   for (const row of rows) tables[row.tableName]?.push(JSON.parse(row.data));
   const empty = TABLE_NAMES.filter((name) => tables[name]!.length === 0);

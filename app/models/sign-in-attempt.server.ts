@@ -1,4 +1,12 @@
-import { DataTypes, Model, Op, type CreationOptional, type InferAttributes, type InferCreationAttributes, type WhereOptions } from "sequelize";
+import {
+  DataTypes,
+  Model,
+  Op,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type WhereOptions,
+} from "sequelize";
 import { sequelize } from "~/utils/db.server";
 import { normaliseEmail } from "~/models/user.server";
 
@@ -53,18 +61,30 @@ function addressLimit(addressKey: string) {
 function refusal(what: string, retryAt: Date, now: Date): AttemptRefusal {
   const retryAfterSeconds = Math.max(1, Math.ceil((retryAt.getTime() - now.getTime()) / 1000));
   const minutes = Math.ceil(retryAfterSeconds / 60);
-  return { ok: false, message: `${what}; try again in ${minutes} ${minutes === 1 ? "minute" : "minutes"}.`, retryAfterSeconds };
+  return {
+    ok: false,
+    message: `${what}; try again in ${minutes} ${minutes === 1 ? "minute" : "minutes"}.`,
+    retryAfterSeconds,
+  };
 }
 
 /**
  * When the attempt `beforeId` may go ahead: null if fewer than `limit` earlier attempts matching `where` fall in
  * the window, else the moment the oldest of the last `limit` of them leaves it.
  */
-async function blockedUntil(where: WhereOptions<SignInAttempt>, beforeId: number, limit: number, now: Date): Promise<Date | null> {
+async function blockedUntil(
+  where: WhereOptions<SignInAttempt>,
+  beforeId: number,
+  limit: number,
+  now: Date,
+): Promise<Date | null> {
   const since = new Date(now.getTime() - ATTEMPT_WINDOW_MS);
   const limiting = await SignInAttempt.findOne({
     where: { ...where, id: { [Op.lt]: beforeId }, attemptedAt: { [Op.gt]: since } } as WhereOptions<SignInAttempt>,
-    order: [["attemptedAt", "DESC"], ["id", "DESC"]],
+    order: [
+      ["attemptedAt", "DESC"],
+      ["id", "DESC"],
+    ],
     offset: limit - 1,
     attributes: ["attemptedAt"],
   });
@@ -81,12 +101,29 @@ export async function pruneSignInAttempts(now = new Date()) {
  * each other. Refused (and not recorded) when the account or the address has used up its failures; otherwise the
  * row stands as a failure until `clearSignInFailures` runs after a success.
  */
-export async function startSignInAttempt(input: { email: string | null | undefined; addressKey: string }, now = new Date()): Promise<{ ok: true } | AttemptRefusal> {
+export async function startSignInAttempt(
+  input: { email: string | null | undefined; addressKey: string },
+  now = new Date(),
+): Promise<{ ok: true } | AttemptRefusal> {
   await pruneSignInAttempts(now);
   const accountKey = accountKeyOf(input.email);
-  const row = await SignInAttempt.create({ scope: "sign-in", accountKey, addressKey: input.addressKey, attemptedAt: now });
-  const account = accountKey ? await blockedUntil({ scope: "sign-in", accountKey }, row.id, ACCOUNT_FAILURE_LIMIT, now) : null;
-  const address = account ? null : await blockedUntil({ scope: "sign-in", addressKey: input.addressKey }, row.id, addressLimit(input.addressKey), now);
+  const row = await SignInAttempt.create({
+    scope: "sign-in",
+    accountKey,
+    addressKey: input.addressKey,
+    attemptedAt: now,
+  });
+  const account = accountKey
+    ? await blockedUntil({ scope: "sign-in", accountKey }, row.id, ACCOUNT_FAILURE_LIMIT, now)
+    : null;
+  const address = account
+    ? null
+    : await blockedUntil(
+        { scope: "sign-in", addressKey: input.addressKey },
+        row.id,
+        addressLimit(input.addressKey),
+        now,
+      );
   if (!account && !address) return { ok: true };
   await row.destroy();
   return account
@@ -110,12 +147,24 @@ export async function startPasswordResetRequest(
 ): Promise<{ ok: true; sendMail: boolean } | AttemptRefusal> {
   await pruneSignInAttempts(now);
   const accountKey = accountKeyOf(input.email);
-  const row = await SignInAttempt.create({ scope: "password-reset", accountKey, addressKey: input.addressKey, attemptedAt: now });
-  const address = await blockedUntil({ scope: "password-reset", addressKey: input.addressKey }, row.id, addressLimit(input.addressKey), now);
+  const row = await SignInAttempt.create({
+    scope: "password-reset",
+    accountKey,
+    addressKey: input.addressKey,
+    attemptedAt: now,
+  });
+  const address = await blockedUntil(
+    { scope: "password-reset", addressKey: input.addressKey },
+    row.id,
+    addressLimit(input.addressKey),
+    now,
+  );
   if (address) {
     await row.destroy();
     return refusal("Too many password reset requests from this address", address, now);
   }
-  const account = accountKey ? await blockedUntil({ scope: "password-reset", accountKey }, row.id, ACCOUNT_RESET_MAIL_LIMIT, now) : null;
+  const account = accountKey
+    ? await blockedUntil({ scope: "password-reset", accountKey }, row.id, ACCOUNT_RESET_MAIL_LIMIT, now)
+    : null;
   return { ok: true, sendMail: !account };
 }

@@ -42,7 +42,10 @@ export async function getSite(organisationId: number, siteId: number) {
 export async function createSite(organisationId: number, input: SiteInput, actorId: number) {
   return sequelize.transaction(async (transaction) => {
     const site = await Site.create({ organisationId, ...input }, { transaction });
-    await recordAudit({ organisationId, userId: actorId, entity: "site", entityId: site.id, action: "created" }, transaction);
+    await recordAudit(
+      { organisationId, userId: actorId, entity: "site", entityId: site.id, action: "created" },
+      transaction,
+    );
     return site;
   });
 }
@@ -50,7 +53,11 @@ export async function createSite(organisationId: number, input: SiteInput, actor
 export async function updateSite(organisationId: number, siteId: number, input: SiteInput, actorId: number) {
   return sequelize.transaction(async (transaction) => {
     const [count] = await Site.update(input, { where: { organisationId, id: siteId }, transaction });
-    if (count) await recordAudit({ organisationId, userId: actorId, entity: "site", entityId: siteId, action: "updated" }, transaction);
+    if (count)
+      await recordAudit(
+        { organisationId, userId: actorId, entity: "site", entityId: siteId, action: "updated" },
+        transaction,
+      );
     return count === 1;
   });
 }

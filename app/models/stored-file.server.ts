@@ -1,4 +1,11 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Transaction } from "sequelize";
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type Transaction,
+} from "sequelize";
 import { sequelize } from "~/utils/db.server";
 
 /** What a stored file is for; a staged import is a CSV kept between its preview and its confirmation. */
@@ -32,7 +39,10 @@ StoredFile.init(
   { sequelize, tableName: "stored_files", underscored: true, updatedAt: false },
 );
 
-export async function createStoredFileRecord(input: Omit<InferCreationAttributes<StoredFile>, "id" | "createdAt">, transaction?: Transaction) {
+export async function createStoredFileRecord(
+  input: Omit<InferCreationAttributes<StoredFile>, "id" | "createdAt">,
+  transaction?: Transaction,
+) {
   return StoredFile.create(input, { transaction });
 }
 

@@ -117,10 +117,15 @@ type SessionUserRow = Omit<SessionUser, "roles"> & { roles: string | null };
 /** The active user with this id, or null (a deactivated user has no session). */
 export async function getActiveSessionUser(userId: number): Promise<SessionUser | null> {
   if (!Number.isSafeInteger(userId)) return null;
-  const [row] = await sequelize.query<SessionUserRow>(SESSION_USER_SQL, { replacements: { userId }, type: QueryTypes.SELECT });
+  const [row] = await sequelize.query<SessionUserRow>(SESSION_USER_SQL, {
+    replacements: { userId },
+    type: QueryTypes.SELECT,
+  });
   if (!row) return null;
   const order = (r: Role) => ROLES.indexOf(r);
-  const roles = (row.roles ? row.roles.split(",") : []).filter((r): r is Role => ROLES.includes(r as Role)).sort((a, b) => order(a) - order(b));
+  const roles = (row.roles ? row.roles.split(",") : [])
+    .filter((r): r is Role => ROLES.includes(r as Role))
+    .sort((a, b) => order(a) - order(b));
   return { ...row, roles };
 }
 
@@ -162,7 +167,10 @@ export async function listOrganisationUsers(organisationId: number): Promise<Use
   const users = await User.findAll({
     where: { organisationId },
     include: [{ model: UserRole, as: "userRoles" }],
-    order: [["active", "DESC"], ["name", "ASC"]],
+    order: [
+      ["active", "DESC"],
+      ["name", "ASC"],
+    ],
   });
   return users.map((u) => ({
     id: u.id,
@@ -211,7 +219,14 @@ export async function createUser(
       { transaction },
     );
     await recordAudit(
-      { organisationId: input.organisationId, userId: actorId, entity: "user", entityId: user.id, action: "created", details: { roles: input.roles } },
+      {
+        organisationId: input.organisationId,
+        userId: actorId,
+        entity: "user",
+        entityId: user.id,
+        action: "created",
+        details: { roles: input.roles },
+      },
       transaction,
     );
     return user;
@@ -221,8 +236,21 @@ export async function createUser(
 export async function updateUserRoles(organisationId: number, userId: number, roles: Role[], actorId: number) {
   await sequelize.transaction(async (transaction) => {
     await UserRole.destroy({ where: { userId }, transaction });
-    await UserRole.bulkCreate([...new Set(roles)].map((role) => ({ userId, role })), { transaction });
-    await recordAudit({ organisationId, userId: actorId, entity: "user", entityId: userId, action: "roles changed", details: { roles } }, transaction);
+    await UserRole.bulkCreate(
+      [...new Set(roles)].map((role) => ({ userId, role })),
+      { transaction },
+    );
+    await recordAudit(
+      {
+        organisationId,
+        userId: actorId,
+        entity: "user",
+        entityId: userId,
+        action: "roles changed",
+        details: { roles },
+      },
+      transaction,
+    );
   });
 }
 
@@ -230,7 +258,13 @@ export async function setUserActive(organisationId: number, userId: number, acti
   await sequelize.transaction(async (transaction) => {
     await User.update({ active }, { where: { id: userId, organisationId }, transaction });
     await recordAudit(
-      { organisationId, userId: actorId, entity: "user", entityId: userId, action: active ? "reactivated" : "deactivated" },
+      {
+        organisationId,
+        userId: actorId,
+        entity: "user",
+        entityId: userId,
+        action: active ? "reactivated" : "deactivated",
+      },
       transaction,
     );
   });

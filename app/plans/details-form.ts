@@ -23,7 +23,11 @@ const str = (formData: FormData, key: string) => {
 /** Parses the details form; lengths are typed in the user's units. Rows left wholly blank are dropped. Errors are keyed like "sequence.1.title". */
 export function parseDetailsForm(formData: FormData, units: Units): DetailsFormResult {
   const sequence = rowIndices(formData, "step")
-    .map((i) => ({ title: str(formData, `step-${i}-title`), holdPoint: formData.get(`step-${i}-hold`) === "on", notes: str(formData, `step-${i}-notes`) }))
+    .map((i) => ({
+      title: str(formData, `step-${i}-title`),
+      holdPoint: formData.get(`step-${i}-hold`) === "on",
+      notes: str(formData, `step-${i}-notes`),
+    }))
     .filter((s) => s.title || s.notes);
   const hazards = rowIndices(formData, "hazard")
     .map((i) => ({ hazard: str(formData, `hazard-${i}-hazard`), control: str(formData, `hazard-${i}-control`) }))
@@ -34,7 +38,8 @@ export function parseDetailsForm(formData: FormData, units: Units): DetailsFormR
   const clearanceText = str(formData, "floorClearance");
   const clearance = clearanceText === "" ? Number.NaN : Number(clearanceText);
   const errors: Record<string, string[]> = {};
-  if (!Number.isFinite(clearance)) errors.floorClearanceM = ["Enter how far the load's underside must rise above the floor, as a number."];
+  if (!Number.isFinite(clearance))
+    errors.floorClearanceM = ["Enter how far the load's underside must rise above the floor, as a number."];
   const parsed = detailsSchema.safeParse({
     sequence,
     hazards,

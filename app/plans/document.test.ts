@@ -28,7 +28,13 @@ function element(overrides: Partial<ComponentDefinition> = {}): ComponentDefinit
     cogNote: "",
     ...rectangleOutlines(1.3, 0.72, 0.86),
     liftPoints: [
-      { label: "A", position: { x: -0.45, y: 0, z: 0.86 }, axis: { x: 0, y: 0, z: 1 }, thread: "M20", engagementMm: 32 },
+      {
+        label: "A",
+        position: { x: -0.45, y: 0, z: 0.86 },
+        axis: { x: 0, y: 0, z: 1 },
+        thread: "M20",
+        engagementMm: 32,
+      },
       { label: "B", position: { x: 0.55, y: 0, z: 0.86 }, axis: { x: 0, y: 0, z: 1 }, thread: "M20", engagementMm: 32 },
     ],
     parts: [],
@@ -55,7 +61,10 @@ describe("plan document schemas", () => {
       [{ ...level, hookHeightM: Number.POSITIVE_INFINITY }, /hook height/],
       [{ ...level, hookHeightM: 5000 }, /out of range/],
       [{ ...level, kind: "beam" }, /needs the beam's mass/],
-      [{ ...level, kind: "beam", mode: "lengths", beam: { massKg: 50, wllKg: 1000, lengthM: 1, dropLengthM: 0.5 } }, /use the level mode/],
+      [
+        { ...level, kind: "beam", mode: "lengths", beam: { massKg: 50, wllKg: 1000, lengthM: 1, dropLengthM: 0.5 } },
+        /use the level mode/,
+      ],
       [{ ...level, kind: "crane" }, /"bridle".*"beam"/],
     ];
     for (const [value, message] of cases) {
@@ -71,12 +80,21 @@ describe("plan document schemas", () => {
     expect(detailsSchema.safeParse({ ...ok, floorClearanceM: -0.1 }).success).toBe(false);
     expect(detailsSchema.safeParse({ ...ok, floorClearanceM: 51 }).success).toBe(false);
     expect(detailsSchema.safeParse({ ...ok, people: [{ name: "A", role: "captain" }] }).success).toBe(false);
-    expect(detailsSchema.safeParse({ ...ok, sequence: [{ title: "  ", holdPoint: false, notes: "" }] }).success).toBe(false);
+    expect(detailsSchema.safeParse({ ...ok, sequence: [{ title: "  ", holdPoint: false, notes: "" }] }).success).toBe(
+      false,
+    );
     expect(detailsSchema.safeParse({ ...ok, hazards: [{ hazard: "Swing", control: "" }] }).success).toBe(false);
   });
 
   it("a PUT drops figures the browser sends, keeping only the editable document", () => {
-    const parsed = planPutSchema.parse({ version: 3, title: "Lift", arrangement: level, rigging: {}, details: defaultDetails(), results: { legs: [] } });
+    const parsed = planPutSchema.parse({
+      version: 3,
+      title: "Lift",
+      arrangement: level,
+      rigging: {},
+      details: defaultDetails(),
+      results: { legs: [] },
+    });
     expect(parsed).not.toHaveProperty("results");
     expect(parsed.rigging).toEqual({ legs: {} });
   });
@@ -107,20 +125,48 @@ describe("default plan", () => {
 
   it("takes at most four lift points and rises at least 300 mm over one on the plumb line", () => {
     const five = element({
-      liftPoints: ["A", "B", "C", "D", "E"].map((label, i) => ({ label, position: { x: i * 0.1, y: 0, z: 0.8 }, axis: { x: 0, y: 0, z: 1 }, thread: "", engagementMm: null })),
+      liftPoints: ["A", "B", "C", "D", "E"].map((label, i) => ({
+        label,
+        position: { x: i * 0.1, y: 0, z: 0.8 },
+        axis: { x: 0, y: 0, z: 1 },
+        thread: "",
+        engagementMm: null,
+      })),
     });
     expect(defaultArrangement(five).liftPointLabels).toEqual(["A", "B", "C", "D"]);
-    const one = element({ liftPoints: [{ label: "A", position: { x: 0.08, y: 0, z: 0.86 }, axis: { x: 0, y: 0, z: 1 }, thread: "", engagementMm: null }] });
+    const one = element({
+      liftPoints: [
+        {
+          label: "A",
+          position: { x: 0.08, y: 0, z: 0.86 },
+          axis: { x: 0, y: 0, z: 1 },
+          thread: "",
+          engagementMm: null,
+        },
+      ],
+    });
     expect(defaultArrangement(one).hookHeightM).toBeCloseTo(1.16, 9);
   });
 
   it("snapshotIssues names lift points the load does not have and gear on legs not in use", () => {
-    const issues = snapshotIssues({ arrangement: arrangementSchema.parse({ ...level, liftPointLabels: ["A", "Q"] }), rigging: { legs: { B: { hitch: "straight" } } } }, element());
-    expect(issues.map((i) => i.message)).toEqual(["The load has no lift point Q.", "Gear is allocated to leg B, which is not in the arrangement."]);
+    const issues = snapshotIssues(
+      {
+        arrangement: arrangementSchema.parse({ ...level, liftPointLabels: ["A", "Q"] }),
+        rigging: { legs: { B: { hitch: "straight" } } },
+      },
+      element(),
+    );
+    expect(issues.map((i) => i.message)).toEqual([
+      "The load has no lift point Q.",
+      "Gear is allocated to leg B, which is not in the arrangement.",
+    ]);
   });
 
   it("fitToSnapshot drops removed lift points and falls back to the default when none are left", () => {
-    const doc = { arrangement: arrangementSchema.parse({ ...level, mode: "lengths", legLengthsM: { A: 1, B: 1 } }), rigging: { legs: { A: { hitch: "straight" as const }, B: { hitch: "straight" as const } } } };
+    const doc = {
+      arrangement: arrangementSchema.parse({ ...level, mode: "lengths", legLengthsM: { A: 1, B: 1 } }),
+      rigging: { legs: { A: { hitch: "straight" as const }, B: { hitch: "straight" as const } } },
+    };
     const onlyA = element({ liftPoints: element().liftPoints.slice(0, 1) });
     const fitted = fitToSnapshot(doc, onlyA);
     expect(fitted.arrangement.liftPointLabels).toEqual(["A"]);
@@ -144,11 +190,25 @@ describe("diffComponentDefinitions", () => {
       lengthM: 1.35,
       liftPoints: [
         { ...before.liftPoints[0]!, position: { x: -0.5, y: 0, z: 0.86 }, thread: "M24" },
-        { label: "C", position: { x: 0, y: 0.3, z: 0.86 }, axis: { x: 0, y: 0, z: 1 }, thread: "M20", engagementMm: null },
+        {
+          label: "C",
+          position: { x: 0, y: 0.3, z: 0.86 },
+          axis: { x: 0, y: 0, z: 1 },
+          thread: "M20",
+          engagementMm: null,
+        },
       ],
     });
     const changes = diffComponentDefinitions(before, after);
-    expect(changes.map((c) => c.kind)).toEqual(["mass", "cog", "dimensions", "lift-point-moved", "lift-point-thread", "lift-point-added", "lift-point-removed"]);
+    expect(changes.map((c) => c.kind)).toEqual([
+      "mass",
+      "cog",
+      "dimensions",
+      "lift-point-moved",
+      "lift-point-thread",
+      "lift-point-added",
+      "lift-point-removed",
+    ]);
     expect(changes.find((c) => c.kind === "mass")?.message).toBe("Mass 1,480 kg → 1,520 kg.");
     expect(changes.find((c) => c.kind === "cog")?.message).toMatch(/CoG moved 20 mm/);
     expect(changes.find((c) => c.kind === "lift-point-moved")?.message).toMatch(/Lift point A moved 50 mm/);

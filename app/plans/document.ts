@@ -4,7 +4,15 @@ import { z } from "zod";
 import type { ComponentDefinition } from "~/loads/component-definition";
 import type { SolveResponseBody } from "~/statics/api";
 
-export const PLAN_STATUSES = ["draft", "in_review", "returned", "approved", "superseded", "completed", "cancelled"] as const;
+export const PLAN_STATUSES = [
+  "draft",
+  "in_review",
+  "returned",
+  "approved",
+  "superseded",
+  "completed",
+  "cancelled",
+] as const;
 export type PlanStatus = (typeof PLAN_STATUSES)[number];
 
 export const PLAN_STATUS_LABELS: Record<PlanStatus, string> = {
@@ -27,47 +35,92 @@ export const MAX_TITLE = 200;
 export const MAX_PLAN_LENGTH_M = 1000;
 
 const finite = (label: string) => z.number({ error: `Give the ${label} as a number.` }).finite();
-const liftPointLabel = z.string().min(1, "A lift point label cannot be empty.").max(10, "A lift point label is at most 10 characters.");
-const gearItemId = z.number({ error: "A gear item is given by its number." }).int("A gear item is given by its number.").positive("A gear item is given by its number.");
+const liftPointLabel = z
+  .string()
+  .min(1, "A lift point label cannot be empty.")
+  .max(10, "A lift point label is at most 10 characters.");
+const gearItemId = z
+  .number({ error: "A gear item is given by its number." })
+  .int("A gear item is given by its number.")
+  .positive("A gear item is given by its number.");
 
 // ----- arrangement -----
 
 export const beamSchema = z.object({
-  massKg: finite("beam's mass").min(0, "The beam's mass cannot be negative.").max(100_000, "The beam's mass is at most 100,000 kg."),
+  massKg: finite("beam's mass")
+    .min(0, "The beam's mass cannot be negative.")
+    .max(100_000, "The beam's mass is at most 100,000 kg."),
   wllKg: finite("beam's WLL").gt(0, "Give the beam's marked WLL.").max(1e8, "The beam's WLL is at most 100,000 t."),
   lengthM: finite("beam's length").gt(0, "Give the beam's length.").max(100, "The beam is at most 100 m long."),
-  dropLengthM: finite("drop length").gt(0, "Give the length of the vertical drops.").max(100, "A drop is at most 100 m long."),
+  dropLengthM: finite("drop length")
+    .gt(0, "Give the length of the vertical drops.")
+    .max(100, "A drop is at most 100 m long."),
 });
 export type BeamArrangement = z.infer<typeof beamSchema>;
 
 export const arrangementSchema = z
   .object({
-    kind: z.enum(["bridle", "beam"], { error: 'The arrangement is "bridle" (legs to one hook) or "beam" (vertical drops from a beam).' }),
-    mode: z.enum(["level", "lengths"], { error: 'The mode is "level" (hook height given) or "lengths" (sling lengths given).' }),
-    hookHeightM: finite("hook height").min(-MAX_PLAN_LENGTH_M, "The hook height is out of range.").max(MAX_PLAN_LENGTH_M, "The hook height is out of range."),
+    kind: z.enum(["bridle", "beam"], {
+      error: 'The arrangement is "bridle" (legs to one hook) or "beam" (vertical drops from a beam).',
+    }),
+    mode: z.enum(["level", "lengths"], {
+      error: 'The mode is "level" (hook height given) or "lengths" (sling lengths given).',
+    }),
+    hookHeightM: finite("hook height")
+      .min(-MAX_PLAN_LENGTH_M, "The hook height is out of range.")
+      .max(MAX_PLAN_LENGTH_M, "The hook height is out of range."),
     legLengthsM: z
-      .record(liftPointLabel, finite("leg length").gt(0, "A leg must be longer than zero.").max(MAX_PLAN_LENGTH_M, "A leg is at most 1,000 m long."))
+      .record(
+        liftPointLabel,
+        finite("leg length")
+          .gt(0, "A leg must be longer than zero.")
+          .max(MAX_PLAN_LENGTH_M, "A leg is at most 1,000 m long."),
+      )
       .default({}),
-    liftPointLabels: z.array(liftPointLabel).min(1, "Use at least one lift point.").max(4, "Use at most four lift points."),
+    liftPointLabels: z
+      .array(liftPointLabel)
+      .min(1, "Use at least one lift point.")
+      .max(4, "Use at most four lift points."),
     beam: beamSchema.optional(),
   })
   .superRefine((a, ctx) => {
     const seen = new Set<string>();
     a.liftPointLabels.forEach((label, i) => {
-      if (seen.has(label)) ctx.addIssue({ code: "custom", path: ["liftPointLabels", i], message: `Lift point ${label} is listed twice.` });
+      if (seen.has(label))
+        ctx.addIssue({ code: "custom", path: ["liftPointLabels", i], message: `Lift point ${label} is listed twice.` });
       seen.add(label);
     });
     if (a.kind === "beam") {
-      if (!a.beam) ctx.addIssue({ code: "custom", path: ["beam"], message: "A beam arrangement needs the beam's mass, WLL, length and drop length." });
-      if (a.mode !== "level") ctx.addIssue({ code: "custom", path: ["mode"], message: "A beam hangs its drops vertically: use the level mode." });
+      if (!a.beam)
+        ctx.addIssue({
+          code: "custom",
+          path: ["beam"],
+          message: "A beam arrangement needs the beam's mass, WLL, length and drop length.",
+        });
+      if (a.mode !== "level")
+        ctx.addIssue({
+          code: "custom",
+          path: ["mode"],
+          message: "A beam hangs its drops vertically: use the level mode.",
+        });
     }
     if (a.kind === "bridle" && a.mode === "lengths") {
       for (const label of a.liftPointLabels) {
-        if (!Object.hasOwn(a.legLengthsM, label)) ctx.addIssue({ code: "custom", path: ["legLengthsM", label], message: `Give the length of the leg to lift point ${label}.` });
+        if (!Object.hasOwn(a.legLengthsM, label))
+          ctx.addIssue({
+            code: "custom",
+            path: ["legLengthsM", label],
+            message: `Give the length of the leg to lift point ${label}.`,
+          });
       }
     }
     for (const key of Object.keys(a.legLengthsM)) {
-      if (!seen.has(key)) ctx.addIssue({ code: "custom", path: ["legLengthsM", key], message: `Leg length ${key} names no lift point in use.` });
+      if (!seen.has(key))
+        ctx.addIssue({
+          code: "custom",
+          path: ["legLengthsM", key],
+          message: `Leg length ${key} names no lift point in use.`,
+        });
     }
   });
 export type Arrangement = z.infer<typeof arrangementSchema>;
@@ -75,7 +128,11 @@ export type Arrangement = z.infer<typeof arrangementSchema>;
 // ----- gear allocation -----
 
 export const HITCHES = ["straight", "choke", "basket"] as const;
-export const HITCH_LABELS: Record<(typeof HITCHES)[number], string> = { straight: "Straight", choke: "Choke", basket: "Basket" };
+export const HITCH_LABELS: Record<(typeof HITCHES)[number], string> = {
+  straight: "Straight",
+  choke: "Choke",
+  basket: "Basket",
+};
 
 export const legRiggingSchema = z.object({
   eyeboltItemId: gearItemId.optional(),
@@ -94,7 +151,13 @@ export type RiggingAllocation = z.infer<typeof riggingAllocationSchema>;
 
 // ----- details: sequence, hazards, people -----
 
-export const PERSON_ROLES = ["appointed_person", "lift_supervisor", "slinger_signaller", "crane_operator", "other"] as const;
+export const PERSON_ROLES = [
+  "appointed_person",
+  "lift_supervisor",
+  "slinger_signaller",
+  "crane_operator",
+  "other",
+] as const;
 export type PersonRole = (typeof PERSON_ROLES)[number];
 export const PERSON_ROLE_LABELS: Record<PersonRole, string> = {
   appointed_person: "Appointed person",
@@ -104,7 +167,11 @@ export const PERSON_ROLE_LABELS: Record<PersonRole, string> = {
   other: "Other",
 };
 
-const text = (label: string, max: number) => z.string({ error: `Give the ${label} as text.` }).trim().max(max, `The ${label} can be at most ${max} characters.`);
+const text = (label: string, max: number) =>
+  z
+    .string({ error: `Give the ${label} as text.` })
+    .trim()
+    .max(max, `The ${label} can be at most ${max} characters.`);
 const requiredText = (label: string, max: number) => text(label, max).min(1, `Enter the ${label}.`);
 
 export const sequenceStepSchema = z.object({
@@ -121,14 +188,22 @@ export const MAX_PEOPLE = 30;
 export const MAX_FLOOR_CLEARANCE_M = 50;
 
 export const detailsSchema = z.object({
-  sequence: z.array(sequenceStepSchema).min(1, "The lift needs at least one step.").max(MAX_STEPS, `At most ${MAX_STEPS} steps.`),
+  sequence: z
+    .array(sequenceStepSchema)
+    .min(1, "The lift needs at least one step.")
+    .max(MAX_STEPS, `At most ${MAX_STEPS} steps.`),
   hazards: z
     .array(z.object({ hazard: requiredText("hazard", 300), control: requiredText("control for the hazard", 1000) }))
     .max(MAX_HAZARDS, `At most ${MAX_HAZARDS} hazards.`),
   exclusionZone: text("exclusion zone", 2000),
   communication: text("communication method", 1000),
   people: z
-    .array(z.object({ name: requiredText("person's name", 120), role: z.enum(PERSON_ROLES, { error: "Choose the person's role." }) }))
+    .array(
+      z.object({
+        name: requiredText("person's name", 120),
+        role: z.enum(PERSON_ROLES, { error: "Choose the person's role." }),
+      }),
+    )
     .max(MAX_PEOPLE, `At most ${MAX_PEOPLE} people.`),
   floorClearanceM: finite("floor clearance")
     .min(0, "The floor clearance cannot be negative.")
@@ -139,9 +214,21 @@ export type PlanDetails = z.infer<typeof detailsSchema>;
 /** The lift as most component lifts go (common practice): the trial lift and the level check are hold points. */
 export function defaultSequence(): SequenceStep[] {
   return [
-    { title: "Rig", holdPoint: false, notes: "Fit the eyebolts and shackles, hang the legs from the master link, check every item against the plan." },
-    { title: "Trial lift a short way off the floor and hold", holdPoint: true, notes: "Take the weight and lift no more than a short way clear; stop and hold." },
-    { title: "Check level and balance", holdPoint: true, notes: "Check the load hangs level and steady and the rigging sits as planned; land and re-rig if not." },
+    {
+      title: "Rig",
+      holdPoint: false,
+      notes: "Fit the eyebolts and shackles, hang the legs from the master link, check every item against the plan.",
+    },
+    {
+      title: "Trial lift a short way off the floor and hold",
+      holdPoint: true,
+      notes: "Take the weight and lift no more than a short way clear; stop and hold.",
+    },
+    {
+      title: "Check level and balance",
+      holdPoint: true,
+      notes: "Check the load hangs level and steady and the rigging sits as planned; land and re-rig if not.",
+    },
     { title: "Travel", holdPoint: false, notes: "Move slowly along the planned path, load low, tag lines as needed." },
     { title: "Land", holdPoint: false, notes: "Lower onto the prepared landing or dowels under control." },
     { title: "De-rig", holdPoint: false, notes: "Slacken off, remove the rigging, return the gear for inspection." },
@@ -170,8 +257,14 @@ export const planDocumentSchema = z.object({
 export type PlanDocument = z.infer<typeof planDocumentSchema>;
 
 const coordinate = (label: string) =>
-  finite(label).min(-MAX_PLAN_LENGTH_M, `The ${label} is out of range.`).max(MAX_PLAN_LENGTH_M, `The ${label} is out of range.`);
-const position = z.object({ x: coordinate("x coordinate"), y: coordinate("y coordinate"), z: coordinate("z coordinate") });
+  finite(label)
+    .min(-MAX_PLAN_LENGTH_M, `The ${label} is out of range.`)
+    .max(MAX_PLAN_LENGTH_M, `The ${label} is out of range.`);
+const position = z.object({
+  x: coordinate("x coordinate"),
+  y: coordinate("y coordinate"),
+  z: coordinate("z coordinate"),
+});
 
 /**
  * Edits the editor makes to the plan's own copy of the load: where the CoG and the lift points are.
@@ -185,18 +278,25 @@ export type LoadEdit = z.infer<typeof loadEditSchema>;
 
 /** A PUT of the document: the version the editor loaded and the editable parts. Anything else (results, figures) is dropped. */
 export const planPutSchema = planDocumentSchema.extend({
-  version: z.number({ error: "Send the version of the plan you loaded." }).int().positive("Send the version of the plan you loaded."),
+  version: z
+    .number({ error: "Send the version of the plan you loaded." })
+    .int()
+    .positive("Send the version of the plan you loaded."),
   load: loadEditSchema.optional(),
 });
 
 /** The snapshot with the editor's load edits applied; issues for lift points the snapshot does not have. */
-export function applyLoadEdit(snapshot: ComponentDefinition, edit: LoadEdit | undefined): { snapshot: ComponentDefinition; issues: PlanIssue[] } {
+export function applyLoadEdit(
+  snapshot: ComponentDefinition,
+  edit: LoadEdit | undefined,
+): { snapshot: ComponentDefinition; issues: PlanIssue[] } {
   if (!edit) return { snapshot, issues: [] };
   const issues: PlanIssue[] = [];
   const moved = new Map(edit.liftPoints.map((p) => [p.label, p.position]));
   const known = new Set(snapshot.liftPoints.map((p) => p.label));
   edit.liftPoints.forEach((p, i) => {
-    if (!known.has(p.label)) issues.push({ path: ["load", "liftPoints", i, "label"], message: `The load has no lift point ${p.label}.` });
+    if (!known.has(p.label))
+      issues.push({ path: ["load", "liftPoints", i, "label"], message: `The load has no lift point ${p.label}.` });
   });
   return {
     snapshot: {
@@ -211,7 +311,10 @@ export function applyLoadEdit(snapshot: ComponentDefinition, edit: LoadEdit | un
 export type PlanIssue = { path: Array<string | number>; message: string };
 
 export function zodIssues(error: z.ZodError): PlanIssue[] {
-  return error.issues.map((i) => ({ path: i.path.map((p) => (typeof p === "number" ? p : String(p))), message: i.message }));
+  return error.issues.map((i) => ({
+    path: i.path.map((p) => (typeof p === "number" ? p : String(p))),
+    message: i.message,
+  }));
 }
 
 /** "arrangement.hookHeightM: The hook height is out of range." */
@@ -221,15 +324,23 @@ export function describeIssue(issue: PlanIssue): string {
 }
 
 /** Where the document does not fit its load snapshot: unknown lift points, rigging for legs not in use. */
-export function snapshotIssues(doc: Pick<PlanDocument, "arrangement" | "rigging">, snapshot: ComponentDefinition): PlanIssue[] {
+export function snapshotIssues(
+  doc: Pick<PlanDocument, "arrangement" | "rigging">,
+  snapshot: ComponentDefinition,
+): PlanIssue[] {
   const issues: PlanIssue[] = [];
   const known = new Set(snapshot.liftPoints.map((p) => p.label));
   doc.arrangement.liftPointLabels.forEach((label, i) => {
-    if (!known.has(label)) issues.push({ path: ["arrangement", "liftPointLabels", i], message: `The load has no lift point ${label}.` });
+    if (!known.has(label))
+      issues.push({ path: ["arrangement", "liftPointLabels", i], message: `The load has no lift point ${label}.` });
   });
   const used = new Set(doc.arrangement.liftPointLabels);
   for (const label of Object.keys(doc.rigging.legs)) {
-    if (!used.has(label)) issues.push({ path: ["rigging", "legs", label], message: `Gear is allocated to leg ${label}, which is not in the arrangement.` });
+    if (!used.has(label))
+      issues.push({
+        path: ["rigging", "legs", label],
+        message: `Gear is allocated to leg ${label}, which is not in the arrangement.`,
+      });
   }
   return issues;
 }
@@ -248,7 +359,9 @@ export const MIN_HOOK_RISE_M = 0.3;
 export function defaultArrangement(snapshot: ComponentDefinition): Arrangement {
   const points = snapshot.liftPoints.slice(0, 4);
   const zMax = points.length ? Math.max(...points.map((p) => p.position.z)) : snapshot.heightM;
-  const reach = points.length ? Math.max(...points.map((p) => Math.hypot(p.position.x - snapshot.cog.x, p.position.y - snapshot.cog.y))) : 0;
+  const reach = points.length
+    ? Math.max(...points.map((p) => Math.hypot(p.position.x - snapshot.cog.x, p.position.y - snapshot.cog.y)))
+    : 0;
   const rise = Math.max(reach / Math.tan((DEFAULT_LEG_ANGLE_DEG * Math.PI) / 180), MIN_HOOK_RISE_M);
   return {
     kind: "bridle",
@@ -269,7 +382,9 @@ export function fitToSnapshot(doc: Pick<PlanDocument, "arrangement" | "rigging">
       : {
           ...doc.arrangement,
           liftPointLabels: labels,
-          legLengthsM: Object.fromEntries(Object.entries(doc.arrangement.legLengthsM).filter(([k]) => labels.includes(k))),
+          legLengthsM: Object.fromEntries(
+            Object.entries(doc.arrangement.legLengthsM).filter(([k]) => labels.includes(k)),
+          ),
         };
   const rigging: RiggingAllocation = {
     ...doc.rigging,
@@ -322,34 +437,47 @@ const MASS_TOL_KG = 1e-6;
 const mm = (m: number) => `${Math.round(m * 1000).toLocaleString("en-GB")} mm`;
 const kgText = (kg: number) => `${Number(kg.toFixed(kg < 10 ? 2 : 1)).toLocaleString("en-GB")} kg`;
 const point = (p: { x: number; y: number; z: number }) => `(${mm(p.x)}, ${mm(p.y)}, ${mm(p.z)})`;
-const dist = (a: { x: number; y: number; z: number }, b: { x: number; y: number; z: number }) => Math.hypot(a.x - b.x, a.y - b.y, a.z - b.z);
+const dist = (a: { x: number; y: number; z: number }, b: { x: number; y: number; z: number }) =>
+  Math.hypot(a.x - b.x, a.y - b.y, a.z - b.z);
 
 function samePolygon(a: ReadonlyArray<readonly [number, number]>, b: ReadonlyArray<readonly [number, number]>) {
-  return a.length === b.length && a.every((p, i) => Math.abs(p[0] - b[i]![0]) <= LENGTH_TOL_M && Math.abs(p[1] - b[i]![1]) <= LENGTH_TOL_M);
+  return (
+    a.length === b.length &&
+    a.every((p, i) => Math.abs(p[0] - b[i]![0]) <= LENGTH_TOL_M && Math.abs(p[1] - b[i]![1]) <= LENGTH_TOL_M)
+  );
 }
 
 /** What changed from component definition `before` to `after`, in plain sentences (SI: mm, kg). Empty when nothing that matters changed. */
 export function diffComponentDefinitions(before: ComponentDefinition, after: ComponentDefinition): ComponentChange[] {
   const changes: ComponentChange[] = [];
-  if (before.name !== after.name) changes.push({ kind: "name", message: `Renamed from "${before.name}" to "${after.name}".` });
+  if (before.name !== after.name)
+    changes.push({ kind: "name", message: `Renamed from "${before.name}" to "${after.name}".` });
   if (Math.abs(before.massKg - after.massKg) > MASS_TOL_KG) {
     changes.push({ kind: "mass", message: `Mass ${kgText(before.massKg)} → ${kgText(after.massKg)}.` });
   }
-  if (before.massSource !== after.massSource) changes.push({ kind: "mass-source", message: `Mass source ${before.massSource} → ${after.massSource}.` });
+  if (before.massSource !== after.massSource)
+    changes.push({ kind: "mass-source", message: `Mass source ${before.massSource} → ${after.massSource}.` });
   if (before.contingencyPct !== after.contingencyPct) {
-    changes.push({ kind: "contingency", message: `Contingency ${before.contingencyPct} % → ${after.contingencyPct} %.` });
+    changes.push({
+      kind: "contingency",
+      message: `Contingency ${before.contingencyPct} % → ${after.contingencyPct} %.`,
+    });
   }
   const cogMove = dist(before.cog, after.cog);
   if (cogMove > LENGTH_TOL_M) {
     changes.push({ kind: "cog", message: `CoG moved ${mm(cogMove)}: ${point(before.cog)} → ${point(after.cog)}.` });
   }
-  if (before.cogSource !== after.cogSource) changes.push({ kind: "cog-source", message: `CoG source ${before.cogSource} → ${after.cogSource}.` });
+  if (before.cogSource !== after.cogSource)
+    changes.push({ kind: "cog-source", message: `CoG source ${before.cogSource} → ${after.cogSource}.` });
   const dims = (d: ComponentDefinition) => [d.lengthM, d.widthM, d.heightM] as const;
   if (dims(before).some((v, i) => Math.abs(v - dims(after)[i]!) > LENGTH_TOL_M)) {
     const f = (d: ComponentDefinition) => dims(d).map(mm).join(" × ");
     changes.push({ kind: "dimensions", message: `Overall size ${f(before)} → ${f(after)}.` });
   }
-  if (!samePolygon(before.outlineElevation, after.outlineElevation) || !samePolygon(before.outlinePlan, after.outlinePlan)) {
+  if (
+    !samePolygon(before.outlineElevation, after.outlineElevation) ||
+    !samePolygon(before.outlinePlan, after.outlinePlan)
+  ) {
     changes.push({ kind: "outline", message: "The outline drawing changed." });
   }
   const beforePoints = new Map(before.liftPoints.map((p) => [p.label, p]));
@@ -362,11 +490,18 @@ export function diffComponentDefinitions(before: ComponentDefinition, after: Com
     }
     const moved = dist(old.position, p.position);
     if (moved > LENGTH_TOL_M) {
-      changes.push({ kind: "lift-point-moved", message: `Lift point ${label} moved ${mm(moved)}: ${point(old.position)} → ${point(p.position)}.` });
+      changes.push({
+        kind: "lift-point-moved",
+        message: `Lift point ${label} moved ${mm(moved)}: ${point(old.position)} → ${point(p.position)}.`,
+      });
     }
-    if (dist(old.axis, p.axis) > 1e-6) changes.push({ kind: "lift-point-axis", message: `Lift point ${label}'s axis changed.` });
+    if (dist(old.axis, p.axis) > 1e-6)
+      changes.push({ kind: "lift-point-axis", message: `Lift point ${label}'s axis changed.` });
     if (old.thread !== p.thread) {
-      changes.push({ kind: "lift-point-thread", message: `Lift point ${label}'s thread ${old.thread || "none"} → ${p.thread || "none"}.` });
+      changes.push({
+        kind: "lift-point-thread",
+        message: `Lift point ${label}'s thread ${old.thread || "none"} → ${p.thread || "none"}.`,
+      });
     }
   }
   for (const label of beforePoints.keys()) {

@@ -63,7 +63,13 @@ describe("editor history", () => {
   it("a drag is one undo step however many moves it makes", () => {
     let s = initialEditorState(edit);
     s = editorReducer(s, { type: "checkpoint" });
-    for (let i = 1; i <= 30; i++) s = editorReducer(s, { type: "move-lift-point", label: "A", position: { x: -0.8 + i * 0.01, y: 0, z: 0.9 }, transient: true });
+    for (let i = 1; i <= 30; i++)
+      s = editorReducer(s, {
+        type: "move-lift-point",
+        label: "A",
+        position: { x: -0.8 + i * 0.01, y: 0, z: 0.9 },
+        transient: true,
+      });
     expect(s.present.liftPoints[0]!.position.x).toBeCloseTo(-0.5, 12);
     s = editorReducer(s, { type: "undo" });
     expect(s.present.liftPoints[0]!.position.x).toBe(-0.8);
@@ -85,8 +91,14 @@ describe("editor history", () => {
 
   it("law: any sequence of edits undone in full gives back the start", () => {
     const actionArb = fc.oneof(
-      fc.record({ type: fc.constant("set-hook-height" as const), hookHeightM: fc.double({ min: 1, max: 5, noNaN: true }) }),
-      fc.record({ type: fc.constant("move-cog" as const), cog: fc.record({ x: fc.double({ min: -1, max: 1, noNaN: true }), y: fc.constant(0), z: fc.constant(0.4) }) }),
+      fc.record({
+        type: fc.constant("set-hook-height" as const),
+        hookHeightM: fc.double({ min: 1, max: 5, noNaN: true }),
+      }),
+      fc.record({
+        type: fc.constant("move-cog" as const),
+        cog: fc.record({ x: fc.double({ min: -1, max: 1, noNaN: true }), y: fc.constant(0), z: fc.constant(0.4) }),
+      }),
       fc.record({ type: fc.constant("toggle-lift-point" as const), label: fc.constantFrom("A", "B", "C") }),
     );
     fc.assert(
@@ -105,11 +117,17 @@ describe("snapping", () => {
     expect(snapToGrid(0.437, 0.05)).toBeCloseTo(0.45, 12);
     expect(snapToGrid(-0.024, 0.05)).toBeCloseTo(0, 12);
     const candidates = [{ a: 0.2, b: 0.9 }];
-    expect(snapViewPoint({ a: 0.21, b: 0.88 }, { gridM: 0.05, radiusM: 0.03, candidates, enabled: true })).toEqual({ a: 0.2, b: 0.9 });
+    expect(snapViewPoint({ a: 0.21, b: 0.88 }, { gridM: 0.05, radiusM: 0.03, candidates, enabled: true })).toEqual({
+      a: 0.2,
+      b: 0.9,
+    });
     const far = snapViewPoint({ a: 0.33, b: 0.61 }, { gridM: 0.05, radiusM: 0.03, candidates, enabled: true });
     expect(far.a).toBeCloseTo(0.35, 12);
     expect(far.b).toBeCloseTo(0.6, 12);
-    expect(snapViewPoint({ a: 0.33, b: 0.61 }, { gridM: 0.05, radiusM: 0.03, candidates, enabled: false })).toEqual({ a: 0.33, b: 0.61 });
+    expect(snapViewPoint({ a: 0.33, b: 0.61 }, { gridM: 0.05, radiusM: 0.03, candidates, enabled: false })).toEqual({
+      a: 0.33,
+      b: 0.61,
+    });
   });
 });
 
@@ -150,7 +168,10 @@ describe("the view", () => {
 
 describe("tracing over a drawing", () => {
   it("two clicks 200 px apart typed as 1,000 mm give 5 mm per pixel", () => {
-    expect(calibrateImageScale({ x: 10, y: 10 }, { x: 130, y: 170 }, fromDisplayLength(1000, "metric"))).toBeCloseTo(0.005, 12);
+    expect(calibrateImageScale({ x: 10, y: 10 }, { x: 130, y: 170 }, fromDisplayLength(1000, "metric"))).toBeCloseTo(
+      0.005,
+      12,
+    );
     expect(calibrateImageScale({ x: 10, y: 10 }, { x: 10, y: 10 }, 1)).toBeNull();
     expect(calibrateImageScale({ x: 0, y: 0 }, { x: 100, y: 0 }, 0)).toBeNull();
   });
@@ -165,32 +186,73 @@ describe("the keyboard", () => {
   const fine = { gridM: 0.05, coarse: false, snap: true };
 
   it("the arrow keys can move every lift point, the CoG and, in a level lift, the hook", () => {
-    expect(movableHandles(edit).map(handleKey)).toEqual(["lift-point:A", "lift-point:B", "lift-point:C", "cog", "hook"]);
+    expect(movableHandles(edit).map(handleKey)).toEqual([
+      "lift-point:A",
+      "lift-point:B",
+      "lift-point:C",
+      "cog",
+      "hook",
+    ]);
     const lengths: PlanEdit = { ...edit, arrangement: { ...edit.arrangement, mode: "lengths" } };
     expect(movableHandles(lengths).map(handleKey)).not.toContain("hook");
   });
 
   it("→ moves a lift point one grid step along x in either view; ↑ is z in the elevation and y in the plan", () => {
     const b = { kind: "lift-point", label: "B" } as const;
-    expect(nudgeHandle(edit, b, "elevation", "ArrowRight", fine)).toEqual({ type: "move-lift-point", label: "B", position: { x: 0.25, y: 0, z: 0.9 } });
-    expect(nudgeHandle(edit, b, "elevation", "ArrowUp", fine)).toEqual({ type: "move-lift-point", label: "B", position: { x: 0.2, y: 0, z: 0.95 } });
-    expect(nudgeHandle(edit, b, "plan", "ArrowDown", fine)).toEqual({ type: "move-lift-point", label: "B", position: { x: 0.2, y: -0.05, z: 0.9 } });
-    expect(nudgeHandle(edit, { kind: "cog" }, "plan", "ArrowLeft", { ...fine, coarse: true })).toEqual({ type: "move-cog", cog: { x: -0.5, y: 0, z: 0.4 } });
+    expect(nudgeHandle(edit, b, "elevation", "ArrowRight", fine)).toEqual({
+      type: "move-lift-point",
+      label: "B",
+      position: { x: 0.25, y: 0, z: 0.9 },
+    });
+    expect(nudgeHandle(edit, b, "elevation", "ArrowUp", fine)).toEqual({
+      type: "move-lift-point",
+      label: "B",
+      position: { x: 0.2, y: 0, z: 0.95 },
+    });
+    expect(nudgeHandle(edit, b, "plan", "ArrowDown", fine)).toEqual({
+      type: "move-lift-point",
+      label: "B",
+      position: { x: 0.2, y: -0.05, z: 0.9 },
+    });
+    expect(nudgeHandle(edit, { kind: "cog" }, "plan", "ArrowLeft", { ...fine, coarse: true })).toEqual({
+      type: "move-cog",
+      cog: { x: -0.5, y: 0, z: 0.4 },
+    });
   });
 
   it("with snapping on, a step from off the grid lands on the grid in the direction pressed", () => {
     const off: PlanEdit = { ...edit, cog: { x: 0.03, y: 0, z: 0.4 } };
-    expect(nudgeHandle(off, { kind: "cog" }, "elevation", "ArrowRight", fine)).toEqual({ type: "move-cog", cog: { x: 0.1, y: 0, z: 0.4 } });
-    expect(nudgeHandle(off, { kind: "cog" }, "elevation", "ArrowLeft", fine)).toEqual({ type: "move-cog", cog: { x: 0, y: 0, z: 0.4 } });
-    expect(nudgeHandle(off, { kind: "cog" }, "elevation", "ArrowLeft", { ...fine, snap: false })).toEqual({ type: "move-cog", cog: { x: -0.02, y: 0, z: 0.4 } });
+    expect(nudgeHandle(off, { kind: "cog" }, "elevation", "ArrowRight", fine)).toEqual({
+      type: "move-cog",
+      cog: { x: 0.1, y: 0, z: 0.4 },
+    });
+    expect(nudgeHandle(off, { kind: "cog" }, "elevation", "ArrowLeft", fine)).toEqual({
+      type: "move-cog",
+      cog: { x: 0, y: 0, z: 0.4 },
+    });
+    expect(nudgeHandle(off, { kind: "cog" }, "elevation", "ArrowLeft", { ...fine, snap: false })).toEqual({
+      type: "move-cog",
+      cog: { x: -0.02, y: 0, z: 0.4 },
+    });
   });
 
   it("the hook goes only up and down, only in the elevation and only in a level lift", () => {
     const hook = { kind: "hook" } as const;
-    expect(nudgeHandle(edit, hook, "elevation", "ArrowUp", { ...fine, coarse: true })).toEqual({ type: "set-hook-height", hookHeightM: 2.2 });
+    expect(nudgeHandle(edit, hook, "elevation", "ArrowUp", { ...fine, coarse: true })).toEqual({
+      type: "set-hook-height",
+      hookHeightM: 2.2,
+    });
     expect(nudgeHandle(edit, hook, "elevation", "ArrowLeft", fine)).toBeNull();
     expect(nudgeHandle(edit, hook, "plan", "ArrowUp", fine)).toBeNull();
-    expect(nudgeHandle({ ...edit, arrangement: { ...edit.arrangement, mode: "lengths" } }, hook, "elevation", "ArrowUp", fine)).toBeNull();
+    expect(
+      nudgeHandle(
+        { ...edit, arrangement: { ...edit.arrangement, mode: "lengths" } },
+        hook,
+        "elevation",
+        "ArrowUp",
+        fine,
+      ),
+    ).toBeNull();
   });
 
   it("other keys and unknown lift points move nothing", () => {
@@ -208,15 +270,30 @@ describe("the keyboard", () => {
 
   it("law: ← undoes →, and ↓ undoes ↑, whenever the start is on the grid", () => {
     fc.assert(
-      fc.property(fc.integer({ min: -200, max: 200 }), fc.integer({ min: -200, max: 200 }), fc.boolean(), (i, k, coarse) => {
-        const start: PlanEdit = { ...edit, cog: { x: i * 0.05, y: 0, z: k * 0.05 } };
-        const options = { ...fine, coarse };
-        const right = nudgeHandle(start, { kind: "cog" }, "elevation", "ArrowRight", options) as { cog: PlanEdit["cog"] };
-        const back = nudgeHandle({ ...start, cog: right.cog }, { kind: "cog" }, "elevation", "ArrowLeft", options) as { cog: PlanEdit["cog"] };
-        expect(back.cog.x).toBeCloseTo(start.cog.x, 9);
-        const upped = nudgeHandle(start, { kind: "cog" }, "elevation", "ArrowUp", options) as { cog: PlanEdit["cog"] };
-        expect(upped.cog.z - start.cog.z).toBeCloseTo(coarse ? 0.5 : 0.05, 9);
-      }),
+      fc.property(
+        fc.integer({ min: -200, max: 200 }),
+        fc.integer({ min: -200, max: 200 }),
+        fc.boolean(),
+        (i, k, coarse) => {
+          const start: PlanEdit = { ...edit, cog: { x: i * 0.05, y: 0, z: k * 0.05 } };
+          const options = { ...fine, coarse };
+          const right = nudgeHandle(start, { kind: "cog" }, "elevation", "ArrowRight", options) as {
+            cog: PlanEdit["cog"];
+          };
+          const back = nudgeHandle(
+            { ...start, cog: right.cog },
+            { kind: "cog" },
+            "elevation",
+            "ArrowLeft",
+            options,
+          ) as { cog: PlanEdit["cog"] };
+          expect(back.cog.x).toBeCloseTo(start.cog.x, 9);
+          const upped = nudgeHandle(start, { kind: "cog" }, "elevation", "ArrowUp", options) as {
+            cog: PlanEdit["cog"];
+          };
+          expect(upped.cog.z - start.cog.z).toBeCloseTo(coarse ? 0.5 : 0.05, 9);
+        },
+      ),
     );
   });
 

@@ -29,7 +29,12 @@ export type EditorAction =
   | { type: "set-mode"; mode: Arrangement["mode"]; legLengthsM?: Record<string, number> }
   | { type: "set-kind"; kind: Arrangement["kind"]; beam?: Arrangement["beam"] }
   | { type: "toggle-lift-point"; label: string }
-  | { type: "allocate"; label: string | null; slot: "eyeboltItemId" | "shackleItemId" | "slingItemId" | "masterLinkItemId" | "craneItemId"; itemId: number | null }
+  | {
+      type: "allocate";
+      label: string | null;
+      slot: "eyeboltItemId" | "shackleItemId" | "slingItemId" | "masterLinkItemId" | "craneItemId";
+      itemId: number | null;
+    }
   | { type: "set-hitch"; label: string; hitch: "straight" | "choke" | "basket" }
   | { type: "undo" }
   | { type: "redo" };
@@ -49,27 +54,57 @@ function apply(edit: PlanEdit, action: EditorAction): PlanEdit {
     case "move-cog":
       return { ...edit, cog: action.cog };
     case "move-lift-point":
-      return { ...edit, liftPoints: edit.liftPoints.map((p) => (p.label === action.label ? { ...p, position: action.position } : p)) };
+      return {
+        ...edit,
+        liftPoints: edit.liftPoints.map((p) => (p.label === action.label ? { ...p, position: action.position } : p)),
+      };
     case "set-hook-height":
       return { ...edit, arrangement: { ...edit.arrangement, hookHeightM: action.hookHeightM } };
     case "set-leg-length":
-      return { ...edit, arrangement: { ...edit.arrangement, legLengthsM: { ...edit.arrangement.legLengthsM, [action.label]: action.lengthM } } };
+      return {
+        ...edit,
+        arrangement: {
+          ...edit.arrangement,
+          legLengthsM: { ...edit.arrangement.legLengthsM, [action.label]: action.lengthM },
+        },
+      };
     case "set-mode":
-      return { ...edit, arrangement: { ...edit.arrangement, mode: action.mode, legLengthsM: action.legLengthsM ?? edit.arrangement.legLengthsM } };
+      return {
+        ...edit,
+        arrangement: {
+          ...edit.arrangement,
+          mode: action.mode,
+          legLengthsM: action.legLengthsM ?? edit.arrangement.legLengthsM,
+        },
+      };
     case "set-kind":
-      return { ...edit, arrangement: { ...edit.arrangement, kind: action.kind, mode: action.kind === "beam" ? "level" : edit.arrangement.mode, beam: action.beam ?? edit.arrangement.beam } };
+      return {
+        ...edit,
+        arrangement: {
+          ...edit.arrangement,
+          kind: action.kind,
+          mode: action.kind === "beam" ? "level" : edit.arrangement.mode,
+          beam: action.beam ?? edit.arrangement.beam,
+        },
+      };
     case "toggle-lift-point": {
       const used = edit.arrangement.liftPointLabels;
       const isUsed = used.includes(action.label);
       if (!isUsed && used.length >= 4) return edit;
       if (isUsed && used.length <= 1) return edit;
       const order = edit.liftPoints.map((p) => p.label);
-      const labels = isUsed ? used.filter((l) => l !== action.label) : [...used, action.label].sort((a, b) => order.indexOf(a) - order.indexOf(b));
+      const labels = isUsed
+        ? used.filter((l) => l !== action.label)
+        : [...used, action.label].sort((a, b) => order.indexOf(a) - order.indexOf(b));
       const legs = { ...edit.rigging.legs };
       if (isUsed) delete legs[action.label];
       const legLengthsM = { ...edit.arrangement.legLengthsM };
       if (isUsed) delete legLengthsM[action.label];
-      return { ...edit, arrangement: { ...edit.arrangement, liftPointLabels: labels, legLengthsM }, rigging: { ...edit.rigging, legs } };
+      return {
+        ...edit,
+        arrangement: { ...edit.arrangement, liftPointLabels: labels, legLengthsM },
+        rigging: { ...edit.rigging, legs },
+      };
     }
     case "allocate": {
       if (action.slot === "masterLinkItemId" || action.slot === "craneItemId") {
@@ -134,7 +169,11 @@ export function snapToGrid(valueM: number, gridM: number): number {
 }
 
 /** The candidate within `radiusM` of `point` that is nearest, else null. Points are 2-D view coordinates in metres. */
-export function nearestWithin(point: { a: number; b: number }, candidates: ReadonlyArray<{ a: number; b: number }>, radiusM: number) {
+export function nearestWithin(
+  point: { a: number; b: number },
+  candidates: ReadonlyArray<{ a: number; b: number }>,
+  radiusM: number,
+) {
   let best: { a: number; b: number } | null = null;
   let bestDistance = radiusM;
   for (const c of candidates) {
@@ -148,7 +187,10 @@ export function nearestWithin(point: { a: number; b: number }, candidates: Reado
 }
 
 /** Snaps a dragged view point: to a candidate point when within `radiusM`, else to the grid. */
-export function snapViewPoint(point: { a: number; b: number }, options: { gridM: number; radiusM: number; candidates: ReadonlyArray<{ a: number; b: number }>; enabled: boolean }) {
+export function snapViewPoint(
+  point: { a: number; b: number },
+  options: { gridM: number; radiusM: number; candidates: ReadonlyArray<{ a: number; b: number }>; enabled: boolean },
+) {
   if (!options.enabled) return point;
   const near = nearestWithin(point, options.candidates, options.radiusM);
   if (near) return { a: near.a, b: near.b };
@@ -184,10 +226,18 @@ export function zoomAbout(view: ViewTransform, factor: number, x: number, y: num
 }
 
 /** The view that fits the box [minA, maxA] x [minB, maxB] (m) in a width x height screen with a margin (px). */
-export function fitView(box: { minA: number; maxA: number; minB: number; maxB: number }, width: number, height: number, marginPx = 40): ViewTransform {
+export function fitView(
+  box: { minA: number; maxA: number; minB: number; maxB: number },
+  width: number,
+  height: number,
+  marginPx = 40,
+): ViewTransform {
   const spanA = Math.max(box.maxA - box.minA, 1e-3);
   const spanB = Math.max(box.maxB - box.minB, 1e-3);
-  const scale = Math.max(MIN_SCALE_PX_PER_M, Math.min((width - 2 * marginPx) / spanA, (height - 2 * marginPx) / spanB, MAX_SCALE_PX_PER_M));
+  const scale = Math.max(
+    MIN_SCALE_PX_PER_M,
+    Math.min((width - 2 * marginPx) / spanA, (height - 2 * marginPx) / spanB, MAX_SCALE_PX_PER_M),
+  );
   const midA = (box.minA + box.maxA) / 2;
   const midB = (box.minB + box.maxB) / 2;
   return { scalePxPerM: scale, originX: width / 2 - midA * scale, originY: height / 2 + midB * scale };
@@ -199,7 +249,11 @@ export function fitView(box: { minA: number; maxA: number; minB: number; maxB: n
  * Metres per image pixel from two points clicked on the drawing (image pixels) and the distance
  * typed between them (m). Null when the points coincide or the distance is not positive.
  */
-export function calibrateImageScale(p1: { x: number; y: number }, p2: { x: number; y: number }, distanceM: number): number | null {
+export function calibrateImageScale(
+  p1: { x: number; y: number },
+  p2: { x: number; y: number },
+  distanceM: number,
+): number | null {
   const pixels = Math.hypot(p2.x - p1.x, p2.y - p1.y);
   if (!(pixels > 0.5) || !(distanceM > 0) || !Number.isFinite(distanceM)) return null;
   return distanceM / pixels;
@@ -220,7 +274,10 @@ export type Handle = { kind: "lift-point"; label: string } | { kind: "cog" } | {
 export type DrawingView = "elevation" | "plan";
 
 /** The component-frame axes across (a, to the right) and up (b) each view. */
-export const VIEW_AXES: Record<DrawingView, readonly [keyof Vec3, keyof Vec3]> = { elevation: ["x", "z"], plan: ["x", "y"] };
+export const VIEW_AXES: Record<DrawingView, readonly [keyof Vec3, keyof Vec3]> = {
+  elevation: ["x", "z"],
+  plan: ["x", "y"],
+};
 
 /** A handle's stable key, for radio values and comparisons: "lift-point:A", "cog", "hook". */
 export function handleKey(handle: Handle) {
@@ -273,10 +330,15 @@ export function nudgeHandle(
     if (view !== "elevation" || arrow.axis !== 1 || edit.arrangement.mode !== "level") return null;
     return { type: "set-hook-height", hookHeightM: stepped(edit.arrangement.hookHeightM, arrow.sign, options) };
   }
-  if (handle.kind === "cog") return { type: "move-cog", cog: { ...edit.cog, [axis]: stepped(edit.cog[axis], arrow.sign, options) } };
+  if (handle.kind === "cog")
+    return { type: "move-cog", cog: { ...edit.cog, [axis]: stepped(edit.cog[axis], arrow.sign, options) } };
   const point = edit.liftPoints.find((p) => p.label === handle.label);
   if (!point) return null;
-  return { type: "move-lift-point", label: point.label, position: { ...point.position, [axis]: stepped(point.position[axis], arrow.sign, options) } };
+  return {
+    type: "move-lift-point",
+    label: point.label,
+    position: { ...point.position, [axis]: stepped(point.position[axis], arrow.sign, options) },
+  };
 }
 
 /**

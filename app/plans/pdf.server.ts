@@ -29,7 +29,8 @@ const RIGHT = A4_WIDTH_PT - MARGIN_X;
 
 // ----- palette -----
 
-const hex = (h: string) => rgb(parseInt(h.slice(1, 3), 16) / 255, parseInt(h.slice(3, 5), 16) / 255, parseInt(h.slice(5, 7), 16) / 255);
+const hex = (h: string) =>
+  rgb(parseInt(h.slice(1, 3), 16) / 255, parseInt(h.slice(3, 5), 16) / 255, parseInt(h.slice(5, 7), 16) / 255);
 const INK = hex("#17212b");
 const INK_SOFT = hex("#4a5663");
 const BRASS = hex("#9a6a14");
@@ -39,7 +40,13 @@ const STEEL_WASH = hex("#f1f5f8");
 const RULE = hex("#c5ced6");
 const WHITE = rgb(1, 1, 1);
 type Tone = "pass" | "warn" | "fail" | "hold" | "neutral";
-const TONE: Record<Tone, RGB> = { pass: hex("#2e7346"), warn: hex("#9a5b00"), fail: hex("#a8261d"), hold: BRASS, neutral: STEEL };
+const TONE: Record<Tone, RGB> = {
+  pass: hex("#2e7346"),
+  warn: hex("#9a5b00"),
+  fail: hex("#a8261d"),
+  hold: BRASS,
+  neutral: STEEL,
+};
 
 // ----- fonts (bytes read once per process; embedded as subsets in every PDF) -----
 
@@ -65,7 +72,19 @@ const cachingFontkit: Parameters<PDFDocument["registerFontkit"]>[0] = {
  * the text measures exactly as drawn from the advance table, copies out of the PDF letter for
  * letter, and shaping costs next to nothing.
  */
-const PLAIN_GLYPHS = { kern: false, liga: false, clig: false, calt: false, rlig: false, rclt: false, ccmp: false, locl: false, mark: false, mkmk: false, curs: false };
+const PLAIN_GLYPHS = {
+  kern: false,
+  liga: false,
+  clig: false,
+  calt: false,
+  rlig: false,
+  rclt: false,
+  ccmp: false,
+  locl: false,
+  mark: false,
+  mkmk: false,
+  curs: false,
+};
 
 /**
  * The name a subset font goes by: six capital letters, "+", the font's name (PDF 32000-1 9.6.4),
@@ -107,8 +126,24 @@ function advanceAt1pt(bytes: Uint8Array, codePoint: number): number {
 
 /** Stand-ins for characters the font cannot draw (anything else unknown becomes "?"). */
 const STAND_INS: Record<string, string> = {
-  "→": "->", "←": "<-", "↑": "up", "↓": "down", "⇒": "=>", "≤": "<=", "≥": ">=", "≠": "!=", "≈": "~",
-  "Σ": "sum ", "Δ": "delta ", "✓": "yes", "✔": "yes", "✗": "x", "☐": "[ ]", "•": "-", "·": "-", "\t": " ",
+  "→": "->",
+  "←": "<-",
+  "↑": "up",
+  "↓": "down",
+  "⇒": "=>",
+  "≤": "<=",
+  "≥": ">=",
+  "≠": "!=",
+  "≈": "~",
+  Σ: "sum ",
+  Δ: "delta ",
+  "✓": "yes",
+  "✔": "yes",
+  "✗": "x",
+  "☐": "[ ]",
+  "•": "-",
+  "·": "-",
+  "\t": " ",
 };
 
 /** The text with every character the embedded font lacks replaced by a plain stand-in. */
@@ -119,7 +154,8 @@ export function printableText(text: string, codePoints: ReadonlySet<number> = lo
     if (codePoints.has(cp)) out += ch;
     else if (ch === "\n") out += "\n";
     else if (cp < 0x20 || (cp >= 0x7f && cp < 0xa0)) continue;
-    else if (Object.hasOwn(STAND_INS, ch) && [...STAND_INS[ch]!].every((c) => codePoints.has(c.codePointAt(0)!))) out += STAND_INS[ch];
+    else if (Object.hasOwn(STAND_INS, ch) && [...STAND_INS[ch]!].every((c) => codePoints.has(c.codePointAt(0)!)))
+      out += STAND_INS[ch];
     else {
       // Accented letters the font lacks: drop the accent rather than lose the letter.
       const base = ch.normalize("NFKD").replace(/\p{M}/gu, "");
@@ -153,7 +189,8 @@ function loadText(kg: number, units: Units): string {
 const knText = (kn: number) => `${ceilTo(kn, 2).toFixed(2)} kN`;
 const degText = (d: number) => `${d.toFixed(1)}°`;
 /** The mass figure of a tension in the user's unit, without the unit, rounded up ("1,650"). */
-const tensionMassNumber = (kg: number, units: Units) => Math.ceil(toDisplayMass(kg, units) - 1e-9).toLocaleString("en-GB");
+const tensionMassNumber = (kg: number, units: Units) =>
+  Math.ceil(toDisplayMass(kg, units) - 1e-9).toLocaleString("en-GB");
 
 const VERDICT: Record<CheckResult["status"], string> = { pass: "PASS", warn: "WARN", fail: "FAIL" };
 
@@ -282,7 +319,13 @@ class Flow {
     for (const line of this.ts.wrap(raw, style.font, style.size, width)) {
       this.ensure(lh);
       this.y -= lh;
-      this.page.drawText(line, { x, y: this.y + style.size * 0.28, size: style.size, font: style.font, color: style.color });
+      this.page.drawText(line, {
+        x,
+        y: this.y + style.size * 0.28,
+        size: style.size,
+        font: style.font,
+        color: style.color,
+      });
     }
     this.y -= opts.gapAfter ?? 4;
   }
@@ -295,7 +338,16 @@ function tagWidth(ts: Typesetter, font: PDFFont, text: string, size = 6.5) {
 }
 
 /** A word in a box (the verdict or a hold point): the word carries the meaning, the colour only helps. */
-function drawTag(page: PDFPage, ts: Typesetter, font: PDFFont, text: string, tone: Tone, x: number, yTop: number, size = 6.5) {
+function drawTag(
+  page: PDFPage,
+  ts: Typesetter,
+  font: PDFFont,
+  text: string,
+  tone: Tone,
+  x: number,
+  yTop: number,
+  size = 6.5,
+) {
   const w = tagWidth(ts, font, text, size);
   const h = size + 4.5;
   const solid = tone === "fail" || tone === "hold";
@@ -324,7 +376,12 @@ function heading(flow: Flow, number: number, title: string, keepWith = 60) {
   flow.y -= 18;
   flow.text(`${number}`, LEFT, flow.y, { font: flow.fonts.semibold, size: 11, color: BRASS });
   flow.text(title, LEFT + 16, flow.y, { font: flow.fonts.semibold, size: 11, color: STEEL });
-  flow.page.drawLine({ start: { x: LEFT, y: flow.y - 4 }, end: { x: RIGHT, y: flow.y - 4 }, thickness: 0.6, color: BRASS });
+  flow.page.drawLine({
+    start: { x: LEFT, y: flow.y - 4 },
+    end: { x: RIGHT, y: flow.y - 4 },
+    thickness: 0.6,
+    color: BRASS,
+  });
   flow.y -= 10;
 }
 
@@ -339,14 +396,25 @@ function facts(flow: Flow, items: Fact[], x: number, width: number, yTop: number
     const lines = flow.ts.wrap(value || "–", valueStyle.font, valueStyle.size, width - labelW);
     if (draw) {
       flow.text(label.toUpperCase(), x, y - 8.2, labelStyle);
-      lines.forEach((line, i) => flow.page.drawText(line, { x: x + labelW, y: y - 8.5 - i * 10.6, size: 8.5, font: valueStyle.font, color: INK }));
+      lines.forEach((line, i) =>
+        flow.page.drawText(line, {
+          x: x + labelW,
+          y: y - 8.5 - i * 10.6,
+          size: 8.5,
+          font: valueStyle.font,
+          color: INK,
+        }),
+      );
     }
     y -= lines.length * 10.6 + 2.6;
   }
   return yTop - y;
 }
 
-type CellItem = { kind: "line"; text: string; style: Style } | { kind: "tag"; text: string; tone: Tone } | { kind: "signoff"; label: string };
+type CellItem =
+  | { kind: "line"; text: string; style: Style }
+  | { kind: "tag"; text: string; tone: Tone }
+  | { kind: "signoff"; label: string };
 type Cell = { items: CellItem[] };
 type Column = { title: string; width: number; align?: "left" | "right" };
 
@@ -355,12 +423,18 @@ const CELL_PAD_Y = 3;
 const itemHeight = (item: CellItem) => (item.kind === "line" ? item.style.size * 1.3 : item.kind === "tag" ? 12 : 17);
 
 /** A cell of wrapped text blocks (each block its own style), an optional tag first and a sign-off line last. */
-function cell(flow: Flow, width: number, blocks: Array<{ text: string; style: Style }>, extra: { tag?: { text: string; tone: Tone }; signoff?: string } = {}): Cell {
+function cell(
+  flow: Flow,
+  width: number,
+  blocks: Array<{ text: string; style: Style }>,
+  extra: { tag?: { text: string; tone: Tone }; signoff?: string } = {},
+): Cell {
   const items: CellItem[] = [];
   if (extra.tag) items.push({ kind: "tag", ...extra.tag });
   for (const b of blocks) {
     if (b.text === "") continue;
-    for (const line of flow.ts.wrap(b.text, b.style.font, b.style.size, width - 2 * CELL_PAD_X)) items.push({ kind: "line", text: line, style: b.style });
+    for (const line of flow.ts.wrap(b.text, b.style.font, b.style.size, width - 2 * CELL_PAD_X))
+      items.push({ kind: "line", text: line, style: b.style });
   }
   if (extra.signoff) items.push({ kind: "signoff", label: extra.signoff });
   return { items };
@@ -376,7 +450,12 @@ function drawTableHeader(flow: Flow, columns: Column[]) {
     else flow.text(c.title, x + CELL_PAD_X, flow.y - 9.5, style);
     x += c.width;
   }
-  flow.page.drawLine({ start: { x: LEFT, y: flow.y - h }, end: { x: RIGHT, y: flow.y - h }, thickness: 0.8, color: STEEL });
+  flow.page.drawLine({
+    start: { x: LEFT, y: flow.y - h },
+    end: { x: RIGHT, y: flow.y - h },
+    thickness: 0.8,
+    color: STEEL,
+  });
   flow.y -= h;
 }
 
@@ -389,21 +468,40 @@ function drawRowPart(flow: Flow, columns: Column[], cells: Cell[], height: numbe
     for (const item of cells[i]?.items ?? []) {
       if (item.kind === "line") {
         const size = item.style.size;
-        const textX = c.align === "right" ? x + c.width - CELL_PAD_X - flow.ts.width(item.text, item.style.font, size) : x + CELL_PAD_X;
-        flow.page.drawText(item.text, { x: textX, y: y - size * 1.02, size, font: item.style.font, color: item.style.color });
+        const textX =
+          c.align === "right"
+            ? x + c.width - CELL_PAD_X - flow.ts.width(item.text, item.style.font, size)
+            : x + CELL_PAD_X;
+        flow.page.drawText(item.text, {
+          x: textX,
+          y: y - size * 1.02,
+          size,
+          font: item.style.font,
+          color: item.style.color,
+        });
       } else if (item.kind === "tag") {
         drawTag(flow.page, flow.ts, flow.fonts.semibold, item.text, item.tone, x + CELL_PAD_X, y - 1);
       } else {
         const labelStyle = { font: flow.fonts.regular, size: 6.5, color: INK_SOFT };
         flow.text(item.label, x + CELL_PAD_X, y - 13, labelStyle);
         const start = x + CELL_PAD_X + flow.ts.width(flow.ts.clean(item.label), labelStyle.font, 6.5) + 4;
-        flow.page.drawLine({ start: { x: start, y: y - 13.5 }, end: { x: x + c.width - CELL_PAD_X, y: y - 13.5 }, thickness: 0.5, color: INK_SOFT });
+        flow.page.drawLine({
+          start: { x: start, y: y - 13.5 },
+          end: { x: x + c.width - CELL_PAD_X, y: y - 13.5 },
+          thickness: 0.5,
+          color: INK_SOFT,
+        });
       }
       y -= itemHeight(item);
     }
     x += c.width;
   });
-  flow.page.drawLine({ start: { x: LEFT, y: yTop - height }, end: { x: RIGHT, y: yTop - height }, thickness: 0.4, color: RULE });
+  flow.page.drawLine({
+    start: { x: LEFT, y: yTop - height },
+    end: { x: RIGHT, y: yTop - height },
+    thickness: 0.4,
+    color: RULE,
+  });
   flow.y -= height;
 }
 
@@ -411,9 +509,16 @@ function drawRowPart(flow: Flow, columns: Column[], cells: Cell[], height: numbe
  * A table that flows across pages: the column header repeats on every page, and a row too tall for
  * what is left of a page goes to the next one (or, if taller than a whole page, is split by lines).
  */
-function table(flow: Flow, columns: Column[], rows: Array<{ cells: Cell[]; accent?: RGB }>, continued: string, opts: { keepTogether?: boolean } = {}) {
+function table(
+  flow: Flow,
+  columns: Column[],
+  rows: Array<{ cells: Cell[]; accent?: RGB }>,
+  continued: string,
+  opts: { keepTogether?: boolean } = {},
+) {
   const headerH = 14;
-  const rowHeight = (cells: Cell[]) => Math.max(...cells.map((c) => c.items.reduce((s, it) => s + itemHeight(it), 0))) + 2 * CELL_PAD_Y;
+  const rowHeight = (cells: Cell[]) =>
+    Math.max(...cells.map((c) => c.items.reduce((s, it) => s + itemHeight(it), 0))) + 2 * CELL_PAD_Y;
   const total = headerH + rows.reduce((s, r) => s + rowHeight(r.cells), 0);
   if (opts.keepTogether && total <= flow.pageRoom) flow.ensure(total);
   const continuedTitle = () => {
@@ -466,7 +571,10 @@ type Seg = { from: V2; to: V2 };
 type Box = { x: number; y: number; w: number; h: number };
 type ViewKind = "elevation" | "plan";
 
-const project = (p: { x: number; y: number; z: number }, view: ViewKind): V2 => ({ a: p.x, b: view === "elevation" ? p.z : p.y });
+const project = (p: { x: number; y: number; z: number }, view: ViewKind): V2 => ({
+  a: p.x,
+  b: view === "elevation" ? p.z : p.y,
+});
 
 /** The largest common drawing scale 1:N (N = 1, 1.5, 2, 2.5, 3, 4, 5 or 7.5 x 10^k, N >= 1) that fits `maxPtPerM`. */
 export function drawingScale(maxPtPerM: number): { denominator: number; ptPerM: number } {
@@ -489,7 +597,7 @@ function scaleBarM(targetM: number, units: Units): number {
     return (steps.filter((s) => s <= inches).at(-1) ?? 1) * 0.0254;
   }
   const power = 10 ** Math.floor(Math.log10(targetM));
-  return ([5, 2, 1].map((m) => m * power).find((v) => v <= targetM) ?? power);
+  return [5, 2, 1].map((m) => m * power).find((v) => v <= targetM) ?? power;
 }
 
 function segmentHitsBox(s: { x1: number; y1: number; x2: number; y2: number }, r: Box): boolean {
@@ -541,7 +649,8 @@ class LabelPlacer {
       const box = { x: c.x, y: c.y, w: size.w, h: size.h };
       // Prefer spots near what the label names; then avoid the frame edge, lines, markers and other labels.
       let score = Math.hypot(box.x + box.w / 2 - c.anchor.x, box.y + box.h / 2 - c.anchor.y) * 0.02;
-      if (box.x < inner.x || box.y < inner.y || box.x + box.w > inner.x + inner.w || box.y + box.h > inner.y + inner.h) score += 1000;
+      if (box.x < inner.x || box.y < inner.y || box.x + box.w > inner.x + inner.w || box.y + box.h > inner.y + inner.h)
+        score += 1000;
       for (const s of this.segments) if (segmentHitsBox(s, box)) score += 50;
       for (const m of this.markers) if (boxesOverlap(m, box)) score += 80;
       for (const p of this.placed) if (boxesOverlap(p, box)) score += 200;
@@ -559,11 +668,20 @@ class LabelPlacer {
         best = { box, anchor: c.anchor };
       }
     }
-    const chosen = best ?? { box: { x: inner.x, y: inner.y, w: size.w, h: size.h }, anchor: { x: inner.x, y: inner.y } };
+    const chosen = best ?? {
+      box: { x: inner.x, y: inner.y, w: size.w, h: size.h },
+      anchor: { x: inner.x, y: inner.y },
+    };
     // Keep it on the frame even when every spot is poor.
     chosen.box.x = Math.min(Math.max(chosen.box.x, inner.x), inner.x + inner.w - chosen.box.w);
     chosen.box.y = Math.min(Math.max(chosen.box.y, inner.y), inner.y + inner.h - chosen.box.h);
-    this.placed.push({ ...chosen.box, x: chosen.box.x - 1, y: chosen.box.y - 1, w: chosen.box.w + 2, h: chosen.box.h + 2 });
+    this.placed.push({
+      ...chosen.box,
+      x: chosen.box.x - 1,
+      y: chosen.box.y - 1,
+      w: chosen.box.w + 2,
+      h: chosen.box.h + 2,
+    });
     return chosen;
   }
 }
@@ -585,7 +703,11 @@ function viewGeometry(plan: PrintablePlan, view: ViewKind): ViewGeometry {
   const { snapshot, arrangement, results } = plan;
   const outline = (view === "elevation" ? snapshot.outlineElevation : snapshot.outlinePlan).map(([a, b]) => ({ a, b }));
   const used = new Set(arrangement.liftPointLabels);
-  const liftPoints = snapshot.liftPoints.map((p) => ({ label: p.label, at: project(p.position, view), used: used.has(p.label) }));
+  const liftPoints = snapshot.liftPoints.map((p) => ({
+    label: p.label,
+    at: project(p.position, view),
+    used: used.has(p.label),
+  }));
   const hook = project(results.hook, view);
   const cog = project(snapshot.cog, view);
   const legs: ViewGeometry["legs"] = [];
@@ -597,7 +719,13 @@ function viewGeometry(plan: PrintablePlan, view: ViewKind): ViewGeometry {
     const beamZ = Math.max(...tops.map((p) => p.z)) + arrangement.beam.dropLengthM;
     for (const l of results.legs) {
       const p = point(l.liftPointId);
-      if (p) legs.push({ name: `Drop ${l.liftPointId}`, from: project({ ...p, z: beamZ }, view), to: project(p, view), leg: l });
+      if (p)
+        legs.push({
+          name: `Drop ${l.liftPointId}`,
+          from: project({ ...p, z: beamZ }, view),
+          to: project(p, view),
+          leg: l,
+        });
     }
     const lug = project({ x: snapshot.cog.x, y: snapshot.cog.y, z: beamZ }, view);
     const ends = tops.map((p) => project({ ...p, z: beamZ }, view));
@@ -620,7 +748,14 @@ function viewGeometry(plan: PrintablePlan, view: ViewKind): ViewGeometry {
 }
 
 function viewBounds(g: ViewGeometry) {
-  const pts = [...g.outline, g.cog, g.hook, ...g.liftPoints.map((p) => p.at), ...g.extra, ...g.legs.flatMap((l) => [l.from, l.to])];
+  const pts = [
+    ...g.outline,
+    g.cog,
+    g.hook,
+    ...g.liftPoints.map((p) => p.at),
+    ...g.extra,
+    ...g.legs.flatMap((l) => [l.from, l.to]),
+  ];
   const as = pts.map((p) => p.a);
   const bs = pts.map((p) => p.b);
   return { minA: Math.min(...as), maxA: Math.max(...as), minB: Math.min(...bs), maxB: Math.max(...bs) };
@@ -640,7 +775,10 @@ function legLabelLines(flow: Flow, name: string, leg: PlanLeg | null, units: Uni
   if (!leg) return [{ text: name, style: bold }];
   if (leg.slack) return [{ text: `${name}: slack`, style: bold }];
   return [
-    { text: `${name}: ${knText(leg.tensionKn)} · ${tensionMassNumber(leg.tensionKg, units)} ${massUnitLabel(units)}`, style: bold },
+    {
+      text: `${name}: ${knText(leg.tensionKn)} · ${tensionMassNumber(leg.tensionKg, units)} ${massUnitLabel(units)}`,
+      style: bold,
+    },
     { text: `${degText(leg.angleFromVerticalDeg)} from vertical`, style: small },
   ];
 }
@@ -651,7 +789,9 @@ function riggingDrawing(flow: Flow, plan: PrintablePlan) {
   const bounds = views.map(viewBounds);
   const drawW = VIEW_W - 2 * VIEW_PAD;
   const drawMaxH = VIEW_MAX_H - VIEW_TITLE_H - VIEW_FOOT_H - 2 * VIEW_PAD;
-  const fit = Math.min(...bounds.map((b) => Math.min(drawW / Math.max(b.maxA - b.minA, 1e-3), drawMaxH / Math.max(b.maxB - b.minB, 1e-3))));
+  const fit = Math.min(
+    ...bounds.map((b) => Math.min(drawW / Math.max(b.maxA - b.minA, 1e-3), drawMaxH / Math.max(b.maxB - b.minB, 1e-3))),
+  );
   const { denominator, ptPerM } = drawingScale(fit);
   const tallest = Math.max(...bounds.map((b) => (b.maxB - b.minB) * ptPerM));
   const frameH = Math.max(VIEW_MIN_H, tallest + VIEW_TITLE_H + VIEW_FOOT_H + 2 * VIEW_PAD);
@@ -666,10 +806,25 @@ function riggingDrawing(flow: Flow, plan: PrintablePlan) {
   flow.paragraph(scaleLine, { font: flow.fonts.regular, size: 7, color: INK_SOFT }, { gapAfter: 2 });
 }
 
-function drawView(flow: Flow, plan: PrintablePlan, g: ViewGeometry, b: ReturnType<typeof viewBounds>, frame: Box, ptPerM: number) {
+function drawView(
+  flow: Flow,
+  plan: PrintablePlan,
+  g: ViewGeometry,
+  b: ReturnType<typeof viewBounds>,
+  frame: Box,
+  ptPerM: number,
+) {
   const page = flow.page;
   const { semibold, regular } = flow.fonts;
-  page.drawRectangle({ x: frame.x, y: frame.y, width: frame.w, height: frame.h, borderColor: RULE, borderWidth: 0.8, color: WHITE });
+  page.drawRectangle({
+    x: frame.x,
+    y: frame.y,
+    width: frame.w,
+    height: frame.h,
+    borderColor: RULE,
+    borderWidth: 0.8,
+    color: WHITE,
+  });
   const title = g.kind === "elevation" ? "Elevation, looking along y" : "Plan, looking down";
   flow.text(title, frame.x + 6, frame.y + frame.h - 11, { font: semibold, size: 8, color: STEEL });
   // Centre the drawing in the area between the title and the foot.
@@ -687,12 +842,19 @@ function drawView(flow: Flow, plan: PrintablePlan, g: ViewGeometry, b: ReturnTyp
     const x2 = X(Math.max(...g.outline.map((p) => p.a))) + 10;
     const y = Y(floorZ);
     page.drawLine({ start: { x: x1, y }, end: { x: x2, y }, thickness: 0.8, color: INK_SOFT });
-    for (let x = x1 + 4; x < x2; x += 6) page.drawLine({ start: { x, y }, end: { x: x - 4, y: y - 4 }, thickness: 0.4, color: INK_SOFT });
+    for (let x = x1 + 4; x < x2; x += 6)
+      page.drawLine({ start: { x, y }, end: { x: x - 4, y: y - 4 }, thickness: 0.4, color: INK_SOFT });
   }
 
   // The outline of the load.
   if (g.outline.length >= 3) {
-    page.drawSvgPath(svgPolygon(g.outline.map((v) => [X(v.a), Y(v.b)] as const)), { x: 0, y: 0, color: STEEL_FILL, borderColor: STEEL, borderWidth: 1 });
+    page.drawSvgPath(svgPolygon(g.outline.map((v) => [X(v.a), Y(v.b)] as const)), {
+      x: 0,
+      y: 0,
+      color: STEEL_FILL,
+      borderColor: STEEL,
+      borderWidth: 1,
+    });
   }
 
   // Legs, drops, beam.
@@ -708,7 +870,10 @@ function drawView(flow: Flow, plan: PrintablePlan, g: ViewGeometry, b: ReturnTyp
     const e = P(g.beam.to);
     const pad = g.kind === "elevation" ? 6 : 0;
     page.drawLine({ start: { x: s.x - pad, y: s.y }, end: { x: e.x + pad, y: e.y }, thickness: 5, color: STEEL });
-    segments.push({ x1: s.x - pad, y1: s.y - 3, x2: e.x + pad, y2: e.y - 3 }, { x1: s.x - pad, y1: s.y + 3, x2: e.x + pad, y2: e.y + 3 });
+    segments.push(
+      { x1: s.x - pad, y1: s.y - 3, x2: e.x + pad, y2: e.y - 3 },
+      { x1: s.x - pad, y1: s.y + 3, x2: e.x + pad, y2: e.y + 3 },
+    );
   }
   for (const v of g.extra) {
     const p = P(v);
@@ -719,10 +884,22 @@ function drawView(flow: Flow, plan: PrintablePlan, g: ViewGeometry, b: ReturnTyp
   const hook = P(g.hook);
   const hookR = g.kind === "plan" ? 8 : 3.5;
   if (g.kind === "elevation") {
-    page.drawLine({ start: { x: hook.x, y: hook.y + hookR }, end: { x: hook.x, y: hook.y + hookR + 14 }, thickness: 1.2, color: STEEL });
+    page.drawLine({
+      start: { x: hook.x, y: hook.y + hookR },
+      end: { x: hook.x, y: hook.y + hookR + 14 },
+      thickness: 1.2,
+      color: STEEL,
+    });
     segments.push({ x1: hook.x, y1: hook.y, x2: hook.x, y2: hook.y + hookR + 14 });
   }
-  page.drawCircle({ x: hook.x, y: hook.y, size: hookR, borderColor: STEEL, borderWidth: 1.6, color: g.kind === "plan" ? undefined : WHITE });
+  page.drawCircle({
+    x: hook.x,
+    y: hook.y,
+    size: hookR,
+    borderColor: STEEL,
+    borderWidth: 1.6,
+    color: g.kind === "plan" ? undefined : WHITE,
+  });
 
   // Lift points.
   const markers: Box[] = [{ x: hook.x - hookR - 1, y: hook.y - hookR - 1, w: 2 * hookR + 2, h: 2 * hookR + 2 }];
@@ -754,13 +931,24 @@ function drawView(flow: Flow, plan: PrintablePlan, g: ViewGeometry, b: ReturnTyp
       ? (() => {
           const xs = outlinePts.map((p) => p.x);
           const ys = outlinePts.map((p) => p.y);
-          return { x: Math.min(...xs), y: Math.min(...ys), w: Math.max(...xs) - Math.min(...xs), h: Math.max(...ys) - Math.min(...ys) };
+          return {
+            x: Math.min(...xs),
+            y: Math.min(...ys),
+            w: Math.max(...xs) - Math.min(...xs),
+            h: Math.max(...ys) - Math.min(...ys),
+          };
         })()
       : null;
-  const placer = new LabelPlacer({ x: frame.x, y: frame.y + VIEW_FOOT_H, w: frame.w, h: frame.h - VIEW_FOOT_H - VIEW_TITLE_H + 4 }, segments, markers, outlineBox);
+  const placer = new LabelPlacer(
+    { x: frame.x, y: frame.y + VIEW_FOOT_H, w: frame.w, h: frame.h - VIEW_FOOT_H - VIEW_TITLE_H + 4 },
+    segments,
+    markers,
+    outlineBox,
+  );
 
   const drawLabel = (lines: LabelLines, candidatesFor: (w: number, h: number) => Candidate[], boxed: boolean) => {
-    const w = Math.max(...lines.map((l) => flow.ts.width(flow.ts.clean(l.text), l.style.font, l.style.size))) + (boxed ? 6 : 2);
+    const w =
+      Math.max(...lines.map((l) => flow.ts.width(flow.ts.clean(l.text), l.style.font, l.style.size))) + (boxed ? 6 : 2);
     const h = lines.reduce((s, l) => s + l.style.size * 1.2, 0) + (boxed ? 3 : 0);
     const { box, anchor } = placer.place({ w, h }, candidatesFor(w, h));
     // A leader from a label set away from what it names.
@@ -770,40 +958,64 @@ function drawView(flow: Flow, plan: PrintablePlan, g: ViewGeometry, b: ReturnTyp
       page.drawLine({ start: { x: nx, y: ny }, end: anchor, thickness: 0.4, color: INK_SOFT });
       page.drawCircle({ x: anchor.x, y: anchor.y, size: 1, color: INK_SOFT });
     }
-    if (boxed) page.drawRectangle({ x: box.x, y: box.y, width: box.w, height: box.h, color: WHITE, borderColor: RULE, borderWidth: 0.5, opacity: 0.92, borderOpacity: 1 });
+    if (boxed)
+      page.drawRectangle({
+        x: box.x,
+        y: box.y,
+        width: box.w,
+        height: box.h,
+        color: WHITE,
+        borderColor: RULE,
+        borderWidth: 0.5,
+        opacity: 0.92,
+        borderOpacity: 1,
+      });
     let y = box.y + box.h - (boxed ? 1.5 : 0);
     for (const l of lines) {
       y -= l.style.size * 1.2;
       flow.text(l.text, box.x + (boxed ? 3 : 1), y + l.style.size * 0.25, l.style);
     }
   };
-  const around = (p: Point, gap: number) => (w: number, h: number): Candidate[] =>
-    [gap, gap + 6, gap + 12].flatMap((d) => [
-      { x: p.x + d, y: p.y + d * 0.5, anchor: p },
-      { x: p.x - d - w, y: p.y + d * 0.5, anchor: p },
-      { x: p.x + d, y: p.y - d * 0.5 - h, anchor: p },
-      { x: p.x - d - w, y: p.y - d * 0.5 - h, anchor: p },
-      { x: p.x - w / 2, y: p.y + d, anchor: p },
-      { x: p.x - w / 2, y: p.y - d - h, anchor: p },
-      { x: p.x + d, y: p.y - h / 2, anchor: p },
-      { x: p.x - d - w, y: p.y - h / 2, anchor: p },
-    ]);
+  const around =
+    (p: Point, gap: number) =>
+    (w: number, h: number): Candidate[] =>
+      [gap, gap + 6, gap + 12].flatMap((d) => [
+        { x: p.x + d, y: p.y + d * 0.5, anchor: p },
+        { x: p.x - d - w, y: p.y + d * 0.5, anchor: p },
+        { x: p.x + d, y: p.y - d * 0.5 - h, anchor: p },
+        { x: p.x - d - w, y: p.y - d * 0.5 - h, anchor: p },
+        { x: p.x - w / 2, y: p.y + d, anchor: p },
+        { x: p.x - w / 2, y: p.y - d - h, anchor: p },
+        { x: p.x + d, y: p.y - h / 2, anchor: p },
+        { x: p.x - d - w, y: p.y - h / 2, anchor: p },
+      ]);
   // Anywhere in the view, for when nothing near is free (the label then gets a leader).
-  const anywhere = (anchor: Point) => (w: number, h: number): Candidate[] => {
-    const c: Candidate[] = [];
-    for (let x = frame.x + 4; x + w <= frame.x + frame.w - 4; x += 10) {
-      for (let y = frame.y + VIEW_FOOT_H + 2; y + h <= frame.y + frame.h - VIEW_TITLE_H; y += 8) c.push({ x, y, anchor });
-    }
-    return c;
-  };
+  const anywhere =
+    (anchor: Point) =>
+    (w: number, h: number): Candidate[] => {
+      const c: Candidate[] = [];
+      for (let x = frame.x + 4; x + w <= frame.x + frame.w - 4; x += 10) {
+        for (let y = frame.y + VIEW_FOOT_H + 2; y + h <= frame.y + frame.h - VIEW_TITLE_H; y += 8)
+          c.push({ x, y, anchor });
+      }
+      return c;
+    };
 
   const bold8 = { font: semibold, size: 8, color: INK };
   const small7 = { font: regular, size: 7, color: INK };
   // The small labels first, right beside what they name; the leg figures then find room, with a leader if need be.
-  drawLabel([{ text: g.kind === "plan" ? "Hook (above)" : "Hook", style: { font: semibold, size: 7, color: STEEL } }], around(hook, hookR + 2), false);
+  drawLabel(
+    [{ text: g.kind === "plan" ? "Hook (above)" : "Hook", style: { font: semibold, size: 7, color: STEEL } }],
+    around(hook, hookR + 2),
+    false,
+  );
   drawLabel([{ text: "CoG", style: small7 }], around(cog, r + 2), false);
   for (const lp of g.liftPoints) {
-    drawLabel([{ text: lp.label, style: lp.used ? bold8 : { ...small7, color: INK_SOFT } }], around(P(lp.at), 4), false);
+    drawLabel(
+      [{ text: lp.label, style: lp.used ? bold8 : { ...small7, color: INK_SOFT } }],
+      around(P(lp.at), 4),
+      false,
+    );
   }
   for (const l of g.legs) {
     const s = P(l.from);
@@ -831,7 +1043,11 @@ function drawView(flow: Flow, plan: PrintablePlan, g: ViewGeometry, b: ReturnTyp
           const m = { x: e.x + ux * d, y: e.y + uy * d };
           const cx = m.x + (ux >= 0 ? 0 : -w);
           const cy = m.y + (uy >= 0 ? 0 : -h);
-          c.push({ x: cx, y: cy, anchor: e }, { x: m.x - w / 2, y: m.y + 6, anchor: e }, { x: m.x - w / 2, y: m.y - 6 - h, anchor: e });
+          c.push(
+            { x: cx, y: cy, anchor: e },
+            { x: m.x - w / 2, y: m.y + 6, anchor: e },
+            { x: m.x - w / 2, y: m.y - 6 - h, anchor: e },
+          );
         }
         return [...c, ...anywhere({ x: (s.x + e.x) / 2, y: (s.y + e.y) / 2 })(w, h)];
       },
@@ -846,16 +1062,35 @@ function drawView(flow: Flow, plan: PrintablePlan, g: ViewGeometry, b: ReturnTyp
   const by = frame.y + 7;
   const halves = 2;
   for (let k = 0; k < halves; k++) {
-    page.drawRectangle({ x: bx + (k * barPt) / halves, y: by, width: barPt / halves, height: 3, color: k % 2 === 0 ? INK : WHITE, borderColor: INK, borderWidth: 0.5 });
+    page.drawRectangle({
+      x: bx + (k * barPt) / halves,
+      y: by,
+      width: barPt / halves,
+      height: 3,
+      color: k % 2 === 0 ? INK : WHITE,
+      borderColor: INK,
+      borderWidth: 0.5,
+    });
   }
-  flow.text(formatLength(barM, plan.units).replace(/\.00 in$/, " in"), bx + barPt + 4, by - 0.5, { font: regular, size: 7, color: INK });
+  flow.text(formatLength(barM, plan.units).replace(/\.00 in$/, " in"), bx + barPt + 4, by - 0.5, {
+    font: regular,
+    size: 7,
+    color: INK,
+  });
   const ax = frame.x + frame.w - 34;
   const ay = frame.y + 6;
   const arrow = (x1: number, y1: number, x2: number, y2: number, label: string) => {
     page.drawLine({ start: { x: x1, y: y1 }, end: { x: x2, y: y2 }, thickness: 0.7, color: INK_SOFT });
     const ang = Math.atan2(y2 - y1, x2 - x1);
     const head = (d: number) => ({ x: x2 - 3.5 * Math.cos(ang + d), y: y2 - 3.5 * Math.sin(ang + d) });
-    page.drawSvgPath(svgPolygon([[x2, y2], [head(0.45).x, head(0.45).y], [head(-0.45).x, head(-0.45).y]]), { x: 0, y: 0, color: INK_SOFT });
+    page.drawSvgPath(
+      svgPolygon([
+        [x2, y2],
+        [head(0.45).x, head(0.45).y],
+        [head(-0.45).x, head(-0.45).y],
+      ]),
+      { x: 0, y: 0, color: INK_SOFT },
+    );
     flow.text(label, x2 + (x2 > x1 ? 2 : -2), y2 + (y2 > y1 ? 1 : -2), { font: regular, size: 6.5, color: INK_SOFT });
   };
   arrow(ax, ay, ax + 16, ay, "x");
@@ -878,7 +1113,10 @@ function titleBlock(flow: Flow, plan: PrintablePlan, qr: PDFImage) {
     ["Status", statusWords(plan.status)],
     ["Planner", plan.planner.name],
   ];
-  const h = Math.max(facts(flow, left, LEFT, colW, flow.y, false), facts(flow, right, LEFT + colW + 16, colW, flow.y, false));
+  const h = Math.max(
+    facts(flow, left, LEFT, colW, flow.y, false),
+    facts(flow, right, LEFT + colW + 16, colW, flow.y, false),
+  );
   flow.ensure(h + 4);
   facts(flow, left, LEFT, colW, flow.y, true);
   facts(flow, right, LEFT + colW + 16, colW, flow.y, true);
@@ -909,18 +1147,32 @@ function titleBlock(flow: Flow, plan: PrintablePlan, qr: PDFImage) {
   const selfLines = selfText ? flow.ts.wrap(selfText, noteStyle.font, noteStyle.size, fieldsW - 12) : [];
   const statusLines = statusNote ? flow.ts.wrap(statusNote, noteStyle.font, noteStyle.size, fieldsW - 12) : [];
   const fieldsH = facts(flow, approval, 0, fieldsW - 8, 0, false, 70);
-  const notesH = (selfLines.length + statusLines.length) * 10.5 + (selfLines.length ? 6 : 0) + (statusLines.length ? 6 : 0);
+  const notesH =
+    (selfLines.length + statusLines.length) * 10.5 + (selfLines.length ? 6 : 0) + (statusLines.length ? 6 : 0);
   const fpH = 10 + fingerprintLines.length * 9.5;
   const captionStyle = { font: semibold, size: 7, color: INK };
   const urlStyle = { font: regular, size: 5.5, color: INK_SOFT };
-  const caption = flow.ts.wrap("Scan to check this is the current approved revision", captionStyle.font, captionStyle.size, qrColW - 8);
+  const caption = flow.ts.wrap(
+    "Scan to check this is the current approved revision",
+    captionStyle.font,
+    captionStyle.size,
+    qrColW - 8,
+  );
   const urlLines = flow.ts.wrap(plan.verifyUrl, urlStyle.font, urlStyle.size, qrColW - 8);
   const qrColH = qrSize + 4 + caption.length * 8.5 + urlLines.length * 7 + 2;
   const boxH = Math.max(18 + fieldsH + notesH + fpH, qrColH + 12) + 6;
   flow.ensure(boxH + 4);
   const top = flow.y;
   const page = flow.page;
-  page.drawRectangle({ x: LEFT, y: top - boxH, width: CONTENT_W, height: boxH, borderColor: STEEL, borderWidth: 1, color: WHITE });
+  page.drawRectangle({
+    x: LEFT,
+    y: top - boxH,
+    width: CONTENT_W,
+    height: boxH,
+    borderColor: STEEL,
+    borderWidth: 1,
+    color: WHITE,
+  });
   page.drawRectangle({ x: LEFT, y: top - 14, width: CONTENT_W - qrColW - 6, height: 14, color: STEEL_WASH });
   flow.text("APPROVAL", LEFT + 6, top - 10, { font: semibold, size: 7.5, color: BRASS });
   let y = top - 18;
@@ -928,18 +1180,35 @@ function titleBlock(flow: Flow, plan: PrintablePlan, qr: PDFImage) {
   const note = (lines: string[]) => {
     if (lines.length === 0) return;
     const h = lines.length * 10.5 + 3;
-    page.drawRectangle({ x: LEFT + 6, y: y - h, width: fieldsW - 6, height: h, color: hex("#fbefd9"), borderColor: TONE.warn, borderWidth: 0.8 });
-    lines.forEach((l, i) => page.drawText(l, { x: LEFT + 11, y: y - 9.5 - i * 10.5, size: 8, font: semibold, color: TONE.warn }));
+    page.drawRectangle({
+      x: LEFT + 6,
+      y: y - h,
+      width: fieldsW - 6,
+      height: h,
+      color: hex("#fbefd9"),
+      borderColor: TONE.warn,
+      borderWidth: 0.8,
+    });
+    lines.forEach((l, i) =>
+      page.drawText(l, { x: LEFT + 11, y: y - 9.5 - i * 10.5, size: 8, font: semibold, color: TONE.warn }),
+    );
     y -= h + 3;
   };
   note(selfLines);
   note(statusLines);
   y = Math.min(y - 2, top - boxH + fpH + 4);
   flow.text("FINGERPRINT (SHA-256) OF THIS REVISION", LEFT + 6, y - 7, { font: semibold, size: 6.5, color: STEEL });
-  fingerprintLines.forEach((l, i) => page.drawText(l, { x: LEFT + 6, y: y - 16.5 - i * 9.5, size: fpStyle.size, font: fpStyle.font, color: INK }));
+  fingerprintLines.forEach((l, i) =>
+    page.drawText(l, { x: LEFT + 6, y: y - 16.5 - i * 9.5, size: fpStyle.size, font: fpStyle.font, color: INK }),
+  );
 
   const qrX = RIGHT - qrColW + (qrColW - qrSize) / 2 - 2;
-  page.drawLine({ start: { x: RIGHT - qrColW - 6, y: top - 4 }, end: { x: RIGHT - qrColW - 6, y: top - boxH + 4 }, thickness: 0.5, color: RULE });
+  page.drawLine({
+    start: { x: RIGHT - qrColW - 6, y: top - 4 },
+    end: { x: RIGHT - qrColW - 6, y: top - boxH + 4 },
+    thickness: 0.5,
+    color: RULE,
+  });
   page.drawImage(qr, { x: qrX, y: top - 6 - qrSize, width: qrSize, height: qrSize });
   let cy = top - 6 - qrSize - 2;
   for (const l of caption) {
@@ -961,16 +1230,28 @@ function loadSection(flow: Flow, plan: PrintablePlan) {
   const colW = (CONTENT_W - 16) / 2;
   const left: Fact[] = [
     ["Component", s.name],
-    ["Mass", `${formatMass(s.massKg, units)}, ${MASS_SOURCE_LABELS[s.massSource].toLowerCase()}${s.massNote.trim() ? ` (${s.massNote.trim()})` : ""}`],
+    [
+      "Mass",
+      `${formatMass(s.massKg, units)}, ${MASS_SOURCE_LABELS[s.massSource].toLowerCase()}${s.massNote.trim() ? ` (${s.massNote.trim()})` : ""}`,
+    ],
     ["Contingency", `${s.contingencyPct.toLocaleString("en-GB")} %`],
     ["With contingency", loadText(withContingency, units)],
   ];
   const right: Fact[] = [
-    ["CoG (x, y, z)", `${formatLength(s.cog.x, units)}, ${formatLength(s.cog.y, units)}, ${formatLength(s.cog.z, units)}`],
+    [
+      "CoG (x, y, z)",
+      `${formatLength(s.cog.x, units)}, ${formatLength(s.cog.y, units)}, ${formatLength(s.cog.z, units)}`,
+    ],
     ["CoG source", `${COG_SOURCE_LABELS[s.cogSource]}${s.cogNote.trim() ? ` (${s.cogNote.trim()})` : ""}`],
-    ["Size (L × W × H)", `${formatLength(s.lengthM, units)} × ${formatLength(s.widthM, units)} × ${formatLength(s.heightM, units)}`],
+    [
+      "Size (L × W × H)",
+      `${formatLength(s.lengthM, units)} × ${formatLength(s.widthM, units)} × ${formatLength(s.heightM, units)}`,
+    ],
   ];
-  const h = Math.max(facts(flow, left, LEFT, colW, flow.y, false, 82), facts(flow, right, LEFT + colW + 16, colW, flow.y, false, 82));
+  const h = Math.max(
+    facts(flow, left, LEFT, colW, flow.y, false, 82),
+    facts(flow, right, LEFT + colW + 16, colW, flow.y, false, 82),
+  );
   flow.ensure(h);
   facts(flow, left, LEFT, colW, flow.y, true, 82);
   facts(flow, right, LEFT + colW + 16, colW, flow.y, true, 82);
@@ -978,13 +1259,20 @@ function loadSection(flow: Flow, plan: PrintablePlan) {
 }
 
 function legRows(plan: PrintablePlan): Array<{ name: string; leg: PlanLeg }> {
-  const rows = plan.results.legs.map((leg) => ({ name: `${plan.arrangement.kind === "beam" ? "Drop" : "Leg"} ${leg.liftPointId}`, leg }));
-  for (const [i, leg] of (plan.results.beam?.topLegs ?? []).entries()) rows.push({ name: plan.results.beam!.topLegs.length > 1 ? `Top leg ${i + 1}` : "Top leg", leg });
+  const rows = plan.results.legs.map((leg) => ({
+    name: `${plan.arrangement.kind === "beam" ? "Drop" : "Leg"} ${leg.liftPointId}`,
+    leg,
+  }));
+  for (const [i, leg] of (plan.results.beam?.topLegs ?? []).entries())
+    rows.push({ name: plan.results.beam!.topLegs.length > 1 ? `Top leg ${i + 1}` : "Top leg", leg });
   return rows;
 }
 
 function riggingSection(flow: Flow, plan: PrintablePlan) {
-  const kind = plan.arrangement.kind === "beam" ? "lifting beam with vertical drops" : `${plan.results.legs.length}-leg bridle to one hook`;
+  const kind =
+    plan.arrangement.kind === "beam"
+      ? "lifting beam with vertical drops"
+      : `${plan.results.legs.length}-leg bridle to one hook`;
   heading(flow, 3, `Rigging arrangement: ${kind}`, 200);
   riggingDrawing(flow, plan);
   const units = plan.units;
@@ -1003,7 +1291,9 @@ function riggingSection(flow: Flow, plan: PrintablePlan) {
       cell(flow, cols[0]!.width, [{ text: name, style: strong }]),
       cell(flow, cols[1]!.width, [{ text: formatLength(leg.lengthM, units), style: body }]),
       cell(flow, cols[2]!.width, [{ text: leg.slack ? "slack" : knText(leg.tensionKn), style: body }]),
-      cell(flow, cols[3]!.width, [{ text: leg.slack ? "slack" : tensionMassNumber(leg.tensionKg, units), style: body }]),
+      cell(flow, cols[3]!.width, [
+        { text: leg.slack ? "slack" : tensionMassNumber(leg.tensionKg, units), style: body },
+      ]),
       cell(flow, cols[4]!.width, [{ text: degText(leg.angleFromVerticalDeg), style: body }]),
       cell(flow, cols[5]!.width, [{ text: `${ceilTo(leg.verticalShare * 100, 1).toFixed(1)} %`, style: body }]),
     ],
@@ -1016,13 +1306,16 @@ function riggingSection(flow: Flow, plan: PrintablePlan) {
     plan.arrangement.mode === "level"
       ? `Hook set ${formatLength(plan.results.hook.z, units)} above the load's datum (z = 0), plumb over the CoG.`
       : `Legs of the given lengths; the load hangs ${degText(plan.results.tiltDeg)} from level.`,
-    beam ? `Beam: own mass ${formatMass(beam.massKg, units)}, marked WLL ${formatMass(beam.wllKg, units)}, drops ${formatLength(beam.dropLengthM, units)}; the hook carries ${loadText(plan.results.beam?.hookMassKg ?? 0, units)}.` : "",
+    beam
+      ? `Beam: own mass ${formatMass(beam.massKg, units)}, marked WLL ${formatMass(beam.wllKg, units)}, drops ${formatLength(beam.dropLengthM, units)}; the hook carries ${loadText(plan.results.beam?.hookMassKg ?? 0, units)}.`
+      : "",
     `${plan.results.method === "elastic" ? "Shared between the legs elastically (a rigid load on equal slings)" : "Found by statics alone (the legs' share is fixed by the geometry)"}. ${plan.results.rating.rule}`,
   ].filter((s) => s !== "");
   for (const n of notes) flow.paragraph(n, { font: flow.fonts.regular, size: 7, color: INK_SOFT }, { gapAfter: 1 });
   if (plan.results.warnings.length > 0) {
     flow.y -= 3;
-    for (const w of plan.results.warnings) flow.paragraph(`Note: ${w.message}`, { font: flow.fonts.semibold, size: 7.5, color: TONE.warn }, { gapAfter: 1 });
+    for (const w of plan.results.warnings)
+      flow.paragraph(`Note: ${w.message}`, { font: flow.fonts.semibold, size: 7.5, color: TONE.warn }, { gapAfter: 1 });
   }
 }
 
@@ -1051,7 +1344,12 @@ function scheduleSection(flow: Flow, plan: PrintablePlan) {
       cell(flow, cols[2]!.width, [{ text: r.description, style: body }]),
       cell(flow, cols[3]!.width, [{ text: formatMass(r.wllKg, units), style: body }]),
       cell(flow, cols[4]!.width, [{ text: r.loadKg === null ? "–" : loadText(r.loadKg, units), style: body }]),
-      cell(flow, cols[5]!.width, [{ text: percentUp(r.utilisation), style: r.utilisation !== null && r.utilisation > 1 ? { ...strong, color: TONE.fail } : strong }]),
+      cell(flow, cols[5]!.width, [
+        {
+          text: percentUp(r.utilisation),
+          style: r.utilisation !== null && r.utilisation > 1 ? { ...strong, color: TONE.fail } : strong,
+        },
+      ]),
       cell(flow, cols[6]!.width, [{ text: r.nextDueOn ?? "none on record", style: body }]),
     ],
   }));
@@ -1103,7 +1401,11 @@ function checksSection(flow: Flow, plan: PrintablePlan) {
   if (plan.acknowledgements.length > 0) {
     flow.ensure(60);
     flow.y -= 6;
-    flow.text("Warnings acknowledged before approval", LEFT, flow.y - 8, { font: flow.fonts.semibold, size: 9, color: STEEL });
+    flow.text("Warnings acknowledged before approval", LEFT, flow.y - 8, {
+      font: flow.fonts.semibold,
+      size: 9,
+      color: STEEL,
+    });
     flow.y -= 14;
     const cols: Column[] = [
       { title: "Check", width: 140 },
@@ -1148,7 +1450,15 @@ function sequenceSection(flow: Flow, plan: PrintablePlan) {
     accent: s.holdPoint ? BRASS : undefined,
     cells: [
       cell(flow, cols[0]!.width, [{ text: `${i + 1}`, style: title }]),
-      cell(flow, cols[1]!.width, [{ text: s.title, style: title }, { text: s.notes, style: notes }], s.holdPoint ? { tag: { text: "HOLD POINT", tone: "hold" }, signoff: "Released by (name, time)" } : {}),
+      cell(
+        flow,
+        cols[1]!.width,
+        [
+          { text: s.title, style: title },
+          { text: s.notes, style: notes },
+        ],
+        s.holdPoint ? { tag: { text: "HOLD POINT", tone: "hold" }, signoff: "Released by (name, time)" } : {},
+      ),
     ],
   }));
   table(flow, cols, rows, "Lift sequence");
@@ -1181,10 +1491,18 @@ function siteSection(flow: Flow, plan: PrintablePlan) {
   const body = { font: flow.fonts.regular, size: 8.5, color: INK };
   const label = { font: flow.fonts.semibold, size: 8, color: STEEL };
   flow.paragraph("Exclusion zone", label, { gapAfter: 0 });
-  flow.paragraph(plan.details.exclusionZone.trim() || "Not stated: agree it at the briefing and write it here.", body, { gapAfter: 5 });
+  flow.paragraph(plan.details.exclusionZone.trim() || "Not stated: agree it at the briefing and write it here.", body, {
+    gapAfter: 5,
+  });
   flow.paragraph("Communication", label, { gapAfter: 0 });
-  flow.paragraph(plan.details.communication.trim() || "Not stated: agree it at the briefing and write it here.", body, { gapAfter: 5 });
-  flow.paragraph(`Floor clearance for the lift: ${formatLength(plan.details.floorClearanceM, plan.units)} under the load.`, body, { gapAfter: 6 });
+  flow.paragraph(plan.details.communication.trim() || "Not stated: agree it at the briefing and write it here.", body, {
+    gapAfter: 5,
+  });
+  flow.paragraph(
+    `Floor clearance for the lift: ${formatLength(plan.details.floorClearanceM, plan.units)} under the load.`,
+    body,
+    { gapAfter: 6 },
+  );
   const cols: Column[] = [
     { title: "Name", width: 200 },
     { title: "Role on the lift", width: CONTENT_W - 200 },
@@ -1197,7 +1515,10 @@ function siteSection(flow: Flow, plan: PrintablePlan) {
     flow,
     cols,
     plan.details.people.map((p) => ({
-      cells: [cell(flow, 200, [{ text: p.name, style: { ...body, font: flow.fonts.semibold } }]), cell(flow, CONTENT_W - 200, [{ text: PERSON_ROLE_LABELS[p.role], style: body }])],
+      cells: [
+        cell(flow, 200, [{ text: p.name, style: { ...body, font: flow.fonts.semibold } }]),
+        cell(flow, CONTENT_W - 200, [{ text: PERSON_ROLE_LABELS[p.role], style: body }]),
+      ],
     })),
     "People",
     { keepTogether: true },
@@ -1209,11 +1530,21 @@ const SIGNATORIES = ["Lift supervisor", "Slinger/signaller", "Crane operator"] a
 function checklistSection(flow: Flow) {
   const rowH = 20;
   const signH = 30;
-  heading(flow, 9, "Pre-lift checklist and sign-off", PRE_LIFT_CHECKLIST.length * rowH + 40 + SIGNATORIES.length * signH);
+  heading(
+    flow,
+    9,
+    "Pre-lift checklist and sign-off",
+    PRE_LIFT_CHECKLIST.length * rowH + 40 + SIGNATORIES.length * signH,
+  );
   const page = flow.page;
   const body = { font: flow.fonts.regular, size: 9, color: INK };
   const small = { font: flow.fonts.regular, size: 6.5, color: INK_SOFT };
-  flow.text("Tick each box on the day, before the lift. Do not lift until every box is ticked.", LEFT, flow.y - 9, small);
+  flow.text(
+    "Tick each box on the day, before the lift. Do not lift until every box is ticked.",
+    LEFT,
+    flow.y - 9,
+    small,
+  );
   flow.text("Initials", RIGHT - 60, flow.y - 9, small);
   flow.y -= 12;
   // The same list the rigger ticks on the lift page, so the paper and the screen agree.
@@ -1222,7 +1553,13 @@ function checklistSection(flow: Flow) {
     page.drawRectangle({ x: LEFT + 2, y: y + 5, width: 10, height: 10, borderColor: INK, borderWidth: 1 });
     flow.text(item, LEFT + 20, y + 7, body);
     const end = LEFT + 20 + flow.ts.width(flow.ts.clean(item), body.font, body.size) + 8;
-    page.drawLine({ start: { x: end, y: y + 6 }, end: { x: RIGHT - 70, y: y + 6 }, thickness: 0.3, color: RULE, dashArray: [1, 2] });
+    page.drawLine({
+      start: { x: end, y: y + 6 },
+      end: { x: RIGHT - 70, y: y + 6 },
+      thickness: 0.3,
+      color: RULE,
+      dashArray: [1, 2],
+    });
     page.drawLine({ start: { x: RIGHT - 60, y: y + 6 }, end: { x: RIGHT, y: y + 6 }, thickness: 0.6, color: INK_SOFT });
     flow.y = y;
   }
@@ -1239,7 +1576,13 @@ function checklistSection(flow: Flow) {
   for (const who of SIGNATORIES) {
     const y = flow.y - signH;
     flow.text(who, LEFT + 4, y + 10, { font: flow.fonts.semibold, size: 8.5, color: INK });
-    for (const c of cols.slice(1)) page.drawLine({ start: { x: c.x + 4, y: y + 8 }, end: { x: c.x + c.w - 6, y: y + 8 }, thickness: 0.7, color: INK });
+    for (const c of cols.slice(1))
+      page.drawLine({
+        start: { x: c.x + 4, y: y + 8 },
+        end: { x: c.x + c.w - 6, y: y + 8 },
+        thickness: 0.7,
+        color: INK,
+      });
     page.drawLine({ start: { x: LEFT, y }, end: { x: RIGHT, y }, thickness: 0.4, color: RULE });
     flow.y = y;
   }
@@ -1247,18 +1590,35 @@ function checklistSection(flow: Flow) {
 
 // ----- header and footer on every page -----
 
-function headerAndFooter(pdf: PDFDocument, pages: PDFPage[], fonts: Fonts, ts: Typesetter, plan: PrintablePlan, chrome: Chrome) {
+function headerAndFooter(
+  pdf: PDFDocument,
+  pages: PDFPage[],
+  fonts: Fonts,
+  ts: Typesetter,
+  plan: PrintablePlan,
+  chrome: Chrome,
+) {
   const n = pages.length;
   const { regular, semibold } = fonts;
   pages.forEach((page, i) => {
     const draw = (raw: string, x: number, y: number, style: Style, align: "left" | "right" | "center" = "left") => {
       const text = ts.clean(raw);
       const w = ts.width(text, style.font, style.size);
-      page.drawText(text, { x: align === "left" ? x : align === "right" ? x - w : x - w / 2, y, size: style.size, font: style.font, color: style.color });
+      page.drawText(text, {
+        x: align === "left" ? x : align === "right" ? x - w : x - w / 2,
+        y,
+        size: style.size,
+        font: style.font,
+        color: style.color,
+      });
     };
     // Header.
     let y = A4_HEIGHT_PT - MARGIN_TOP;
-    draw(ts.fit(plan.organisationName, semibold, 8, CONTENT_W - 120), LEFT, y - 8, { font: semibold, size: 8, color: STEEL });
+    draw(ts.fit(plan.organisationName, semibold, 8, CONTENT_W - 120), LEFT, y - 8, {
+      font: semibold,
+      size: 8,
+      color: STEEL,
+    });
     draw("LIFT PLAN", RIGHT, y - 8, { font: semibold, size: 8, color: BRASS }, "right");
     y -= 12;
     const tagText = chrome.statusTag;
@@ -1275,8 +1635,18 @@ function headerAndFooter(pdf: PDFDocument, pages: PDFPage[], fonts: Fonts, ts: T
 
     // Footer: the caution, then print details, fingerprint and page number.
     let fy = MARGIN_BOTTOM;
-    draw(`Printed ${utcText(plan.printedAt)} by ${plan.printedBy}`, LEFT, fy, { font: regular, size: 6.5, color: INK_SOFT });
-    draw(`Fingerprint ${plan.fingerprint.slice(0, 16)}…`, A4_WIDTH_PT / 2, fy, { font: regular, size: 6.5, color: INK_SOFT }, "center");
+    draw(`Printed ${utcText(plan.printedAt)} by ${plan.printedBy}`, LEFT, fy, {
+      font: regular,
+      size: 6.5,
+      color: INK_SOFT,
+    });
+    draw(
+      `Fingerprint ${plan.fingerprint.slice(0, 16)}…`,
+      A4_WIDTH_PT / 2,
+      fy,
+      { font: regular, size: 6.5, color: INK_SOFT },
+      "center",
+    );
     draw(`Page ${i + 1} of ${n}`, RIGHT, fy, { font: semibold, size: 7, color: INK }, "right");
     fy += 11;
     for (const line of [...chrome.cautionLines].reverse()) {
@@ -1290,7 +1660,15 @@ function headerAndFooter(pdf: PDFDocument, pages: PDFPage[], fonts: Fonts, ts: T
       const size = 72;
       const w = ts.width(word, semibold, size);
       const c = Math.cos(Math.PI / 4);
-      page.drawText(word, { x: A4_WIDTH_PT / 2 - (w / 2) * c + (size / 3) * c, y: A4_HEIGHT_PT / 2 - (w / 2) * c, size, font: semibold, color: TONE.fail, opacity: 0.12, rotate: degrees(45) });
+      page.drawText(word, {
+        x: A4_WIDTH_PT / 2 - (w / 2) * c + (size / 3) * c,
+        y: A4_HEIGHT_PT / 2 - (w / 2) * c,
+        size,
+        font: semibold,
+        color: TONE.fail,
+        opacity: 0.12,
+        rotate: degrees(45),
+      });
     }
   });
   void pdf;
@@ -1298,15 +1676,29 @@ function headerAndFooter(pdf: PDFDocument, pages: PDFPage[], fonts: Fonts, ts: T
 
 const CAUTION_SIZE = 7;
 
-type Chrome = { titleLines: string[]; metaLine: string; statusTag: string; statusTone: Tone; cautionLines: string[]; headerH: number; footerH: number };
+type Chrome = {
+  titleLines: string[];
+  metaLine: string;
+  statusTag: string;
+  statusTone: Tone;
+  cautionLines: string[];
+  headerH: number;
+  footerH: number;
+};
 
 function chromeFor(plan: PrintablePlan, fonts: Fonts, ts: Typesetter): Chrome {
   const statusTag = statusWords(plan.status).toUpperCase();
   const tagW = tagWidth(ts, fonts.semibold, statusTag, 8);
   const titleW = CONTENT_W - tagW - 12;
   let titleLines = ts.wrap(plan.title, fonts.semibold, 12, titleW);
-  if (titleLines.length > 2) titleLines = [titleLines[0]!, ts.fit(titleLines.slice(1).join(" "), fonts.semibold, 12, titleW)];
-  const metaLine = ts.fit(`Job ${plan.job.workOrder} · ${plan.site.name} · Revision ${plan.revision} · ${statusWords(plan.status)}`, fonts.regular, 8, CONTENT_W);
+  if (titleLines.length > 2)
+    titleLines = [titleLines[0]!, ts.fit(titleLines.slice(1).join(" "), fonts.semibold, 12, titleW)];
+  const metaLine = ts.fit(
+    `Job ${plan.job.workOrder} · ${plan.site.name} · Revision ${plan.revision} · ${statusWords(plan.status)}`,
+    fonts.regular,
+    8,
+    CONTENT_W,
+  );
   const cautionLines = ts.wrap(PLAN_CAUTION, fonts.regular, CAUTION_SIZE, CONTENT_W);
   const statusTone: Tone = plan.status === "approved" ? "pass" : plan.status === "completed" ? "neutral" : "fail";
   const headerH = 12 + titleLines.length * 14 + 11 + 5;
@@ -1322,11 +1714,25 @@ export async function buildPlanPdf(plan: PrintablePlan): Promise<Uint8Array> {
   const pdf = await PDFDocument.create();
   pdf.registerFontkit(cachingFontkit);
   const [regular, semibold] = await Promise.all([
-    pdf.embedFont(files.regular, { subset: true, features: PLAIN_GLYPHS, customName: subsetName(plan.fingerprint, "Barlow-Regular") }),
-    pdf.embedFont(files.semibold, { subset: true, features: PLAIN_GLYPHS, customName: subsetName(plan.fingerprint, "Barlow-SemiBold") }),
+    pdf.embedFont(files.regular, {
+      subset: true,
+      features: PLAIN_GLYPHS,
+      customName: subsetName(plan.fingerprint, "Barlow-Regular"),
+    }),
+    pdf.embedFont(files.semibold, {
+      subset: true,
+      features: PLAIN_GLYPHS,
+      customName: subsetName(plan.fingerprint, "Barlow-SemiBold"),
+    }),
   ]);
   const fonts = { regular, semibold };
-  const ts = new Typesetter(files.codePoints, new Map([[regular, files.regular], [semibold, files.semibold]]));
+  const ts = new Typesetter(
+    files.codePoints,
+    new Map([
+      [regular, files.regular],
+      [semibold, files.semibold],
+    ]),
+  );
   const qrPng = await QRCode.toBuffer(plan.verifyUrl, { errorCorrectionLevel: "M", margin: 2, scale: 6 });
   const qr = await pdf.embedPng(qrPng);
 

@@ -29,7 +29,8 @@ async function writePdf(name: string, plan: PrintablePlan) {
 }
 
 const pageCount = (file: string) => Number(/Pages:\s+(\d+)/.exec(run("pdfinfo", [file]))![1]);
-const pageText = (file: string, page: number) => run("pdftotext", ["-layout", "-f", String(page), "-l", String(page), file, "-"]);
+const pageText = (file: string, page: number) =>
+  run("pdftotext", ["-layout", "-f", String(page), "-l", String(page), file, "-"]);
 const allText = (file: string) => run("pdftotext", ["-layout", file, "-"]);
 /** Text with every run of white space made one space, so wrapped sentences can be matched whole. */
 const flat = (text: string) => text.replace(/\s+/g, " ");
@@ -41,9 +42,15 @@ function wordBoxes(file: string) {
   return pages.map(([, w, h, body]) => ({
     width: Number(w),
     height: Number(h),
-    words: [...body!.matchAll(/xMin="([\d.-]+)" yMin="([\d.-]+)" xMax="([\d.-]+)" yMax="([\d.-]+)">([^<]*)</g)].map((m) => ({
-      xMin: Number(m[1]), yMin: Number(m[2]), xMax: Number(m[3]), yMax: Number(m[4]), text: m[5]!,
-    })),
+    words: [...body!.matchAll(/xMin="([\d.-]+)" yMin="([\d.-]+)" xMax="([\d.-]+)" yMax="([\d.-]+)">([^<]*)</g)].map(
+      (m) => ({
+        xMin: Number(m[1]),
+        yMin: Number(m[2]),
+        xMax: Number(m[3]),
+        yMax: Number(m[4]),
+        text: m[5]!,
+      }),
+    ),
   }));
 }
 
@@ -155,7 +162,10 @@ describe("the printed plan of a typical lift (two legs, Furley Engineering 'Slin
   });
 
   it("embeds Barlow as subsets (a six-letter tag and '+' before the name)", () => {
-    const rows = run("pdffonts", [file]).split("\n").slice(2).filter((l) => l.trim() !== "");
+    const rows = run("pdffonts", [file])
+      .split("\n")
+      .slice(2)
+      .filter((l) => l.trim() !== "");
     expect(rows.length).toBe(2);
     for (const row of rows) {
       const [name, , , , emb, sub] = row.split(/\s+/);
@@ -169,7 +179,11 @@ describe("the printed plan of a typical lift (two legs, Furley Engineering 'Slin
     const prefix = path.join(dir, "page");
     run("pdftoppm", ["-r", "150", "-png", "-f", "1", "-l", "1", file, prefix]);
     const png = PNG.sync.read(fs.readFileSync(`${prefix}-1.png`));
-    const code = jsQR(new Uint8ClampedArray(png.data.buffer, png.data.byteOffset, png.data.length), png.width, png.height);
+    const code = jsQR(
+      new Uint8ClampedArray(png.data.buffer, png.data.byteOffset, png.data.length),
+      png.width,
+      png.height,
+    );
     expect(code?.data).toBe(plan.verifyUrl);
   });
 
@@ -226,7 +240,13 @@ describe("a long plan (40 steps, 30 hazards, 25 schedule rows)", () => {
 describe("what the print says in particular cases", () => {
   it("says so when the planner approved their own plan", async () => {
     const plan = printablePlanFixture({
-      approval: { name: "Priya Nandakumar", role: "Appointed person", approvedAt: "2025-05-12T08:40:00.000Z", comment: "", selfApproved: true },
+      approval: {
+        name: "Priya Nandakumar",
+        role: "Appointed person",
+        approvedAt: "2025-05-12T08:40:00.000Z",
+        comment: "",
+        selfApproved: true,
+      },
     });
     const { file } = await writePdf("self", plan);
     const t = flat(allText(file));
@@ -239,17 +259,33 @@ describe("what the print says in particular cases", () => {
   it("rounds a utilisation of 0.8701 up to 88 %, never down", async () => {
     const base = printablePlanFixture();
     const plan = printablePlanFixture({
-      schedule: [...base.schedule, { position: "Spare leg", itemCode: "NW-ROUND-01", description: "Bow shackle 2 t", wllKg: 2000, loadKg: 1740.2, utilisation: 0.8701, nextDueOn: "2025-09-15" }],
+      schedule: [
+        ...base.schedule,
+        {
+          position: "Spare leg",
+          itemCode: "NW-ROUND-01",
+          description: "Bow shackle 2 t",
+          wllKg: 2000,
+          loadKg: 1740.2,
+          utilisation: 0.8701,
+          nextDueOn: "2025-09-15",
+        },
+      ],
     });
     const { file } = await writePdf("rounding", plan);
-    const row = allText(file).split("\n").find((l) => l.includes("NW-ROUND-01"));
+    const row = allText(file)
+      .split("\n")
+      .find((l) => l.includes("NW-ROUND-01"));
     expect(flat(row!)).toContain("2,000 kg 1,741 kg 88 % 2025-09-15");
   });
 
   it("prints characters the font lacks as plain stand-ins and keeps ° and ×", async () => {
     const odd = "Angle 12° · 2 × M20 → skid ≤ ½ t Σ loads 🙂";
     expect(printableText(odd)).toBe("Angle 12° · 2 × M20 -> skid ≤ ½ t sum  loads ?");
-    const plan = printablePlanFixture({ title: odd, details: { ...printablePlanFixture().details, exclusionZone: odd } });
+    const plan = printablePlanFixture({
+      title: odd,
+      details: { ...printablePlanFixture().details, exclusionZone: odd },
+    });
     const { file } = await writePdf("glyphs", plan);
     const t = flat(allText(file));
     expect(t).toContain("Angle 12° · 2 × M20 -> skid ≤ ½ t sum loads ?");
@@ -276,7 +312,9 @@ describe("what the print says in particular cases", () => {
     const { file } = await writePdf("superseded", printablePlanFixture({ status: "superseded" }));
     const pages = pageCount(file);
     for (let i = 1; i <= pages; i++) expect(flat(pageText(file, i)), `page ${i}`).toContain("SUPERSEDED: NOT FOR USE");
-    expect(flat(allText(file))).toContain("A later revision has replaced this one: do not use this print for the lift.");
+    expect(flat(allText(file))).toContain(
+      "A later revision has replaced this one: do not use this print for the lift.",
+    );
   });
 
   it("prints imperial units for an imperial user", async () => {
@@ -290,11 +328,25 @@ describe("what the print says in particular cases", () => {
   it("draws a beam lift: vertical drops, the beam and its top leg", async () => {
     const base = printablePlanFixture();
     const drop = (id: string, kg: number, share: number) => ({
-      liftPointId: id, lengthM: 0.6, tensionKn: (kg * 9.80665) / 1000, tensionKg: kg, angleFromVerticalDeg: 0, axisAngleDeg: 0, verticalShare: share, slack: false,
+      liftPointId: id,
+      lengthM: 0.6,
+      tensionKn: (kg * 9.80665) / 1000,
+      tensionKg: kg,
+      angleFromVerticalDeg: 0,
+      axisAngleDeg: 0,
+      verticalShare: share,
+      slack: false,
     });
     // Lever rule for vertical drops (common practice): A is 200 mm and B 800 mm from the CoG, so A takes 800/1000 of 2,000 kg.
     const plan = printablePlanFixture({
-      arrangement: { kind: "beam", mode: "level", hookHeightM: 2.6, legLengthsM: {}, liftPointLabels: ["A", "B"], beam: { massKg: 120, wllKg: 5000, lengthM: 1.5, dropLengthM: 0.6 } },
+      arrangement: {
+        kind: "beam",
+        mode: "level",
+        hookHeightM: 2.6,
+        legLengthsM: {},
+        liftPointLabels: ["A", "B"],
+        beam: { massKg: 120, wllKg: 5000, lengthM: 1.5, dropLengthM: 0.6 },
+      },
       results: {
         ...base.results,
         hook: { x: 0, y: 0, z: 2.6 },

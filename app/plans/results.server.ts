@@ -6,7 +6,15 @@ import type { ComponentDefinition } from "~/loads/component-definition";
 import { GearItem } from "~/models/gear-item.server";
 import { getReferenceTables } from "~/models/reference-row.server";
 import type { GearKind } from "~/gear/kinds";
-import type { Arrangement, PlanDetails, PlanIssue, PlanLeg, PlanResults, PlanResultsBody, RiggingAllocation } from "~/plans/document";
+import type {
+  Arrangement,
+  PlanDetails,
+  PlanIssue,
+  PlanLeg,
+  PlanResults,
+  PlanResultsBody,
+  RiggingAllocation,
+} from "~/plans/document";
 import { handleSolve, type SolveBody } from "~/statics/api";
 import { solveBeamLift } from "~/statics/beam";
 import type { LiftPoint } from "~/statics/bridle";
@@ -38,17 +46,27 @@ const SLING_KINDS: Partial<Record<GearKind, SlingSpec["kind"]>> = {
 };
 const CRANE_KINDS: readonly GearKind[] = ["crane", "hoist", "chain_block", "lever_hoist"];
 
-type Slot = { path: Array<string | number>; itemId: number; role: "eyebolt" | "shackle" | "sling" | "master link" | "crane or hoist"; leg?: string };
+type Slot = {
+  path: Array<string | number>;
+  itemId: number;
+  role: "eyebolt" | "shackle" | "sling" | "master link" | "crane or hoist";
+  leg?: string;
+};
 
 function slotsOf(rigging: RiggingAllocation): Slot[] {
   const slots: Slot[] = [];
   for (const [leg, r] of Object.entries(rigging.legs)) {
-    if (r.eyeboltItemId !== undefined) slots.push({ path: ["rigging", "legs", leg, "eyeboltItemId"], itemId: r.eyeboltItemId, role: "eyebolt", leg });
-    if (r.shackleItemId !== undefined) slots.push({ path: ["rigging", "legs", leg, "shackleItemId"], itemId: r.shackleItemId, role: "shackle", leg });
-    if (r.slingItemId !== undefined) slots.push({ path: ["rigging", "legs", leg, "slingItemId"], itemId: r.slingItemId, role: "sling", leg });
+    if (r.eyeboltItemId !== undefined)
+      slots.push({ path: ["rigging", "legs", leg, "eyeboltItemId"], itemId: r.eyeboltItemId, role: "eyebolt", leg });
+    if (r.shackleItemId !== undefined)
+      slots.push({ path: ["rigging", "legs", leg, "shackleItemId"], itemId: r.shackleItemId, role: "shackle", leg });
+    if (r.slingItemId !== undefined)
+      slots.push({ path: ["rigging", "legs", leg, "slingItemId"], itemId: r.slingItemId, role: "sling", leg });
   }
-  if (rigging.masterLinkItemId !== undefined) slots.push({ path: ["rigging", "masterLinkItemId"], itemId: rigging.masterLinkItemId, role: "master link" });
-  if (rigging.craneItemId !== undefined) slots.push({ path: ["rigging", "craneItemId"], itemId: rigging.craneItemId, role: "crane or hoist" });
+  if (rigging.masterLinkItemId !== undefined)
+    slots.push({ path: ["rigging", "masterLinkItemId"], itemId: rigging.masterLinkItemId, role: "master link" });
+  if (rigging.craneItemId !== undefined)
+    slots.push({ path: ["rigging", "craneItemId"], itemId: rigging.craneItemId, role: "crane or hoist" });
   return slots;
 }
 
@@ -70,7 +88,11 @@ function fitsRole(kind: GearKind, role: Slot["role"]): boolean {
 }
 
 /** The organisation's gear items named by the allocation (other organisations' items are simply not found). */
-export async function loadAllocatedGear(organisationId: number, rigging: RiggingAllocation, transaction?: Transaction): Promise<Map<number, GearItem>> {
+export async function loadAllocatedGear(
+  organisationId: number,
+  rigging: RiggingAllocation,
+  transaction?: Transaction,
+): Promise<Map<number, GearItem>> {
   const ids = [...new Set(slotsOf(rigging).map((s) => s.itemId))];
   if (ids.length === 0) return new Map();
   const items = await GearItem.findAll({ where: { organisationId, id: { [Op.in]: ids } }, transaction });
@@ -84,11 +106,17 @@ export function allocationIssues(rigging: RiggingAllocation, items: ReadonlyMap<
   for (const slot of slotsOf(rigging)) {
     const item = items.get(slot.itemId);
     if (!item) {
-      issues.push({ path: slot.path, message: `There is no gear item ${slot.itemId} in your organisation's register.` });
+      issues.push({
+        path: slot.path,
+        message: `There is no gear item ${slot.itemId} in your organisation's register.`,
+      });
       continue;
     }
     if (!fitsRole(item.kind, slot.role)) {
-      issues.push({ path: slot.path, message: `${item.itemCode} is ${withArticle(item.kind.replace(/_/g, " "))}, not ${withArticle(slot.role)}.` });
+      issues.push({
+        path: slot.path,
+        message: `${item.itemCode} is ${withArticle(item.kind.replace(/_/g, " "))}, not ${withArticle(slot.role)}.`,
+      });
       continue;
     }
     uses.set(item.id, [...(uses.get(item.id) ?? []), slot]);
@@ -126,7 +154,11 @@ function neverExamined(item: GearItem, name: string): CheckResult {
   };
 }
 
-type Described = { description: RiggingDescription; extraChecks: CheckResult[]; notes: Array<{ code: string; message: string }> };
+type Described = {
+  description: RiggingDescription;
+  extraChecks: CheckResult[];
+  notes: Array<{ code: string; message: string }>;
+};
 
 /**
  * The rigging description the checks take, from the allocated items: marked WLLs in kg, eyebolt
@@ -142,7 +174,11 @@ export function describeRigging(
 ): Described {
   const extraChecks: CheckResult[] = [];
   const notes: Described["notes"] = [];
-  const withInspection = <T extends object>(spec: T, item: GearItem, name: string): T & { inspection?: InspectionRecord } => {
+  const withInspection = <T extends object>(
+    spec: T,
+    item: GearItem,
+    name: string,
+  ): T & { inspection?: InspectionRecord } => {
     const inspection = inspectionOf(item);
     if (!inspection) {
       extraChecks.push(neverExamined(item, name));
@@ -156,7 +192,11 @@ export function describeRigging(
     const eyebolt = r.eyeboltItemId !== undefined ? items.get(r.eyeboltItemId) : undefined;
     if (eyebolt) {
       out.eyebolt = withInspection(
-        { family: (eyebolt.eyeboltFamily ?? "plain") as EyeboltFamily, thread: eyebolt.thread ?? "", wllKg: eyebolt.wllKg },
+        {
+          family: (eyebolt.eyeboltFamily ?? "plain") as EyeboltFamily,
+          thread: eyebolt.thread ?? "",
+          wllKg: eyebolt.wllKg,
+        },
         eyebolt,
         `Eyebolt at ${leg}`,
       );
@@ -164,12 +204,12 @@ export function describeRigging(
     const shackle = r.shackleItemId !== undefined ? items.get(r.shackleItemId) : undefined;
     if (shackle) {
       const pin = shackle.pinType === "screw" || shackle.pinType === "bolt" ? shackle.pinType : undefined;
-      const shackleSpec: ShackleSpec = { type: shackle.shackleType === "dee" ? "dee" : "bow", wllKg: shackle.wllKg, ...(pin ? { pin } : {}) };
-      out.shackle = withInspection(
-        shackleSpec,
-        shackle,
-        `Shackle at ${leg}`,
-      );
+      const shackleSpec: ShackleSpec = {
+        type: shackle.shackleType === "dee" ? "dee" : "bow",
+        wllKg: shackle.wllKg,
+        ...(pin ? { pin } : {}),
+      };
+      out.shackle = withInspection(shackleSpec, shackle, `Shackle at ${leg}`);
     }
     const sling = r.slingItemId !== undefined ? items.get(r.slingItemId) : undefined;
     const slingKind = sling ? SLING_KINDS[sling.kind] : undefined;
@@ -209,9 +249,13 @@ export function describeRigging(
   if (link) description.masterLink = withInspection({ wllKg: link.wllKg }, link, "Master link");
   const crane = rigging.craneItemId !== undefined ? items.get(rigging.craneItemId) : undefined;
   if (crane) {
-    const spec: CraneSpec = { swlKg: crane.wllKg, ...(crane.hookHeightM !== null ? { maxHookHeightM: crane.hookHeightM } : {}) };
+    const spec: CraneSpec = {
+      swlKg: crane.wllKg,
+      ...(crane.hookHeightM !== null ? { maxHookHeightM: crane.hookHeightM } : {}),
+    };
     description.crane = withInspection(spec, crane, "Crane or hoist");
-    if (details) description.headroom = { clearanceAboveFloorM: details.floorClearanceM, loadUndersideZM: undersideZ(snapshot) };
+    if (details)
+      description.headroom = { clearanceAboveFloorM: details.floorClearanceM, loadUndersideZM: undersideZ(snapshot) };
   }
   return { description, extraChecks, notes };
 }
@@ -223,7 +267,11 @@ function undersideZ(snapshot: ComponentDefinition): number {
 }
 
 /** The /api/solve body for a bridle arrangement of the snapshot. */
-export function buildSolveBody(snapshot: ComponentDefinition, arrangement: Arrangement, rigging: RiggingDescription): unknown {
+export function buildSolveBody(
+  snapshot: ComponentDefinition,
+  arrangement: Arrangement,
+  rigging: RiggingDescription,
+): unknown {
   const byLabel = new Map(snapshot.liftPoints.map((p) => [p.label, p]));
   const liftPoints = arrangement.liftPointLabels.map((label) => {
     const p = byLabel.get(label);
@@ -235,7 +283,9 @@ export function buildSolveBody(snapshot: ComponentDefinition, arrangement: Arran
     liftPoints,
     ...(arrangement.mode === "level"
       ? { hook: { z: arrangement.hookHeightM } }
-      : { legLengths: Object.fromEntries(arrangement.liftPointLabels.map((l) => [l, arrangement.legLengthsM[l] ?? 0])) }),
+      : {
+          legLengths: Object.fromEntries(arrangement.liftPointLabels.map((l) => [l, arrangement.legLengthsM[l] ?? 0])),
+        }),
     rigging,
   } satisfies Partial<Record<keyof SolveBody, unknown>>;
 }
@@ -272,7 +322,11 @@ export async function computePlanResults(
   }
   const solved = handleSolve(buildSolveBody(snapshot, arrangement, description), tables, { todayIso });
   if (solved.status !== 200) return { ...base, ...solved };
-  const body: PlanResultsBody = { ...solved.body, warnings: [...solved.body.warnings, ...notes], checks: uniqueById([...(solved.body.checks ?? []), ...extraChecks]) };
+  const body: PlanResultsBody = {
+    ...solved.body,
+    warnings: [...solved.body.warnings, ...notes],
+    checks: uniqueById([...(solved.body.checks ?? []), ...extraChecks]),
+  };
   return { ...base, status: 200, body };
 }
 
@@ -300,11 +354,17 @@ function beamResults(
     const n = Math.hypot(p.axis.x, p.axis.y, p.axis.z) || 1;
     return { id: p.label, position: p.position, axis: { x: p.axis.x / n, y: p.axis.y / n, z: p.axis.z / n } };
   });
-  const span = Math.max(0, ...points.flatMap((a) => points.map((b) => Math.hypot(a.position.x - b.position.x, a.position.y - b.position.y))));
+  const span = Math.max(
+    0,
+    ...points.flatMap((a) => points.map((b) => Math.hypot(a.position.x - b.position.x, a.position.y - b.position.y))),
+  );
   if (span > beam.lengthM + 1e-6) {
     return {
       status: 422,
-      body: { code: "BEAM_TOO_SHORT", error: `The lift points are ${Math.round(span * 1000)} mm apart but the beam is ${Math.round(beam.lengthM * 1000)} mm long: use a longer beam or other lift points.` },
+      body: {
+        code: "BEAM_TOO_SHORT",
+        error: `The lift points are ${Math.round(span * 1000)} mm apart but the beam is ${Math.round(beam.lengthM * 1000)} mm long: use a longer beam or other lift points.`,
+      },
     };
   }
   // The beam hangs level with its drops; its lug is set plumb over the load's CoG (an adjustable lifting beam).
@@ -312,12 +372,22 @@ function beamResults(
   if (!(arrangement.hookHeightM > beamZ + 1e-6)) {
     return {
       status: 422,
-      body: { code: "HOOK_BELOW_BEAM", error: `The hook must be above the beam's lug at ${Math.round(beamZ * 1000)} mm (component frame): raise the hook height.` },
+      body: {
+        code: "HOOK_BELOW_BEAM",
+        error: `The hook must be above the beam's lug at ${Math.round(beamZ * 1000)} mm (component frame): raise the hook height.`,
+      },
     };
   }
   const dropLengths = points.map((p) => beamZ - p.position.z);
   const lug = { x: snapshot.cog.x, y: snapshot.cog.y, z: beamZ };
-  const outcome = solveBeamLift(snapshot.massKg, snapshot.cog, points, { massKg: beam.massKg, cog: lug, topLugs: [lug] }, arrangement.hookHeightM, dropLengths);
+  const outcome = solveBeamLift(
+    snapshot.massKg,
+    snapshot.cog,
+    points,
+    { massKg: beam.massKg, cog: lug, topLugs: [lug] },
+    arrangement.hookHeightM,
+    dropLengths,
+  );
   if (!outcome.ok) return { status: 422, body: { error: outcome.message, code: outcome.code } };
   const s = outcome.solution;
   const factor = contingencyFactor(rigging.contingencyPct);
@@ -345,12 +415,14 @@ function beamResults(
     }
     if (lr?.shackle) {
       checks.push(checkShackle(leg.liftPointId, loadKg, lr.shackle, tables));
-      if (lr.shackle.inspection) inspections.push({ name: `Shackle at ${leg.liftPointId}`, record: lr.shackle.inspection });
+      if (lr.shackle.inspection)
+        inspections.push({ name: `Shackle at ${leg.liftPointId}`, record: lr.shackle.inspection });
     }
     if (lr?.eyebolt) {
       const thread = byLabel.get(leg.liftPointId)?.thread || undefined;
       checks.push(checkEyebolt(leg.liftPointId, loadKg, leg.axisAngleDeg, lr.eyebolt, thread, tables));
-      if (lr.eyebolt.inspection) inspections.push({ name: `Eyebolt at ${leg.liftPointId}`, record: lr.eyebolt.inspection });
+      if (lr.eyebolt.inspection)
+        inspections.push({ name: `Eyebolt at ${leg.liftPointId}`, record: lr.eyebolt.inspection });
     }
   }
   const designLoadKg = snapshot.massKg * factor;
@@ -413,7 +485,11 @@ function beamResults(
       maxAngleFromVerticalDeg: 0,
       rule: "Vertical drops from a beam: lever rule for two drops, elastic share of a rigid load for more.",
       source: "common practice",
-      legs: legs.map((l) => ({ liftPointId: l.liftPointId, designTensionKn: l.tensionKn, designTensionKg: l.tensionKg })),
+      legs: legs.map((l) => ({
+        liftPointId: l.liftPointId,
+        designTensionKn: l.tensionKn,
+        designTensionKg: l.tensionKg,
+      })),
       designTensionKn: (maxKg * STANDARD_GRAVITY_MS2) / 1000,
       designTensionKg: maxKg,
     },

@@ -1,7 +1,14 @@
 // Gear as the plan editor offers and allocates it, and the rigging description the checks take,
 // assembled from an allocation. Pure and shared: the server makes the picks from its register.
 import type { RiggingAllocation } from "~/plans/document";
-import type { CraneSpec, EyeboltSpec, InspectionRecord, RiggingDescription, ShackleSpec, SlingSpec } from "~/statics/checks";
+import type {
+  CraneSpec,
+  EyeboltSpec,
+  InspectionRecord,
+  RiggingDescription,
+  ShackleSpec,
+  SlingSpec,
+} from "~/statics/checks";
 
 export type GearRole = "eyebolt" | "shackle" | "sling" | "masterLink" | "crane";
 
@@ -55,17 +62,22 @@ export function assembleRigging(
     const shackle = leg.shackleItemId !== undefined ? picks.get(leg.shackleItemId) : undefined;
     if (shackle?.spec.role === "shackle") out.shackle = { ...shackle.spec.shackle, inspection: inspection(shackle) };
     const sling = leg.slingItemId !== undefined ? picks.get(leg.slingItemId) : undefined;
-    if (sling?.spec.role === "sling") out.sling = { ...sling.spec.sling, hitch: leg.hitch, inspection: inspection(sling) };
+    if (sling?.spec.role === "sling")
+      out.sling = { ...sling.spec.sling, hitch: leg.hitch, inspection: inspection(sling) };
     legs[label] = out;
   }
   const description: RiggingDescription = { legs, contingencyPct: options.contingencyPct };
   const link = allocation.masterLinkItemId !== undefined ? picks.get(allocation.masterLinkItemId) : undefined;
-  if (link?.spec.role === "masterLink") description.masterLink = { ...link.spec.masterLink, inspection: inspection(link) };
+  if (link?.spec.role === "masterLink")
+    description.masterLink = { ...link.spec.masterLink, inspection: inspection(link) };
   const crane = allocation.craneItemId !== undefined ? picks.get(allocation.craneItemId) : undefined;
   if (crane?.spec.role === "crane") {
     description.crane = { ...crane.spec.crane, inspection: inspection(crane) };
     if (options.floorClearanceM !== undefined) {
-      description.headroom = { clearanceAboveFloorM: options.floorClearanceM, loadUndersideZM: options.loadUndersideZM ?? 0 };
+      description.headroom = {
+        clearanceAboveFloorM: options.floorClearanceM,
+        loadUndersideZM: options.loadUndersideZM ?? 0,
+      };
     }
   }
   return description;

@@ -3,7 +3,14 @@ import { PLAN_STATUSES, type PlanStatus } from "~/plans/document";
 import { permission, WORKFLOW_ACTIONS, type WorkflowAction, type WorkflowContext } from "~/plans/workflow";
 import { ROLES, type Role } from "~/utils/roles";
 
-const base: WorkflowContext = { status: "draft", roles: [], isOwnPlan: false, allowSelfApproval: false, isCurrentApproved: false, hasNewerRevision: false };
+const base: WorkflowContext = {
+  status: "draft",
+  roles: [],
+  isOwnPlan: false,
+  allowSelfApproval: false,
+  isCurrentApproved: false,
+  hasNewerRevision: false,
+};
 
 function ctx(status: PlanStatus, roles: Role[], extra: Partial<WorkflowContext> = {}): WorkflowContext {
   return { ...base, status, roles, isCurrentApproved: status === "approved", ...extra };
@@ -38,7 +45,10 @@ describe("the plan workflow", () => {
   it("nobody approves a plan they planned, unless the organisation allows it", () => {
     const own = ctx("in_review", ["approver", "planner"], { isOwnPlan: true });
     const refused = permission("approve", own);
-    expect(refused).toEqual({ allowed: false, reason: "You planned this revision: another appointed person must approve it." });
+    expect(refused).toEqual({
+      allowed: false,
+      reason: "You planned this revision: another appointed person must approve it.",
+    });
     expect(permission("approve", { ...own, allowSelfApproval: true }).allowed).toBe(true);
     expect(permission("return", own).allowed).toBe(true);
   });

@@ -3,7 +3,17 @@
 import type { PlanStatus } from "~/plans/document";
 import type { Role } from "~/utils/roles";
 
-export const WORKFLOW_ACTIONS = ["edit", "submit", "approve", "return", "new-revision", "cancel", "assign-rigger", "record-lift", "print"] as const;
+export const WORKFLOW_ACTIONS = [
+  "edit",
+  "submit",
+  "approve",
+  "return",
+  "new-revision",
+  "cancel",
+  "assign-rigger",
+  "record-lift",
+  "print",
+] as const;
 export type WorkflowAction = (typeof WORKFLOW_ACTIONS)[number];
 
 export type WorkflowContext = {
@@ -34,11 +44,16 @@ export function permission(action: WorkflowAction, ctx: WorkflowContext): Permis
     case "edit":
     case "submit":
       if (!hasRole(ctx, "planner", "admin")) return no("Only a planner (or admin) changes and submits plans.");
-      return editable ? yes : no(`The revision is ${ctx.status.replace("_", " ")}: only a draft or a returned revision can be changed or submitted.`);
+      return editable
+        ? yes
+        : no(
+            `The revision is ${ctx.status.replace("_", " ")}: only a draft or a returned revision can be changed or submitted.`,
+          );
     case "approve":
       if (!hasRole(ctx, "approver")) return no("Only an appointed person approves plans.");
       if (ctx.status !== "in_review") return no("Only a revision in review can be approved.");
-      if (ctx.isOwnPlan && !ctx.allowSelfApproval) return no("You planned this revision: another appointed person must approve it.");
+      if (ctx.isOwnPlan && !ctx.allowSelfApproval)
+        return no("You planned this revision: another appointed person must approve it.");
       return yes;
     case "return":
       if (!hasRole(ctx, "approver")) return no("Only an appointed person returns plans.");
@@ -49,15 +64,22 @@ export function permission(action: WorkflowAction, ctx: WorkflowContext): Permis
       return ctx.hasNewerRevision ? no("A newer revision is already being worked on.") : yes;
     case "cancel":
       if (!hasRole(ctx, "planner", "admin")) return no("Only a planner (or admin) cancels a plan.");
-      return ["completed", "cancelled", "superseded"].includes(ctx.status) ? no(`The revision is ${ctx.status}; there is nothing to cancel.`) : yes;
+      return ["completed", "cancelled", "superseded"].includes(ctx.status)
+        ? no(`The revision is ${ctx.status}; there is nothing to cancel.`)
+        : yes;
     case "assign-rigger":
-      if (!hasRole(ctx, "approver", "planner", "admin")) return no("The appointed person or the planner assigns the rigger.");
+      if (!hasRole(ctx, "approver", "planner", "admin"))
+        return no("The appointed person or the planner assigns the rigger.");
       return ctx.isCurrentApproved ? yes : no("A rigger is assigned to the current approved revision.");
     case "record-lift":
       if (!hasRole(ctx, "rigger")) return no("The rigger records the lift.");
       return ctx.isCurrentApproved ? yes : no("Only the current approved revision can be lifted and recorded.");
     case "print":
-      return ctx.isCurrentApproved ? yes : no("Only the current approved revision can be printed: a draft, superseded, completed or cancelled revision cannot.");
+      return ctx.isCurrentApproved
+        ? yes
+        : no(
+            "Only the current approved revision can be printed: a draft, superseded, completed or cancelled revision cannot.",
+          );
   }
 }
 

@@ -18,7 +18,9 @@ export async function loader({ request }: Route.LoaderArgs) {
     .filter((j) => j.status === "open")
     .map((j) => ({ id: j.id, workOrder: j.workOrder, title: j.title, site: j.site?.name ?? "", startsOn: j.startsOn }));
   const pendingInvites = user.roles.includes("admin")
-    ? (await listOrganisationUsers(user.organisationId)).filter((u) => u.active && !u.hasPassword).map((u) => ({ id: u.id, name: u.name, email: u.email }))
+    ? (await listOrganisationUsers(user.organisationId))
+        .filter((u) => u.active && !u.hasPassword)
+        .map((u) => ({ id: u.id, name: u.name, email: u.email }))
     : [];
   const roles = user.roles;
   return {
@@ -63,11 +65,17 @@ export default function Dashboard({ loaderData }: Route.ComponentProps) {
   const roles = user.roles;
   return (
     <>
-      <PageHeader title={`Good to see you, ${user.name.split(" ")[0]}`} lead={`${roles.map((r) => ROLE_LABELS[r]).join(", ")} at ${user.organisationName}`} />
+      <PageHeader
+        title={`Good to see you, ${user.name.split(" ")[0]}`}
+        lead={`${roles.map((r) => ROLE_LABELS[r]).join(", ")} at ${user.organisationName}`}
+      />
       <div className="grid gap-6 md:grid-cols-2">
         {roles.includes("planner") && (
           <Card title="For the planner: plans in hand">
-            <PlanList rows={drafts} empty={<EmptyState title="No drafts">Open a job and plan a lift from one of your components.</EmptyState>} />
+            <PlanList
+              rows={drafts}
+              empty={<EmptyState title="No drafts">Open a job and plan a lift from one of your components.</EmptyState>}
+            />
           </Card>
         )}
         {roles.includes("planner") && (
@@ -97,7 +105,11 @@ export default function Dashboard({ loaderData }: Route.ComponentProps) {
           <Card title="For the appointed person: plans to review">
             <PlanList
               rows={toReview}
-              empty={<EmptyState title="Nothing waiting for review">Plans submitted by planners wait here for your check and approval.</EmptyState>}
+              empty={
+                <EmptyState title="Nothing waiting for review">
+                  Plans submitted by planners wait here for your check and approval.
+                </EmptyState>
+              }
             />
           </Card>
         )}
@@ -107,7 +119,8 @@ export default function Dashboard({ loaderData }: Route.ComponentProps) {
               rows={lifts.mine}
               empty={
                 <EmptyState title="No approved lifts assigned to you">
-                  When an appointed person approves a plan and assigns you, it appears here to print and take to the lift.
+                  When an appointed person approves a plan and assigns you, it appears here to print and take to the
+                  lift.
                 </EmptyState>
               }
             />
@@ -133,7 +146,9 @@ export default function Dashboard({ loaderData }: Route.ComponentProps) {
                 {dueGear.map((g) => (
                   <li key={g.id}>
                     <a href={`/gear/${g.id}`}>{g.itemCode}</a> {g.description}{" "}
-                    <span className={g.overdue ? "font-semibold text-fail" : "text-warn"}>{g.overdue ? `OVERDUE since ${g.nextDueOn}` : `due ${g.nextDueOn}`}</span>
+                    <span className={g.overdue ? "font-semibold text-fail" : "text-warn"}>
+                      {g.overdue ? `OVERDUE since ${g.nextDueOn}` : `due ${g.nextDueOn}`}
+                    </span>
                   </li>
                 ))}
               </ul>

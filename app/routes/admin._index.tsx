@@ -9,22 +9,38 @@ export const meta: Route.MetaFunction = () => [{ title: "Admin · Plumbline" }];
 
 export async function loader({ request }: Route.LoaderArgs) {
   const admin = await requireUserWithRole(request, "admin");
-  return { users: await listOrganisationUsers(admin.organisationId), mailCaught: isMailCaught(), organisationName: admin.organisationName };
+  return {
+    users: await listOrganisationUsers(admin.organisationId),
+    mailCaught: isMailCaught(),
+    organisationName: admin.organisationName,
+  };
 }
 
 export default function AdminHome({ loaderData }: Route.ComponentProps) {
   const { users, mailCaught, organisationName } = loaderData;
   return (
     <>
-      <PageHeader title="Users and settings" lead={`The people of ${organisationName} who use Plumbline, and what each may do.`}>
-        <a href="/admin/users/new" className="rounded bg-steel px-4 py-2 text-sm font-semibold text-white no-underline hover:no-underline">
+      <PageHeader
+        title="Users and settings"
+        lead={`The people of ${organisationName} who use Plumbline, and what each may do.`}
+      >
+        <a
+          href="/admin/users/new"
+          className="rounded bg-steel px-4 py-2 text-sm font-semibold text-white no-underline hover:no-underline"
+        >
           Add a user
         </a>
-        <a href="/admin/settings" className="rounded border border-rule bg-white px-4 py-2 text-sm font-semibold text-ink no-underline">
+        <a
+          href="/admin/settings"
+          className="rounded border border-rule bg-white px-4 py-2 text-sm font-semibold text-ink no-underline"
+        >
           Organisation settings
         </a>
         {mailCaught && (
-          <a href="/admin/outbox" className="rounded border border-rule bg-white px-4 py-2 text-sm font-semibold text-ink no-underline">
+          <a
+            href="/admin/outbox"
+            className="rounded border border-rule bg-white px-4 py-2 text-sm font-semibold text-ink no-underline"
+          >
             Outbox (caught mail)
           </a>
         )}

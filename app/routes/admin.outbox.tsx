@@ -9,10 +9,16 @@ export const meta: Route.MetaFunction = () => [{ title: "Outbox · Plumbline" }]
 
 export async function loader({ request }: Route.LoaderArgs) {
   const admin = await requireUserWithRole(request, "admin");
-  if (!isMailCaught()) throw data({ message: "Mail goes to your real mail server here; there is no local outbox." }, { status: 404 });
+  if (!isMailCaught())
+    throw data({ message: "Mail goes to your real mail server here; there is no local outbox." }, { status: 404 });
   const messages = await listCaughtMail(admin.organisationId);
   return {
-    messages: messages.map((m) => ({ id: m.id, to: m.toAddress, subject: m.subject, receivedAt: m.receivedAt.toISOString() })),
+    messages: messages.map((m) => ({
+      id: m.id,
+      to: m.toAddress,
+      subject: m.subject,
+      receivedAt: m.receivedAt.toISOString(),
+    })),
   };
 }
 
@@ -28,7 +34,9 @@ export default function Outbox({ loaderData }: Route.ComponentProps) {
         </a>
       </PageHeader>
       {loaderData.messages.length === 0 ? (
-        <EmptyState title="No mail yet">Adding a user or asking for a password reset sends a message that lands here.</EmptyState>
+        <EmptyState title="No mail yet">
+          Adding a user or asking for a password reset sends a message that lands here.
+        </EmptyState>
       ) : (
         <div className="overflow-x-auto rounded border border-rule bg-card">
           <table>
@@ -42,7 +50,9 @@ export default function Outbox({ loaderData }: Route.ComponentProps) {
             <tbody>
               {loaderData.messages.map((m) => (
                 <tr key={m.id}>
-                  <td className="whitespace-nowrap">{new Date(m.receivedAt).toLocaleString("en-GB", { timeZone: "UTC" })} UTC</td>
+                  <td className="whitespace-nowrap">
+                    {new Date(m.receivedAt).toLocaleString("en-GB", { timeZone: "UTC" })} UTC
+                  </td>
                   <td>{m.to}</td>
                   <td>
                     <a href={`/admin/outbox/${m.id}`}>{m.subject}</a>

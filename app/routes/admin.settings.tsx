@@ -50,7 +50,12 @@ export default function OrganisationSettings({ loaderData, actionData }: Route.C
         <Form method="post" className="space-y-4">
           <Field label="Organisation name" name="name" defaultValue={loaderData.name} required errors={errors.name} />
           <label className="flex items-start gap-2 text-sm">
-            <input type="checkbox" name="allowSelfApproval" defaultChecked={loaderData.allowSelfApproval} className="mt-1" />
+            <input
+              type="checkbox"
+              name="allowSelfApproval"
+              defaultChecked={loaderData.allowSelfApproval}
+              className="mt-1"
+            />
             <span>
               <span className="font-semibold">Allow an appointed person to approve a plan they planned themselves</span>
               <span className="block text-ink-soft">

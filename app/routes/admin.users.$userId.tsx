@@ -81,7 +81,10 @@ export default function EditUser({ loaderData, actionData }: Route.ComponentProp
   const errors: Record<string, string[] | undefined> = actionData?.errors ?? {};
   return (
     <>
-      <PageHeader title={user.name} lead={`${user.email} · ${user.active ? (user.hasPassword ? "active" : "invited, no password yet") : "deactivated"}`}>
+      <PageHeader
+        title={user.name}
+        lead={`${user.email} · ${user.active ? (user.hasPassword ? "active" : "invited, no password yet") : "deactivated"}`}
+      >
         <a href="/admin" className="px-2 py-2 text-sm">
           All users
         </a>
@@ -109,7 +112,9 @@ export default function EditUser({ loaderData, actionData }: Route.ComponentProp
                 {!isSelf && (
                   <Form method="post">
                     <input type="hidden" name="intent" value="deactivate" />
-                    <p className="mb-2 text-ink-soft">A deactivated user cannot sign in; their plans, approvals and records stay.</p>
+                    <p className="mb-2 text-ink-soft">
+                      A deactivated user cannot sign in; their plans, approvals and records stay.
+                    </p>
                     <Button type="submit" tone="danger">
                       Deactivate
                     </Button>

@@ -11,7 +11,12 @@ import { flashNotice, requireUserWithRole } from "~/utils/session.server";
 
 const schema = z.object({
   name: requiredText("name", 200),
-  email: z.string({ error: "Enter an e-mail address." }).trim().toLowerCase().email("Enter a valid e-mail address.").max(320),
+  email: z
+    .string({ error: "Enter an e-mail address." })
+    .trim()
+    .toLowerCase()
+    .email("Enter a valid e-mail address.")
+    .max(320),
   roles: z.array(z.enum(ROLES)).min(1, "Give the user at least one role."),
 });
 
@@ -27,12 +32,20 @@ export async function action({ request }: Route.ActionArgs) {
   const form = parseForm(schema, await requireFormData(request), ["roles"]);
   if (!form.ok) return data({ errors: form.errors }, { status: 400 });
   if (await findUserByEmail(form.data.email)) {
-    return data({ errors: { email: ["That e-mail address already has an account."] } as Record<string, string[]> }, { status: 400 });
+    return data(
+      { errors: { email: ["That e-mail address already has an account."] } as Record<string, string[]> },
+      { status: 400 },
+    );
   }
   const user = await createUser({ organisationId: admin.organisationId, ...form.data }, admin.id);
   await sendInvitation(user, admin.name, admin.organisationName, request);
   throw redirect("/admin", {
-    headers: { "Set-Cookie": await flashNotice(request, `${user.name} is added; an invitation to set a password went to ${user.email}.`) },
+    headers: {
+      "Set-Cookie": await flashNotice(
+        request,
+        `${user.name} is added; an invitation to set a password went to ${user.email}.`,
+      ),
+    },
   });
 }
 
@@ -40,7 +53,10 @@ export default function NewUser({ actionData }: Route.ComponentProps) {
   const errors: Record<string, string[] | undefined> = actionData?.errors ?? {};
   return (
     <>
-      <PageHeader title="Add a user" lead="They get an e-mail with a single-use link (valid 72 hours) to choose their password." />
+      <PageHeader
+        title="Add a user"
+        lead="They get an e-mail with a single-use link (valid 72 hours) to choose their password."
+      />
       <Card className="max-w-xl">
         <Form method="post" className="space-y-4">
           <Field label="Name" name="name" required autoComplete="off" errors={errors.name} />

@@ -7,7 +7,11 @@ import { requireUser } from "~/utils/session.server";
 
 const querySchema = z.object({
   query: z.string().max(100, "The search is at most 100 characters.").transform(withoutControlCharacters).default(""),
-  role: z.enum(["eyebolt", "shackle", "sling", "masterLink", "crane"], { error: "role is one of eyebolt, shackle, sling, masterLink, crane." }).optional(),
+  role: z
+    .enum(["eyebolt", "shackle", "sling", "masterLink", "crane"], {
+      error: "role is one of eyebolt, shackle, sling, masterLink, crane.",
+    })
+    .optional(),
   limit: z.coerce.number().int().min(1).max(200).default(50),
 });
 
@@ -16,7 +20,11 @@ export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request);
   const url = new URL(request.url);
   const parsed = querySchema.safeParse(Object.fromEntries(url.searchParams));
-  if (!parsed.success) return Response.json({ error: parsed.error.issues[0]?.message ?? "The search is not valid.", issues: parsed.error.issues }, { status: 400 });
+  if (!parsed.success)
+    return Response.json(
+      { error: parsed.error.issues[0]?.message ?? "The search is not valid.", issues: parsed.error.issues },
+      { status: 400 },
+    );
   const items = await searchGearPicks(user.organisationId, parsed.data, await getReferenceTables());
   return Response.json({ items });
 }

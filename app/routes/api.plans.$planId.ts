@@ -33,7 +33,8 @@ export async function action({ request, params }: Route.ActionArgs) {
   const planId = Number(params.planId);
   const found = await getPlan(user.organisationId, planId);
   if (!found) return notFound();
-  if (Number(request.headers.get("Content-Length") ?? "0") > MAX_BODY_BYTES) return badRequest("The body is too large for a plan (256 KB at most).");
+  if (Number(request.headers.get("Content-Length") ?? "0") > MAX_BODY_BYTES)
+    return badRequest("The body is too large for a plan (256 KB at most).");
   const text = await request.text();
   if (text.length > MAX_BODY_BYTES) return badRequest("The body is too large for a plan (256 KB at most).");
   let body: unknown;
@@ -54,12 +55,20 @@ export async function action({ request, params }: Route.ActionArgs) {
       return notFound();
     case "stale":
       return Response.json(
-        { error: "Someone else saved this plan after you loaded it. Your changes are not saved: reload to see theirs, then make yours again.", code: "stale", version: saved.version },
+        {
+          error:
+            "Someone else saved this plan after you loaded it. Your changes are not saved: reload to see theirs, then make yours again.",
+          code: "stale",
+          version: saved.version,
+        },
         { status: 409 },
       );
     case "frozen":
       return Response.json(
-        { error: `This revision is ${saved.planStatus.replace("_", " ")} and can no longer be edited.`, code: "frozen" },
+        {
+          error: `This revision is ${saved.planStatus.replace("_", " ")} and can no longer be edited.`,
+          code: "frozen",
+        },
         { status: 409 },
       );
     case "invalid":

@@ -9,13 +9,26 @@ export async function loader({ request }: Route.LoaderArgs) {
   let jobId: number | undefined;
   if (rawJobId !== null) {
     jobId = Number(rawJobId);
-    if (!Number.isSafeInteger(jobId) || jobId <= 0) return Response.json({ error: "jobId must be a job's number.", issues: [] }, { status: 400 });
+    if (!Number.isSafeInteger(jobId) || jobId <= 0)
+      return Response.json({ error: "jobId must be a job's number.", issues: [] }, { status: 400 });
   }
   const plans = await listPlans(user.organisationId, { jobId });
-  return Response.json(plans.map((p) => ({ id: p.id, title: p.title, status: p.status, revision: p.revision, version: p.version, jobId: p.jobId })));
+  return Response.json(
+    plans.map((p) => ({
+      id: p.id,
+      title: p.title,
+      status: p.status,
+      revision: p.revision,
+      version: p.version,
+      jobId: p.jobId,
+    })),
+  );
 }
 
 export async function action({ request }: Route.ActionArgs) {
   await requireUser(request);
-  return Response.json({ error: "Plans are created from a job's page; this address only lists them." }, { status: 405, headers: { Allow: "GET" } });
+  return Response.json(
+    { error: "Plans are created from a job's page; this address only lists them." },
+    { status: 405, headers: { Allow: "GET" } },
+  );
 }

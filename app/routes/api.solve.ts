@@ -12,13 +12,17 @@ function badRequest(error: string) {
 
 export async function loader({ request }: Route.LoaderArgs) {
   await requireUser(request);
-  return Response.json({ error: "POST a JSON body to /api/solve; see the contributor guide for its shape." }, { status: 405, headers: { Allow: "POST" } });
+  return Response.json(
+    { error: "POST a JSON body to /api/solve; see the contributor guide for its shape." },
+    { status: 405, headers: { Allow: "POST" } },
+  );
 }
 
 /** Solves a hanging load (and checks its rigging when described). Stateless: nothing is stored. */
 export async function action({ request }: Route.ActionArgs) {
   await requireUser(request);
-  if (request.method !== "POST") return Response.json({ error: "Only POST is allowed here." }, { status: 405, headers: { Allow: "POST" } });
+  if (request.method !== "POST")
+    return Response.json({ error: "Only POST is allowed here." }, { status: 405, headers: { Allow: "POST" } });
   const declared = Number(request.headers.get("Content-Length") ?? "0");
   if (declared > MAX_BODY_BYTES) return badRequest("The body is too large for a solve request (64 KB at most).");
   const text = await request.text();

@@ -30,23 +30,43 @@ export async function action({ request, params }: Route.ActionArgs) {
   const component = await requireComponent(user.organisationId, params.componentId);
   const formData = await requireFormData(request);
   const version = versionSchema.safeParse(formData.get("version"));
-  if (!version.success) return data({ errors: { _form: ["The form is missing its version; reload the page and try again."] } as Record<string, string[]> }, { status: 400 });
+  if (!version.success)
+    return data(
+      {
+        errors: { _form: ["The form is missing its version; reload the page and try again."] } as Record<
+          string,
+          string[]
+        >,
+      },
+      { status: 400 },
+    );
   const form = parseComponentForm(formData, user.units);
   if (!form.ok) return data({ errors: form.errors }, { status: 400 });
   const saved = await updateComponent(user.organisationId, component.id, form.data, version.data, user.id);
   if (saved === null) {
     return data(
-      { errors: { _form: ["Someone else saved this component while you were editing. Your changes are not saved: reload to see theirs, then make yours again."] } as Record<string, string[]> },
+      {
+        errors: {
+          _form: [
+            "Someone else saved this component while you were editing. Your changes are not saved: reload to see theirs, then make yours again.",
+          ],
+        } as Record<string, string[]>,
+      },
       { status: 409 },
     );
   }
-  throw redirect(`/components/${component.id}`, { headers: { "Set-Cookie": await flashNotice(request, `${form.data.name} is saved (version ${saved}).`) } });
+  throw redirect(`/components/${component.id}`, {
+    headers: { "Set-Cookie": await flashNotice(request, `${form.data.name} is saved (version ${saved}).`) },
+  });
 }
 
 export default function EditComponent({ loaderData, actionData }: Route.ComponentProps) {
   return (
     <>
-      <PageHeader title={`Edit ${loaderData.definition.name}`} lead="Plans already made from this component keep their own copy; they change only when the planner pulls the new version in.">
+      <PageHeader
+        title={`Edit ${loaderData.definition.name}`}
+        lead="Plans already made from this component keep their own copy; they change only when the planner pulls the new version in."
+      >
         <a href={`/components/${loaderData.id}`} className="px-2 py-2 text-sm">
           Back
         </a>

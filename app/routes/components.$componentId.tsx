@@ -24,12 +24,17 @@ const schema = z.discriminatedUnion("intent", [
   z.object({
     intent: z.literal("upload"),
     kind: z.enum(["drawing", "photo"], { error: "Say whether it is a drawing or a photo." }),
-    caption: z.preprocess((v) => (typeof v === "string" ? v.trim() : ""), z.string().max(200, "At most 200 characters.")),
+    caption: z.preprocess(
+      (v) => (typeof v === "string" ? v.trim() : ""),
+      z.string().max(200, "At most 200 characters."),
+    ),
   }),
   z.object({ intent: z.literal("remove-file"), fileId: z.coerce.number().int().positive() }),
 ]);
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.definition.name ?? "Component"} · Plumbline` }];
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: `${data?.definition.name ?? "Component"} · Plumbline` },
+];
 
 async function requireComponent(organisationId: number, rawId: string) {
   const id = Number(rawId);
@@ -64,7 +69,8 @@ export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireUserWithRole(request, "planner", "admin");
   const component = await requireComponent(user.organisationId, params.componentId);
   const upload = await readUploadForm(request, { maxFiles: 1 });
-  if (!upload.ok) return data({ errors: { file: [upload.message] } as Record<string, string[]> }, { status: upload.status });
+  if (!upload.ok)
+    return data({ errors: { file: [upload.message] } as Record<string, string[]> }, { status: upload.status });
   const form = parseForm(schema, upload.formData);
   if (!form.ok) return data({ errors: form.errors }, { status: 400 });
   const back = async (notice: string) =>
@@ -73,14 +79,29 @@ export async function action({ request, params }: Route.ActionArgs) {
     case "archive":
     case "restore": {
       await setComponentArchived(user.organisationId, component.id, form.data.intent === "archive", user.id);
-      return back(form.data.intent === "archive" ? `${component.name} is archived; plans made from it keep their copy.` : `${component.name} is back in the list.`);
+      return back(
+        form.data.intent === "archive"
+          ? `${component.name} is archived; plans made from it keep their copy.`
+          : `${component.name} is back in the list.`,
+      );
     }
     case "upload": {
       const file = uploadedFile(upload.formData, "file");
-      if (!file) return data({ errors: { file: ["Choose a drawing or photo to upload."] } as Record<string, string[]> }, { status: 400 });
+      if (!file)
+        return data(
+          { errors: { file: ["Choose a drawing or photo to upload."] } as Record<string, string[]> },
+          { status: 400 },
+        );
       const checked = await checkUpload(file, ["png", "jpeg", "pdf"]);
-      if (!checked.ok) return data({ errors: { file: [checked.message] } as Record<string, string[]> }, { status: 400 });
-      await addComponentFile(user.organisationId, component.id, checked.upload, { kind: form.data.kind, caption: form.data.caption }, user.id);
+      if (!checked.ok)
+        return data({ errors: { file: [checked.message] } as Record<string, string[]> }, { status: 400 });
+      await addComponentFile(
+        user.organisationId,
+        component.id,
+        checked.upload,
+        { kind: form.data.kind, caption: form.data.caption },
+        user.id,
+      );
       return back(`${checked.upload.originalName} is added.`);
     }
     case "remove-file": {
@@ -97,9 +118,15 @@ export default function ComponentPage({ loaderData, actionData }: Route.Componen
   const planMass = d.massKg * (1 + d.contingencyPct / 100);
   return (
     <>
-      <PageHeader title={d.name} lead={`${archived ? "Archived · " : ""}version ${version}${d.description ? ` · ${d.description}` : ""}`}>
+      <PageHeader
+        title={d.name}
+        lead={`${archived ? "Archived · " : ""}version ${version}${d.description ? ` · ${d.description}` : ""}`}
+      >
         {canEdit && !archived && (
-          <a href={`/components/${id}/edit`} className="rounded bg-steel px-4 py-2 text-sm font-semibold text-white no-underline hover:no-underline">
+          <a
+            href={`/components/${id}/edit`}
+            className="rounded bg-steel px-4 py-2 text-sm font-semibold text-white no-underline hover:no-underline"
+          >
             Edit
           </a>
         )}
@@ -119,7 +146,10 @@ export default function ComponentPage({ loaderData, actionData }: Route.Componen
               <div>
                 <dt className="text-ink-soft">Mass</dt>
                 <dd className="font-semibold">{formatMass(d.massKg, units)}</dd>
-                <dd>{MASS_SOURCE_LABELS[d.massSource]}{d.massNote ? ` · ${d.massNote}` : ""}</dd>
+                <dd>
+                  {MASS_SOURCE_LABELS[d.massSource]}
+                  {d.massNote ? ` · ${d.massNote}` : ""}
+                </dd>
               </div>
               <div>
                 <dt className="text-ink-soft">With contingency ({d.contingencyPct} %)</dt>
@@ -131,7 +161,10 @@ export default function ComponentPage({ loaderData, actionData }: Route.Componen
                 <dd className="font-semibold">
                   {formatLength(d.cog.x, units)}, {formatLength(d.cog.y, units)}, {formatLength(d.cog.z, units)}
                 </dd>
-                <dd>{COG_SOURCE_LABELS[d.cogSource]}{d.cogNote ? ` · ${d.cogNote}` : ""}</dd>
+                <dd>
+                  {COG_SOURCE_LABELS[d.cogSource]}
+                  {d.cogNote ? ` · ${d.cogNote}` : ""}
+                </dd>
               </div>
               <div>
                 <dt className="text-ink-soft">Overall size (L × W × H)</dt>
@@ -143,7 +176,9 @@ export default function ComponentPage({ loaderData, actionData }: Route.Componen
           </Card>
           <Card title="Lift points">
             {d.liftPoints.length === 0 ? (
-              <p className="text-sm text-ink-soft">No lift points yet.{canEdit ? " Edit the component to add its tapped holes or lugs." : ""}</p>
+              <p className="text-sm text-ink-soft">
+                No lift points yet.{canEdit ? " Edit the component to add its tapped holes or lugs." : ""}
+              </p>
             ) : (
               <div className="overflow-x-auto">
                 <table>
@@ -161,7 +196,8 @@ export default function ComponentPage({ loaderData, actionData }: Route.Componen
                       <tr key={p.label}>
                         <td className="font-semibold">{p.label}</td>
                         <td>
-                          {formatLength(p.position.x, units)}, {formatLength(p.position.y, units)}, {formatLength(p.position.z, units)}
+                          {formatLength(p.position.x, units)}, {formatLength(p.position.y, units)},{" "}
+                          {formatLength(p.position.z, units)}
                         </td>
                         <td>
                           {p.axis.x.toFixed(2)}, {p.axis.y.toFixed(2)}, {p.axis.z.toFixed(2)}
@@ -191,7 +227,8 @@ export default function ComponentPage({ loaderData, actionData }: Route.Componen
                       <td>{p.name}</td>
                       <td>{formatMass(p.massKg, units)}</td>
                       <td>
-                        {formatLength(p.position.x, units)}, {formatLength(p.position.y, units)}, {formatLength(p.position.z, units)}
+                        {formatLength(p.position.x, units)}, {formatLength(p.position.y, units)},{" "}
+                        {formatLength(p.position.z, units)}
                       </td>
                     </tr>
                   ))}
@@ -204,17 +241,24 @@ export default function ComponentPage({ loaderData, actionData }: Route.Componen
           <ComponentViews data={d} units={units} />
           <Card title="Drawings and photos">
             {files.length === 0 ? (
-              <p className="text-sm text-ink-soft">None yet.{canEdit ? " Upload the general arrangement drawing or a photo of the lift points." : ""}</p>
+              <p className="text-sm text-ink-soft">
+                None yet.{canEdit ? " Upload the general arrangement drawing or a photo of the lift points." : ""}
+              </p>
             ) : (
               <ul className="space-y-3">
                 {files.map((f) => (
                   <li key={f.id} className="text-sm">
                     {f.contentType.startsWith("image/") && (
                       <a href={`/files/${f.fileId}`}>
-                        <img src={`/files/${f.fileId}`} alt={f.caption || f.name} className="mb-1 max-h-40 rounded border border-rule" />
+                        <img
+                          src={`/files/${f.fileId}`}
+                          alt={f.caption || f.name}
+                          className="mb-1 max-h-40 rounded border border-rule"
+                        />
                       </a>
                     )}
-                    <a href={`/files/${f.fileId}`}>{f.name}</a> <span className="text-ink-soft">({f.kind === "drawing" ? "drawing" : "photo"})</span>
+                    <a href={`/files/${f.fileId}`}>{f.name}</a>{" "}
+                    <span className="text-ink-soft">({f.kind === "drawing" ? "drawing" : "photo"})</span>
                     {f.caption && <span className="block text-ink-soft">{f.caption}</span>}
                     {canEdit && (
                       <Form method="post" className="inline">
@@ -237,7 +281,14 @@ export default function ComponentPage({ loaderData, actionData }: Route.Componen
                   <label htmlFor="component-file" className="block text-sm font-medium">
                     File (PNG, JPEG or PDF, at most 10 MB)
                   </label>
-                  <input id="component-file" name="file" type="file" accept="image/png,image/jpeg,application/pdf" required className="mt-1 block w-full text-sm" />
+                  <input
+                    id="component-file"
+                    name="file"
+                    type="file"
+                    accept="image/png,image/jpeg,application/pdf"
+                    required
+                    className="mt-1 block w-full text-sm"
+                  />
                 </div>
                 <SelectField
                   label="It is a"
@@ -252,7 +303,12 @@ export default function ComponentPage({ loaderData, actionData }: Route.Componen
                   <label htmlFor="component-file-caption" className="block text-sm font-medium">
                     Caption
                   </label>
-                  <input id="component-file-caption" name="caption" maxLength={200} className="mt-1 block w-full rounded border border-rule px-3 py-1.5" />
+                  <input
+                    id="component-file-caption"
+                    name="caption"
+                    maxLength={200}
+                    className="mt-1 block w-full rounded border border-rule px-3 py-1.5"
+                  />
                 </div>
                 <Button type="submit" tone="secondary">
                   Upload

@@ -14,7 +14,9 @@ export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request);
   const url = new URL(request.url);
   const archived = url.searchParams.get("archived") === "1";
-  const query = withoutControlCharacters(url.searchParams.get("q") ?? "").trim().slice(0, 100);
+  const query = withoutControlCharacters(url.searchParams.get("q") ?? "")
+    .trim()
+    .slice(0, 100);
   const components = await listComponents(user.organisationId, { archived, query });
   return {
     units: user.units,
@@ -36,9 +38,15 @@ export default function Components({ loaderData }: Route.ComponentProps) {
   const { components, canEdit, units, archived, query } = loaderData;
   return (
     <>
-      <PageHeader title={archived ? "Archived components" : "Components"} lead="Reusable load definitions: mass and CoG with their sources, outline and lift points.">
+      <PageHeader
+        title={archived ? "Archived components" : "Components"}
+        lead="Reusable load definitions: mass and CoG with their sources, outline and lift points."
+      >
         {canEdit && !archived && (
-          <a href="/components/new" className="rounded bg-steel px-4 py-2 text-sm font-semibold text-white no-underline hover:no-underline">
+          <a
+            href="/components/new"
+            className="rounded bg-steel px-4 py-2 text-sm font-semibold text-white no-underline hover:no-underline"
+          >
             New component
           </a>
         )}
@@ -51,14 +59,22 @@ export default function Components({ loaderData }: Route.ComponentProps) {
         <label htmlFor="component-search" className="sr-only">
           Search components by name
         </label>
-        <input id="component-search" name="q" defaultValue={query} placeholder="Search by name" className="w-64 rounded border border-rule px-3 py-1.5" />
+        <input
+          id="component-search"
+          name="q"
+          defaultValue={query}
+          placeholder="Search by name"
+          className="w-64 rounded border border-rule px-3 py-1.5"
+        />
         <button type="submit" className="rounded border border-rule bg-white px-3 py-1.5 text-sm">
           Search
         </button>
       </Form>
       {components.length === 0 ? (
         <EmptyState title={query ? "Nothing matches" : archived ? "Nothing archived" : "No components yet"}>
-          {canEdit && !archived && !query ? "Add the component you will lift: its mass, CoG and lift points." : "Try another search."}
+          {canEdit && !archived && !query
+            ? "Add the component you will lift: its mass, CoG and lift points."
+            : "Try another search."}
         </EmptyState>
       ) : (
         <div className="overflow-x-auto rounded border border-rule bg-card">

@@ -19,14 +19,24 @@ export async function action({ request }: Route.ActionArgs) {
   const form = parseComponentForm(await requireFormData(request), user.units);
   if (!form.ok) return data({ errors: form.errors }, { status: 400 });
   const component = await createComponent(user.organisationId, form.data, user.id);
-  throw redirect(`/components/${component.id}`, { headers: { "Set-Cookie": await flashNotice(request, `${component.name} is saved.`) } });
+  throw redirect(`/components/${component.id}`, {
+    headers: { "Set-Cookie": await flashNotice(request, `${component.name} is saved.`) },
+  });
 }
 
 export default function NewComponent({ loaderData, actionData }: Route.ComponentProps) {
   return (
     <>
-      <PageHeader title="New component" lead="Give the mass and CoG with where each figure comes from; the plans built on it carry them." />
-      <ComponentForm definition={null} units={loaderData.units} errors={actionData?.errors ?? {}} submitLabel="Save component" />
+      <PageHeader
+        title="New component"
+        lead="Give the mass and CoG with where each figure comes from; the plans built on it carry them."
+      />
+      <ComponentForm
+        definition={null}
+        units={loaderData.units}
+        errors={actionData?.errors ?? {}}
+        submitLabel="Save component"
+      />
     </>
   );
 }

@@ -11,7 +11,11 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const file = Number.isInteger(fileId) ? await getStoredFile(user.organisationId, fileId) : null;
   if (!file) throw data({ message: "There is no such file in your organisation." }, { status: 404 });
   const bytes = await readStoredBytes(file);
-  if (!bytes) throw data({ message: "The file's content is missing from storage; ask your admin to upload it again." }, { status: 404 });
+  if (!bytes)
+    throw data(
+      { message: "The file's content is missing from storage; ask your admin to upload it again." },
+      { status: 404 },
+    );
   const isImage = file.contentType.startsWith("image/");
   return new Response(new Uint8Array(bytes) as Uint8Array<ArrayBuffer>, {
     headers: {

@@ -19,7 +19,10 @@ export async function action({ request }: Route.ActionArgs) {
   if (!form.ok) return data({ errors: form.errors, sent: false }, { status: 400 });
   const limit = await startPasswordResetRequest({ email: form.data.email, addressKey: clientAddressKey(request) });
   if (!limit.ok) {
-    return data({ errors: { _form: [limit.message] } as Record<string, string[]>, sent: false }, { status: 429, headers: { "Retry-After": String(limit.retryAfterSeconds) } });
+    return data(
+      { errors: { _form: [limit.message] } as Record<string, string[]>, sent: false },
+      { status: 429, headers: { "Retry-After": String(limit.retryAfterSeconds) } },
+    );
   }
   const user = limit.sendMail ? await findUserByEmail(form.data.email) : null;
   if (user?.active) await sendPasswordReset(user, request);
@@ -39,7 +42,14 @@ export default function ForgotPassword({ actionData }: Route.ComponentProps) {
       ) : (
         <Form method="post" className="mt-6 space-y-4 rounded border border-rule bg-card p-5">
           <FormError message={actionData?.errors?._form?.join(" ")} />
-          <Field label="E-mail" name="email" type="email" autoComplete="username" required errors={actionData?.errors?.email} />
+          <Field
+            label="E-mail"
+            name="email"
+            type="email"
+            autoComplete="username"
+            required
+            errors={actionData?.errors?.email}
+          />
           <Button type="submit" className="w-full">
             Send me a link
           </Button>

@@ -27,14 +27,19 @@ export async function action({ request, params }: Route.ActionArgs) {
   const form = await parseGearItemForm(user.organisationId, await requireFormData(request), item.id);
   if (!form.ok) return data({ errors: form.errors }, { status: 400 });
   await updateGearItem(user.organisationId, item.id, form.data, user.id);
-  throw redirect(`/gear/${item.id}`, { headers: { "Set-Cookie": await flashNotice(request, `${form.data.itemCode} saved.`) } });
+  throw redirect(`/gear/${item.id}`, {
+    headers: { "Set-Cookie": await flashNotice(request, `${form.data.itemCode} saved.`) },
+  });
 }
 
 export default function EditGearItem({ loaderData, actionData }: Route.ComponentProps) {
   const { item, sites } = loaderData;
   return (
     <>
-      <PageHeader title={`Edit ${item.itemCode}`} lead="Status changes and examinations are made on the item's page, with their reasons.">
+      <PageHeader
+        title={`Edit ${item.itemCode}`}
+        lead="Status changes and examinations are made on the item's page, with their reasons."
+      >
         <a href={`/gear/${item.id}`} className="px-2 py-2 text-sm">
           Back to the item
         </a>

@@ -26,7 +26,10 @@ function refuse(intent: GearIntent, errors: Errors, status = 400) {
 }
 
 function forbidden() {
-  return data({ message: "This needs the Admin role. Ask your organisation's admin if you should have it.", roles: ["admin"] }, { status: 403 });
+  return data(
+    { message: "This needs the Admin role. Ask your organisation's admin if you should have it.", roles: ["admin"] },
+    { status: 403 },
+  );
 }
 
 async function backToItem(request: Request, item: GearItem, notice: string) {
@@ -45,12 +48,19 @@ export async function handleGearItemAction(request: Request, user: SessionUser, 
     if (!isAdmin) throw forbidden();
     const form = parseForm(examinationSchema, formData);
     const errors: Errors = form.ok ? {} : { ...form.errors };
-    if (form.ok && form.data.examinedOn > todayIso()) errors.examinedOn = ["An examination cannot be dated in the future."];
+    if (form.ok && form.data.examinedOn > todayIso())
+      errors.examinedOn = ["An examination cannot be dated in the future."];
     const file = uploadedFile(formData, "certificate");
     const checked = file ? await checkUpload(file, ["pdf"]) : null;
     if (checked && !checked.ok) errors.certificate = [checked.message];
     if (!form.ok || Object.keys(errors).length) return refuse("examination", errors);
-    const recorded = await recordExamination(user.organisationId, item.id, form.data, checked?.ok ? checked.upload : null, user.id);
+    const recorded = await recordExamination(
+      user.organisationId,
+      item.id,
+      form.data,
+      checked?.ok ? checked.upload : null,
+      user.id,
+    );
     if (!recorded) throw data({ message: "There is no such item in your organisation's register." }, { status: 404 });
     const notice =
       form.data.result === "pass"
@@ -72,7 +82,10 @@ export async function handleGearItemAction(request: Request, user: SessionUser, 
   if (intent === "defect") {
     const form = parseForm(defectReportSchema, formData);
     if (!form.ok) return refuse("defect", form.errors);
-    const report = await reportGearDefect(user.organisationId, item.id, form.data.defect, { id: user.id, name: user.name });
+    const report = await reportGearDefect(user.organisationId, item.id, form.data.defect, {
+      id: user.id,
+      name: user.name,
+    });
     if (!report) throw data({ message: "There is no such item in your organisation's register." }, { status: 404 });
     let mailNote = "";
     try {
@@ -82,13 +95,19 @@ export async function handleGearItemAction(request: Request, user: SessionUser, 
         { defect: form.data.defect, reporterName: user.name, quarantined: report.quarantined },
         request,
       );
-      mailNote = sent ? ` Your organisation's admins have been e-mailed.` : " Your organisation has no active admin to e-mail; tell your supervisor.";
+      mailNote = sent
+        ? ` Your organisation's admins have been e-mailed.`
+        : " Your organisation has no active admin to e-mail; tell your supervisor.";
     } catch {
       mailNote = " The e-mail to your admins could not be sent; tell them directly.";
     }
-    const state = report.quarantined ? `${item.itemCode} is quarantined: do not use it.` : `The report is recorded on ${item.itemCode}.`;
+    const state = report.quarantined
+      ? `${item.itemCode} is quarantined: do not use it.`
+      : `The report is recorded on ${item.itemCode}.`;
     return backToItem(request, item, `${state}${mailNote}`);
   }
 
-  return refuse("defect", { _form: ["Choose what to do: record an examination, change the status or report a defect."] });
+  return refuse("defect", {
+    _form: ["Choose what to do: record an examination, change the status or report a defect."],
+  });
 }

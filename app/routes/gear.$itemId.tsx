@@ -3,7 +3,16 @@ import { Form, useNavigation } from "react-router";
 import type { Route } from "./+types/gear.$itemId";
 import { handleGearItemAction, requireGearItem, type GearIntent } from "./gear.$itemId.server";
 import { DueLabel, StatusLabel, formatWll } from "~/components/gear-labels";
-import { Button, Card, EmptyState, Field, FormError, PageHeader, SelectField, TextAreaField } from "~/components/ui/form";
+import {
+  Button,
+  Card,
+  EmptyState,
+  Field,
+  FormError,
+  PageHeader,
+  SelectField,
+  TextAreaField,
+} from "~/components/ui/form";
 import { defaultNextDue, dueState, examinationIntervalMonths, isIsoDate, todayIso } from "~/gear/due";
 import {
   GEAR_KIND_INFO,
@@ -23,7 +32,10 @@ export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.item.it
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUser(request);
   const item = await requireGearItem(user.organisationId, params.itemId);
-  const [examinations, history] = await Promise.all([listExaminations(user.organisationId, item.id), listGearHistory(user.organisationId, item.id)]);
+  const [examinations, history] = await Promise.all([
+    listExaminations(user.organisationId, item.id),
+    listGearHistory(user.organisationId, item.id),
+  ]);
   const today = todayIso();
   return {
     today,
@@ -74,7 +86,8 @@ function when(iso: string) {
 
 function describeEvent(entry: GearHistoryEntry): string {
   const d = entry.details;
-  const status = (s: unknown) => (typeof s === "string" && s in GEAR_STATUS_LABELS ? GEAR_STATUS_LABELS[s as GearStatus] : String(s));
+  const status = (s: unknown) =>
+    typeof s === "string" && s in GEAR_STATUS_LABELS ? GEAR_STATUS_LABELS[s as GearStatus] : String(s);
   switch (entry.action) {
     case "created":
       return "Added to the register.";
@@ -89,7 +102,9 @@ function describeEvent(entry: GearHistoryEntry): string {
     case "status changed":
       return `Status ${status(d.from)} → ${status(d.to)}. Reason: ${String(d.reason)}`;
     case "defect reported":
-      return d.from !== d.to ? `Defect reported; status ${status(d.from)} → ${status(d.to)}. ${String(d.defect)}` : `Defect reported (status stays ${status(d.to)}): ${String(d.defect)}`;
+      return d.from !== d.to
+        ? `Defect reported; status ${status(d.from)} → ${status(d.to)}. ${String(d.defect)}`
+        : `Defect reported (status stays ${status(d.to)}): ${String(d.defect)}`;
     default:
       return entry.action;
   }
@@ -107,7 +122,10 @@ export default function GearItemPage({ loaderData, actionData }: Route.Component
           Back to the register
         </a>
         {canAdmin && (
-          <a href={`/gear/${item.id}/edit`} className="rounded border border-rule bg-white px-4 py-2 text-sm font-semibold text-ink no-underline">
+          <a
+            href={`/gear/${item.id}/edit`}
+            className="rounded border border-rule bg-white px-4 py-2 text-sm font-semibold text-ink no-underline"
+          >
             Edit item
           </a>
         )}
@@ -115,7 +133,11 @@ export default function GearItemPage({ loaderData, actionData }: Route.Component
 
       {item.status !== "in_service" && (
         <div role="alert" className="mb-6 rounded border border-fail/50 bg-fail-soft p-3 text-sm text-fail">
-          <p className="font-bold">{item.status === "quarantined" ? "QUARANTINED: do not use this item." : "WITHDRAWN from service: do not use this item."}</p>
+          <p className="font-bold">
+            {item.status === "quarantined"
+              ? "QUARANTINED: do not use this item."
+              : "WITHDRAWN from service: do not use this item."}
+          </p>
           {item.statusReason && <p className="mt-1">Reason: {item.statusReason}</p>}
           {item.statusChangedAt && (
             <p className="mt-1 text-xs">
@@ -133,7 +155,9 @@ export default function GearItemPage({ loaderData, actionData }: Route.Component
               <DueLabel state={item.dueState} />
             </div>
             {examinations.length === 0 ? (
-              <EmptyState title="Never examined">No thorough examination is recorded; the item must not be used until one is.</EmptyState>
+              <EmptyState title="Never examined">
+                No thorough examination is recorded; the item must not be used until one is.
+              </EmptyState>
             ) : (
               <div className="overflow-x-auto">
                 <table>
@@ -165,7 +189,13 @@ export default function GearItemPage({ loaderData, actionData }: Route.Component
                           )}
                         </td>
                         <td className="whitespace-nowrap">{e.nextDueOn}</td>
-                        <td>{e.certificate ? <a href={`/files/${e.certificate.id}`}>{e.certificate.name}</a> : <span className="text-ink-soft">none</span>}</td>
+                        <td>
+                          {e.certificate ? (
+                            <a href={`/files/${e.certificate.id}`}>{e.certificate.name}</a>
+                          ) : (
+                            <span className="text-ink-soft">none</span>
+                          )}
+                        </td>
                       </tr>
                     ))}
                   </tbody>
@@ -211,7 +241,8 @@ export default function GearItemPage({ loaderData, actionData }: Route.Component
               <dd>{item.homeSite ? item.homeSite.name : "none"}</dd>
               <dt className="text-ink-soft">Examination interval</dt>
               <dd>
-                {examinationIntervalMonths(item.kind)} months ({info.accessory ? "lifting accessory" : "lifting equipment"}, LOLER reg 9(3))
+                {examinationIntervalMonths(item.kind)} months (
+                {info.accessory ? "lifting accessory" : "lifting equipment"}, LOLER reg 9(3))
               </dd>
             </dl>
           </Card>
@@ -225,7 +256,10 @@ export default function GearItemPage({ loaderData, actionData }: Route.Component
                   label="New status"
                   name="status"
                   defaultValue={item.status === "in_service" ? "quarantined" : "in_service"}
-                  options={GEAR_STATUSES.filter((s) => s !== item.status).map((s) => ({ value: s, label: GEAR_STATUS_LABELS[s] }))}
+                  options={GEAR_STATUSES.filter((s) => s !== item.status).map((s) => ({
+                    value: s,
+                    label: GEAR_STATUS_LABELS[s],
+                  }))}
                 />
                 <TextAreaField label="Reason" name="reason" errors={errorsFor("status").reason} maxLength={1000} />
                 <Button type="submit" tone="secondary">
@@ -241,7 +275,9 @@ export default function GearItemPage({ loaderData, actionData }: Route.Component
               <FormError message={errorsFor("defect")._form?.join(" ")} />
               <p className="text-sm text-ink-soft">
                 Found damage, wear or a missing mark? Report it:{" "}
-                {item.status === "in_service" ? "the item is quarantined at once and your admins are e-mailed." : "your admins are e-mailed."}
+                {item.status === "in_service"
+                  ? "the item is quarantined at once and your admins are e-mailed."
+                  : "your admins are e-mailed."}
               </p>
               <TextAreaField label="What is wrong" name="defect" errors={errorsFor("defect").defect} maxLength={2000} />
               <Button type="submit" tone="danger">
@@ -264,7 +300,15 @@ function Spec({ label, value }: { label: string; value: string | number | null }
   );
 }
 
-function ExaminationForm({ kind, today, errors }: { kind: GearKind; today: string; errors: Record<string, string[] | undefined> }) {
+function ExaminationForm({
+  kind,
+  today,
+  errors,
+}: {
+  kind: GearKind;
+  today: string;
+  errors: Record<string, string[] | undefined>;
+}) {
   const [examinedOn, setExaminedOn] = useState(today);
   const [nextDueOn, setNextDueOn] = useState(defaultNextDue(kind, today));
   const [nextDueEdited, setNextDueEdited] = useState(false);
@@ -303,7 +347,9 @@ function ExaminationForm({ kind, today, errors }: { kind: GearKind; today: strin
           ))}
         </div>
       </fieldset>
-      {result === "fail" && <TextAreaField label="Defects found" name="defects" errors={errors.defects} maxLength={4000} required />}
+      {result === "fail" && (
+        <TextAreaField label="Defects found" name="defects" errors={errors.defects} maxLength={4000} required />
+      )}
       <Field
         label="Next examination due"
         name="nextDueOn"

@@ -1,4 +1,10 @@
-import { createColumnHelper, flexRender, getCoreRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
+import {
+  createColumnHelper,
+  flexRender,
+  getCoreRowModel,
+  useReactTable,
+  type SortingState,
+} from "@tanstack/react-table";
 import { Form, Link, redirect } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/gear._index";
@@ -7,7 +13,13 @@ import { Button, EmptyState, PageHeader } from "~/components/ui/form";
 import { withoutControlCharacters } from "~/utils/forms";
 import { DUE_SOON_DAYS, DUE_STATE_LABELS, DUE_STATES, todayIso } from "~/gear/due";
 import { GEAR_KIND_INFO, GEAR_KINDS, GEAR_STATUS_LABELS, GEAR_STATUSES, kindLabel, sizeSummary } from "~/gear/kinds";
-import { countGearDue, GEAR_SORT_KEYS, searchGearItems, type GearRow, type GearSortKey } from "~/models/gear-item.server";
+import {
+  countGearDue,
+  GEAR_SORT_KEYS,
+  searchGearItems,
+  type GearRow,
+  type GearSortKey,
+} from "~/models/gear-item.server";
 import { listSites } from "~/models/site.server";
 import { hasAnyRole } from "~/utils/roles";
 import { requireUser } from "~/utils/session.server";
@@ -19,7 +31,10 @@ const searchSchema = z.object({
   q: z.string().transform(withoutControlCharacters).pipe(z.string().trim().max(100)).catch(""),
   kind: z.enum(GEAR_KINDS).optional().catch(undefined),
   status: z.enum(GEAR_STATUSES).optional().catch(undefined),
-  site: z.union([z.literal("none"), z.coerce.number().int().positive()]).optional().catch(undefined),
+  site: z
+    .union([z.literal("none"), z.coerce.number().int().positive()])
+    .optional()
+    .catch(undefined),
   due: z.enum(DUE_STATES).optional().catch(undefined),
   sort: z.enum(GEAR_SORT_KEYS).catch("itemCode"),
   dir: z.enum(["asc", "desc"]).catch("asc"),
@@ -63,7 +78,14 @@ function searchHref(search: Search, change: Partial<Record<keyof Search, string 
   const params = new URLSearchParams();
   const merged: Record<string, unknown> = { ...search, ...change };
   for (const [key, value] of Object.entries(merged)) {
-    if (value === undefined || value === "" || (key === "page" && value === 1) || (key === "sort" && value === "itemCode") || (key === "dir" && value === "asc")) continue;
+    if (
+      value === undefined ||
+      value === "" ||
+      (key === "page" && value === 1) ||
+      (key === "sort" && value === "itemCode") ||
+      (key === "dir" && value === "asc")
+    )
+      continue;
     params.set(key, String(value));
   }
   const qs = params.toString();
@@ -103,10 +125,22 @@ const columns = [
   column.accessor("wllKg", {
     header: "WLL (marked)",
     meta: { sortKey: "wllKg" },
-    cell: (c) => <span className="whitespace-nowrap">{formatWll(c.row.original.wllValue, c.row.original.wllUnit, c.getValue())}</span>,
+    cell: (c) => (
+      <span className="whitespace-nowrap">
+        {formatWll(c.row.original.wllValue, c.row.original.wllUnit, c.getValue())}
+      </span>
+    ),
   }),
-  column.accessor("siteName", { header: "Home site", meta: { sortKey: "site", className: "hidden md:table-cell" }, cell: (c) => c.getValue() ?? "—" }),
-  column.accessor("status", { header: "Status", meta: { sortKey: "status", className: "hidden md:table-cell" }, cell: (c) => <StatusLabel status={c.getValue()} /> }),
+  column.accessor("siteName", {
+    header: "Home site",
+    meta: { sortKey: "site", className: "hidden md:table-cell" },
+    cell: (c) => c.getValue() ?? "—",
+  }),
+  column.accessor("status", {
+    header: "Status",
+    meta: { sortKey: "status", className: "hidden md:table-cell" },
+    cell: (c) => <StatusLabel status={c.getValue()} />,
+  }),
   column.accessor("nextDueOn", {
     header: "Next examination",
     meta: { sortKey: "nextDueOn", className: "hidden md:table-cell" },
@@ -123,7 +157,9 @@ type ColumnMeta = { sortKey?: GearSortKey; className?: string };
 
 export default function GearRegister({ loaderData }: Route.ComponentProps) {
   const { rows, total, pageCount, search, sites, canEdit, due } = loaderData;
-  const sorting: SortingState = [{ id: search.sort === "site" ? "siteName" : search.sort, desc: search.dir === "desc" }];
+  const sorting: SortingState = [
+    { id: search.sort === "site" ? "siteName" : search.sort, desc: search.dir === "desc" },
+  ];
   const table = useReactTable({
     data: rows,
     columns,
@@ -139,16 +175,28 @@ export default function GearRegister({ loaderData }: Route.ComponentProps) {
   const last = Math.min(total, search.page * PAGE_SIZE);
   return (
     <>
-      <PageHeader title="Gear register" lead="Every item of lifting gear, its marked WLL, status and thorough examinations.">
-        <a href="/gear/export.csv" className="rounded border border-rule bg-white px-4 py-2 text-sm font-semibold text-ink no-underline hover:no-underline">
+      <PageHeader
+        title="Gear register"
+        lead="Every item of lifting gear, its marked WLL, status and thorough examinations."
+      >
+        <a
+          href="/gear/export.csv"
+          className="rounded border border-rule bg-white px-4 py-2 text-sm font-semibold text-ink no-underline hover:no-underline"
+        >
           Export CSV
         </a>
         {canEdit && (
           <>
-            <a href="/gear/import" className="rounded border border-rule bg-white px-4 py-2 text-sm font-semibold text-ink no-underline hover:no-underline">
+            <a
+              href="/gear/import"
+              className="rounded border border-rule bg-white px-4 py-2 text-sm font-semibold text-ink no-underline hover:no-underline"
+            >
               Import CSV
             </a>
-            <a href="/gear/new" className="rounded bg-steel px-4 py-2 text-sm font-semibold text-white no-underline hover:no-underline">
+            <a
+              href="/gear/new"
+              className="rounded bg-steel px-4 py-2 text-sm font-semibold text-white no-underline hover:no-underline"
+            >
               Add an item
             </a>
           </>
@@ -158,19 +206,31 @@ export default function GearRegister({ loaderData }: Route.ComponentProps) {
       {(due.overdue > 0 || due.dueSoon > 0) && (
         <p className="mb-4 flex flex-wrap gap-2 text-sm" aria-label="Examinations falling due">
           {due.overdue > 0 && (
-            <Link to={searchHref(search, { due: "overdue", page: 1 })} className="rounded border border-fail/50 bg-fail-soft px-2 py-1 font-bold text-fail no-underline">
+            <Link
+              to={searchHref(search, { due: "overdue", page: 1 })}
+              className="rounded border border-fail/50 bg-fail-soft px-2 py-1 font-bold text-fail no-underline"
+            >
               ! {due.overdue} OVERDUE
             </Link>
           )}
           {due.dueSoon > 0 && (
-            <Link to={searchHref(search, { due: "due_soon", page: 1 })} className="rounded border border-warn/50 bg-warn-soft px-2 py-1 font-semibold text-warn no-underline">
+            <Link
+              to={searchHref(search, { due: "due_soon", page: 1 })}
+              className="rounded border border-warn/50 bg-warn-soft px-2 py-1 font-semibold text-warn no-underline"
+            >
               ◷ {due.dueSoon} due within {DUE_SOON_DAYS} days
             </Link>
           )}
         </p>
       )}
 
-      <Form key={JSON.stringify(search)} method="get" className="mb-4 grid gap-3 rounded border border-rule bg-card p-3 sm:grid-cols-2 lg:grid-cols-6" role="search" aria-label="Filter the register">
+      <Form
+        key={JSON.stringify(search)}
+        method="get"
+        className="mb-4 grid gap-3 rounded border border-rule bg-card p-3 sm:grid-cols-2 lg:grid-cols-6"
+        role="search"
+        aria-label="Filter the register"
+      >
         <label className="block text-sm font-medium lg:col-span-2">
           Search
           <input
@@ -181,15 +241,30 @@ export default function GearRegister({ loaderData }: Route.ComponentProps) {
             className="mt-1 block w-full rounded border border-rule bg-white px-3 py-2 text-base"
           />
         </label>
-        <FilterSelect label="Kind" name="kind" value={search.kind} options={GEAR_KINDS.map((k) => [k, GEAR_KIND_INFO[k].label])} />
-        <FilterSelect label="Status" name="status" value={search.status} options={GEAR_STATUSES.map((s) => [s, GEAR_STATUS_LABELS[s]])} />
+        <FilterSelect
+          label="Kind"
+          name="kind"
+          value={search.kind}
+          options={GEAR_KINDS.map((k) => [k, GEAR_KIND_INFO[k].label])}
+        />
+        <FilterSelect
+          label="Status"
+          name="status"
+          value={search.status}
+          options={GEAR_STATUSES.map((s) => [s, GEAR_STATUS_LABELS[s]])}
+        />
         <FilterSelect
           label="Home site"
           name="site"
           value={search.site === undefined ? undefined : String(search.site)}
           options={[["none", "No home site"], ...sites.map((s): [string, string] => [String(s.id), s.name])]}
         />
-        <FilterSelect label="Examination" name="due" value={search.due} options={DUE_STATES.map((d) => [d, DUE_STATE_LABELS[d]])} />
+        <FilterSelect
+          label="Examination"
+          name="due"
+          value={search.due}
+          options={DUE_STATES.map((d) => [d, DUE_STATE_LABELS[d]])}
+        />
         {search.sort !== "itemCode" && <input type="hidden" name="sort" value={search.sort} />}
         {search.dir !== "asc" && <input type="hidden" name="dir" value={search.dir} />}
         <div className="flex items-end gap-2 lg:col-span-6">
@@ -204,12 +279,17 @@ export default function GearRegister({ loaderData }: Route.ComponentProps) {
 
       {total === 0 ? (
         <EmptyState title={filtered ? "No items match" : "The register is empty"}>
-          {filtered ? "Change or clear the filters." : canEdit ? "Add items one by one or import a CSV." : "Admins add the organisation's gear here."}
+          {filtered
+            ? "Change or clear the filters."
+            : canEdit
+              ? "Add items one by one or import a CSV."
+              : "Admins add the organisation's gear here."}
         </EmptyState>
       ) : (
         <>
           <p className="mb-2 text-sm text-ink-soft" aria-live="polite">
-            Showing {first.toLocaleString("en-GB")}–{last.toLocaleString("en-GB")} of {total.toLocaleString("en-GB")} items
+            Showing {first.toLocaleString("en-GB")}–{last.toLocaleString("en-GB")} of {total.toLocaleString("en-GB")}{" "}
+            items
           </p>
           <div className="overflow-x-auto rounded border border-rule bg-card">
             <table>
@@ -229,7 +309,11 @@ export default function GearRegister({ loaderData }: Route.ComponentProps) {
                         >
                           {meta.sortKey ? (
                             <Link
-                              to={searchHref(search, { sort: meta.sortKey, dir: sorted === "asc" ? "desc" : "asc", page: 1 })}
+                              to={searchHref(search, {
+                                sort: meta.sortKey,
+                                dir: sorted === "asc" ? "desc" : "asc",
+                                page: 1,
+                              })}
                               className="whitespace-nowrap text-ink-soft"
                             >
                               {label}
@@ -259,11 +343,19 @@ export default function GearRegister({ loaderData }: Route.ComponentProps) {
           </div>
           {pageCount > 1 && (
             <nav aria-label="Pages of the register" className="mt-3 flex flex-wrap items-center gap-3 text-sm">
-              {table.getCanPreviousPage() ? <Link to={searchHref(search, { page: search.page - 1 })}>← Previous</Link> : <span className="text-ink-soft">← Previous</span>}
+              {table.getCanPreviousPage() ? (
+                <Link to={searchHref(search, { page: search.page - 1 })}>← Previous</Link>
+              ) : (
+                <span className="text-ink-soft">← Previous</span>
+              )}
               <span>
                 Page {search.page} of {pageCount}
               </span>
-              {table.getCanNextPage() ? <Link to={searchHref(search, { page: search.page + 1 })}>Next →</Link> : <span className="text-ink-soft">Next →</span>}
+              {table.getCanNextPage() ? (
+                <Link to={searchHref(search, { page: search.page + 1 })}>Next →</Link>
+              ) : (
+                <span className="text-ink-soft">Next →</span>
+              )}
             </nav>
           )}
         </>
@@ -272,11 +364,25 @@ export default function GearRegister({ loaderData }: Route.ComponentProps) {
   );
 }
 
-function FilterSelect({ label, name, value, options }: { label: string; name: string; value?: string; options: Array<[string, string]> }) {
+function FilterSelect({
+  label,
+  name,
+  value,
+  options,
+}: {
+  label: string;
+  name: string;
+  value?: string;
+  options: Array<[string, string]>;
+}) {
   return (
     <label className="block text-sm font-medium">
       {label}
-      <select name={name} defaultValue={value ?? ""} className="mt-1 block w-full rounded border border-rule bg-white px-3 py-2 text-base">
+      <select
+        name={name}
+        defaultValue={value ?? ""}
+        className="mt-1 block w-full rounded border border-rule bg-white px-3 py-2 text-base"
+      >
         <option value="">Any</option>
         {options.map(([v, l]) => (
           <option key={v} value={v}>

@@ -28,10 +28,14 @@ export async function loader({ request }: Route.LoaderArgs) {
 
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireUserWithRole(request, "admin");
-  const fail = (intent: "preview" | "confirm", error: string, status = 400) => data<ActionResult>({ intent, error }, { status });
+  const fail = (intent: "preview" | "confirm", error: string, status = 400) =>
+    data<ActionResult>({ intent, error }, { status });
   const upload = await readUploadForm(request, { maxFileBytes: MAX_IMPORT_BYTES, maxFiles: 1 });
   if (!upload.ok) {
-    const message = upload.status === 413 ? `The file is larger than the ${MAX_IMPORT_BYTES / (1024 * 1024)} MB an import takes; split it into smaller files.` : upload.message;
+    const message =
+      upload.status === 413
+        ? `The file is larger than the ${MAX_IMPORT_BYTES / (1024 * 1024)} MB an import takes; split it into smaller files.`
+        : upload.message;
     return fail("preview", message, upload.status);
   }
   const formData = upload.formData;
@@ -59,7 +63,10 @@ export default function ImportGear({ loaderData }: Route.ComponentProps) {
   const importingRows = confirm.formData?.get("mode") === "valid" ? staged?.validCount : staged?.rowCount;
   return (
     <>
-      <PageHeader title="Import gear from CSV" lead="Add and update items from a spreadsheet. Nothing is written until you confirm.">
+      <PageHeader
+        title="Import gear from CSV"
+        lead="Add and update items from a spreadsheet. Nothing is written until you confirm."
+      >
         <a href="/gear" className="px-2 py-2 text-sm">
           Back to the register
         </a>
@@ -74,7 +81,14 @@ export default function ImportGear({ loaderData }: Route.ComponentProps) {
                 <label htmlFor="import-file" className="block text-sm font-medium">
                   CSV file (up to {loaderData.maxMegabytes} MB, {loaderData.maxRows.toLocaleString("en-GB")} items)
                 </label>
-                <input id="import-file" name="file" type="file" accept=".csv,text/csv" required className="mt-1 block w-full text-sm" />
+                <input
+                  id="import-file"
+                  name="file"
+                  type="file"
+                  accept=".csv,text/csv"
+                  required
+                  className="mt-1 block w-full text-sm"
+                />
               </div>
               <Button type="submit" disabled={checking}>
                 {checking ? "Checking…" : "Check the file"}
@@ -90,10 +104,12 @@ export default function ImportGear({ loaderData }: Route.ComponentProps) {
           {staged && !done && (
             <Card title="2. Check what will change">
               <p className="text-sm">
-                <strong>{staged.fileName}</strong>: {staged.rowCount} row(s). Of the valid rows, {staged.counts.created} would be created, {staged.counts.updated} updated and{" "}
-                {staged.counts.unchanged} left unchanged.
+                <strong>{staged.fileName}</strong>: {staged.rowCount} row(s). Of the valid rows, {staged.counts.created}{" "}
+                would be created, {staged.counts.updated} updated and {staged.counts.unchanged} left unchanged.
               </p>
-              {staged.ignoredColumns.length > 0 && <p className="mt-2 text-sm text-ink-soft">Columns not read: {staged.ignoredColumns.join(", ")}.</p>}
+              {staged.ignoredColumns.length > 0 && (
+                <p className="mt-2 text-sm text-ink-soft">Columns not read: {staged.ignoredColumns.join(", ")}.</p>
+              )}
               {staged.errorCount > 0 && (
                 <div className="mt-4" role="alert">
                   <h3 className="text-fail">
@@ -125,12 +141,16 @@ export default function ImportGear({ loaderData }: Route.ComponentProps) {
                       </tbody>
                     </table>
                   </div>
-                  {staged.errorCount > staged.errors.length && <p className="mt-1 text-sm">…and {staged.errorCount - staged.errors.length} more.</p>}
+                  {staged.errorCount > staged.errors.length && (
+                    <p className="mt-1 text-sm">…and {staged.errorCount - staged.errors.length} more.</p>
+                  )}
                 </div>
               )}
               {staged.updates.length > 0 && (
                 <details className="mt-4 text-sm">
-                  <summary className="cursor-pointer font-semibold">Items that would be updated ({staged.counts.updated})</summary>
+                  <summary className="cursor-pointer font-semibold">
+                    Items that would be updated ({staged.counts.updated})
+                  </summary>
                   <ul className="mt-2 space-y-1">
                     {staged.updates.map((u) => (
                       <li key={u.line}>
@@ -157,7 +177,8 @@ export default function ImportGear({ loaderData }: Route.ComponentProps) {
                 )}
                 {importing && (
                   <span className="flex items-center gap-2 text-sm" role="status">
-                    <progress className="w-40" aria-label="Importing" /> Importing {importingRows ?? ""} rows in one transaction…
+                    <progress className="w-40" aria-label="Importing" /> Importing {importingRows ?? ""} rows in one
+                    transaction…
                   </span>
                 )}
               </confirm.Form>
@@ -180,18 +201,23 @@ export default function ImportGear({ loaderData }: Route.ComponentProps) {
         <Card title="The file's format">
           <div className="space-y-2 text-sm">
             <p>
-              The first line names the columns. Needed: <code>{REQUIRED_HEADERS.join(", ")}</code>. Export the register to get a file in this format.
+              The first line names the columns. Needed: <code>{REQUIRED_HEADERS.join(", ")}</code>. Export the register
+              to get a file in this format.
             </p>
             <p>
-              Columns read: <code>{CSV_HEADERS.filter((h) => !(READ_ONLY_COLUMNS as readonly string[]).includes(h)).join(", ")}</code>.
+              Columns read:{" "}
+              <code>{CSV_HEADERS.filter((h) => !(READ_ONLY_COLUMNS as readonly string[]).includes(h)).join(", ")}</code>
+              .
             </p>
             <p>
-              Rows are matched to the register by <code>item_code</code>: new ids are added, changed items updated. <code>{READ_ONLY_COLUMNS.join(", ")}</code> are for
-              reading only: status and examinations change only on the item's page.
+              Rows are matched to the register by <code>item_code</code>: new ids are added, changed items updated.{" "}
+              <code>{READ_ONLY_COLUMNS.join(", ")}</code> are for reading only: status and examinations change only on
+              the item's page.
             </p>
             <p>
-              <code>kind</code> is one of eyebolt, shackle, chain_sling, wire_rope_sling, web_sling, round_sling, master_link, beam, chain_block, lever_hoist, hoist, crane.{" "}
-              <code>wll_unit</code> is kg, t, lb or shortTon. <code>home_site</code> is a site's name.
+              <code>kind</code> is one of eyebolt, shackle, chain_sling, wire_rope_sling, web_sling, round_sling,
+              master_link, beam, chain_block, lever_hoist, hoist, crane. <code>wll_unit</code> is kg, t, lb or shortTon.{" "}
+              <code>home_site</code> is a site's name.
             </p>
           </div>
         </Card>

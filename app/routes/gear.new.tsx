@@ -22,7 +22,12 @@ export async function action({ request }: Route.ActionArgs) {
   if (!form.ok) return data({ errors: form.errors }, { status: 400 });
   const item = await createGearItem(user.organisationId, form.data, user.id);
   throw redirect(`/gear/${item.id}`, {
-    headers: { "Set-Cookie": await flashNotice(request, `${item.itemCode} is in the register. Record its thorough examination next.`) },
+    headers: {
+      "Set-Cookie": await flashNotice(
+        request,
+        `${item.itemCode} is in the register. Record its thorough examination next.`,
+      ),
+    },
   });
 }
 

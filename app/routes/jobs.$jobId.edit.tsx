@@ -23,7 +23,15 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const sites = await listSites(user.organisationId);
   return {
     sites: sites.map((s) => ({ id: s.id, name: s.name, customer: s.customer })),
-    job: { id: job.id, siteId: job.siteId, workOrder: job.workOrder, title: job.title, description: job.description, status: job.status, startsOn: job.startsOn },
+    job: {
+      id: job.id,
+      siteId: job.siteId,
+      workOrder: job.workOrder,
+      title: job.title,
+      description: job.description,
+      status: job.status,
+      startsOn: job.startsOn,
+    },
   };
 }
 
@@ -45,7 +53,12 @@ export default function EditJob({ loaderData, actionData }: Route.ComponentProps
         </a>
       </PageHeader>
       <Card className="max-w-xl">
-        <JobForm sites={loaderData.sites} values={loaderData.job} errors={actionData?.errors ?? {}} submitLabel="Save job" />
+        <JobForm
+          sites={loaderData.sites}
+          values={loaderData.job}
+          errors={actionData?.errors ?? {}}
+          submitLabel="Save job"
+        />
       </Card>
     </>
   );

@@ -25,7 +25,13 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       description: job.description,
       status: job.status,
       startsOn: job.startsOn,
-      site: { id: job.siteId, name: job.site?.name ?? "", customer: job.site?.customer ?? "", address: job.site?.address ?? "", siteContact: job.site?.siteContact ?? "" },
+      site: {
+        id: job.siteId,
+        name: job.site?.name ?? "",
+        customer: job.site?.customer ?? "",
+        address: job.site?.address ?? "",
+        siteContact: job.site?.siteContact ?? "",
+      },
     },
   };
 }
@@ -36,7 +42,10 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
     <>
       <PageHeader title={`${job.workOrder}: ${job.title}`} lead={`${job.site.name} · ${job.site.customer}`}>
         {canEdit && (
-          <a href={`/jobs/${job.id}/edit`} className="rounded border border-rule bg-white px-4 py-2 text-sm font-semibold text-ink no-underline">
+          <a
+            href={`/jobs/${job.id}/edit`}
+            className="rounded border border-rule bg-white px-4 py-2 text-sm font-semibold text-ink no-underline"
+          >
             Edit job
           </a>
         )}
@@ -45,7 +54,11 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
         <Card title="Lifts" className="md:col-span-2">
           {plans.length === 0 ? (
             <EmptyState title="No lift plans yet">
-              {canEdit ? <a href={`/plans/new?jobId=${job.id}`}>Plan a lift</a> : "Lift plans for this job will be listed here."}
+              {canEdit ? (
+                <a href={`/plans/new?jobId=${job.id}`}>Plan a lift</a>
+              ) : (
+                "Lift plans for this job will be listed here."
+              )}
             </EmptyState>
           ) : (
             <>
@@ -62,7 +75,10 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
                 ))}
               </ul>
               {canEdit && (
-                <a href={`/plans/new?jobId=${job.id}`} className="mt-3 inline-block rounded bg-steel px-4 py-2 text-sm font-semibold text-white no-underline hover:no-underline">
+                <a
+                  href={`/plans/new?jobId=${job.id}`}
+                  className="mt-3 inline-block rounded bg-steel px-4 py-2 text-sm font-semibold text-white no-underline hover:no-underline"
+                >
                   Plan a lift
                 </a>
               )}

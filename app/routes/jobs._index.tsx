@@ -29,14 +29,19 @@ export default function Jobs({ loaderData }: Route.ComponentProps) {
     <>
       <PageHeader title="Jobs" lead="Work orders at customer sites; each holds the lifts planned for it.">
         {canEdit && (
-          <a href="/jobs/new" className="rounded bg-steel px-4 py-2 text-sm font-semibold text-white no-underline hover:no-underline">
+          <a
+            href="/jobs/new"
+            className="rounded bg-steel px-4 py-2 text-sm font-semibold text-white no-underline hover:no-underline"
+          >
             Open a job
           </a>
         )}
       </PageHeader>
       {jobs.length === 0 ? (
         <EmptyState title="No jobs yet">
-          {canEdit ? "Open a job for a customer site to start planning its lifts." : "Planners open jobs; they will appear here."}
+          {canEdit
+            ? "Open a job for a customer site to start planning its lifts."
+            : "Planners open jobs; they will appear here."}
         </EmptyState>
       ) : (
         <div className="overflow-x-auto rounded border border-rule bg-card">

@@ -22,20 +22,30 @@ export async function action({ request }: Route.ActionArgs) {
   const form = await parseJobForm(user.organisationId, await requireFormData(request));
   if (!form.ok) return data({ errors: form.errors }, { status: 400 });
   const job = await createJob(user.organisationId, form.data, user.id);
-  throw redirect(`/jobs/${job.id}`, { headers: { "Set-Cookie": await flashNotice(request, `Job ${job.workOrder} is open.`) } });
+  throw redirect(`/jobs/${job.id}`, {
+    headers: { "Set-Cookie": await flashNotice(request, `Job ${job.workOrder} is open.`) },
+  });
 }
 
 export default function NewJob({ loaderData, actionData }: Route.ComponentProps) {
   return (
     <>
-      <PageHeader title="Open a job" lead="A job is a work order at a customer site; its lifts are planned inside it." />
+      <PageHeader
+        title="Open a job"
+        lead="A job is a work order at a customer site; its lifts are planned inside it."
+      />
       {loaderData.sites.length === 0 ? (
         <EmptyState title="Add a site first">
           A job belongs to a customer site. <a href="/sites/new">Add a site</a>.
         </EmptyState>
       ) : (
         <Card className="max-w-xl">
-          <JobForm sites={loaderData.sites} values={{ siteId: loaderData.siteId }} errors={actionData?.errors ?? {}} submitLabel="Open job" />
+          <JobForm
+            sites={loaderData.sites}
+            values={{ siteId: loaderData.siteId }}
+            errors={actionData?.errors ?? {}}
+            submitLabel="Open job"
+          />
         </Card>
       )}
     </>

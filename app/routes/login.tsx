@@ -20,7 +20,11 @@ export async function action({ request }: Route.ActionArgs) {
   const redirectTo = safeRedirectPath(form.get("redirectTo"));
   const email = typeof form.get("email") === "string" ? String(form.get("email")) : "";
   const attempt = await startSignInAttempt({ email, addressKey: clientAddressKey(request) });
-  if (!attempt.ok) return data({ error: attempt.message, email }, { status: 429, headers: { "Retry-After": String(attempt.retryAfterSeconds) } });
+  if (!attempt.ok)
+    return data(
+      { error: attempt.message, email },
+      { status: 429, headers: { "Retry-After": String(attempt.retryAfterSeconds) } },
+    );
   try {
     const user = await authenticator.authenticate("password", request);
     await clearSignInFailures(email);
@@ -41,7 +45,14 @@ export default function Login({ actionData }: Route.ComponentProps) {
       <Form method="post" className="mt-6 space-y-4 rounded border border-rule bg-card p-5">
         <FormError message={actionData?.error} />
         <input type="hidden" name="redirectTo" value={params.get("redirectTo") ?? "/"} />
-        <Field label="E-mail" name="email" type="email" autoComplete="username" required defaultValue={actionData?.email} />
+        <Field
+          label="E-mail"
+          name="email"
+          type="email"
+          autoComplete="username"
+          required
+          defaultValue={actionData?.email}
+        />
         <Field label="Password" name="password" type="password" autoComplete="current-password" required />
         <Button type="submit" className="w-full" disabled={navigation.state === "submitting"}>
           {navigation.state === "submitting" ? "Signing in…" : "Sign in"}

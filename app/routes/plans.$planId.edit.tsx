@@ -11,11 +11,14 @@ import { planJson } from "~/plans/api.server";
 import { PLAN_STATUS_LABELS, type PlanStatus, type RiggingAllocation } from "~/plans/document";
 import { requireUserWithRole } from "~/utils/session.server";
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: `Edit ${data?.plan.title ?? "lift plan"} · Plumbline` }];
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: `Edit ${data?.plan.title ?? "lift plan"} · Plumbline` },
+];
 
 function allocatedIds(rigging: RiggingAllocation) {
   const ids: number[] = [];
-  for (const leg of Object.values(rigging.legs)) for (const id of [leg.eyeboltItemId, leg.shackleItemId, leg.slingItemId]) if (id !== undefined) ids.push(id);
+  for (const leg of Object.values(rigging.legs))
+    for (const id of [leg.eyeboltItemId, leg.shackleItemId, leg.slingItemId]) if (id !== undefined) ids.push(id);
   if (rigging.masterLinkItemId !== undefined) ids.push(rigging.masterLinkItemId);
   if (rigging.craneItemId !== undefined) ids.push(rigging.craneItemId);
   return ids;
@@ -50,16 +53,23 @@ export default function EditPlan({ loaderData }: Route.ComponentProps) {
         title={plan.title}
         lead={`${plan.job.workOrder} · ${plan.job.site?.name ?? ""} · revision ${plan.revision} · ${PLAN_STATUS_LABELS[plan.status as PlanStatus] ?? plan.status}`}
       >
-        <a href={`/plans/${plan.id}`} className="rounded border border-rule bg-white px-4 py-2 text-sm font-semibold text-ink no-underline">
+        <a
+          href={`/plans/${plan.id}`}
+          className="rounded border border-rule bg-white px-4 py-2 text-sm font-semibold text-ink no-underline"
+        >
           Plan summary
         </a>
-        <a href={`/plans/${plan.id}/details`} className="rounded border border-rule bg-white px-4 py-2 text-sm font-semibold text-ink no-underline">
+        <a
+          href={`/plans/${plan.id}/details`}
+          className="rounded border border-rule bg-white px-4 py-2 text-sm font-semibold text-ink no-underline"
+        >
           Sequence, hazards and people
         </a>
       </PageHeader>
       {!canEdit && (
         <p role="status" className="mb-4 rounded border border-warn/40 bg-warn-soft p-3 text-sm">
-          This revision is {PLAN_STATUS_LABELS[plan.status as PlanStatus] ?? plan.status} and frozen: you can look, but changes are not saved.
+          This revision is {PLAN_STATUS_LABELS[plan.status as PlanStatus] ?? plan.status} and frozen: you can look, but
+          changes are not saved.
         </p>
       )}
       {hydrated ? (

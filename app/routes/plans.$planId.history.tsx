@@ -11,13 +11,19 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUser(request);
   const found = await getPlan(user.organisationId, Number(params.planId));
   if (!found) throw data({ message: "There is no such plan in your organisation." }, { status: 404 });
-  return { plan: { id: found.plan.id, title: found.plan.title }, events: await listPlanHistory(user.organisationId, found.plan.id) };
+  return {
+    plan: { id: found.plan.id, title: found.plan.title },
+    events: await listPlanHistory(user.organisationId, found.plan.id),
+  };
 }
 
 function describe(details: Record<string, unknown>) {
   return Object.entries(details)
     .filter(([k]) => k !== "fingerprint")
-    .map(([k, v]) => `${k.replace(/([A-Z])/g, " $1").toLowerCase()}: ${typeof v === "object" ? JSON.stringify(v) : String(v)}`)
+    .map(
+      ([k, v]) =>
+        `${k.replace(/([A-Z])/g, " $1").toLowerCase()}: ${typeof v === "object" ? JSON.stringify(v) : String(v)}`,
+    )
     .join(" · ");
 }
 
@@ -25,7 +31,10 @@ export default function PlanHistory({ loaderData }: Route.ComponentProps) {
   const { plan, events } = loaderData;
   return (
     <>
-      <PageHeader title={`History of ${plan.title}`} lead="Every state change, acknowledgement, approval, print and record, with who and when. It cannot be edited.">
+      <PageHeader
+        title={`History of ${plan.title}`}
+        lead="Every state change, acknowledgement, approval, print and record, with who and when. It cannot be edited."
+      >
         <a href={`/plans/${plan.id}`} className="px-2 py-2 text-sm">
           Back to the plan
         </a>

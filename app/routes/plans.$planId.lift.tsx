@@ -33,16 +33,40 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const workflow = (await getWorkflowView(user.organisationId, found.plan.id, user, found))!;
   const approved = workflow.approved;
   if (!approved || approved.status !== "approved") {
-    throw data({ message: "This plan has no approved revision to lift: only an approved, current revision goes to the lift." }, { status: 409 });
+    throw data(
+      { message: "This plan has no approved revision to lift: only an approved, current revision goes to the lift." },
+      { status: 409 },
+    );
   }
   const rows = scheduleOf(approved.rigging);
-  const picks = new Map((await gearPicksByIds(user.organisationId, rows.map((r) => r.itemId), await getReferenceTables())).map((p) => [p.id, p]));
+  const picks = new Map(
+    (
+      await gearPicksByIds(
+        user.organisationId,
+        rows.map((r) => r.itemId),
+        await getReferenceTables(),
+      )
+    ).map((p) => [p.id, p]),
+  );
   return {
-    plan: { id: found.plan.id, title: found.plan.title, revision: approved.revision, approverName: approved.approverName },
+    plan: {
+      id: found.plan.id,
+      title: found.plan.title,
+      revision: approved.revision,
+      approverName: approved.approverName,
+    },
     massKg: approved.snapshot.massKg * (1 + approved.snapshot.contingencyPct / 100),
     schedule: rows.map((r) => {
       const p = picks.get(r.itemId);
-      return { ...r, itemCode: p?.itemCode ?? `#${r.itemId}`, description: p?.description ?? "", wllKg: p?.wllKg ?? null, role: p ? GEAR_ROLE_LABELS[p.role] : "", nextDueOn: p?.nextDueOn ?? null, status: p?.status ?? null };
+      return {
+        ...r,
+        itemCode: p?.itemCode ?? `#${r.itemId}`,
+        description: p?.description ?? "",
+        wllKg: p?.wllKg ?? null,
+        role: p ? GEAR_ROLE_LABELS[p.role] : "",
+        nextDueOn: p?.nextDueOn ?? null,
+        status: p?.status ?? null,
+      };
     }),
     details: approved.details,
     canRecord: workflow.permissions["record-lift"].allowed,
@@ -54,14 +78,18 @@ export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireUserWithRole(request, "rigger");
   const planId = Number(params.planId);
   // Another organisation's plan is not found whatever the form says, as on every other plan route.
-  if (!(await planExists(user.organisationId, planId))) throw data({ message: "There is no such plan in your organisation." }, { status: 404 });
+  if (!(await planExists(user.organisationId, planId)))
+    throw data({ message: "There is no such plan in your organisation." }, { status: 404 });
   const upload = await readUploadForm(request, { maxFiles: 3 });
   if (!upload.ok) return data({ error: upload.message }, { status: upload.status });
   const form = upload.formData;
-  const checklist = Object.fromEntries(PRE_LIFT_CHECKLIST.map((c) => [c.id, form.get(`check-${c.id}`) === "on"])) as Record<ChecklistId, boolean>;
+  const checklist = Object.fromEntries(
+    PRE_LIFT_CHECKLIST.map((c) => [c.id, form.get(`check-${c.id}`) === "on"]),
+  ) as Record<ChecklistId, boolean>;
   const liftedRaw = String(form.get("liftedAt") ?? "");
   const liftedAt = liftedRaw ? new Date(`${liftedRaw}Z`) : new Date();
-  if (Number.isNaN(liftedAt.getTime())) return data({ error: "Give the time of the lift as a date and time." }, { status: 400 });
+  if (Number.isNaN(liftedAt.getTime()))
+    return data({ error: "Give the time of the lift as a date and time." }, { status: 400 });
   const photos: CheckedUpload[] = [];
   for (const value of form.getAll("photos")) {
     if (!(value instanceof File) || (value.size === 0 && !value.name)) continue;
@@ -86,15 +114,23 @@ export async function action({ request, params }: Route.ActionArgs) {
     if (result.status === 404) throw data({ message: result.message }, { status: 404 });
     return data({ error: result.message }, { status: result.status });
   }
-  throw redirect(`/plans/${planId}`, { headers: { "Set-Cookie": await flashNotice(request, "The lift is recorded and the plan is completed.") } });
+  throw redirect(`/plans/${planId}`, {
+    headers: { "Set-Cookie": await flashNotice(request, "The lift is recorded and the plan is completed.") },
+  });
 }
 
 export default function AtTheLift({ loaderData, actionData }: Route.ComponentProps) {
   const { plan, schedule, details, canRecord, massKg, units } = loaderData;
   return (
     <>
-      <PageHeader title={plan.title} lead={`Approved revision ${plan.revision}${plan.approverName ? `, approved by ${plan.approverName}` : ""} · load with contingency ${formatMass(massKg, units)}`}>
-        <a href={`/plans/${plan.id}/print.pdf`} className="rounded border border-rule bg-white px-4 py-2 text-sm font-semibold text-ink no-underline">
+      <PageHeader
+        title={plan.title}
+        lead={`Approved revision ${plan.revision}${plan.approverName ? `, approved by ${plan.approverName}` : ""} · load with contingency ${formatMass(massKg, units)}`}
+      >
+        <a
+          href={`/plans/${plan.id}/print.pdf`}
+          className="rounded border border-rule bg-white px-4 py-2 text-sm font-semibold text-ink no-underline"
+        >
           Print (PDF)
         </a>
       </PageHeader>
@@ -106,8 +142,13 @@ export default function AtTheLift({ loaderData, actionData }: Route.ComponentPro
           <ul className="divide-y divide-rule text-sm" data-testid="schedule">
             {schedule.map((row) => (
               <li key={row.position} className="py-2">
-                <span className="font-semibold">{row.position}</span>: {row.itemCode} {row.description && <span className="text-ink-soft">({row.description})</span>}
-                {row.wllKg !== null && <span className="block">WLL {formatMass(row.wllKg, units)} · next examination {row.nextDueOn ?? "none on record"}</span>}
+                <span className="font-semibold">{row.position}</span>: {row.itemCode}{" "}
+                {row.description && <span className="text-ink-soft">({row.description})</span>}
+                {row.wllKg !== null && (
+                  <span className="block">
+                    WLL {formatMass(row.wllKg, units)} · next examination {row.nextDueOn ?? "none on record"}
+                  </span>
+                )}
                 <a href={`/gear/${row.itemId}#report-defect`} className="text-sm">
                   Report a defect on {row.itemCode}
                 </a>
@@ -120,7 +161,11 @@ export default function AtTheLift({ loaderData, actionData }: Route.ComponentPro
             {details.sequence.map((s, i) => (
               <li key={i}>
                 <span className="font-semibold">{s.title}</span>
-                {s.holdPoint && <span className="ml-1 rounded bg-brass-soft px-1 text-xs font-semibold text-brass-deep">HOLD POINT</span>}
+                {s.holdPoint && (
+                  <span className="ml-1 rounded bg-brass-soft px-1 text-xs font-semibold text-brass-deep">
+                    HOLD POINT
+                  </span>
+                )}
                 {s.notes && <span className="block text-ink-soft">{s.notes}</span>}
               </li>
             ))}
@@ -128,7 +173,9 @@ export default function AtTheLift({ loaderData, actionData }: Route.ComponentPro
           {details.exclusionZone && <p className="mt-2 text-sm">Exclusion zone: {details.exclusionZone}</p>}
           {details.communication && <p className="text-sm">Communication: {details.communication}</p>}
           {details.people.length > 0 && (
-            <p className="text-sm">People: {details.people.map((p) => `${p.name} (${PERSON_ROLE_LABELS[p.role]})`).join(", ")}</p>
+            <p className="text-sm">
+              People: {details.people.map((p) => `${p.name} (${PERSON_ROLE_LABELS[p.role]})`).join(", ")}
+            </p>
           )}
         </Card>
         {canRecord ? (
@@ -146,7 +193,11 @@ export default function AtTheLift({ loaderData, actionData }: Route.ComponentPro
               </fieldset>
               <label className="block text-sm">
                 When the load was landed (UTC)
-                <input type="datetime-local" name="liftedAt" className="mt-1 block w-full rounded border border-rule px-2 py-2" />
+                <input
+                  type="datetime-local"
+                  name="liftedAt"
+                  className="mt-1 block w-full rounded border border-rule px-2 py-2"
+                />
               </label>
               <label className="block text-sm">
                 Notes
@@ -157,7 +208,11 @@ export default function AtTheLift({ loaderData, actionData }: Route.ComponentPro
               </label>
               <label className="block text-sm">
                 What happened (for a near miss)
-                <textarea name="nearMissDetails" rows={2} className="mt-1 block w-full rounded border border-rule px-2 py-2" />
+                <textarea
+                  name="nearMissDetails"
+                  rows={2}
+                  className="mt-1 block w-full rounded border border-rule px-2 py-2"
+                />
               </label>
               <label className="block text-sm">
                 Photos (PNG or JPEG, up to 3, 10 MB each)

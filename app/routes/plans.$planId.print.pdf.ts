@@ -10,7 +10,10 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const planId = Number(params.planId);
   const outcome = await buildPrintablePlan(user, planId, request);
   if (!outcome.ok) {
-    return new Response(outcome.message, { status: outcome.status, headers: { "Content-Type": "text/plain; charset=utf-8" } });
+    return new Response(outcome.message, {
+      status: outcome.status,
+      headers: { "Content-Type": "text/plain; charset=utf-8" },
+    });
   }
   const bytes = await buildPlanPdf(outcome.printable);
   await recordAudit({

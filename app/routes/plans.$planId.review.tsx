@@ -42,9 +42,17 @@ export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireUserWithRole(request, "approver");
   const planId = Number(params.planId);
   // Another organisation's plan is not found whatever the form says, as on every other plan route.
-  if (!(await planExists(user.organisationId, planId))) throw data({ message: "There is no such plan in your organisation." }, { status: 404 });
+  if (!(await planExists(user.organisationId, planId)))
+    throw data({ message: "There is no such plan in your organisation." }, { status: 404 });
   const form = parseForm(schema, await requireFormData(request));
-  if (!form.ok) return data({ error: Object.values(form.errors).flat()[0] ?? "The form is not complete.", field: Object.keys(form.errors)[0] ?? null }, { status: 400 });
+  if (!form.ok)
+    return data(
+      {
+        error: Object.values(form.errors).flat()[0] ?? "The form is not complete.",
+        field: Object.keys(form.errors)[0] ?? null,
+      },
+      { status: 400 },
+    );
   const result =
     form.data.intent === "approve"
       ? await approveRevision(user.organisationId, planId, user, form.data, request)
@@ -53,7 +61,10 @@ export async function action({ request, params }: Route.ActionArgs) {
     if (result.status === 404) throw data({ message: result.message }, { status: 404 });
     return data({ error: result.message, field: result.field ?? null }, { status: result.status });
   }
-  const notice = form.data.intent === "approve" ? "Approved and signed. The planner is told by e-mail; the plan can now be printed." : "Returned to the planner with your comments.";
+  const notice =
+    form.data.intent === "approve"
+      ? "Approved and signed. The planner is told by e-mail; the plan can now be printed."
+      : "Returned to the planner with your comments.";
   throw redirect(`/plans/${planId}`, { headers: { "Set-Cookie": await flashNotice(request, notice) } });
 }
 
@@ -62,10 +73,14 @@ export default function ReviewPlan({ loaderData, actionData }: Route.ComponentPr
   const s = revision.snapshot;
   const checks = revision.results.status === 200 ? (revision.results.body.checks ?? []) : [];
   const legs = revision.results.status === 200 ? revision.results.body.legs : [];
-  const fieldError = (name: string) => (actionData?.field === name && actionData.error ? [actionData.error] : undefined);
+  const fieldError = (name: string) =>
+    actionData?.field === name && actionData.error ? [actionData.error] : undefined;
   return (
     <>
-      <PageHeader title={`Review ${plan.title}`} lead={`Revision ${revision.revision} · ${PLAN_STATUS_LABELS[revision.status]}`}>
+      <PageHeader
+        title={`Review ${plan.title}`}
+        lead={`Revision ${revision.revision} · ${PLAN_STATUS_LABELS[revision.status]}`}
+      >
         <a href={`/plans/${plan.id}`} className="px-2 py-2 text-sm">
           The whole plan
         </a>
@@ -81,13 +96,15 @@ export default function ReviewPlan({ loaderData, actionData }: Route.ComponentPr
         <div className="space-y-6">
           <Card title="The load">
             <p className="text-sm">
-              {s.name}: {formatMass(s.massKg, units)} ({s.massSource}), contingency {s.contingencyPct} %, CoG ({formatLength(s.cog.x, units)}, {formatLength(s.cog.y, units)},{" "}
-              {formatLength(s.cog.z, units)}) ({s.cogSource}).
+              {s.name}: {formatMass(s.massKg, units)} ({s.massSource}), contingency {s.contingencyPct} %, CoG (
+              {formatLength(s.cog.x, units)}, {formatLength(s.cog.y, units)}, {formatLength(s.cog.z, units)}) (
+              {s.cogSource}).
             </p>
             <ul className="mt-2 text-sm">
               {legs.map((l) => (
                 <li key={l.liftPointId}>
-                  Leg {l.liftPointId}: {l.tensionKn.toFixed(2)} kN ({Math.ceil(l.tensionKg).toLocaleString("en-GB")} kg), {l.angleFromVerticalDeg.toFixed(1)}° from vertical
+                  Leg {l.liftPointId}: {l.tensionKn.toFixed(2)} kN ({Math.ceil(l.tensionKg).toLocaleString("en-GB")}{" "}
+                  kg), {l.angleFromVerticalDeg.toFixed(1)}° from vertical
                 </li>
               ))}
             </ul>
@@ -98,7 +115,10 @@ export default function ReviewPlan({ loaderData, actionData }: Route.ComponentPr
                 <li key={c.id} className="flex gap-2">
                   <StatusBadge status={c.status} />
                   <span>
-                    {c.message} {c.utilisation !== null && <span className="text-ink-soft">({utilisationText(c.utilisation)})</span>}
+                    {c.message}{" "}
+                    {c.utilisation !== null && (
+                      <span className="text-ink-soft">({utilisationText(c.utilisation)})</span>
+                    )}
                   </span>
                 </li>
               ))}
@@ -132,12 +152,25 @@ export default function ReviewPlan({ loaderData, actionData }: Route.ComponentPr
               <Form method="post" className="space-y-3">
                 <input type="hidden" name="intent" value="approve" />
                 <p className="text-sm text-ink-soft">
-                  Approving is your signature as the appointed person: the plan is frozen, printed with your name, and every later change needs a new
-                  revision and a new approval.
+                  Approving is your signature as the appointed person: the plan is frozen, printed with your name, and
+                  every later change needs a new revision and a new approval.
                 </p>
                 <input type="hidden" name="username" value="" autoComplete="username" />
-                <Field label="Your password, entered again" name="password" type="password" autoComplete="current-password" required errors={fieldError("password")} />
-                <Field label={`Type your name (${approverName})`} name="typedName" required autoComplete="off" errors={fieldError("typedName")} />
+                <Field
+                  label="Your password, entered again"
+                  name="password"
+                  type="password"
+                  autoComplete="current-password"
+                  required
+                  errors={fieldError("password")}
+                />
+                <Field
+                  label={`Type your name (${approverName})`}
+                  name="typedName"
+                  required
+                  autoComplete="off"
+                  errors={fieldError("typedName")}
+                />
                 <TextAreaField label="Comments for the rigger and planner (optional)" name="comment" />
                 <Button type="submit">Approve this revision</Button>
               </Form>
@@ -151,7 +184,13 @@ export default function ReviewPlan({ loaderData, actionData }: Route.ComponentPr
             <Card title="Return with comments">
               <Form method="post" className="space-y-3">
                 <input type="hidden" name="intent" value="return" />
-                <TextAreaField label="What should the planner change?" name="comment" required minLength={5} errors={fieldError("comment")} />
+                <TextAreaField
+                  label="What should the planner change?"
+                  name="comment"
+                  required
+                  minLength={5}
+                  errors={fieldError("comment")}
+                />
                 <Button type="submit" tone="secondary">
                   Return to the planner
                 </Button>

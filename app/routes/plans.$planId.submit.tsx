@@ -16,7 +16,12 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   if (!found) throw data({ message: "There is no such plan in your organisation." }, { status: 404 });
   const results = found.revision.results;
   return {
-    plan: { id: found.plan.id, title: found.plan.title, revision: found.revision.revision, status: found.revision.status },
+    plan: {
+      id: found.plan.id,
+      title: found.plan.title,
+      revision: found.revision.revision,
+      status: found.revision.status,
+    },
     error: results.status === 200 ? null : results.body.error,
     checks: results.status === 200 ? (results.body.checks ?? []) : [],
   };
@@ -27,13 +32,18 @@ export async function action({ request, params }: Route.ActionArgs) {
   const planId = Number(params.planId);
   const form = await requireFormData(request);
   const acknowledgements: Record<string, string> = {};
-  for (const [key, value] of form.entries()) if (key.startsWith("ack-") && typeof value === "string") acknowledgements[key.slice(4)] = value;
+  for (const [key, value] of form.entries())
+    if (key.startsWith("ack-") && typeof value === "string") acknowledgements[key.slice(4)] = value;
   const result = await submitRevision(user.organisationId, planId, user, acknowledgements, request);
   if (!result.ok) {
     if (result.status === 404) throw data({ message: result.message }, { status: 404 });
     return data({ error: result.message, field: result.field ?? null, acknowledgements }, { status: result.status });
   }
-  throw redirect(`/plans/${planId}`, { headers: { "Set-Cookie": await flashNotice(request, "Submitted for review; the appointed persons are told by e-mail.") } });
+  throw redirect(`/plans/${planId}`, {
+    headers: {
+      "Set-Cookie": await flashNotice(request, "Submitted for review; the appointed persons are told by e-mail."),
+    },
+  });
 }
 
 export default function SubmitPlan({ loaderData, actionData }: Route.ComponentProps) {
@@ -42,7 +52,10 @@ export default function SubmitPlan({ loaderData, actionData }: Route.ComponentPr
   const failing = checks.filter((c) => c.status === "fail");
   return (
     <>
-      <PageHeader title={`Submit ${plan.title}`} lead={`Revision ${plan.revision}. The appointed person reviews it; until then it cannot be changed.`}>
+      <PageHeader
+        title={`Submit ${plan.title}`}
+        lead={`Revision ${plan.revision}. The appointed person reviews it; until then it cannot be changed.`}
+      >
         <a href={`/plans/${plan.id}`} className="px-2 py-2 text-sm">
           Back to the plan
         </a>
@@ -52,13 +65,16 @@ export default function SubmitPlan({ loaderData, actionData }: Route.ComponentPr
       </p>
       <FormError message={actionData?.error ?? error} />
       <Card title="Checks as last saved" className="mt-4">
-        {failing.length > 0 && <p className="mb-2 text-sm text-fail">Failing checks must be put right before the plan can be submitted.</p>}
+        {failing.length > 0 && (
+          <p className="mb-2 text-sm text-fail">Failing checks must be put right before the plan can be submitted.</p>
+        )}
         <ul className="space-y-1 text-sm">
           {checks.map((c) => (
             <li key={c.id} className="flex gap-2">
               <StatusBadge status={c.status} />
               <span>
-                {c.message} {c.utilisation !== null && <span className="text-ink-soft">({utilisationText(c.utilisation)})</span>}
+                {c.message}{" "}
+                {c.utilisation !== null && <span className="text-ink-soft">({utilisationText(c.utilisation)})</span>}
               </span>
             </li>
           ))}
@@ -67,7 +83,9 @@ export default function SubmitPlan({ loaderData, actionData }: Route.ComponentPr
       <Form method="post" className="mt-4 space-y-4">
         {warnings.length > 0 && (
           <Card title="Acknowledge each warning">
-            <p className="mb-3 text-sm text-ink-soft">Say why the lift can go ahead despite each warning; your reason goes on the plan and in its history.</p>
+            <p className="mb-3 text-sm text-ink-soft">
+              Say why the lift can go ahead despite each warning; your reason goes on the plan and in its history.
+            </p>
             <div className="space-y-3">
               {warnings.map((w) => (
                 <label key={w.id} className="block text-sm">

@@ -20,7 +20,10 @@ const schema = z.discriminatedUnion("intent", [
   z.object({ intent: z.literal("pull-component"), version: z.coerce.number().int().positive() }),
   z.object({ intent: z.literal("new-revision") }),
   z.object({ intent: z.literal("cancel"), reason: z.string({ error: "Say why the plan is cancelled." }) }),
-  z.object({ intent: z.literal("assign-rigger"), riggerId: z.coerce.number({ error: "Choose a rigger." }).int().positive("Choose a rigger.") }),
+  z.object({
+    intent: z.literal("assign-rigger"),
+    riggerId: z.coerce.number({ error: "Choose a rigger." }).int().positive("Choose a rigger."),
+  }),
 ]);
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.plan.title ?? "Lift plan"} · Plumbline` }];
@@ -39,14 +42,21 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const site = plan.job?.site;
   return {
     plan: { id: plan.id, title: plan.title },
-    job: { id: plan.jobId, workOrder: plan.job?.workOrder ?? "", title: plan.job?.title ?? "", site: site ? `${site.name} · ${site.customer}` : "" },
+    job: {
+      id: plan.jobId,
+      workOrder: plan.job?.workOrder ?? "",
+      title: plan.job?.title ?? "",
+      site: site ? `${site.name} · ${site.customer}` : "",
+    },
     revision,
     comparison,
     units: user.units,
     canEdit: hasAnyRole(user, "planner", "admin") && EDITABLE_STATUSES.includes(revision.status),
     workflow,
     // Only the assignment form lists the riggers.
-    riggers: workflow?.permissions["assign-rigger"].allowed ? (await listUsersWithRole(user.organisationId, "rigger")).map((r) => ({ id: r.id, name: r.name })) : [],
+    riggers: workflow?.permissions["assign-rigger"].allowed
+      ? (await listUsersWithRole(user.organisationId, "rigger")).map((r) => ({ id: r.id, name: r.name }))
+      : [],
   };
 }
 
@@ -54,7 +64,11 @@ export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireUserWithRole(request, "planner", "admin", "approver");
   const { plan } = await requirePlan(user.organisationId, params.planId);
   const form = parseForm(schema, await requireFormData(request));
-  if (!form.ok) return data({ error: Object.values(form.errors).flat()[0] ?? "The request is not complete; reload the page and try again." }, { status: 400 });
+  if (!form.ok)
+    return data(
+      { error: Object.values(form.errors).flat()[0] ?? "The request is not complete; reload the page and try again." },
+      { status: 400 },
+    );
   if (form.data.intent !== "pull-component") {
     const done =
       form.data.intent === "new-revision"
@@ -72,19 +86,34 @@ export async function action({ request, params }: Route.ActionArgs) {
         : form.data.intent === "cancel"
           ? "The plan is cancelled."
           : "The rigger is assigned and told by e-mail.";
-    throw redirect(form.data.intent === "new-revision" ? `/plans/${plan.id}/edit` : `/plans/${plan.id}`, { headers: { "Set-Cookie": await flashNotice(request, notice) } });
+    throw redirect(form.data.intent === "new-revision" ? `/plans/${plan.id}/edit` : `/plans/${plan.id}`, {
+      headers: { "Set-Cookie": await flashNotice(request, notice) },
+    });
   }
-  if (!hasAnyRole(user, "planner", "admin")) throw data({ message: "This needs the Planner or Admin role." }, { status: 403 });
+  if (!hasAnyRole(user, "planner", "admin"))
+    throw data({ message: "This needs the Planner or Admin role." }, { status: 403 });
   const pulled = await pullComponentVersion(user.organisationId, plan.id, form.data.version, user.id);
   switch (pulled.status) {
     case "not-found":
       throw data({ message: "There is no such plan in your organisation." }, { status: 404 });
     case "stale":
-      return data({ error: "Someone else saved this plan after you loaded it. Reload to see their changes, then pull the new version again." }, { status: 409 });
+      return data(
+        {
+          error:
+            "Someone else saved this plan after you loaded it. Reload to see their changes, then pull the new version again.",
+        },
+        { status: 409 },
+      );
     case "frozen":
-      return data({ error: "This revision is no longer a draft; it cannot take a new component version." }, { status: 409 });
+      return data(
+        { error: "This revision is no longer a draft; it cannot take a new component version." },
+        { status: 409 },
+      );
     case "no-component":
-      return data({ error: "The component this plan was made from is no longer in your organisation." }, { status: 400 });
+      return data(
+        { error: "The component this plan was made from is no longer in your organisation." },
+        { status: 400 },
+      );
     case "up-to-date":
       return data({ error: "The plan already has the component's current version." }, { status: 400 });
     case "pulled": {
@@ -126,13 +155,23 @@ function Results({ results, units }: { results: PlanResults; units: Units }) {
   }
   const r = results.body;
   const checks = r.checks ?? [];
-  const worst: CheckStatus = checks.some((c) => c.status === "fail") ? "fail" : checks.some((c) => c.status === "warn") ? "warn" : "pass";
+  const worst: CheckStatus = checks.some((c) => c.status === "fail")
+    ? "fail"
+    : checks.some((c) => c.status === "warn")
+      ? "warn"
+      : "pass";
   return (
     <div className="space-y-4">
       <p className="text-sm">
-        {results.kind === "beam" ? "Vertical drops from a lifting beam" : r.mode === "level" ? "Level lift from one hook" : "Given sling lengths"}
+        {results.kind === "beam"
+          ? "Vertical drops from a lifting beam"
+          : r.mode === "level"
+            ? "Level lift from one hook"
+            : "Given sling lengths"}
         {" · "}
-        {r.method === "elastic" ? "share of a rigid load on equally stretchy legs (four legs are statically indeterminate)" : "statically determinate"}
+        {r.method === "elastic"
+          ? "share of a rigid load on equally stretchy legs (four legs are statically indeterminate)"
+          : "statically determinate"}
         {r.tiltDeg > 0.05 ? ` · the load tilts ${degText(r.tiltDeg)}` : ""}
         {" · computed on "}
         {results.computedOn}
@@ -156,8 +195,14 @@ function Results({ results, units }: { results: PlanResults; units: Units }) {
                 <tr key={leg.liftPointId}>
                   <td className="font-semibold">{leg.liftPointId}</td>
                   <td>{formatLength(leg.lengthM, units)}</td>
-                  <td>{leg.slack ? "slack" : `${kn(leg.tensionKn)} (${formatMass(Math.ceil(leg.tensionKg), units)})`}</td>
-                  <td>{design ? `${kn(design.designTensionKn)} (${formatMass(Math.ceil(design.designTensionKg), units)})` : "—"}</td>
+                  <td>
+                    {leg.slack ? "slack" : `${kn(leg.tensionKn)} (${formatMass(Math.ceil(leg.tensionKg), units)})`}
+                  </td>
+                  <td>
+                    {design
+                      ? `${kn(design.designTensionKn)} (${formatMass(Math.ceil(design.designTensionKg), units)})`
+                      : "—"}
+                  </td>
                   <td>{degText(leg.angleFromVerticalDeg)}</td>
                   <td>{degText(leg.axisAngleDeg)}</td>
                 </tr>
@@ -171,7 +216,8 @@ function Results({ results, units }: { results: PlanResults; units: Units }) {
       </p>
       {r.beam && (
         <p className="text-sm">
-          Beam {formatMass(r.beam.massKg, units)}, marked WLL {formatMass(r.beam.wllKg, units)}; the hook carries {formatMass(Math.ceil(r.beam.hookMassKg), units)} before contingency.
+          Beam {formatMass(r.beam.massKg, units)}, marked WLL {formatMass(r.beam.wllKg, units)}; the hook carries{" "}
+          {formatMass(Math.ceil(r.beam.hookMassKg), units)} before contingency.
         </p>
       )}
       {r.warnings.length > 0 && (
@@ -234,21 +280,31 @@ export default function PlanPage({ loaderData, actionData }: Route.ComponentProp
           Back to the job
         </a>
         {canEdit && (
-          <a href={`/plans/${plan.id}/edit`} className="rounded bg-steel px-4 py-2 text-sm font-semibold text-white no-underline hover:no-underline">
+          <a
+            href={`/plans/${plan.id}/edit`}
+            className="rounded bg-steel px-4 py-2 text-sm font-semibold text-white no-underline hover:no-underline"
+          >
             Lay out the lift
           </a>
         )}
         {canEdit && (
-          <a href={`/plans/${plan.id}/details`} className="rounded border border-rule bg-white px-4 py-2 text-sm font-semibold text-ink no-underline">
+          <a
+            href={`/plans/${plan.id}/details`}
+            className="rounded border border-rule bg-white px-4 py-2 text-sm font-semibold text-ink no-underline"
+          >
             Sequence, hazards and people
           </a>
         )}
-        <a href={`/plans/${plan.id}/history`} className="rounded border border-rule bg-white px-4 py-2 text-sm font-semibold text-ink no-underline">
+        <a
+          href={`/plans/${plan.id}/history`}
+          className="rounded border border-rule bg-white px-4 py-2 text-sm font-semibold text-ink no-underline"
+        >
           History
         </a>
       </PageHeader>
       <p className="mb-4 text-sm">
-        Revision {revision.revision} · <span className="font-semibold">{PLAN_STATUS_LABELS[revision.status]}</span> · saved version {revision.version}
+        Revision {revision.revision} · <span className="font-semibold">{PLAN_STATUS_LABELS[revision.status]}</span> ·
+        saved version {revision.version}
       </p>
       <p role="note" className="mb-6 rounded border border-brass/40 bg-brass-soft px-3 py-2 text-sm">
         {PLAN_CAUTION}
@@ -256,7 +312,8 @@ export default function PlanPage({ loaderData, actionData }: Route.ComponentProp
       {comparison?.newer && (
         <div className="mb-6 rounded border border-steel/40 bg-steel-soft px-3 py-2 text-sm">
           <p className="font-semibold">
-            The component has a newer version ({comparison.latestVersion}); this plan uses version {revision.componentVersion}.
+            The component has a newer version ({comparison.latestVersion}); this plan uses version{" "}
+            {revision.componentVersion}.
           </p>
           {comparison.changes.length > 0 ? (
             <ul className="my-2 list-disc pl-5">
@@ -318,8 +375,10 @@ export default function PlanPage({ loaderData, actionData }: Route.ComponentProp
               <div>
                 <dt className="text-ink-soft">Rigging</dt>
                 <dd>
-                  {a.kind === "beam" ? "Lifting beam with vertical drops" : `${a.liftPointLabels.length}-leg bridle from one hook`},{" "}
-                  {a.mode === "level" ? "hanging level" : "on slings of given length"}
+                  {a.kind === "beam"
+                    ? "Lifting beam with vertical drops"
+                    : `${a.liftPointLabels.length}-leg bridle from one hook`}
+                  , {a.mode === "level" ? "hanging level" : "on slings of given length"}
                 </dd>
               </div>
               <div>
@@ -334,15 +393,17 @@ export default function PlanPage({ loaderData, actionData }: Route.ComponentProp
               ) : (
                 <div>
                   <dt className="text-ink-soft">Leg lengths</dt>
-                  <dd>{a.liftPointLabels.map((l) => `${l}: ${formatLength(a.legLengthsM[l] ?? 0, units)}`).join(" · ")}</dd>
+                  <dd>
+                    {a.liftPointLabels.map((l) => `${l}: ${formatLength(a.legLengthsM[l] ?? 0, units)}`).join(" · ")}
+                  </dd>
                 </div>
               )}
               {a.beam && (
                 <div>
                   <dt className="text-ink-soft">Beam</dt>
                   <dd>
-                    {formatLength(a.beam.lengthM, units)} long, {formatMass(a.beam.massKg, units)}, WLL {formatMass(a.beam.wllKg, units)}, drops{" "}
-                    {formatLength(a.beam.dropLengthM, units)}
+                    {formatLength(a.beam.lengthM, units)} long, {formatMass(a.beam.massKg, units)}, WLL{" "}
+                    {formatMass(a.beam.wllKg, units)}, drops {formatLength(a.beam.dropLengthM, units)}
                   </dd>
                 </div>
               )}
@@ -352,8 +413,14 @@ export default function PlanPage({ loaderData, actionData }: Route.ComponentProp
                   {Object.keys(rigging.legs).length === 0 && !rigging.craneItemId && !rigging.masterLinkItemId
                     ? "None yet"
                     : Object.entries(rigging.legs)
-                        .map(([leg, r]) => `${leg}: ${[r.eyeboltItemId && "eyebolt", r.shackleItemId && "shackle", r.slingItemId && `sling (${HITCH_LABELS[r.hitch].toLowerCase()})`].filter(Boolean).join(", ") || "nothing"}`)
-                        .concat(rigging.masterLinkItemId ? ["master link"] : [], rigging.craneItemId ? ["crane or hoist"] : [])
+                        .map(
+                          ([leg, r]) =>
+                            `${leg}: ${[r.eyeboltItemId && "eyebolt", r.shackleItemId && "shackle", r.slingItemId && `sling (${HITCH_LABELS[r.hitch].toLowerCase()})`].filter(Boolean).join(", ") || "nothing"}`,
+                        )
+                        .concat(
+                          rigging.masterLinkItemId ? ["master link"] : [],
+                          rigging.craneItemId ? ["crane or hoist"] : [],
+                        )
                         .join(" · ")}
                 </dd>
               </div>
@@ -367,7 +434,11 @@ export default function PlanPage({ loaderData, actionData }: Route.ComponentProp
               {details.sequence.map((step, i) => (
                 <li key={i}>
                   <span className="font-semibold">{step.title}</span>
-                  {step.holdPoint && <span className="ml-2 rounded bg-brass-soft px-2 py-0.5 text-xs font-semibold text-brass-deep">Hold point: stop until cleared</span>}
+                  {step.holdPoint && (
+                    <span className="ml-2 rounded bg-brass-soft px-2 py-0.5 text-xs font-semibold text-brass-deep">
+                      Hold point: stop until cleared
+                    </span>
+                  )}
                   {step.notes && <span className="block text-ink-soft">{step.notes}</span>}
                 </li>
               ))}
@@ -375,7 +446,9 @@ export default function PlanPage({ loaderData, actionData }: Route.ComponentProp
           </Card>
           <Card title="Hazards and controls">
             {details.hazards.length === 0 ? (
-              <EmptyState title="No hazards recorded yet">Every lift has some: list each with its control before the plan goes for review.</EmptyState>
+              <EmptyState title="No hazards recorded yet">
+                Every lift has some: list each with its control before the plan goes for review.
+              </EmptyState>
             ) : (
               <table>
                 <thead>
@@ -424,7 +497,10 @@ export default function PlanPage({ loaderData, actionData }: Route.ComponentProp
           </Card>
         </div>
         <aside>
-          <ComponentViews data={{ ...s, liftPoints: s.liftPoints.filter((p) => a.liftPointLabels.includes(p.label)) }} units={units} />
+          <ComponentViews
+            data={{ ...s, liftPoints: s.liftPoints.filter((p) => a.liftPointLabels.includes(p.label)) }}
+            units={units}
+          />
         </aside>
       </div>
     </>

@@ -11,7 +11,10 @@ import { flashNotice, requireUserWithRole } from "~/utils/session.server";
 
 const schema = z.object({
   jobId: z.coerce.number({ error: "Choose the job." }).int("Choose the job.").positive("Choose the job."),
-  componentId: z.coerce.number({ error: "Choose the component to lift." }).int("Choose the component to lift.").positive("Choose the component to lift."),
+  componentId: z.coerce
+    .number({ error: "Choose the component to lift." })
+    .int("Choose the component to lift.")
+    .positive("Choose the component to lift."),
   title: requiredText("plan title", MAX_TITLE),
 });
 
@@ -23,7 +26,9 @@ export async function loader({ request }: Route.LoaderArgs) {
   const jobId = Number(new URL(request.url).searchParams.get("jobId")) || undefined;
   return {
     jobId: jobs.some((j) => j.id === jobId) ? jobId : undefined,
-    jobs: jobs.filter((j) => j.status === "open" || j.id === jobId).map((j) => ({ id: j.id, label: `${j.workOrder}: ${j.title}` })),
+    jobs: jobs
+      .filter((j) => j.status === "open" || j.id === jobId)
+      .map((j) => ({ id: j.id, label: `${j.workOrder}: ${j.title}` })),
     components: components
       .filter((c) => (c.liftPoints?.length ?? 0) > 0)
       .map((c) => ({ id: c.id, name: c.name, liftPoints: c.liftPoints?.length ?? 0, massKg: c.massKg })),
@@ -34,10 +39,22 @@ export async function action({ request }: Route.ActionArgs) {
   const user = await requireUserWithRole(request, "planner", "admin");
   const form = parseForm(schema, await requireFormData(request));
   if (!form.ok) return data({ errors: form.errors }, { status: 400 });
-  const created = await createPlanFromComponent(user.organisationId, form.data.jobId, form.data.componentId, form.data.title, user.id);
-  if (!created.ok) return data({ errors: { [created.field]: [created.message] } as Record<string, string[]> }, { status: 400 });
+  const created = await createPlanFromComponent(
+    user.organisationId,
+    form.data.jobId,
+    form.data.componentId,
+    form.data.title,
+    user.id,
+  );
+  if (!created.ok)
+    return data({ errors: { [created.field]: [created.message] } as Record<string, string[]> }, { status: 400 });
   throw redirect(`/plans/${created.plan.id}`, {
-    headers: { "Set-Cookie": await flashNotice(request, `${created.plan.title} is started as a draft. Check the arrangement and the results before anything else.`) },
+    headers: {
+      "Set-Cookie": await flashNotice(
+        request,
+        `${created.plan.title} is started as a draft. Check the arrangement and the results before anything else.`,
+      ),
+    },
   });
 }
 
@@ -52,7 +69,8 @@ export default function NewPlan({ loaderData, actionData }: Route.ComponentProps
       />
       {components.length === 0 ? (
         <EmptyState title="No component with lift points yet">
-          A plan lifts a component. <a href="/components/new">Describe the component</a> with its mass, CoG and lift points first.
+          A plan lifts a component. <a href="/components/new">Describe the component</a> with its mass, CoG and lift
+          points first.
         </EmptyState>
       ) : jobs.length === 0 ? (
         <EmptyState title="No open job">
@@ -62,17 +80,36 @@ export default function NewPlan({ loaderData, actionData }: Route.ComponentProps
         <Card className="max-w-xl">
           <Form method="post" className="space-y-4">
             <FormError message={errors._form?.join(" ")} />
-            <SelectField label="Job" name="jobId" defaultValue={jobId ? String(jobId) : ""} errors={errors.jobId} options={[{ value: "", label: "Choose a job" }, ...jobs.map((j) => ({ value: String(j.id), label: j.label }))]} />
+            <SelectField
+              label="Job"
+              name="jobId"
+              defaultValue={jobId ? String(jobId) : ""}
+              errors={errors.jobId}
+              options={[
+                { value: "", label: "Choose a job" },
+                ...jobs.map((j) => ({ value: String(j.id), label: j.label })),
+              ]}
+            />
             <SelectField
               label="Component to lift"
               name="componentId"
               errors={errors.componentId}
               options={[
                 { value: "", label: "Choose a component" },
-                ...components.map((c) => ({ value: String(c.id), label: `${c.name} (${c.liftPoints} lift point${c.liftPoints === 1 ? "" : "s"})` })),
+                ...components.map((c) => ({
+                  value: String(c.id),
+                  label: `${c.name} (${c.liftPoints} lift point${c.liftPoints === 1 ? "" : "s"})`,
+                })),
               ]}
             />
-            <Field label="Title of the lift" name="title" required maxLength={MAX_TITLE} errors={errors.title} hint="What the lift does, e.g. “Lift the element out of the housing onto the skid”." />
+            <Field
+              label="Title of the lift"
+              name="title"
+              required
+              maxLength={MAX_TITLE}
+              errors={errors.title}
+              hint="What the lift does, e.g. “Lift the element out of the housing onto the skid”."
+            />
             <Button type="submit">Start the plan</Button>
           </Form>
         </Card>

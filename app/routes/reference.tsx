@@ -25,7 +25,9 @@ export async function loader({ request }: Route.LoaderArgs) {
     tables: Object.entries(tables).map(([name, rows]) => ({
       name,
       title: TITLES[name] ?? name,
-      rows: (rows as ReadonlyArray<Record<string, unknown>>).map((row) => Object.fromEntries(Object.entries(row).map(([k, v]) => [k, String(v)]))),
+      rows: (rows as ReadonlyArray<Record<string, unknown>>).map((row) =>
+        Object.fromEntries(Object.entries(row).map(([k, v]) => [k, String(v)])),
+      ),
     })),
   };
 }

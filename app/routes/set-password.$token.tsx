@@ -25,7 +25,9 @@ export async function action({ request, params }: Route.ActionArgs) {
   if (!userId) {
     return data({ errors: null, error: "This link has been used or has expired. Ask for a new one." }, { status: 410 });
   }
-  throw redirect("/login", { headers: { "Set-Cookie": await flashNotice(request, "Your password is set. Sign in with it now.") } });
+  throw redirect("/login", {
+    headers: { "Set-Cookie": await flashNotice(request, "Your password is set. Sign in with it now.") },
+  });
 }
 
 export default function SetPassword({ loaderData, actionData }: Route.ComponentProps) {
@@ -34,7 +36,8 @@ export default function SetPassword({ loaderData, actionData }: Route.ComponentP
       <div className="mx-auto mt-8 max-w-sm">
         <h1>This link no longer works</h1>
         <p className="mt-3 text-ink-soft">
-          Links to set a password work once and expire after 72 hours. <a href="/forgot-password">Ask for a new link</a>.
+          Links to set a password work once and expire after 72 hours. <a href="/forgot-password">Ask for a new link</a>
+          .
         </p>
       </div>
     );
@@ -57,7 +60,14 @@ export default function SetPassword({ loaderData, actionData }: Route.ComponentP
           hint="At least 10 characters."
           errors={actionData?.errors?.password}
         />
-        <Field label="Repeat it" name="confirm" type="password" autoComplete="new-password" required errors={actionData?.errors?.confirm} />
+        <Field
+          label="Repeat it"
+          name="confirm"
+          type="password"
+          autoComplete="new-password"
+          required
+          errors={actionData?.errors?.confirm}
+        />
         <Button type="submit" className="w-full">
           Set password
         </Button>

@@ -8,7 +8,10 @@ import { ROLE_DUTIES, ROLE_LABELS } from "~/utils/roles";
 import { flashNotice, requireUser } from "~/utils/session.server";
 
 const schema = z.discriminatedUnion("intent", [
-  z.object({ intent: z.literal("units"), units: z.enum(["metric", "imperial"], { error: "Choose metric or imperial." }) }),
+  z.object({
+    intent: z.literal("units"),
+    units: z.enum(["metric", "imperial"], { error: "Choose metric or imperial." }),
+  }),
   z
     .object({
       intent: z.literal("password"),
@@ -32,7 +35,10 @@ export async function action({ request }: Route.ActionArgs) {
   if (!form.ok) return data({ errors: form.errors }, { status: 400 });
   if (form.data.intent === "units") {
     await setUnits(user.id, form.data.units);
-    const notice = form.data.units === "metric" ? "Figures now show in millimetres and kilograms." : "Figures now show in inches and pounds.";
+    const notice =
+      form.data.units === "metric"
+        ? "Figures now show in millimetres and kilograms."
+        : "Figures now show in inches and pounds.";
     throw redirect("/settings", { headers: { "Set-Cookie": await flashNotice(request, notice) } });
   }
   if (!(await verifyPassword(user.id, form.data.current))) {
@@ -70,9 +76,31 @@ export default function Settings({ loaderData, actionData }: Route.ComponentProp
             <input type="hidden" name="intent" value="password" />
             <FormError message={errors._form?.join(" ")} />
             <input type="hidden" name="username" value={user.email} autoComplete="username" />
-            <Field label="Current password" name="current" type="password" autoComplete="current-password" required errors={errors.current} />
-            <Field label="New password" name="password" type="password" autoComplete="new-password" required hint="At least 10 characters." errors={errors.password} />
-            <Field label="Repeat the new password" name="confirm" type="password" autoComplete="new-password" required errors={errors.confirm} />
+            <Field
+              label="Current password"
+              name="current"
+              type="password"
+              autoComplete="current-password"
+              required
+              errors={errors.current}
+            />
+            <Field
+              label="New password"
+              name="password"
+              type="password"
+              autoComplete="new-password"
+              required
+              hint="At least 10 characters."
+              errors={errors.password}
+            />
+            <Field
+              label="Repeat the new password"
+              name="confirm"
+              type="password"
+              autoComplete="new-password"
+              required
+              errors={errors.confirm}
+            />
             <Button type="submit">Change password</Button>
           </Form>
         </Card>

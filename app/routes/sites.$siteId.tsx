@@ -22,7 +22,14 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const site = await requireSite(user.organisationId, params.siteId);
   const jobs = await listJobs(user.organisationId, { siteId: site.id });
   return {
-    site: { id: site.id, name: site.name, customer: site.customer, address: site.address, siteContact: site.siteContact, notes: site.notes },
+    site: {
+      id: site.id,
+      name: site.name,
+      customer: site.customer,
+      address: site.address,
+      siteContact: site.siteContact,
+      notes: site.notes,
+    },
     jobs: jobs.map((j) => ({ id: j.id, workOrder: j.workOrder, title: j.title, status: j.status })),
   };
 }
@@ -41,7 +48,10 @@ export default function SitePage({ loaderData, actionData }: Route.ComponentProp
   return (
     <>
       <PageHeader title={site.name} lead={site.customer}>
-        <a href={`/jobs/new?siteId=${site.id}`} className="rounded bg-steel px-4 py-2 text-sm font-semibold text-white no-underline hover:no-underline">
+        <a
+          href={`/jobs/new?siteId=${site.id}`}
+          className="rounded bg-steel px-4 py-2 text-sm font-semibold text-white no-underline hover:no-underline"
+        >
           Open a job here
         </a>
       </PageHeader>

@@ -15,7 +15,10 @@ export default function Sites({ loaderData }: Route.ComponentProps) {
   return (
     <>
       <PageHeader title="Customer sites" lead="Where the work happens. Each job belongs to a site.">
-        <a href="/sites/new" className="rounded bg-steel px-4 py-2 text-sm font-semibold text-white no-underline hover:no-underline">
+        <a
+          href="/sites/new"
+          className="rounded bg-steel px-4 py-2 text-sm font-semibold text-white no-underline hover:no-underline"
+        >
           Add a site
         </a>
       </PageHeader>

@@ -19,7 +19,9 @@ export async function action({ request }: Route.ActionArgs) {
   const form = parseForm(siteSchema, await requireFormData(request));
   if (!form.ok) return data({ errors: form.errors }, { status: 400 });
   const site = await createSite(user.organisationId, form.data, user.id);
-  throw redirect(`/sites/${site.id}`, { headers: { "Set-Cookie": await flashNotice(request, `${site.name} is added.`) } });
+  throw redirect(`/sites/${site.id}`, {
+    headers: { "Set-Cookie": await flashNotice(request, `${site.name} is added.`) },
+  });
 }
 
 export default function NewSite({ actionData }: Route.ComponentProps) {

@@ -2,7 +2,10 @@ import type { Route } from "./+types/verify.$token";
 import { findRevisionByVerifyToken } from "~/models/plan-workflow.server";
 import { getUser } from "~/utils/session.server";
 
-export const meta: Route.MetaFunction = () => [{ title: "Check a printed lift plan · Plumbline" }, { name: "robots", content: "noindex" }];
+export const meta: Route.MetaFunction = () => [
+  { title: "Check a printed lift plan · Plumbline" },
+  { name: "robots", content: "noindex" },
+];
 
 /** Open to anyone holding the printed plan: says whether that revision is still the current approved one. */
 export async function loader({ request, params }: Route.LoaderArgs) {
@@ -23,10 +26,26 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 }
 
 const VERDICTS = {
-  approved: { title: "Current approved revision", tone: "border-pass bg-pass-soft text-pass", say: "This is the current approved revision of the plan. Lift only as it says, after the pre-lift checks." },
-  superseded: { title: "Superseded: do not use this copy", tone: "border-fail bg-fail-soft text-fail", say: "A newer revision has been approved. Get the current plan before lifting." },
-  cancelled: { title: "Cancelled: do not use this copy", tone: "border-fail bg-fail-soft text-fail", say: "This plan has been cancelled. Do not lift to it." },
-  completed: { title: "Lift completed", tone: "border-steel bg-steel-soft text-steel", say: "This lift has been made and recorded. A new lift needs a new approved plan." },
+  approved: {
+    title: "Current approved revision",
+    tone: "border-pass bg-pass-soft text-pass",
+    say: "This is the current approved revision of the plan. Lift only as it says, after the pre-lift checks.",
+  },
+  superseded: {
+    title: "Superseded: do not use this copy",
+    tone: "border-fail bg-fail-soft text-fail",
+    say: "A newer revision has been approved. Get the current plan before lifting.",
+  },
+  cancelled: {
+    title: "Cancelled: do not use this copy",
+    tone: "border-fail bg-fail-soft text-fail",
+    say: "This plan has been cancelled. Do not lift to it.",
+  },
+  completed: {
+    title: "Lift completed",
+    tone: "border-steel bg-steel-soft text-steel",
+    say: "This lift has been made and recorded. A new lift needs a new approved plan.",
+  },
 } as const;
 
 export default function Verify({ loaderData }: Route.ComponentProps) {
@@ -35,7 +54,10 @@ export default function Verify({ loaderData }: Route.ComponentProps) {
     return (
       <section className="mx-auto max-w-lg py-8" role="alert">
         <h1>Not a Plumbline plan we know</h1>
-        <p className="mt-2">This code does not match any approved lift plan. Do not use the printed copy: ask the appointed person for the current plan.</p>
+        <p className="mt-2">
+          This code does not match any approved lift plan. Do not use the printed copy: ask the appointed person for the
+          current plan.
+        </p>
       </section>
     );
   }
@@ -46,7 +68,9 @@ export default function Verify({ loaderData }: Route.ComponentProps) {
         <h1 className="text-2xl">{verdict.title}</h1>
         <p className="mt-2 text-ink">
           {verdict.say}
-          {found.status === "superseded" && found.supersededByRevision ? ` It was replaced by revision ${found.supersededByRevision}.` : ""}
+          {found.status === "superseded" && found.supersededByRevision
+            ? ` It was replaced by revision ${found.supersededByRevision}.`
+            : ""}
         </p>
       </div>
       <dl className="mt-4 space-y-1 text-sm">

@@ -10,6 +10,10 @@ export const jobSchema = z.object({
   status: z.enum(["open", "closed"], { error: "Choose open or closed." }).default("open"),
   startsOn: z.preprocess(
     (v) => (typeof v === "string" && v.trim() ? v.trim() : null),
-    z.string().regex(/^\d{4}-\d{2}-\d{2}$/, "Give the date as YYYY-MM-DD.").refine((s) => !Number.isNaN(Date.parse(s)), "That is not a date.").nullable(),
+    z
+      .string()
+      .regex(/^\d{4}-\d{2}-\d{2}$/, "Give the date as YYYY-MM-DD.")
+      .refine((s) => !Number.isNaN(Date.parse(s)), "That is not a date.")
+      .nullable(),
   ),
 });

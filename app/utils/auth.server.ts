@@ -9,7 +9,12 @@ export class SignInError extends Error {
 }
 
 const credentialsSchema = z.object({
-  email: z.string({ error: "Enter your e-mail address." }).trim().min(1, "Enter your e-mail address.").max(320).email("Enter a valid e-mail address."),
+  email: z
+    .string({ error: "Enter your e-mail address." })
+    .trim()
+    .min(1, "Enter your e-mail address.")
+    .max(320)
+    .email("Enter a valid e-mail address."),
   password: z.string({ error: "Enter your password." }).min(1, "Enter your password.").max(200),
 });
 

@@ -5,7 +5,8 @@ import { QueryTypes, Sequelize, Transaction } from "sequelize";
 import sqlite3 from "sqlite3";
 import { env } from "~/utils/env.server";
 
-const CONNECTION_PRAGMAS = "PRAGMA journal_mode=WAL; PRAGMA foreign_keys=ON; PRAGMA busy_timeout=10000; PRAGMA synchronous=NORMAL;";
+const CONNECTION_PRAGMAS =
+  "PRAGMA journal_mode=WAL; PRAGMA foreign_keys=ON; PRAGMA busy_timeout=10000; PRAGMA synchronous=NORMAL;";
 
 type RowsCallback = (this: sqlite3.Statement, err: Error | null, rows: unknown[]) => void;
 
@@ -71,7 +72,14 @@ class ConfiguredDatabase extends sqlite3.Database {
 
 const dialectModule = { ...sqlite3, Database: ConfiguredDatabase };
 
-const WRITE_QUERY_TYPES = new Set<string>([QueryTypes.INSERT, QueryTypes.UPDATE, QueryTypes.BULKUPDATE, QueryTypes.DELETE, QueryTypes.BULKDELETE, QueryTypes.UPSERT]);
+const WRITE_QUERY_TYPES = new Set<string>([
+  QueryTypes.INSERT,
+  QueryTypes.UPDATE,
+  QueryTypes.BULKUPDATE,
+  QueryTypes.DELETE,
+  QueryTypes.BULKDELETE,
+  QueryTypes.UPSERT,
+]);
 
 /**
  * One writer at a time in this process. SQLite has one write lock, and a connection waiting for it
@@ -90,7 +98,9 @@ function serialiseWrites(db: Sequelize) {
   };
   const transaction = db.transaction.bind(db) as (...args: unknown[]) => Promise<unknown>;
   db.transaction = ((...args: unknown[]) =>
-    args.some((a) => typeof a === "function") ? queued(() => transaction(...args)) : transaction(...args)) as typeof db.transaction;
+    args.some((a) => typeof a === "function")
+      ? queued(() => transaction(...args))
+      : transaction(...args)) as typeof db.transaction;
   const query = db.query.bind(db) as (...args: unknown[]) => Promise<unknown>;
   db.query = ((sql: unknown, options?: { transaction?: unknown; type?: string }) =>
     !options?.transaction && options?.type && WRITE_QUERY_TYPES.has(options.type)

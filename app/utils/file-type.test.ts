@@ -18,15 +18,23 @@ describe("file kinds by content", () => {
   });
 
   it("names executables and archives so the refusal says what they are", () => {
-    expect(sniffFileKind(bytes(0x7f, 0x45, 0x4c, 0x46, 2, 1, 1))).toEqual({ kind: null, description: "a Linux program (ELF)" });
-    expect(sniffFileKind(bytes(0x4d, 0x5a, 0x90, 0))).toEqual({ kind: null, description: "a Windows program (EXE/DLL)" });
+    expect(sniffFileKind(bytes(0x7f, 0x45, 0x4c, 0x46, 2, 1, 1))).toEqual({
+      kind: null,
+      description: "a Linux program (ELF)",
+    });
+    expect(sniffFileKind(bytes(0x4d, 0x5a, 0x90, 0))).toEqual({
+      kind: null,
+      description: "a Windows program (EXE/DLL)",
+    });
     expect(sniffFileKind(bytes(0x50, 0x4b, 0x03, 0x04))).toMatchObject({ description: expect.stringContaining("ZIP") });
     expect(sniffFileKind(new Uint8Array())).toMatchObject({ kind: null, description: "an empty file" });
   });
 
   it("refuses a PNG named .pdf where a PDF is needed, naming what it really is", () => {
     const png = sniffFileKind(bytes(0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a));
-    expect(fileKindProblem(png, ["pdf"], "certificate.pdf")).toBe('"certificate.pdf" is a PNG image by its content, whatever its name says; this needs a PDF.');
+    expect(fileKindProblem(png, ["pdf"], "certificate.pdf")).toBe(
+      '"certificate.pdf" is a PNG image by its content, whatever its name says; this needs a PDF.',
+    );
     expect(fileKindProblem(png, ["pdf", "png", "jpeg"], "drawing.pdf")).toBeNull();
   });
 });

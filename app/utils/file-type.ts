@@ -54,7 +54,8 @@ export function sniffFileKind(bytes: Uint8Array): Sniffed {
   if (startsWith(bytes, [0x25, 0x50, 0x44, 0x46, 0x2d])) return { kind: "pdf" };
   if (startsWith(bytes, [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a])) return { kind: "png" };
   if (startsWith(bytes, [0xff, 0xd8, 0xff])) return { kind: "jpeg" };
-  for (const other of KNOWN_OTHERS) if (startsWith(bytes, other.signature)) return { kind: null, description: other.description };
+  for (const other of KNOWN_OTHERS)
+    if (startsWith(bytes, other.signature)) return { kind: null, description: other.description };
   if (isPlainText(bytes)) return { kind: "csv" };
   return { kind: null, description: "a binary file of a kind Plumbline does not keep" };
 }

@@ -1,6 +1,13 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { formatLength, formatMass, fromDisplayLength, fromDisplayMass, toDisplayLength, toDisplayMass } from "~/utils/format";
+import {
+  formatLength,
+  formatMass,
+  fromDisplayLength,
+  fromDisplayMass,
+  toDisplayLength,
+  toDisplayMass,
+} from "~/utils/format";
 
 describe("display units", () => {
   it("1 in = 25.4 mm and 1 lb = 0.45359237 kg exactly (international yard and pound, 1959)", () => {
@@ -18,10 +25,14 @@ describe("display units", () => {
 
   it("law: display and back is the identity", () => {
     fc.assert(
-      fc.property(fc.double({ min: -1e4, max: 1e4, noNaN: true }), fc.constantFrom("metric" as const, "imperial" as const), (v, units) => {
-        expect(fromDisplayLength(toDisplayLength(v, units), units)).toBeCloseTo(v, 9);
-        expect(fromDisplayMass(toDisplayMass(v, units), units)).toBeCloseTo(v, 9);
-      }),
+      fc.property(
+        fc.double({ min: -1e4, max: 1e4, noNaN: true }),
+        fc.constantFrom("metric" as const, "imperial" as const),
+        (v, units) => {
+          expect(fromDisplayLength(toDisplayLength(v, units), units)).toBeCloseTo(v, 9);
+          expect(fromDisplayMass(toDisplayMass(v, units), units)).toBeCloseTo(v, 9);
+        },
+      ),
     );
   });
 });

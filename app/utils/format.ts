@@ -38,13 +38,19 @@ export function inputNumber(value: number, decimals = 3) {
 const formatters = new Map<number, Intl.NumberFormat>();
 function grouped(value: number, decimals: number) {
   let format = formatters.get(decimals);
-  if (!format) formatters.set(decimals, (format = new Intl.NumberFormat("en-GB", { minimumFractionDigits: decimals, maximumFractionDigits: decimals })));
+  if (!format)
+    formatters.set(
+      decimals,
+      (format = new Intl.NumberFormat("en-GB", { minimumFractionDigits: decimals, maximumFractionDigits: decimals })),
+    );
   return format.format(value);
 }
 
 /** "1,250 mm" or "49.21 in". */
 export function formatLength(m: number, units: Units) {
-  return units === "metric" ? `${grouped(toDisplayLength(m, units), 0)} mm` : `${grouped(toDisplayLength(m, units), 2)} in`;
+  return units === "metric"
+    ? `${grouped(toDisplayLength(m, units), 0)} mm`
+    : `${grouped(toDisplayLength(m, units), 2)} in`;
 }
 
 /** "2,000 kg" or "4,409 lb". */

@@ -26,7 +26,8 @@ export async function requireFormData(request: Request): Promise<FormData> {
 // eslint-disable-next-line no-control-regex
 const CONTROL_CHARACTERS = /[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f]/g;
 
-export const CONTROL_CHARACTER_MESSAGE = "Remove the control character (an invisible one, such as NUL) from this field.";
+export const CONTROL_CHARACTER_MESSAGE =
+  "Remove the control character (an invisible one, such as NUL) from this field.";
 
 /** Whether `text` holds a control character other than tab, CR and LF. */
 export function hasControlCharacters(text: string): boolean {
@@ -41,7 +42,11 @@ export function withoutControlCharacters(text: string): string {
 export type FormResult<T> = { ok: true; data: T } | { ok: false; errors: Record<string, string[]> };
 
 /** Parses a form with `schema`, returning field errors keyed by field name (`_form` for the whole form). */
-export function parseForm<S extends z.ZodType>(schema: S, formData: FormData, arrayFields: readonly string[] = []): FormResult<z.output<S>> {
+export function parseForm<S extends z.ZodType>(
+  schema: S,
+  formData: FormData,
+  arrayFields: readonly string[] = [],
+): FormResult<z.output<S>> {
   const parsed = schema.safeParse(formToObject(formData, arrayFields));
   if (parsed.success) return { ok: true, data: parsed.data };
   const errors: Record<string, string[]> = {};
@@ -54,7 +59,10 @@ export function parseForm<S extends z.ZodType>(schema: S, formData: FormData, ar
 
 /** A trimmed text field, empty allowed, bounded. */
 export function optionalText(max: number) {
-  return z.preprocess((v) => (typeof v === "string" ? v.trim() : ""), z.string().max(max, `At most ${max} characters.`));
+  return z.preprocess(
+    (v) => (typeof v === "string" ? v.trim() : ""),
+    z.string().max(max, `At most ${max} characters.`),
+  );
 }
 
 /** A trimmed text field that must not be empty. */

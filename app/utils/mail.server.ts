@@ -58,7 +58,12 @@ async function createMailState(): Promise<MailState> {
   if (env.smtpUrl) return { transport: nodemailer.createTransport(env.smtpUrl), catcherPort: null };
   if (env.isProduction) throw new Error("SMTP_URL is required in production.");
   const catcherPort = await startCatcher(env.mailCatcherPort);
-  const transport = nodemailer.createTransport({ host: "127.0.0.1", port: catcherPort, secure: false, ignoreTLS: true });
+  const transport = nodemailer.createTransport({
+    host: "127.0.0.1",
+    port: catcherPort,
+    secure: false,
+    ignoreTLS: true,
+  });
   return { transport, catcherPort };
 }
 

@@ -89,7 +89,10 @@ function allowedOrigins(request: Request, publicUrl: string | null): Set<string>
  * with neither passes only if it carries no cookie, so nobody's session can be ridden. Browsers send Origin on
  * every POST, so a real page never meets this.
  */
-export function isCrossSiteMutation(request: Request, publicUrl: string | null = env.publicUrlIsSet ? env.publicUrl : null): boolean {
+export function isCrossSiteMutation(
+  request: Request,
+  publicUrl: string | null = env.publicUrlIsSet ? env.publicUrl : null,
+): boolean {
   if (SAFE_METHODS.has(request.method.toUpperCase())) return false;
   const allowed = allowedOrigins(request, publicUrl);
   const source = request.headers.get("Origin") ?? request.headers.get("Referer");
@@ -100,7 +103,8 @@ export function isCrossSiteMutation(request: Request, publicUrl: string | null =
 
 /** The 403 answer to a cross-site mutation: JSON under /api, a plain sentence elsewhere. */
 export function crossSiteRefusal(request: Request): Response {
-  if (new URL(request.url).pathname.startsWith("/api/")) return Response.json({ error: CROSS_SITE_MESSAGE }, { status: 403 });
+  if (new URL(request.url).pathname.startsWith("/api/"))
+    return Response.json({ error: CROSS_SITE_MESSAGE }, { status: 403 });
   return new Response(CROSS_SITE_MESSAGE, { status: 403, headers: { "Content-Type": "text/plain; charset=utf-8" } });
 }
 
@@ -146,7 +150,12 @@ export function addressKeyOf(raw: string): string | null {
   if (net.isIPv4(address)) return address;
   if (!net.isIPv6(address)) return null;
   const groups = ipv6Groups(address.toLowerCase());
-  return groups ? `${groups.slice(0, 4).map((g) => g.toString(16)).join(":")}::/64` : null;
+  return groups
+    ? `${groups
+        .slice(0, 4)
+        .map((g) => g.toString(16))
+        .join(":")}::/64`
+    : null;
 }
 
 /**
@@ -157,7 +166,10 @@ export function addressKeyOf(raw: string): string | null {
  */
 export function clientAddressKey(request: Request, trustedProxyHops = env.trustedProxyHops): string {
   if (trustedProxyHops > 0) {
-    const hops = (request.headers.get("X-Forwarded-For") ?? "").split(",").map((h) => h.trim()).filter(Boolean);
+    const hops = (request.headers.get("X-Forwarded-For") ?? "")
+      .split(",")
+      .map((h) => h.trim())
+      .filter(Boolean);
     const entry = hops[hops.length - trustedProxyHops];
     const key = entry ? addressKeyOf(entry) : null;
     if (key) return key;

@@ -52,7 +52,15 @@ async function startWorker() {
   const app = express();
   app.disable("x-powered-by");
   app.use(compression());
-  app.use("/assets", express.static(path.join(CLIENT_DIR, "assets"), { immutable: true, maxAge: "1y", index: false, setHeaders: setStaticHeaders }));
+  app.use(
+    "/assets",
+    express.static(path.join(CLIENT_DIR, "assets"), {
+      immutable: true,
+      maxAge: "1y",
+      index: false,
+      setHeaders: setStaticHeaders,
+    }),
+  );
   app.use(buildFiles());
   app.use(morgan("tiny"));
   app.all("*", createRequestHandler({ build, mode: process.env.NODE_ENV }));
@@ -82,7 +90,8 @@ function startPrimary(workers: number) {
   cluster.on("message", (worker, message: { listening?: boolean }) => {
     if (!message?.listening) return;
     listeningWorkers.add(worker.id);
-    if (listeningWorkers.size === workers) console.log(`Plumbline on http://${HOST ?? "localhost"}:${PORT} (${workers} workers)`);
+    if (listeningWorkers.size === workers)
+      console.log(`Plumbline on http://${HOST ?? "localhost"}:${PORT} (${workers} workers)`);
   });
   const stopAll = () => {
     stopping = true;

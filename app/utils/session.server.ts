@@ -54,7 +54,8 @@ async function lookUpUser(request: Request): Promise<SessionUser | null> {
 
 /** A same-site path to return to, or the fallback: never another origin (no open redirect). */
 export function safeRedirectPath(value: unknown, fallback = "/"): string {
-  if (typeof value !== "string" || !value.startsWith("/") || value.startsWith("//") || value.startsWith("/\\")) return fallback;
+  if (typeof value !== "string" || !value.startsWith("/") || value.startsWith("//") || value.startsWith("/\\"))
+    return fallback;
   try {
     const url = new URL(value, "http://plumbline.invalid");
     if (url.origin !== "http://plumbline.invalid") return fallback;

@@ -38,7 +38,11 @@ export async function readUploadForm(
   const maxTotalSize = maxFiles * maxFileBytes + MIB;
   const declared = Number(request.headers.get("Content-Length"));
   if (Number.isFinite(declared) && declared > maxTotalSize) {
-    return { ok: false, status: 413, message: `The upload is larger than the ${megabytes(maxFileBytes)} limit for a file.` };
+    return {
+      ok: false,
+      status: 413,
+      message: `The upload is larger than the ${megabytes(maxFileBytes)} limit for a file.`,
+    };
   }
   try {
     const formData = await parseFormData(
@@ -76,19 +80,29 @@ export type CheckedUpload = { bytes: Uint8Array; kind: FileKind; contentType: st
 export function cleanFileName(name: string): string {
   const base = name.split(/[\\/]/).pop() ?? "";
   // eslint-disable-next-line no-control-regex
-  const clean = base.replace(/[\u0000-\u001f\u007f"]/g, "").trim().slice(-200);
+  const clean = base
+    .replace(/[\u0000-\u001f\u007f"]/g, "")
+    .trim()
+    .slice(-200);
   return clean || "upload";
 }
 
 /** Checks an uploaded file by its content against the kinds `accepted`; its name and declared type are not trusted. */
-export async function checkUpload(file: File, accepted: readonly FileKind[]): Promise<{ ok: true; upload: CheckedUpload } | { ok: false; message: string }> {
+export async function checkUpload(
+  file: File,
+  accepted: readonly FileKind[],
+): Promise<{ ok: true; upload: CheckedUpload } | { ok: false; message: string }> {
   const originalName = cleanFileName(file.name);
-  if (file.size > MAX_UPLOAD_BYTES) return { ok: false, message: `"${originalName}" is larger than the ${megabytes(MAX_UPLOAD_BYTES)} limit.` };
+  if (file.size > MAX_UPLOAD_BYTES)
+    return { ok: false, message: `"${originalName}" is larger than the ${megabytes(MAX_UPLOAD_BYTES)} limit.` };
   const bytes = new Uint8Array(await file.arrayBuffer());
   const sniffed = sniffFileKind(bytes);
   const problem = fileKindProblem(sniffed, accepted, originalName);
   if (problem || !sniffed.kind) return { ok: false, message: problem ?? "The file's kind is not accepted." };
-  return { ok: true, upload: { bytes, kind: sniffed.kind, contentType: FILE_KIND_CONTENT_TYPES[sniffed.kind], originalName } };
+  return {
+    ok: true,
+    upload: { bytes, kind: sniffed.kind, contentType: FILE_KIND_CONTENT_TYPES[sniffed.kind], originalName },
+  };
 }
 
 const STORAGE_KEY = /^[a-f0-9]{32}$/;
@@ -106,7 +120,9 @@ export type StoreFile = (upload: CheckedUpload, meta: StoreMeta) => Promise<Stor
  * UPLOAD_DIR (random names) and records them in stored_files; if the transaction rolls back,
  * the bytes it wrote are deleted again, so no half-written upload stays behind.
  */
-export async function transactionWithFiles<T>(work: (transaction: Transaction, store: StoreFile) => Promise<T>): Promise<T> {
+export async function transactionWithFiles<T>(
+  work: (transaction: Transaction, store: StoreFile) => Promise<T>,
+): Promise<T> {
   const written: string[] = [];
   try {
     return await sequelize.transaction(async (transaction) => {

@@ -41,7 +41,12 @@ export const up: Migration = async ({ context: qi }) => {
   });
   await qi.createTable("password_tokens", {
     id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-    user_id: { type: DataTypes.INTEGER, allowNull: false, references: { model: "users", key: "id" }, onDelete: "CASCADE" },
+    user_id: {
+      type: DataTypes.INTEGER,
+      allowNull: false,
+      references: { model: "users", key: "id" },
+      onDelete: "CASCADE",
+    },
     token_hash: { type: DataTypes.STRING(64), allowNull: false, unique: true },
     purpose: { type: DataTypes.STRING(10), allowNull: false },
     expires_at: { type: DataTypes.DATE, allowNull: false },

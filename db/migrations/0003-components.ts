@@ -30,7 +30,12 @@ export const up: Migration = async ({ context: qi }) => {
   await qi.addIndex("components", ["organisation_id", "archived_at", "name"]);
   await qi.createTable("component_lift_points", {
     id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-    component_id: { type: DataTypes.INTEGER, allowNull: false, references: { model: "components", key: "id" }, onDelete: "CASCADE" },
+    component_id: {
+      type: DataTypes.INTEGER,
+      allowNull: false,
+      references: { model: "components", key: "id" },
+      onDelete: "CASCADE",
+    },
     position: { type: DataTypes.INTEGER, allowNull: false },
     label: { type: DataTypes.STRING(10), allowNull: false },
     x_m: { type: DataTypes.DOUBLE, allowNull: false },
@@ -45,7 +50,12 @@ export const up: Migration = async ({ context: qi }) => {
   await qi.addIndex("component_lift_points", ["component_id", "label"], { unique: true });
   await qi.createTable("component_parts", {
     id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-    component_id: { type: DataTypes.INTEGER, allowNull: false, references: { model: "components", key: "id" }, onDelete: "CASCADE" },
+    component_id: {
+      type: DataTypes.INTEGER,
+      allowNull: false,
+      references: { model: "components", key: "id" },
+      onDelete: "CASCADE",
+    },
     position: { type: DataTypes.INTEGER, allowNull: false },
     name: { type: DataTypes.STRING(200), allowNull: false },
     mass_kg: { type: DataTypes.DOUBLE, allowNull: false },

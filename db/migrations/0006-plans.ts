@@ -16,13 +16,23 @@ export const up: Migration = async ({ context: qi }) => {
   await qi.addIndex("plans", ["organisation_id", "job_id"]);
   await qi.createTable("plan_revisions", {
     id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-    plan_id: { type: DataTypes.INTEGER, allowNull: false, references: { model: "plans", key: "id" }, onDelete: "CASCADE" },
+    plan_id: {
+      type: DataTypes.INTEGER,
+      allowNull: false,
+      references: { model: "plans", key: "id" },
+      onDelete: "CASCADE",
+    },
     revision: { type: DataTypes.INTEGER, allowNull: false },
     // draft, in_review, returned, approved, superseded, completed, cancelled
     status: { type: DataTypes.STRING(20), allowNull: false, defaultValue: "draft" },
     // Optimistic lock: every save is UPDATE ... WHERE version = the version the editor loaded.
     version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
-    component_id: { type: DataTypes.INTEGER, allowNull: true, references: { model: "components", key: "id" }, onDelete: "SET NULL" },
+    component_id: {
+      type: DataTypes.INTEGER,
+      allowNull: true,
+      references: { model: "components", key: "id" },
+      onDelete: "SET NULL",
+    },
     component_version: { type: DataTypes.INTEGER, allowNull: true },
     // JSON documents: the load (a ComponentDefinition), the arrangement, the gear allocation,
     // the server-computed results and the lift's sequence, hazards and people.

@@ -5,7 +5,12 @@ import type { Migration } from "../umzug";
 export const up: Migration = async ({ context: qi }) => {
   await qi.createTable("component_files", {
     id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-    component_id: { type: DataTypes.INTEGER, allowNull: false, references: { model: "components", key: "id" }, onDelete: "CASCADE" },
+    component_id: {
+      type: DataTypes.INTEGER,
+      allowNull: false,
+      references: { model: "components", key: "id" },
+      onDelete: "CASCADE",
+    },
     stored_file_id: { type: DataTypes.INTEGER, allowNull: false, references: { model: "stored_files", key: "id" } },
     kind: { type: DataTypes.STRING(10), allowNull: false },
     caption: { type: DataTypes.STRING(200), allowNull: false, defaultValue: "" },

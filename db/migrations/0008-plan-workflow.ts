@@ -24,7 +24,12 @@ export const up: Migration = async ({ context: qi }) => {
   await qi.addIndex("plan_revisions", ["status"]);
   await qi.createTable("plan_acknowledgements", {
     id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-    revision_id: { type: DataTypes.INTEGER, allowNull: false, references: { model: "plan_revisions", key: "id" }, onDelete: "CASCADE" },
+    revision_id: {
+      type: DataTypes.INTEGER,
+      allowNull: false,
+      references: { model: "plan_revisions", key: "id" },
+      onDelete: "CASCADE",
+    },
     check_id: { type: DataTypes.STRING(80), allowNull: false },
     check_item: { type: DataTypes.STRING(300), allowNull: false },
     check_message: { type: DataTypes.TEXT, allowNull: false },
@@ -35,7 +40,12 @@ export const up: Migration = async ({ context: qi }) => {
   await qi.addIndex("plan_acknowledgements", ["revision_id", "check_id"], { unique: true });
   await qi.createTable("plan_comments", {
     id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-    revision_id: { type: DataTypes.INTEGER, allowNull: false, references: { model: "plan_revisions", key: "id" }, onDelete: "CASCADE" },
+    revision_id: {
+      type: DataTypes.INTEGER,
+      allowNull: false,
+      references: { model: "plan_revisions", key: "id" },
+      onDelete: "CASCADE",
+    },
     user_id: { type: DataTypes.INTEGER, allowNull: false, references: { model: "users", key: "id" } },
     kind: { type: DataTypes.STRING(20), allowNull: false },
     body: { type: DataTypes.TEXT, allowNull: false },
@@ -44,7 +54,12 @@ export const up: Migration = async ({ context: qi }) => {
   await qi.addIndex("plan_comments", ["revision_id"]);
   await qi.createTable("lift_records", {
     id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-    revision_id: { type: DataTypes.INTEGER, allowNull: false, unique: true, references: { model: "plan_revisions", key: "id" } },
+    revision_id: {
+      type: DataTypes.INTEGER,
+      allowNull: false,
+      unique: true,
+      references: { model: "plan_revisions", key: "id" },
+    },
     checklist: { type: DataTypes.TEXT, allowNull: false },
     lifted_at: { type: DataTypes.DATE, allowNull: false },
     notes: { type: DataTypes.TEXT, allowNull: false, defaultValue: "" },
@@ -55,7 +70,12 @@ export const up: Migration = async ({ context: qi }) => {
   });
   await qi.createTable("lift_record_photos", {
     id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-    lift_record_id: { type: DataTypes.INTEGER, allowNull: false, references: { model: "lift_records", key: "id" }, onDelete: "CASCADE" },
+    lift_record_id: {
+      type: DataTypes.INTEGER,
+      allowNull: false,
+      references: { model: "lift_records", key: "id" },
+      onDelete: "CASCADE",
+    },
     stored_file_id: { type: DataTypes.INTEGER, allowNull: false, references: { model: "stored_files", key: "id" } },
   });
 };

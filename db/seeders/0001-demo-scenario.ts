@@ -20,7 +20,8 @@ export async function up() {
   const organisation = await Organisation.create({ name: "Kestrel Rotating Plant Services" });
   const orgId = organisation.id;
   const users = [];
-  for (const u of DEMO_USERS) users.push(await createUser({ organisationId: orgId, ...u, password: DEMO_PASSWORD }, null));
+  for (const u of DEMO_USERS)
+    users.push(await createUser({ organisationId: orgId, ...u, password: DEMO_PASSWORD }, null));
   const planner = users[1]!;
 
   const brewery = await createSite(
@@ -30,7 +31,8 @@ export async function up() {
       customer: "Fernbrook Brewing Co.",
       address: "Unit 4, Millrace Lane\nFernbrook FB3 2QT",
       siteContact: "Gareth Pryce, engineering manager, 01632 960 418",
-      notes: "5 t overhead crane in the compressor house (hook 5.2 m above floor). Permit to work from the site engineer; hot works banned.",
+      notes:
+        "5 t overhead crane in the compressor house (hook 5.2 m above floor). Permit to work from the site engineer; hot works banned.",
     },
     planner.id,
   );

@@ -6,7 +6,13 @@ import { compositeMassAndCog } from "~/statics/composite";
 type LiftPointSeed = [label: string, x: number, y: number, z: number, thread: string];
 
 function lift(points: LiftPointSeed[], engagementMm: number): ComponentDefinition["liftPoints"] {
-  return points.map(([label, x, y, z, thread]) => ({ label, position: { x, y, z }, axis: { x: 0, y: 0, z: 1 }, thread, engagementMm }));
+  return points.map(([label, x, y, z, thread]) => ({
+    label,
+    position: { x, y, z },
+    axis: { x: 0, y: 0, z: 1 },
+    thread,
+    engagementMm,
+  }));
 }
 
 const coverParts = [
@@ -32,7 +38,13 @@ export const DEMO_COMPONENTS: ComponentDefinition[] = [
     cogSource: "manufacturer",
     cogNote: "General arrangement drawing GA-2210 rev C",
     ...rectangleOutlines(1.3, 0.72, 0.86),
-    liftPoints: lift([["A", -0.45, 0, 0.86, "M20"], ["B", 0.55, 0, 0.86, "M20"]], 32),
+    liftPoints: lift(
+      [
+        ["A", -0.45, 0, 0.86, "M20"],
+        ["B", 0.55, 0, 0.86, "M20"],
+      ],
+      32,
+    ),
     parts: [],
   },
   {
@@ -49,7 +61,14 @@ export const DEMO_COMPONENTS: ComponentDefinition[] = [
     cogSource: "calculated",
     cogNote: "Composite of the parts below",
     ...rectangleOutlines(1.1, 0.62, 0.18),
-    liftPoints: lift([["A", -0.42, -0.22, 0.18, "M12"], ["B", -0.42, 0.22, 0.18, "M12"], ["C", 0.45, 0, 0.18, "M12"]], 20),
+    liftPoints: lift(
+      [
+        ["A", -0.42, -0.22, 0.18, "M12"],
+        ["B", -0.42, 0.22, 0.18, "M12"],
+        ["C", 0.45, 0, 0.18, "M12"],
+      ],
+      20,
+    ),
     parts: coverParts,
   },
   {
@@ -67,14 +86,20 @@ export const DEMO_COMPONENTS: ComponentDefinition[] = [
     cogNote: "From leg loads measured at the last lift",
     ...rectangleOutlines(1.25, 0.95, 0.9),
     liftPoints: lift(
-      [["A", -0.5, -0.38, 0.9, "M24"], ["B", 0.5, -0.38, 0.9, "M24"], ["C", 0.5, 0.38, 0.9, "M24"], ["D", -0.5, 0.38, 0.9, "M24"]],
+      [
+        ["A", -0.5, -0.38, 0.9, "M24"],
+        ["B", 0.5, -0.38, 0.9, "M24"],
+        ["C", 0.5, 0.38, 0.9, "M24"],
+        ["D", -0.5, 0.38, 0.9, "M24"],
+      ],
       38,
     ),
     parts: [],
   },
   {
     name: "P4 drive motor, 75 kW",
-    description: "Foot-mounted induction motor driving pump P4; lifted from a spreader beam to keep the slings off the terminal box.",
+    description:
+      "Foot-mounted induction motor driving pump P4; lifted from a spreader beam to keep the slings off the terminal box.",
     massKg: 520,
     massSource: "certified",
     massNote: "Rating plate",
@@ -86,7 +111,13 @@ export const DEMO_COMPONENTS: ComponentDefinition[] = [
     cogSource: "estimated",
     cogNote: "Estimated from the frame size; heavier at the drive end",
     ...rectangleOutlines(0.98, 0.45, 0.5),
-    liftPoints: lift([["A", -0.22, 0, 0.5, "M16"], ["B", 0.3, 0, 0.5, "M16"]], 24),
+    liftPoints: lift(
+      [
+        ["A", -0.22, 0, 0.5, "M16"],
+        ["B", 0.3, 0, 0.5, "M16"],
+      ],
+      24,
+    ),
     parts: [],
   },
 ];

@@ -34,8 +34,15 @@ const DEMO_PLANS: DemoPlan[] = [
     sling: { kinds: ["chain_sling"], multiLeg: true },
     masterLink: true,
     hazards: [
-      { hazard: "Element swings into the package frame as it clears the dowels", control: "Lift straight up under the crane with tag lines; plumb the hook over the CoG before taking the weight." },
-      { hazard: "Oil and coolant spill from opened connections", control: "Drain and cap the lines first; drip tray under the lift path." },
+      {
+        hazard: "Element swings into the package frame as it clears the dowels",
+        control:
+          "Lift straight up under the crane with tag lines; plumb the hook over the CoG before taking the weight.",
+      },
+      {
+        hazard: "Oil and coolant spill from opened connections",
+        control: "Drain and cap the lines first; drip tray under the lift path.",
+      },
     ],
     exclusionZone: "Barrier 2 m around the compressor package and under the travel path to the laydown area.",
   },
@@ -46,8 +53,14 @@ const DEMO_PLANS: DemoPlan[] = [
     sling: { kinds: ["web_sling", "round_sling"] },
     masterLink: false,
     hazards: [
-      { hazard: "Cover binds on the bearing dowels and snatches free", control: "Jack the cover off evenly first; lift slowly and stop at the first sign of binding." },
-      { hazard: "Open floor hatch beside the blower", control: "Keep the hatch barriered and closed for the whole lift (site rule)." },
+      {
+        hazard: "Cover binds on the bearing dowels and snatches free",
+        control: "Jack the cover off evenly first; lift slowly and stop at the first sign of binding.",
+      },
+      {
+        hazard: "Open floor hatch beside the blower",
+        control: "Keep the hatch barriered and closed for the whole lift (site rule).",
+      },
     ],
     exclusionZone: "Blower B1 plinth and 1.5 m around it; hatch closed and barriered.",
   },
@@ -58,8 +71,14 @@ const DEMO_PLANS: DemoPlan[] = [
     sling: { kinds: ["web_sling", "round_sling"] },
     masterLink: false,
     hazards: [
-      { hazard: "Four-leg sling: one diagonal may carry the whole load", control: "Each leg rated as if two legs carry (see the checks); equalise leg lengths at the trial lift." },
-      { hazard: "Gearbox lands off the skid's locating blocks", control: "Second person guides with a push stick; land and check before releasing the rigging." },
+      {
+        hazard: "Four-leg sling: one diagonal may carry the whole load",
+        control: "Each leg rated as if two legs carry (see the checks); equalise leg lengths at the trial lift.",
+      },
+      {
+        hazard: "Gearbox lands off the skid's locating blocks",
+        control: "Second person guides with a push stick; land and check before releasing the rigging.",
+      },
     ],
     exclusionZone: "Blower hall bay 2 between the gantry legs; nobody under the gantry beam.",
   },
@@ -70,8 +89,14 @@ const DEMO_PLANS: DemoPlan[] = [
     sling: { kinds: ["web_sling", "round_sling"] },
     masterLink: false,
     hazards: [
-      { hazard: "Slings crush the terminal box", control: "Use the beam so the drops hang vertically clear of the terminal box." },
-      { hazard: "Motor topples on vertical drops if its CoG is above the eyebolts", control: "Eyebolts on the motor's top face are above the CoG; check level at the trial lift." },
+      {
+        hazard: "Slings crush the terminal box",
+        control: "Use the beam so the drops hang vertically clear of the terminal box.",
+      },
+      {
+        hazard: "Motor topples on vertical drops if its CoG is above the eyebolts",
+        control: "Eyebolts on the motor's top face are above the CoG; check level at the trial lift.",
+      },
     ],
     exclusionZone: "Pump P4 bay, 2 m around the motor and along the path to the workshop trolley.",
   },
@@ -81,7 +106,10 @@ async function findItems(organisationId: number, kinds: GearKind[], extra: Recor
   return GearItem.findAll({
     // The demo allocates only items in service with an examination on record.
     where: { organisationId, kind: { [Op.in]: kinds }, status: "in_service", nextDueOn: { [Op.ne]: null }, ...extra },
-    order: [["wllKg", "ASC"], ["itemCode", "ASC"]],
+    order: [
+      ["wllKg", "ASC"],
+      ["itemCode", "ASC"],
+    ],
   });
 }
 
@@ -109,7 +137,12 @@ export async function up() {
     let arrangement = found.revision.arrangement;
     const beamItem = demo.workOrder === "KR-24130" ? take(await findItems(organisationId, ["beam"])) : undefined;
     if (demo.workOrder === "KR-24130") {
-      const beam = { massKg: beamItem?.beamMassKg ?? 85, wllKg: beamItem?.wllKg ?? 3000, lengthM: beamItem?.lengthM ?? 2, dropLengthM: 0.6 };
+      const beam = {
+        massKg: beamItem?.beamMassKg ?? 85,
+        wllKg: beamItem?.wllKg ?? 3000,
+        lengthM: beamItem?.lengthM ?? 2,
+        dropLengthM: 0.6,
+      };
       const top = Math.max(...snapshot.liftPoints.map((p) => p.position.z)) + beam.dropLengthM;
       arrangement = { ...arrangement, kind: "beam", mode: "level", hookHeightM: Number((top + 0.8).toFixed(3)), beam };
     }
@@ -125,7 +158,9 @@ export async function up() {
       if (arrangement.kind === "beam" || first.status !== 200) return snapshot.massKg * factor;
       return (first.body.rating.legs.find((l) => l.liftPointId === label)?.designTensionKg ?? snapshot.massKg) * factor;
     };
-    const multi = demo.sling.multiLeg ? take(slings, (s) => (s.legs ?? 1) >= arrangement.liftPointLabels.length) : undefined;
+    const multi = demo.sling.multiLeg
+      ? take(slings, (s) => (s.legs ?? 1) >= arrangement.liftPointLabels.length)
+      : undefined;
     for (const label of arrangement.liftPointLabels) {
       const thread = snapshot.liftPoints.find((p) => p.label === label)?.thread ?? "";
       const eyebolt = take(eyebolts, (e) => (e.thread ?? "").toUpperCase() === thread.toUpperCase());
@@ -149,11 +184,18 @@ export async function up() {
       ...defaultDetails(),
       hazards: demo.hazards,
       exclusionZone: demo.exclusionZone,
-      communication: "Hand signals to BS 7121 from the slinger/signaller in sight of the operator; radio on the site channel as back-up.",
+      communication:
+        "Hand signals to BS 7121 from the slinger/signaller in sight of the operator; radio on the site channel as back-up.",
       people: PEOPLE,
       floorClearanceM: 0.15,
     };
-    const saved = await savePlanRevision(organisationId, created.plan.id, 1, { title: demo.title, arrangement, rigging, details }, planner.id);
+    const saved = await savePlanRevision(
+      organisationId,
+      created.plan.id,
+      1,
+      { title: demo.title, arrangement, rigging, details },
+      planner.id,
+    );
     if (saved.status !== "saved") throw new Error(`Demo plan ${demo.title} did not save: ${JSON.stringify(saved)}`);
   }
 }

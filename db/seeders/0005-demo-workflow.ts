@@ -1,5 +1,11 @@
 import { getPlan, Plan } from "~/models/plan.server";
-import { approveRevision, assignRigger, recordLift, startNewRevision, submitRevision } from "~/models/plan-workflow.server";
+import {
+  approveRevision,
+  assignRigger,
+  recordLift,
+  startNewRevision,
+  submitRevision,
+} from "~/models/plan-workflow.server";
 import { PRE_LIFT_CHECKLIST } from "~/plans/workflow";
 import { findUserByEmail, getActiveSessionUser, type SessionUser } from "~/models/user.server";
 import { DEMO_PASSWORD } from "./0001-demo-scenario";
@@ -20,7 +26,14 @@ async function acknowledgeAll(orgId: number, planId: number) {
   const found = (await getPlan(orgId, planId))!;
   const checks = found.revision.results.status === 200 ? (found.revision.results.body.checks ?? []) : [];
   return Object.fromEntries(
-    checks.filter((c) => c.status === "warn").map((c) => [c.id, c.id.startsWith("inspection-") ? "Item is examined and in date on the day of the lift; the examiner is booked for the week after." : "Reviewed with the site engineer: acceptable for this lift."]),
+    checks
+      .filter((c) => c.status === "warn")
+      .map((c) => [
+        c.id,
+        c.id.startsWith("inspection-")
+          ? "Item is examined and in date on the day of the lift; the examiner is booked for the week after."
+          : "Reviewed with the site engineer: acceptable for this lift.",
+      ]),
   );
 }
 
@@ -45,16 +58,34 @@ export async function up() {
   expectOk(await submitRevision(org, cover.id, planner, await acknowledgeAll(org, cover.id)), "submit the cover");
 
   expectOk(await submitRevision(org, gearbox.id, planner, await acknowledgeAll(org, gearbox.id)), "submit the gearbox");
-  expectOk(await approveRevision(org, gearbox.id, approver, { ...sign, comment: "Trial lift to 50 mm and check the skid is chocked." }), "approve the gearbox");
+  expectOk(
+    await approveRevision(org, gearbox.id, approver, {
+      ...sign,
+      comment: "Trial lift to 50 mm and check the skid is chocked.",
+    }),
+    "approve the gearbox",
+  );
   expectOk(await startNewRevision(org, gearbox.id, planner), "start gearbox revision 2");
-  expectOk(await submitRevision(org, gearbox.id, planner, await acknowledgeAll(org, gearbox.id)), "submit gearbox revision 2");
-  expectOk(await approveRevision(org, gearbox.id, approver, { ...sign, comment: "Revision 2 after the site survey: same rigging, lift path confirmed." }), "approve gearbox revision 2");
+  expectOk(
+    await submitRevision(org, gearbox.id, planner, await acknowledgeAll(org, gearbox.id)),
+    "submit gearbox revision 2",
+  );
+  expectOk(
+    await approveRevision(org, gearbox.id, approver, {
+      ...sign,
+      comment: "Revision 2 after the site survey: same rigging, lift path confirmed.",
+    }),
+    "approve gearbox revision 2",
+  );
   expectOk(await assignRigger(org, gearbox.id, approver, rigger.id), "assign the gearbox lift");
 
   expectOk(await submitRevision(org, motor.id, planner, await acknowledgeAll(org, motor.id)), "submit the motor");
   expectOk(await approveRevision(org, motor.id, approver, { ...sign, comment: "" }), "approve the motor");
   expectOk(await assignRigger(org, motor.id, approver, rigger.id), "assign the motor lift");
-  const checklist = Object.fromEntries(PRE_LIFT_CHECKLIST.map((c) => [c.id, true])) as Record<(typeof PRE_LIFT_CHECKLIST)[number]["id"], boolean>;
+  const checklist = Object.fromEntries(PRE_LIFT_CHECKLIST.map((c) => [c.id, true])) as Record<
+    (typeof PRE_LIFT_CHECKLIST)[number]["id"],
+    boolean
+  >;
   expectOk(
     await recordLift(org, motor.id, rigger, {
       checklist,

@@ -55,7 +55,8 @@ export const SHACKLES: readonly ShackleRow[] = [
   })),
 ];
 
-const SIDE_LOAD = "Shackle side load reduction, screw-pin and bolt types (common practice across rigging hardware guidance)";
+const SIDE_LOAD =
+  "Shackle side load reduction, screw-pin and bolt types (common practice across rigging hardware guidance)";
 
 export const SHACKLE_SIDE_LOAD: readonly AnglePercentRow[] = [
   { upToAngleDeg: 0, percent: 100, source: SIDE_LOAD },
@@ -66,11 +67,51 @@ export const SHACKLE_SIDE_LOAD: readonly AnglePercentRow[] = [
 const EN818 = "EN 818-4 grade 8 chain slings, WLL table (reprinted standard table)";
 
 export const CHAIN_GRADE_8: readonly ChainGrade8Row[] = [
-  { diameterMm: 6, singleLegT: 1.12, twoLegUpTo45T: 1.6, twoLeg45To60T: 1.12, multiLegUpTo45T: 2.36, multiLeg45To60T: 1.7, source: EN818 },
-  { diameterMm: 8, singleLegT: 2.0, twoLegUpTo45T: 2.8, twoLeg45To60T: 2.0, multiLegUpTo45T: 4.25, multiLeg45To60T: 3.0, source: EN818 },
-  { diameterMm: 10, singleLegT: 3.15, twoLegUpTo45T: 4.25, twoLeg45To60T: 3.15, multiLegUpTo45T: 6.7, multiLeg45To60T: 4.75, source: EN818 },
-  { diameterMm: 13, singleLegT: 5.3, twoLegUpTo45T: 7.5, twoLeg45To60T: 5.3, multiLegUpTo45T: 11.2, multiLeg45To60T: 8.0, source: EN818 },
-  { diameterMm: 16, singleLegT: 8.0, twoLegUpTo45T: 11.2, twoLeg45To60T: 8.0, multiLegUpTo45T: 17.0, multiLeg45To60T: 11.8, source: EN818 },
+  {
+    diameterMm: 6,
+    singleLegT: 1.12,
+    twoLegUpTo45T: 1.6,
+    twoLeg45To60T: 1.12,
+    multiLegUpTo45T: 2.36,
+    multiLeg45To60T: 1.7,
+    source: EN818,
+  },
+  {
+    diameterMm: 8,
+    singleLegT: 2.0,
+    twoLegUpTo45T: 2.8,
+    twoLeg45To60T: 2.0,
+    multiLegUpTo45T: 4.25,
+    multiLeg45To60T: 3.0,
+    source: EN818,
+  },
+  {
+    diameterMm: 10,
+    singleLegT: 3.15,
+    twoLegUpTo45T: 4.25,
+    twoLeg45To60T: 3.15,
+    multiLegUpTo45T: 6.7,
+    multiLeg45To60T: 4.75,
+    source: EN818,
+  },
+  {
+    diameterMm: 13,
+    singleLegT: 5.3,
+    twoLegUpTo45T: 7.5,
+    twoLeg45To60T: 5.3,
+    multiLegUpTo45T: 11.2,
+    multiLeg45To60T: 8.0,
+    source: EN818,
+  },
+  {
+    diameterMm: 16,
+    singleLegT: 8.0,
+    twoLegUpTo45T: 11.2,
+    twoLeg45To60T: 8.0,
+    multiLegUpTo45T: 17.0,
+    multiLeg45To60T: 11.8,
+    source: EN818,
+  },
 ];
 
 export const CHAIN_GRADE_80_US: readonly ChainGrade80UsRow[] = [
@@ -136,8 +177,18 @@ export const HITCH_FACTORS: readonly HitchFactorRow[] = [
 const MODE = "EN 818-4 / EN 13414-1 mode factors (uniform load method)";
 
 export const MODE_FACTORS: readonly ModeFactorRow[] = [
-  { effectiveLegs: 1, upToAngleDeg: 45, factor: 1.0, source: "Single leg carries: WLL of one leg (DGUV Regel 100-500)" },
-  { effectiveLegs: 1, upToAngleDeg: 60, factor: 1.0, source: "Single leg carries: WLL of one leg (DGUV Regel 100-500)" },
+  {
+    effectiveLegs: 1,
+    upToAngleDeg: 45,
+    factor: 1.0,
+    source: "Single leg carries: WLL of one leg (DGUV Regel 100-500)",
+  },
+  {
+    effectiveLegs: 1,
+    upToAngleDeg: 60,
+    factor: 1.0,
+    source: "Single leg carries: WLL of one leg (DGUV Regel 100-500)",
+  },
   { effectiveLegs: 2, upToAngleDeg: 45, factor: 1.4, source: MODE },
   { effectiveLegs: 2, upToAngleDeg: 60, factor: 1.0, source: MODE },
   { effectiveLegs: 3, upToAngleDeg: 45, factor: 2.1, source: MODE },

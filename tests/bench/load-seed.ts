@@ -16,14 +16,54 @@ import { massToKg } from "~/statics/units";
 const CHUNK = 500;
 
 type Spec = Record<string, string>;
-const GEAR_SHAPES: Array<{ kind: GearKind; wll: () => [string, string]; spec: (i: number) => Spec; describe: (i: number) => string }> = [
-  { kind: "eyebolt", wll: () => ["700", "kg"], spec: (i) => ({ thread: ["M12", "M16", "M20", "M24"][i % 4]!, eyeboltFamily: "collar" }), describe: () => "Collar eyebolt, DIN 580" },
-  { kind: "shackle", wll: () => ["3.25", "t"], spec: (i) => ({ shackleType: i % 3 ? "bow" : "dee", pinType: i % 2 ? "screw" : "bolt", diameterMm: "16" }), describe: () => "Bow shackle 3.25 t" },
-  { kind: "chain_sling", wll: () => ["2.8", "t"], spec: (i) => ({ chainGrade: "8", diameterMm: "8", legs: String(1 + (i % 4)), lengthM: "2" }), describe: () => "Chain sling, grade 8, 8 mm" },
-  { kind: "web_sling", wll: () => ["2000", "kg"], spec: (i) => ({ legs: "1", lengthM: String(1 + (i % 6)) }), describe: () => "Web sling, green, 2 t" },
-  { kind: "round_sling", wll: () => ["3000", "kg"], spec: (i) => ({ legs: "1", lengthM: String(1 + (i % 5)) }), describe: () => "Round sling, yellow, 3 t" },
-  { kind: "master_link", wll: () => ["6.7", "t"], spec: () => ({ diameterMm: "22" }), describe: () => "Master link, grade 8" },
-  { kind: "crane", wll: () => ["5", "t"], spec: () => ({ hookHeightM: "6.5" }), describe: () => "Overhead travelling crane 5 t" },
+const GEAR_SHAPES: Array<{
+  kind: GearKind;
+  wll: () => [string, string];
+  spec: (i: number) => Spec;
+  describe: (i: number) => string;
+}> = [
+  {
+    kind: "eyebolt",
+    wll: () => ["700", "kg"],
+    spec: (i) => ({ thread: ["M12", "M16", "M20", "M24"][i % 4]!, eyeboltFamily: "collar" }),
+    describe: () => "Collar eyebolt, DIN 580",
+  },
+  {
+    kind: "shackle",
+    wll: () => ["3.25", "t"],
+    spec: (i) => ({ shackleType: i % 3 ? "bow" : "dee", pinType: i % 2 ? "screw" : "bolt", diameterMm: "16" }),
+    describe: () => "Bow shackle 3.25 t",
+  },
+  {
+    kind: "chain_sling",
+    wll: () => ["2.8", "t"],
+    spec: (i) => ({ chainGrade: "8", diameterMm: "8", legs: String(1 + (i % 4)), lengthM: "2" }),
+    describe: () => "Chain sling, grade 8, 8 mm",
+  },
+  {
+    kind: "web_sling",
+    wll: () => ["2000", "kg"],
+    spec: (i) => ({ legs: "1", lengthM: String(1 + (i % 6)) }),
+    describe: () => "Web sling, green, 2 t",
+  },
+  {
+    kind: "round_sling",
+    wll: () => ["3000", "kg"],
+    spec: (i) => ({ legs: "1", lengthM: String(1 + (i % 5)) }),
+    describe: () => "Round sling, yellow, 3 t",
+  },
+  {
+    kind: "master_link",
+    wll: () => ["6.7", "t"],
+    spec: () => ({ diameterMm: "22" }),
+    describe: () => "Master link, grade 8",
+  },
+  {
+    kind: "crane",
+    wll: () => ["5", "t"],
+    spec: () => ({ hookHeightM: "6.5" }),
+    describe: () => "Overhead travelling crane 5 t",
+  },
 ];
 
 async function inChunks<T>(rows: T[], write: (chunk: T[]) => Promise<unknown>) {
@@ -50,10 +90,28 @@ async function seedGear(organisationId: number, adminId: number, count: number) 
     const examinedOn = addDays(today, -((i * 37) % (months * 30 + 20)));
     const nextDueOn = addMonths(examinedOn, months);
     const status = i % 50 === 7 ? "quarantined" : i % 50 === 13 ? "withdrawn" : "in_service";
-    return { ...fields, organisationId, homeSiteId: null, wllKg: massToKg(fields.wllValue, fields.wllUnit), status, lastExaminedOn: examinedOn, nextDueOn } as const;
+    return {
+      ...fields,
+      organisationId,
+      homeSiteId: null,
+      wllKg: massToKg(fields.wllValue, fields.wllUnit),
+      status,
+      lastExaminedOn: examinedOn,
+      nextDueOn,
+    } as const;
   });
-  await inChunks(items, (chunk) => sequelize.transaction((transaction) => GearItem.bulkCreate(chunk.map((c) => ({ ...c })), { transaction })));
-  const created = await GearItem.findAll({ where: { organisationId }, attributes: ["id", "itemCode", "lastExaminedOn", "nextDueOn"] });
+  await inChunks(items, (chunk) =>
+    sequelize.transaction((transaction) =>
+      GearItem.bulkCreate(
+        chunk.map((c) => ({ ...c })),
+        { transaction },
+      ),
+    ),
+  );
+  const created = await GearItem.findAll({
+    where: { organisationId },
+    attributes: ["id", "itemCode", "lastExaminedOn", "nextDueOn"],
+  });
   const exams = created
     .filter((g) => g.itemCode.startsWith("LD-"))
     .map((g) => ({
@@ -67,11 +125,17 @@ async function seedGear(organisationId: number, adminId: number, count: number) 
       certificateFileId: null,
       recordedBy: adminId,
     }));
-  await inChunks(exams, (chunk) => sequelize.transaction((transaction) => Examination.bulkCreate(chunk, { transaction })));
+  await inChunks(exams, (chunk) =>
+    sequelize.transaction((transaction) => Examination.bulkCreate(chunk, { transaction })),
+  );
 }
 
 async function seedPlans(organisationId: number, count: number) {
-  const demo = await Plan.findAll({ where: { organisationId }, include: [{ model: PlanRevision, as: "currentRevision" }], order: [["id", "ASC"]] });
+  const demo = await Plan.findAll({
+    where: { organisationId },
+    include: [{ model: PlanRevision, as: "currentRevision" }],
+    order: [["id", "ASC"]],
+  });
   const byStatus = (status: string) => demo.find((p) => p.currentRevision?.status === status);
   const draft = byStatus("draft") ?? demo[0]!;
   const templates = [
@@ -84,7 +148,13 @@ async function seedPlans(organisationId: number, count: number) {
   ];
   const plans = Array.from({ length: count }, (_, i) => {
     const { plan } = templates[i % templates.length]!;
-    return { organisationId, jobId: plan.jobId, title: `${plan.title} (load copy ${i + 1})`, createdBy: plan.createdBy, currentRevisionId: null };
+    return {
+      organisationId,
+      jobId: plan.jobId,
+      title: `${plan.title} (load copy ${i + 1})`,
+      createdBy: plan.createdBy,
+      currentRevisionId: null,
+    };
   });
   const firstNew = ((await Plan.max<number, Plan>("id")) ?? 0) + 1;
   await inChunks(plans, (chunk) => sequelize.transaction((transaction) => Plan.bulkCreate(chunk, { transaction })));
@@ -98,13 +168,16 @@ async function seedPlans(organisationId: number, count: number) {
       revision: 1,
       status,
       version: 1 + (i % 7),
-      approvalComment: status === "returned" ? "Check the sling angles against the new hook height." : revision.approvalComment,
+      approvalComment:
+        status === "returned" ? "Check the sling angles against the new hook height." : revision.approvalComment,
       fingerprint: approved ? randomBytes(32).toString("hex") : null,
       verifyToken: approved ? randomBytes(32).toString("hex") : null,
       supersededByRevision: null,
     };
   });
-  await inChunks(revisions, (chunk) => sequelize.transaction((transaction) => PlanRevision.bulkCreate(chunk as never, { transaction })));
+  await inChunks(revisions, (chunk) =>
+    sequelize.transaction((transaction) => PlanRevision.bulkCreate(chunk as never, { transaction })),
+  );
   await sequelize.query(
     "UPDATE plans SET current_revision_id = (SELECT r.id FROM plan_revisions r WHERE r.plan_id = plans.id AND r.revision = 1) WHERE current_revision_id IS NULL",
   );
@@ -119,7 +192,10 @@ if (!admin) throw new Error("Seed the demo scenario first (db/cli.ts setup).");
 const started = performance.now();
 await seedGear(admin.organisationId, admin.id, gearCount);
 const range = await seedPlans(admin.organisationId, planCount);
-const totals = { plans: await Plan.count({ where: { organisationId: admin.organisationId } }), gearItems: await GearItem.count({ where: { organisationId: admin.organisationId } }) };
+const totals = {
+  plans: await Plan.count({ where: { organisationId: admin.organisationId } }),
+  gearItems: await GearItem.count({ where: { organisationId: admin.organisationId } }),
+};
 await sequelize.close();
 // The benchmark reads this line for the plan ids it may ask for and checks the totals.
 console.log(JSON.stringify({ ...range, ...totals, seconds: (performance.now() - started) / 1000 }));

@@ -39,7 +39,10 @@ type AutocannonResult = {
 };
 type AutocannonClient = { requestIterator?: { currentRequestIndex?: number } };
 type AutocannonInstance = Promise<AutocannonResult> & {
-  on(event: "response", listener: (client: AutocannonClient, statusCode: number, bytes: number, responseTimeMs: number) => void): void;
+  on(
+    event: "response",
+    listener: (client: AutocannonClient, statusCode: number, bytes: number, responseTimeMs: number) => void,
+  ): void;
 };
 type Autocannon = (options: {
   url: string;
@@ -62,7 +65,14 @@ const SOLVE_BODY = JSON.stringify({
   hook: { z: 2.4 },
   rigging: {
     legs: Object.fromEntries(
-      ["A", "B", "C", "D"].map((id) => [id, { sling: { kind: "chain", diameterMm: 8, grade: "8" }, shackle: { type: "bow", pin: "bolt", wllKg: 3250 }, eyebolt: { family: "collar", thread: "M20" } }]),
+      ["A", "B", "C", "D"].map((id) => [
+        id,
+        {
+          sling: { kind: "chain", diameterMm: 8, grade: "8" },
+          shackle: { type: "bow", pin: "bolt", wllKg: 3250 },
+          eyebolt: { family: "collar", thread: "M20" },
+        },
+      ]),
     ),
     masterLink: { wllKg: 6700 },
     crane: { swlKg: 5000, maxHookHeightM: 6.5 },
@@ -76,10 +86,23 @@ function percentile(sorted: number[], p: number) {
   return sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)]!;
 }
 
-type RouteFigures = { name: string; count: number; p50: number; p95: number; p99: number; non2xx: number; statuses: Record<number, number> };
+type RouteFigures = {
+  name: string;
+  count: number;
+  p50: number;
+  p95: number;
+  p99: number;
+  non2xx: number;
+  statuses: Record<number, number>;
+};
 
 /** Runs autocannon over `requests` (each connection cycles through them in order), with per-route latencies. */
-async function drive(baseUrl: string, cookie: string, seconds: number, requests: Array<AutocannonRequest & { name: string }>) {
+async function drive(
+  baseUrl: string,
+  cookie: string,
+  seconds: number,
+  requests: Array<AutocannonRequest & { name: string }>,
+) {
   const perRoute = requests.map(() => ({ times: [] as number[], non2xx: 0, statuses: {} as Record<number, number> }));
   const all: number[] = [];
   const instance = autocannon({
@@ -109,7 +132,15 @@ async function drive(baseUrl: string, cookie: string, seconds: number, requests:
   const sortedAll = all.sort((a, b) => a - b);
   const routes: RouteFigures[] = perRoute.map((r, i) => {
     const sorted = r.times.sort((a, b) => a - b);
-    return { name: requests[i]!.name, count: sorted.length, p50: percentile(sorted, 50), p95: percentile(sorted, 95), p99: percentile(sorted, 99), non2xx: r.non2xx, statuses: r.statuses };
+    return {
+      name: requests[i]!.name,
+      count: sorted.length,
+      p50: percentile(sorted, 50),
+      p95: percentile(sorted, 95),
+      p99: percentile(sorted, 99),
+      non2xx: r.non2xx,
+      statuses: r.statuses,
+    };
   });
   return {
     result,
@@ -160,13 +191,22 @@ export function editorJsBeyondShell(buildClientDir = "build/client") {
     .sort((a, b) => fs.statSync(b).mtimeMs - fs.statSync(a).mtimeMs);
   if (!manifests[0]) throw new Error("No React Router client manifest in build/client/assets: build first.");
   const text = fs.readFileSync(manifests[0], "utf8");
-  const manifest = JSON.parse(text.slice(text.indexOf("{"), text.lastIndexOf("}") + 1)) as { entry: ManifestEntry; routes: Record<string, ManifestEntry> };
+  const manifest = JSON.parse(text.slice(text.indexOf("{"), text.lastIndexOf("}") + 1)) as {
+    entry: ManifestEntry;
+    routes: Record<string, ManifestEntry>;
+  };
   const root = manifest.routes.root!;
   const editor = manifest.routes["routes/plans.$planId.edit"];
   if (!editor) throw new Error("The manifest has no routes/plans.$planId.edit.");
-  const shell = closure(assetsDir, [manifest.entry.module, ...(manifest.entry.imports ?? []), root.module, ...(root.imports ?? [])]);
+  const shell = closure(assetsDir, [
+    manifest.entry.module,
+    ...(manifest.entry.imports ?? []),
+    root.module,
+    ...(root.imports ?? []),
+  ]);
   const route = closure(assetsDir, [editor.module, ...(editor.imports ?? [])]);
-  const gzipKb = (files: Iterable<string>) => [...files].reduce((sum, f) => sum + zlib.gzipSync(fs.readFileSync(path.join(assetsDir, f))).length, 0) / 1024;
+  const gzipKb = (files: Iterable<string>) =>
+    [...files].reduce((sum, f) => sum + zlib.gzipSync(fs.readFileSync(path.join(assetsDir, f))).length, 0) / 1024;
   const beyond = [...route].filter((f) => !shell.has(f));
   return { beyondKb: gzipKb(beyond), shellKb: gzipKb(shell), files: beyond.sort() };
 }
@@ -179,10 +219,15 @@ export async function runLoadBench(): Promise<BenchResult[]> {
   const seedStarted = performance.now();
   const server = await startBuiltServer({
     prepare: (env) => {
-      const run = spawnSync(process.execPath, ["node_modules/tsx/dist/cli.mjs", "tests/bench/load-seed.ts", String(LOAD_PLANS), String(LOAD_GEAR_ITEMS)], { env, encoding: "utf8" });
+      const run = spawnSync(
+        process.execPath,
+        ["node_modules/tsx/dist/cli.mjs", "tests/bench/load-seed.ts", String(LOAD_PLANS), String(LOAD_GEAR_ITEMS)],
+        { env, encoding: "utf8" },
+      );
       if (run.status !== 0) throw new Error(`load seeding failed: ${run.stderr}`);
       seeded = JSON.parse(run.stdout.trim().split("\n").pop()!) as typeof seeded;
-      if (seeded.plans < LOAD_PLANS || seeded.gearItems < LOAD_GEAR_ITEMS) throw new Error(`load seeding came up short: ${run.stdout}`);
+      if (seeded.plans < LOAD_PLANS || seeded.gearItems < LOAD_GEAR_ITEMS)
+        throw new Error(`load seeding came up short: ${run.stdout}`);
     },
   });
   try {
@@ -196,8 +241,19 @@ export async function runLoadBench(): Promise<BenchResult[]> {
     const mixed: Array<AutocannonRequest & { name: string }> = [
       { name: "GET /", method: "GET", path: "/" },
       { name: "GET /plans/:id", method: "GET", path: "/plans/1", setupRequest: (r) => ({ ...r, path: planPath() }) },
-      { name: "POST /api/solve", method: "POST", path: "/api/solve", headers: { "Content-Type": "application/json" }, body: SOLVE_BODY },
-      { name: "GET /gear?page=N", method: "GET", path: "/gear", setupRequest: (r) => ({ ...r, path: `/gear?page=${randomInt(1, GEAR_PAGES)}` }) },
+      {
+        name: "POST /api/solve",
+        method: "POST",
+        path: "/api/solve",
+        headers: { "Content-Type": "application/json" },
+        body: SOLVE_BODY,
+      },
+      {
+        name: "GET /gear?page=N",
+        method: "GET",
+        path: "/gear",
+        setupRequest: (r) => ({ ...r, path: `/gear?page=${randomInt(1, GEAR_PAGES)}` }),
+      },
     ];
     // Warm the JIT and SQLite's page cache before anything is counted.
     await drive(server.baseUrl, cookie, Math.min(5, seconds), mixed);
@@ -205,12 +261,18 @@ export async function runLoadBench(): Promise<BenchResult[]> {
     const load = await drive(server.baseUrl, cookie, seconds, mixed);
     console.log(`load: mixed workload, ${LOAD_CONNECTIONS} connections, ${seconds} s`);
     for (const r of load.routes) {
-      const statuses = Object.entries(r.statuses).map(([code, n]) => `${code} x${n}`).join(", ");
-      console.log(`  ${r.name.padEnd(18)} ${String(r.count).padStart(7)} responses  p50 ${r.p50.toFixed(1)} ms  p95 ${r.p95.toFixed(1)} ms  p99 ${r.p99.toFixed(1)} ms  (${statuses})`);
+      const statuses = Object.entries(r.statuses)
+        .map(([code, n]) => `${code} x${n}`)
+        .join(", ");
+      console.log(
+        `  ${r.name.padEnd(18)} ${String(r.count).padStart(7)} responses  p50 ${r.p50.toFixed(1)} ms  p95 ${r.p95.toFixed(1)} ms  p99 ${r.p99.toFixed(1)} ms  (${statuses})`,
+      );
     }
     const errors = load.result.errors + load.result.timeouts;
 
-    const ping = await drive(server.baseUrl, cookie, compareSeconds, [{ name: "GET /api/ping", method: "GET", path: "/api/ping" }]);
+    const ping = await drive(server.baseUrl, cookie, compareSeconds, [
+      { name: "GET /api/ping", method: "GET", path: "/api/ping" },
+    ]);
     const planOnly = await drive(server.baseUrl, cookie, compareSeconds, [mixed[1]!]);
     const ratio = planOnly.requestsPerSecond / ping.requestsPerSecond;
     console.log(
@@ -218,23 +280,61 @@ export async function runLoadBench(): Promise<BenchResult[]> {
         `plan page ${planOnly.requestsPerSecond.toFixed(0)} req/s (p95 ${planOnly.p95.toFixed(1)} ms)`,
     );
     const js = editorJsBeyondShell();
-    console.log(`load: editor JS beyond the shell (the shell itself is ${js.shellKb.toFixed(1)} KB gzipped): ${js.files.join(", ")}`);
+    console.log(
+      `load: editor JS beyond the shell (the shell itself is ${js.shellKb.toFixed(1)} KB gzipped): ${js.files.join(", ")}`,
+    );
 
     const aloneErrors = ping.result.errors + ping.result.timeouts + planOnly.result.errors + planOnly.result.timeouts;
     const aloneNon2xx = ping.result.non2xx + planOnly.result.non2xx;
     return [
       { name: "load mixed: throughput", value: load.requestsPerSecond, unit: "req/s", target: Number.NaN, ok: true },
       { name: "load mixed: latency p50", value: load.p50, unit: "ms", target: Number.NaN, ok: true },
-      { name: "load mixed: latency p95", value: load.p95, unit: "ms", target: P95_TARGET_MS, ok: load.p95 < P95_TARGET_MS },
+      {
+        name: "load mixed: latency p95",
+        value: load.p95,
+        unit: "ms",
+        target: P95_TARGET_MS,
+        ok: load.p95 < P95_TARGET_MS,
+      },
       { name: "load mixed: latency p99", value: load.p99, unit: "ms", target: Number.NaN, ok: true },
       // print() in run.ts reads "at most" only from the units ms, x and KB, so the zero targets are named here.
-      { name: "load mixed: errors and timeouts (target 0)", value: errors, unit: "errors", target: Number.NaN, ok: errors === 0 },
-      { name: "load mixed: non-2xx responses (target 0)", value: load.result.non2xx, unit: "responses", target: Number.NaN, ok: load.result.non2xx === 0 },
-      { name: "load alone: errors, timeouts and non-2xx (target 0)", value: aloneErrors + aloneNon2xx, unit: "responses", target: Number.NaN, ok: aloneErrors + aloneNon2xx === 0 },
+      {
+        name: "load mixed: errors and timeouts (target 0)",
+        value: errors,
+        unit: "errors",
+        target: Number.NaN,
+        ok: errors === 0,
+      },
+      {
+        name: "load mixed: non-2xx responses (target 0)",
+        value: load.result.non2xx,
+        unit: "responses",
+        target: Number.NaN,
+        ok: load.result.non2xx === 0,
+      },
+      {
+        name: "load alone: errors, timeouts and non-2xx (target 0)",
+        value: aloneErrors + aloneNon2xx,
+        unit: "responses",
+        target: Number.NaN,
+        ok: aloneErrors + aloneNon2xx === 0,
+      },
       { name: "load: GET /api/ping alone", value: ping.requestsPerSecond, unit: "req/s", target: Number.NaN, ok: true },
       { name: "load: plan page alone", value: planOnly.requestsPerSecond, unit: "req/s", target: Number.NaN, ok: true },
-      { name: "load: plan page vs trivial route throughput", value: ratio, unit: "ratio", target: PLAN_PAGE_RATIO_TARGET, ok: ratio >= PLAN_PAGE_RATIO_TARGET },
-      { name: "editor route client JS beyond the shell, gzipped", value: js.beyondKb, unit: "KB", target: EDITOR_JS_TARGET_KB, ok: js.beyondKb <= EDITOR_JS_TARGET_KB },
+      {
+        name: "load: plan page vs trivial route throughput",
+        value: ratio,
+        unit: "ratio",
+        target: PLAN_PAGE_RATIO_TARGET,
+        ok: ratio >= PLAN_PAGE_RATIO_TARGET,
+      },
+      {
+        name: "editor route client JS beyond the shell, gzipped",
+        value: js.beyondKb,
+        unit: "KB",
+        target: EDITOR_JS_TARGET_KB,
+        ok: js.beyondKb <= EDITOR_JS_TARGET_KB,
+      },
     ];
   } finally {
     await server.stop();
@@ -245,7 +345,9 @@ if (import.meta.url === `file://${process.argv[1]}`) {
   const results = await runLoadBench();
   for (const r of results) {
     const atMost = r.unit !== "ratio";
-    const target = Number.isNaN(r.target) ? "" : ` (target ${atMost ? "<=" : ">="} ${r.target}) ${r.ok ? "OK" : "MISSED"}`;
+    const target = Number.isNaN(r.target)
+      ? ""
+      : ` (target ${atMost ? "<=" : ">="} ${r.target}) ${r.ok ? "OK" : "MISSED"}`;
     console.log(`${r.name}: ${r.value.toFixed(r.unit === "ratio" ? 3 : 1)} ${r.unit}${target}`);
   }
 }

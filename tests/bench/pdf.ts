@@ -29,13 +29,20 @@ export async function runPdfBench(): Promise<BenchResult[]> {
   const ms = median(times);
   const kb = bytes.length / 1024;
   return [
-    { name: "printed plan PDF median build", value: ms, unit: "ms", target: PDF_MEDIAN_TARGET_MS, ok: ms <= PDF_MEDIAN_TARGET_MS },
+    {
+      name: "printed plan PDF median build",
+      value: ms,
+      unit: "ms",
+      target: PDF_MEDIAN_TARGET_MS,
+      ok: ms <= PDF_MEDIAN_TARGET_MS,
+    },
     { name: "printed plan PDF size", value: kb, unit: "KB", target: PDF_SIZE_TARGET_KB, ok: kb <= PDF_SIZE_TARGET_KB },
   ];
 }
 
 if (import.meta.url === `file://${process.argv[1]}`) {
   const results = await runPdfBench();
-  for (const r of results) console.log(`${r.name}: ${r.value.toFixed(1)} ${r.unit} (target <= ${r.target}) ${r.ok ? "OK" : "MISSED"}`);
+  for (const r of results)
+    console.log(`${r.name}: ${r.value.toFixed(1)} ${r.unit} (target <= ${r.target}) ${r.ok ? "OK" : "MISSED"}`);
   if (results.some((r) => !r.ok)) process.exitCode = 1;
 }

@@ -38,7 +38,11 @@ async function runHttpBench(): Promise<BenchResult[]> {
     const cookie = await signInCookie(server.baseUrl, "planner@example.com");
     const ping = () => fetch(`${server.baseUrl}/api/ping`, { headers: { Cookie: cookie } });
     const solve = () =>
-      fetch(`${server.baseUrl}/api/solve`, { method: "POST", body: SOLVE_BODY, headers: { Cookie: cookie, Origin: server.baseUrl, "Content-Type": "application/json" } });
+      fetch(`${server.baseUrl}/api/solve`, {
+        method: "POST",
+        body: SOLVE_BODY,
+        headers: { Cookie: cookie, Origin: server.baseUrl, "Content-Type": "application/json" },
+      });
     await timeRequests(ping, 200);
     await timeRequests(solve, 200);
     const pingTimes: number[] = [];
@@ -65,10 +69,17 @@ function print(results: BenchResult[]) {
   for (const r of results) {
     const value = r.unit === "solves/s" ? Math.round(r.value).toLocaleString("en-GB") : r.value.toFixed(3);
     const atMost = r.unit === "x" || r.unit === "ms" || r.unit === "KB";
-    const target = Number.isNaN(r.target) ? "" : ` (target ${atMost ? "<=" : ">="} ${r.target.toLocaleString("en-GB")})`;
+    const target = Number.isNaN(r.target)
+      ? ""
+      : ` (target ${atMost ? "<=" : ">="} ${r.target.toLocaleString("en-GB")})`;
     console.log(`${r.name}: ${value} ${r.unit}${target}${Number.isNaN(r.target) ? "" : r.ok ? " OK" : " MISSED"}`);
   }
 }
 
-const results = [...(await runStaticsBench()), ...(await runPdfBench()), ...(await runHttpBench()), ...(await runLoadBench())];
+const results = [
+  ...(await runStaticsBench()),
+  ...(await runPdfBench()),
+  ...(await runHttpBench()),
+  ...(await runLoadBench()),
+];
 print(results);

@@ -15,7 +15,11 @@ const UP = { x: 0, y: 0, z: 1 };
 function ring(n: number): LiftPoint[] {
   return Array.from({ length: n }, (_, i) => {
     const a = (i * 2 * Math.PI) / n + 0.3;
-    return { id: String.fromCharCode(65 + i), position: { x: 0.9 * Math.cos(a) + 0.05 * i, y: 0.6 * Math.sin(a), z: 0.02 * i }, axis: UP };
+    return {
+      id: String.fromCharCode(65 + i),
+      position: { x: 0.9 * Math.cos(a) + 0.05 * i, y: 0.6 * Math.sin(a), z: 0.02 * i },
+      axis: UP,
+    };
   });
 }
 
@@ -47,14 +51,26 @@ export async function runStaticsBench(): Promise<BenchResult[]> {
     const cog = { x: 0.02, y: 0, z: -0.4 };
     // Vary the hook height so nothing is cached or hoisted.
     const level = measure((i) => solveLevel({ massKg: 2000, cog }, points, 1.2 + (i % 100) * 1e-3).ok);
-    results.push({ name: `statics ${n}-leg level`, value: level, unit: "solves/s", target: targets[n]!, ok: level >= targets[n]! });
+    results.push({
+      name: `statics ${n}-leg level`,
+      value: level,
+      unit: "solves/s",
+      target: targets[n]!,
+      ok: level >= targets[n]!,
+    });
     const first = solveLevel({ massKg: 2000, cog }, points, 1.2);
     if (!first.ok) throw new Error(first.message);
     const lengths = first.solution.legs.map((l) => l.lengthM);
     const varied = lengths.map((l, k) => (k === 0 ? l * 1.01 : l));
     const given = measure((i) => solveGivenLengths({ massKg: 2000, cog }, points, i % 2 === 0 ? lengths : varied).ok);
     const givenTarget = Math.round(targets[n]! / 5);
-    results.push({ name: `statics ${n}-leg given lengths`, value: given, unit: "solves/s", target: givenTarget, ok: given >= givenTarget });
+    results.push({
+      name: `statics ${n}-leg given lengths`,
+      value: given,
+      unit: "solves/s",
+      target: givenTarget,
+      ok: given >= givenTarget,
+    });
   }
   return results;
 }

@@ -48,14 +48,20 @@ async function auditAll(page: Page, visits: Visit[]) {
 /** The first link in the main content whose address matches, e.g. the first item of a list page. */
 async function firstLink(page: Page, listPath: string, pattern: RegExp) {
   await page.goto(listPath);
-  const hrefs = await page.locator("main a[href]").evaluateAll((links) => links.map((a) => a.getAttribute("href") ?? ""));
+  const hrefs = await page
+    .locator("main a[href]")
+    .evaluateAll((links) => links.map((a) => a.getAttribute("href") ?? ""));
   const href = hrefs.find((h) => pattern.test(h));
   if (!href) throw new Error(`no link matching ${pattern} on ${listPath}`);
   return href;
 }
 
 async function planByTitle(page: Page, start: string) {
-  const plans = (await (await page.request.get("/api/plans")).json()) as Array<{ id: number; title: string; status: string }>;
+  const plans = (await (await page.request.get("/api/plans")).json()) as Array<{
+    id: number;
+    title: string;
+    status: string;
+  }>;
   const plan = plans.find((p) => p.title.startsWith(start));
   if (!plan) throw new Error(`no plan titled ${start}…`);
   return plan;
@@ -126,7 +132,12 @@ describe("accessibility of the main pages (axe-core, WCAG 2.1 AA)", () => {
   it("the appointed person's pages: dashboard, a plan in review, its approval form, and the approved plan with the rigger to assign", async () => {
     const page = await actAs("approver@example.com");
     const inReview = await planByTitle(page, "Lift the B1 gearbox top cover");
-    await auditAll(page, ["/", `/plans/${inReview.id}`, `/plans/${inReview.id}/review`, `/plans/${inReview.id}/history`]);
+    await auditAll(page, [
+      "/",
+      `/plans/${inReview.id}`,
+      `/plans/${inReview.id}/review`,
+      `/plans/${inReview.id}/history`,
+    ]);
     await page.goto(`/plans/${inReview.id}/review`);
     await hydrated(page);
     await page.getByLabel("Your password, entered again").fill(DEMO_PASSWORD);
@@ -152,6 +163,19 @@ describe("accessibility of the main pages (axe-core, WCAG 2.1 AA)", () => {
     const user = await firstLink(page, "/admin", /^\/admin\/users\/\d+$/);
     const mail = await firstLink(page, "/admin/outbox", /^\/admin\/outbox\/\d+$/);
     const item = await firstLink(page, "/gear", /^\/gear\/\d+$/);
-    await auditAll(page, ["/", "/admin", user, "/admin/users/new", "/admin/settings", "/admin/outbox", mail, "/gear", item, `${item}/edit`, "/gear/new", "/gear/import"]);
+    await auditAll(page, [
+      "/",
+      "/admin",
+      user,
+      "/admin/users/new",
+      "/admin/settings",
+      "/admin/outbox",
+      mail,
+      "/gear",
+      item,
+      `${item}/edit`,
+      "/gear/new",
+      "/gear/import",
+    ]);
   });
 });

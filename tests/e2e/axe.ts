@@ -18,7 +18,12 @@ export async function axeFindings(page: Page): Promise<AxeFinding[]> {
   const violations = await page.evaluate(async (tags) => {
     const runner = (window as unknown as { axe: typeof axe }).axe;
     const result = await runner.run(document, { runOnly: { type: "tag", values: tags }, resultTypes: ["violations"] });
-    return result.violations.map((v) => ({ id: v.id, impact: v.impact ?? "", help: v.help, targets: v.nodes.map((n) => n.target.join(" ")) }));
+    return result.violations.map((v) => ({
+      id: v.id,
+      impact: v.impact ?? "",
+      help: v.help,
+      targets: v.nodes.map((n) => n.target.join(" ")),
+    }));
   }, AXE_TAGS);
   return violations.filter((v) => FAILING_IMPACTS.has(v.impact));
 }
@@ -27,7 +32,10 @@ export async function axeFindings(page: Page): Promise<AxeFinding[]> {
 export function describeFindings(where: string, findings: AxeFinding[]) {
   return findings
     .map((f) => {
-      const shown = f.targets.slice(0, 8).map((t) => `\n    at ${t}`).join("");
+      const shown = f.targets
+        .slice(0, 8)
+        .map((t) => `\n    at ${t}`)
+        .join("");
       const more = f.targets.length > 8 ? `\n    … and ${f.targets.length - 8} more` : "";
       return `${where}: [${f.impact}] ${f.id}: ${f.help}${shown}${more}`;
     })

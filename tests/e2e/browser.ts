@@ -20,7 +20,13 @@ const CHROMIUM_ARGS = [
 
 export const SCREENSHOT_DIR = path.resolve("test-results/screenshots");
 
-export type BrowserSession = { context: BrowserContext; page: Page; baseUrl: string; close: () => Promise<void>; externalRequests: string[] };
+export type BrowserSession = {
+  context: BrowserContext;
+  page: Page;
+  baseUrl: string;
+  close: () => Promise<void>;
+  externalRequests: string[];
+};
 
 /** A fresh Chromium profile at the given viewport; records any request that leaves the app's origin. */
 export async function openBrowser(viewport = { width: 1280, height: 860 }): Promise<BrowserSession> {

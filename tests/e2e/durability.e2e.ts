@@ -9,7 +9,17 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { backupDatabase } from "../../db/backup";
 import { signInCookie, startBuiltServer, type BuiltServer } from "../support/built-server";
 
-type PlanJson = { id: number; title: string; version: number; status: string; componentId: number | null; job: { id: number }; arrangement: unknown; rigging: unknown; details: unknown };
+type PlanJson = {
+  id: number;
+  title: string;
+  version: number;
+  status: string;
+  componentId: number | null;
+  job: { id: number };
+  arrangement: unknown;
+  rigging: unknown;
+  details: unknown;
+};
 
 const workDir = fs.mkdtempSync(path.join(os.tmpdir(), "plumbline-durability-"));
 const started: BuiltServer[] = [];
@@ -54,7 +64,13 @@ function client(baseUrl: string, cookie: string) {
       const res = await fetch(`${baseUrl}/api/plans/${plan.id}`, {
         method: "PUT",
         headers: { ...headers, "Content-Type": "application/json" },
-        body: JSON.stringify({ version, title, arrangement: plan.arrangement, rigging: plan.rigging, details: plan.details }),
+        body: JSON.stringify({
+          version,
+          title,
+          arrangement: plan.arrangement,
+          rigging: plan.rigging,
+          details: plan.details,
+        }),
       });
       const text = await res.text();
       return { status: res.status, text, json: () => JSON.parse(text) as PlanJson & { code?: string; error?: string } };
@@ -68,7 +84,8 @@ function client(baseUrl: string, cookie: string) {
         redirect: "manual",
       });
       const location = res.headers.get("Location") ?? "";
-      if (res.status !== 302 || !/^\/plans\/\d+$/.test(location)) throw new Error(`POST /plans/new: ${res.status} ${await res.text()}`);
+      if (res.status !== 302 || !/^\/plans\/\d+$/.test(location))
+        throw new Error(`POST /plans/new: ${res.status} ${await res.text()}`);
       return Number(location.split("/").pop());
     },
   };
@@ -93,7 +110,10 @@ describe("plan saves under concurrency and crashes", () => {
     expect(mine.status).toBe("draft");
     expect(theirs.version).toBe(mine.version);
 
-    const [a, b] = await Promise.all([planner.putPlan(mine, "Element lift, planner's layout"), admin.putPlan(theirs, "Element lift, admin's layout")]);
+    const [a, b] = await Promise.all([
+      planner.putPlan(mine, "Element lift, planner's layout"),
+      admin.putPlan(theirs, "Element lift, admin's layout"),
+    ]);
     expect([a.status, b.status].sort()).toEqual([200, 409]);
     const [winner, loser] = a.status === 200 ? [a, b] : [b, a];
     expect(loser.json()).toMatchObject({ code: "stale" });
@@ -104,7 +124,10 @@ describe("plan saves under concurrency and crashes", () => {
     // The loser reloads and saves again on top of the winner's version: nothing is lost silently.
     const retried = await (loser === a ? planner : admin).putPlan(stored, "Element lift, merged by hand");
     expect(retried.status).toBe(200);
-    expect(await planner.getPlan(planId)).toMatchObject({ version: mine.version + 2, title: "Element lift, merged by hand" });
+    expect(await planner.getPlan(planId)).toMatchObject({
+      version: mine.version + 2,
+      title: "Element lift, merged by hand",
+    });
   });
 
   it("20 writers at once, creating plans and then saving their own plan in 5 rounds, never see a 500 or SQLITE_BUSY", async () => {
@@ -112,20 +135,29 @@ describe("plan saves under concurrency and crashes", () => {
     const template = await planner.getPlan(1);
     const WRITERS = 20;
     const ROUNDS = 5;
-    const ids = await Promise.all(Array.from({ length: WRITERS }, (_, w) => planner.createPlan(template.job.id, template.componentId!, `Parallel plan ${w}`)));
+    const ids = await Promise.all(
+      Array.from({ length: WRITERS }, (_, w) =>
+        planner.createPlan(template.job.id, template.componentId!, `Parallel plan ${w}`),
+      ),
+    );
     expect(new Set(ids).size).toBe(WRITERS);
     let plans = await Promise.all(ids.map((id) => planner.getPlan(id)));
     const failures: string[] = [];
     for (let round = 1; round <= ROUNDS; round++) {
-      const answers = await Promise.all(plans.map((plan, w) => planner.putPlan(plan, `Parallel plan ${w}, round ${round}`)));
+      const answers = await Promise.all(
+        plans.map((plan, w) => planner.putPlan(plan, `Parallel plan ${w}, round ${round}`)),
+      );
       answers.forEach((answer, w) => {
-        if (answer.status !== 200 || /SQLITE_BUSY|database is locked/i.test(answer.text)) failures.push(`round ${round} writer ${w}: ${answer.status} ${answer.text.slice(0, 200)}`);
+        if (answer.status !== 200 || /SQLITE_BUSY|database is locked/i.test(answer.text))
+          failures.push(`round ${round} writer ${w}: ${answer.status} ${answer.text.slice(0, 200)}`);
       });
       plans = answers.map((answer, w) => (answer.status === 200 ? answer.json() : plans[w]!));
     }
     expect(failures).toEqual([]);
     const stored = await Promise.all(ids.map((id) => planner.getPlan(id)));
-    stored.forEach((plan, w) => expect(plan).toMatchObject({ title: `Parallel plan ${w}, round ${ROUNDS}`, version: 1 + ROUNDS }));
+    stored.forEach((plan, w) =>
+      expect(plan).toMatchObject({ title: `Parallel plan ${w}, round ${ROUNDS}`, version: 1 + ROUNDS }),
+    );
     expect(base.output()).not.toMatch(/SQLITE_BUSY/);
   });
 
@@ -136,7 +168,8 @@ describe("plan saves under concurrency and crashes", () => {
     const STREAMS = 4;
     const KILL_AFTER_ACKS = 60;
     const ids = [];
-    for (let s = 0; s < STREAMS; s++) ids.push(await planner.createPlan(template.job.id, template.componentId!, `Crash stream ${s}`));
+    for (let s = 0; s < STREAMS; s++)
+      ids.push(await planner.createPlan(template.job.id, template.componentId!, `Crash stream ${s}`));
 
     type Ack = { planId: number; version: number; title: string };
     const acked: Ack[] = [];
@@ -154,7 +187,8 @@ describe("plan saves under concurrency and crashes", () => {
         } catch {
           return; // the server is gone
         }
-        if (answer.status !== 200) throw new Error(`stream ${s} save ${n}: ${answer.status} ${answer.text.slice(0, 200)}`);
+        if (answer.status !== 200)
+          throw new Error(`stream ${s} save ${n}: ${answer.status} ${answer.text.slice(0, 200)}`);
         plan = answer.json();
         const ack = { planId, version: plan.version, title };
         acked.push(ack);
@@ -189,6 +223,8 @@ describe("plan saves under concurrency and crashes", () => {
     const savedKeys = new Set(saved.map((r) => `${r.entityId}:${r.version}`));
     const missing = acked.filter((a) => !savedKeys.has(`${a.planId}:${a.version}`));
     expect(missing).toEqual([]);
-    expect(await sqliteAll<{ integrity_check: string }>(second.databasePath, "PRAGMA integrity_check")).toEqual([{ integrity_check: "ok" }]);
+    expect(await sqliteAll<{ integrity_check: string }>(second.databasePath, "PRAGMA integrity_check")).toEqual([
+      { integrity_check: "ok" },
+    ]);
   });
 });

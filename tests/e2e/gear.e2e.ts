@@ -21,7 +21,10 @@ describe("the gear register", () => {
     await expect.poll(() => table.getByText("Due within 30 days").count()).toBeGreaterThan(0);
     expect(await table.getByText("Quarantined").count()).toBeGreaterThan(0);
     await screenshot(page, "gear-register");
-    await page.getByRole("link", { name: /OVERDUE/ }).first().click();
+    await page
+      .getByRole("link", { name: /OVERDUE/ })
+      .first()
+      .click();
     await page.waitForURL(/due=overdue/);
     await expect.poll(() => page.getByText("KR-SH-D200").isVisible()).toBe(true);
   });
@@ -43,9 +46,13 @@ describe("the gear register", () => {
     await page.getByLabel("Examiner (competent person)").fill("Ivan Petrakis");
     const nextDue = await page.getByLabel("Next examination due").inputValue();
     expect(nextDue).toMatch(/^\d{4}-\d{2}-\d{2}$/);
-    await page.getByLabel("Certificate (PDF, up to 10 MB)").setInputFiles({ name: "cert.pdf", mimeType: "application/pdf", buffer: Buffer.from("%PDF-1.4\n%%EOF\n") });
+    await page
+      .getByLabel("Certificate (PDF, up to 10 MB)")
+      .setInputFiles({ name: "cert.pdf", mimeType: "application/pdf", buffer: Buffer.from("%PDF-1.4\n%%EOF\n") });
     await page.getByRole("button", { name: "Record examination" }).click();
-    await expect.poll(() => page.getByRole("status").first().innerText()).toContain(`Next thorough examination due ${nextDue}`);
+    await expect
+      .poll(() => page.getByRole("status").first().innerText())
+      .toContain(`Next thorough examination due ${nextDue}`);
     await expect.poll(() => page.getByRole("link", { name: "cert.pdf" }).isVisible()).toBe(true);
     await screenshot(page, "gear-item");
   });
@@ -54,17 +61,33 @@ describe("the gear register", () => {
     const { page } = browser;
     await page.goto("/gear/import");
     await hydrated(page);
-    const csv = ["item_code,kind,wll,wll_unit,shackle_type,pin_type", "E2E-IMP-1,shackle,1,t,bow,screw", "E2E-IMP-2,shackle,-5,t,bow,screw", "E2E-IMP-3,shackle,2,t,dee,screw"].join("\n");
-    await page.getByLabel(/CSV file/).setInputFiles({ name: "new-gear.csv", mimeType: "text/csv", buffer: Buffer.from(csv) });
+    const csv = [
+      "item_code,kind,wll,wll_unit,shackle_type,pin_type",
+      "E2E-IMP-1,shackle,1,t,bow,screw",
+      "E2E-IMP-2,shackle,-5,t,bow,screw",
+      "E2E-IMP-3,shackle,2,t,dee,screw",
+    ].join("\n");
+    await page
+      .getByLabel(/CSV file/)
+      .setInputFiles({ name: "new-gear.csv", mimeType: "text/csv", buffer: Buffer.from(csv) });
     await page.getByRole("button", { name: "Check the file" }).click();
     const problems = page.getByRole("alert").filter({ hasText: "have problems" });
     await expect.poll(() => problems.innerText()).toContain("Line 3");
     expect(await problems.innerText()).toContain("The WLL must be more than zero.");
     await screenshot(page, "gear-import-preview");
     await page.getByRole("button", { name: "Import only the 2 valid rows" }).click();
-    await expect.poll(() => page.getByText("2 created, 0 updated, 0 unchanged; 1 row(s) with problems skipped.").isVisible()).toBe(true);
+    await expect
+      .poll(() => page.getByText("2 created, 0 updated, 0 unchanged; 1 row(s) with problems skipped.").isVisible())
+      .toBe(true);
     await page.goto("/gear?q=E2E-IMP");
-    await expect.poll(() => page.getByRole("table").getByRole("link", { name: /E2E-IMP/ }).count()).toBe(2);
+    await expect
+      .poll(() =>
+        page
+          .getByRole("table")
+          .getByRole("link", { name: /E2E-IMP/ })
+          .count(),
+      )
+      .toBe(2);
   });
 
   it("a rigger on a phone reads the register and an item without the page overflowing", async () => {

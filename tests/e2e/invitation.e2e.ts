@@ -20,11 +20,16 @@ describe("an admin invites a new rigger", () => {
     await page.getByLabel("Rigger").check();
     await page.getByRole("button", { name: "Add and send invitation" }).click();
     await page.waitForURL("**/admin");
-    await expect.poll(() => page.getByRole("status").innerText()).toContain("invitation to set a password went to sian.castell@example.com");
+    await expect
+      .poll(() => page.getByRole("status").innerText())
+      .toContain("invitation to set a password went to sian.castell@example.com");
     await screenshot(page, "admin-users");
 
     await page.goto("/admin/outbox");
-    await page.getByRole("link", { name: /added to Plumbline/ }).first().click();
+    await page
+      .getByRole("link", { name: /added to Plumbline/ })
+      .first()
+      .click();
     await page.waitForURL("**/admin/outbox/*");
     const body = await page.getByTestId("mail-body").innerText();
     expect(body).toContain("Hello Sian Castell");

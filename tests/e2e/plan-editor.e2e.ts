@@ -15,7 +15,16 @@ afterAll(async () => {
 async function liftPointOnScreen(page: Page, view: "elevation" | "plan", label: string) {
   const local = await page.evaluate(
     ([v, l]) => {
-      const konva = (window as unknown as { Konva: { stages: Array<{ name(): string; findOne(sel: string): { getAbsolutePosition(): { x: number; y: number } } | undefined }> } }).Konva;
+      const konva = (
+        window as unknown as {
+          Konva: {
+            stages: Array<{
+              name(): string;
+              findOne(sel: string): { getAbsolutePosition(): { x: number; y: number } } | undefined;
+            }>;
+          };
+        }
+      ).Konva;
       const stage = konva.stages.find((s) => s.name() === `view-${v}`);
       return stage?.findOne(`.lift-point-${l}`)?.getAbsolutePosition() ?? null;
     },
@@ -54,7 +63,9 @@ describe("a planner lays out a lift in the editor", () => {
     await page.mouse.up();
     // Moving A towards the CoG gives it a larger share of the weight.
     await expect.poll(() => legTension(page, "A"), { timeout: 10_000 }).toBeGreaterThan(before + 0.05);
-    await expect.poll(() => page.getByTestId("save-status").innerText(), { timeout: 10_000 }).toMatch(/Saved · version \d+/);
+    await expect
+      .poll(() => page.getByTestId("save-status").innerText(), { timeout: 10_000 })
+      .toMatch(/Saved · version \d+/);
 
     await page.keyboard.press("Control+z");
     await expect.poll(() => legTension(page, "A"), { timeout: 10_000 }).toBeCloseTo(before, 2);
@@ -101,7 +112,10 @@ async function isFocused(target: Locator) {
 
 type SavedPlan = {
   version: number;
-  snapshot: { cog: { x: number; y: number; z: number }; liftPoints: Array<{ label: string; position: { x: number; y: number; z: number } }> };
+  snapshot: {
+    cog: { x: number; y: number; z: number };
+    liftPoints: Array<{ label: string; position: { x: number; y: number; z: number } }>;
+  };
   arrangement: { hookHeightM: number };
   rigging: { legs: Record<string, { eyeboltItemId?: number }> };
 };
@@ -111,7 +125,9 @@ async function savedPlan(page: Page, planId: number) {
 }
 
 async function gearIdByCode(page: Page, code: string) {
-  const { items } = (await (await page.request.get(`/api/gear?role=eyebolt&query=${encodeURIComponent(code)}`)).json()) as { items: Array<{ id: number; itemCode: string }> };
+  const { items } = (await (
+    await page.request.get(`/api/gear?role=eyebolt&query=${encodeURIComponent(code)}`)
+  ).json()) as { items: Array<{ id: number; itemCode: string }> };
   const item = items.find((i) => i.itemCode === code);
   if (!item) throw new Error(`no eyebolt ${code}`);
   return item.id;
@@ -156,7 +172,9 @@ describe("a planner lays out a lift from the keyboard alone", () => {
     const jobs = await page.getByLabel("Job").locator("option").allInnerTexts();
     await page.getByLabel("Job").selectOption({ label: jobs.find((o) => o.startsWith("KR-24117"))! });
     const components = await page.getByLabel("Component to lift").locator("option").allInnerTexts();
-    await page.getByLabel("Component to lift").selectOption({ label: components.find((o) => o.startsWith("C2 compression element"))! });
+    await page
+      .getByLabel("Component to lift")
+      .selectOption({ label: components.find((o) => o.startsWith("C2 compression element"))! });
     await page.getByLabel("Title of the lift").fill("Keyboard layout of the C2 element");
     await page.getByRole("button", { name: "Start the plan" }).click();
     await page.waitForURL(/\/plans\/\d+$/);
@@ -170,7 +188,8 @@ describe("a planner lays out a lift from the keyboard alone", () => {
     await expect.poll(() => page.getByTestId("leg-table").isVisible(), { timeout: 10_000 }).toBe(true);
     const elevation = page.getByRole("application", { name: /^Elevation drawing/ });
     const planView = page.getByRole("application", { name: /^Plan drawing/ });
-    const handle = (name: string) => page.getByRole("group", { name: "The arrow keys move" }).getByRole("radio", { name, exact: true });
+    const handle = (name: string) =>
+      page.getByRole("group", { name: "The arrow keys move" }).getByRole("radio", { name, exact: true });
 
     // Choose lift point B with the arrow keys in the radio group, then Tab into the elevation and move it 2 grid steps along x.
     await tabTo(page, handle("Lift point A"));
@@ -179,12 +198,20 @@ describe("a planner lays out a lift from the keyboard alone", () => {
     await page.keyboard.press("Tab");
     expect(await isFocused(elevation)).toBe(true);
     // The focus ring is drawn over the canvas, 3 px wide, only while the drawing has keyboard focus.
-    const ring = (locator: Locator) => locator.locator("[data-focus-ring]").evaluate((el) => ({ style: getComputedStyle(el).outlineStyle, width: parseFloat(getComputedStyle(el).outlineWidth) }));
+    const ring = (locator: Locator) =>
+      locator
+        .locator("[data-focus-ring]")
+        .evaluate((el) => ({
+          style: getComputedStyle(el).outlineStyle,
+          width: parseFloat(getComputedStyle(el).outlineWidth),
+        }));
     expect(await ring(elevation)).toEqual({ style: "solid", width: 3 });
     expect((await ring(planView)).style).toBe("none");
     await page.keyboard.press("ArrowRight");
     await page.keyboard.press("ArrowRight");
-    await expect.poll(() => page.getByLabel("B x", { exact: true }).inputValue()).toBe(String(Math.round(b0.x * 1000 + 100)));
+    await expect
+      .poll(() => page.getByLabel("B x", { exact: true }).inputValue())
+      .toBe(String(Math.round(b0.x * 1000 + 100)));
     await screenshot(page, "editor-keyboard-drawing-focus");
 
     // The hook: three grid steps up. The first lands on the grid line nearest one step up; each after adds one step.
@@ -230,14 +257,18 @@ describe("a planner lays out a lift from the keyboard alone", () => {
 
     // Ctrl+S saves, sending at once whatever the autosave is still holding.
     await page.keyboard.press("Control+s");
-    await expect.poll(() => page.getByTestId("save-status").innerText(), { timeout: 10_000 }).toMatch(/Saved · version \d+/);
+    await expect
+      .poll(() => page.getByTestId("save-status").innerText(), { timeout: 10_000 })
+      .toMatch(/Saved · version \d+/);
 
     const after = await savedPlan(page, planId);
     expect(after.version).toBeGreaterThan(before.version);
     const b1 = after.snapshot.liftPoints.find((p) => p.label === "B")!.position;
     expect(b1.x).toBeCloseTo(b0.x + 0.1, 6);
     expect(b1.z).toBeCloseTo(b0.z, 9);
-    expect(after.snapshot.liftPoints.find((p) => p.label === "A")!.position).toEqual(before.snapshot.liftPoints.find((p) => p.label === "A")!.position);
+    expect(after.snapshot.liftPoints.find((p) => p.label === "A")!.position).toEqual(
+      before.snapshot.liftPoints.find((p) => p.label === "A")!.position,
+    );
     expect(after.arrangement.hookHeightM).toBeCloseTo(hookExpectedM, 6);
     expect(after.snapshot.cog.x).toBeCloseTo(cogExpectedX, 6);
     expect(after.rigging.legs.A?.eyeboltItemId).toBe(await gearIdByCode(page, codeA));
@@ -246,7 +277,9 @@ describe("a planner lays out a lift from the keyboard alone", () => {
     // And the editor opens on what was saved.
     await page.reload();
     await hydrated(page);
-    await expect.poll(() => page.getByLabel("B x", { exact: true }).inputValue()).toBe(String(Math.round(b0.x * 1000 + 100)));
+    await expect
+      .poll(() => page.getByLabel("B x", { exact: true }).inputValue())
+      .toBe(String(Math.round(b0.x * 1000 + 100)));
     expect(await page.getByRole("button", { name: /^Eyebolt for leg A:/ }).innerText()).toContain(codeA);
   });
 });

@@ -60,7 +60,9 @@ describe("planner -> appointed person -> rigger on the demo scenario", () => {
     await screenshot(page, "review-approve");
     await page.getByRole("button", { name: "Approve this revision" }).click();
     await page.waitForURL(`**/plans/${planId}`);
-    await expect.poll(() => page.getByTestId("approval").innerText()).toContain("approved by Priya Okonedo (appointed person)");
+    await expect
+      .poll(() => page.getByTestId("approval").innerText())
+      .toContain("approved by Priya Okonedo (appointed person)");
     await page.getByLabel(/Rigger for the lift/).selectOption({ label: "Dale Hutton" });
     await page.getByRole("button", { name: "Assign and tell them" }).click();
     await expect.poll(() => page.getByRole("status").first().innerText()).toContain("rigger is assigned");
@@ -97,7 +99,15 @@ describe("planner -> appointed person -> rigger on the demo scenario", () => {
     await signIn(page, "admin@example.com");
     await page.goto(`/plans/${planId}/history`);
     const history = await page.getByTestId("history").innerText();
-    for (const step of ["new revision started", "warning acknowledged", "submitted for review", "approved", "rigger assigned", "lift recorded"]) expect(history).toContain(step);
+    for (const step of [
+      "new revision started",
+      "warning acknowledged",
+      "submitted for review",
+      "approved",
+      "rigger assigned",
+      "lift recorded",
+    ])
+      expect(history).toContain(step);
     await page.goto("/admin/outbox");
     const outbox = await page.locator("main").innerText();
     expect(outbox).toContain(`Lift plan to review: Lift the B1 gearbox off`);

@@ -9,12 +9,15 @@ beforeAll(async () => {
   // Injected by the browser driver, so it runs before the page's own scripts and is not itself subject to the CSP.
   await browser.context.addInitScript(() => {
     document.addEventListener("securitypolicyviolation", (event) => {
-      console.error(`securitypolicyviolation: ${event.effectiveDirective} blocked ${event.blockedURI || "inline"} at ${event.sourceFile}:${event.lineNumber}`);
+      console.error(
+        `securitypolicyviolation: ${event.effectiveDirective} blocked ${event.blockedURI || "inline"} at ${event.sourceFile}:${event.lineNumber}`,
+      );
     });
   });
   browser.page.on("console", (message) => {
     const text = message.text();
-    if (/securitypolicyviolation|Content Security Policy/i.test(text)) violations.push(`${browser.page.url()}: ${text}`);
+    if (/securitypolicyviolation|Content Security Policy/i.test(text))
+      violations.push(`${browser.page.url()}: ${text}`);
   });
 });
 afterAll(async () => {
@@ -30,7 +33,9 @@ describe("the served pages under their Content-Security-Policy", () => {
     expect(nonce, csp).toBeTruthy();
     expect(csp).toContain("frame-ancestors 'none'");
     await hydrated(page);
-    const scriptNonces = await page.evaluate(() => [...document.querySelectorAll("script")].filter((s) => !s.src).map((s) => s.nonce));
+    const scriptNonces = await page.evaluate(() =>
+      [...document.querySelectorAll("script")].filter((s) => !s.src).map((s) => s.nonce),
+    );
     expect(scriptNonces.length).toBeGreaterThan(0);
     expect(new Set(scriptNonces)).toEqual(new Set([nonce]));
     const second = await page.goto("/login");
@@ -62,8 +67,14 @@ describe("the served pages under their Content-Security-Policy", () => {
     });
     expect(signInElsewhere.status).toBe(403);
     expect(signInElsewhere.headers.get("set-cookie")).toBeNull();
-    expect(await signInElsewhere.text()).toMatch(/^Plumbline refused this request because it did not come from one of its own pages\./);
-    const save = await fetch(`${baseUrl}/api/plans/1`, { method: "PUT", body: "{}", headers: { Origin: "https://evil.example", "Content-Type": "application/json" } });
+    expect(await signInElsewhere.text()).toMatch(
+      /^Plumbline refused this request because it did not come from one of its own pages\./,
+    );
+    const save = await fetch(`${baseUrl}/api/plans/1`, {
+      method: "PUT",
+      body: "{}",
+      headers: { Origin: "https://evil.example", "Content-Type": "application/json" },
+    });
     expect(save.status).toBe(403);
     expect(((await save.json()) as { error: string }).error).toMatch(/did not come from one of its own pages/);
   });

@@ -85,7 +85,11 @@ describe("worker processes", () => {
     });
     expect(replaced).toContain(workers[1]);
     // Both workers answer (connections are shared out between them): every request succeeds.
-    const answers = await Promise.all(Array.from({ length: 20 }, () => fetch(`${server.baseUrl}/api/ping`, { headers: { Cookie: cookie } }).then((r) => r.status)));
+    const answers = await Promise.all(
+      Array.from({ length: 20 }, () =>
+        fetch(`${server.baseUrl}/api/ping`, { headers: { Cookie: cookie } }).then((r) => r.status),
+      ),
+    );
     expect(answers).toEqual(Array(20).fill(200));
     expect(server.output()).toContain("starting another");
   });
@@ -105,9 +109,19 @@ describe("worker processes", () => {
     const dir = fs.mkdtempSync(path.join(os.tmpdir(), "plumbline-misconfigured-"));
     try {
       const port = await freePort();
-      const env: NodeJS.ProcessEnv = { ...process.env, NODE_ENV: "production", PORT: String(port), HOST: "127.0.0.1", DATABASE_PATH: path.join(dir, "db.sqlite"), WEB_CONCURRENCY: "2" };
+      const env: NodeJS.ProcessEnv = {
+        ...process.env,
+        NODE_ENV: "production",
+        PORT: String(port),
+        HOST: "127.0.0.1",
+        DATABASE_PATH: path.join(dir, "db.sqlite"),
+        WEB_CONCURRENCY: "2",
+      };
       for (const name of ["PLUMBLINE_ENV", "SESSION_SECRET", "SMTP_URL", "PUBLIC_URL"]) delete env[name];
-      const child = spawn(process.execPath, ["--import", "tsx", "app/utils/serve.server.ts", "build/server/index.js"], { env, stdio: ["ignore", "pipe", "pipe"] });
+      const child = spawn(process.execPath, ["--import", "tsx", "app/utils/serve.server.ts", "build/server/index.js"], {
+        env,
+        stdio: ["ignore", "pipe", "pipe"],
+      });
       let output = "";
       child.stdout.on("data", (d) => (output += d));
       child.stderr.on("data", (d) => (output += d));

@@ -29,7 +29,13 @@ describe("POST /api/solve", () => {
     const user = await makeUser(["planner"]);
     const res = await callRoute(solve.action, await post(JSON.stringify(furley), user));
     expect(res.status).toBe(200);
-    const body = res.data as { mode: string; method: string; tiltDeg: number; weightKn: number; legs: Array<{ liftPointId: string; tensionKg: number; lengthM: number }> };
+    const body = res.data as {
+      mode: string;
+      method: string;
+      tiltDeg: number;
+      weightKn: number;
+      legs: Array<{ liftPointId: string; tensionKg: number; lengthM: number }>;
+    };
     expect(body.mode).toBe("level");
     expect(body.method).toBe("determinate");
     expect(body.weightKn).toBeCloseTo(19.6133, 4);
@@ -42,7 +48,10 @@ describe("POST /api/solve", () => {
   it("feeds the level-mode lengths back and settles level (round trip)", async () => {
     const user = await makeUser(["planner"]);
     const { hook: _hook, ...rest } = furley;
-    const res = await callRoute(solve.action, await post(JSON.stringify({ ...rest, legLengths: { A: Math.hypot(0.8, 0.8), B: Math.hypot(0.2, 0.8) } }), user));
+    const res = await callRoute(
+      solve.action,
+      await post(JSON.stringify({ ...rest, legLengths: { A: Math.hypot(0.8, 0.8), B: Math.hypot(0.2, 0.8) } }), user),
+    );
     expect(res.status).toBe(200);
     expect((res.data as { mode: string; tiltDeg: number }).tiltDeg).toBeLessThan(1e-6);
   });
@@ -74,7 +83,11 @@ describe("POST /api/solve", () => {
     const cookie = await sessionCookie(user);
     await fc.assert(
       fc.asyncProperty(fc.jsonValue(), async (value) => {
-        const req = new Request("http://localhost:3000/api/solve", { method: "POST", body: JSON.stringify(value), headers: { Cookie: cookie } });
+        const req = new Request("http://localhost:3000/api/solve", {
+          method: "POST",
+          body: JSON.stringify(value),
+          headers: { Cookie: cookie },
+        });
         const res = await callRoute(solve.action, req);
         expect([200, 400, 422]).toContain(res.status);
         if (res.status !== 200) expect(typeof (res.data as { error: unknown }).error).toBe("string");

@@ -97,7 +97,10 @@ describe("database backup and restore", () => {
     expect(present).toEqual(present.map((_, i) => i));
     for (const [batch, count] of batches) expect(count, `batch ${batch}`).toBe(ROWS_PER_BATCH);
     expect(present.length, "later commits are not in the snapshot").toBeLessThan(writer.committedAt.length);
-    const [fillers] = await query<{ count: number }>(restoredPath, "SELECT count(*) AS count FROM organisations WHERE name LIKE 'filler %'");
+    const [fillers] = await query<{ count: number }>(
+      restoredPath,
+      "SELECT count(*) AS count FROM organisations WHERE name LIKE 'filler %'",
+    );
     expect(fillers?.count).toBe(60000);
 
     // After the writer stops, a second backup restored over the first copy has every committed row.
@@ -111,7 +114,8 @@ describe("database backup and restore", () => {
     expect(fs.existsSync(`${restoredPath}-shm`)).toBe(false);
     const everything = await batchesIn(restoredPath);
     expect(everything.size).toBe(writer.committedAt.length);
-    for (let batch = 0; batch < writer.committedAt.length; batch++) expect(everything.get(batch), `batch ${batch}`).toBe(ROWS_PER_BATCH);
+    for (let batch = 0; batch < writer.committedAt.length; batch++)
+      expect(everything.get(batch), `batch ${batch}`).toBe(ROWS_PER_BATCH);
   });
 
   it("refuses to restore while the database is open, and restores once it is closed", async () => {
@@ -122,11 +126,19 @@ describe("database backup and restore", () => {
     const holder = await new Promise<sqlite3.Database>((resolve, reject) => {
       const db = new sqlite3.Database(dbPath, (err) => (err ? reject(err) : resolve(db)));
     });
-    await new Promise<void>((resolve, reject) => holder.exec("PRAGMA journal_mode=WAL; SELECT count(*) FROM organisations;", (err) => (err ? reject(err) : resolve())));
+    await new Promise<void>((resolve, reject) =>
+      holder.exec("PRAGMA journal_mode=WAL; SELECT count(*) FROM organisations;", (err) =>
+        err ? reject(err) : resolve(),
+      ),
+    );
     await expect(restoreDatabase(backup, dbPath)).rejects.toThrow(/is in use. Stop Plumbline/);
-    expect(fs.readdirSync(dir).filter((f) => f.startsWith(path.basename(dbPath)) && f.includes("before-restore"))).toEqual([]);
+    expect(
+      fs.readdirSync(dir).filter((f) => f.startsWith(path.basename(dbPath)) && f.includes("before-restore")),
+    ).toEqual([]);
     await new Promise<void>((resolve) => holder.close(() => resolve()));
-    await expect(restoreDatabase(backup, dbPath)).resolves.toMatchObject({ previousKeptAs: expect.stringContaining("before-restore") });
+    await expect(restoreDatabase(backup, dbPath)).resolves.toMatchObject({
+      previousKeptAs: expect.stringContaining("before-restore"),
+    });
   });
 
   it("refuses files that are not a sound Plumbline database and leaves the current one alone", async () => {
@@ -141,15 +153,24 @@ describe("database backup and restore", () => {
     const corrupt = path.join(dir, "corrupt.sqlite");
     const bytes = Buffer.from(before);
     // Scribble over a few pages past the schema: the header still says SQLite, the b-trees do not hold together.
-    for (let page = 3; page < Math.min(40, bytes.length / 4096); page += 3) bytes.fill(0x5a, page * 4096 + 8, page * 4096 + 600);
+    for (let page = 3; page < Math.min(40, bytes.length / 4096); page += 3)
+      bytes.fill(0x5a, page * 4096 + 8, page * 4096 + 600);
     fs.writeFileSync(corrupt, bytes);
 
     await expect(restoreDatabase(text, dbPath)).rejects.toThrow(/is not an SQLite database/);
     await expect(restoreDatabase(foreign, dbPath)).rejects.toThrow(/not Plumbline's: it has no sequelize_meta table/);
-    await expect(restoreDatabase(corrupt, dbPath)).rejects.toThrow(/integrity_check|cannot be read as a database|malformed/);
+    await expect(restoreDatabase(corrupt, dbPath)).rejects.toThrow(
+      /integrity_check|cannot be read as a database|malformed/,
+    );
     await expect(restoreDatabase(path.join(dir, "missing.sqlite"), dbPath)).rejects.toThrow(/There is no backup/);
     expect(fs.readFileSync(dbPath).equals(before)).toBe(true);
-    expect(fs.readdirSync(dir).filter((f) => f.includes("restoring") || (f.startsWith(path.basename(dbPath)) && f.includes("before-restore")))).toEqual([]);
+    expect(
+      fs
+        .readdirSync(dir)
+        .filter(
+          (f) => f.includes("restoring") || (f.startsWith(path.basename(dbPath)) && f.includes("before-restore")),
+        ),
+    ).toEqual([]);
   });
 
   it("restores over a database that is no longer readable, keeping it aside", async () => {
@@ -165,10 +186,14 @@ describe("database backup and restore", () => {
   });
 
   it("names default backups by UTC time beside the database and never overwrites one", async () => {
-    expect(defaultBackupPath("data/plumbline.sqlite", new Date("2026-03-14T10:22:05.123Z"))).toBe(path.resolve("data/backups/plumbline-20260314T102205Z.sqlite"));
+    expect(defaultBackupPath("data/plumbline.sqlite", new Date("2026-03-14T10:22:05.123Z"))).toBe(
+      path.resolve("data/backups/plumbline-20260314T102205Z.sqlite"),
+    );
     const target = path.join(dir, `once-${randomUUID()}.sqlite`);
     await backupDatabase(livePath, target);
     await expect(backupDatabase(livePath, target)).rejects.toThrow(/exists already/);
-    await expect(backupDatabase(path.join(dir, "no-such.sqlite"), path.join(dir, "x.sqlite"))).rejects.toThrow(/There is no database/);
+    await expect(backupDatabase(path.join(dir, "no-such.sqlite"), path.join(dir, "x.sqlite"))).rejects.toThrow(
+      /There is no database/,
+    );
   });
 });

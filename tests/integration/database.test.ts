@@ -13,7 +13,9 @@ class Probe extends Model {
 
 /** Runs `work` and returns the SQL statements SQLite was given on the shared (non-transaction) connection. */
 async function statementsDuring(db: Sequelize, work: () => Promise<unknown>): Promise<string[]> {
-  const connection = (await (db.connectionManager as unknown as { getConnection(o: object): Promise<sqlite3.Database> }).getConnection({})) as sqlite3.Database;
+  const connection = (await (
+    db.connectionManager as unknown as { getConnection(o: object): Promise<sqlite3.Database> }
+  ).getConnection({})) as sqlite3.Database;
   const seen: string[] = [];
   const listen = (sql: string) => seen.push(sql);
   connection.on("trace", listen);
@@ -32,7 +34,10 @@ beforeAll(async () => {
     id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
     name: { type: DataTypes.STRING, allowNull: false },
   });
-  Probe.init({ id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true }, name: DataTypes.STRING }, { sequelize, tableName: "probe_items", timestamps: false });
+  Probe.init(
+    { id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true }, name: DataTypes.STRING },
+    { sequelize, tableName: "probe_items", timestamps: false },
+  );
   await Probe.create({ name: "first" });
 });
 afterAll(async () => {
@@ -49,9 +54,15 @@ describe("column declarations Sequelize asks for", () => {
 
   it("are asked again after a schema change, so a column a migration adds is read with its type", async () => {
     await Probe.findAll();
-    await sequelize.getQueryInterface().addColumn("probe_items", "checked_at", { type: DataTypes.DATE, allowNull: true });
+    await sequelize
+      .getQueryInterface()
+      .addColumn("probe_items", "checked_at", { type: DataTypes.DATE, allowNull: true });
     Probe.init(
-      { id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true }, name: DataTypes.STRING, checkedAt: { type: DataTypes.DATE, field: "checked_at" } },
+      {
+        id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+        name: DataTypes.STRING,
+        checkedAt: { type: DataTypes.DATE, field: "checked_at" },
+      },
       { sequelize, tableName: "probe_items", timestamps: false },
     );
     const at = new Date("2026-03-14T10:15:00.000Z");

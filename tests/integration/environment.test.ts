@@ -10,7 +10,9 @@ const productionBase = {
 
 describe("configuration", () => {
   it("production refuses to start on the development session secret", () => {
-    expect(() => parseEnvironment({ ...productionBase, SESSION_SECRET: undefined })).toThrow(/SESSION_SECRET must be set/);
+    expect(() => parseEnvironment({ ...productionBase, SESSION_SECRET: undefined })).toThrow(
+      /SESSION_SECRET must be set/,
+    );
     expect(() => parseEnvironment({ ...productionBase, SESSION_SECRET: DEV_SESSION_SECRET })).toThrow(/SESSION_SECRET/);
     expect(() => parseEnvironment({ ...productionBase, SESSION_SECRET: "short" })).toThrow(/at least 32 characters/);
   });

@@ -58,7 +58,10 @@ import { twoPointElement } from "../support/plans";
 import { readyPlan } from "../support/workflow";
 
 // Mail is counted, not delivered: a refusal must send none, and a success need not pay for SMTP.
-vi.mock("~/utils/mail.server", async (importOriginal) => ({ ...(await importOriginal<typeof import("~/utils/mail.server")>()), sendMail: vi.fn(async () => undefined) }));
+vi.mock("~/utils/mail.server", async (importOriginal) => ({
+  ...(await importOriginal<typeof import("~/utils/mail.server")>()),
+  sendMail: vi.fn(async () => undefined),
+}));
 
 // The signed-in user is looked up once and kept until a form that changes users succeeds: a refusal
 // writes nothing (the property checks it), so the user cannot have changed meanwhile. Saves a query a run.
@@ -82,10 +85,54 @@ const ANSWERS = [400, 404, 409, 422];
 // ----- generated values -----
 
 const NASTY = [
-  "", " ", "\t\n", "0", "-0", "-1", "1.5", "1e309", "-1e309", "1e-400", "NaN", "Infinity", "-Infinity", "0x1F", "1,000", "1_000", "٣",
-  "9007199254740993", "99999999999999999999999999", "2024-02-30", "0000-00-00", "9999-12-31", "2024-01-01T25:61", "on", "off", "true",
-  "null", "undefined", "[]", "{}", "__proto__", "constructor", "prototype", "\u0000", "\u202e", "\ufeff", "😀👍🏽", "Ⅻ", "ß", "İ",
-  "<script>alert(1)</script>", "' OR 1=1 --", "=HYPERLINK(\"x\")", "@SUM(A1)", "../../etc/passwd", "C:\\con", "%00", "%",
+  "",
+  " ",
+  "\t\n",
+  "0",
+  "-0",
+  "-1",
+  "1.5",
+  "1e309",
+  "-1e309",
+  "1e-400",
+  "NaN",
+  "Infinity",
+  "-Infinity",
+  "0x1F",
+  "1,000",
+  "1_000",
+  "٣",
+  "9007199254740993",
+  "99999999999999999999999999",
+  "2024-02-30",
+  "0000-00-00",
+  "9999-12-31",
+  "2024-01-01T25:61",
+  "on",
+  "off",
+  "true",
+  "null",
+  "undefined",
+  "[]",
+  "{}",
+  "__proto__",
+  "constructor",
+  "prototype",
+  "\u0000",
+  "\u202e",
+  "\ufeff",
+  "😀👍🏽",
+  "Ⅻ",
+  "ß",
+  "İ",
+  "<script>alert(1)</script>",
+  "' OR 1=1 --",
+  '=HYPERLINK("x")',
+  "@SUM(A1)",
+  "../../etc/passwd",
+  "C:\\con",
+  "%00",
+  "%",
 ];
 const HUGE = ["x".repeat(70_000), "é".repeat(20_000), "9".repeat(5_000), "😀".repeat(3_000), "1\n2\n".repeat(4_000)];
 
@@ -109,21 +156,39 @@ const hostileValue = fc.oneof(
 
 /** Values drawn from a route's own vocabulary (intents, kinds, ids) as well as anything at all. */
 function valueArb(words: readonly string[], values = textValue) {
-  return words.length ? fc.oneof({ weight: 5, arbitrary: values }, { weight: 2, arbitrary: fc.constantFrom(...words) }) : values;
+  return words.length
+    ? fc.oneof({ weight: 5, arbitrary: values }, { weight: 2, arbitrary: fc.constantFrom(...words) })
+    : values;
 }
 
-const FILE_BYTES = [PDF_BYTES, PNG_BYTES, ELF_BYTES, MZ_BYTES, new Uint8Array([0xff, 0xd8, 0xff, 0xe0, 0, 0x10]), new Uint8Array(0)];
+const FILE_BYTES = [
+  PDF_BYTES,
+  PNG_BYTES,
+  ELF_BYTES,
+  MZ_BYTES,
+  new Uint8Array([0xff, 0xd8, 0xff, 0xe0, 0, 0x10]),
+  new Uint8Array(0),
+];
 const encode = (s: string) => new TextEncoder().encode(s);
-const csvText = (cells: string[]) => `item_code,kind,wll,wll_unit,shackle_type,pin_type,home_site\r\n${cells.map((c) => `"${c.replace(/"/g, '""')}"`).join(",")}\r\n`;
-const VALID_CSV = encode("\ufeffitem_code,kind,wll,wll_unit,shackle_type,pin_type\r\nFZ-CSV-1,shackle,2,t,bow,screw\r\n");
+const csvText = (cells: string[]) =>
+  `item_code,kind,wll,wll_unit,shackle_type,pin_type,home_site\r\n${cells.map((c) => `"${c.replace(/"/g, '""')}"`).join(",")}\r\n`;
+const VALID_CSV = encode(
+  "\ufeffitem_code,kind,wll,wll_unit,shackle_type,pin_type\r\nFZ-CSV-1,shackle,2,t,bow,screw\r\n",
+);
 
 const fileArb = fc.record({
   field: fc.constantFrom("file", "certificate", "photos", "other"),
-  name: fc.oneof(fc.constantFrom("drawing.pdf", "photo.png", "register.csv", "", "../../x.pdf", "a\u0000b.png", "😀.jpg"), fc.string({ maxLength: 30 })),
+  name: fc.oneof(
+    fc.constantFrom("drawing.pdf", "photo.png", "register.csv", "", "../../x.pdf", "a\u0000b.png", "😀.jpg"),
+    fc.string({ maxLength: 30 }),
+  ),
   bytes: fc.oneof(
     { weight: 3, arbitrary: fc.constantFrom(...FILE_BYTES, VALID_CSV) },
     { weight: 2, arbitrary: fc.uint8Array({ maxLength: 64 }) },
-    { weight: 2, arbitrary: fc.array(textValue, { minLength: 7, maxLength: 7 }).map((cells) => encode(csvText(cells))) },
+    {
+      weight: 2,
+      arbitrary: fc.array(textValue, { minLength: 7, maxLength: 7 }).map((cells) => encode(csvText(cells))),
+    },
     { weight: 1, arbitrary: textValue.map(encode) },
   ),
 });
@@ -150,39 +215,94 @@ function formRecipe(fields: readonly string[], baseCount: number, words: readonl
     {
       weight: 1,
       arbitrary: fc
-        .tuple(fc.constantFrom("lp", "part", "step", "hazard", "person", "ack", "check"), fc.integer({ min: -1, max: 1500 }), fc.constantFrom("label", "x", "z", "mass", "title", "hold", "name", "role", "gear-matches"))
+        .tuple(
+          fc.constantFrom("lp", "part", "step", "hazard", "person", "ack", "check"),
+          fc.integer({ min: -1, max: 1500 }),
+          fc.constantFrom("label", "x", "z", "mass", "title", "hold", "name", "role", "gear-matches"),
+        )
         .map(([p, i, f]) => `${p}-${i}-${f}`),
     },
   );
   const files = fc.array(fileArb, { maxLength: 2 });
   return fc.oneof(
-    { weight: 7, arbitrary: fc.record({ type: fc.constant("random" as const), entries: fc.array(fc.tuple(key, value), { maxLength: 10 }), multipart: fc.boolean(), files }) },
+    {
+      weight: 7,
+      arbitrary: fc.record({
+        type: fc.constant("random" as const),
+        entries: fc.array(fc.tuple(key, value), { maxLength: 10 }),
+        multipart: fc.boolean(),
+        files,
+      }),
+    },
     {
       weight: 2,
       arbitrary: fc.record({
         type: fc.constant("near" as const),
         base: fc.nat({ max: baseCount - 1 }),
-        edits: fc.array(fc.record({ field: key, op: fc.constantFrom("replace" as const, "replace" as const, "delete" as const, "repeat" as const, "add" as const), value: valueArb(words, hostileValue) }), { minLength: 1, maxLength: 4 }),
+        edits: fc.array(
+          fc.record({
+            field: key,
+            op: fc.constantFrom(
+              "replace" as const,
+              "replace" as const,
+              "delete" as const,
+              "repeat" as const,
+              "add" as const,
+            ),
+            value: valueArb(words, hostileValue),
+          }),
+          { minLength: 1, maxLength: 4 },
+        ),
         multipart: fc.boolean(),
         files,
       }),
     },
     // The valid form as it stands, now and then: successes cost more than refusals, so they are fewer.
-    { weight: 1, arbitrary: fc.record({ type: fc.constant("near" as const), base: fc.nat({ max: baseCount - 1 }), edits: fc.constant<Edit[]>([]), multipart: fc.boolean(), files }) },
+    {
+      weight: 1,
+      arbitrary: fc.record({
+        type: fc.constant("near" as const),
+        base: fc.nat({ max: baseCount - 1 }),
+        edits: fc.constant<Edit[]>([]),
+        multipart: fc.boolean(),
+        files,
+      }),
+    },
     {
       weight: 1,
       arbitrary: fc.record({
         type: fc.constant("raw" as const),
-        contentType: fc.constantFrom("multipart/form-data", "multipart/form-data; boundary=zz", "application/json", "text/plain", "application/x-www-form-urlencoded", "", "image/png"),
-        text: fc.oneof(fc.string({ maxLength: 60 }), fc.constantFrom("--zz\r\nContent-Disposition: form-data; name=\"a\"\r\n\r\nb", "--zz--", "a=%E0%A4%A&b=%", "{\"intent\":\"units\"}")),
+        contentType: fc.constantFrom(
+          "multipart/form-data",
+          "multipart/form-data; boundary=zz",
+          "application/json",
+          "text/plain",
+          "application/x-www-form-urlencoded",
+          "",
+          "image/png",
+        ),
+        text: fc.oneof(
+          fc.string({ maxLength: 60 }),
+          fc.constantFrom(
+            '--zz\r\nContent-Disposition: form-data; name="a"\r\n\r\nb',
+            "--zz--",
+            "a=%E0%A4%A&b=%",
+            '{"intent":"units"}',
+          ),
+        ),
       }),
     },
   );
 }
 
-function formEntries(recipe: Exclude<FormRecipe, { type: "raw" }>, bases: ReadonlyArray<() => FormFields>): Array<[string, string]> {
+function formEntries(
+  recipe: Exclude<FormRecipe, { type: "raw" }>,
+  bases: ReadonlyArray<() => FormFields>,
+): Array<[string, string]> {
   if (recipe.type === "random") return recipe.entries;
-  const entries: Array<[string, string]> = Object.entries(bases[recipe.base]!()).flatMap(([k, v]) => (Array.isArray(v) ? v : [v]).map((x): [string, string] => [k, x]));
+  const entries: Array<[string, string]> = Object.entries(bases[recipe.base]!()).flatMap(([k, v]) =>
+    (Array.isArray(v) ? v : [v]).map((x): [string, string] => [k, x]),
+  );
   for (const edit of recipe.edits) {
     if (edit.op === "add") entries.push([edit.field, edit.value]);
     else if (edit.op === "delete") entries.splice(0, entries.length, ...entries.filter(([k]) => k !== edit.field));
@@ -196,7 +316,12 @@ function formEntries(recipe: Exclude<FormRecipe, { type: "raw" }>, bases: Readon
   return entries;
 }
 
-function formRequest(url: string, recipe: FormRecipe, bases: ReadonlyArray<() => FormFields>, cookie: string | undefined) {
+function formRequest(
+  url: string,
+  recipe: FormRecipe,
+  bases: ReadonlyArray<() => FormFields>,
+  cookie: string | undefined,
+) {
   const headers: Record<string, string> = { Origin: BASE, ...(cookie ? { Cookie: cookie } : {}) };
   if (recipe.type === "raw") {
     if (recipe.contentType) headers["Content-Type"] = recipe.contentType;
@@ -215,15 +340,31 @@ function formRequest(url: string, recipe: FormRecipe, bases: ReadonlyArray<() =>
 
 // ----- JSON bodies -----
 
-type JsonEdit = { at: number; op: "replace" | "delete" | "wrap" | "add-key" | "raw-number"; value: fc.JsonValue; key: string; number: string };
-type JsonRecipe = { type: "random"; value: fc.JsonValue } | { type: "near"; base: number; edits: JsonEdit[] } | { type: "text"; text: string };
+type JsonEdit = {
+  at: number;
+  op: "replace" | "delete" | "wrap" | "add-key" | "raw-number";
+  value: fc.JsonValue;
+  key: string;
+  number: string;
+};
+type JsonRecipe =
+  | { type: "random"; value: fc.JsonValue }
+  | { type: "near"; base: number; edits: JsonEdit[] }
+  | { type: "text"; text: string };
 
 const RAW_NUMBER = "\u0001number\u0001";
 
 const jsonRecipe = (baseCount: number): fc.Arbitrary<JsonRecipe> =>
   fc.oneof(
     { weight: 2, arbitrary: fc.record({ type: fc.constant("random" as const), value: fc.jsonValue({ maxDepth: 4 }) }) },
-    { weight: 1, arbitrary: fc.record({ type: fc.constant("near" as const), base: fc.nat({ max: baseCount - 1 }), edits: fc.constant<JsonEdit[]>([]) }) },
+    {
+      weight: 1,
+      arbitrary: fc.record({
+        type: fc.constant("near" as const),
+        base: fc.nat({ max: baseCount - 1 }),
+        edits: fc.constant<JsonEdit[]>([]),
+      }),
+    },
     {
       weight: 6,
       arbitrary: fc.record({
@@ -232,23 +373,62 @@ const jsonRecipe = (baseCount: number): fc.Arbitrary<JsonRecipe> =>
         edits: fc.array(
           fc.record({
             at: fc.nat(),
-            op: fc.constantFrom("replace" as const, "replace" as const, "delete" as const, "wrap" as const, "add-key" as const, "raw-number" as const),
+            op: fc.constantFrom(
+              "replace" as const,
+              "replace" as const,
+              "delete" as const,
+              "wrap" as const,
+              "add-key" as const,
+              "raw-number" as const,
+            ),
             value: fc.oneof(fc.jsonValue({ maxDepth: 2 }), fc.constantFrom(...NASTY), fc.double()),
-            key: fc.oneof(fc.constantFrom("__proto__", "constructor", "A", "B", "Z", "", "toString", "results", "id"), fc.string({ maxLength: 8 })),
-            number: fc.constantFrom("1e400", "-1e400", "-0", "1e-400", "123456789012345678901234567890", "0.1e1", "5e-324"),
+            key: fc.oneof(
+              fc.constantFrom("__proto__", "constructor", "A", "B", "Z", "", "toString", "results", "id"),
+              fc.string({ maxLength: 8 }),
+            ),
+            number: fc.constantFrom(
+              "1e400",
+              "-1e400",
+              "-0",
+              "1e-400",
+              "123456789012345678901234567890",
+              "0.1e1",
+              "5e-324",
+            ),
           }),
           { minLength: 1, maxLength: 4 },
         ),
       }),
     },
-    { weight: 1, arbitrary: fc.record({ type: fc.constant("text" as const), text: fc.oneof(fc.string({ maxLength: 50 }), fc.constantFrom("", "{", "[1,", "null", "\"x\"", "{\"load\":", "1e400", "{}garbage", "\ufeff{}", "x".repeat(300_000))) }) },
+    {
+      weight: 1,
+      arbitrary: fc.record({
+        type: fc.constant("text" as const),
+        text: fc.oneof(
+          fc.string({ maxLength: 50 }),
+          fc.constantFrom(
+            "",
+            "{",
+            "[1,",
+            "null",
+            '"x"',
+            '{"load":',
+            "1e400",
+            "{}garbage",
+            "\ufeff{}",
+            "x".repeat(300_000),
+          ),
+        ),
+      }),
+    },
   );
 
 /** Every place in a JSON value (the root too), as a path of keys. */
 function jsonPaths(value: unknown, path: Array<string | number> = []): Array<Array<string | number>> {
   const own = [path];
   if (Array.isArray(value)) return own.concat(value.flatMap((v, i) => jsonPaths(v, [...path, i])));
-  if (value && typeof value === "object") return own.concat(Object.entries(value).flatMap(([k, v]) => jsonPaths(v, [...path, k])));
+  if (value && typeof value === "object")
+    return own.concat(Object.entries(value).flatMap(([k, v]) => jsonPaths(v, [...path, k])));
   return own;
 }
 
@@ -259,7 +439,10 @@ function jsonText(recipe: JsonRecipe, bases: ReadonlyArray<() => unknown>): stri
   for (const edit of recipe.edits) {
     const paths = jsonPaths(doc);
     const path = paths[edit.at % paths.length]!;
-    const parent = path.slice(0, -1).reduce<unknown>((node, k) => (node as Record<string | number, unknown>)[k], doc) as Record<string | number, unknown> | unknown[] | undefined;
+    const parent = path
+      .slice(0, -1)
+      .reduce<unknown>((node, k) => (node as Record<string | number, unknown>)[k], doc) as
+      Record<string | number, unknown> | unknown[] | undefined;
     const last = path[path.length - 1];
     const current = last === undefined ? doc : (parent as Record<string | number, unknown>)[last];
     const set = (v: unknown) => {
@@ -274,7 +457,12 @@ function jsonText(recipe: JsonRecipe, bases: ReadonlyArray<() => unknown>): stri
       else if (Array.isArray(parent)) parent.splice(Number(last), 1);
       else delete (parent as Record<string | number, unknown>)[last];
     } else if (current && typeof current === "object" && !Array.isArray(current)) {
-      Object.defineProperty(current, edit.key, { value: edit.value, enumerable: true, writable: true, configurable: true });
+      Object.defineProperty(current, edit.key, {
+        value: edit.value,
+        enumerable: true,
+        writable: true,
+        configurable: true,
+      });
     }
   }
   const number = recipe.edits.find((e) => e.op === "raw-number")?.number ?? "1e400";
@@ -292,12 +480,18 @@ let watcher: sqlite3.Database;
 
 async function openWatcher() {
   watcher = await new Promise<sqlite3.Database>((resolve, reject) => {
-    const db: sqlite3.Database = new sqlite3.Database(env.databasePath, sqlite3.OPEN_READONLY, (error) => (error ? reject(error) : resolve(db)));
+    const db: sqlite3.Database = new sqlite3.Database(env.databasePath, sqlite3.OPEN_READONLY, (error) =>
+      error ? reject(error) : resolve(db),
+    );
   });
 }
 
 function writeCount(): Promise<number> {
-  return new Promise((resolve, reject) => watcher.get<{ data_version: number }>("PRAGMA data_version", (error, row) => (error ? reject(error) : resolve(row.data_version))));
+  return new Promise((resolve, reject) =>
+    watcher.get<{ data_version: number }>("PRAGMA data_version", (error, row) =>
+      error ? reject(error) : resolve(row.data_version),
+    ),
+  );
 }
 
 function storedFileCount() {
@@ -314,7 +508,9 @@ function refusalMessage(data: unknown): string | null {
   if (typeof error === "string" && error.trim()) return error;
   if (typeof message === "string" && message.trim()) return message;
   if (typeof errors === "object" && errors !== null) {
-    const first = Object.values(errors).flat().find((m) => typeof m === "string" && m.trim());
+    const first = Object.values(errors)
+      .flat()
+      .find((m) => typeof m === "string" && m.trim());
     if (typeof first === "string") return first;
   }
   return null;
@@ -365,7 +561,14 @@ let knownWrites: number | null = null;
 
 const shown = (data: unknown) => (JSON.stringify(data) ?? String(data)).slice(0, 300);
 
-async function check(name: string, action: Action, request: Request, params: Record<string, string>, alsoAnswers: number[] = [], changesUsers = false) {
+async function check(
+  name: string,
+  action: Action,
+  request: Request,
+  params: Record<string, string>,
+  alsoAnswers: number[] = [],
+  changesUsers = false,
+) {
   const writesBefore = (knownWrites ??= await writeCount());
   const filesBefore = storedFileCount();
   const mailBefore = vi.mocked(sendMail).mock.calls.length;
@@ -377,7 +580,8 @@ async function check(name: string, action: Action, request: Request, params: Rec
   }
   const { status, data } = result;
   // Messages are built only on failure: this runs thousands of times.
-  if (!((status >= 200 && status < 400) || ANSWERS.includes(status) || alsoAnswers.includes(status))) expect.fail(`${name} answered ${status}: ${shown(data)}`);
+  if (!((status >= 200 && status < 400) || ANSWERS.includes(status) || alsoAnswers.includes(status)))
+    expect.fail(`${name} answered ${status}: ${shown(data)}`);
   if (status < 400) {
     knownWrites = null;
     if (changesUsers) sessionUsers.clear();
@@ -385,16 +589,21 @@ async function check(name: string, action: Action, request: Request, params: Rec
   }
   const message = refusalMessage(data);
   if (message === null) expect.fail(`${name} refused with ${status} without saying why: ${shown(data)}`);
-  if ((await writeCount()) !== writesBefore) expect.fail(`${name} refused with ${status} ("${message}") but wrote to the database`);
-  if (storedFileCount() !== filesBefore) expect.fail(`${name} refused with ${status} ("${message}") but left a file in storage`);
-  if (vi.mocked(sendMail).mock.calls.length !== mailBefore) expect.fail(`${name} refused with ${status} ("${message}") but sent mail`);
+  if ((await writeCount()) !== writesBefore)
+    expect.fail(`${name} refused with ${status} ("${message}") but wrote to the database`);
+  if (storedFileCount() !== filesBefore)
+    expect.fail(`${name} refused with ${status} ("${message}") but left a file in storage`);
+  if (vi.mocked(sendMail).mock.calls.length !== mailBefore)
+    expect.fail(`${name} refused with ${status} ("${message}") but sent mail`);
   return result;
 }
 
 /** With enough runs to tell, the generated bodies must reach both the route's success and its refusals, or they test little. */
 function expectBothOutcomes(name: string, tally: { accepted: number; refused: number }) {
   if (RUNS < 200) return;
-  expect(tally.accepted, `no generated body for ${name} was accepted: the valid forms are out of date`).toBeGreaterThan(0);
+  expect(tally.accepted, `no generated body for ${name} was accepted: the valid forms are out of date`).toBeGreaterThan(
+    0,
+  );
   expect(tally.refused, `no generated body for ${name} was refused`).toBeGreaterThan(0);
 }
 
@@ -406,7 +615,14 @@ function fuzzForm(target: FormTarget) {
     await fc.assert(
       fc.asyncProperty(formRecipe(fields, target.bases.length, target.words ?? []), async (recipe) => {
         const request = formRequest(BASE + target.url(), recipe, target.bases, cookie);
-        const result = await check(target.name, target.action, request, target.params(), target.alsoAnswers, target.changesUsers);
+        const result = await check(
+          target.name,
+          target.action,
+          request,
+          target.params(),
+          target.alsoAnswers,
+          target.changesUsers,
+        );
         if (result.status < 400) await target.afterSuccess?.(result);
         tally[result.status < 400 ? "accepted" : "refused"]++;
       }),
@@ -421,16 +637,20 @@ function fuzzJson(target: JsonTarget) {
     const cookie = await cookieFor(target.user);
     const tally = { accepted: 0, refused: 0 };
     await fc.assert(
-      fc.asyncProperty(jsonRecipe(target.bases.length), fc.constantFrom("application/json", "text/plain", ""), async (recipe, contentType) => {
-        const request = new Request(BASE + target.url(), {
-          method: target.method,
-          body: jsonText(recipe, target.bases),
-          headers: { Origin: BASE, Cookie: cookie!, ...(contentType ? { "Content-Type": contentType } : {}) },
-        });
-        const result = await check(target.name, target.action, request, target.params());
-        if (result.status < 400) await target.afterSuccess?.(result);
-        tally[result.status < 400 ? "accepted" : "refused"]++;
-      }),
+      fc.asyncProperty(
+        jsonRecipe(target.bases.length),
+        fc.constantFrom("application/json", "text/plain", ""),
+        async (recipe, contentType) => {
+          const request = new Request(BASE + target.url(), {
+            method: target.method,
+            body: jsonText(recipe, target.bases),
+            headers: { Origin: BASE, Cookie: cookie!, ...(contentType ? { "Content-Type": contentType } : {}) },
+          });
+          const result = await check(target.name, target.action, request, target.params());
+          if (result.status < 400) await target.afterSuccess?.(result);
+          tally[result.status < 400 ? "accepted" : "refused"]++;
+        },
+      ),
       { numRuns: RUNS },
     );
     expectBothOutcomes(target.name, tally);
@@ -452,14 +672,28 @@ async function makeWorld() {
   const target = await makeUser(["rigger"], { organisationId: org, name: "Tam Target" });
   const invitee = await makeUser(["planner"], { organisationId: org, name: "Ivy Invitee", password: null });
 
-  const site = await createSite(org, { name: "Fuzz works", customer: "Fuzz Water", address: "", siteContact: "", notes: "" }, admin.id);
-  const job = await createJob(org, { siteId: site.id, workOrder: "WO-FUZZ-1", title: "Fuzz job", description: "", status: "open", startsOn: null }, admin.id);
+  const site = await createSite(
+    org,
+    { name: "Fuzz works", customer: "Fuzz Water", address: "", siteContact: "", notes: "" },
+    admin.id,
+  );
+  const job = await createJob(
+    org,
+    { siteId: site.id, workOrder: "WO-FUZZ-1", title: "Fuzz job", description: "", status: "open", startsOn: null },
+    admin.id,
+  );
   const component = await createComponent(org, twoPointElement(), planner.id);
   // Plans are made from a component of their own: the component page's fuzzing archives the other.
   const planComponent = await createComponent(org, twoPointElement({ name: "Element to plan" }), planner.id);
   const attached = await checkUpload(new File([PNG_BYTES as Uint8Array<ArrayBuffer>], "side.png"), ["png"]);
   if (!attached.ok) throw new Error(attached.message);
-  const componentFile = await addComponentFile(org, component.id, attached.upload, { kind: "photo", caption: "Side" }, planner.id);
+  const componentFile = await addComponentFile(
+    org,
+    component.id,
+    attached.upload,
+    { kind: "photo", caption: "Side" },
+    planner.id,
+  );
   const item = await makeGearItem(admin, { itemCode: "FZ-SH-1" });
   const staged = await stageGearImport(org, new File([VALID_CSV as Uint8Array<ArrayBuffer>], "register.csv"), admin.id);
   if (!staged.ok) throw new Error(staged.message);
@@ -469,23 +703,61 @@ async function makeWorld() {
   const editing = await readyPlan();
   const submitting = await readyPlan();
   // An eyebolt due within 30 days warns, so submitting needs an acknowledgement with a reason.
-  await GearItem.update({ nextDueOn: new Date(Date.now() + 10 * 86_400_000).toISOString().slice(0, 10) }, { where: { id: submitting.gear.eyeboltA.id } });
-  const unacknowledged = await submitRevision(submitting.planner.organisationId, submitting.plan.id, submitting.planner, {});
-  if (unacknowledged.ok || !unacknowledged.field?.startsWith("ack-")) throw new Error(`expected a warning to acknowledge: ${JSON.stringify(unacknowledged)}`);
+  await GearItem.update(
+    { nextDueOn: new Date(Date.now() + 10 * 86_400_000).toISOString().slice(0, 10) },
+    { where: { id: submitting.gear.eyeboltA.id } },
+  );
+  const unacknowledged = await submitRevision(
+    submitting.planner.organisationId,
+    submitting.plan.id,
+    submitting.planner,
+    {},
+  );
+  if (unacknowledged.ok || !unacknowledged.field?.startsWith("ack-"))
+    throw new Error(`expected a warning to acknowledge: ${JSON.stringify(unacknowledged)}`);
   const reviewing = await readyPlan();
-  expect((await submitRevision(reviewing.planner.organisationId, reviewing.plan.id, reviewing.planner, {})).ok).toBe(true);
+  expect((await submitRevision(reviewing.planner.organisationId, reviewing.plan.id, reviewing.planner, {})).ok).toBe(
+    true,
+  );
   const lifting = await readyPlan();
   const approved = await readyPlan();
   for (const p of [lifting, approved]) {
     expect((await submitRevision(p.planner.organisationId, p.plan.id, p.planner, {})).ok).toBe(true);
-    expect((await approveRevision(p.planner.organisationId, p.plan.id, p.approver, { password: TEST_PASSWORD, typedName: p.approver.name, comment: "" })).ok).toBe(true);
+    expect(
+      (
+        await approveRevision(p.planner.organisationId, p.plan.id, p.approver, {
+          password: TEST_PASSWORD,
+          typedName: p.approver.name,
+          comment: "",
+        })
+      ).ok,
+    ).toBe(true);
   }
   const editingPlan = (await getPlan(editing.planner.organisationId, editing.plan.id))!;
 
   await openWatcher();
   return {
-    admin, planner, rigger, settingsUser, target, invitee, site, job, component, planComponent, componentFile, item, stagedFileId: staged.preview.fileId,
-    drafting, editing, editingPlan, submitting, ackField: unacknowledged.field, reviewing, lifting, approved,
+    admin,
+    planner,
+    rigger,
+    settingsUser,
+    target,
+    invitee,
+    site,
+    job,
+    component,
+    planComponent,
+    componentFile,
+    item,
+    stagedFileId: staged.preview.fileId,
+    drafting,
+    editing,
+    editingPlan,
+    submitting,
+    ackField: unacknowledged.field,
+    reviewing,
+    lifting,
+    approved,
   };
 }
 
@@ -513,15 +785,19 @@ describe("the fuzzer's own instruments", () => {
   it("notice a committed write from any connection, and no change from a read or a rolled-back transaction", async () => {
     const before = await writeCount();
     await GearItem.count();
-    await sequelize.transaction(async (transaction) => {
-      await GearItem.update({ description: "rolled back" }, { where: { id: world.item.id }, transaction });
-      throw new Error("roll back");
-    }).catch(() => undefined);
+    await sequelize
+      .transaction(async (transaction) => {
+        await GearItem.update({ description: "rolled back" }, { where: { id: world.item.id }, transaction });
+        throw new Error("roll back");
+      })
+      .catch(() => undefined);
     expect(await writeCount()).toBe(before);
     await GearItem.update({ description: "changed" }, { where: { id: world.item.id } });
     const afterPlain = await writeCount();
     expect(afterPlain).not.toBe(before);
-    await sequelize.transaction((transaction) => GearItem.update({ description: "" }, { where: { id: world.item.id }, transaction }));
+    await sequelize.transaction((transaction) =>
+      GearItem.update({ description: "" }, { where: { id: world.item.id }, transaction }),
+    );
     expect(await writeCount()).not.toBe(afterPlain);
   });
 });
@@ -532,8 +808,18 @@ describe("fuzzing the forms", () => {
     action: siteNew.action,
     url: () => "/sites/new",
     params: () => ({}),
-    get user() { return world.planner; },
-    bases: [() => ({ name: "Fuzz site", customer: "Fuzz customer", address: "1 Quay Road", siteContact: "Kim, 0100 000", notes: "" })],
+    get user() {
+      return world.planner;
+    },
+    bases: [
+      () => ({
+        name: "Fuzz site",
+        customer: "Fuzz customer",
+        address: "1 Quay Road",
+        siteContact: "Kim, 0100 000",
+        notes: "",
+      }),
+    ],
   });
 
   fuzzForm({
@@ -541,7 +827,9 @@ describe("fuzzing the forms", () => {
     action: siteEdit.action,
     url: () => `/sites/${world.site.id}`,
     params: () => ({ siteId: String(world.site.id) }),
-    get user() { return world.planner; },
+    get user() {
+      return world.planner;
+    },
     bases: [() => ({ name: "Fuzz works", customer: "Fuzz Water", address: "", siteContact: "", notes: "Gate 3" })],
   });
 
@@ -550,8 +838,19 @@ describe("fuzzing the forms", () => {
     action: jobNew.action,
     url: () => "/jobs/new",
     params: () => ({}),
-    get user() { return world.planner; },
-    bases: [() => ({ siteId: String(world.site.id), workOrder: "WO-FUZZ-NEW", title: "Lift the cooler", description: "", status: "open", startsOn: "2031-03-04" })],
+    get user() {
+      return world.planner;
+    },
+    bases: [
+      () => ({
+        siteId: String(world.site.id),
+        workOrder: "WO-FUZZ-NEW",
+        title: "Lift the cooler",
+        description: "",
+        status: "open",
+        startsOn: "2031-03-04",
+      }),
+    ],
     words: ["open", "closed", "1", "2"],
   });
 
@@ -560,8 +859,19 @@ describe("fuzzing the forms", () => {
     action: jobEdit.action,
     url: () => `/jobs/${world.job.id}/edit`,
     params: () => ({ jobId: String(world.job.id) }),
-    get user() { return world.planner; },
-    bases: [() => ({ siteId: String(world.site.id), workOrder: "WO-FUZZ-1", title: "Fuzz job", description: "Edited", status: "closed", startsOn: "" })],
+    get user() {
+      return world.planner;
+    },
+    bases: [
+      () => ({
+        siteId: String(world.site.id),
+        workOrder: "WO-FUZZ-1",
+        title: "Fuzz job",
+        description: "Edited",
+        status: "closed",
+        startsOn: "",
+      }),
+    ],
     words: ["open", "closed", "WO-FUZZ-NEW"],
   });
 
@@ -570,8 +880,23 @@ describe("fuzzing the forms", () => {
     action: componentNew.action,
     url: () => "/components/new",
     params: () => ({}),
-    get user() { return world.planner; },
-    bases: [() => componentFields(), () => componentFields({ outlineMode: "custom", outlineElevation: "-800, 0\n800, 0\n800, 900\n-800, 900", outlinePlan: "-800, -400\n800, -400\n800, 400\n-800, 400", "part-0-name": "Motor", "part-0-mass": "300", "part-0-x": "0", "part-0-y": "0", "part-0-z": "400" })],
+    get user() {
+      return world.planner;
+    },
+    bases: [
+      () => componentFields(),
+      () =>
+        componentFields({
+          outlineMode: "custom",
+          outlineElevation: "-800, 0\n800, 0\n800, 900\n-800, 900",
+          outlinePlan: "-800, -400\n800, -400\n800, 400\n-800, 400",
+          "part-0-name": "Motor",
+          "part-0-mass": "300",
+          "part-0-x": "0",
+          "part-0-y": "0",
+          "part-0-z": "400",
+        }),
+    ],
     words: ["certified", "estimated", "weighed", "calculated", "manufacturer", "rectangle", "custom", "M20", "1e3"],
   });
 
@@ -580,7 +905,9 @@ describe("fuzzing the forms", () => {
     action: componentEdit.action,
     url: () => `/components/${world.component.id}/edit`,
     params: () => ({ componentId: String(world.component.id) }),
-    get user() { return world.planner; },
+    get user() {
+      return world.planner;
+    },
     bases: [() => ({ ...componentFields(), version: String(live.componentVersion) })],
     words: ["certified", "estimated", "custom", "1", "2"],
     afterSuccess: async () => {
@@ -593,7 +920,9 @@ describe("fuzzing the forms", () => {
     action: componentPage.action,
     url: () => `/components/${world.component.id}`,
     params: () => ({ componentId: String(world.component.id) }),
-    get user() { return world.planner; },
+    get user() {
+      return world.planner;
+    },
     bases: [
       () => ({ intent: "archive" }),
       () => ({ intent: "restore" }),
@@ -609,12 +938,40 @@ describe("fuzzing the forms", () => {
     action: gearNew.action,
     url: () => "/gear/new",
     params: () => ({}),
-    get user() { return world.admin; },
+    get user() {
+      return world.admin;
+    },
     bases: [
       () => ({ ...SHACKLE_FIELDS, itemCode: "FZ-NEW-1", homeSiteId: String(world.site.id) }),
-      () => ({ itemCode: "FZ-CH-1", kind: "chain_sling", description: "", manufacturer: "", serial: "", wllValue: "3.15", wllUnit: "t", chainGrade: "8", diameterMm: "10", legs: "2", lengthM: "2" }),
+      () => ({
+        itemCode: "FZ-CH-1",
+        kind: "chain_sling",
+        description: "",
+        manufacturer: "",
+        serial: "",
+        wllValue: "3.15",
+        wllUnit: "t",
+        chainGrade: "8",
+        diameterMm: "10",
+        legs: "2",
+        lengthM: "2",
+      }),
     ],
-    words: ["shackle", "eyebolt", "chain_sling", "crane", "kg", "t", "lb", "shortTon", "bow", "dee", "collar", "8", "80"],
+    words: [
+      "shackle",
+      "eyebolt",
+      "chain_sling",
+      "crane",
+      "kg",
+      "t",
+      "lb",
+      "shortTon",
+      "bow",
+      "dee",
+      "collar",
+      "8",
+      "80",
+    ],
   });
 
   fuzzForm({
@@ -622,7 +979,9 @@ describe("fuzzing the forms", () => {
     action: gearEdit.action,
     url: () => `/gear/${world.item.id}/edit`,
     params: () => ({ itemId: String(world.item.id) }),
-    get user() { return world.admin; },
+    get user() {
+      return world.admin;
+    },
     bases: [() => ({ ...SHACKLE_FIELDS, itemCode: "FZ-SH-1", homeSiteId: "" })],
     words: ["shackle", "eyebolt", "kg", "t", "bow", "dee", "screw", "bolt", "FZ-NEW-1"],
   });
@@ -632,9 +991,18 @@ describe("fuzzing the forms", () => {
     action: gearItem.action,
     url: () => `/gear/${world.item.id}`,
     params: () => ({ itemId: String(world.item.id) }),
-    get user() { return world.admin; },
+    get user() {
+      return world.admin;
+    },
     bases: [
-      () => ({ intent: "examination", examinedOn: "2024-05-01", examiner: "Competent Person Ltd", result: "pass", defects: "", nextDueOn: "" }),
+      () => ({
+        intent: "examination",
+        examinedOn: "2024-05-01",
+        examiner: "Competent Person Ltd",
+        result: "pass",
+        defects: "",
+        nextDueOn: "",
+      }),
       () => ({ intent: "status", status: "quarantined", reason: "Pin thread damaged" }),
       () => ({ intent: "status", status: "in_service", reason: "Pin replaced" }),
       () => ({ intent: "defect", defect: "Bow is bent" }),
@@ -648,8 +1016,13 @@ describe("fuzzing the forms", () => {
     action: gearImport.action,
     url: () => "/gear/import",
     params: () => ({}),
-    get user() { return world.admin; },
-    bases: [() => ({ intent: "confirm", fileId: String(world.stagedFileId), mode: "valid" }), () => ({ intent: "preview" })],
+    get user() {
+      return world.admin;
+    },
+    bases: [
+      () => ({ intent: "confirm", fileId: String(world.stagedFileId), mode: "valid" }),
+      () => ({ intent: "preview" }),
+    ],
     extraFields: ["file"],
     words: ["confirm", "preview", "all", "valid"],
   });
@@ -659,7 +1032,9 @@ describe("fuzzing the forms", () => {
     action: adminUserNew.action,
     url: () => "/admin/users/new",
     params: () => ({}),
-    get user() { return world.admin; },
+    get user() {
+      return world.admin;
+    },
     changesUsers: true,
     bases: [() => ({ name: "Fern Fuzz", email: "fern.fuzz@test.invalid", roles: ["planner", "rigger"] })],
     words: ["admin", "planner", "approver", "rigger", "a@b.test"],
@@ -670,9 +1045,16 @@ describe("fuzzing the forms", () => {
     action: adminUser.action,
     url: () => `/admin/users/${world.target.id}`,
     params: () => ({ userId: String(world.target.id) }),
-    get user() { return world.admin; },
+    get user() {
+      return world.admin;
+    },
     changesUsers: true,
-    bases: [() => ({ intent: "roles", roles: ["rigger", "planner"] }), () => ({ intent: "deactivate" }), () => ({ intent: "reactivate" }), () => ({ intent: "invite" })],
+    bases: [
+      () => ({ intent: "roles", roles: ["rigger", "planner"] }),
+      () => ({ intent: "deactivate" }),
+      () => ({ intent: "reactivate" }),
+      () => ({ intent: "invite" }),
+    ],
     words: ["roles", "deactivate", "reactivate", "invite", "admin", "planner", "approver", "rigger"],
   });
 
@@ -681,7 +1063,9 @@ describe("fuzzing the forms", () => {
     action: adminSettings.action,
     url: () => "/admin/settings",
     params: () => ({}),
-    get user() { return world.admin; },
+    get user() {
+      return world.admin;
+    },
     changesUsers: true,
     bases: [() => ({ name: "Fuzz Lifting Ltd", allowSelfApproval: "on" })],
     words: ["on", "off"],
@@ -692,9 +1076,14 @@ describe("fuzzing the forms", () => {
     action: settings.action,
     url: () => "/settings",
     params: () => ({}),
-    get user() { return world.settingsUser; },
+    get user() {
+      return world.settingsUser;
+    },
     changesUsers: true,
-    bases: [() => ({ intent: "units", units: "imperial" }), () => ({ intent: "password", current: TEST_PASSWORD, password: "a new password 9", confirm: "a new password 9" })],
+    bases: [
+      () => ({ intent: "units", units: "imperial" }),
+      () => ({ intent: "password", current: TEST_PASSWORD, password: "a new password 9", confirm: "a new password 9" }),
+    ],
     words: ["units", "password", "metric", "imperial", TEST_PASSWORD],
   });
 
@@ -703,8 +1092,16 @@ describe("fuzzing the forms", () => {
     action: planNew.action,
     url: () => "/plans/new",
     params: () => ({}),
-    get user() { return world.planner; },
-    bases: [() => ({ jobId: String(world.job.id), componentId: String(world.planComponent.id), title: "Lift the element out" })],
+    get user() {
+      return world.planner;
+    },
+    bases: [
+      () => ({
+        jobId: String(world.job.id),
+        componentId: String(world.planComponent.id),
+        title: "Lift the element out",
+      }),
+    ],
     words: ["1", "2", "0"],
   });
 
@@ -713,7 +1110,9 @@ describe("fuzzing the forms", () => {
     action: planPage.action,
     url: () => `/plans/${world.approved.plan.id}`,
     params: () => ({ planId: String(world.approved.plan.id) }),
-    get user() { return world.approved.planner; },
+    get user() {
+      return world.approved.planner;
+    },
     bases: [
       () => ({ intent: "pull-component", version: "1" }),
       () => ({ intent: "new-revision" }),
@@ -728,7 +1127,9 @@ describe("fuzzing the forms", () => {
     action: planDetails.action,
     url: () => `/plans/${world.drafting.plan.id}/details`,
     params: () => ({ planId: String(world.drafting.plan.id) }),
-    get user() { return world.drafting.planner; },
+    get user() {
+      return world.drafting.planner;
+    },
     bases: [
       () => ({
         version: String(live.detailsVersion),
@@ -756,14 +1157,19 @@ describe("fuzzing the forms", () => {
     action: planSubmit.action,
     url: () => `/plans/${world.submitting.plan.id}/submit`,
     params: () => ({ planId: String(world.submitting.plan.id) }),
-    get user() { return world.submitting.planner; },
+    get user() {
+      return world.submitting.planner;
+    },
     bases: [() => ({ [world.ackField]: "Examiner booked for the week after the lift" })],
     // Acknowledgements of checks that do not warn: they must be ignored, not stored.
     extraFields: ["ack-angle-A", "ack-sling-leg-A", "ack-eyebolt-B", "ack-sling-assembly", "ack-", "ack-__proto__"],
     words: ["ok", "Checked with the examiner"],
     afterSuccess: async () => {
       // Back to draft, so the next run has something to submit.
-      await PlanRevision.update({ status: "draft", submittedBy: null, submittedAt: null }, { where: { planId: world.submitting.plan.id } });
+      await PlanRevision.update(
+        { status: "draft", submittedBy: null, submittedAt: null },
+        { where: { planId: world.submitting.plan.id } },
+      );
     },
   });
 
@@ -772,13 +1178,31 @@ describe("fuzzing the forms", () => {
     action: planReview.action,
     url: () => `/plans/${world.reviewing.plan.id}/review`,
     params: () => ({ planId: String(world.reviewing.plan.id) }),
-    get user() { return world.reviewing.approver; },
-    bases: [() => ({ intent: "approve", password: TEST_PASSWORD, typedName: world.reviewing.approver.name, comment: "Trial lift first" }), () => ({ intent: "return", comment: "Add the exclusion zone" })],
+    get user() {
+      return world.reviewing.approver;
+    },
+    bases: [
+      () => ({
+        intent: "approve",
+        password: TEST_PASSWORD,
+        typedName: world.reviewing.approver.name,
+        comment: "Trial lift first",
+      }),
+      () => ({ intent: "return", comment: "Add the exclusion zone" }),
+    ],
     words: ["approve", "return", TEST_PASSWORD, "Avery Approver"],
     afterSuccess: async () => {
       // Back in review, so the next run has something to approve or return.
       await PlanRevision.update(
-        { status: "in_review", approvedBy: null, approvedAt: null, approverName: null, approvalComment: null, fingerprint: null, verifyToken: null },
+        {
+          status: "in_review",
+          approvedBy: null,
+          approvedAt: null,
+          approverName: null,
+          approvalComment: null,
+          fingerprint: null,
+          verifyToken: null,
+        },
         { where: { planId: world.reviewing.plan.id } },
       );
     },
@@ -789,7 +1213,9 @@ describe("fuzzing the forms", () => {
     action: planLift.action,
     url: () => `/plans/${world.lifting.plan.id}/lift`,
     params: () => ({ planId: String(world.lifting.plan.id) }),
-    get user() { return world.lifting.rigger; },
+    get user() {
+      return world.lifting.rigger;
+    },
     bases: [
       () => ({
         ...Object.fromEntries(PRE_LIFT_CHECKLIST.map((c) => [`check-${c.id}`, "on"])),
@@ -836,7 +1262,9 @@ describe("search boxes", () => {
     ["/api/gear", gearPicks.loader, "query"],
   ] as const)("%s takes any search text", async (path, loader, param) => {
     for (const text of QUERIES) {
-      const request = new Request(`${BASE}${path}?${new URLSearchParams({ [param]: text })}`, { headers: { Cookie: (await cookieFor(world.admin))! } });
+      const request = new Request(`${BASE}${path}?${new URLSearchParams({ [param]: text })}`, {
+        headers: { Cookie: (await cookieFor(world.admin))! },
+      });
       const result = await callRoute(loader, request);
       // The picker's API refuses a search over 100 characters; the pages shorten it.
       if (result.status === 400) expect(refusalMessage(result.data)).toBe("The search is at most 100 characters.");
@@ -852,9 +1280,19 @@ describe("the sign-in forms, left out of the fuzzing", () => {
     ["/login", login.action],
     ["/forgot-password", forgotPassword.action],
   ] as const)("%s refuses a body that is not a form with 400 and a sentence", async (path, action) => {
-    for (const [type, body] of [["multipart/form-data", "x"], ["multipart/form-data; boundary=zz", "--zz\r\nbroken"], ["application/json", "{}"]]) {
-      const result = await callRoute(action, new Request(BASE + path, { method: "POST", body, headers: { Origin: BASE, "Content-Type": type! } }));
-      expect(result).toMatchObject({ status: 400, data: { message: "The form could not be read. Reload the page and send it again." } });
+    for (const [type, body] of [
+      ["multipart/form-data", "x"],
+      ["multipart/form-data; boundary=zz", "--zz\r\nbroken"],
+      ["application/json", "{}"],
+    ]) {
+      const result = await callRoute(
+        action,
+        new Request(BASE + path, { method: "POST", body, headers: { Origin: BASE, "Content-Type": type! } }),
+      );
+      expect(result).toMatchObject({
+        status: 400,
+        data: { message: "The form could not be read. Reload the page and send it again." },
+      });
     }
   });
 });
@@ -874,7 +1312,9 @@ describe("fuzzing the JSON API", () => {
     action: solve.action,
     url: () => "/api/solve",
     params: () => ({}),
-    get user() { return world.planner; },
+    get user() {
+      return world.planner;
+    },
     method: "POST",
     bases: [
       () => twoLegs,
@@ -883,8 +1323,18 @@ describe("fuzzing the JSON API", () => {
         ...twoLegs,
         rigging: {
           legs: {
-            A: { sling: { kind: "chain", wllKg: 3150, hitch: "straight" }, eyebolt: { family: "collar", thread: "M20" }, shackle: { type: "bow", pin: "screw", wllKg: 3250 } },
-            B: { sling: { kind: "wire", wll: { value: 2, unit: "t" }, inspection: { itemId: "W-1", status: "in_service", examinationDue: "2030-01-01" } } },
+            A: {
+              sling: { kind: "chain", wllKg: 3150, hitch: "straight" },
+              eyebolt: { family: "collar", thread: "M20" },
+              shackle: { type: "bow", pin: "screw", wllKg: 3250 },
+            },
+            B: {
+              sling: {
+                kind: "wire",
+                wll: { value: 2, unit: "t" },
+                inspection: { itemId: "W-1", status: "in_service", examinationDue: "2030-01-01" },
+              },
+            },
           },
           sharedShackles: [{ legIds: ["A", "B"], wllKg: 4750 }],
           masterLink: { wllKg: 6700 },
@@ -902,7 +1352,9 @@ describe("fuzzing the JSON API", () => {
     action: planApi.action,
     url: () => `/api/plans/${world.editing.plan.id}`,
     params: () => ({ planId: String(world.editing.plan.id) }),
-    get user() { return world.editing.planner; },
+    get user() {
+      return world.editing.planner;
+    },
     method: "PUT",
     bases: [
       () => {
@@ -913,16 +1365,35 @@ describe("fuzzing the JSON API", () => {
           arrangement: r.arrangement,
           rigging: r.rigging,
           details: r.details,
-          load: { cog: r.snapshot.cog, liftPoints: r.snapshot.liftPoints.map((p) => ({ label: p.label, position: p.position })) },
+          load: {
+            cog: r.snapshot.cog,
+            liftPoints: r.snapshot.liftPoints.map((p) => ({ label: p.label, position: p.position })),
+          },
         };
       },
       () => {
         const r = world.editingPlan.revision;
-        return { version: live.putVersion, title: "Given lengths", arrangement: { ...r.arrangement, mode: "lengths", legLengthsM: { A: 1.2, B: 1.2 } }, rigging: r.rigging, details: r.details };
+        return {
+          version: live.putVersion,
+          title: "Given lengths",
+          arrangement: { ...r.arrangement, mode: "lengths", legLengthsM: { A: 1.2, B: 1.2 } },
+          rigging: r.rigging,
+          details: r.details,
+        };
       },
       () => {
         const r = world.editingPlan.revision;
-        return { version: live.putVersion, title: "On a beam", arrangement: { ...r.arrangement, kind: "beam", beam: { massKg: 120, wllKg: 5000, lengthM: 2, dropLengthM: 1 } }, rigging: { legs: {} }, details: r.details };
+        return {
+          version: live.putVersion,
+          title: "On a beam",
+          arrangement: {
+            ...r.arrangement,
+            kind: "beam",
+            beam: { massKg: 120, wllKg: 5000, lengthM: 2, dropLengthM: 1 },
+          },
+          rigging: { legs: {} },
+          details: r.details,
+        };
       },
     ],
     afterSuccess: async (result) => {

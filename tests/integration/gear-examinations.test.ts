@@ -11,7 +11,12 @@ import { StoredFile } from "~/models/stored-file.server";
 import { callRoute, getRequest, makeUser, postForm } from "../support/factories";
 import { adminWithSite, ELF_BYTES, makeGearItem, MZ_BYTES, PDF_BYTES, PNG_BYTES, postMultipart } from "../support/gear";
 
-const examine = (fields: Record<string, string>) => ({ intent: "examination", examiner: "Ruth Calloway", result: "pass", ...fields });
+const examine = (fields: Record<string, string>) => ({
+  intent: "examination",
+  examiner: "Ruth Calloway",
+  result: "pass",
+  ...fields,
+});
 
 async function post(itemId: number, request: Request) {
   return callRoute(itemPage.action, request, { itemId: String(itemId) });
@@ -29,12 +34,22 @@ describe("recording thorough examinations", () => {
     const res = await post(item.id, await postForm(`/gear/${item.id}`, examine({ examinedOn }), admin));
     expect(res.status).toBe(302);
     await item.reload();
-    expect(item).toMatchObject({ lastExaminedOn: examinedOn, nextDueOn: addMonths(examinedOn, 6), status: "in_service" });
+    expect(item).toMatchObject({
+      lastExaminedOn: examinedOn,
+      nextDueOn: addMonths(examinedOn, 6),
+      status: "in_service",
+    });
   });
 
   it("defaults to 12 months for lifting equipment that is not an accessory, such as a crane (LOLER 1998 reg 9(3)(a))", async () => {
     const { admin } = await adminWithSite();
-    const crane = await makeGearItem(admin, { kind: "crane", shackleType: null, pinType: null, hookHeightM: 5.2, wllValue: 5 });
+    const crane = await makeGearItem(admin, {
+      kind: "crane",
+      shackleType: null,
+      pinType: null,
+      hookHeightM: 5.2,
+      wllValue: 5,
+    });
     const examinedOn = todayIso();
     await post(crane.id, await postForm(`/gear/${crane.id}`, examine({ examinedOn }), admin));
     await crane.reload();
@@ -45,7 +60,10 @@ describe("recording thorough examinations", () => {
     const { admin } = await adminWithSite();
     const item = await makeGearItem(admin);
     const today = todayIso();
-    await post(item.id, await postForm(`/gear/${item.id}`, examine({ examinedOn: today, nextDueOn: addMonths(today, 3) }), admin));
+    await post(
+      item.id,
+      await postForm(`/gear/${item.id}`, examine({ examinedOn: today, nextDueOn: addMonths(today, 3) }), admin),
+    );
     // An older report entered late must not move the due date back.
     await post(item.id, await postForm(`/gear/${item.id}`, examine({ examinedOn: addDays(today, -200) }), admin));
     await item.reload();
@@ -76,13 +94,22 @@ describe("recording thorough examinations", () => {
   it("a failed examination quarantines the item with the defects as the reason", async () => {
     const { admin } = await adminWithSite();
     const item = await makeGearItem(admin);
-    const res = await post(item.id, await postForm(`/gear/${item.id}`, examine({ examinedOn: todayIso(), result: "fail", defects: "Pin bent, threads galled" }), admin));
+    const res = await post(
+      item.id,
+      await postForm(
+        `/gear/${item.id}`,
+        examine({ examinedOn: todayIso(), result: "fail", defects: "Pin bent, threads galled" }),
+        admin,
+      ),
+    );
     expect(res.status).toBe(302);
     await item.reload();
     expect(item.status).toBe("quarantined");
     expect(item.statusReason).toContain("Pin bent, threads galled");
     expect(item.statusChangedBy).toBe(admin.id);
-    const page = await callRoute(itemPage.loader, await getRequest(`/gear/${item.id}`, admin), { itemId: String(item.id) });
+    const page = await callRoute(itemPage.loader, await getRequest(`/gear/${item.id}`, admin), {
+      itemId: String(item.id),
+    });
     const history = (page.data as { history: Array<{ action: string; details: Record<string, unknown> }> }).history;
     expect(history.map((h) => h.action)).toEqual(["created", "examination recorded", "status changed"]);
     expect(history[2]!.details).toMatchObject({ from: "in_service", to: "quarantined" });
@@ -95,16 +122,29 @@ describe("certificates", () => {
     const item = await makeGearItem(admin);
     const res = await post(
       item.id,
-      await postMultipart(`/gear/${item.id}`, examine({ examinedOn: todayIso() }), { certificate: { bytes: PDF_BYTES, name: "Report 118.pdf", type: "application/pdf" } }, admin),
+      await postMultipart(
+        `/gear/${item.id}`,
+        examine({ examinedOn: todayIso() }),
+        { certificate: { bytes: PDF_BYTES, name: "Report 118.pdf", type: "application/pdf" } },
+        admin,
+      ),
     );
     expect(res.status).toBe(302);
     const exam = await Examination.findOne({ where: { gearItemId: item.id } });
     const file = await StoredFile.findByPk(exam!.certificateFileId!);
-    expect(file).toMatchObject({ organisationId: admin.organisationId, purpose: "certificate", originalName: "Report 118.pdf", contentType: "application/pdf", sizeBytes: PDF_BYTES.byteLength });
+    expect(file).toMatchObject({
+      organisationId: admin.organisationId,
+      purpose: "certificate",
+      originalName: "Report 118.pdf",
+      contentType: "application/pdf",
+      sizeBytes: PDF_BYTES.byteLength,
+    });
     expect(file!.storageKey).toMatch(/^[a-f0-9]{32}$/);
     expect(path.resolve(env.uploadDir)).not.toContain(`${path.sep}public`);
     expect(fs.readFileSync(path.join(env.uploadDir, file!.storageKey))).toEqual(Buffer.from(PDF_BYTES));
-    const page = await callRoute(itemPage.loader, await getRequest(`/gear/${item.id}`, rigger), { itemId: String(item.id) });
+    const page = await callRoute(itemPage.loader, await getRequest(`/gear/${item.id}`, rigger), {
+      itemId: String(item.id),
+    });
     expect(page.data).toMatchObject({ examinations: [{ certificate: { id: file!.id, name: "Report 118.pdf" } }] });
   });
 
@@ -118,7 +158,15 @@ describe("certificates", () => {
       [MZ_BYTES, "setup.pdf", /Windows program/],
     ];
     for (const [bytes, name, message] of cases) {
-      const res = await post(item.id, await postMultipart(`/gear/${item.id}`, examine({ examinedOn: todayIso() }), { certificate: { bytes, name, type: "application/pdf" } }, admin));
+      const res = await post(
+        item.id,
+        await postMultipart(
+          `/gear/${item.id}`,
+          examine({ examinedOn: todayIso() }),
+          { certificate: { bytes, name, type: "application/pdf" } },
+          admin,
+        ),
+      );
       expect(res.status, name).toBe(400);
       expect((res.data as { errors: { certificate: string[] } }).errors.certificate.join(" ")).toMatch(message);
     }
@@ -132,9 +180,19 @@ describe("certificates", () => {
     const item = await makeGearItem(admin);
     const big = new Uint8Array(10 * 1024 * 1024 + 1);
     big.set(PDF_BYTES);
-    const res = await post(item.id, await postMultipart(`/gear/${item.id}`, examine({ examinedOn: todayIso() }), { certificate: { bytes: big, name: "huge.pdf" } }, admin));
+    const res = await post(
+      item.id,
+      await postMultipart(
+        `/gear/${item.id}`,
+        examine({ examinedOn: todayIso() }),
+        { certificate: { bytes: big, name: "huge.pdf" } },
+        admin,
+      ),
+    );
     expect([400, 413]).toContain(res.status);
-    expect((res.data as { errors: { certificate: string[] } }).errors.certificate[0]).toMatch(/larger than the 10 MB limit/);
+    expect((res.data as { errors: { certificate: string[] } }).errors.certificate[0]).toMatch(
+      /larger than the 10 MB limit/,
+    );
     expect(await Examination.count({ where: { gearItemId: item.id } })).toBe(0);
   });
 });
@@ -143,16 +201,40 @@ describe("status changes", () => {
   it("an admin quarantines and withdraws an item with a reason; each change is in the history", async () => {
     const { admin } = await adminWithSite();
     const item = await makeGearItem(admin);
-    const noReason = await post(item.id, await postForm(`/gear/${item.id}`, { intent: "status", status: "quarantined", reason: "" }, admin));
+    const noReason = await post(
+      item.id,
+      await postForm(`/gear/${item.id}`, { intent: "status", status: "quarantined", reason: "" }, admin),
+    );
     expect(noReason.status).toBe(400);
-    expect(await post(item.id, await postForm(`/gear/${item.id}`, { intent: "status", status: "quarantined", reason: "Awaiting repair" }, admin))).toMatchObject({ status: 302 });
-    expect(await post(item.id, await postForm(`/gear/${item.id}`, { intent: "status", status: "withdrawn", reason: "Beyond repair" }, admin))).toMatchObject({ status: 302 });
-    const same = await post(item.id, await postForm(`/gear/${item.id}`, { intent: "status", status: "withdrawn", reason: "Again" }, admin));
+    expect(
+      await post(
+        item.id,
+        await postForm(
+          `/gear/${item.id}`,
+          { intent: "status", status: "quarantined", reason: "Awaiting repair" },
+          admin,
+        ),
+      ),
+    ).toMatchObject({ status: 302 });
+    expect(
+      await post(
+        item.id,
+        await postForm(`/gear/${item.id}`, { intent: "status", status: "withdrawn", reason: "Beyond repair" }, admin),
+      ),
+    ).toMatchObject({ status: 302 });
+    const same = await post(
+      item.id,
+      await postForm(`/gear/${item.id}`, { intent: "status", status: "withdrawn", reason: "Again" }, admin),
+    );
     expect(same.status).toBe(400);
     await item.reload();
     expect(item).toMatchObject({ status: "withdrawn", statusReason: "Beyond repair", statusChangedBy: admin.id });
-    const page = await callRoute(itemPage.loader, await getRequest(`/gear/${item.id}`, admin), { itemId: String(item.id) });
-    const changes = (page.data as { history: Array<{ action: string; who: string; details: Record<string, unknown> }> }).history.filter((h) => h.action === "status changed");
+    const page = await callRoute(itemPage.loader, await getRequest(`/gear/${item.id}`, admin), {
+      itemId: String(item.id),
+    });
+    const changes = (
+      page.data as { history: Array<{ action: string; who: string; details: Record<string, unknown> }> }
+    ).history.filter((h) => h.action === "status changed");
     expect(changes.map((c) => [c.details.from, c.details.to, c.details.reason, c.who])).toEqual([
       ["in_service", "quarantined", "Awaiting repair", admin.name],
       ["quarantined", "withdrawn", "Beyond repair", admin.name],
@@ -163,14 +245,33 @@ describe("status changes", () => {
     const { admin } = await adminWithSite();
     const item = await makeGearItem(admin);
     const today = todayIso();
-    await post(item.id, await postForm(`/gear/${item.id}`, examine({ examinedOn: addDays(today, -1), result: "fail", defects: "Crack at the crown" }), admin));
-    const refused = await post(item.id, await postForm(`/gear/${item.id}`, { intent: "status", status: "in_service", reason: "Looks fine" }, admin));
+    await post(
+      item.id,
+      await postForm(
+        `/gear/${item.id}`,
+        examine({ examinedOn: addDays(today, -1), result: "fail", defects: "Crack at the crown" }),
+        admin,
+      ),
+    );
+    const refused = await post(
+      item.id,
+      await postForm(`/gear/${item.id}`, { intent: "status", status: "in_service", reason: "Looks fine" }, admin),
+    );
     expect(refused.status).toBe(400);
     expect((refused.data as { errors: { status: string[] } }).errors.status[0]).toMatch(/record a passing examination/);
     await post(item.id, await postForm(`/gear/${item.id}`, examine({ examinedOn: today }), admin));
     await item.reload();
     expect(item.status).toBe("quarantined");
-    expect(await post(item.id, await postForm(`/gear/${item.id}`, { intent: "status", status: "in_service", reason: "Repaired and re-examined" }, admin))).toMatchObject({ status: 302 });
+    expect(
+      await post(
+        item.id,
+        await postForm(
+          `/gear/${item.id}`,
+          { intent: "status", status: "in_service", reason: "Repaired and re-examined" },
+          admin,
+        ),
+      ),
+    ).toMatchObject({ status: 302 });
     await item.reload();
     expect(item.status).toBe("in_service");
   });
@@ -181,7 +282,10 @@ describe("defect reports", () => {
     const { admin, rigger } = await adminWithSite();
     const secondAdmin = await makeUser(["admin", "planner"], { organisationId: admin.organisationId });
     const item = await makeGearItem(admin, { itemCode: "WS-3T", description: "Web sling, yellow" });
-    const res = await post(item.id, await postForm(`/gear/${item.id}`, { intent: "defect", defect: "Cut on the edge near the eye" }, rigger));
+    const res = await post(
+      item.id,
+      await postForm(`/gear/${item.id}`, { intent: "defect", defect: "Cut on the edge near the eye" }, rigger),
+    );
     expect(res.status).toBe(302);
     await item.reload();
     expect(item.status).toBe("quarantined");

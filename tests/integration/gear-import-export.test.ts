@@ -7,32 +7,74 @@ import { StoredFile } from "~/models/stored-file.server";
 import { callRoute, getRequest, makeUser, postForm } from "../support/factories";
 import { adminWithSite, ELF_BYTES, makeGearItem, PNG_BYTES, postMultipart } from "../support/gear";
 
-type Preview = { fileId: number; rowCount: number; validCount: number; errorCount: number; errors: Array<{ line: number; itemCode: string; messages: string[] }>; counts: Record<string, number> };
+type Preview = {
+  fileId: number;
+  rowCount: number;
+  validCount: number;
+  errorCount: number;
+  errors: Array<{ line: number; itemCode: string; messages: string[] }>;
+  counts: Record<string, number>;
+};
 type Result = { intent: string; error?: string; preview?: Preview; done?: Record<string, number> };
 
 async function exportText(user: { id: number }) {
   const res = await callRoute(exportCsv.loader, await getRequest("/gear/export.csv", user));
   expect(res.status).toBe(200);
   expect(res.headers.get("Content-Type")).toBe("text/csv; charset=utf-8");
-  expect(res.headers.get("Content-Disposition")).toMatch(/^attachment; filename="gear-register-\d{4}-\d{2}-\d{2}\.csv"$/);
+  expect(res.headers.get("Content-Disposition")).toMatch(
+    /^attachment; filename="gear-register-\d{4}-\d{2}-\d{2}\.csv"$/,
+  );
   return res.data as string;
 }
 
 async function previewFile(user: { id: number }, text: string | Uint8Array, name = "register.csv") {
-  const res = await callRoute(importPage.action, await postMultipart("/gear/import", { intent: "preview" }, { file: { bytes: text, name, type: "text/csv" } }, user));
+  const res = await callRoute(
+    importPage.action,
+    await postMultipart("/gear/import", { intent: "preview" }, { file: { bytes: text, name, type: "text/csv" } }, user),
+  );
   return { status: res.status, ...(res.data as Result) };
 }
 
 async function confirm(user: { id: number }, fileId: number, mode: "all" | "valid" = "all") {
-  const res = await callRoute(importPage.action, await postForm("/gear/import", { intent: "confirm", fileId: String(fileId), mode }, user));
+  const res = await callRoute(
+    importPage.action,
+    await postForm("/gear/import", { intent: "confirm", fileId: String(fileId), mode }, user),
+  );
   return { status: res.status, ...(res.data as Result) };
 }
 
 async function registerOfThree() {
   const { admin, site } = await adminWithSite("Fernbrook Brewery, compressor house");
-  await makeGearItem(admin, { itemCode: "KR-EB-16", kind: "eyebolt", thread: "M16", eyeboltFamily: "collar", shackleType: null, pinType: null, wllValue: 700, wllUnit: "kg", homeSiteId: site.id });
-  await makeGearItem(admin, { itemCode: "KR-SH-325", description: "=cmd|' /C calc'!A0", serial: "+44 1632 960", manufacturer: "@Brackley", wllValue: 3.25 });
-  await makeGearItem(admin, { itemCode: "KR-CS-8", kind: "chain_sling", shackleType: null, pinType: null, chainGrade: 8, diameterMm: 8, legs: 2, lengthM: 2, wllValue: 2.8, description: "-2 leg, grade 8" });
+  await makeGearItem(admin, {
+    itemCode: "KR-EB-16",
+    kind: "eyebolt",
+    thread: "M16",
+    eyeboltFamily: "collar",
+    shackleType: null,
+    pinType: null,
+    wllValue: 700,
+    wllUnit: "kg",
+    homeSiteId: site.id,
+  });
+  await makeGearItem(admin, {
+    itemCode: "KR-SH-325",
+    description: "=cmd|' /C calc'!A0",
+    serial: "+44 1632 960",
+    manufacturer: "@Brackley",
+    wllValue: 3.25,
+  });
+  await makeGearItem(admin, {
+    itemCode: "KR-CS-8",
+    kind: "chain_sling",
+    shackleType: null,
+    pinType: null,
+    chainGrade: 8,
+    diameterMm: 8,
+    legs: 2,
+    lengthM: 2,
+    wllValue: 2.8,
+    description: "-2 leg, grade 8",
+  });
   return { admin, site };
 }
 
@@ -48,7 +90,11 @@ describe("CSV export", () => {
     const text = await exportText(admin);
     expect(text.startsWith("item_code,kind,description,")).toBe(true);
     // A byte order mark first, so spreadsheets read the file as UTF-8.
-    const raw = (await exportCsv.loader({ request: await getRequest("/gear/export.csv", admin), params: {}, context: {} } as never)) as Response;
+    const raw = (await exportCsv.loader({
+      request: await getRequest("/gear/export.csv", admin),
+      params: {},
+      context: {},
+    } as never)) as Response;
     expect([...new Uint8Array(await raw.arrayBuffer()).slice(0, 3)]).toEqual([0xef, 0xbb, 0xbf]);
     expect(text).toContain(`,'=cmd|' /C calc'!A0,`);
     expect(text).toContain("'+44 1632 960");
@@ -71,20 +117,33 @@ describe("CSV import", () => {
     const before = await snapshot(admin.organisationId);
     const preview = await previewFile(admin, await exportText(admin));
     expect(preview.status).toBe(200);
-    expect(preview.preview).toMatchObject({ rowCount: 3, validCount: 3, errorCount: 0, counts: { created: 0, updated: 0, unchanged: 3 } });
+    expect(preview.preview).toMatchObject({
+      rowCount: 3,
+      validCount: 3,
+      errorCount: 0,
+      counts: { created: 0, updated: 0, unchanged: 3 },
+    });
     const done = await confirm(admin, preview.preview!.fileId);
     expect(done.done).toEqual({ created: 0, updated: 0, unchanged: 3, skipped: 0 });
     expect(await snapshot(admin.organisationId)).toEqual(before);
-    expect(await AuditEvent.count({ where: { organisationId: admin.organisationId, action: "updated by import" } })).toBe(0);
+    expect(
+      await AuditEvent.count({ where: { organisationId: admin.organisationId, action: "updated by import" } }),
+    ).toBe(0);
   });
 
   it("previews creates and updates without writing, then applies them on confirm; status columns are not read", async () => {
     const { admin } = await registerOfThree();
-    const quarantined = await GearItem.findOne({ where: { organisationId: admin.organisationId, itemCode: "KR-EB-16" } });
+    const quarantined = await GearItem.findOne({
+      where: { organisationId: admin.organisationId, itemCode: "KR-EB-16" },
+    });
     await quarantined!.update({ status: "quarantined", statusReason: "Bent" });
     const lines = (await exportText(admin)).split("\r\n");
     const edited = lines
-      .map((l) => (l.startsWith("KR-EB-16,") ? l.replace(",700,kg,", ",1.2,t,").replace(",M16,", ",M20,").replace("quarantined", "in_service") : l))
+      .map((l) =>
+        l.startsWith("KR-EB-16,")
+          ? l.replace(",700,kg,", ",1.2,t,").replace(",M16,", ",M20,").replace("quarantined", "in_service")
+          : l,
+      )
       .join("\r\n");
     const withNew = `${edited.trimEnd()}\r\nKR-NEW-1,web_sling,New violet sling,,,1,t,,,,,,,1,2,,,,\r\n`;
     const before = await GearItem.count();
@@ -94,8 +153,16 @@ describe("CSV import", () => {
     const done = await confirm(admin, preview.preview!.fileId);
     expect(done.done).toMatchObject({ created: 1, updated: 1, unchanged: 2 });
     await quarantined!.reload();
-    expect(quarantined).toMatchObject({ thread: "M20", wllValue: 1.2, wllUnit: "t", wllKg: 1200, status: "quarantined" });
-    expect(await GearItem.findOne({ where: { organisationId: admin.organisationId, itemCode: "KR-NEW-1" } })).toMatchObject({ kind: "web_sling", lengthM: 2, legs: 1 });
+    expect(quarantined).toMatchObject({
+      thread: "M20",
+      wllValue: 1.2,
+      wllUnit: "t",
+      wllKg: 1200,
+      status: "quarantined",
+    });
+    expect(
+      await GearItem.findOne({ where: { organisationId: admin.organisationId, itemCode: "KR-NEW-1" } }),
+    ).toMatchObject({ kind: "web_sling", lengthM: 2, legs: 1 });
   });
 
   it("lists every bad row by line and reason; writes nothing unless told to import only the valid rows", async () => {
@@ -125,7 +192,11 @@ describe("CSV import", () => {
     expect(await GearItem.count({ where: { organisationId: admin.organisationId } })).toBe(0);
     const partial = await confirm(admin, preview.preview!.fileId, "valid");
     expect(partial.done).toEqual({ created: 2, updated: 0, unchanged: 0, skipped: 4 });
-    expect((await GearItem.findAll({ where: { organisationId: admin.organisationId }, order: [["itemCode", "ASC"]] })).map((i) => i.itemCode)).toEqual(["OK-1", "OK-2"]);
+    expect(
+      (await GearItem.findAll({ where: { organisationId: admin.organisationId }, order: [["itemCode", "ASC"]] })).map(
+        (i) => i.itemCode,
+      ),
+    ).toEqual(["OK-1", "OK-2"]);
   });
 
   it("refuses a 5 MB file, a binary file and a non-register text file clearly, storing nothing", async () => {
@@ -144,7 +215,10 @@ describe("CSV import", () => {
       expect(res.status, name).toBe(status);
       expect(res.error, name).toMatch(message);
     }
-    const missing = await callRoute(importPage.action, await postMultipart("/gear/import", { intent: "preview" }, {}, admin));
+    const missing = await callRoute(
+      importPage.action,
+      await postMultipart("/gear/import", { intent: "preview" }, {}, admin),
+    );
     expect(missing.status).toBe(400);
     expect(await StoredFile.count()).toBe(files);
   });
@@ -156,7 +230,10 @@ describe("CSV import", () => {
     const res = await confirm(stranger, preview.preview!.fileId);
     expect(res.status).toBe(404);
     expect(await GearItem.count({ where: { organisationId: stranger.organisationId } })).toBe(0);
-    const bad = await callRoute(importPage.action, await postForm("/gear/import", { intent: "confirm", fileId: "x" }, admin));
+    const bad = await callRoute(
+      importPage.action,
+      await postForm("/gear/import", { intent: "confirm", fileId: "x" }, admin),
+    );
     expect(bad.status).toBe(400);
   });
 
@@ -171,8 +248,13 @@ describe("CSV import", () => {
 
   it("imports 5,000 rows in one go and re-imports them unchanged", async () => {
     const { admin } = await adminWithSite();
-    const rows = Array.from({ length: 5000 }, (_, i) => `BULK-${String(i).padStart(4, "0")},shackle,Bow shackle ${i},,SN${i},2,t,bow,screw`);
-    const text = ["item_code,kind,description,manufacturer,serial,wll,wll_unit,shackle_type,pin_type", ...rows].join("\n");
+    const rows = Array.from(
+      { length: 5000 },
+      (_, i) => `BULK-${String(i).padStart(4, "0")},shackle,Bow shackle ${i},,SN${i},2,t,bow,screw`,
+    );
+    const text = ["item_code,kind,description,manufacturer,serial,wll,wll_unit,shackle_type,pin_type", ...rows].join(
+      "\n",
+    );
     const first = await previewFile(admin, text);
     expect(first.preview).toMatchObject({ rowCount: 5000, counts: { created: 5000 } });
     expect((await confirm(admin, first.preview!.fileId)).done).toMatchObject({ created: 5000 });

@@ -10,7 +10,13 @@ import { addDays, todayIso } from "~/gear/due";
 import { callRoute, getRequest, makeUser, postForm } from "../support/factories";
 import { adminWithSite, makeGearItem, SHACKLE_FIELDS } from "../support/gear";
 
-type RegisterData = { rows: Array<{ itemCode: string; dueState: string; siteName: string | null }>; total: number; pageCount: number; canEdit: boolean; due: { overdue: number; dueSoon: number } };
+type RegisterData = {
+  rows: Array<{ itemCode: string; dueState: string; siteName: string | null }>;
+  total: number;
+  pageCount: number;
+  canEdit: boolean;
+  due: { overdue: number; dueSoon: number };
+};
 
 async function registerAs(user: { id: number }, query = "") {
   const res = await callRoute(register.loader, await getRequest(`/gear${query}`, user));
@@ -20,21 +26,47 @@ async function registerAs(user: { id: number }, query = "") {
 describe("adding and editing gear", () => {
   it("an admin adds a shackle; the WLL is kept as marked and in kg, and the item page shows it", async () => {
     const { admin, site } = await adminWithSite();
-    const res = await callRoute(newItem.action, await postForm("/gear/new", { ...SHACKLE_FIELDS, homeSiteId: String(site.id) }, admin));
+    const res = await callRoute(
+      newItem.action,
+      await postForm("/gear/new", { ...SHACKLE_FIELDS, homeSiteId: String(site.id) }, admin),
+    );
     expect(res.status).toBe(302);
     const itemId = res.headers.get("Location")!.split("/").pop()!;
     const item = await GearItem.findByPk(Number(itemId));
-    expect(item).toMatchObject({ itemCode: "T-SH-1", wllValue: 2, wllUnit: "t", wllKg: 2000, shackleType: "bow", pinType: "screw", diameterMm: 13, homeSiteId: site.id, status: "in_service" });
+    expect(item).toMatchObject({
+      itemCode: "T-SH-1",
+      wllValue: 2,
+      wllUnit: "t",
+      wllKg: 2000,
+      shackleType: "bow",
+      pinType: "screw",
+      diameterMm: 13,
+      homeSiteId: site.id,
+      status: "in_service",
+    });
     const page = await callRoute(itemPage.loader, await getRequest(`/gear/${itemId}`, admin), { itemId });
-    expect(page.data).toMatchObject({ canAdmin: true, item: { itemCode: "T-SH-1", homeSite: { name: site.name }, dueState: "never_examined" }, examinations: [] });
+    expect(page.data).toMatchObject({
+      canAdmin: true,
+      item: { itemCode: "T-SH-1", homeSite: { name: site.name }, dueState: "never_examined" },
+      examinations: [],
+    });
     expect((page.data as { history: Array<{ action: string }> }).history.map((h) => h.action)).toEqual(["created"]);
   });
 
   it("converts a WLL marked in lb or US tons to kg with the exact factors (1 lb = 0.45359237 kg, international yard and pound agreement 1959)", async () => {
     const { admin } = await adminWithSite();
-    await callRoute(newItem.action, await postForm("/gear/new", { ...SHACKLE_FIELDS, itemCode: "US-1", wllValue: "2", wllUnit: "shortTon" }, admin));
-    await callRoute(newItem.action, await postForm("/gear/new", { ...SHACKLE_FIELDS, itemCode: "US-2", wllValue: "1000", wllUnit: "lb" }, admin));
-    const items = await GearItem.findAll({ where: { organisationId: admin.organisationId }, order: [["itemCode", "ASC"]] });
+    await callRoute(
+      newItem.action,
+      await postForm("/gear/new", { ...SHACKLE_FIELDS, itemCode: "US-1", wllValue: "2", wllUnit: "shortTon" }, admin),
+    );
+    await callRoute(
+      newItem.action,
+      await postForm("/gear/new", { ...SHACKLE_FIELDS, itemCode: "US-2", wllValue: "1000", wllUnit: "lb" }, admin),
+    );
+    const items = await GearItem.findAll({
+      where: { organisationId: admin.organisationId },
+      order: [["itemCode", "ASC"]],
+    });
     expect(items[0]!.wllKg).toBeCloseTo(1814.36948, 5);
     expect(items[1]!.wllKg).toBeCloseTo(453.59237, 5);
   });
@@ -53,7 +85,18 @@ describe("adding and editing gear", () => {
       [{ ...SHACKLE_FIELDS, shackleType: "" }, "shackleType"],
       [{ ...SHACKLE_FIELDS, thread: "M16" }, "thread"],
       [{ ...SHACKLE_FIELDS, homeSiteId: "999999" }, "homeSiteId"],
-      [{ ...SHACKLE_FIELDS, kind: "eyebolt", thread: "", eyeboltFamily: "collar", shackleType: "", pinType: "", diameterMm: "" }, "thread"],
+      [
+        {
+          ...SHACKLE_FIELDS,
+          kind: "eyebolt",
+          thread: "",
+          eyeboltFamily: "collar",
+          shackleType: "",
+          pinType: "",
+          diameterMm: "",
+        },
+        "thread",
+      ],
     ];
     for (const [fields, field] of cases) {
       const res = await callRoute(newItem.action, await postForm("/gear/new", fields, admin));
@@ -66,13 +109,23 @@ describe("adding and editing gear", () => {
   it("an admin edits an item; the change is in its history and the status is untouched", async () => {
     const { admin } = await adminWithSite();
     const item = await makeGearItem(admin, { itemCode: "E-1" });
-    const res = await callRoute(editItem.action, await postForm(`/gear/${item.id}/edit`, { ...SHACKLE_FIELDS, itemCode: "E-1", wllValue: "3.25", status: "withdrawn" }, admin), { itemId: String(item.id) });
+    const res = await callRoute(
+      editItem.action,
+      await postForm(
+        `/gear/${item.id}/edit`,
+        { ...SHACKLE_FIELDS, itemCode: "E-1", wllValue: "3.25", status: "withdrawn" },
+        admin,
+      ),
+      { itemId: String(item.id) },
+    );
     expect(res.status).toBe(302);
     await item.reload();
     expect(item.wllKg).toBe(3250);
     expect(item.status).toBe("in_service");
     const audit = await AuditEvent.findOne({ where: { entity: "gear_item", entityId: item.id, action: "updated" } });
-    expect(JSON.parse(audit!.details!).fields).toEqual(expect.arrayContaining(["wllValue", "description", "diameterMm"]));
+    expect(JSON.parse(audit!.details!).fields).toEqual(
+      expect.arrayContaining(["wllValue", "description", "diameterMm"]),
+    );
   });
 });
 
@@ -85,19 +138,37 @@ describe("who may do what", () => {
       const list = await registerAs(user);
       expect(list.canEdit, role).toBe(false);
       expect(list.rows.map((r) => r.itemCode)).toEqual(["R-1"]);
-      const page = await callRoute(itemPage.loader, await getRequest(`/gear/${item.id}`, user), { itemId: String(item.id) });
+      const page = await callRoute(itemPage.loader, await getRequest(`/gear/${item.id}`, user), {
+        itemId: String(item.id),
+      });
       expect(page.data).toMatchObject({ canAdmin: false });
       expect((await callRoute(newItem.loader, await getRequest("/gear/new", user))).status, role).toBe(403);
-      expect((await callRoute(newItem.action, await postForm("/gear/new", { ...SHACKLE_FIELDS, itemCode: "NO" }, user))).status, role).toBe(403);
-      const edit = await callRoute(editItem.action, await postForm(`/gear/${item.id}/edit`, { ...SHACKLE_FIELDS, itemCode: "R-1", wllValue: "9" }, user), { itemId: String(item.id) });
+      expect(
+        (await callRoute(newItem.action, await postForm("/gear/new", { ...SHACKLE_FIELDS, itemCode: "NO" }, user)))
+          .status,
+        role,
+      ).toBe(403);
+      const edit = await callRoute(
+        editItem.action,
+        await postForm(`/gear/${item.id}/edit`, { ...SHACKLE_FIELDS, itemCode: "R-1", wllValue: "9" }, user),
+        { itemId: String(item.id) },
+      );
       expect(edit.status, role).toBe(403);
       const exam = await callRoute(
         itemPage.action,
-        await postForm(`/gear/${item.id}`, { intent: "examination", examinedOn: todayIso(), examiner: "X", result: "pass" }, user),
+        await postForm(
+          `/gear/${item.id}`,
+          { intent: "examination", examinedOn: todayIso(), examiner: "X", result: "pass" },
+          user,
+        ),
         { itemId: String(item.id) },
       );
       expect(exam.status, role).toBe(403);
-      const status = await callRoute(itemPage.action, await postForm(`/gear/${item.id}`, { intent: "status", status: "withdrawn", reason: "no" }, user), { itemId: String(item.id) });
+      const status = await callRoute(
+        itemPage.action,
+        await postForm(`/gear/${item.id}`, { intent: "status", status: "withdrawn", reason: "no" }, user),
+        { itemId: String(item.id) },
+      );
       expect(status.status, role).toBe(403);
     }
     await item.reload();
@@ -116,17 +187,30 @@ describe("who may do what", () => {
     const item = await makeGearItem(admin, { itemCode: "MINE" });
     const stranger = await makeUser(["admin", "rigger"]);
     const itemId = String(item.id);
-    expect((await callRoute(itemPage.loader, await getRequest(`/gear/${itemId}`, stranger), { itemId })).status).toBe(404);
-    expect((await callRoute(editItem.loader, await getRequest(`/gear/${itemId}/edit`, stranger), { itemId })).status).toBe(404);
+    expect((await callRoute(itemPage.loader, await getRequest(`/gear/${itemId}`, stranger), { itemId })).status).toBe(
+      404,
+    );
+    expect(
+      (await callRoute(editItem.loader, await getRequest(`/gear/${itemId}/edit`, stranger), { itemId })).status,
+    ).toBe(404);
     const posts: Array<Record<string, string>> = [
       { ...SHACKLE_FIELDS, itemCode: "HIJACK" },
       { intent: "examination", examinedOn: todayIso(), examiner: "X", result: "fail", defects: "none" },
       { intent: "status", status: "withdrawn", reason: "theirs" },
       { intent: "defect", defect: "sabotage" },
     ];
-    expect((await callRoute(editItem.action, await postForm(`/gear/${itemId}/edit`, posts[0]!, stranger), { itemId })).status).toBe(404);
-    for (const fields of posts.slice(1)) expect((await callRoute(itemPage.action, await postForm(`/gear/${itemId}`, fields, stranger), { itemId })).status).toBe(404);
-    expect((await callRoute(itemPage.loader, await getRequest("/gear/not-a-number", stranger), { itemId: "not-a-number" })).status).toBe(404);
+    expect(
+      (await callRoute(editItem.action, await postForm(`/gear/${itemId}/edit`, posts[0]!, stranger), { itemId }))
+        .status,
+    ).toBe(404);
+    for (const fields of posts.slice(1))
+      expect(
+        (await callRoute(itemPage.action, await postForm(`/gear/${itemId}`, fields, stranger), { itemId })).status,
+      ).toBe(404);
+    expect(
+      (await callRoute(itemPage.loader, await getRequest("/gear/not-a-number", stranger), { itemId: "not-a-number" }))
+        .status,
+    ).toBe(404);
     await item.reload();
     expect(item).toMatchObject({ itemCode: "MINE", status: "in_service", nextDueOn: null });
     expect((await registerAs(stranger)).total).toBe(0);
@@ -146,7 +230,11 @@ describe("the register's filters, search, sort and pages", () => {
     await make("B-SOON", {}, addDays(today, 30));
     await make("C-TODAY", {}, today);
     await make("D-LATER", { homeSiteId: site.id }, addDays(today, 31));
-    await make("E-NEVER", { kind: "crane", shackleType: null, pinType: null, hookHeightM: 5.2, wllValue: 5, homeSiteId: site.id }, null);
+    await make(
+      "E-NEVER",
+      { kind: "crane", shackleType: null, pinType: null, hookHeightM: 5.2, wllValue: 5, homeSiteId: site.id },
+      null,
+    );
     const gone = await make("F-GONE", { serial: "ZX-99" }, addDays(today, -40));
     await gone.update({ status: "withdrawn" });
     return { admin, site };

@@ -46,7 +46,9 @@ describe("examination reminders", () => {
 
   it("escapes item text in the HTML table", async () => {
     const { admin } = await adminWithSite();
-    await makeGearItem(admin, { itemCode: "H-1", description: "<script>x</script>" }).then((i) => i.update({ nextDueOn: TODAY }));
+    await makeGearItem(admin, { itemCode: "H-1", description: "<script>x</script>" }).then((i) =>
+      i.update({ nextDueOn: TODAY }),
+    );
     await sendExaminationReminders(TODAY);
     const [mail] = await listCaughtMail(admin.organisationId);
     expect(mail!.htmlBody).toContain("&lt;script&gt;x&lt;/script&gt;");

@@ -30,16 +30,34 @@ describe("an approved revision is frozen through every route", () => {
 
     const put = await callRoute(
       planApi.action,
-      await jsonRequest(`/api/plans/${plan.id}`, { version: before.version, title: "Changed", arrangement: found.revision.arrangement, rigging: found.revision.rigging, details: found.revision.details }, planner),
+      await jsonRequest(
+        `/api/plans/${plan.id}`,
+        {
+          version: before.version,
+          title: "Changed",
+          arrangement: found.revision.arrangement,
+          rigging: found.revision.rigging,
+          details: found.revision.details,
+        },
+        planner,
+      ),
       params,
     );
     expect(put.status).toBe(409);
     expect(put.data).toMatchObject({ code: "frozen" });
 
-    const form = await callRoute(planDetails.action, await postForm(`/plans/${plan.id}/details`, details(before.version), planner), params);
+    const form = await callRoute(
+      planDetails.action,
+      await postForm(`/plans/${plan.id}/details`, details(before.version), planner),
+      params,
+    );
     expect(form.status).toBe(409);
 
-    const pull = await callRoute(planPage.action, await postForm(`/plans/${plan.id}`, { intent: "pull-component", version: String(before.version) }, planner), params);
+    const pull = await callRoute(
+      planPage.action,
+      await postForm(`/plans/${plan.id}`, { intent: "pull-component", version: String(before.version) }, planner),
+      params,
+    );
     expect(pull.status).toBe(409);
 
     const again = await callRoute(submit.action, await postForm(`/plans/${plan.id}/submit`, {}, planner), params);

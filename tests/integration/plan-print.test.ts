@@ -67,16 +67,28 @@ describe("printing", () => {
     await approveRevision(org, plan.id, approver, { password: TEST_PASSWORD, typedName: approver.name, comment: "" });
     const after = await callRoute(verify.loader, await getRequest(`/verify/${token}`, planner), { token });
     expect(after.data).toMatchObject({ found: { status: "superseded", supersededByRevision: 2 }, canOpen: true });
-    const reprinted = await print.loader({ request: await getRequest(`/plans/${plan.id}/print.pdf`, planner), params: { planId: String(plan.id) }, context: {} } as never);
+    const reprinted = await print.loader({
+      request: await getRequest(`/plans/${plan.id}/print.pdf`, planner),
+      params: { planId: String(plan.id) },
+      context: {},
+    } as never);
     expect(pdfText(new Uint8Array(await reprinted.arrayBuffer()))).toMatch(/Revision 2/);
-    const unknown = await callRoute(verify.loader, new Request("http://localhost:3000/verify/not-a-real-token-at-all"), { token: "not-a-real-token-at-all" });
+    const unknown = await callRoute(
+      verify.loader,
+      new Request("http://localhost:3000/verify/not-a-real-token-at-all"),
+      { token: "not-a-real-token-at-all" },
+    );
     expect(unknown.data).toEqual({ found: null, canOpen: false });
   });
 
   it("another organisation cannot print the plan", async () => {
     const { planner, approver, plan } = await readyPlan();
     await submitRevision(planner.organisationId, plan.id, planner, {});
-    await approveRevision(planner.organisationId, plan.id, approver, { password: TEST_PASSWORD, typedName: approver.name, comment: "" });
+    await approveRevision(planner.organisationId, plan.id, approver, {
+      password: TEST_PASSWORD,
+      typedName: approver.name,
+      comment: "",
+    });
     const stranger = await makeUser(["rigger"]);
     expect((await printRequest(plan.id, stranger)).status).toBe(404);
   });

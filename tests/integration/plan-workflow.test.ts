@@ -18,7 +18,10 @@ import { makeUser, TEST_PASSWORD } from "../support/factories";
 import { makePlan } from "../support/plans";
 import { allowSelfApproval, readyPlan } from "../support/workflow";
 
-const allTicked = Object.fromEntries(PRE_LIFT_CHECKLIST.map((c) => [c.id, true])) as Record<(typeof PRE_LIFT_CHECKLIST)[number]["id"], boolean>;
+const allTicked = Object.fromEntries(PRE_LIFT_CHECKLIST.map((c) => [c.id, true])) as Record<
+  (typeof PRE_LIFT_CHECKLIST)[number]["id"],
+  boolean
+>;
 
 async function status(planId: number, org: number) {
   return (await getPlan(org, planId))!.revision.status;
@@ -36,22 +39,47 @@ describe("a plan moves from draft to completed", () => {
     expect(await status(plan.id, org)).toBe("in_review");
     expect((await mailTo(org, approver.email))[0]?.subject).toMatch(/Lift plan to review/);
 
-    const approved = await approveRevision(org, plan.id, approver, { password: TEST_PASSWORD, typedName: " avery  approver ", comment: "Trial lift to 100 mm." });
+    const approved = await approveRevision(org, plan.id, approver, {
+      password: TEST_PASSWORD,
+      typedName: " avery  approver ",
+      comment: "Trial lift to 100 mm.",
+    });
     expect(approved).toEqual({ ok: true, revision: 1, title: plan.title, plannerId: planner.id, selfApproved: false });
     const row = (await PlanRevision.findOne({ where: { planId: plan.id } }))!;
     expect(row.status).toBe("approved");
     expect(row.fingerprint).toMatch(/^[0-9a-f]{64}$/);
     expect(row.approverName).toBe("Avery Approver");
-    expect((await mailTo(org, planner.email)).map((m) => m.subject)).toContain(`Lift plan approved: ${plan.title} (revision 1)`);
+    expect((await mailTo(org, planner.email)).map((m) => m.subject)).toContain(
+      `Lift plan approved: ${plan.title} (revision 1)`,
+    );
 
     expect((await assignRigger(org, plan.id, approver, rigger.id)).ok).toBe(true);
     expect((await mailTo(org, rigger.email))[0]?.subject).toMatch(/Lift assigned to you/);
 
-    expect((await recordLift(org, plan.id, rigger, { checklist: allTicked, liftedAt: new Date(Date.now() - 60_000), notes: "Landed on dowels first time.", nearMiss: false, nearMissDetails: "" })).ok).toBe(true);
+    expect(
+      (
+        await recordLift(org, plan.id, rigger, {
+          checklist: allTicked,
+          liftedAt: new Date(Date.now() - 60_000),
+          notes: "Landed on dowels first time.",
+          nearMiss: false,
+          nearMissDetails: "",
+        })
+      ).ok,
+    ).toBe(true);
     expect(await status(plan.id, org)).toBe("completed");
 
     const history = (await listPlanHistory(org, plan.id)).map((h) => h.action);
-    expect(history).toEqual(expect.arrayContaining(["created", "saved", "submitted for review", "approved", "rigger assigned", "lift recorded"]));
+    expect(history).toEqual(
+      expect.arrayContaining([
+        "created",
+        "saved",
+        "submitted for review",
+        "approved",
+        "rigger assigned",
+        "lift recorded",
+      ]),
+    );
     expect(history.indexOf("approved")).toBeGreaterThan(history.indexOf("submitted for review"));
   });
 
@@ -59,8 +87,16 @@ describe("a plan moves from draft to completed", () => {
     const { planner, approver, plan } = await readyPlan();
     const org = planner.organisationId;
     await submitRevision(org, plan.id, planner, {});
-    expect(await approveRevision(org, plan.id, approver, { password: "guess", typedName: approver.name, comment: "" })).toMatchObject({ ok: false, status: 400, field: "password" });
-    expect(await approveRevision(org, plan.id, approver, { password: TEST_PASSWORD, typedName: "Someone Else", comment: "" })).toMatchObject({ ok: false, status: 400, field: "typedName" });
+    expect(
+      await approveRevision(org, plan.id, approver, { password: "guess", typedName: approver.name, comment: "" }),
+    ).toMatchObject({ ok: false, status: 400, field: "password" });
+    expect(
+      await approveRevision(org, plan.id, approver, {
+        password: TEST_PASSWORD,
+        typedName: "Someone Else",
+        comment: "",
+      }),
+    ).toMatchObject({ ok: false, status: 400, field: "typedName" });
     expect(await status(plan.id, org)).toBe("in_review");
   });
 
@@ -69,12 +105,35 @@ describe("a plan moves from draft to completed", () => {
     const org = planner.organisationId;
     const both = await makeUser(["planner", "approver"], { organisationId: org, name: "Sam Both" });
     const found = (await getPlan(org, plan.id))!;
-    await savePlanRevision(org, plan.id, found.revision.version, { title: plan.title, arrangement: found.revision.arrangement, rigging: found.revision.rigging, details: found.revision.details }, both.id);
+    await savePlanRevision(
+      org,
+      plan.id,
+      found.revision.version,
+      {
+        title: plan.title,
+        arrangement: found.revision.arrangement,
+        rigging: found.revision.rigging,
+        details: found.revision.details,
+      },
+      both.id,
+    );
     await submitRevision(org, plan.id, both, {});
-    const refused = await approveRevision(org, plan.id, both, { password: TEST_PASSWORD, typedName: "Sam Both", comment: "" });
-    expect(refused).toMatchObject({ ok: false, status: 409, message: "You planned this revision: another appointed person must approve it." });
+    const refused = await approveRevision(org, plan.id, both, {
+      password: TEST_PASSWORD,
+      typedName: "Sam Both",
+      comment: "",
+    });
+    expect(refused).toMatchObject({
+      ok: false,
+      status: 409,
+      message: "You planned this revision: another appointed person must approve it.",
+    });
     await allowSelfApproval(both);
-    const allowed = await approveRevision(org, plan.id, both, { password: TEST_PASSWORD, typedName: "Sam Both", comment: "" });
+    const allowed = await approveRevision(org, plan.id, both, {
+      password: TEST_PASSWORD,
+      typedName: "Sam Both",
+      comment: "",
+    });
     expect(allowed).toMatchObject({ ok: true, selfApproved: true });
   });
 
@@ -83,7 +142,11 @@ describe("a plan moves from draft to completed", () => {
     const org = planner.organisationId;
     await submitRevision(org, plan.id, planner, {});
     await gear.eyeboltA.update({ nextDueOn: "2001-01-01" });
-    const refused = await approveRevision(org, plan.id, approver, { password: TEST_PASSWORD, typedName: approver.name, comment: "" });
+    const refused = await approveRevision(org, plan.id, approver, {
+      password: TEST_PASSWORD,
+      typedName: approver.name,
+      comment: "",
+    });
     expect(refused.ok).toBe(false);
     if (refused.ok) return;
     expect(refused.message).toContain(gear.eyeboltA.itemCode);
@@ -103,7 +166,12 @@ describe("a plan moves from draft to completed", () => {
     const results = (await getPlan(planner.organisationId, plan.id))!.revision.results;
     expect(results.status === 200 && results.body.checks?.some((c) => c.id.startsWith("angle-"))).toBe(true);
     const refused = await submitRevision(planner.organisationId, plan.id, planner, {});
-    expect(refused).toEqual({ ok: false, status: 409, message: "No gear is allocated, so nothing has been checked: allocate the rigging before submitting.", field: undefined });
+    expect(refused).toEqual({
+      ok: false,
+      status: 409,
+      message: "No gear is allocated, so nothing has been checked: allocate the rigging before submitting.",
+      field: undefined,
+    });
     expect(await status(plan.id, planner.organisationId)).toBe("draft");
   });
 
@@ -114,9 +182,22 @@ describe("a plan moves from draft to completed", () => {
     expect(await returnRevision(org, plan.id, approver, "no")).toMatchObject({ ok: false, field: "comment" });
     expect((await returnRevision(org, plan.id, approver, "Use the 10 mm chain on both legs.")).ok).toBe(true);
     expect(await status(plan.id, org)).toBe("returned");
-    expect((await mailTo(org, planner.email)).some((m) => m.textBody.includes("Use the 10 mm chain on both legs."))).toBe(true);
+    expect(
+      (await mailTo(org, planner.email)).some((m) => m.textBody.includes("Use the 10 mm chain on both legs.")),
+    ).toBe(true);
     const found = (await getPlan(org, plan.id))!;
-    const saved = await savePlanRevision(org, plan.id, found.revision.version, { title: plan.title, arrangement: found.revision.arrangement, rigging: found.revision.rigging, details: found.revision.details }, planner.id);
+    const saved = await savePlanRevision(
+      org,
+      plan.id,
+      found.revision.version,
+      {
+        title: plan.title,
+        arrangement: found.revision.arrangement,
+        rigging: found.revision.rigging,
+        details: found.revision.details,
+      },
+      planner.id,
+    );
     expect(saved.status).toBe("saved");
     expect(await status(plan.id, org)).toBe("draft");
     expect((await submitRevision(org, plan.id, planner, {})).ok).toBe(true);
@@ -128,7 +209,13 @@ describe("a plan moves from draft to completed", () => {
     await submitRevision(org, plan.id, planner, {});
     await approveRevision(org, plan.id, approver, { password: TEST_PASSWORD, typedName: approver.name, comment: "" });
     const first = (await PlanRevision.findOne({ where: { planId: plan.id, revision: 1 } }))!;
-    const frozen = await savePlanRevision(org, plan.id, first.version, { title: plan.title, ...(await getPlan(org, plan.id))!.revision }, planner.id);
+    const frozen = await savePlanRevision(
+      org,
+      plan.id,
+      first.version,
+      { title: plan.title, ...(await getPlan(org, plan.id))!.revision },
+      planner.id,
+    );
     expect(frozen.status).toBe("frozen");
 
     expect(await startNewRevision(org, plan.id, planner)).toEqual({ ok: true, revision: 2 });
@@ -148,9 +235,21 @@ describe("a plan moves from draft to completed", () => {
     const org = planner.organisationId;
     await submitRevision(org, plan.id, planner, {});
     await approveRevision(org, plan.id, approver, { password: TEST_PASSWORD, typedName: approver.name, comment: "" });
-    const missing = await recordLift(org, plan.id, rigger, { checklist: { ...allTicked, "trial-lift": false }, liftedAt: new Date(), notes: "", nearMiss: false, nearMissDetails: "" });
+    const missing = await recordLift(org, plan.id, rigger, {
+      checklist: { ...allTicked, "trial-lift": false },
+      liftedAt: new Date(),
+      notes: "",
+      nearMiss: false,
+      nearMissDetails: "",
+    });
     expect(missing).toMatchObject({ ok: false, status: 400, field: "check-trial-lift" });
-    const notRigger = await recordLift(org, plan.id, planner, { checklist: allTicked, liftedAt: new Date(), notes: "", nearMiss: false, nearMissDetails: "" });
+    const notRigger = await recordLift(org, plan.id, planner, {
+      checklist: allTicked,
+      liftedAt: new Date(),
+      notes: "",
+      nearMiss: false,
+      nearMissDetails: "",
+    });
     expect(notRigger).toMatchObject({ ok: false, status: 403 });
     expect(await status(plan.id, org)).toBe("approved");
   });
@@ -161,12 +260,23 @@ describe("a plan moves from draft to completed", () => {
     await submitRevision(org, plan.id, planner, {});
     expect((await cancelPlan(org, plan.id, planner, "Customer postponed the overhaul.")).ok).toBe(true);
     expect(await status(plan.id, org)).toBe("cancelled");
-    expect((await approveRevision(org, plan.id, approver, { password: TEST_PASSWORD, typedName: approver.name, comment: "" })).ok).toBe(false);
+    expect(
+      (
+        await approveRevision(org, plan.id, approver, {
+          password: TEST_PASSWORD,
+          typedName: approver.name,
+          comment: "",
+        })
+      ).ok,
+    ).toBe(false);
   });
 
   it("another organisation's plan is not found", async () => {
     const { plan } = await readyPlan();
     const stranger = await makeUser(["planner", "approver"]);
-    expect(await submitRevision(stranger.organisationId, plan.id, stranger, {})).toMatchObject({ ok: false, status: 404 });
+    expect(await submitRevision(stranger.organisationId, plan.id, stranger, {})).toMatchObject({
+      ok: false,
+      status: 404,
+    });
   });
 });

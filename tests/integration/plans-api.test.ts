@@ -20,21 +20,39 @@ type PlanBody = {
   snapshot: { massKg: number };
   componentVersion: number;
   latestComponentVersion: number;
-  results: { status: number; kind: string; body: { legs: Array<{ liftPointId: string; tensionKg: number; angleFromVerticalDeg: number }>; checks?: Array<{ id: string; status: string }>; error?: string } };
+  results: {
+    status: number;
+    kind: string;
+    body: {
+      legs: Array<{ liftPointId: string; tensionKg: number; angleFromVerticalDeg: number }>;
+      checks?: Array<{ id: string; status: string }>;
+      error?: string;
+    };
+  };
 };
 
 async function getPlanBody(planId: number, user: { id: number }) {
-  const res = await callRoute(planApi.loader, await getRequest(`/api/plans/${planId}`, user), { planId: String(planId) });
+  const res = await callRoute(planApi.loader, await getRequest(`/api/plans/${planId}`, user), {
+    planId: String(planId),
+  });
   expect(res.status).toBe(200);
   return res.data as PlanBody;
 }
 
 function documentOf(body: PlanBody) {
-  return { version: body.version, title: body.title, arrangement: body.arrangement, rigging: body.rigging, details: body.details };
+  return {
+    version: body.version,
+    title: body.title,
+    arrangement: body.arrangement,
+    rigging: body.rigging,
+    details: body.details,
+  };
 }
 
 async function put(planId: number, payload: unknown, user: { id: number }) {
-  return callRoute(planApi.action, await jsonRequest(`/api/plans/${planId}`, payload, user), { planId: String(planId) });
+  return callRoute(planApi.action, await jsonRequest(`/api/plans/${planId}`, payload, user), {
+    planId: String(planId),
+  });
 }
 
 async function revisionRow(planId: number) {
@@ -46,7 +64,13 @@ describe("plans API", () => {
     const planner = await makeUser(["planner"]);
     const { plan, component } = await makePlan(planner);
     const body = await getPlanBody(plan.id, planner);
-    expect(body).toMatchObject({ status: "draft", version: 1, componentVersion: 1, latestComponentVersion: 1, arrangement: { kind: "bridle", mode: "level", liftPointLabels: ["A", "B"] } });
+    expect(body).toMatchObject({
+      status: "draft",
+      version: 1,
+      componentVersion: 1,
+      latestComponentVersion: 1,
+      arrangement: { kind: "bridle", mode: "level", liftPointLabels: ["A", "B"] },
+    });
     expect(body.results.status).toBe(200);
     // Hook 800 / tan 30 deg above the lift points: each leg 30 deg from vertical, inside the 45 deg warning.
     for (const leg of body.results.body.legs) expect(leg.angleFromVerticalDeg).toBeCloseTo(30, 1);
@@ -63,14 +87,27 @@ describe("plans API", () => {
   it("a PUT stores results computed on the server, equal to /api/solve's for the same geometry, whatever figures the client sends", async () => {
     const planner = await makeUser(["planner"]);
     const { plan } = await makePlan(planner);
-    const eyeboltA = await makeGear(planner.organisationId, "eyebolt", { wllKg: 3200, thread: "M20", eyeboltFamily: "collar" });
-    const eyeboltB = await makeGear(planner.organisationId, "eyebolt", { wllKg: 3200, thread: "M20", eyeboltFamily: "collar" });
+    const eyeboltA = await makeGear(planner.organisationId, "eyebolt", {
+      wllKg: 3200,
+      thread: "M20",
+      eyeboltFamily: "collar",
+    });
+    const eyeboltB = await makeGear(planner.organisationId, "eyebolt", {
+      wllKg: 3200,
+      thread: "M20",
+      eyeboltFamily: "collar",
+    });
     const body = await getPlanBody(plan.id, planner);
     const payload = {
       ...documentOf(body),
       title: "Lift the element onto the skid",
       arrangement: { ...body.arrangement, hookHeightM: 1.7 },
-      rigging: { legs: { A: { eyeboltItemId: eyeboltA.id, hitch: "straight" }, B: { eyeboltItemId: eyeboltB.id, hitch: "straight" } } },
+      rigging: {
+        legs: {
+          A: { eyeboltItemId: eyeboltA.id, hitch: "straight" },
+          B: { eyeboltItemId: eyeboltB.id, hitch: "straight" },
+        },
+      },
       results: { status: 200, body: { legs: [{ liftPointId: "A", tensionKg: 1 }] } },
     };
     const res = await put(plan.id, payload, planner);
@@ -94,7 +131,9 @@ describe("plans API", () => {
     expect(expected.status).toBe(200);
     if (expected.status !== 200) return;
     expect(saved.results.body.legs).toEqual(expected.body.legs);
-    expect(saved.results.body.checks?.map((c) => c.id)).toEqual(expect.arrayContaining(["eyebolt-A", "eyebolt-B", `inspection-${eyeboltA.itemCode}`]));
+    expect(saved.results.body.checks?.map((c) => c.id)).toEqual(
+      expect.arrayContaining(["eyebolt-A", "eyebolt-B", `inspection-${eyeboltA.itemCode}`]),
+    );
     const stored = JSON.parse((await revisionRow(plan.id)).results) as PlanBody["results"];
     expect(stored.body.legs).toEqual(expected.body.legs);
   });
@@ -139,7 +178,13 @@ describe("plans API", () => {
     const { plan } = await makePlan(planner);
     const body = await getPlanBody(plan.id, planner);
     const stranger = await makeUser(["planner"]);
-    expect((await callRoute(planApi.loader, await getRequest(`/api/plans/${plan.id}`, stranger), { planId: String(plan.id) })).status).toBe(404);
+    expect(
+      (
+        await callRoute(planApi.loader, await getRequest(`/api/plans/${plan.id}`, stranger), {
+          planId: String(plan.id),
+        })
+      ).status,
+    ).toBe(404);
     expect((await put(plan.id, { ...documentOf(body), title: "Hijack" }, stranger)).status).toBe(404);
     expect((await getPlanBody(plan.id, planner)).title).toBe("Lift the element out");
     const list = await callRoute(planList.loader, await getRequest("/api/plans", stranger));
@@ -149,7 +194,9 @@ describe("plans API", () => {
   it("anonymous requests get 401 JSON", async () => {
     const planner = await makeUser(["planner"]);
     const { plan } = await makePlan(planner);
-    expect((await callRoute(planApi.loader, await getRequest(`/api/plans/${plan.id}`), { planId: String(plan.id) })).status).toBe(401);
+    expect(
+      (await callRoute(planApi.loader, await getRequest(`/api/plans/${plan.id}`), { planId: String(plan.id) })).status,
+    ).toBe(401);
     expect((await callRoute(planList.loader, await getRequest("/api/plans"))).status).toBe(401);
   });
 
@@ -165,10 +212,16 @@ describe("plans API", () => {
       [{ ...documentOf(body), arrangement: { ...body.arrangement, hookHeightM: "high" } }, /hook height/],
       [{ ...documentOf(body), arrangement: { ...body.arrangement, liftPointLabels: ["A", "A"] } }, /listed twice/],
       [{ ...documentOf(body), arrangement: { ...body.arrangement, liftPointLabels: ["A", "Z"] } }, /no lift point Z/],
-      [{ ...documentOf(body), arrangement: { ...body.arrangement, liftPointLabels: ["A", "B", "C", "D", "E"] } }, /at most four/],
+      [
+        { ...documentOf(body), arrangement: { ...body.arrangement, liftPointLabels: ["A", "B", "C", "D", "E"] } },
+        /at most four/,
+      ],
       [{ ...documentOf(body), details: { ...body.details, floorClearanceM: -1 } }, /floor clearance/],
       [{ ...documentOf(body), details: { ...body.details, sequence: [] } }, /at least one step/],
-      [{ ...documentOf(body), rigging: { legs: { A: { slingItemId: 999999, hitch: "straight" } } } }, /no gear item 999999/],
+      [
+        { ...documentOf(body), rigging: { legs: { A: { slingItemId: 999999, hitch: "straight" } } } },
+        /no gear item 999999/,
+      ],
       [{ ...documentOf(body), title: "" }, /title/],
     ];
     for (const [payload, message] of bad) {
@@ -186,14 +239,37 @@ describe("plans API", () => {
     const { plan } = await makePlan(planner);
     const body = await getPlanBody(plan.id, planner);
     const stranger = await makeUser(["planner"]);
-    const theirs = await makeGear(stranger.organisationId, "eyebolt", { wllKg: 3200, thread: "M20", eyeboltFamily: "collar" });
-    const shackle = await makeGear(planner.organisationId, "shackle", { wllKg: 3250, shackleType: "bow", pinType: "screw" });
-    const foreign = await put(plan.id, { ...documentOf(body), rigging: { legs: { A: { eyeboltItemId: theirs.id } } } }, planner);
+    const theirs = await makeGear(stranger.organisationId, "eyebolt", {
+      wllKg: 3200,
+      thread: "M20",
+      eyeboltFamily: "collar",
+    });
+    const shackle = await makeGear(planner.organisationId, "shackle", {
+      wllKg: 3250,
+      shackleType: "bow",
+      pinType: "screw",
+    });
+    const foreign = await put(
+      plan.id,
+      { ...documentOf(body), rigging: { legs: { A: { eyeboltItemId: theirs.id } } } },
+      planner,
+    );
     expect(foreign.status).toBe(400);
-    const wrongKind = await put(plan.id, { ...documentOf(body), rigging: { legs: { A: { eyeboltItemId: shackle.id } } } }, planner);
+    const wrongKind = await put(
+      plan.id,
+      { ...documentOf(body), rigging: { legs: { A: { eyeboltItemId: shackle.id } } } },
+      planner,
+    );
     expect(wrongKind.status).toBe(400);
     expect((wrongKind.data as { error: string }).error).toMatch(/is a shackle, not an eyebolt/);
-    const twice = await put(plan.id, { ...documentOf(body), rigging: { legs: { A: { shackleItemId: shackle.id }, B: { shackleItemId: shackle.id } } } }, planner);
+    const twice = await put(
+      plan.id,
+      {
+        ...documentOf(body),
+        rigging: { legs: { A: { shackleItemId: shackle.id }, B: { shackleItemId: shackle.id } } },
+      },
+      planner,
+    );
     expect(twice.status).toBe(400);
     expect((await revisionRow(plan.id)).version).toBe(1);
   });
@@ -202,9 +278,26 @@ describe("plans API", () => {
     const planner = await makeUser(["planner"]);
     const { plan } = await makePlan(planner);
     const body = await getPlanBody(plan.id, planner);
-    const overdue = await makeGear(planner.organisationId, "eyebolt", { wllKg: 3200, thread: "M20", eyeboltFamily: "collar", nextDueOn: "2000-01-01" });
-    const quarantined = await makeGear(planner.organisationId, "eyebolt", { wllKg: 3200, thread: "M20", eyeboltFamily: "collar", status: "quarantined" });
-    const res = await put(plan.id, { ...documentOf(body), rigging: { legs: { A: { eyeboltItemId: overdue.id }, B: { eyeboltItemId: quarantined.id } } } }, planner);
+    const overdue = await makeGear(planner.organisationId, "eyebolt", {
+      wllKg: 3200,
+      thread: "M20",
+      eyeboltFamily: "collar",
+      nextDueOn: "2000-01-01",
+    });
+    const quarantined = await makeGear(planner.organisationId, "eyebolt", {
+      wllKg: 3200,
+      thread: "M20",
+      eyeboltFamily: "collar",
+      status: "quarantined",
+    });
+    const res = await put(
+      plan.id,
+      {
+        ...documentOf(body),
+        rigging: { legs: { A: { eyeboltItemId: overdue.id }, B: { eyeboltItemId: quarantined.id } } },
+      },
+      planner,
+    );
     expect(res.status).toBe(200);
     const checks = (res.data as PlanBody).results.body.checks ?? [];
     expect(checks.find((c) => c.id === `inspection-${overdue.itemCode}`)?.status).toBe("fail");
@@ -221,7 +314,13 @@ describe("plans API", () => {
       plan.id,
       {
         ...documentOf(body),
-        arrangement: { kind: "beam", mode: "level", hookHeightM: 2.5, liftPointLabels: ["A", "B"], beam: { massKg: 120, wllKg: 2500, lengthM: 2, dropLengthM: 0.8 } },
+        arrangement: {
+          kind: "beam",
+          mode: "level",
+          hookHeightM: 2.5,
+          liftPointLabels: ["A", "B"],
+          beam: { massKg: 120, wllKg: 2500, lengthM: 2, dropLengthM: 0.8 },
+        },
         rigging: { legs: {}, craneItemId: crane.id },
       },
       planner,
@@ -247,7 +346,14 @@ describe("plans API", () => {
     expect(res.data).toEqual(
       expect.arrayContaining([
         { id: plan.id, title: "Lift the element out", status: "draft", revision: 1, version: 1, jobId: job.id },
-        { id: second.plan.id, title: "Lift the element out", status: "draft", revision: 1, version: 1, jobId: second.job.id },
+        {
+          id: second.plan.id,
+          title: "Lift the element out",
+          status: "draft",
+          revision: 1,
+          version: 1,
+          jobId: second.job.id,
+        },
       ]),
     );
     const forJob = await callRoute(planList.loader, await getRequest(`/api/plans?jobId=${job.id}`, planner));

@@ -15,7 +15,8 @@ type Body = {
 };
 
 async function load(planId: number, user: { id: number }) {
-  return (await callRoute(planApi.loader, await getRequest(`/api/plans/${planId}`, user), { planId: String(planId) })).data as Body;
+  return (await callRoute(planApi.loader, await getRequest(`/api/plans/${planId}`, user), { planId: String(planId) }))
+    .data as Body;
 }
 
 describe("moving the CoG and lift points in the editor", () => {
@@ -37,7 +38,9 @@ describe("moving the CoG and lift points in the editor", () => {
         ],
       },
     };
-    const res = await callRoute(planApi.action, await jsonRequest(`/api/plans/${plan.id}`, payload, planner, "PUT"), { planId: String(plan.id) });
+    const res = await callRoute(planApi.action, await jsonRequest(`/api/plans/${plan.id}`, payload, planner, "PUT"), {
+      planId: String(plan.id),
+    });
     expect(res.status).toBe(200);
     const after = res.data as Body;
     expect(after.snapshot.cog.x).toBe(0.4);
@@ -59,7 +62,9 @@ describe("moving the CoG and lift points in the editor", () => {
       details: before.details,
       load: { cog: { x: 0, y: 0, z: 0.5 }, liftPoints: [{ label: "Z", position: { x: 0, y: 0, z: 1 } }] },
     };
-    const res = await callRoute(planApi.action, await jsonRequest(`/api/plans/${plan.id}`, payload, planner, "PUT"), { planId: String(plan.id) });
+    const res = await callRoute(planApi.action, await jsonRequest(`/api/plans/${plan.id}`, payload, planner, "PUT"), {
+      planId: String(plan.id),
+    });
     expect(res.status).toBe(400);
     expect((res.data as { error: string }).error).toMatch(/no lift point Z/);
     expect((await load(plan.id, planner)).version).toBe(before.version);

@@ -97,14 +97,19 @@ function parseCells(cells: string): Record<Actor, Outcome> | "n/a" {
   if (cells.trim() === "n/a") return "n/a";
   const tokens = cells.trim().split(/\s+/);
   if (tokens.length !== ACTORS.length) throw new Error(`"${cells}" needs ${ACTORS.length} cells, one per visitor`);
-  return Object.fromEntries(ACTORS.map((actor, i) => [actor, /^\d+$/.test(tokens[i]!) ? Number(tokens[i]) : (tokens[i] as Outcome)])) as Record<Actor, Outcome>;
+  return Object.fromEntries(
+    ACTORS.map((actor, i) => [actor, /^\d+$/.test(tokens[i]!) ? Number(tokens[i]) : (tokens[i] as Outcome)]),
+  ) as Record<Actor, Outcome>;
 }
 
 /** Every URL pattern in the route config with the module that serves it. */
 function flattenRoutes(entries: readonly RouteConfigEntry[], parent = ""): Array<{ path: string; file: string }> {
   return entries.flatMap((entry) => {
     const joined = [parent, entry.path ?? ""].filter(Boolean).join("/");
-    const own = entry.path !== undefined || entry.index ? [{ path: `/${joined}`.replace(/\/+$/, "") || "/", file: entry.file }] : [];
+    const own =
+      entry.path !== undefined || entry.index
+        ? [{ path: `/${joined}`.replace(/\/+$/, "") || "/", file: entry.file }]
+        : [];
     return [...own, ...flattenRoutes(entry.children ?? [], joined)];
   });
 }
@@ -139,16 +144,45 @@ beforeAll(async () => {
   const target = await makeUser(["rigger"], { organisationId: org, name: `${MARKER} Target` });
 
   expect((await submitRevision(org, approvedPlan.id, planner, {})).ok).toBe(true);
-  expect((await approveRevision(org, approvedPlan.id, approver, { password: TEST_PASSWORD, typedName: approver.name, comment: "" })).ok).toBe(true);
-  const verifyToken = (await PlanRevision.findOne({ where: { planId: approvedPlan.id, status: "approved" } }))?.verifyToken;
+  expect(
+    (
+      await approveRevision(org, approvedPlan.id, approver, {
+        password: TEST_PASSWORD,
+        typedName: approver.name,
+        comment: "",
+      })
+    ).ok,
+  ).toBe(true);
+  const verifyToken = (await PlanRevision.findOne({ where: { planId: approvedPlan.id, status: "approved" } }))
+    ?.verifyToken;
   if (!verifyToken) throw new Error("the approved revision has no verify token");
 
-  const site = await createSite(org, { name: `${MARKER} works`, customer: `${MARKER} Water`, address: "", siteContact: "", notes: "" }, admin.id);
-  const job = await createJob(org, { siteId: site.id, workOrder: `WO-${MARKER}`, title: `${MARKER} job`, description: "", status: "open", startsOn: null }, admin.id);
+  const site = await createSite(
+    org,
+    { name: `${MARKER} works`, customer: `${MARKER} Water`, address: "", siteContact: "", notes: "" },
+    admin.id,
+  );
+  const job = await createJob(
+    org,
+    {
+      siteId: site.id,
+      workOrder: `WO-${MARKER}`,
+      title: `${MARKER} job`,
+      description: "",
+      status: "open",
+      startsOn: null,
+    },
+    admin.id,
+  );
   const component = await createComponent(org, twoPointElement({ name: `${MARKER} element` }), planner.id);
   const created = await createPlanFromComponent(org, job.id, component.id, `${MARKER} lift`, planner.id);
   if (!created.ok) throw new Error(created.message);
-  const gear = await makeGear(org, "shackle", { wllKg: 2000, description: `${MARKER} shackle`, shackleType: "bow", pinType: "screw" });
+  const gear = await makeGear(org, "shackle", {
+    wllKg: 2000,
+    description: `${MARKER} shackle`,
+    shackleType: "bow",
+    pinType: "screw",
+  });
   const mail = await storeCaughtMail({
     organisationId: org,
     fromAddress: "no-reply@plumbline.invalid",
@@ -160,7 +194,9 @@ beforeAll(async () => {
   });
   const checked = await checkUpload(new File([PDF_BYTES as Uint8Array<ArrayBuffer>], `${MARKER}.pdf`), ["pdf"]);
   if (!checked.ok) throw new Error(checked.message);
-  const file = await transactionWithFiles((_t, store) => store(checked.upload, { organisationId: org, purpose: "drawing", uploadedBy: admin.id }));
+  const file = await transactionWithFiles((_t, store) =>
+    store(checked.upload, { organisationId: org, purpose: "drawing", uploadedBy: admin.id }),
+  );
 
   fixtures = {
     actors: { admin, planner, approver, rigger, other },
@@ -184,8 +220,15 @@ function paramsFor(path: string): Record<string, string> {
   const params: Record<string, string> = {};
   for (const [, name] of path.matchAll(/:(\w+)/g)) {
     const value =
-      name === "token" ? (path.startsWith("/verify/") ? fixtures.verifyToken : path.startsWith("/set-password/") ? fixtures.passwordToken : undefined) : fixtures.params[name!];
-    if (value === undefined) throw new Error(`${path}: no test row for :${name}; create one in beforeAll and map it in paramsFor`);
+      name === "token"
+        ? path.startsWith("/verify/")
+          ? fixtures.verifyToken
+          : path.startsWith("/set-password/")
+            ? fixtures.passwordToken
+            : undefined
+        : fixtures.params[name!];
+    if (value === undefined)
+      throw new Error(`${path}: no test row for :${name}; create one in beforeAll and map it in paramsFor`);
     params[name!] = value;
   }
   return params;
@@ -206,7 +249,8 @@ async function requestFor(kind: "loader" | "action", path: string, params: Recor
 }
 
 function outcomeOf(status: number, headers: Headers): Outcome {
-  if (status >= 300 && status < 400) return (headers.get("Location") ?? "").startsWith("/login?redirectTo=") ? "login" : "redirect";
+  if (status >= 300 && status < 400)
+    return (headers.get("Location") ?? "").startsWith("/login?redirectTo=") ? "login" : "redirect";
   return status;
 }
 
@@ -217,7 +261,11 @@ function hasMessage(data: unknown): boolean {
   const { error, message, errors } = data as Record<string, unknown>;
   if (typeof error === "string" && error.length > 0) return true;
   if (typeof message === "string" && message.length > 0) return true;
-  return typeof errors === "object" && errors !== null && Object.values(errors).some((v) => Array.isArray(v) && v.some((m) => typeof m === "string" && m.length > 0));
+  return (
+    typeof errors === "object" &&
+    errors !== null &&
+    Object.values(errors).some((v) => Array.isArray(v) && v.some((m) => typeof m === "string" && m.length > 0))
+  );
 }
 
 function bodyText(data: unknown) {
@@ -263,7 +311,11 @@ describe("the role x route matrix", () => {
         const res = await callRoute(fn!, await requestFor(kind, path, params, actor), params);
         got[actor] = outcomeOf(res.status, res.headers);
         expect(res.status, `${kind} of ${path} as ${actor}`).toBeLessThan(500);
-        if (res.status >= 400) expect(hasMessage(res.data), `${kind} of ${path} as ${actor} refused without saying why: ${bodyText(res.data).slice(0, 200)}`).toBe(true);
+        if (res.status >= 400)
+          expect(
+            hasMessage(res.data),
+            `${kind} of ${path} as ${actor} refused without saying why: ${bodyText(res.data).slice(0, 200)}`,
+          ).toBe(true);
         if ((actor === "other" || actor === "anonymous") && !TOKEN_ROUTES.includes(path)) {
           expect(bodyText(res.data), `${kind} of ${path} shows ${actor} the organisation's data`).not.toContain(MARKER);
         }

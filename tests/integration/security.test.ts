@@ -48,7 +48,10 @@ describe("sign-in attempt limits", () => {
 
     const sixth = await signIn(user.email, "not it");
     expect(sixth.status).toBe(429);
-    expect(sixth.data).toMatchObject({ error: "Too many sign-in attempts for this account; try again in 15 minutes.", email: user.email });
+    expect(sixth.data).toMatchObject({
+      error: "Too many sign-in attempts for this account; try again in 15 minutes.",
+      email: user.email,
+    });
     expect(sixth.headers.get("Retry-After")).toBe("900");
     expect(sixth.headers.get("Set-Cookie")).toBeNull();
 
@@ -57,7 +60,9 @@ describe("sign-in attempt limits", () => {
     expect(right.headers.get("Set-Cookie")).toBeNull();
 
     setClock(new Date(T0.getTime() + 14 * MINUTE + 30_000));
-    expect((await signIn(user.email, TEST_PASSWORD)).data).toMatchObject({ error: "Too many sign-in attempts for this account; try again in 1 minute." });
+    expect((await signIn(user.email, TEST_PASSWORD)).data).toMatchObject({
+      error: "Too many sign-in attempts for this account; try again in 1 minute.",
+    });
 
     // Another account from the same address is not held up by this one's failures.
     const colleague = await makeUser(["rigger"]);
@@ -81,21 +86,42 @@ describe("sign-in attempt limits", () => {
 
   it("one address is limited across accounts; the shared key of unknown addresses has a higher ceiling", async () => {
     for (let i = 0; i < ADDRESS_LIMIT; i++) {
-      expect(await startSignInAttempt({ email: `guess-${i}@test.invalid`, addressKey: "203.0.113.9" }, T0)).toEqual({ ok: true });
+      expect(await startSignInAttempt({ email: `guess-${i}@test.invalid`, addressKey: "203.0.113.9" }, T0)).toEqual({
+        ok: true,
+      });
     }
-    const refused = await startSignInAttempt({ email: "one-more@test.invalid", addressKey: "203.0.113.9" }, new Date(T0.getTime() + 5 * MINUTE));
-    expect(refused).toEqual({ ok: false, message: "Too many sign-in attempts from this address; try again in 10 minutes.", retryAfterSeconds: 600 });
-    expect(await startSignInAttempt({ email: "one-more@test.invalid", addressKey: "198.51.100.4" }, T0)).toEqual({ ok: true });
-    expect(await startSignInAttempt({ email: "one-more@test.invalid", addressKey: "203.0.113.9" }, new Date(T0.getTime() + ATTEMPT_WINDOW_MS + 1))).toEqual({ ok: true });
+    const refused = await startSignInAttempt(
+      { email: "one-more@test.invalid", addressKey: "203.0.113.9" },
+      new Date(T0.getTime() + 5 * MINUTE),
+    );
+    expect(refused).toEqual({
+      ok: false,
+      message: "Too many sign-in attempts from this address; try again in 10 minutes.",
+      retryAfterSeconds: 600,
+    });
+    expect(await startSignInAttempt({ email: "one-more@test.invalid", addressKey: "198.51.100.4" }, T0)).toEqual({
+      ok: true,
+    });
+    expect(
+      await startSignInAttempt(
+        { email: "one-more@test.invalid", addressKey: "203.0.113.9" },
+        new Date(T0.getTime() + ATTEMPT_WINDOW_MS + 1),
+      ),
+    ).toEqual({ ok: true });
 
-    for (let i = 0; i < ADDRESS_LIMIT; i++) await startSignInAttempt({ email: `shared-${i}@test.invalid`, addressKey: SHARED_ADDRESS_KEY }, T0);
-    expect((await startSignInAttempt({ email: "shared-x@test.invalid", addressKey: SHARED_ADDRESS_KEY }, T0)).ok).toBe(true);
+    for (let i = 0; i < ADDRESS_LIMIT; i++)
+      await startSignInAttempt({ email: `shared-${i}@test.invalid`, addressKey: SHARED_ADDRESS_KEY }, T0);
+    expect((await startSignInAttempt({ email: "shared-x@test.invalid", addressKey: SHARED_ADDRESS_KEY }, T0)).ok).toBe(
+      true,
+    );
     expect(SHARED_ADDRESS_LIMIT).toBeGreaterThan(ADDRESS_LIMIT);
   });
 
   it("attempts made at the same moment count against each other, so a burst gets exactly the limit through", async () => {
     const burst = await Promise.all(
-      Array.from({ length: 12 }, () => startSignInAttempt({ email: "burst@test.invalid", addressKey: "192.0.2.1" }, T0)),
+      Array.from({ length: 12 }, () =>
+        startSignInAttempt({ email: "burst@test.invalid", addressKey: "192.0.2.1" }, T0),
+      ),
     );
     expect(burst.filter((r) => r.ok)).toHaveLength(ACCOUNT_FAILURE_LIMIT);
     expect(await SignInAttempt.count({ where: { accountKey: "burst@test.invalid" } })).toBe(ACCOUNT_FAILURE_LIMIT);
@@ -105,7 +131,10 @@ describe("sign-in attempt limits", () => {
     await startSignInAttempt({ email: "old@test.invalid", addressKey: "192.0.2.2" }, T0);
     await startPasswordResetRequest({ email: "old@test.invalid", addressKey: "192.0.2.2" }, T0);
     expect(await SignInAttempt.count({ where: { addressKey: "192.0.2.2" } })).toBe(2);
-    await startSignInAttempt({ email: "new@test.invalid", addressKey: "192.0.2.3" }, new Date(T0.getTime() + ATTEMPT_WINDOW_MS + 1));
+    await startSignInAttempt(
+      { email: "new@test.invalid", addressKey: "192.0.2.3" },
+      new Date(T0.getTime() + ATTEMPT_WINDOW_MS + 1),
+    );
     expect(await SignInAttempt.count({ where: { addressKey: "192.0.2.2" } })).toBe(0);
   });
 
@@ -118,10 +147,18 @@ describe("sign-in attempt limits", () => {
         request.headers.set("X-Forwarded-For", `10.9.9.9, ${address}`);
         return callRoute(forgotPassword.action, request);
       };
-      for (let i = 0; i < ADDRESS_LIMIT; i++) expect((await ask("203.0.113.50", `nobody-${i}@test.invalid`)).data).toMatchObject({ sent: true });
+      for (let i = 0; i < ADDRESS_LIMIT; i++)
+        expect((await ask("203.0.113.50", `nobody-${i}@test.invalid`)).data).toMatchObject({ sent: true });
       const refused = await ask("203.0.113.50", "nobody-x@test.invalid");
       expect(refused.status).toBe(429);
-      expect(refused.data).toMatchObject({ sent: false, errors: { _form: [expect.stringMatching(/^Too many password reset requests from this address; try again in \d+ minutes?\.$/)] } });
+      expect(refused.data).toMatchObject({
+        sent: false,
+        errors: {
+          _form: [
+            expect.stringMatching(/^Too many password reset requests from this address; try again in \d+ minutes?\.$/),
+          ],
+        },
+      });
       expect(Number(refused.headers.get("Retry-After"))).toBeGreaterThan(0);
       // The client's own first entry is its say-so: only the one our proxy appended counts.
       expect((await ask("203.0.113.51", "nobody-y@test.invalid")).status).toBe(200);
@@ -134,7 +171,10 @@ describe("sign-in attempt limits", () => {
 
   it("an account gets a few reset mails per window; past that the answer is the same but nothing is sent", async () => {
     const results = [];
-    for (let i = 0; i < 5; i++) results.push(await startPasswordResetRequest({ email: "Someone@Test.invalid", addressKey: `192.0.2.${10 + i}` }, T0));
+    for (let i = 0; i < 5; i++)
+      results.push(
+        await startPasswordResetRequest({ email: "Someone@Test.invalid", addressKey: `192.0.2.${10 + i}` }, T0),
+      );
     expect(results).toEqual([
       { ok: true, sendMail: true },
       { ok: true, sendMail: true },
@@ -171,7 +211,9 @@ describe("the app as served", () => {
   });
 
   function send(pathname: string, init: { method?: string; headers?: Record<string, string>; body?: string } = {}) {
-    return handle(new Request(BASE + pathname, { method: init.method ?? "GET", headers: init.headers, body: init.body }));
+    return handle(
+      new Request(BASE + pathname, { method: init.method ?? "GET", headers: init.headers, body: init.body }),
+    );
   }
 
   const form = (fields: Record<string, string>) => new URLSearchParams(fields).toString();
@@ -192,13 +234,34 @@ describe("the app as served", () => {
       const admin = await makeUser(["admin", "planner"]);
       const cookie = await sessionCookie(admin);
       const { plan } = await makePlan(admin);
-      const planBody = (await (await send(`/api/plans/${plan.id}`, { headers: { Cookie: cookie } })).json()) as Record<string, unknown>;
-      const put = JSON.stringify({ version: planBody.version, title: "Renamed from elsewhere", arrangement: planBody.arrangement, rigging: planBody.rigging, details: planBody.details });
+      const planBody = (await (await send(`/api/plans/${plan.id}`, { headers: { Cookie: cookie } })).json()) as Record<
+        string,
+        unknown
+      >;
+      const put = JSON.stringify({
+        version: planBody.version,
+        title: "Renamed from elsewhere",
+        arrangement: planBody.arrangement,
+        rigging: planBody.rigging,
+        details: planBody.details,
+      });
       const attemptsBefore = await SignInAttempt.count();
 
       const requests = [
-        { path: "/login", method: "POST", headers: FORM, body: form({ email: admin.email, password: TEST_PASSWORD }), ok: 303 },
-        { path: "/admin/settings", method: "POST", headers: { ...FORM, Cookie: cookie }, body: form({ name: "Renamed works" }), ok: 302 },
+        {
+          path: "/login",
+          method: "POST",
+          headers: FORM,
+          body: form({ email: admin.email, password: TEST_PASSWORD }),
+          ok: 303,
+        },
+        {
+          path: "/admin/settings",
+          method: "POST",
+          headers: { ...FORM, Cookie: cookie },
+          body: form({ name: "Renamed works" }),
+          ok: 302,
+        },
         { path: `/api/plans/${plan.id}`, method: "PUT", headers: { ...JSON_BODY, Cookie: cookie }, body: put, ok: 200 },
         { path: "/api/solve", method: "POST", headers: { ...JSON_BODY, Cookie: cookie }, body: solveBody, ok: 200 },
       ];
@@ -225,7 +288,11 @@ describe("the app as served", () => {
     });
 
     it("a data request from another site is refused too, and GET never is", async () => {
-      const res = await send("/login.data", { method: "POST", headers: { ...FORM, Origin: EVIL }, body: form({ email: "a@test.invalid", password: "x" }) });
+      const res = await send("/login.data", {
+        method: "POST",
+        headers: { ...FORM, Origin: EVIL },
+        body: form({ email: "a@test.invalid", password: "x" }),
+      });
       expect(res.status).toBe(403);
       expect((await send("/login", { headers: { Origin: EVIL } })).status).toBe(200);
     });
@@ -233,18 +300,28 @@ describe("the app as served", () => {
     it("without Origin the Referer decides; with neither, a request carrying cookies is refused and one without goes on", async () => {
       const admin = await makeUser(["admin"]);
       const cookie = await sessionCookie(admin);
-      const settings = (headers: Record<string, string>) => send("/admin/settings", { method: "POST", headers: { ...FORM, Cookie: cookie, ...headers }, body: form({ name: "Via referer" }) });
+      const settings = (headers: Record<string, string>) =>
+        send("/admin/settings", {
+          method: "POST",
+          headers: { ...FORM, Cookie: cookie, ...headers },
+          body: form({ name: "Via referer" }),
+        });
       expect((await settings({ Referer: `${EVIL}/page` })).status).toBe(403);
       expect((await settings({})).status).toBe(403);
       expect((await getOrganisation(admin.organisationId))?.name).not.toBe("Via referer");
       expect((await settings({ Referer: `${BASE}/admin/settings` })).status).toBe(302);
       expect((await getOrganisation(admin.organisationId))?.name).toBe("Via referer");
-      const anonymous = await send("/login", { method: "POST", headers: FORM, body: form({ email: admin.email, password: "not it" }) });
+      const anonymous = await send("/login", {
+        method: "POST",
+        headers: FORM,
+        body: form({ email: admin.email, password: "not it" }),
+      });
       expect(anonymous.status).toBe(401);
     });
 
     it("refuses an opaque or malformed Origin and accepts PUBLIC_URL's origin behind a TLS proxy", () => {
-      const post = (headers: Record<string, string>, url = `${BASE}/login`) => new Request(url, { method: "POST", headers });
+      const post = (headers: Record<string, string>, url = `${BASE}/login`) =>
+        new Request(url, { method: "POST", headers });
       expect(isCrossSiteMutation(post({ Origin: "null" }), null)).toBe(true);
       expect(isCrossSiteMutation(post({ Origin: "::::" }), null)).toBe(true);
       expect(isCrossSiteMutation(post({ Origin: "http://localhost:3001" }), null)).toBe(true);
@@ -253,7 +330,9 @@ describe("the app as served", () => {
       const proxied = post({ Origin: "https://plumbline.example.com" }, "http://plumbline.example.com/login");
       expect(isCrossSiteMutation(proxied, null)).toBe(true);
       expect(isCrossSiteMutation(proxied, "https://plumbline.example.com")).toBe(false);
-      expect(isCrossSiteMutation(new Request(`${BASE}/login`, { headers: { Origin: EVIL, Cookie: "x=1" } }), null)).toBe(false);
+      expect(
+        isCrossSiteMutation(new Request(`${BASE}/login`, { headers: { Origin: EVIL, Cookie: "x=1" } }), null),
+      ).toBe(false);
     });
   });
 
@@ -277,7 +356,17 @@ describe("the app as served", () => {
       const csp = res.headers.get("Content-Security-Policy") ?? "";
       const nonce = csp.match(/script-src 'self' 'nonce-([A-Za-z0-9+/=]{22,})'/)?.[1];
       expect(nonce).toBeDefined();
-      for (const directive of ["default-src 'self'", "img-src 'self' data: blob:", "style-src 'self' 'unsafe-inline'", "font-src 'self'", "connect-src 'self'", "frame-ancestors 'none'", "base-uri 'self'", "form-action 'self'", "object-src 'none'"]) {
+      for (const directive of [
+        "default-src 'self'",
+        "img-src 'self' data: blob:",
+        "style-src 'self' 'unsafe-inline'",
+        "font-src 'self'",
+        "connect-src 'self'",
+        "frame-ancestors 'none'",
+        "base-uri 'self'",
+        "form-action 'self'",
+        "object-src 'none'",
+      ]) {
         expect(csp).toContain(directive);
       }
       const html = await res.text();
@@ -291,7 +380,11 @@ describe("the app as served", () => {
     it("API answers, data requests, refusals and the not-found page carry them too", async () => {
       const user = await makeUser(["planner"]);
       const cookie = await sessionCookie(user);
-      const solved = await send("/api/solve", { method: "POST", headers: { ...JSON_BODY, Cookie: cookie, Origin: BASE }, body: solveBody });
+      const solved = await send("/api/solve", {
+        method: "POST",
+        headers: { ...JSON_BODY, Cookie: cookie, Origin: BASE },
+        body: solveBody,
+      });
       expect(solved.status).toBe(200);
       expect(solved.headers.get("Content-Security-Policy")).toMatch(/^default-src 'self'/);
       expectCommonHeaders(solved);
@@ -310,7 +403,9 @@ describe("the app as served", () => {
       const user = await makeUser(["admin"]);
       const checked = await checkUpload(new File([PNG_BYTES as Uint8Array<ArrayBuffer>], "photo.png"), ["png"]);
       if (!checked.ok) throw new Error(checked.message);
-      const file = await transactionWithFiles((_t, store) => store(checked.upload, { organisationId: user.organisationId, purpose: "drawing", uploadedBy: user.id }));
+      const file = await transactionWithFiles((_t, store) =>
+        store(checked.upload, { organisationId: user.organisationId, purpose: "drawing", uploadedBy: user.id }),
+      );
       const res = await send(`/files/${file.id}`, { headers: { Cookie: await sessionCookie(user) } });
       expect(res.status).toBe(200);
       expect(res.headers.get("Content-Security-Policy")).toBe("default-src 'none'; sandbox");

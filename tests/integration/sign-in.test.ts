@@ -11,7 +11,10 @@ import { callRoute, getRequest, makeUser, postForm, TEST_PASSWORD } from "../sup
 describe("signing in", () => {
   it("a user with the right password gets a 303 and an httpOnly, SameSite=Lax session cookie", async () => {
     const user = await makeUser(["planner"]);
-    const res = await callRoute(login.action, await postForm("/login", { email: user.email, password: TEST_PASSWORD, redirectTo: "/jobs" }));
+    const res = await callRoute(
+      login.action,
+      await postForm("/login", { email: user.email, password: TEST_PASSWORD, redirectTo: "/jobs" }),
+    );
     expect(res.status).toBe(303);
     expect(res.headers.get("Location")).toBe("/jobs");
     const cookie = res.headers.get("Set-Cookie") ?? "";
@@ -24,7 +27,10 @@ describe("signing in", () => {
 
   it("accepts the e-mail in any case and with spaces around it", async () => {
     const user = await makeUser(["rigger"]);
-    const res = await callRoute(login.action, await postForm("/login", { email: `  ${user.email.toUpperCase()} `, password: TEST_PASSWORD }));
+    const res = await callRoute(
+      login.action,
+      await postForm("/login", { email: `  ${user.email.toUpperCase()} `, password: TEST_PASSWORD }),
+    );
     expect(res.status).toBe(303);
   });
 
@@ -32,12 +38,18 @@ describe("signing in", () => {
     const user = await makeUser(["planner"]);
     const res = await callRoute(login.action, await postForm("/login", { email: user.email, password: "not it" }));
     expect(res.status).toBe(401);
-    expect(res.data).toMatchObject({ error: "That e-mail and password do not match an active account.", email: user.email });
+    expect(res.data).toMatchObject({
+      error: "That e-mail and password do not match an active account.",
+      email: user.email,
+    });
     expect(res.headers.get("Set-Cookie")).toBeNull();
   });
 
   it("an unknown address gets the same message as a wrong password", async () => {
-    const res = await callRoute(login.action, await postForm("/login", { email: "nobody@test.invalid", password: "whatever" }));
+    const res = await callRoute(
+      login.action,
+      await postForm("/login", { email: "nobody@test.invalid", password: "whatever" }),
+    );
     expect(res.status).toBe(401);
     expect(res.data).toMatchObject({ error: "That e-mail and password do not match an active account." });
   });
@@ -63,7 +75,10 @@ describe("signing in", () => {
   it("redirectTo is honoured only for same-site paths", async () => {
     const user = await makeUser(["planner"]);
     for (const target of ["https://evil.example/", "//evil.example/x", "/\\evil.example", "javascript:alert(1)"]) {
-      const res = await callRoute(login.action, await postForm("/login", { email: user.email, password: TEST_PASSWORD, redirectTo: target }));
+      const res = await callRoute(
+        login.action,
+        await postForm("/login", { email: user.email, password: TEST_PASSWORD, redirectTo: target }),
+      );
       expect(res.headers.get("Location"), target).toBe("/");
     }
     expect(safeRedirectPath("/jobs/3?tab=lifts")).toBe("/jobs/3?tab=lifts");

@@ -19,7 +19,12 @@ type ServerRoutes = ServerBuild["routes"];
 type ManifestRoutes = ServerBuild["assets"]["routes"];
 type RouteModule = NonNullable<ServerRoutes[string]>["module"];
 
-function manifestEntry(id: string, parentId: string | undefined, entry: Pick<RouteConfigEntry, "path" | "index">, module: RouteModule) {
+function manifestEntry(
+  id: string,
+  parentId: string | undefined,
+  entry: Pick<RouteConfigEntry, "path" | "index">,
+  module: RouteModule,
+) {
   return {
     id,
     parentId,
@@ -46,12 +51,23 @@ function asBuilt(module: Record<string, unknown>): RouteModule {
   const built: Record<string, unknown> = { ...module };
   type Component = Parameters<typeof UNSAFE_withComponentProps>[0];
   if (module.default) built.default = UNSAFE_withComponentProps(module.default as Component);
-  if (module.ErrorBoundary) built.ErrorBoundary = UNSAFE_withErrorBoundaryProps(module.ErrorBoundary as Parameters<typeof UNSAFE_withErrorBoundaryProps>[0]);
-  if (module.HydrateFallback) built.HydrateFallback = UNSAFE_withHydrateFallbackProps(module.HydrateFallback as Parameters<typeof UNSAFE_withHydrateFallbackProps>[0]);
+  if (module.ErrorBoundary)
+    built.ErrorBoundary = UNSAFE_withErrorBoundaryProps(
+      module.ErrorBoundary as Parameters<typeof UNSAFE_withErrorBoundaryProps>[0],
+    );
+  if (module.HydrateFallback)
+    built.HydrateFallback = UNSAFE_withHydrateFallbackProps(
+      module.HydrateFallback as Parameters<typeof UNSAFE_withHydrateFallbackProps>[0],
+    );
   return built as unknown as RouteModule;
 }
 
-async function addRoutes(entries: RouteConfigEntry[], parentId: string, routes: ServerRoutes, manifest: ManifestRoutes) {
+async function addRoutes(
+  entries: RouteConfigEntry[],
+  parentId: string,
+  routes: ServerRoutes,
+  manifest: ManifestRoutes,
+) {
   for (const entry of entries) {
     const id = entry.id ?? entry.file.replace(/\.[jt]sx?$/, "");
     const module = asBuilt(await import(path.resolve("app", entry.file)));
@@ -70,7 +86,12 @@ export async function createAppHandler(): Promise<(request: Request) => Promise<
   const build: ServerBuild = {
     entry: { module: entryServer as unknown as ServerBuild["entry"]["module"] },
     routes,
-    assets: { entry: { module: "/assets/entry.client.js", imports: [] }, routes: manifest, url: "/assets/manifest.js", version: "test" },
+    assets: {
+      entry: { module: "/assets/entry.client.js", imports: [] },
+      routes: manifest,
+      url: "/assets/manifest.js",
+      version: "test",
+    },
     basename: "/",
     publicPath: "/",
     assetsBuildDirectory: "build/client",

@@ -45,7 +45,9 @@ export type StartOptions = {
 export async function startBuiltServer(options: StartOptions = {}): Promise<BuiltServer> {
   if (!fs.existsSync("build/server/index.js")) throw new Error("Build the app first (npm run build).");
   const existing = options.databasePath;
-  const workDir = existing ? path.dirname(path.resolve(existing)) : fs.mkdtempSync(path.join(os.tmpdir(), "plumbline-served-"));
+  const workDir = existing
+    ? path.dirname(path.resolve(existing))
+    : fs.mkdtempSync(path.join(os.tmpdir(), "plumbline-served-"));
   const env: NodeJS.ProcessEnv = {
     ...process.env,
     NODE_ENV: "production",
@@ -56,7 +58,10 @@ export async function startBuiltServer(options: StartOptions = {}): Promise<Buil
     ...options.extraEnv,
   };
   if (!existing) {
-    const seeded = spawnSync(process.execPath, ["node_modules/tsx/dist/cli.mjs", "db/cli.ts", "setup"], { env, encoding: "utf8" });
+    const seeded = spawnSync(process.execPath, ["node_modules/tsx/dist/cli.mjs", "db/cli.ts", "setup"], {
+      env,
+      encoding: "utf8",
+    });
     if (seeded.status !== 0) throw new Error(`db setup failed: ${seeded.stderr}`);
   }
   options.prepare?.(env);

@@ -39,4 +39,3 @@ export function componentFields(overrides: Record<string, string> = {}): Record<
     ...overrides,
   };
 }
-

@@ -11,7 +11,10 @@ export async function makeOrganisation(name = `Test org ${randomUUID().slice(0, 
 }
 
 /** A user of `organisationId` (a new organisation when omitted) with the given roles and TEST_PASSWORD. */
-export async function makeUser(roles: Role[], options: { organisationId?: number; name?: string; email?: string; password?: string | null } = {}) {
+export async function makeUser(
+  roles: Role[],
+  options: { organisationId?: number; name?: string; email?: string; password?: string | null } = {},
+) {
   const organisationId = options.organisationId ?? (await makeOrganisation()).id;
   const user = await createUser(
     {
@@ -44,13 +47,22 @@ export async function getRequest(pathname: string, user?: Pick<SessionUser, "id"
 }
 
 /** A form POST, signed in as `user` when given. Arrays become repeated fields. */
-export async function postForm(pathname: string, fields: Record<string, string | string[]>, user?: Pick<SessionUser, "id">) {
+export async function postForm(
+  pathname: string,
+  fields: Record<string, string | string[]>,
+  user?: Pick<SessionUser, "id">,
+) {
   const body = new URLSearchParams();
-  for (const [key, value] of Object.entries(fields)) for (const v of Array.isArray(value) ? value : [value]) body.append(key, v);
+  for (const [key, value] of Object.entries(fields))
+    for (const v of Array.isArray(value) ? value : [value]) body.append(key, v);
   return new Request(BASE + pathname, {
     method: "POST",
     body,
-    headers: { "Content-Type": "application/x-www-form-urlencoded", Origin: BASE, ...(user ? { Cookie: await sessionCookie(user) } : {}) },
+    headers: {
+      "Content-Type": "application/x-www-form-urlencoded",
+      Origin: BASE,
+      ...(user ? { Cookie: await sessionCookie(user) } : {}),
+    },
   });
 }
 

@@ -23,10 +23,22 @@ export const SHACKLE_FIELDS = {
 export { BLANK_GEAR_FIELDS };
 
 /** An item straight into the register (no route), a bow shackle unless told otherwise. */
-export async function makeGearItem(user: Pick<SessionUser, "id" | "organisationId">, input: Partial<GearItemInput> = {}) {
+export async function makeGearItem(
+  user: Pick<SessionUser, "id" | "organisationId">,
+  input: Partial<GearItemInput> = {},
+) {
   return createGearItem(
     user.organisationId,
-    { ...BLANK_GEAR_FIELDS, itemCode: `T-${Math.random().toString(36).slice(2, 8)}`, kind: "shackle", wllValue: 2, wllUnit: "t", shackleType: "bow", pinType: "screw", ...input },
+    {
+      ...BLANK_GEAR_FIELDS,
+      itemCode: `T-${Math.random().toString(36).slice(2, 8)}`,
+      kind: "shackle",
+      wllValue: 2,
+      wllUnit: "t",
+      shackleType: "bow",
+      pinType: "screw",
+      ...input,
+    },
     user.id,
   );
 }
@@ -35,7 +47,11 @@ export async function makeGearItem(user: Pick<SessionUser, "id" | "organisationI
 export async function adminWithSite(siteName = "Test works, pump house") {
   const admin = await makeUser(["admin"]);
   const rigger = await makeUser(["rigger"], { organisationId: admin.organisationId, name: "Rhys Rigger" });
-  const site = await createSite(admin.organisationId, { name: siteName, customer: "Test Water", address: "", siteContact: "", notes: "" }, admin.id);
+  const site = await createSite(
+    admin.organisationId,
+    { name: siteName, customer: "Test Water", address: "", siteContact: "", notes: "" },
+    admin.id,
+  );
   return { admin, rigger, site };
 }
 
@@ -50,12 +66,21 @@ export async function postMultipart(
   for (const [key, value] of Object.entries(fields)) body.append(key, value);
   for (const [key, file] of Object.entries(files)) {
     const bytes = typeof file.bytes === "string" ? new TextEncoder().encode(file.bytes) : file.bytes;
-    body.append(key, new File([bytes as Uint8Array<ArrayBuffer>], file.name, { type: file.type ?? "application/octet-stream" }));
+    body.append(
+      key,
+      new File([bytes as Uint8Array<ArrayBuffer>], file.name, { type: file.type ?? "application/octet-stream" }),
+    );
   }
-  return new Request(BASE + pathname, { method: "POST", body, headers: { Origin: BASE, ...(user ? { Cookie: await sessionCookie(user) } : {}) } });
+  return new Request(BASE + pathname, {
+    method: "POST",
+    body,
+    headers: { Origin: BASE, ...(user ? { Cookie: await sessionCookie(user) } : {}) },
+  });
 }
 
 export const PDF_BYTES = new TextEncoder().encode("%PDF-1.4\n1 0 obj<<>>endobj\ntrailer<<>>\n%%EOF\n");
-export const PNG_BYTES = new Uint8Array([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13, 0x49, 0x48, 0x44, 0x52]);
+export const PNG_BYTES = new Uint8Array([
+  0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13, 0x49, 0x48, 0x44, 0x52,
+]);
 export const ELF_BYTES = new Uint8Array([0x7f, 0x45, 0x4c, 0x46, 2, 1, 1, 0, 0, 0, 0, 0]);
 export const MZ_BYTES = new Uint8Array([0x4d, 0x5a, 0x90, 0, 3, 0, 0, 0]);

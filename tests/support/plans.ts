@@ -36,10 +36,21 @@ export function twoPointElement(overrides: Partial<ComponentDefinition> = {}): C
 }
 
 export async function makeJob(user: SessionUser) {
-  const site = await createSite(user.organisationId, { name: "Test site", customer: "Test customer", address: "", siteContact: "", notes: "" }, user.id);
+  const site = await createSite(
+    user.organisationId,
+    { name: "Test site", customer: "Test customer", address: "", siteContact: "", notes: "" },
+    user.id,
+  );
   return createJob(
     user.organisationId,
-    { siteId: site.id, workOrder: `WO-${Math.random().toString(36).slice(2, 8)}`, title: "Test job", description: "", status: "open", startsOn: null },
+    {
+      siteId: site.id,
+      workOrder: `WO-${Math.random().toString(36).slice(2, 8)}`,
+      title: "Test job",
+      description: "",
+      status: "open",
+      startsOn: null,
+    },
     user.id,
   );
 }
@@ -48,7 +59,13 @@ export async function makeJob(user: SessionUser) {
 export async function makePlan(planner: SessionUser, definition: ComponentDefinition = twoPointElement()) {
   const job = await makeJob(planner);
   const component = await createComponent(planner.organisationId, definition, planner.id);
-  const created = await createPlanFromComponent(planner.organisationId, job.id, component.id, "Lift the element out", planner.id);
+  const created = await createPlanFromComponent(
+    planner.organisationId,
+    job.id,
+    component.id,
+    "Lift the element out",
+    planner.id,
+  );
   if (!created.ok) throw new Error(created.message);
   return { job, component, plan: created.plan };
 }

@@ -29,11 +29,30 @@ export function gearboxDefinition(): ComponentDefinition {
     cogSource: "manufacturer",
     cogNote: "General arrangement drawing",
     outlineElevation: [
-      [-0.5, 0], [0.7, 0], [0.7, 0.08], [0.65, 0.08], [0.65, 0.72], [0.95, 0.72], [0.95, 0.5], [0.65, 0.5],
-      [0.65, 0.9], [-0.4, 0.9], [-0.5, 0.78], [-0.5, 0.08], [-0.45, 0.08], [-0.45, 0.0],
+      [-0.5, 0],
+      [0.7, 0],
+      [0.7, 0.08],
+      [0.65, 0.08],
+      [0.65, 0.72],
+      [0.95, 0.72],
+      [0.95, 0.5],
+      [0.65, 0.5],
+      [0.65, 0.9],
+      [-0.4, 0.9],
+      [-0.5, 0.78],
+      [-0.5, 0.08],
+      [-0.45, 0.08],
+      [-0.45, 0.0],
     ],
     outlinePlan: [
-      [-0.5, -0.35], [0.65, -0.35], [0.65, -0.07], [0.95, -0.07], [0.95, 0.07], [0.65, 0.07], [0.65, 0.35], [-0.5, 0.35],
+      [-0.5, -0.35],
+      [0.65, -0.35],
+      [0.65, -0.07],
+      [0.95, -0.07],
+      [0.95, 0.07],
+      [0.65, 0.07],
+      [0.65, 0.35],
+      [-0.5, 0.35],
     ],
     liftPoints: [
       { label: "A", position: { x: -0.2, y: 0, z: 0.9 }, axis: { x: 0, y: 0, z: 1 }, thread: "M30", engagementMm: 45 },
@@ -43,14 +62,32 @@ export function gearboxDefinition(): ComponentDefinition {
   };
 }
 
-const inService = (itemId: string, examinationDue: string) => ({ itemId, status: "in_service" as const, examinationDue });
+const inService = (itemId: string, examinationDue: string) => ({
+  itemId,
+  status: "in_service" as const,
+  examinationDue,
+});
 
 /** The solve body for the gearbox: hook 800 mm above the lift points, chain legs, M30 collar eyebolts, 2 t shackles. */
 function gearboxSolveBody(def: ComponentDefinition): SolveBody {
   const legGear = (leg: "A" | "B") => ({
-    sling: { kind: "chain" as const, diameterMm: 10, hitch: "straight" as const, inspection: inService(`NW-CH10-0${leg === "A" ? 1 : 2}`, "2025-10-30") },
-    shackle: { wllKg: 2000, type: "bow" as const, pin: "screw" as const, inspection: inService(`NW-SH2-1${leg === "A" ? 1 : 2}`, "2025-09-15") },
-    eyebolt: { family: "collar" as const, thread: "M30", inspection: inService(`NW-EB30-0${leg === "A" ? 3 : 4}`, leg === "A" ? "2025-05-30" : "2025-11-02") },
+    sling: {
+      kind: "chain" as const,
+      diameterMm: 10,
+      hitch: "straight" as const,
+      inspection: inService(`NW-CH10-0${leg === "A" ? 1 : 2}`, "2025-10-30"),
+    },
+    shackle: {
+      wllKg: 2000,
+      type: "bow" as const,
+      pin: "screw" as const,
+      inspection: inService(`NW-SH2-1${leg === "A" ? 1 : 2}`, "2025-09-15"),
+    },
+    eyebolt: {
+      family: "collar" as const,
+      thread: "M30",
+      inspection: inService(`NW-EB30-0${leg === "A" ? 3 : 4}`, leg === "A" ? "2025-05-30" : "2025-11-02"),
+    },
   });
   return {
     load: { massKg: def.massKg, cog: def.cog },
@@ -75,7 +112,14 @@ export function gearboxResults(def: ComponentDefinition = gearboxDefinition()): 
 
 function scheduleFrom(results: PlanResultsBody): PrintableScheduleRow[] {
   const check = (id: string) => results.checks?.find((c) => c.id === id);
-  const row = (position: string, itemCode: string, description: string, wllKg: number, checkId: string, nextDueOn: string): PrintableScheduleRow => ({
+  const row = (
+    position: string,
+    itemCode: string,
+    description: string,
+    wllKg: number,
+    checkId: string,
+    nextDueOn: string,
+  ): PrintableScheduleRow => ({
     position,
     itemCode,
     description,
@@ -104,7 +148,11 @@ export function printablePlanFixture(overrides: Partial<PrintablePlan> = {}): Pr
   return {
     organisationName: "Northwold Mechanical Services Ltd",
     title: "Lift the GX-40 gearbox off the test bed onto the transport skid",
-    site: { name: "Harrowgate Compressor Works", customer: "Harrowgate Air Ltd", address: "Unit 4, Canal Road, Harrowgate HG9 4QT" },
+    site: {
+      name: "Harrowgate Compressor Works",
+      customer: "Harrowgate Air Ltd",
+      address: "Unit 4, Canal Road, Harrowgate HG9 4QT",
+    },
     job: { workOrder: "WO-24117", title: "Gearbox overhaul and return" },
     revision: 3,
     status: "approved",
@@ -128,12 +176,23 @@ export function printablePlanFixture(overrides: Partial<PrintablePlan> = {}): Pr
     details: {
       sequence: defaultSequence(),
       hazards: [
-        { hazard: "Load swings as it leaves the test bed (CoG off the centre line)", control: "Hook plumb over the CoG mark; trial lift a short way and hold; tag line on the input shaft end." },
-        { hazard: "Fingers trapped at the eyebolts while taking up slack", control: "Hands off the rigging once the legs are tensioned; slinger stands clear before the signal to lift." },
-        { hazard: "Other trades walking under the load in bay 2", control: "Barriered exclusion zone with signs; banksman at the bay entrance." },
+        {
+          hazard: "Load swings as it leaves the test bed (CoG off the centre line)",
+          control: "Hook plumb over the CoG mark; trial lift a short way and hold; tag line on the input shaft end.",
+        },
+        {
+          hazard: "Fingers trapped at the eyebolts while taking up slack",
+          control: "Hands off the rigging once the legs are tensioned; slinger stands clear before the signal to lift.",
+        },
+        {
+          hazard: "Other trades walking under the load in bay 2",
+          control: "Barriered exclusion zone with signs; banksman at the bay entrance.",
+        },
       ],
-      exclusionZone: "Barrier 3 m all round the test bed and the skid, and the travel path between them in bay 2. Nobody under the load at any time.",
-      communication: "Hand signals to BS 7121 from one appointed signaller in sight of the operator; radio channel 3 as back-up.",
+      exclusionZone:
+        "Barrier 3 m all round the test bed and the skid, and the travel path between them in bay 2. Nobody under the load at any time.",
+      communication:
+        "Hand signals to BS 7121 from one appointed signaller in sight of the operator; radio channel 3 as back-up.",
       people: [
         { name: "Gareth Olumide", role: "appointed_person" },
         { name: "Dee Marchetti", role: "lift_supervisor" },
@@ -143,7 +202,14 @@ export function printablePlanFixture(overrides: Partial<PrintablePlan> = {}): Pr
       floorClearanceM: 0.1,
     },
     acknowledgements: warned
-      ? [{ checkItem: warned.item, reason: "Eyebolt is booked in for examination on 28 May; this lift is on 14 May.", by: "Gareth Olumide", at: "2025-05-12T08:38:00.000Z" }]
+      ? [
+          {
+            checkItem: warned.item,
+            reason: "Eyebolt is booked in for examination on 28 May; this lift is on 14 May.",
+            by: "Gareth Olumide",
+            at: "2025-05-12T08:38:00.000Z",
+          },
+        ]
       : [],
     ...overrides,
   };
@@ -160,7 +226,10 @@ export function longPrintablePlan(): PrintablePlan {
     schedule: Array.from({ length: 25 }, (_, i) => ({
       position: `Item ${i + 1}`,
       itemCode: `NW-LONG-${String(i + 1).padStart(3, "0")}`,
-      description: i % 5 === 0 ? "Webbing sling 2 t, 3 m effective length, with sleeves for the sharp edges of the housing" : "Bow shackle 2 t, screw pin",
+      description:
+        i % 5 === 0
+          ? "Webbing sling 2 t, 3 m effective length, with sleeves for the sharp edges of the housing"
+          : "Bow shackle 2 t, screw pin",
       wllKg: 2000,
       loadKg: 1000 + i * 37,
       utilisation: (1000 + i * 37) / 2000,

@@ -12,12 +12,32 @@ export async function readyPlan(options: { overdueEyebolt?: boolean } = {}) {
   const approver = await makeUser(["approver"], { organisationId: planner.organisationId, name: "Avery Approver" });
   const rigger = await makeUser(["rigger"], { organisationId: planner.organisationId, name: "Robin Rigger" });
   const base = twoPointElement();
-  const { plan } = await makePlan(planner, twoPointElement({ liftPoints: base.liftPoints.map((p) => ({ ...p, thread: "M30" })) }));
+  const { plan } = await makePlan(
+    planner,
+    twoPointElement({ liftPoints: base.liftPoints.map((p) => ({ ...p, thread: "M30" })) }),
+  );
   const org = planner.organisationId;
-  const eyeboltA = await makeGear(org, "eyebolt", { wllKg: 3200, thread: "M30", eyeboltFamily: "collar", ...(options.overdueEyebolt ? { nextDueOn: "2000-01-01" } : {}) });
+  const eyeboltA = await makeGear(org, "eyebolt", {
+    wllKg: 3200,
+    thread: "M30",
+    eyeboltFamily: "collar",
+    ...(options.overdueEyebolt ? { nextDueOn: "2000-01-01" } : {}),
+  });
   const eyeboltB = await makeGear(org, "eyebolt", { wllKg: 3200, thread: "M30", eyeboltFamily: "collar" });
-  const slingA = await makeGear(org, "chain_sling", { wllKg: 3150, chainGrade: 8, diameterMm: 10, legs: 1, lengthM: 1.8 });
-  const slingB = await makeGear(org, "chain_sling", { wllKg: 3150, chainGrade: 8, diameterMm: 10, legs: 1, lengthM: 1.8 });
+  const slingA = await makeGear(org, "chain_sling", {
+    wllKg: 3150,
+    chainGrade: 8,
+    diameterMm: 10,
+    legs: 1,
+    lengthM: 1.8,
+  });
+  const slingB = await makeGear(org, "chain_sling", {
+    wllKg: 3150,
+    chainGrade: 8,
+    diameterMm: 10,
+    legs: 1,
+    lengthM: 1.8,
+  });
   const found = (await getPlan(org, plan.id))!;
   const saved = await savePlanRevision(
     org,

@@ -16,7 +16,9 @@ type FieldProps = {
 export function Field({ label, name, errors, hint, id, ...input }: FieldProps) {
   const autoId = useId();
   const fieldId = id ?? `${name}-${autoId}`;
-  const describedBy = [hint ? `${fieldId}-hint` : null, errors?.length ? `${fieldId}-error` : null].filter(Boolean).join(" ");
+  const describedBy = [hint ? `${fieldId}-hint` : null, errors?.length ? `${fieldId}-error` : null]
+    .filter(Boolean)
+    .join(" ");
   return (
     <div>
       <label htmlFor={fieldId} className="block text-sm font-medium">
@@ -40,7 +42,10 @@ export function Field({ label, name, errors, hint, id, ...input }: FieldProps) {
   );
 }
 
-type TextAreaProps = { label: string; name: string; errors?: string[] } & Omit<React.TextareaHTMLAttributes<HTMLTextAreaElement>, "name">;
+type TextAreaProps = { label: string; name: string; errors?: string[] } & Omit<
+  React.TextareaHTMLAttributes<HTMLTextAreaElement>,
+  "name"
+>;
 
 export function TextAreaField({ label, name, errors, id, ...rest }: TextAreaProps) {
   const autoId = useId();
@@ -153,7 +158,15 @@ export function EmptyState({ title, children }: { title: string; children: React
   );
 }
 
-export function Card({ title, children, className = "" }: { title?: string; children: React.ReactNode; className?: string }) {
+export function Card({
+  title,
+  children,
+  className = "",
+}: {
+  title?: string;
+  children: React.ReactNode;
+  className?: string;
+}) {
   return (
     <section className={`rounded border border-rule bg-card p-4 ${className}`}>
       {title && <h2 className="mb-3 text-lg">{title}</h2>}
