@@ -1,14 +1,5 @@
 import { describe, expect, it } from "vitest";
-import {
-  addDays,
-  addMonths,
-  daysUntil,
-  defaultNextDue,
-  dueState,
-  examinationIntervalMonths,
-  isIsoDate,
-  todayIso,
-} from "~/gear/due";
+import { defaultNextDue, dueState, examinationIntervalMonths } from "~/gear/due";
 import { GEAR_KINDS } from "~/gear/kinds";
 
 describe("examination intervals", () => {
@@ -36,33 +27,6 @@ describe("examination intervals", () => {
 
   it("gives every kind an interval", () => {
     for (const kind of GEAR_KINDS) expect([6, 12]).toContain(examinationIntervalMonths(kind));
-  });
-});
-
-describe("calendar arithmetic", () => {
-  it("clamps the day to the end of a shorter month, leap years included", () => {
-    expect(addMonths("2025-08-31", 6)).toBe("2026-02-28");
-    expect(addMonths("2027-08-31", 6)).toBe("2028-02-29");
-    expect(addMonths("2026-01-31", 1)).toBe("2026-02-28");
-    expect(addMonths("2026-12-15", 12)).toBe("2027-12-15");
-    expect(addMonths("2026-03-31", -1)).toBe("2026-02-28");
-  });
-
-  it("adds days across month and year ends", () => {
-    expect(addDays("2026-12-20", 30)).toBe("2027-01-19");
-    expect(addDays("2026-03-01", -1)).toBe("2026-02-28");
-    expect(daysUntil("2027-01-19", "2026-12-20")).toBe(30);
-  });
-
-  it("knows a real date from a look-alike", () => {
-    expect(isIsoDate("2026-02-28")).toBe(true);
-    expect(isIsoDate("2026-02-30")).toBe(false);
-    expect(isIsoDate("28/02/2026")).toBe(false);
-    expect(() => addDays("nonsense", 1)).toThrow();
-  });
-
-  it("reads today's local calendar day", () => {
-    expect(todayIso(new Date(2026, 0, 5, 23, 59))).toBe("2026-01-05");
   });
 });
 

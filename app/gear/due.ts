@@ -1,4 +1,5 @@
 import { GEAR_KIND_INFO, type GearKind } from "~/gear/kinds";
+import { addDays, addMonths } from "~/utils/dates";
 
 /** Days ahead in which an examination counts as "due soon". */
 export const DUE_SOON_DAYS = 30;
@@ -21,48 +22,6 @@ export const DUE_STATE_LABELS: Record<DueState, string> = {
   never_examined: "Never examined",
 };
 
-const ISO_DATE = /^(\d{4})-(\d{2})-(\d{2})$/;
-
-/** Whether `value` is a real calendar date written YYYY-MM-DD. */
-export function isIsoDate(value: string): boolean {
-  const m = ISO_DATE.exec(value);
-  if (!m) return false;
-  const d = new Date(Date.UTC(Number(m[1]), Number(m[2]) - 1, Number(m[3])));
-  return d.toISOString().slice(0, 10) === value;
-}
-
-function parseIso(value: string): Date {
-  if (!isIsoDate(value)) throw new Error(`Not a date: ${value}`);
-  return new Date(`${value}T00:00:00Z`);
-}
-
-function formatIso(date: Date): string {
-  return date.toISOString().slice(0, 10);
-}
-
-/** Today's date (the server's local calendar day) as YYYY-MM-DD. */
-export function todayIso(now = new Date()): string {
-  const pad = (n: number) => String(n).padStart(2, "0");
-  return `${now.getFullYear()}-${pad(now.getMonth() + 1)}-${pad(now.getDate())}`;
-}
-
-/** `date` plus whole days (negative to go back). */
-export function addDays(date: string, days: number): string {
-  const d = parseIso(date);
-  d.setUTCDate(d.getUTCDate() + days);
-  return formatIso(d);
-}
-
-/** `date` plus whole calendar months; the 31st lands on the last day of a shorter month (31 Aug + 6 = 28/29 Feb). */
-export function addMonths(date: string, months: number): string {
-  const d = parseIso(date);
-  const day = d.getUTCDate();
-  const target = new Date(Date.UTC(d.getUTCFullYear(), d.getUTCMonth() + months, 1));
-  const lastDay = new Date(Date.UTC(target.getUTCFullYear(), target.getUTCMonth() + 1, 0)).getUTCDate();
-  target.setUTCDate(Math.min(day, lastDay));
-  return formatIso(target);
-}
-
 /** The interval in months LOLER allows for this kind of item without an examination scheme. */
 export function examinationIntervalMonths(kind: GearKind): number {
   return GEAR_KIND_INFO[kind].accessory ? EXAMINATION_INTERVAL_MONTHS.accessory : EXAMINATION_INTERVAL_MONTHS.equipment;
@@ -82,9 +41,4 @@ export function dueState(nextDueOn: string | null | undefined, today: string): D
   if (nextDueOn < today) return "overdue";
   if (nextDueOn <= addDays(today, DUE_SOON_DAYS)) return "due_soon";
   return "in_date";
-}
-
-/** Whole days from `today` until `date` (negative when past). */
-export function daysUntil(date: string, today: string): number {
-  return Math.round((parseIso(date).getTime() - parseIso(today).getTime()) / 86_400_000);
 }

@@ -1,4 +1,6 @@
-import { addDays, DUE_SOON_DAYS, dueState, todayIso } from "~/gear/due";
+import { DUE_SOON_DAYS, dueState } from "~/gear/due";
+import { addDays, todayIn } from "~/utils/dates";
+import { getOrganisationTimeZone } from "~/models/organisation.server";
 import { kindLabel } from "~/gear/kinds";
 import { escapeHtml } from "~/gear/mail.server";
 import { absoluteUrl, sendMail } from "~/utils/mail.server";
@@ -55,20 +57,27 @@ export function reminderMessage(lines: ReminderLine[], today: string) {
 
 /**
  * E-mails each organisation's admins the items (not withdrawn) that are overdue or due within
- * DUE_SOON_DAYS of `today`. Organisations with nothing due, or no active admin, get no mail.
+ * DUE_SOON_DAYS of the organisation's today (in its own time zone, or `today` when given).
+ * Organisations with nothing due, or no active admin, get no mail.
  */
-export async function sendExaminationReminders(today = todayIso()): Promise<ReminderSummary[]> {
-  const items = await listGearDueBy(addDays(today, DUE_SOON_DAYS));
-  const byOrganisation = new Map<number, ReminderLine[]>();
+export async function sendExaminationReminders(today?: string, now: Date = new Date()): Promise<ReminderSummary[]> {
+  // The latest "today" anywhere on Earth is at most one day past UTC's: read that far, then cut per organisation.
+  const latestToday = today ?? addDays(todayIn("UTC", now), 1);
+  const items = await listGearDueBy(addDays(latestToday, DUE_SOON_DAYS));
+  const byOrganisation = new Map<number, GearItem[]>();
   for (const item of items) {
-    const lines = byOrganisation.get(item.organisationId) ?? [];
-    lines.push(lineFor(item, today));
-    byOrganisation.set(item.organisationId, lines);
+    const list = byOrganisation.get(item.organisationId) ?? [];
+    list.push(item);
+    byOrganisation.set(item.organisationId, list);
   }
   const summaries: ReminderSummary[] = [];
-  for (const [organisationId, lines] of byOrganisation) {
+  for (const [organisationId, orgItems] of byOrganisation) {
+    const orgToday = today ?? todayIn(await getOrganisationTimeZone(organisationId), now);
+    const cutoff = addDays(orgToday, DUE_SOON_DAYS);
+    const lines = orgItems.filter((i) => (i.nextDueOn ?? "") <= cutoff).map((i) => lineFor(i, orgToday));
+    if (!lines.length) continue;
     const admins = await listUsersWithRole(organisationId, "admin");
-    const message = reminderMessage(lines, today);
+    const message = reminderMessage(lines, orgToday);
     if (admins.length) {
       await sendMail({
         organisationId,

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { isIsoDate } from "~/gear/due";
+import { isIsoDate } from "~/utils/dates";
 import {
   CHAIN_GRADES,
   EYEBOLT_FAMILIES,

@@ -10,7 +10,8 @@ import {
   type WhereOptions,
 } from "sequelize";
 import { sequelize } from "~/utils/db.server";
-import { addDays, dueState, DUE_SOON_DAYS, type DueState } from "~/gear/due";
+import { dueState, DUE_SOON_DAYS, type DueState } from "~/gear/due";
+import { addDays } from "~/utils/dates";
 import { GEAR_STATUS_LABELS, SPEC_FIELDS, type GearKind, type GearStatus } from "~/gear/kinds";
 import type { GearItemInput } from "~/gear/schema";
 import { AuditEvent, listAuditEvents, recordAudit } from "~/models/audit-event.server";

@@ -15,7 +15,8 @@ import { sequelize } from "~/utils/db.server";
 import { absoluteUrl, sendMail } from "~/utils/mail.server";
 import { AuditEvent, recordAudit } from "~/models/audit-event.server";
 import { getOrganisation } from "~/models/organisation.server";
-import { Plan, PlanRevision, readRevision, todayIso, type RevisionView } from "~/models/plan.server";
+import { getOrganisationToday } from "~/models/organisation.server";
+import { Plan, PlanRevision, readRevision, type RevisionView } from "~/models/plan.server";
 import { getReferenceTables } from "~/models/reference-row.server";
 import { listUsersWithRole, User, verifyPassword, type SessionUser } from "~/models/user.server";
 import type { PlanResults, PlanStatus, RiggingAllocation } from "~/plans/document";
@@ -195,11 +196,18 @@ async function freshResults(
   view: RevisionView,
   transaction: Transaction,
 ): Promise<PlanResults> {
-  return computePlanResults(view.snapshot, view.arrangement, view.rigging, organisationId, todayIso(), {
-    details: view.details,
-    tables: await getReferenceTables(),
-    transaction,
-  });
+  return computePlanResults(
+    view.snapshot,
+    view.arrangement,
+    view.rigging,
+    organisationId,
+    await getOrganisationToday(organisationId),
+    {
+      details: view.details,
+      tables: await getReferenceTables(),
+      transaction,
+    },
+  );
 }
 
 function hasAllocatedGear(rigging: RiggingAllocation): boolean {

@@ -9,6 +9,7 @@ import {
   type Transaction,
 } from "sequelize";
 import { componentDefinitionSchema, type ComponentDefinition } from "~/loads/component-definition";
+import { getOrganisationToday } from "~/models/organisation.server";
 import { sequelize } from "~/utils/db.server";
 import { recordAudit } from "~/models/audit-event.server";
 import { Component, getComponent, toDefinition } from "~/models/component.server";
@@ -139,11 +140,6 @@ PlanRevision.belongsTo(Plan, { foreignKey: "planId", as: "plan" });
 
 const ENTITY = "plan";
 
-/** Today's date on the server clock, YYYY-MM-DD (inspection checks never take it from a request). */
-export function todayIso() {
-  return new Date().toISOString().slice(0, 10);
-}
-
 /** A revision's JSON columns, parsed. Stored documents were checked on the way in; the snapshot is re-checked as the one the statics read. */
 export function readRevision(revision: PlanRevision) {
   return {
@@ -259,11 +255,18 @@ export async function createPlanFromComponent(
     const arrangement = defaultArrangement(snapshot);
     const rigging: RiggingAllocation = { legs: {} };
     const details = defaultDetails();
-    const results = await computePlanResults(snapshot, arrangement, rigging, organisationId, todayIso(), {
-      details,
-      tables,
-      transaction,
-    });
+    const results = await computePlanResults(
+      snapshot,
+      arrangement,
+      rigging,
+      organisationId,
+      await getOrganisationToday(organisationId),
+      {
+        details,
+        tables,
+        transaction,
+      },
+    );
     const plan = await Plan.create(
       { organisationId, jobId, title, createdBy: actorId, currentRevisionId: null },
       { transaction },
@@ -366,7 +369,7 @@ export async function savePlanRevision(
       document.arrangement,
       document.rigging,
       organisationId,
-      todayIso(),
+      await getOrganisationToday(organisationId),
       {
         details: document.details,
         tables,
@@ -438,11 +441,18 @@ export async function pullComponentVersion(
     const snapshot = toDefinition(component);
     const changes = diffComponentDefinitions(revision.snapshot, snapshot);
     const fitted = fitToSnapshot(revision, snapshot);
-    const results = await computePlanResults(snapshot, fitted.arrangement, fitted.rigging, organisationId, todayIso(), {
-      details: revision.details,
-      tables,
-      transaction,
-    });
+    const results = await computePlanResults(
+      snapshot,
+      fitted.arrangement,
+      fitted.rigging,
+      organisationId,
+      await getOrganisationToday(organisationId),
+      {
+        details: revision.details,
+        tables,
+        transaction,
+      },
+    );
     const written = await updateDraft(
       revision.id,
       expectedVersion,

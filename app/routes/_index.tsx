@@ -4,7 +4,9 @@ import { listJobs } from "~/models/job.server";
 import { listOrganisationUsers } from "~/models/user.server";
 import { plannerQueue, reviewQueue, riggerQueue, type QueueRow } from "~/models/plan-queue.server";
 import { listOrganisationGearDueBy } from "~/models/gear-item.server";
-import { addDays, DUE_SOON_DAYS, todayIso } from "~/gear/due";
+import { DUE_SOON_DAYS } from "~/gear/due";
+import { addDays } from "~/utils/dates";
+import { getOrganisationToday } from "~/models/organisation.server";
 import { PLAN_STATUS_LABELS } from "~/plans/document";
 import { ROLE_LABELS } from "~/utils/roles";
 import { requireUser } from "~/utils/session.server";
@@ -23,6 +25,7 @@ export async function loader({ request }: Route.LoaderArgs) {
         .map((u) => ({ id: u.id, name: u.name, email: u.email }))
     : [];
   const roles = user.roles;
+  const today = roles.includes("admin") ? await getOrganisationToday(user.organisationId) : "";
   return {
     user,
     openJobs,
@@ -31,12 +34,12 @@ export async function loader({ request }: Route.LoaderArgs) {
     toReview: roles.includes("approver") ? await reviewQueue(user.organisationId) : [],
     lifts: roles.includes("rigger") ? await riggerQueue(user.organisationId, user.id) : { mine: [], unassigned: [] },
     dueGear: roles.includes("admin")
-      ? (await listOrganisationGearDueBy(user.organisationId, addDays(todayIso(), DUE_SOON_DAYS))).map((g) => ({
+      ? (await listOrganisationGearDueBy(user.organisationId, addDays(today, DUE_SOON_DAYS))).map((g) => ({
           id: g.id,
           itemCode: g.itemCode,
           description: g.description,
           nextDueOn: g.nextDueOn ?? "",
-          overdue: (g.nextDueOn ?? "") < todayIso(),
+          overdue: (g.nextDueOn ?? "") < today,
         }))
       : [],
   };

@@ -2,6 +2,7 @@ import { data, Form, redirect } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/admin.settings";
 import { Button, Card, Field, PageHeader } from "~/components/ui/form";
+import { DEFAULT_TIME_ZONE, formatDate, isTimeZone, todayIn } from "~/utils/dates";
 import { parseForm, requiredText, requireFormData } from "~/utils/forms";
 import { recordAudit } from "~/models/audit-event.server";
 import { getOrganisation, updateOrganisationSettings } from "~/models/organisation.server";
@@ -10,7 +11,17 @@ import { flashNotice, requireUserWithRole } from "~/utils/session.server";
 const schema = z.object({
   name: requiredText("organisation's name", 200),
   allowSelfApproval: z.preprocess((v) => v === "on", z.boolean()),
+  // Left out of a form that does not show it: the zone stays as it is.
+  timeZone: z
+    .string()
+    .trim()
+    .refine(isTimeZone, "Choose a time zone from the list, written as Region/City (for example Europe/London).")
+    .optional(),
 });
+
+/** The zones this runtime knows, offered as suggestions; any valid IANA name is accepted. */
+const TIME_ZONES: readonly string[] =
+  typeof Intl.supportedValuesOf === "function" ? Intl.supportedValuesOf("timeZone") : [DEFAULT_TIME_ZONE];
 
 export const meta: Route.MetaFunction = () => [{ title: "Organisation settings · Plumbline" }];
 
@@ -18,7 +29,12 @@ export async function loader({ request }: Route.LoaderArgs) {
   const admin = await requireUserWithRole(request, "admin");
   const organisation = await getOrganisation(admin.organisationId);
   if (!organisation) throw data({ message: "Your organisation was not found." }, { status: 404 });
-  return { name: organisation.name, allowSelfApproval: organisation.allowSelfApproval };
+  return {
+    name: organisation.name,
+    allowSelfApproval: organisation.allowSelfApproval,
+    timeZone: organisation.timeZone,
+    today: todayIn(organisation.timeZone),
+  };
 }
 
 export async function action({ request }: Route.ActionArgs) {
@@ -64,6 +80,20 @@ export default function OrganisationSettings({ loaderData, actionData }: Route.C
               </span>
             </span>
           </label>
+          <Field
+            label="Time zone"
+            name="timeZone"
+            defaultValue={loaderData.timeZone}
+            list="time-zones"
+            required
+            errors={errors.timeZone}
+            hint={`Decides "today" for examination due dates, plan checks, approval and reminders (today there is ${formatDate(loaderData.today)}).`}
+          />
+          <datalist id="time-zones">
+            {TIME_ZONES.map((zone) => (
+              <option key={zone} value={zone} />
+            ))}
+          </datalist>
           <Button type="submit">Save settings</Button>
         </Form>
       </Card>

@@ -1,6 +1,6 @@
 import { data, redirect } from "react-router";
+import { getOrganisationToday } from "~/models/organisation.server";
 import { parseForm } from "~/utils/forms";
-import { todayIso } from "~/gear/due";
 import { GEAR_STATUS_LABELS } from "~/gear/kinds";
 import { sendDefectReportMail } from "~/gear/mail.server";
 import { defectReportSchema, examinationSchema, statusChangeSchema } from "~/gear/schema";
@@ -48,7 +48,7 @@ export async function handleGearItemAction(request: Request, user: SessionUser, 
     if (!isAdmin) throw forbidden();
     const form = parseForm(examinationSchema, formData);
     const errors: Errors = form.ok ? {} : { ...form.errors };
-    if (form.ok && form.data.examinedOn > todayIso())
+    if (form.ok && form.data.examinedOn > (await getOrganisationToday(user.organisationId)))
       errors.examinedOn = ["An examination cannot be dated in the future."];
     const file = uploadedFile(formData, "certificate");
     const checked = file ? await checkUpload(file, ["pdf"]) : null;

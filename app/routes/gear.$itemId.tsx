@@ -13,7 +13,9 @@ import {
   SelectField,
   TextAreaField,
 } from "~/components/ui/form";
-import { defaultNextDue, dueState, examinationIntervalMonths, isIsoDate, todayIso } from "~/gear/due";
+import { defaultNextDue, dueState, examinationIntervalMonths } from "~/gear/due";
+import { isIsoDate } from "~/utils/dates";
+import { getOrganisationToday } from "~/models/organisation.server";
 import {
   GEAR_KIND_INFO,
   GEAR_STATUS_LABELS,
@@ -36,7 +38,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     listExaminations(user.organisationId, item.id),
     listGearHistory(user.organisationId, item.id),
   ]);
-  const today = todayIso();
+  const today = await getOrganisationToday(user.organisationId);
   return {
     today,
     canAdmin: hasAnyRole(user, "admin"),

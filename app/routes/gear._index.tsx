@@ -11,7 +11,8 @@ import type { Route } from "./+types/gear._index";
 import { DueLabel, StatusLabel, formatWll } from "~/components/gear-labels";
 import { Button, EmptyState, PageHeader } from "~/components/ui/form";
 import { withoutControlCharacters } from "~/utils/forms";
-import { DUE_SOON_DAYS, DUE_STATE_LABELS, DUE_STATES, todayIso } from "~/gear/due";
+import { DUE_SOON_DAYS, DUE_STATE_LABELS, DUE_STATES } from "~/gear/due";
+import { getOrganisationToday } from "~/models/organisation.server";
 import { GEAR_KIND_INFO, GEAR_KINDS, GEAR_STATUS_LABELS, GEAR_STATUSES, kindLabel, sizeSummary } from "~/gear/kinds";
 import {
   countGearDue,
@@ -48,7 +49,7 @@ export async function loader({ request }: Route.LoaderArgs) {
   const url = new URL(request.url);
   const raw = Object.fromEntries([...url.searchParams].filter(([, v]) => v !== ""));
   const search = searchSchema.parse(raw);
-  const today = todayIso();
+  const today = await getOrganisationToday(user.organisationId);
   const query = { ...search, q: search.q || undefined, pageSize: PAGE_SIZE };
   const [{ rows, total }, sites, due] = await Promise.all([
     searchGearItems(user.organisationId, query, today),

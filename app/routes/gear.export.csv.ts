@@ -1,13 +1,14 @@
 import type { Route } from "./+types/gear.export.csv";
+import { getOrganisationToday } from "~/models/organisation.server";
 import { CSV_HEADERS, exportRow, toCsv } from "~/gear/csv";
-import { dueState, todayIso } from "~/gear/due";
+import { dueState } from "~/gear/due";
 import { listAllGearItems } from "~/models/gear-item.server";
 import { requireUser } from "~/utils/session.server";
 
 /** The whole register as CSV, in the format the import reads back (formula-looking cells neutralised). */
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request);
-  const today = todayIso();
+  const today = await getOrganisationToday(user.organisationId);
   const items = await listAllGearItems(user.organisationId);
   const rows = items.map((item) =>
     exportRow({

@@ -1,6 +1,7 @@
 // The invented demo company's gear register. Dates are relative to the day of seeding, so the
 // demo always shows items in date, due within 30 days, one overdue, one quarantined and one withdrawn.
-import { addDays, addMonths, examinationIntervalMonths, todayIso } from "~/gear/due";
+import { examinationIntervalMonths } from "~/gear/due";
+import { DEFAULT_TIME_ZONE, addDays, addMonths, todayIn } from "~/utils/dates";
 import { BLANK_GEAR_FIELDS, type GearItemInput } from "~/gear/schema";
 import { recordExamination } from "~/models/examination.server";
 import { changeGearStatus, createGearItem, GearItem, reportGearDefect } from "~/models/gear-item.server";
@@ -376,7 +377,7 @@ export async function up() {
     if (!site) throw new Error(`The demo site "${name}" is missing.`);
     return site.id;
   };
-  const today = todayIso();
+  const today = todayIn(DEFAULT_TIME_ZONE);
   let n = 0;
   for (const demo of DEMO_GEAR) {
     const input: GearItemInput = { ...NONE, ...demo.item, homeSiteId: demo.site ? siteId(demo.site) : null };

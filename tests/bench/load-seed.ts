@@ -4,7 +4,8 @@
 // Run: DATABASE_PATH=... PLUMBLINE_ENV=demo tsx tests/bench/load-seed.ts 10000 5000 (after db/cli.ts setup)
 import { randomBytes } from "node:crypto";
 import { sequelize } from "~/utils/db.server";
-import { addDays, addMonths, examinationIntervalMonths, todayIso } from "~/gear/due";
+import { examinationIntervalMonths } from "~/gear/due";
+import { DEFAULT_TIME_ZONE, addDays, addMonths, todayIn } from "~/utils/dates";
 import { gearItemSchema } from "~/gear/schema";
 import type { GearKind } from "~/gear/kinds";
 import { Examination } from "~/models/examination.server";
@@ -71,7 +72,7 @@ async function inChunks<T>(rows: T[], write: (chunk: T[]) => Promise<unknown>) {
 }
 
 async function seedGear(organisationId: number, adminId: number, count: number) {
-  const today = todayIso();
+  const today = todayIn(DEFAULT_TIME_ZONE);
   const items = Array.from({ length: count }, (_, i) => {
     const shape = GEAR_SHAPES[i % GEAR_SHAPES.length]!;
     const [wllValue, wllUnit] = shape.wll();

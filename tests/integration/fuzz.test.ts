@@ -1067,8 +1067,8 @@ describe("fuzzing the forms", () => {
       return world.admin;
     },
     changesUsers: true,
-    bases: [() => ({ name: "Fuzz Lifting Ltd", allowSelfApproval: "on" })],
-    words: ["on", "off"],
+    bases: [() => ({ name: "Fuzz Lifting Ltd", allowSelfApproval: "on", timeZone: "Europe/London" })],
+    words: ["on", "off", "America/Chicago", "Mars/Olympus", "Etc/GMT+5"],
   });
 
   fuzzForm({

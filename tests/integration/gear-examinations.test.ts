@@ -3,7 +3,7 @@ import path from "node:path";
 import { describe, expect, it } from "vitest";
 import * as itemPage from "~/routes/gear.$itemId";
 import { env } from "~/utils/env.server";
-import { addDays, addMonths, todayIso } from "~/gear/due";
+import { DEFAULT_TIME_ZONE, addDays, addMonths, todayIn } from "~/utils/dates";
 import { CaughtMail, listCaughtMail } from "~/models/caught-mail.server";
 import { Examination } from "~/models/examination.server";
 import { GearItem } from "~/models/gear-item.server";
@@ -30,7 +30,7 @@ describe("recording thorough examinations", () => {
   it("defaults the next due date to 6 months for a lifting accessory (LOLER 1998 reg 9(3)(a))", async () => {
     const { admin } = await adminWithSite();
     const item = await makeGearItem(admin);
-    const examinedOn = addDays(todayIso(), -3);
+    const examinedOn = addDays(todayIn(DEFAULT_TIME_ZONE), -3);
     const res = await post(item.id, await postForm(`/gear/${item.id}`, examine({ examinedOn }), admin));
     expect(res.status).toBe(302);
     await item.reload();
@@ -50,7 +50,7 @@ describe("recording thorough examinations", () => {
       hookHeightM: 5.2,
       wllValue: 5,
     });
-    const examinedOn = todayIso();
+    const examinedOn = todayIn(DEFAULT_TIME_ZONE);
     await post(crane.id, await postForm(`/gear/${crane.id}`, examine({ examinedOn }), admin));
     await crane.reload();
     expect(crane.nextDueOn).toBe(addMonths(examinedOn, 12));
@@ -59,7 +59,7 @@ describe("recording thorough examinations", () => {
   it("keeps a next due date set by an examination scheme, and the item follows its latest examination", async () => {
     const { admin } = await adminWithSite();
     const item = await makeGearItem(admin);
-    const today = todayIso();
+    const today = todayIn(DEFAULT_TIME_ZONE);
     await post(
       item.id,
       await postForm(`/gear/${item.id}`, examine({ examinedOn: today, nextDueOn: addMonths(today, 3) }), admin),
@@ -74,7 +74,7 @@ describe("recording thorough examinations", () => {
   it("refuses an examination without an examiner, dated in the future, failed without defects, or due before it, writing nothing", async () => {
     const { admin } = await adminWithSite();
     const item = await makeGearItem(admin);
-    const today = todayIso();
+    const today = todayIn(DEFAULT_TIME_ZONE);
     const cases: Array<[Record<string, string>, string]> = [
       [examine({ examinedOn: today, examiner: " " }), "examiner"],
       [examine({ examinedOn: addDays(today, 1) }), "examinedOn"],
@@ -98,7 +98,7 @@ describe("recording thorough examinations", () => {
       item.id,
       await postForm(
         `/gear/${item.id}`,
-        examine({ examinedOn: todayIso(), result: "fail", defects: "Pin bent, threads galled" }),
+        examine({ examinedOn: todayIn(DEFAULT_TIME_ZONE), result: "fail", defects: "Pin bent, threads galled" }),
         admin,
       ),
     );
@@ -124,7 +124,7 @@ describe("certificates", () => {
       item.id,
       await postMultipart(
         `/gear/${item.id}`,
-        examine({ examinedOn: todayIso() }),
+        examine({ examinedOn: todayIn(DEFAULT_TIME_ZONE) }),
         { certificate: { bytes: PDF_BYTES, name: "Report 118.pdf", type: "application/pdf" } },
         admin,
       ),
@@ -162,7 +162,7 @@ describe("certificates", () => {
         item.id,
         await postMultipart(
           `/gear/${item.id}`,
-          examine({ examinedOn: todayIso() }),
+          examine({ examinedOn: todayIn(DEFAULT_TIME_ZONE) }),
           { certificate: { bytes, name, type: "application/pdf" } },
           admin,
         ),
@@ -184,7 +184,7 @@ describe("certificates", () => {
       item.id,
       await postMultipart(
         `/gear/${item.id}`,
-        examine({ examinedOn: todayIso() }),
+        examine({ examinedOn: todayIn(DEFAULT_TIME_ZONE) }),
         { certificate: { bytes: big, name: "huge.pdf" } },
         admin,
       ),
@@ -244,7 +244,7 @@ describe("status changes", () => {
   it("an item whose latest examination failed goes back into service only after a passing one", async () => {
     const { admin } = await adminWithSite();
     const item = await makeGearItem(admin);
-    const today = todayIso();
+    const today = todayIn(DEFAULT_TIME_ZONE);
     await post(
       item.id,
       await postForm(

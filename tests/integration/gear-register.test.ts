@@ -6,7 +6,7 @@ import * as editItem from "~/routes/gear.$itemId.edit";
 import { AuditEvent } from "~/models/audit-event.server";
 import { Examination } from "~/models/examination.server";
 import { GearItem } from "~/models/gear-item.server";
-import { addDays, todayIso } from "~/gear/due";
+import { DEFAULT_TIME_ZONE, addDays, todayIn } from "~/utils/dates";
 import { callRoute, getRequest, makeUser, postForm } from "../support/factories";
 import { adminWithSite, makeGearItem, SHACKLE_FIELDS } from "../support/gear";
 
@@ -158,7 +158,7 @@ describe("who may do what", () => {
         itemPage.action,
         await postForm(
           `/gear/${item.id}`,
-          { intent: "examination", examinedOn: todayIso(), examiner: "X", result: "pass" },
+          { intent: "examination", examinedOn: todayIn(DEFAULT_TIME_ZONE), examiner: "X", result: "pass" },
           user,
         ),
         { itemId: String(item.id) },
@@ -195,7 +195,7 @@ describe("who may do what", () => {
     ).toBe(404);
     const posts: Array<Record<string, string>> = [
       { ...SHACKLE_FIELDS, itemCode: "HIJACK" },
-      { intent: "examination", examinedOn: todayIso(), examiner: "X", result: "fail", defects: "none" },
+      { intent: "examination", examinedOn: todayIn(DEFAULT_TIME_ZONE), examiner: "X", result: "fail", defects: "none" },
       { intent: "status", status: "withdrawn", reason: "theirs" },
       { intent: "defect", defect: "sabotage" },
     ];
@@ -220,7 +220,7 @@ describe("who may do what", () => {
 describe("the register's filters, search, sort and pages", () => {
   async function registerOfSix() {
     const { admin, site } = await adminWithSite("Fernbrook");
-    const today = todayIso();
+    const today = todayIn(DEFAULT_TIME_ZONE);
     const make = async (itemCode: string, input: Parameters<typeof makeGearItem>[1], nextDueOn: string | null) => {
       const item = await makeGearItem(admin, { itemCode, ...input });
       if (nextDueOn) await item.update({ nextDueOn, lastExaminedOn: addDays(nextDueOn, -180) });

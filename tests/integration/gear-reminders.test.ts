@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { addDays } from "~/gear/due";
+import { addDays } from "~/utils/dates";
 import { CaughtMail, listCaughtMail } from "~/models/caught-mail.server";
 import { sendExaminationReminders } from "~/gear/reminders.server";
 import { makeUser } from "../support/factories";
