@@ -11,6 +11,7 @@ import * as planWorkflow from "./migrations/0008-plan-workflow";
 import * as signInAttempts from "./migrations/0009-sign-in-attempts";
 import * as indexes from "./migrations/0010-indexes";
 import * as organisationTimeZone from "./migrations/0021-organisation-time-zone";
+import * as examinationRecords from "./migrations/0022-examination-records";
 
 export type Migration = (params: { context: QueryInterface }) => Promise<void>;
 type MigrationModule = { up: Migration; down: Migration };
@@ -31,6 +32,7 @@ export const migrations: Array<[name: string, module: MigrationModule]> = [
   ["0009-sign-in-attempts", signInAttempts],
   ["0010-indexes", indexes],
   ["0021-organisation-time-zone", organisationTimeZone],
+  ["0022-examination-records", examinationRecords],
 ];
 
 /** The umzug runner over `sequelize`, recording applied migrations in SequelizeMeta. */

@@ -11,8 +11,25 @@ const DUE_TONES: Record<DueState, string> = {
 
 const DUE_MARKS: Record<DueState, string> = { overdue: "!", due_soon: "◷", in_date: "✓", never_examined: "–" };
 
-/** The due state in words (and a mark), with colour only as a second signal. */
-export function DueLabel({ state }: { state: DueState }) {
+/**
+ * The due state in words (and a mark), with colour only as a second signal. An item out of use never
+ * shows a green "In date": its examination date does not make it usable.
+ */
+export function DueLabel({ state, status = "in_service" }: { state: DueState; status?: GearStatus }) {
+  if (status === "withdrawn")
+    return (
+      <span className="inline-flex items-center gap-1 whitespace-nowrap rounded border border-rule bg-paper px-1.5 py-0.5 text-xs text-ink-soft">
+        <span aria-hidden="true">×</span>
+        Withdrawn: not in use
+      </span>
+    );
+  if (status === "quarantined" && state !== "overdue")
+    return (
+      <span className="inline-flex items-center gap-1 whitespace-nowrap rounded border border-fail/50 bg-fail-soft px-1.5 py-0.5 text-xs font-semibold text-fail">
+        <span aria-hidden="true">!</span>
+        Quarantined: examine before use
+      </span>
+    );
   return (
     <span
       className={`inline-flex items-center gap-1 whitespace-nowrap rounded border px-1.5 py-0.5 text-xs ${DUE_TONES[state]}`}
@@ -37,8 +54,8 @@ export function StatusLabel({ status }: { status: GearStatus }) {
   );
 }
 
-/** "2 t" as marked, with the kg figure when the mark is not in kg. */
+/** "2 t" as marked, with the kg figure (rounded down: a capacity is never overstated) when the mark is not in kg. */
 export function formatWll(value: number, unit: MassUnit, kg: number) {
   const marked = `${value} ${WLL_UNIT_LABELS[unit]}`;
-  return unit === "kg" ? marked : `${marked} (${Math.round(kg).toLocaleString("en-GB")} kg)`;
+  return unit === "kg" ? marked : `${marked} (${Math.floor(kg + 1e-9).toLocaleString("en-GB")} kg)`;
 }

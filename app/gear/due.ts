@@ -22,6 +22,29 @@ export const DUE_STATE_LABELS: Record<DueState, string> = {
   never_examined: "Never examined",
 };
 
+/** The rules an organisation works to, as far as examination intervals go. */
+export type ExaminationRules = "uk-eu" | "us";
+
+/**
+ * Longest interval between periodic examinations without a written scheme, in months, by rule set:
+ * UK/EU, LOLER 1998 reg 9(3)(a) (accessories 6, other lifting equipment 12); US, ASME B30.9 / B30.26
+ * periodic inspection at least yearly in normal service (shorter in severe service, which the examiner sets).
+ */
+export const MAX_INTERVAL_MONTHS: Record<ExaminationRules, { accessory: number; equipment: number }> = {
+  "uk-eu": { accessory: 6, equipment: 12 },
+  us: { accessory: 12, equipment: 12 },
+};
+
+/** The most months the rules allow between examinations of this kind of item without a written scheme. */
+export function maxExaminationIntervalMonths(kind: GearKind, rules: ExaminationRules = "uk-eu"): number {
+  return GEAR_KIND_INFO[kind].accessory ? MAX_INTERVAL_MONTHS[rules].accessory : MAX_INTERVAL_MONTHS[rules].equipment;
+}
+
+/** The latest next-due date the rules allow after an examination on `examinedOn` without a written scheme. */
+export function latestNextDue(kind: GearKind, examinedOn: string, rules: ExaminationRules = "uk-eu"): string {
+  return addMonths(examinedOn, maxExaminationIntervalMonths(kind, rules));
+}
+
 /** The interval in months LOLER allows for this kind of item without an examination scheme. */
 export function examinationIntervalMonths(kind: GearKind): number {
   return GEAR_KIND_INFO[kind].accessory ? EXAMINATION_INTERVAL_MONTHS.accessory : EXAMINATION_INTERVAL_MONTHS.equipment;

@@ -164,26 +164,65 @@ const isoDate = (label: string) =>
   z.preprocess(trimmed, z.string().refine(isIsoDate, `Give the ${label} as a date (YYYY-MM-DD).`));
 
 /** A thorough examination as the form gives it; the next due date may be left empty for the default. */
+/** What kind of thorough examination this was (LOLER 1998 reg 9; ASME B30.9 / B30.26 inspections). */
+export const EXAMINATION_KINDS = ["initial", "periodic", "exceptional", "scheme"] as const;
+export type ExaminationKind = (typeof EXAMINATION_KINDS)[number];
+export const EXAMINATION_KIND_LABELS: Record<ExaminationKind, string> = {
+  initial: "Initial, before first use",
+  periodic: "Periodic, within the statutory interval",
+  exceptional: "After exceptional circumstances or repair",
+  scheme: "Under a written examination scheme",
+};
+
+/** How soon the defects found must be put right (LOLER 1998 Schedule 1 paras 6 and 7). */
+export const DEFECT_URGENCIES = ["none", "immediate", "by_date"] as const;
+export type DefectUrgency = (typeof DEFECT_URGENCIES)[number];
+export const DEFECT_URGENCY_LABELS: Record<DefectUrgency, string> = {
+  none: "No defect found",
+  immediate: "Immediate danger: take out of use now",
+  by_date: "Must be put right by a date",
+};
+
 export const examinationSchema = z
   .object({
+    kind: z.enum(EXAMINATION_KINDS, { error: "Choose the kind of examination." }).default("periodic"),
     examinedOn: isoDate("examination date"),
+    reportNumber: text(100),
     examiner: z.preprocess(
       trimmed,
       z.string().min(1, "Enter the competent person who examined the item.").max(200, "At most 200 characters."),
     ),
+    examinerOrganisation: text(200),
     result: z.enum(["pass", "fail"], { error: "Choose pass or fail." }),
     defects: text(4000),
+    defectUrgency: z.enum(DEFECT_URGENCIES, { error: "Choose how urgent the defects are." }).default("none"),
+    defectsDueBy: z.preprocess(
+      blankToNull,
+      z.string().refine(isIsoDate, "Give the date as a date (YYYY-MM-DD).").nullable(),
+    ),
+    schemeReference: text(200),
     nextDueOn: z.preprocess(
       blankToNull,
       z.string().refine(isIsoDate, "Give the next due date as a date (YYYY-MM-DD).").nullable(),
     ),
   })
   .superRefine((exam, ctx) => {
-    if (exam.result === "fail" && !exam.defects) {
-      ctx.addIssue({ code: "custom", path: ["defects"], message: "A failed examination needs the defects found." });
+    const issue = (path: string, message: string) => ctx.addIssue({ code: "custom", path: [path], message });
+    if (exam.result === "fail" && !exam.defects) issue("defects", "A failed examination needs the defects found.");
+    if (exam.defectUrgency !== "none" && !exam.defects) issue("defects", "Describe the defects the urgency is for.");
+    if (exam.defects && exam.defectUrgency === "none" && exam.result === "pass")
+      issue("defectUrgency", "Say how soon the defects must be put right, or remove them if there are none.");
+    if (exam.result === "pass" && exam.defectUrgency === "immediate")
+      issue("result", "A defect of immediate danger means the item fails: record the result as fail.");
+    if (exam.defectUrgency === "by_date") {
+      if (!exam.defectsDueBy) issue("defectsDueBy", "Give the date by which the defects must be put right.");
+      else if (exam.defectsDueBy <= exam.examinedOn)
+        issue("defectsDueBy", "The date to put the defects right must fall after the examination.");
     }
+    if (exam.kind === "scheme" && !exam.schemeReference)
+      issue("schemeReference", "Name the written examination scheme this examination follows.");
     if (exam.nextDueOn && exam.nextDueOn <= exam.examinedOn) {
-      ctx.addIssue({ code: "custom", path: ["nextDueOn"], message: "The next examination must fall after this one." });
+      issue("nextDueOn", "The next examination must fall after this one.");
     }
   });
 

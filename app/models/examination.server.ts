@@ -7,9 +7,10 @@ import {
   type NonAttribute,
   type Transaction,
 } from "sequelize";
-import { defaultNextDue } from "~/gear/due";
+import { defaultNextDue, latestNextDue, maxExaminationIntervalMonths, type ExaminationRules } from "~/gear/due";
+import { GEAR_KIND_INFO } from "~/gear/kinds";
 import { sequelize } from "~/utils/db.server";
-import type { ExaminationFields } from "~/gear/schema";
+import type { DefectUrgency, ExaminationFields, ExaminationKind } from "~/gear/schema";
 import { recordAudit } from "~/models/audit-event.server";
 import { GearItem, setGearStatus } from "~/models/gear-item.server";
 import { StoredFile } from "~/models/stored-file.server";
@@ -21,10 +22,16 @@ export class Examination extends Model<InferAttributes<Examination>, InferCreati
   declare id: CreationOptional<number>;
   declare organisationId: number;
   declare gearItemId: number;
+  declare kind: CreationOptional<ExaminationKind>;
   declare examinedOn: string;
+  declare reportNumber: CreationOptional<string>;
   declare examiner: string;
+  declare examinerOrganisation: CreationOptional<string>;
   declare result: "pass" | "fail";
   declare defects: CreationOptional<string>;
+  declare defectUrgency: CreationOptional<DefectUrgency>;
+  declare defectsDueBy: CreationOptional<string | null>;
+  declare schemeReference: CreationOptional<string>;
   declare nextDueOn: string;
   declare certificateFileId: number | null;
   declare recordedBy: number;
@@ -38,10 +45,16 @@ Examination.init(
     id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
     organisationId: { type: DataTypes.INTEGER, allowNull: false },
     gearItemId: { type: DataTypes.INTEGER, allowNull: false },
+    kind: { type: DataTypes.STRING(12), allowNull: false, defaultValue: "periodic" },
     examinedOn: { type: DataTypes.DATEONLY, allowNull: false },
+    reportNumber: { type: DataTypes.STRING(100), allowNull: false, defaultValue: "" },
     examiner: { type: DataTypes.STRING(200), allowNull: false },
+    examinerOrganisation: { type: DataTypes.STRING(200), allowNull: false, defaultValue: "" },
     result: { type: DataTypes.STRING(4), allowNull: false },
     defects: { type: DataTypes.TEXT, allowNull: false, defaultValue: "" },
+    defectUrgency: { type: DataTypes.STRING(10), allowNull: false, defaultValue: "none" },
+    defectsDueBy: { type: DataTypes.DATEONLY, allowNull: true },
+    schemeReference: { type: DataTypes.STRING(200), allowNull: false, defaultValue: "" },
     nextDueOn: { type: DataTypes.DATEONLY, allowNull: false },
     certificateFileId: { type: DataTypes.INTEGER, allowNull: true },
     recordedBy: { type: DataTypes.INTEGER, allowNull: false },
@@ -82,12 +95,18 @@ export async function getLatestExamination(organisationId: number, gearItemId: n
   });
 }
 
-export type RecordedExamination = { examination: Examination; nextDueOn: string; quarantined: boolean } | null;
+export type RecordedExamination =
+  | { ok: true; examination: Examination; nextDueOn: string; quarantined: boolean; released: boolean }
+  | { ok: false; field: keyof ExaminationFields; message: string }
+  | null;
 
 /**
- * Records an examination and its certificate in one transaction. The next due date defaults to
- * LOLER's interval for the item's kind; the item's due date follows its latest examination; a
- * failed examination quarantines an item in service.
+ * Records an examination and its certificate in one transaction. The next due date defaults to the
+ * rules' interval for the item's kind and may not pass the rules' longest interval unless the
+ * examination follows a named written scheme; the item's due date follows its latest examination.
+ * A failed examination (or one finding a defect of immediate danger) quarantines an item in service;
+ * a passed one dated on or after the day a quarantined item was taken out of use returns it to
+ * service, recorded against the defect. A withdrawn item stays withdrawn.
  */
 export async function recordExamination(
   organisationId: number,
@@ -95,11 +114,23 @@ export async function recordExamination(
   fields: ExaminationFields,
   certificate: CheckedUpload | null,
   actorId: number,
+  rules: ExaminationRules = "uk-eu",
 ): Promise<RecordedExamination> {
   return transactionWithFiles(async (transaction, store) => {
     const item = await GearItem.findOne({ where: { organisationId, id: gearItemId }, transaction });
     if (!item) return null;
     const nextDueOn = fields.nextDueOn ?? defaultNextDue(item.kind, fields.examinedOn);
+    const latestAllowed = latestNextDue(item.kind, fields.examinedOn, rules);
+    if (nextDueOn > latestAllowed && !fields.schemeReference) {
+      const months = maxExaminationIntervalMonths(item.kind, rules);
+      const what = GEAR_KIND_INFO[item.kind].accessory ? "a lifting accessory" : "lifting equipment";
+      const rule = rules === "us" ? "ASME B30.9 / B30.26 periodic inspection" : "LOLER 1998 reg 9(3)(a)";
+      return {
+        ok: false,
+        field: "nextDueOn",
+        message: `Under ${rule}, ${what} is examined at least every ${months} months: the next examination is due by ${latestAllowed} at the latest. A longer interval needs a written examination scheme: name it.`,
+      };
+    }
     const file = certificate
       ? await store(certificate, { organisationId, purpose: "certificate", uploadedBy: actorId })
       : null;
@@ -107,10 +138,16 @@ export async function recordExamination(
       {
         organisationId,
         gearItemId,
+        kind: fields.kind,
         examinedOn: fields.examinedOn,
+        reportNumber: fields.reportNumber,
         examiner: fields.examiner,
+        examinerOrganisation: fields.examinerOrganisation,
         result: fields.result,
         defects: fields.defects,
+        defectUrgency: fields.defectUrgency,
+        defectsDueBy: fields.defectUrgency === "by_date" ? fields.defectsDueBy : null,
+        schemeReference: fields.schemeReference,
         nextDueOn,
         certificateFileId: file?.id ?? null,
         recordedBy: actorId,
@@ -128,26 +165,49 @@ export async function recordExamination(
         action: "examination recorded",
         details: {
           examinationId: examination.id,
+          kind: fields.kind,
           examinedOn: fields.examinedOn,
+          reportNumber: fields.reportNumber,
           result: fields.result,
+          defectUrgency: fields.defectUrgency,
           nextDueOn,
           examiner: fields.examiner,
+          examinerOrganisation: fields.examinerOrganisation,
+          schemeReference: fields.schemeReference,
         },
       },
       transaction,
     );
-    const quarantined = fields.result === "fail" && item.status === "in_service";
+    const report = [fields.reportNumber && `report ${fields.reportNumber}`, fields.examiner].filter(Boolean).join(", ");
+    const fails = fields.result === "fail" || fields.defectUrgency === "immediate";
+    const quarantined = fails && item.status === "in_service";
     if (quarantined) {
       await setGearStatus(
         item,
         {
           status: "quarantined",
-          reason: `Failed thorough examination on ${fields.examinedOn} (${fields.examiner}): ${fields.defects}`,
+          reason: `Failed thorough examination on ${fields.examinedOn} (${report}): ${fields.defects}`,
           actorId,
         },
         transaction,
       );
     }
-    return { examination, nextDueOn, quarantined };
+    const quarantinedOn = item.statusChangedAt ? item.statusChangedAt.toISOString().slice(0, 10) : "";
+    const released =
+      !fails && item.status === "quarantined" && fields.examinedOn >= quarantinedOn && latest?.id === examination.id;
+    if (released) {
+      await setGearStatus(
+        item,
+        {
+          status: "in_service",
+          reason: `Passed thorough examination on ${fields.examinedOn} (${report}) after being quarantined: ${item.statusReason}`,
+          actorId,
+          action: "returned to service",
+          details: { examinationId: examination.id },
+        },
+        transaction,
+      );
+    }
+    return { ok: true, examination, nextDueOn, quarantined, released };
   });
 }

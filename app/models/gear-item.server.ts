@@ -381,28 +381,34 @@ export async function setGearStatus(
 }
 
 /**
- * An admin's change of status. An item whose latest thorough examination failed cannot go back
- * into service until a passing examination is recorded.
+ * An admin's change of status, along the item's life: in service -> quarantined -> withdrawn, or in
+ * service -> withdrawn. Withdrawn is final (the item stays on record and is never allocated again),
+ * and a quarantined item returns to service only through a passed thorough examination recorded
+ * after it was quarantined (recordExamination), never by a change of status alone.
  */
 export async function changeGearStatus(
   organisationId: number,
   itemId: number,
   change: { status: GearStatus; reason: string },
   actorId: number,
-  latestResult: "pass" | "fail" | null,
 ): Promise<StatusChangeResult> {
   return sequelize.transaction(async (transaction) => {
     const item = await GearItem.findOne({ where: { organisationId, id: itemId }, transaction });
     if (!item) return { ok: false, message: "There is no such item in your organisation." };
     if (item.status === change.status)
       return { ok: false, message: `The item is already ${GEAR_STATUS_LABELS[change.status].toLowerCase()}.` };
-    if (change.status === "in_service" && latestResult === "fail") {
+    if (item.status === "withdrawn")
       return {
         ok: false,
         message:
-          "The latest thorough examination failed: record a passing examination before returning the item to service.",
+          "Withdrawn is final: the item stays on record but can never be used or allocated again. Register a replacement.",
       };
-    }
+    if (change.status === "in_service")
+      return {
+        ok: false,
+        message:
+          "A quarantined item returns to service only through a passed thorough examination recorded after it was quarantined: record the examination, and a pass returns it to service.",
+      };
     await setGearStatus(item, { ...change, actorId }, transaction);
     return { ok: true, item };
   });

@@ -99,7 +99,7 @@ export async function loadAllocatedGear(
   return new Map(items.map((i) => [i.id, i]));
 }
 
-/** Allocations that cannot stand: unknown items, an item of the wrong kind, one item in two places. */
+/** Allocations that cannot stand: unknown or withdrawn items, an item of the wrong kind, one item in two places. */
 export function allocationIssues(rigging: RiggingAllocation, items: ReadonlyMap<number, GearItem>): PlanIssue[] {
   const issues: PlanIssue[] = [];
   const uses = new Map<number, Slot[]>();
@@ -109,6 +109,13 @@ export function allocationIssues(rigging: RiggingAllocation, items: ReadonlyMap<
       issues.push({
         path: slot.path,
         message: `There is no gear item ${slot.itemId} in your organisation's register.`,
+      });
+      continue;
+    }
+    if (item.status === "withdrawn") {
+      issues.push({
+        path: slot.path,
+        message: `${item.itemCode} is withdrawn from use (${item.statusReason || "no reason recorded"}): it can never be allocated again. Allocate another item.`,
       });
       continue;
     }

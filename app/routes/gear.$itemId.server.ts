@@ -4,7 +4,7 @@ import { parseForm } from "~/utils/forms";
 import { GEAR_STATUS_LABELS } from "~/gear/kinds";
 import { sendDefectReportMail } from "~/gear/mail.server";
 import { defectReportSchema, examinationSchema, statusChangeSchema } from "~/gear/schema";
-import { getLatestExamination, recordExamination } from "~/models/examination.server";
+import { recordExamination } from "~/models/examination.server";
 import { changeGearStatus, getGearItem, reportGearDefect, type GearItem } from "~/models/gear-item.server";
 import type { SessionUser } from "~/models/user.server";
 import { flashNotice } from "~/utils/session.server";
@@ -62,9 +62,10 @@ export async function handleGearItemAction(request: Request, user: SessionUser, 
       user.id,
     );
     if (!recorded) throw data({ message: "There is no such item in your organisation's register." }, { status: 404 });
+    if (!recorded.ok) return refuse("examination", { [recorded.field]: [recorded.message] });
     const notice =
-      form.data.result === "pass"
-        ? `Examination recorded: pass. Next thorough examination due ${recorded.nextDueOn}.`
+      form.data.result === "pass" && form.data.defectUrgency !== "immediate"
+        ? `Examination recorded: pass.${recorded.released ? " The item is back in service." : ""} Next thorough examination due ${recorded.nextDueOn}.`
         : `Examination recorded: FAIL.${recorded.quarantined ? " The item is quarantined." : ""} Next due ${recorded.nextDueOn}.`;
     return backToItem(request, item, notice);
   }
@@ -73,8 +74,7 @@ export async function handleGearItemAction(request: Request, user: SessionUser, 
     if (!isAdmin) throw forbidden();
     const form = parseForm(statusChangeSchema, formData);
     if (!form.ok) return refuse("status", form.errors);
-    const latest = await getLatestExamination(user.organisationId, item.id);
-    const result = await changeGearStatus(user.organisationId, item.id, form.data, user.id, latest?.result ?? null);
+    const result = await changeGearStatus(user.organisationId, item.id, form.data, user.id);
     if (!result.ok) return refuse("status", { status: [result.message] });
     return backToItem(request, item, `${item.itemCode} is now ${GEAR_STATUS_LABELS[form.data.status].toLowerCase()}.`);
   }

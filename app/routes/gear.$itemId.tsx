@@ -1,29 +1,19 @@
-import { useState } from "react";
-import { Form, useNavigation } from "react-router";
+import { Form } from "react-router";
 import type { Route } from "./+types/gear.$itemId";
 import { handleGearItemAction, requireGearItem, type GearIntent } from "./gear.$itemId.server";
 import { DueLabel, StatusLabel, formatWll } from "~/components/gear-labels";
+import { ExaminationForm } from "~/components/gear-examination-form";
+import { Button, Card, EmptyState, FormError, PageHeader, SelectField, TextAreaField } from "~/components/ui/form";
+import { dueState, maxExaminationIntervalMonths, type ExaminationRules } from "~/gear/due";
 import {
-  Button,
-  Card,
-  EmptyState,
-  Field,
-  FormError,
-  PageHeader,
-  SelectField,
-  TextAreaField,
-} from "~/components/ui/form";
-import { defaultNextDue, dueState, examinationIntervalMonths } from "~/gear/due";
-import { isIsoDate } from "~/utils/dates";
-import { getOrganisationToday } from "~/models/organisation.server";
-import {
-  GEAR_KIND_INFO,
-  GEAR_STATUS_LABELS,
-  GEAR_STATUSES,
-  SPEC_FIELD_LABELS,
-  type GearKind,
-  type GearStatus,
-} from "~/gear/kinds";
+  DEFECT_URGENCY_LABELS,
+  EXAMINATION_KIND_LABELS,
+  type DefectUrgency,
+  type ExaminationKind,
+} from "~/gear/schema";
+import { formatDateTime } from "~/utils/dates";
+import { getOrganisationTimeZone, getOrganisationToday } from "~/models/organisation.server";
+import { GEAR_KIND_INFO, GEAR_STATUS_LABELS, GEAR_STATUSES, SPEC_FIELD_LABELS, type GearStatus } from "~/gear/kinds";
 import { listExaminations } from "~/models/examination.server";
 import { listGearHistory, type GearHistoryEntry } from "~/models/gear-item.server";
 import { hasAnyRole } from "~/utils/roles";
@@ -38,9 +28,14 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     listExaminations(user.organisationId, item.id),
     listGearHistory(user.organisationId, item.id),
   ]);
-  const today = await getOrganisationToday(user.organisationId);
+  const [today, timeZone] = await Promise.all([
+    getOrganisationToday(user.organisationId),
+    getOrganisationTimeZone(user.organisationId),
+  ]);
   return {
     today,
+    timeZone,
+    rules: "uk-eu" as ExaminationRules,
     canAdmin: hasAnyRole(user, "admin"),
     item: {
       id: item.id,
@@ -64,10 +59,16 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     },
     examinations: examinations.map((e) => ({
       id: e.id,
+      kind: e.kind as ExaminationKind,
       examinedOn: e.examinedOn,
+      reportNumber: e.reportNumber,
       examiner: e.examiner,
+      examinerOrganisation: e.examinerOrganisation,
       result: e.result,
       defects: e.defects,
+      defectUrgency: e.defectUrgency as DefectUrgency,
+      defectsDueBy: e.defectsDueBy,
+      schemeReference: e.schemeReference,
       nextDueOn: e.nextDueOn,
       recordedBy: e.recorder?.name ?? "",
       certificate: e.certificate ? { id: e.certificate.id, name: e.certificate.originalName } : null,
@@ -80,10 +81,6 @@ export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireUser(request);
   const item = await requireGearItem(user.organisationId, params.itemId);
   return handleGearItemAction(request, user, item);
-}
-
-function when(iso: string) {
-  return `${iso.slice(0, 10)} ${iso.slice(11, 16)} UTC`;
 }
 
 function describeEvent(entry: GearHistoryEntry): string {
@@ -99,10 +96,16 @@ function describeEvent(entry: GearHistoryEntry): string {
       return `Details edited: ${Array.isArray(d.fields) ? d.fields.join(", ") : ""}.`;
     case "updated by import":
       return `Updated by CSV import (${String(d.fileName ?? "file")}): ${Array.isArray(d.fields) ? d.fields.join(", ") : ""}.`;
-    case "examination recorded":
-      return `Thorough examination on ${String(d.examinedOn)} by ${String(d.examiner)}: ${d.result === "fail" ? "FAIL" : "pass"}; next due ${String(d.nextDueOn)}.`;
+    case "examination recorded": {
+      const kind = typeof d.kind === "string" && d.kind in EXAMINATION_KIND_LABELS ? d.kind : "periodic";
+      const report = d.reportNumber ? `, report ${String(d.reportNumber)}` : "";
+      const by = [d.examiner, d.examinerOrganisation].filter(Boolean).map(String).join(", ");
+      return `Thorough examination (${EXAMINATION_KIND_LABELS[kind as keyof typeof EXAMINATION_KIND_LABELS].toLowerCase()}) on ${String(d.examinedOn)} by ${by}${report}: ${d.result === "fail" ? "FAIL" : "pass"}; next due ${String(d.nextDueOn)}${d.schemeReference ? ` under ${String(d.schemeReference)}` : ""}.`;
+    }
     case "status changed":
       return `Status ${status(d.from)} → ${status(d.to)}. Reason: ${String(d.reason)}`;
+    case "returned to service":
+      return `Returned to service: ${String(d.reason)}`;
     case "defect reported":
       return d.from !== d.to
         ? `Defect reported; status ${status(d.from)} → ${status(d.to)}. ${String(d.defect)}`
@@ -113,7 +116,8 @@ function describeEvent(entry: GearHistoryEntry): string {
 }
 
 export default function GearItemPage({ loaderData, actionData }: Route.ComponentProps) {
-  const { item, examinations, history, canAdmin, today } = loaderData;
+  const { item, examinations, history, canAdmin, today, timeZone, rules } = loaderData;
+  const when = (iso: string) => formatDateTime(iso, timeZone);
   const errorsFor = (intent: GearIntent): Record<string, string[] | undefined> =>
     actionData && "intent" in actionData && actionData.intent === intent ? actionData.errors : {};
   const info = GEAR_KIND_INFO[item.kind];
@@ -154,7 +158,7 @@ export default function GearItemPage({ loaderData, actionData }: Route.Component
           <Card title="Thorough examinations">
             <div className="mb-3 flex flex-wrap items-center gap-2 text-sm">
               <span>Next due: {item.nextDueOn ?? "—"}</span>
-              <DueLabel state={item.dueState} />
+              <DueLabel state={item.dueState} status={item.status} />
             </div>
             {examinations.length === 0 ? (
               <EmptyState title="Never examined">
@@ -166,6 +170,7 @@ export default function GearItemPage({ loaderData, actionData }: Route.Component
                   <thead>
                     <tr>
                       <th scope="col">Examined</th>
+                      <th scope="col">Kind and report</th>
                       <th scope="col">Examiner</th>
                       <th scope="col">Result</th>
                       <th scope="col">Next due</th>
@@ -177,17 +182,32 @@ export default function GearItemPage({ loaderData, actionData }: Route.Component
                       <tr key={e.id}>
                         <td className="whitespace-nowrap">{e.examinedOn}</td>
                         <td>
+                          {EXAMINATION_KIND_LABELS[e.kind]}
+                          {e.reportNumber && <span className="block text-xs">Report {e.reportNumber}</span>}
+                          {e.schemeReference && <span className="block text-xs">Scheme: {e.schemeReference}</span>}
+                        </td>
+                        <td>
                           {e.examiner}
+                          {e.examinerOrganisation && <span className="block text-xs">{e.examinerOrganisation}</span>}
                           <span className="block text-xs text-ink-soft">recorded by {e.recordedBy}</span>
                         </td>
                         <td>
                           {e.result === "pass" ? (
                             <span className="font-semibold text-pass">Pass</span>
                           ) : (
-                            <>
-                              <span className="font-bold text-fail">FAIL</span>
-                              <span className="block text-xs">{e.defects}</span>
-                            </>
+                            <span className="font-bold text-fail">FAIL</span>
+                          )}
+                          {e.defects && (
+                            <span className="block text-xs">
+                              {e.defects}
+                              {e.defectUrgency !== "none" && (
+                                <span className="block font-semibold">
+                                  {e.defectUrgency === "by_date" && e.defectsDueBy
+                                    ? `Put right by ${e.defectsDueBy}`
+                                    : DEFECT_URGENCY_LABELS[e.defectUrgency]}
+                                </span>
+                              )}
+                            </span>
                           )}
                         </td>
                         <td className="whitespace-nowrap">{e.nextDueOn}</td>
@@ -204,7 +224,9 @@ export default function GearItemPage({ loaderData, actionData }: Route.Component
                 </table>
               </div>
             )}
-            {canAdmin && <ExaminationForm kind={item.kind} today={today} errors={errorsFor("examination")} />}
+            {canAdmin && item.status !== "withdrawn" && (
+              <ExaminationForm kind={item.kind} today={today} rules={rules} errors={errorsFor("examination")} />
+            )}
           </Card>
 
           <Card title="History">
@@ -243,22 +265,28 @@ export default function GearItemPage({ loaderData, actionData }: Route.Component
               <dd>{item.homeSite ? item.homeSite.name : "none"}</dd>
               <dt className="text-ink-soft">Examination interval</dt>
               <dd>
-                {examinationIntervalMonths(item.kind)} months (
-                {info.accessory ? "lifting accessory" : "lifting equipment"}, LOLER reg 9(3))
+                at most {maxExaminationIntervalMonths(item.kind, rules)} months (
+                {info.accessory ? "lifting accessory" : "lifting equipment"},{" "}
+                {rules === "us" ? "ASME B30.9 / B30.26" : "LOLER reg 9(3)"}) unless a written scheme says otherwise
               </dd>
             </dl>
           </Card>
 
-          {canAdmin && (
-            <Card title="Change status">
+          {canAdmin && item.status !== "withdrawn" && (
+            <Card title="Take out of use">
               <Form method="post" className="space-y-3">
                 <input type="hidden" name="intent" value="status" />
                 <FormError message={errorsFor("status").status?.join(" ")} />
+                <p className="text-sm text-ink-soft">
+                  {item.status === "quarantined"
+                    ? "A quarantined item returns to service only through a passed thorough examination recorded above. Withdrawing it is final: it stays on record but can never be allocated again."
+                    : "Quarantine the item until it is examined, or withdraw it for good (final: it stays on record but can never be allocated again)."}
+                </p>
                 <SelectField
                   label="New status"
                   name="status"
-                  defaultValue={item.status === "in_service" ? "quarantined" : "in_service"}
-                  options={GEAR_STATUSES.filter((s) => s !== item.status).map((s) => ({
+                  defaultValue={item.status === "in_service" ? "quarantined" : "withdrawn"}
+                  options={GEAR_STATUSES.filter((s) => s !== item.status && s !== "in_service").map((s) => ({
                     value: s,
                     label: GEAR_STATUS_LABELS[s],
                   }))}
@@ -299,81 +327,5 @@ function Spec({ label, value }: { label: string; value: string | number | null }
       <dt className="text-ink-soft">{label}</dt>
       <dd>{value === null || value === "" ? "—" : String(value)}</dd>
     </>
-  );
-}
-
-function ExaminationForm({
-  kind,
-  today,
-  errors,
-}: {
-  kind: GearKind;
-  today: string;
-  errors: Record<string, string[] | undefined>;
-}) {
-  const [examinedOn, setExaminedOn] = useState(today);
-  const [nextDueOn, setNextDueOn] = useState(defaultNextDue(kind, today));
-  const [nextDueEdited, setNextDueEdited] = useState(false);
-  const [result, setResult] = useState<"pass" | "fail">("pass");
-  const navigation = useNavigation();
-  const busy = navigation.state === "submitting" && navigation.formData?.get("intent") === "examination";
-  const months = examinationIntervalMonths(kind);
-  return (
-    <Form method="post" encType="multipart/form-data" className="mt-4 space-y-4 border-t border-rule pt-4">
-      <h3>Record a thorough examination</h3>
-      <input type="hidden" name="intent" value="examination" />
-      <div className="grid gap-4 sm:grid-cols-2">
-        <Field
-          label="Examined on"
-          name="examinedOn"
-          type="date"
-          max={today}
-          value={examinedOn}
-          onChange={(e) => {
-            setExaminedOn(e.target.value);
-            if (!nextDueEdited && isIsoDate(e.target.value)) setNextDueOn(defaultNextDue(kind, e.target.value));
-          }}
-          errors={errors.examinedOn}
-          required
-        />
-        <Field label="Examiner (competent person)" name="examiner" errors={errors.examiner} required maxLength={200} />
-      </div>
-      <fieldset>
-        <legend className="text-sm font-medium">Result</legend>
-        <div className="mt-1 flex gap-4">
-          {(["pass", "fail"] as const).map((r) => (
-            <label key={r} className="flex items-center gap-2 text-sm">
-              <input type="radio" name="result" value={r} checked={result === r} onChange={() => setResult(r)} />
-              {r === "pass" ? "Pass" : "Fail (the item will be quarantined)"}
-            </label>
-          ))}
-        </div>
-      </fieldset>
-      {result === "fail" && (
-        <TextAreaField label="Defects found" name="defects" errors={errors.defects} maxLength={4000} required />
-      )}
-      <Field
-        label="Next examination due"
-        name="nextDueOn"
-        type="date"
-        value={nextDueOn}
-        onChange={(e) => {
-          setNextDueOn(e.target.value);
-          setNextDueEdited(true);
-        }}
-        errors={errors.nextDueOn}
-        hint={`Default ${months} months: LOLER 1998 reg 9(3) for ${GEAR_KIND_INFO[kind].accessory ? "a lifting accessory" : "lifting equipment"}. Change it only to follow your examination scheme.`}
-      />
-      <Field
-        label="Certificate (PDF, up to 10 MB)"
-        name="certificate"
-        type="file"
-        accept="application/pdf,.pdf"
-        errors={errors.certificate}
-      />
-      <Button type="submit" disabled={busy}>
-        {busy ? "Recording…" : "Record examination"}
-      </Button>
-    </Form>
   );
 }

@@ -107,7 +107,7 @@ const columns = [
         {/* On narrow screens the status and due columns are hidden; their words come here. */}
         <span className="mt-1 flex flex-col items-start gap-1 md:hidden">
           {c.row.original.status !== "in_service" && <StatusLabel status={c.row.original.status} />}
-          <DueLabel state={c.row.original.dueState} />
+          <DueLabel state={c.row.original.dueState} status={c.row.original.status} />
         </span>
       </>
     ),
@@ -148,7 +148,7 @@ const columns = [
     cell: (c) => (
       <span className="flex flex-wrap items-center gap-1">
         <span className="whitespace-nowrap">{c.getValue() ?? "—"}</span>
-        <DueLabel state={c.row.original.dueState} />
+        <DueLabel state={c.row.original.dueState} status={c.row.original.status} />
       </span>
     ),
   }),

@@ -1,4 +1,7 @@
 /** The kinds of file Plumbline keeps, known by their content, never by their name. */
+/** The largest file any upload takes (certificates, drawings, photos): 10 MB. Checked in the browser before sending and on the server while reading. */
+export const MAX_UPLOAD_BYTES = 10 * 1024 * 1024;
+
 export type FileKind = "pdf" | "png" | "jpeg" | "csv";
 
 export const FILE_KIND_CONTENT_TYPES: Record<FileKind, string> = {

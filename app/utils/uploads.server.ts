@@ -12,13 +12,16 @@ import {
 import type { Transaction } from "sequelize";
 import { sequelize } from "~/utils/db.server";
 import { env } from "~/utils/env.server";
-import { FILE_KIND_CONTENT_TYPES, fileKindProblem, sniffFileKind, type FileKind } from "~/utils/file-type";
+import {
+  FILE_KIND_CONTENT_TYPES,
+  fileKindProblem,
+  MAX_UPLOAD_BYTES,
+  sniffFileKind,
+  type FileKind,
+} from "~/utils/file-type";
 import { createStoredFileRecord, type FilePurpose, type StoredFile } from "~/models/stored-file.server";
 
 const MIB = 1024 * 1024;
-
-/** The largest file any upload takes (certificates, drawings, photos): 10 MB. */
-export const MAX_UPLOAD_BYTES = 10 * MIB;
 
 export type UploadForm = { ok: true; formData: FormData } | { ok: false; status: 400 | 413; message: string };
 

@@ -2,7 +2,7 @@
 // demo always shows items in date, due within 30 days, one overdue, one quarantined and one withdrawn.
 import { examinationIntervalMonths } from "~/gear/due";
 import { DEFAULT_TIME_ZONE, addDays, addMonths, todayIn } from "~/utils/dates";
-import { BLANK_GEAR_FIELDS, type GearItemInput } from "~/gear/schema";
+import { BLANK_GEAR_FIELDS, type ExaminationFields, type GearItemInput } from "~/gear/schema";
 import { recordExamination } from "~/models/examination.server";
 import { changeGearStatus, createGearItem, GearItem, reportGearDefect } from "~/models/gear-item.server";
 import { listSites } from "~/models/site.server";
@@ -12,7 +12,8 @@ import { DEMO_USERS } from "./0001-demo-scenario";
 const BREWERY = "Fernbrook Brewery, compressor house";
 const WATER_WORKS = "Castlemere Treatment Works, blower hall";
 
-const EXAMINERS = ["Ruth Calloway, Northfold Inspection Services", "Ivan Petrakis, Northfold Inspection Services"];
+const EXAMINERS = ["Ruth Calloway", "Ivan Petrakis"];
+const EXAMINING_BODY = "Northfold Inspection Services";
 
 const NONE = BLANK_GEAR_FIELDS;
 
@@ -391,14 +392,14 @@ export async function up() {
     await recordExamination(
       orgId,
       item.id,
-      { examinedOn: earlier, examiner, result: "pass", defects: "", nextDueOn: examinedOn },
+      examination(earlier, examiner, examinedOn, n === 1 ? "initial" : "periodic", `NIS-${1000 + 2 * n}`),
       null,
       admin.id,
     );
     await recordExamination(
       orgId,
       item.id,
-      { examinedOn, examiner, result: "pass", defects: "", nextDueOn },
+      examination(examinedOn, examiner, nextDueOn, "periodic", `NIS-${1001 + 2 * n}`),
       null,
       admin.id,
     );
@@ -420,6 +421,28 @@ export async function up() {
     oldEyebolt!.id,
     { status: "withdrawn", reason: "Thread worn and collar face dented; cut in half and scrapped." },
     admin.id,
-    "pass",
   );
+}
+
+/** A passed examination as the demo's invented examining body writes it up. */
+function examination(
+  examinedOn: string,
+  examiner: string,
+  nextDueOn: string,
+  kind: ExaminationFields["kind"],
+  reportNumber: string,
+): ExaminationFields {
+  return {
+    kind,
+    examinedOn,
+    reportNumber,
+    examiner,
+    examinerOrganisation: EXAMINING_BODY,
+    result: "pass",
+    defects: "",
+    defectUrgency: "none",
+    defectsDueBy: null,
+    schemeReference: "",
+    nextDueOn,
+  };
 }

@@ -241,7 +241,7 @@ describe("status changes", () => {
     ]);
   });
 
-  it("an item whose latest examination failed goes back into service only after a passing one", async () => {
+  it("an item whose examination failed goes back into service only through a passing examination, never by a status change", async () => {
     const { admin } = await adminWithSite();
     const item = await makeGearItem(admin);
     const today = todayIn(DEFAULT_TIME_ZONE);
@@ -253,27 +253,29 @@ describe("status changes", () => {
         admin,
       ),
     );
+    await item.reload();
+    expect(item.status).toBe("quarantined");
     const refused = await post(
       item.id,
       await postForm(`/gear/${item.id}`, { intent: "status", status: "in_service", reason: "Looks fine" }, admin),
     );
     expect(refused.status).toBe(400);
-    expect((refused.data as { errors: { status: string[] } }).errors.status[0]).toMatch(/record a passing examination/);
-    await post(item.id, await postForm(`/gear/${item.id}`, examine({ examinedOn: today }), admin));
+    expect((refused.data as { errors: { status: string[] } }).errors.status[0]).toMatch(
+      /only through a passed thorough examination/,
+    );
     await item.reload();
     expect(item.status).toBe("quarantined");
-    expect(
-      await post(
-        item.id,
-        await postForm(
-          `/gear/${item.id}`,
-          { intent: "status", status: "in_service", reason: "Repaired and re-examined" },
-          admin,
-        ),
-      ),
-    ).toMatchObject({ status: 302 });
+    const passed = await post(
+      item.id,
+      await postForm(`/gear/${item.id}`, examine({ examinedOn: today, reportNumber: "R-77" }), admin),
+    );
+    expect(passed.status).toBe(302);
     await item.reload();
     expect(item.status).toBe("in_service");
+    expect(item.statusReason).toMatch(
+      /^Passed thorough examination on \d{4}-\d{2}-\d{2} \(report R-77, Ruth Calloway\)/,
+    );
+    expect(item.statusReason).toContain("Crack at the crown");
   });
 });
 

@@ -271,6 +271,14 @@ describe("plans API", () => {
       planner,
     );
     expect(twice.status).toBe(400);
+    const scrapped = await makeGear(planner.organisationId, "shackle", { wllKg: 3250, status: "withdrawn" });
+    const withdrawn = await put(
+      plan.id,
+      { ...documentOf(body), rigging: { legs: { A: { shackleItemId: scrapped.id } } } },
+      planner,
+    );
+    expect(withdrawn.status).toBe(400);
+    expect((withdrawn.data as { error: string }).error).toMatch(/withdrawn from use .* can never be allocated again/);
     expect((await revisionRow(plan.id)).version).toBe(1);
   });
 

@@ -1,0 +1,171 @@
+// Recording a thorough examination as the examiner's report writes it: kind, report number, examiner
+// and their organisation, result, defects with their urgency, the next due date within the rules'
+// interval (or a named written scheme) and the certificate.
+import { useState } from "react";
+import { Form, useNavigation } from "react-router";
+import { Button, Field, SelectField, TextAreaField } from "~/components/ui/form";
+import { defaultNextDue, latestNextDue, maxExaminationIntervalMonths, type ExaminationRules } from "~/gear/due";
+import { GEAR_KIND_INFO, type GearKind } from "~/gear/kinds";
+import {
+  DEFECT_URGENCIES,
+  DEFECT_URGENCY_LABELS,
+  EXAMINATION_KIND_LABELS,
+  EXAMINATION_KINDS,
+  type DefectUrgency,
+  type ExaminationKind,
+} from "~/gear/schema";
+import { MAX_UPLOAD_BYTES } from "~/utils/file-type";
+import { isIsoDate } from "~/utils/dates";
+
+type Errors = Record<string, string[] | undefined>;
+
+export function ExaminationForm({
+  kind,
+  today,
+  rules,
+  errors,
+}: {
+  kind: GearKind;
+  today: string;
+  rules: ExaminationRules;
+  errors: Errors;
+}) {
+  const [examinedOn, setExaminedOn] = useState(today);
+  const [nextDueOn, setNextDueOn] = useState(defaultNextDue(kind, today));
+  const [nextDueEdited, setNextDueEdited] = useState(false);
+  const [examKind, setExamKind] = useState<ExaminationKind>("periodic");
+  const [result, setResult] = useState<"pass" | "fail">("pass");
+  const [urgency, setUrgency] = useState<DefectUrgency>("none");
+  const [fileError, setFileError] = useState<string | null>(null);
+  const navigation = useNavigation();
+  const busy = navigation.state === "submitting" && navigation.formData?.get("intent") === "examination";
+  const months = maxExaminationIntervalMonths(kind, rules);
+  const latest = isIsoDate(examinedOn) ? latestNextDue(kind, examinedOn, rules) : null;
+  const beyondInterval = latest !== null && isIsoDate(nextDueOn) && nextDueOn > latest;
+  const rule = rules === "us" ? "ASME B30.9 / B30.26 periodic inspection" : "LOLER 1998 reg 9(3)(a)";
+  const what = GEAR_KIND_INFO[kind].accessory ? "a lifting accessory" : "lifting equipment";
+  const showDefects = result === "fail" || urgency !== "none";
+  return (
+    <Form
+      method="post"
+      encType="multipart/form-data"
+      className="mt-4 space-y-4 border-t border-rule pt-4"
+      onSubmit={(event) => {
+        if (fileError) event.preventDefault();
+      }}
+    >
+      <h3>Record a thorough examination</h3>
+      <input type="hidden" name="intent" value="examination" />
+      <div className="grid gap-4 sm:grid-cols-2">
+        <SelectField
+          label="Kind of examination"
+          name="kind"
+          value={examKind}
+          onChange={(e) => setExamKind(e.target.value as ExaminationKind)}
+          options={EXAMINATION_KINDS.map((k) => ({ value: k, label: EXAMINATION_KIND_LABELS[k] }))}
+          errors={errors.kind}
+        />
+        <Field
+          label="Examined on"
+          name="examinedOn"
+          type="date"
+          max={today}
+          value={examinedOn}
+          onChange={(e) => {
+            setExaminedOn(e.target.value);
+            if (!nextDueEdited && isIsoDate(e.target.value)) setNextDueOn(defaultNextDue(kind, e.target.value));
+          }}
+          errors={errors.examinedOn}
+          required
+        />
+        <Field label="Report number" name="reportNumber" errors={errors.reportNumber} maxLength={100} />
+        <Field label="Examiner (competent person)" name="examiner" errors={errors.examiner} required maxLength={200} />
+        <Field
+          label="Examiner's organisation"
+          name="examinerOrganisation"
+          errors={errors.examinerOrganisation}
+          maxLength={200}
+        />
+      </div>
+      <fieldset>
+        <legend className="text-sm font-medium">Result</legend>
+        <div className="mt-1 flex flex-wrap gap-4">
+          {(["pass", "fail"] as const).map((r) => (
+            <label key={r} className="flex min-h-11 items-center gap-2 text-sm">
+              <input type="radio" name="result" value={r} checked={result === r} onChange={() => setResult(r)} />
+              {r === "pass" ? "Pass" : "Fail (the item is quarantined)"}
+            </label>
+          ))}
+        </div>
+        {errors.result && <p className="mt-1 text-sm text-fail">{errors.result.join(" ")}</p>}
+      </fieldset>
+      <SelectField
+        label="Defects found"
+        name="defectUrgency"
+        value={urgency}
+        onChange={(e) => setUrgency(e.target.value as DefectUrgency)}
+        options={DEFECT_URGENCIES.map((u) => ({ value: u, label: DEFECT_URGENCY_LABELS[u] }))}
+        errors={errors.defectUrgency}
+      />
+      {showDefects && (
+        <TextAreaField
+          label="The defects, as the report states them"
+          name="defects"
+          errors={errors.defects}
+          maxLength={4000}
+          required
+        />
+      )}
+      {urgency === "by_date" && (
+        <Field
+          label="Put right by"
+          name="defectsDueBy"
+          type="date"
+          min={examinedOn}
+          errors={errors.defectsDueBy}
+          required
+        />
+      )}
+      <Field
+        label="Next examination due"
+        name="nextDueOn"
+        type="date"
+        value={nextDueOn}
+        onChange={(e) => {
+          setNextDueOn(e.target.value);
+          setNextDueEdited(true);
+        }}
+        errors={errors.nextDueOn}
+        hint={`At most ${months} months for ${what} (${rule})${latest ? `: by ${latest}` : ""}. A longer interval needs a written examination scheme.`}
+      />
+      {(examKind === "scheme" || beyondInterval) && (
+        <Field
+          label="Written examination scheme"
+          name="schemeReference"
+          errors={errors.schemeReference}
+          maxLength={200}
+          required
+          hint="The scheme's title and revision, as drawn up by the competent person."
+        />
+      )}
+      <Field
+        label="Certificate (PDF, up to 10 MB)"
+        name="certificate"
+        type="file"
+        accept="application/pdf,.pdf"
+        errors={fileError ? [fileError] : errors.certificate}
+        onChange={(e) => {
+          const file = e.target.files?.[0];
+          setFileError(
+            file && file.size > MAX_UPLOAD_BYTES
+              ? `${file.name} is ${(file.size / 1024 / 1024).toFixed(1)} MB: a certificate may be at most 10 MB. Choose a smaller file.`
+              : null,
+          );
+        }}
+      />
+      <Button type="submit" disabled={busy}>
+        {busy ? "Recording…" : "Record examination"}
+      </Button>
+    </Form>
+  );
+}
