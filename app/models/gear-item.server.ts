@@ -483,28 +483,23 @@ export async function listGearHistory(organisationId: number, itemId: number): P
   }));
 }
 
-/** Items not withdrawn whose next examination falls on or before `until` (overdue included), per organisation. */
-export async function listGearDueBy(until: string) {
+/**
+ * Items that may need attention by `until`: not withdrawn, and quarantined, never examined, or due on
+ * or before `until` (overdue included). Every organisation's when `organisationId` is left out.
+ */
+export async function listGearNeedingAttention(until: string, organisationId?: number) {
   return GearItem.findAll({
-    where: { status: { [Op.ne]: "withdrawn" }, nextDueOn: { [Op.lte]: until } },
+    where: {
+      ...(organisationId === undefined ? {} : { organisationId }),
+      status: { [Op.ne]: "withdrawn" },
+      [Op.or]: [{ nextDueOn: { [Op.lte]: until } }, { nextDueOn: null }, { status: "quarantined" }],
+    },
     include: [{ model: Site, as: "homeSite" }],
     order: [
       ["organisationId", "ASC"],
       ["nextDueOn", "ASC"],
       ["itemCode", "ASC"],
     ],
-  });
-}
-
-/** One organisation's items overdue or due by `until`, soonest first (the admin's dashboard). */
-export async function listOrganisationGearDueBy(organisationId: number, until: string, limit = 15) {
-  return GearItem.findAll({
-    where: { organisationId, status: { [Op.ne]: "withdrawn" }, nextDueOn: { [Op.lte]: until } },
-    order: [
-      ["nextDueOn", "ASC"],
-      ["itemCode", "ASC"],
-    ],
-    limit,
   });
 }
 

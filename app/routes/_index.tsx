@@ -3,7 +3,8 @@ import { Card, EmptyState, PageHeader } from "~/components/ui/form";
 import { listJobs } from "~/models/job.server";
 import { listOrganisationUsers } from "~/models/user.server";
 import { plannerQueue, reviewQueue, riggerQueue, type QueueRow } from "~/models/plan-queue.server";
-import { listOrganisationGearDueBy } from "~/models/gear-item.server";
+import { listGearNeedingAttention } from "~/models/gear-item.server";
+import { ATTENTION_GROUP_TITLES, ATTENTION_GROUPS, groupForAttention } from "~/gear/attention";
 import { DUE_SOON_DAYS } from "~/gear/due";
 import { addDays } from "~/utils/dates";
 import { getOrganisationToday } from "~/models/organisation.server";
@@ -12,6 +13,23 @@ import { ROLE_LABELS } from "~/utils/roles";
 import { requireUser } from "~/utils/session.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Dashboard · Plumbline" }];
+
+/** The admin's view of the register: the same named groups the reminder mail carries, a few items each. */
+async function gearAttention(organisationId: number, today: string) {
+  const items = await listGearNeedingAttention(addDays(today, DUE_SOON_DAYS), organisationId);
+  const groups = groupForAttention(items, today);
+  return ATTENTION_GROUPS.map((group) => ({
+    group,
+    title: ATTENTION_GROUP_TITLES[group],
+    count: groups[group].length,
+    items: groups[group].slice(0, 8).map((g) => ({
+      id: g.id,
+      itemCode: g.itemCode,
+      description: g.description,
+      nextDueOn: g.nextDueOn,
+    })),
+  }));
+}
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request);
@@ -33,15 +51,7 @@ export async function loader({ request }: Route.LoaderArgs) {
     drafts: roles.includes("planner") ? await plannerQueue(user.organisationId) : [],
     toReview: roles.includes("approver") ? await reviewQueue(user.organisationId) : [],
     lifts: roles.includes("rigger") ? await riggerQueue(user.organisationId, user.id) : { mine: [], unassigned: [] },
-    dueGear: roles.includes("admin")
-      ? (await listOrganisationGearDueBy(user.organisationId, addDays(today, DUE_SOON_DAYS))).map((g) => ({
-          id: g.id,
-          itemCode: g.itemCode,
-          description: g.description,
-          nextDueOn: g.nextDueOn ?? "",
-          overdue: (g.nextDueOn ?? "") < today,
-        }))
-      : [],
+    gearAttention: roles.includes("admin") ? await gearAttention(user.organisationId, today) : null,
   };
 }
 
@@ -64,7 +74,7 @@ function PlanList({ rows, empty }: { rows: QueueRow[]; empty: React.ReactNode })
 }
 
 export default function Dashboard({ loaderData }: Route.ComponentProps) {
-  const { user, openJobs, pendingInvites, drafts, toReview, lifts, dueGear } = loaderData;
+  const { user, openJobs, pendingInvites, drafts, toReview, lifts, gearAttention } = loaderData;
   const roles = user.roles;
   return (
     <>
@@ -141,20 +151,34 @@ export default function Dashboard({ loaderData }: Route.ComponentProps) {
           </Card>
         )}
         {roles.includes("admin") && (
-          <Card title="For the admin: thorough examinations due">
-            {dueGear.length === 0 ? (
-              <p className="text-sm text-ink-soft">Nothing overdue or due within 30 days.</p>
+          <Card title="For the admin: gear needing attention">
+            {gearAttention === null || gearAttention.every((g) => g.count === 0) ? (
+              <p className="text-sm text-ink-soft">
+                Nothing overdue, quarantined, never examined or due within {DUE_SOON_DAYS} days.
+              </p>
             ) : (
-              <ul className="space-y-1 text-sm">
-                {dueGear.map((g) => (
-                  <li key={g.id}>
-                    <a href={`/gear/${g.id}`}>{g.itemCode}</a> {g.description}{" "}
-                    <span className={g.overdue ? "font-semibold text-fail" : "text-warn"}>
-                      {g.overdue ? `OVERDUE since ${g.nextDueOn}` : `due ${g.nextDueOn}`}
-                    </span>
-                  </li>
-                ))}
-              </ul>
+              <div className="space-y-3 text-sm">
+                {gearAttention
+                  .filter((g) => g.count > 0)
+                  .map((g) => (
+                    <section key={g.group} aria-label={g.title}>
+                      <h3 className={`text-sm font-semibold ${g.group === "due_soon" ? "text-warn" : "text-fail"}`}>
+                        {g.title}: {g.count}
+                      </h3>
+                      <ul className="mt-1 space-y-1">
+                        {g.items.map((item) => (
+                          <li key={item.id}>
+                            <a href={`/gear/${item.id}`}>{item.itemCode}</a> {item.description}{" "}
+                            {item.nextDueOn && <span className="text-ink-soft">due {item.nextDueOn}</span>}
+                          </li>
+                        ))}
+                      </ul>
+                      {g.count > g.items.length && (
+                        <p className="text-ink-soft">and {g.count - g.items.length} more in the register</p>
+                      )}
+                    </section>
+                  ))}
+              </div>
             )}
           </Card>
         )}

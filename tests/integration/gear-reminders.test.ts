@@ -8,7 +8,7 @@ import { adminWithSite, makeGearItem } from "../support/gear";
 const TODAY = "2031-05-10";
 
 describe("examination reminders", () => {
-  it("e-mails each organisation's admins a table of the items overdue and due within 30 days, and nothing else", async () => {
+  it("e-mails each organisation's admins every item needing attention in named groups, and nothing else", async () => {
     const { admin, rigger, site } = await adminWithSite("Fernbrook Brewery");
     const due = async (itemCode: string, nextDueOn: string | null, extra: Parameters<typeof makeGearItem>[1] = {}) => {
       const item = await makeGearItem(admin, { itemCode, ...extra });
@@ -21,26 +21,34 @@ describe("examination reminders", () => {
     await due("R-NEVER", null);
     const withdrawn = await due("R-WITHDRAWN", addDays(TODAY, -100));
     await withdrawn.update({ status: "withdrawn" });
+    const quarantined = await due("R-QUARANTINED", addDays(TODAY, 120));
+    await quarantined.update({ status: "quarantined", statusReason: "Pin bent" });
 
     const quiet = await makeUser(["admin"]);
     await makeGearItem(quiet, { itemCode: "Q-1" }).then((i) => i.update({ nextDueOn: addDays(TODAY, 200) }));
 
     const summaries = await sendExaminationReminders(TODAY);
     const mine = summaries.find((s) => s.organisationId === admin.organisationId);
-    expect(mine).toEqual({ organisationId: admin.organisationId, overdue: 1, dueSoon: 1, recipients: [admin.email] });
+    expect(mine).toEqual({
+      organisationId: admin.organisationId,
+      counts: { overdue: 1, quarantined: 1, never_examined: 1, due_soon: 1 },
+      recipients: [admin.email],
+    });
     expect(summaries.find((s) => s.organisationId === quiet.organisationId)).toBeUndefined();
 
     const [mail, ...more] = await listCaughtMail(admin.organisationId);
     expect(more).toEqual([]);
-    expect(mail!.subject).toBe("Gear examinations: 1 overdue, 1 due within 30 days");
+    expect(mail!.subject).toBe("Gear examinations: 1 overdue, 1 quarantined, 1 never examined, 1 due within 30 days");
     expect(mail!.toAddress).toContain(admin.email);
     expect(mail!.toAddress).not.toContain(rigger.email);
     expect(mail!.textBody).toContain("OVERDUE (do not use until examined):");
     expect(mail!.textBody).toMatch(/R-OVERDUE\s+2031-05-07\s+Shackle, Dee shackle 2 t \(Fernbrook Brewery\)/);
     expect(mail!.textBody).toMatch(/Due within 30 days:\n\s+R-SOON\s+2031-06-09/);
-    for (const absent of ["R-LATER", "R-NEVER", "R-WITHDRAWN"]) expect(mail!.textBody).not.toContain(absent);
+    expect(mail!.textBody).toMatch(/QUARANTINED, awaiting thorough examination:\n\s+R-QUARANTINED\s+2031-09-07/);
+    expect(mail!.textBody).toMatch(/NEVER EXAMINED \(do not use until examined\):\n\s+R-NEVER\s+never examined/);
+    for (const absent of ["R-LATER", "R-WITHDRAWN"]) expect(mail!.textBody).not.toContain(absent);
     expect(mail!.htmlBody).toContain("<td>R-OVERDUE</td>");
-    expect(mail!.htmlBody).toContain("<strong>OVERDUE</strong>");
+    expect(mail!.htmlBody).toContain("<h3>OVERDUE (do not use until examined)</h3>");
     expect(await CaughtMail.count({ where: { organisationId: quiet.organisationId } })).toBe(0);
   });
 
