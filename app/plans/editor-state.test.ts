@@ -89,6 +89,36 @@ describe("editor history", () => {
     expect(s.present.arrangement.liftPointLabels).toEqual(["C"]);
   });
 
+  it("switching a lift point off and on again keeps its eyebolt, shackle, sling, hitch and given length", () => {
+    let s = initialEditorState({
+      ...edit,
+      arrangement: { ...edit.arrangement, mode: "lengths", legLengthsM: { A: 1.2, B: 1.3 } },
+    });
+    s = editorReducer(s, { type: "allocate", label: "B", slot: "eyeboltItemId", itemId: 3 });
+    s = editorReducer(s, { type: "allocate", label: "B", slot: "shackleItemId", itemId: 4 });
+    s = editorReducer(s, { type: "allocate", label: "B", slot: "slingItemId", itemId: 5 });
+    s = editorReducer(s, { type: "set-hitch", label: "B", hitch: "choke" });
+    const before = s.present.rigging.legs.B;
+    s = editorReducer(s, { type: "toggle-lift-point", label: "B" });
+    expect(s.present.rigging.legs.B).toBeUndefined();
+    expect(s.present.arrangement.legLengthsM.B).toBeUndefined();
+    s = editorReducer(s, { type: "toggle-lift-point", label: "B" });
+    expect(s.present.rigging.legs.B).toEqual(before);
+    expect(s.present.arrangement.legLengthsM.B).toBe(1.3);
+  });
+
+  it("an eyebolt moved to another leg while its point was off stays on the other leg", () => {
+    let s = initialEditorState(edit);
+    s = editorReducer(s, { type: "allocate", label: "B", slot: "eyeboltItemId", itemId: 3 });
+    s = editorReducer(s, { type: "allocate", label: "B", slot: "slingItemId", itemId: 5 });
+    s = editorReducer(s, { type: "toggle-lift-point", label: "B" });
+    s = editorReducer(s, { type: "allocate", label: "A", slot: "eyeboltItemId", itemId: 3 });
+    s = editorReducer(s, { type: "allocate", label: "A", slot: "slingItemId", itemId: 5 });
+    s = editorReducer(s, { type: "toggle-lift-point", label: "B" });
+    expect(s.present.rigging.legs.A).toMatchObject({ eyeboltItemId: 3, slingItemId: 5 });
+    expect(s.present.rigging.legs.B).toEqual({ hitch: "straight", slingItemId: 5 });
+  });
+
   it("law: any sequence of edits undone in full gives back the start", () => {
     const actionArb = fc.oneof(
       fc.record({

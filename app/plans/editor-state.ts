@@ -11,6 +11,11 @@ export type PlanEdit = {
   liftPoints: EditorLiftPoint[];
   arrangement: Arrangement;
   rigging: RiggingAllocation;
+  /**
+   * The gear and given length of lift points switched out of use in this editing session, kept so that
+   * switching a point back on brings them back. Never saved: a plan carries rigging only for legs in use.
+   */
+  parked?: Record<string, { leg?: RiggingAllocation["legs"][string]; lengthM?: number }>;
 };
 
 export type EditorState = { past: PlanEdit[]; present: PlanEdit; future: PlanEdit[] };
@@ -38,6 +43,15 @@ export type EditorAction =
   | { type: "set-hitch"; label: string; hitch: "straight" | "choke" | "basket" }
   | { type: "undo" }
   | { type: "redo" };
+
+/** Every register item id allocated anywhere in `rigging`. */
+function allocatedItemIds(rigging: RiggingAllocation): Set<number> {
+  const ids = new Set<number>();
+  for (const leg of Object.values(rigging.legs))
+    for (const id of Object.values(leg ?? {})) if (typeof id === "number") ids.add(id);
+  for (const id of Object.values(rigging)) if (typeof id === "number") ids.add(id);
+  return ids;
+}
 
 export function initialEditorState(edit: PlanEdit): EditorState {
   return { past: [], present: edit, future: [] };
@@ -97,13 +111,33 @@ function apply(edit: PlanEdit, action: EditorAction): PlanEdit {
         ? used.filter((l) => l !== action.label)
         : [...used, action.label].sort((a, b) => order.indexOf(a) - order.indexOf(b));
       const legs = { ...edit.rigging.legs };
-      if (isUsed) delete legs[action.label];
       const legLengthsM = { ...edit.arrangement.legLengthsM };
-      if (isUsed) delete legLengthsM[action.label];
+      const parked = { ...edit.parked };
+      if (isUsed) {
+        parked[action.label] = { leg: legs[action.label], lengthM: legLengthsM[action.label] };
+        delete legs[action.label];
+        delete legLengthsM[action.label];
+      } else {
+        const back = parked[action.label];
+        delete parked[action.label];
+        if (back?.leg) {
+          // An eyebolt or shackle allocated elsewhere since the point was switched off stays where it is now
+          // (one item, one place); a sling may serve several legs, so it always comes back.
+          const inUse = allocatedItemIds({ ...edit.rigging, legs });
+          const restored = Object.fromEntries(
+            Object.entries(back.leg).filter(
+              ([slot, id]) => slot === "slingItemId" || typeof id !== "number" || !inUse.has(id),
+            ),
+          );
+          if (Object.keys(restored).length) legs[action.label] = restored as typeof back.leg;
+        }
+        if (back?.lengthM !== undefined) legLengthsM[action.label] = back.lengthM;
+      }
       return {
         ...edit,
         arrangement: { ...edit.arrangement, liftPointLabels: labels, legLengthsM },
         rigging: { ...edit.rigging, legs },
+        parked,
       };
     }
     case "allocate": {
