@@ -1,4 +1,5 @@
 import type { Route } from "./+types/reference";
+import { cellText, columnLabel } from "~/components/reference-headings";
 import { Card, PageHeader } from "~/components/ui/form";
 import { getReferenceTables } from "~/models/reference-row.server";
 import { requireUser } from "~/utils/session.server";
@@ -32,10 +33,6 @@ export async function loader({ request }: Route.LoaderArgs) {
   };
 }
 
-function columnLabel(key: string) {
-  return key.replace(/([A-Z])/g, " $1").replace(/^./, (c) => c.toUpperCase());
-}
-
 export default function Reference({ loaderData }: Route.ComponentProps) {
   return (
     <>
@@ -65,7 +62,7 @@ export default function Reference({ loaderData }: Route.ComponentProps) {
                     {table.rows.map((row, i) => (
                       <tr key={i}>
                         {columns.map((c) => (
-                          <td key={c}>{row[c]}</td>
+                          <td key={c}>{cellText(c, row[c] ?? "")}</td>
                         ))}
                         {sources.length > 1 && <td className="text-xs text-ink-soft">{row.source}</td>}
                       </tr>
