@@ -14,6 +14,7 @@ import {
   type DefectUrgency,
   type ExaminationKind,
 } from "~/gear/schema";
+import { guardFileSize } from "~/components/ui/file-size";
 import { MAX_UPLOAD_BYTES } from "~/utils/file-type";
 import { isIsoDate } from "~/utils/dates";
 
@@ -36,7 +37,6 @@ export function ExaminationForm({
   const [examKind, setExamKind] = useState<ExaminationKind>("periodic");
   const [result, setResult] = useState<"pass" | "fail">("pass");
   const [urgency, setUrgency] = useState<DefectUrgency>("none");
-  const [fileError, setFileError] = useState<string | null>(null);
   const navigation = useNavigation();
   const busy = navigation.state === "submitting" && navigation.formData?.get("intent") === "examination";
   const months = maxExaminationIntervalMonths(kind, rules);
@@ -46,14 +46,7 @@ export function ExaminationForm({
   const what = GEAR_KIND_INFO[kind].accessory ? "a lifting accessory" : "lifting equipment";
   const showDefects = result === "fail" || urgency !== "none";
   return (
-    <Form
-      method="post"
-      encType="multipart/form-data"
-      className="mt-4 space-y-4 border-t border-rule pt-4"
-      onSubmit={(event) => {
-        if (fileError) event.preventDefault();
-      }}
-    >
+    <Form method="post" encType="multipart/form-data" className="mt-4 space-y-4 border-t border-rule pt-4">
       <h3>Record a thorough examination</h3>
       <input type="hidden" name="intent" value="examination" />
       <div className="grid gap-4 sm:grid-cols-2">
@@ -153,15 +146,8 @@ export function ExaminationForm({
         name="certificate"
         type="file"
         accept="application/pdf,.pdf"
-        errors={fileError ? [fileError] : errors.certificate}
-        onChange={(e) => {
-          const file = e.target.files?.[0];
-          setFileError(
-            file && file.size > MAX_UPLOAD_BYTES
-              ? `${file.name} is ${(file.size / 1024 / 1024).toFixed(1)} MB: a certificate may be at most 10 MB. Choose a smaller file.`
-              : null,
-          );
-        }}
+        errors={errors.certificate}
+        onChange={guardFileSize(MAX_UPLOAD_BYTES)}
       />
       <Button type="submit" disabled={busy}>
         {busy ? "Recording…" : "Record examination"}

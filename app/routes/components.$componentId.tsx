@@ -1,5 +1,7 @@
 import { data, Form, redirect } from "react-router";
 import { z } from "zod";
+import { guardFileSize } from "~/components/ui/file-size";
+import { MAX_UPLOAD_BYTES } from "~/utils/file-type";
 import type { Route } from "./+types/components.$componentId";
 import { ComponentViews } from "~/components/component-views";
 import { Button, Card, FormError, PageHeader, SelectField } from "~/components/ui/form";
@@ -287,6 +289,7 @@ export default function ComponentPage({ loaderData, actionData }: Route.Componen
                     type="file"
                     accept="image/png,image/jpeg,application/pdf"
                     required
+                    onChange={guardFileSize(MAX_UPLOAD_BYTES)}
                     className="mt-1 block w-full text-sm"
                   />
                 </div>

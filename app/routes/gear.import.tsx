@@ -1,5 +1,6 @@
 import { data, useFetcher } from "react-router";
 import { z } from "zod";
+import { guardFileSize } from "~/components/ui/file-size";
 import type { Route } from "./+types/gear.import";
 import { Button, Card, FormError, PageHeader } from "~/components/ui/form";
 import { CSV_HEADERS, MAX_IMPORT_BYTES, MAX_IMPORT_ROWS, READ_ONLY_COLUMNS, REQUIRED_HEADERS } from "~/gear/csv";
@@ -87,6 +88,7 @@ export default function ImportGear({ loaderData }: Route.ComponentProps) {
                   type="file"
                   accept=".csv,text/csv"
                   required
+                  onChange={guardFileSize(loaderData.maxMegabytes * 1024 * 1024)}
                   className="mt-1 block w-full text-sm"
                 />
               </div>
