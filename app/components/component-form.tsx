@@ -375,66 +375,49 @@ export function ComponentForm({
             </p>
             <FieldError errors={errors.liftPoints} />
             {liftPoints.length > 0 && (
-              <div className="overflow-x-auto">
-                <table className="min-w-[52rem]">
-                  <thead>
-                    <tr>
-                      <th scope="col">Id</th>
-                      <th scope="col">x ({lu})</th>
-                      <th scope="col">y ({lu})</th>
-                      <th scope="col">z ({lu})</th>
-                      <th scope="col">Axis x, y, z</th>
-                      <th scope="col">Thread</th>
-                      <th scope="col">Engagement ({lu})</th>
-                      <th scope="col">
-                        <span className="sr-only">Remove</span>
-                      </th>
-                    </tr>
-                  </thead>
-                  <tbody>
-                    {liftPoints.map((p, i) => {
-                      const update = (field: keyof LiftRow) => (e: React.ChangeEvent<HTMLInputElement>) =>
-                        setLiftPoints((rows) =>
-                          rows.map((r) => (r.key === p.key ? { ...r, [field]: e.target.value } : r)),
-                        );
-                      const cell = (field: keyof LiftRow, label: string, width = "w-20") => (
-                        <>
-                          <input
-                            aria-label={`Lift point ${i + 1} ${label}`}
-                            name={`lp-${i}-${field}`}
-                            value={p[field]}
-                            onChange={update(field)}
-                            className={`${width} rounded border border-rule px-2 py-1 text-sm aria-[invalid=true]:border-fail`}
-                            aria-invalid={rowError(`lp-${i}-${field}`) ? true : undefined}
-                          />
-                          <FieldError errors={rowError(`lp-${i}-${field}`)} />
-                        </>
-                      );
-                      return (
-                        <tr key={p.key}>
-                          <td>{cell("label", "id", "w-14")}</td>
-                          <td>{cell("x", "x")}</td>
-                          <td>{cell("y", "y")}</td>
-                          <td>{cell("z", "z")}</td>
-                          <td className="whitespace-nowrap">
-                            {cell("ax", "axis x", "w-14")} {cell("ay", "axis y", "w-14")} {cell("az", "axis z", "w-14")}
-                          </td>
-                          <td>{cell("thread", "thread", "w-20")}</td>
-                          <td>{cell("engagement", "thread engagement", "w-20")}</td>
-                          <td>
-                            <button
-                              type="button"
-                              className="text-sm text-fail underline"
-                              onClick={() => setLiftPoints((rows) => rows.filter((r) => r.key !== p.key))}
-                            >
-                              Remove {p.label || "point"}
-                            </button>
-                          </td>
-                        </tr>
-                      );
-                    })}
-                  </tbody>
-                </table>
+              // One block per point whose fields wrap to the card's width: nothing is clipped at any screen size.
+              <div className="space-y-3">
+                {liftPoints.map((p, i) => {
+                  const update = (field: keyof LiftRow) => (e: React.ChangeEvent<HTMLInputElement>) =>
+                    setLiftPoints((rows) => rows.map((r) => (r.key === p.key ? { ...r, [field]: e.target.value } : r)));
+                  const cell = (field: keyof LiftRow, label: string, heading: string, width = "w-20") => (
+                    <label className="flex flex-col text-xs font-medium text-ink-soft">
+                      <span aria-hidden="true">{heading}</span>
+                      <input
+                        aria-label={`Lift point ${i + 1} ${label}`}
+                        name={`lp-${i}-${field}`}
+                        value={p[field]}
+                        onChange={update(field)}
+                        className={`${width} mt-0.5 rounded border border-rule px-2 py-1 text-sm text-ink aria-[invalid=true]:border-fail`}
+                        aria-invalid={rowError(`lp-${i}-${field}`) ? true : undefined}
+                      />
+                      <FieldError errors={rowError(`lp-${i}-${field}`)} />
+                    </label>
+                  );
+                  return (
+                    <fieldset key={p.key} className="rounded border border-rule p-2">
+                      <legend className="px-1 text-sm font-semibold">Lift point {p.label || i + 1}</legend>
+                      <div className="flex flex-wrap items-end gap-x-3 gap-y-2">
+                        {cell("label", "id", "Id", "w-14")}
+                        {cell("x", "x", `x (${lu})`)}
+                        {cell("y", "y", `y (${lu})`)}
+                        {cell("z", "z", `z (${lu})`)}
+                        {cell("ax", "axis x", "Axis x", "w-14")}
+                        {cell("ay", "axis y", "Axis y", "w-14")}
+                        {cell("az", "axis z", "Axis z", "w-14")}
+                        {cell("thread", "thread", "Thread")}
+                        {cell("engagement", "thread engagement", `Engagement (${lu})`)}
+                        <button
+                          type="button"
+                          className="min-h-9 text-sm text-fail underline"
+                          onClick={() => setLiftPoints((rows) => rows.filter((r) => r.key !== p.key))}
+                        >
+                          Remove {p.label || "point"}
+                        </button>
+                      </div>
+                    </fieldset>
+                  );
+                })}
               </div>
             )}
             <Button

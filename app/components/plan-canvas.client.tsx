@@ -246,14 +246,15 @@ export default function PlanCanvas(props: PlanCanvasProps) {
         height={height}
         onWheel={onWheel}
         onMouseDown={(e) => {
-          if (e.target !== e.target.getStage()) return;
           const p = stageRef.current?.getPointerPosition();
           if (!p) return;
+          // Picking a point on a drawing takes a click anywhere, over the drawing and the load's lines alike.
           if (onPick) {
             const w = screenToWorld(transform, p.x, p.y);
             onPick({ ...w, x: p.x, y: p.y });
             return;
           }
+          if (e.target !== e.target.getStage()) return;
           panStart.current = { x: p.x, y: p.y, originX: transform.originX, originY: transform.originY };
         }}
         onMouseMove={() => {
@@ -274,6 +275,7 @@ export default function PlanCanvas(props: PlanCanvasProps) {
           <Rect x={0} y={0} width={width} height={height} fill="#ffffff" />
           {backdrop && (
             <KonvaImage
+              name="backdrop"
               image={backdrop.image}
               x={S(backdrop.originA, backdrop.originB).x}
               y={S(backdrop.originA, backdrop.originB).y}

@@ -708,11 +708,15 @@ export function PlanEditor({
             </p>
           )}
           <div className="overflow-x-auto">
-            <table className="min-w-[34rem]">
+            <table className="w-full table-fixed">
               <thead>
                 <tr>
-                  <th scope="col">Use</th>
-                  <th scope="col">Lift point</th>
+                  <th scope="col" className="w-12">
+                    Use
+                  </th>
+                  <th scope="col" className="w-20">
+                    Lift point
+                  </th>
                   <th scope="col">x ({lu})</th>
                   <th scope="col">y ({lu})</th>
                   <th scope="col">z ({lu})</th>

@@ -1,5 +1,6 @@
 import { rectangleOutlines, type ComponentDefinition } from "~/loads/component-definition";
-import { Component, createComponent } from "~/models/component.server";
+import { addComponentFile, Component, createComponent } from "~/models/component.server";
+import { drawElevation, drawPlan } from "./demo-drawing";
 import { findUserByEmail } from "~/models/user.server";
 import { compositeMassAndCog } from "~/statics/composite";
 
@@ -126,5 +127,22 @@ export async function up() {
   const planner = await findUserByEmail("planner@example.com");
   if (!planner) return;
   if (await Component.count({ where: { organisationId: planner.organisationId } })) return;
-  for (const definition of DEMO_COMPONENTS) await createComponent(planner.organisationId, definition, planner.id);
+  for (const definition of DEMO_COMPONENTS) {
+    const component = await createComponent(planner.organisationId, definition, planner.id);
+    if (definition === DEMO_COMPONENTS[0]) {
+      // The C2 element's general arrangement drawing, to trace over in the editor (invented, drawn from the data).
+      const sheets = [
+        { name: "GA-2210-rev-C-sheet-1-elevation.png", caption: "GA-2210 elevation", bytes: drawElevation(definition) },
+        { name: "GA-2210-rev-C-sheet-2-plan.png", caption: "GA-2210 plan", bytes: drawPlan(definition) },
+      ];
+      for (const sheet of sheets)
+        await addComponentFile(
+          planner.organisationId,
+          component.id,
+          { bytes: new Uint8Array(sheet.bytes), kind: "png", contentType: "image/png", originalName: sheet.name },
+          { kind: "drawing", caption: sheet.caption },
+          planner.id,
+        );
+    }
+  }
 }
