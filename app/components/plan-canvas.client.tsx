@@ -23,6 +23,7 @@ import {
   type Vec3,
   type ViewTransform,
 } from "~/plans/editor-state";
+import { coincidentLabels, placeFiguresBox } from "~/plans/drawing-layout";
 import { formatLength, type Units } from "~/utils/format";
 
 export type ViewKind = DrawingView;
@@ -185,6 +186,17 @@ export default function PlanCanvas(props: PlanCanvasProps) {
   const panStart = useRef<{ x: number; y: number; originX: number; originY: number } | null>(null);
 
   const hookScreen = hook ? S(project(hook, view).a, project(hook, view).b) : null;
+  const pointScreens = edit.liftPoints.map((p) => ({
+    label: p.label,
+    ...S(project(p.position, view).a, project(p.position, view).b),
+  }));
+  const pointLabels = coincidentLabels(pointScreens);
+  // The leg figures go in the corner that hides the fewest lines (legs, or the beam's drops and top rigging).
+  const figuresSize = { width: Math.min(width - 16, 250), height: legs.length * 17 + 8 };
+  const lineSegments: Array<[{ x: number; y: number }, { x: number; y: number }]> = hookScreen
+    ? pointScreens.filter((p) => usedLabels.has(p.label)).map((p) => [hookScreen, p])
+    : [];
+  const figuresAt = placeFiguresBox(figuresSize, { width, height }, lineSegments);
   const level = edit.arrangement.mode === "level";
 
   function handleScreen(handle: Handle) {
@@ -363,10 +375,10 @@ export default function PlanCanvas(props: PlanCanvasProps) {
               );
             })()}
           {legs.length > 0 && (
-            <Group x={8} y={8}>
+            <Group x={figuresAt.x} y={figuresAt.y} name="leg-figures">
               <Rect
-                width={Math.min(width - 16, 250)}
-                height={legs.length * 17 + 8}
+                width={figuresSize.width}
+                height={figuresSize.height}
                 fill="#ffffff"
                 opacity={0.85}
                 cornerRadius={3}
@@ -441,7 +453,7 @@ export default function PlanCanvas(props: PlanCanvasProps) {
                 <Text
                   x={9}
                   y={-20}
-                  text={p.label}
+                  text={pointLabels.get(p.label) ?? ""}
                   fontSize={14}
                   fontStyle="bold"
                   fontFamily="Barlow, sans-serif"
