@@ -3,13 +3,13 @@ import { reactRouter } from "@react-router/dev/vite";
 import tailwindcss from "@tailwindcss/vite";
 import { defineConfig } from "vite";
 
-export default defineConfig(({ isSsrBuild }) => ({
+export default defineConfig({
   plugins: [tailwindcss(), !process.env.VITEST && reactRouter()],
   resolve: { tsconfigPaths: true },
-  build: {
+  environments: {
     // The server build's entry is our production server (React Router's node-custom-server layout): it imports the
     // app as "virtual:react-router/server-build" and comes out as build/server/index.js, run with plain node.
-    rollupOptions: isSsrBuild ? { input: "app/utils/serve.server.ts" } : undefined,
+    ssr: { build: { rollupOptions: { input: "app/utils/serve.server.ts" } } },
   },
   server: { watch: { ignored: ["**/data/**", "**/build/**", "**/test-results/**"] } },
   test: {
@@ -37,4 +37,4 @@ export default defineConfig(({ isSsrBuild }) => ({
       },
     ],
   },
-}));
+});
