@@ -139,7 +139,7 @@ export async function backupDatabase(databasePath: string, target: string): Prom
 
   // No OPEN_CREATE: a mistyped DATABASE_PATH must not back up a new empty database.
   const source = (await open(databasePath, sqlite3.OPEN_READWRITE)) as DatabaseWithBackup;
-  let pages = 0;
+  let pages: number;
   try {
     await exec(source, "PRAGMA busy_timeout=10000");
     const backup = await new Promise<SqliteBackup>((resolve, reject) => {

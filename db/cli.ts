@@ -1,14 +1,31 @@
+import path from "node:path";
+import { pathToFileURL } from "node:url";
+import { sendExaminationReminders } from "~/gear/reminders.server";
 import { env } from "~/utils/env.server";
 import { sequelize } from "~/utils/db.server";
 import { createMigrator } from "./umzug";
 import { createDemoSeeder } from "./seeders";
 import { backupDatabase, defaultBackupPath, restoreDatabase } from "./backup";
 
+export const DATABASE_COMMANDS = "migrate | setup | down | backup [target] | restore <file> | reminders";
+
 /**
- * `tsx db/cli.ts migrate` applies pending migrations; `setup` also seeds the demo scenario; `down` reverts the last
- * migration; `backup [target]` copies the live database; `restore <file>` puts a backup in place (app stopped).
+ * The database and maintenance commands, built into the production bundle (`node build/server/index.js <command>`,
+ * what the npm scripts run) and runnable from source in development (`npx tsx db/cli.ts <command>`):
+ * `migrate` applies pending migrations; `setup` also seeds the demo scenario (refused in production); `down` reverts
+ * the last migration; `backup [target]` copies the live database; `restore <file>` puts a backup in place (app
+ * stopped); `reminders` mails each organisation's admins the gear needing attention (overdue, quarantined, never examined, due soon).
+ * Throws with a sentence on a bad command or a failure; closes the database when done.
  */
-async function main(command: string | undefined, argument: string | undefined) {
+export async function runDatabaseCommand(command: string | undefined, argument: string | undefined) {
+  try {
+    await run(command, argument);
+  } finally {
+    await sequelize.close();
+  }
+}
+
+async function run(command: string | undefined, argument: string | undefined) {
   const migrator = createMigrator(sequelize);
   switch (command) {
     case "migrate": {
@@ -16,7 +33,7 @@ async function main(command: string | undefined, argument: string | undefined) {
       console.log(
         `Migrations applied: ${applied.length ? applied.map((m) => m.name).join(", ") : "none pending"} (${env.databasePath})`,
       );
-      break;
+      return;
     }
     case "setup": {
       if (env.isProduction) throw new Error("db:setup seeds demo users and is refused in production; run db:migrate.");
@@ -25,19 +42,19 @@ async function main(command: string | undefined, argument: string | undefined) {
       console.log(
         `Database ready at ${env.databasePath}: ${applied.length} migration(s) applied, ${seeded.length} demo seeder(s) run.`,
       );
-      break;
+      return;
     }
     case "down": {
       const reverted = await migrator.down();
       console.log(`Reverted: ${reverted.map((m) => m.name).join(", ") || "nothing"}`);
-      break;
+      return;
     }
     case "backup": {
       const done = await backupDatabase(env.databasePath, argument ?? defaultBackupPath(env.databasePath));
       console.log(
         `Backed up ${env.databasePath} to ${done.file} (${(done.bytes / 1024 / 1024).toFixed(1)} MB, ${done.migrations} migrations, integrity ok)`,
       );
-      break;
+      return;
     }
     case "restore": {
       if (!argument) throw new Error("Usage: npm run db:restore <backup file> (stop the app first)");
@@ -53,15 +70,35 @@ async function main(command: string | undefined, argument: string | undefined) {
       console.log(
         "Copy the matching uploads back into UPLOAD_DIR, then start the app (npm start applies any newer migrations).",
       );
-      break;
+      return;
+    }
+    case "reminders": {
+      const summaries = await sendExaminationReminders();
+      if (!summaries.length) console.log("No gear needs attention: no reminders sent.");
+      for (const s of summaries) {
+        const to = s.recipients.length
+          ? `sent to ${s.recipients.join(", ")}`
+          : "NOT sent: the organisation has no active admin";
+        const counts = Object.entries(s.counts)
+          .map(([group, n]) => `${n} ${group.replace("_", " ")}`)
+          .join(", ");
+        console.log(`Organisation ${s.organisationId}: ${counts}; ${to}.`);
+      }
+      return;
     }
     default:
-      throw new Error("Usage: tsx db/cli.ts migrate | setup | down | backup [target] | restore <file>");
+      throw new Error(`Usage: node build/server/index.js ${DATABASE_COMMANDS} (or serve, the default)`);
   }
-  await sequelize.close();
 }
 
-main(process.argv[2], process.argv[3]).catch((error: unknown) => {
-  console.error(error instanceof Error ? error.message : error);
-  process.exit(1);
-});
+// Run from source (`npx tsx db/cli.ts migrate`); the production bundle calls runDatabaseCommand itself.
+if (process.argv[1] && import.meta.url === pathToFileURL(path.resolve(process.argv[1])).href) {
+  runDatabaseCommand(process.argv[2], process.argv[3]).then(
+    // The local mail catcher (outside production) would keep the process alive.
+    () => process.exit(0),
+    (error: unknown) => {
+      console.error(error instanceof Error ? error.message : error);
+      process.exit(1);
+    },
+  );
+}

@@ -110,6 +110,81 @@ describe("the component form", () => {
     expect(again.errors["lp-1-label"]?.[0]).toMatch(/listed twice/);
   });
 
+  it("reads figures as people type them, with a decimal comma, grouped digits or a unit after them", () => {
+    const result = parseComponentForm(
+      form(
+        componentFields({
+          mass: "2,5 t",
+          contingencyPct: "7,5 %",
+          length: "1 600",
+          width: "0,8 m",
+          height: "35.4 in",
+          cogZ: "400,5",
+          "lp-0-engagement": "1.2 in",
+          "part-0-name": "Rotor",
+          "part-0-mass": "1.240,5 kg",
+          "part-0-x": "0",
+          "part-0-y": "0",
+          "part-0-z": "40 cm",
+        }),
+      ),
+      "metric",
+    );
+    expect(result.ok).toBe(true);
+    if (!result.ok) return;
+    expect(result.data.massKg).toBe(2500);
+    expect(result.data.contingencyPct).toBe(7.5);
+    expect(result.data.lengthM).toBeCloseTo(1.6, 12);
+    expect(result.data.widthM).toBeCloseTo(0.8, 12);
+    expect(result.data.heightM).toBeCloseTo(0.89916, 12); // 35.4 x 25.4 mm
+    expect(result.data.cog.z).toBeCloseTo(0.4005, 12);
+    expect(result.data.liftPoints[0]!.engagementMm).toBeCloseTo(30.48, 9);
+    expect(result.data.parts[0]).toMatchObject({ massKg: 1240.5, position: { z: expect.closeTo(0.4, 12) } });
+  });
+
+  it("an imperial user may type metric figures with their unit", () => {
+    const result = parseComponentForm(
+      form(
+        componentFields({
+          mass: "2000 kg",
+          length: "1600 mm",
+          width: "31.5",
+          height: "35.4",
+          cogZ: "15.75",
+          "lp-0-x": "-800 mm",
+          "lp-0-z": "35.4",
+          "lp-1-x": "7.9",
+          "lp-1-z": "35.4",
+          "lp-0-engagement": "30 mm",
+        }),
+      ),
+      "imperial",
+    );
+    expect(result.ok).toBe(true);
+    if (!result.ok) return;
+    expect(result.data.massKg).toBe(2000);
+    expect(result.data.lengthM).toBeCloseTo(1.6, 12);
+    expect(result.data.widthM).toBeCloseTo(0.8001, 12); // 31.5 in
+    expect(result.data.liftPoints[0]!.position.x).toBeCloseTo(-0.8, 12);
+    expect(result.data.liftPoints[0]!.engagementMm).toBeCloseTo(30, 12);
+  });
+
+  it("refuses a figure that reads two ways, or a unit of the wrong kind, beside its field and changes nothing else", () => {
+    const result = parseComponentForm(
+      form(componentFields({ mass: "2,000", length: "1600 kg", "lp-0-engagement": "3 ton", "lp-1-x": "1.2,5" })),
+      "metric",
+    );
+    expect(result).toEqual({
+      ok: false,
+      errors: {
+        mass: ["“2,000” could mean 2000 or 2: type 2000 or 2 to say which."],
+        length: ["“kg” is a unit of mass: give the length in mm, m, in or ft."],
+        "lp-0-engagement": ["“ton” is a unit of mass: give the length in mm, m, in or ft."],
+        "lp-1-x": ["“1.2,5” groups its digits unevenly; group them in threes (1,240,000) or not at all."],
+      },
+    });
+  });
+
   it("takes a custom outline and refuses a broken one with the line number", () => {
     const ok = parseComponentForm(
       form(

@@ -7,8 +7,9 @@ import {
   type ComponentDefinition,
 } from "~/loads/component-definition";
 import { CONTROL_CHARACTER_MESSAGE, hasControlCharacters, type FormResult } from "~/utils/forms";
-import { convertLength } from "~/statics/units";
-import { fromDisplayLength, fromDisplayMass, type Units } from "~/utils/format";
+import { fromDisplayLength, type Units } from "~/utils/format";
+import { typedNumberField } from "~/utils/numbers";
+import { amountField } from "~/utils/quantities";
 
 /** At most this many tapped lift points and composite parts on one component. */
 export const MAX_LIFT_POINTS = 12;
@@ -32,59 +33,61 @@ const required = (label: string, max: number) =>
       .max(max, `At most ${max} characters.`)
       .refine((s) => !hasControlCharacters(s), CONTROL_CHARACTER_MESSAGE),
   );
-const number = (label: string) =>
-  z.preprocess(
-    (v) => (typeof v === "string" && v.trim() !== "" ? Number(v.trim().replace(/,/g, "")) : undefined),
-    z.number({ error: `Enter the ${label} as a number.` }).finite(`Enter the ${label} as a number.`),
-  );
-const optionalNumber = (label: string) =>
-  z.preprocess(
-    (v) => (typeof v === "string" && v.trim() !== "" ? Number(v.trim().replace(/,/g, "")) : null),
-    z
-      .number({ error: `Enter the ${label} as a number.` })
-      .finite(`Enter the ${label} as a number.`)
-      .nullable(),
-  );
+// Figures are typed as people write them ("1 240,5", "1,240.5") and may carry their unit ("2.5 t", "12 in"); a bare
+// figure is in the user's display unit. Masses come out in kg, lengths in m, thread engagement in mm.
+const number = (label: string) => typedNumberField(label);
+const mass = (label: string, units: Units) => amountField(label, "mass", units === "metric" ? "kg" : "lb", "kg");
+const length = (label: string, units: Units, into: "m" | "mm" = "m") =>
+  amountField(label, "length", units === "metric" ? "mm" : "in", into);
 
-const headSchema = z.object({
-  name: required("component's name", 200),
-  description: text(4000),
-  mass: number("mass").refine((v) => v > 0, "The mass must be more than zero."),
-  massSource: z.enum(MASS_SOURCES, { error: "Say where the mass comes from." }),
-  massNote: text(500),
-  contingencyPct: number("contingency").refine((v) => v >= 0 && v <= 100, "Give a contingency from 0 to 100 %."),
-  length: number("length").refine((v) => v > 0, "The length must be more than zero."),
-  width: number("width").refine((v) => v > 0, "The width must be more than zero."),
-  height: number("height").refine((v) => v > 0, "The height must be more than zero."),
-  cogX: number("CoG x"),
-  cogY: number("CoG y"),
-  cogZ: number("CoG z"),
-  cogSource: z.enum(COG_SOURCES, { error: "Say where the CoG comes from." }),
-  cogNote: text(500),
-  outlineMode: z.enum(["rectangle", "custom"]).default("rectangle"),
-  outlineElevation: text(20000),
-  outlinePlan: text(20000),
-});
+const headSchema = (units: Units) =>
+  z.object({
+    name: required("component's name", 200),
+    description: text(4000),
+    mass: mass("mass", units).refine((v) => v > 0, "The mass must be more than zero."),
+    massSource: z.enum(MASS_SOURCES, { error: "Say where the mass comes from." }),
+    massNote: text(500),
+    contingencyPct: typedNumberField("contingency", { suffix: "%" }).refine(
+      (v) => v >= 0 && v <= 100,
+      "Give a contingency from 0 to 100 %.",
+    ),
+    length: length("length", units).refine((v) => v > 0, "The length must be more than zero."),
+    width: length("width", units).refine((v) => v > 0, "The width must be more than zero."),
+    height: length("height", units).refine((v) => v > 0, "The height must be more than zero."),
+    cogX: length("CoG x", units),
+    cogY: length("CoG y", units),
+    cogZ: length("CoG z", units),
+    cogSource: z.enum(COG_SOURCES, { error: "Say where the CoG comes from." }),
+    cogNote: text(500),
+    outlineMode: z.enum(["rectangle", "custom"]).default("rectangle"),
+    outlineElevation: text(20000),
+    outlinePlan: text(20000),
+  });
 
-const liftPointSchema = z.object({
-  label: required("lift point's id", 10),
-  x: number("x"),
-  y: number("y"),
-  z: number("z"),
-  ax: number("axis x").default(0),
-  ay: number("axis y").default(0),
-  az: number("axis z").default(1),
-  thread: text(20),
-  engagement: optionalNumber("thread engagement"),
-});
+const liftPointSchema = (units: Units) =>
+  z.object({
+    label: required("lift point's id", 10),
+    x: length("x", units),
+    y: length("y", units),
+    z: length("z", units),
+    ax: number("axis x").default(0),
+    ay: number("axis y").default(0),
+    az: number("axis z").default(1),
+    thread: text(20),
+    engagement: z.preprocess(
+      (v) => (typeof v === "string" && v.trim() !== "" ? v : null),
+      length("thread engagement", units, "mm").nullable(),
+    ),
+  });
 
-const partSchema = z.object({
-  name: required("part's name", 200),
-  mass: number("mass").refine((v) => v > 0, "A part's mass must be more than zero."),
-  x: number("x"),
-  y: number("y"),
-  z: number("z"),
-});
+const partSchema = (units: Units) =>
+  z.object({
+    name: required("part's name", 200),
+    mass: mass("mass", units).refine((v) => v > 0, "A part's mass must be more than zero."),
+    x: length("x", units),
+    y: length("y", units),
+    z: length("z", units),
+  });
 
 /** Rows of fields named `${prefix}-${i}-${field}`, in index order; rows whose fields are all empty are left out. */
 export function indexedRows(
@@ -134,11 +137,12 @@ const TOLERANCE_M = 0.001;
 export function parseComponentForm(formData: FormData, units: Units): FormResult<ComponentDefinition> {
   const errors: Record<string, string[]> = {};
   const add = (key: string, message: string) => (errors[key] ??= []).push(message);
-  const head = headSchema.safeParse(
+  const head = headSchema(units).safeParse(
     Object.fromEntries([...formData.entries()].filter(([, v]) => typeof v === "string")),
   );
   if (!head.success) for (const issue of head.error.issues) add(String(issue.path[0] ?? "_form"), issue.message);
 
+  // Outline corners are typed as bare figures in the display unit.
   const L = (v: number) => fromDisplayLength(v, units);
 
   const liftRows = indexedRows(formData, "lp");
@@ -147,7 +151,7 @@ export function parseComponentForm(formData: FormData, units: Units): FormResult
   const liftPoints: ComponentDefinition["liftPoints"] = [];
   const labels = new Set<string>();
   for (const { index, values } of liftRows) {
-    const row = liftPointSchema.safeParse(values);
+    const row = liftPointSchema(units).safeParse(values);
     if (!row.success) {
       for (const issue of row.error.issues) add(`lp-${index}-${String(issue.path[0])}`, issue.message);
       continue;
@@ -165,10 +169,10 @@ export function parseComponentForm(formData: FormData, units: Units): FormResult
       add(`lp-${index}-engagement`, "Thread engagement must be more than zero.");
     liftPoints.push({
       label: p.label,
-      position: { x: L(p.x), y: L(p.y), z: L(p.z) },
+      position: { x: p.x, y: p.y, z: p.z },
       axis: { x: p.ax / axisLength, y: p.ay / axisLength, z: p.az / axisLength },
       thread: p.thread.toUpperCase().replace(/\s+/g, ""),
-      engagementMm: p.engagement === null ? null : convertLength(p.engagement, units === "metric" ? "mm" : "in", "mm"),
+      engagementMm: p.engagement,
     });
   }
 
@@ -176,25 +180,25 @@ export function parseComponentForm(formData: FormData, units: Units): FormResult
   if (partRows.length > MAX_PARTS) add("parts", `At most ${MAX_PARTS} parts.`);
   const parts: ComponentDefinition["parts"] = [];
   for (const { index, values } of partRows) {
-    const row = partSchema.safeParse(values);
+    const row = partSchema(units).safeParse(values);
     if (!row.success) {
       for (const issue of row.error.issues) add(`part-${index}-${String(issue.path[0])}`, issue.message);
       continue;
     }
     parts.push({
       name: row.data.name,
-      massKg: fromDisplayMass(row.data.mass, units),
-      position: { x: L(row.data.x), y: L(row.data.y), z: L(row.data.z) },
+      massKg: row.data.mass,
+      position: { x: row.data.x, y: row.data.y, z: row.data.z },
     });
   }
 
   if (!head.success) return { ok: false, errors };
   const h = head.data;
-  const massKg = fromDisplayMass(h.mass, units);
+  const massKg = h.mass;
   if (massKg > MAX_MASS_KG) add("mass", "That mass is over 1,000 t; check the figure and its unit.");
   if (h.massSource === "estimated" && !(h.contingencyPct > 0))
     add("contingencyPct", "An estimated mass must carry a contingency above 0 %.");
-  const dims = { lengthM: L(h.length), widthM: L(h.width), heightM: L(h.height) };
+  const dims = { lengthM: h.length, widthM: h.width, heightM: h.height };
   for (const [field, value] of [
     ["length", dims.lengthM],
     ["width", dims.widthM],
@@ -217,7 +221,7 @@ export function parseComponentForm(formData: FormData, units: Units): FormResult
     }
   }
 
-  const cog = { x: L(h.cogX), y: L(h.cogY), z: L(h.cogZ) };
+  const cog = { x: h.cogX, y: h.cogY, z: h.cogZ };
   const elevation = polygonBounds(outlines.outlineElevation);
   const plan = polygonBounds(outlines.outlinePlan);
   const inside = (v: number, min: number, max: number) => v >= min - TOLERANCE_M && v <= max + TOLERANCE_M;

@@ -32,12 +32,11 @@ function forgetSchemaOnChange(sql: unknown) {
  */
 class ConfiguredDatabase extends sqlite3.Database {
   constructor(filename: string, mode?: number, callback?: (err: Error | null) => void) {
-    let self: sqlite3.Database | undefined = undefined;
-    super(filename, mode ?? sqlite3.OPEN_READWRITE | sqlite3.OPEN_CREATE, (err) => {
-      if (err || !self) return callback?.(err);
-      self.exec(CONNECTION_PRAGMAS, (pragmaErr) => callback?.(pragmaErr ?? null));
+    // sqlite3 calls the open callback with the database as `this`, after the constructor has returned.
+    super(filename, mode ?? sqlite3.OPEN_READWRITE | sqlite3.OPEN_CREATE, function (this: sqlite3.Database, err) {
+      if (err) return callback?.(err);
+      this.exec(CONNECTION_PRAGMAS, (pragmaErr) => callback?.(pragmaErr ?? null));
     });
-    self = this;
   }
 
   override all(sql: string, ...rest: unknown[]): this {

@@ -1,3 +1,4 @@
+import os from "node:os";
 import { z } from "zod";
 
 /** The secret used outside production when SESSION_SECRET is not set; production refuses it. */
@@ -14,6 +15,10 @@ const envSchema = z.object({
   MAIL_CATCHER_PORT: z.coerce.number().int().min(0).max(65535).default(0),
   PUBLIC_URL: z.string().url().optional(),
   PORT: z.coerce.number().int().min(1).max(65535).default(3000),
+  // Address the production server binds; unset or empty: every interface.
+  HOST: z.string().optional(),
+  // Worker processes of the production server; unset: one per core Node may use.
+  WEB_CONCURRENCY: z.coerce.number().int().min(1).max(256).optional(),
   // How many reverse proxies in front of Plumbline append to X-Forwarded-For (0: none, the header is ignored).
   TRUST_PROXY: z.coerce.number().int().min(0).max(10).default(0),
 });
@@ -58,6 +63,9 @@ export function parseEnvironment(source: Record<string, string | undefined>) {
     publicUrl: raw.PUBLIC_URL ?? `http://localhost:${raw.PORT}`,
     publicUrlIsSet: !!raw.PUBLIC_URL,
     trustedProxyHops: raw.TRUST_PROXY,
+    port: raw.PORT,
+    host: raw.HOST || undefined,
+    webConcurrency: raw.WEB_CONCURRENCY ?? os.availableParallelism(),
   };
 }
 

@@ -1,26 +1,31 @@
-// The production server (`npm start`, `npm run demo`): the React Router build behind Express, one worker
-// process per core (WEB_CONCURRENCY, default the cores Node may use), each serving the same SQLite file
-// (WAL lets readers run beside the one writer; the busy timeout and IMMEDIATE transactions order the
+// The production entry: the input of the SSR build (vite.config.ts), so it becomes build/server/index.js beside the
+// React Router build and runs on plain `node`, no TypeScript loader:
+//   node build/server/index.js [serve]          the server (`npm start`, `npm run demo`)
+//   node build/server/index.js migrate | setup | down | backup [target] | restore <file> | reminders
+// The commands are db/cli.ts's, loaded only when asked for. Settings come from the checked environment
+// (utils/env.server.ts) alone.
+//
+// The server: Express with React Router's adapter, one worker process per core (WEB_CONCURRENCY), each serving the
+// same SQLite file (WAL lets readers run beside the one writer; the busy timeout and IMMEDIATE transactions order the
 // writers of different processes). The primary only forks and watches its workers.
 //
-// Against React Router's stock server this keeps two costs off every request: a file-system lookup in
-// the static folders for each page and API path (only files the build holds are looked up), and
-// source-map translation of the stack trace Sequelize captures on every query.
+// Against React Router's stock server this keeps two costs off every request: a file-system lookup in the static
+// folders for each page and API path (only files the build holds are looked up), and source-map translation of the
+// stack trace Sequelize captures on every query.
 import cluster from "node:cluster";
 import fs from "node:fs";
-import os from "node:os";
 import path from "node:path";
-import { pathToFileURL } from "node:url";
+import { fileURLToPath } from "node:url";
 import { createRequestHandler } from "@react-router/express";
 import compression from "compression";
 import express, { type RequestHandler } from "express";
 import morgan from "morgan";
 import type { ServerBuild } from "react-router";
 
-const BUILD_PATH = path.resolve(process.argv[2] ?? "build/server/index.js");
-const CLIENT_DIR = path.resolve(path.dirname(BUILD_PATH), "../client");
-const PORT = Number(process.env.PORT ?? 3000);
-const HOST = process.env.HOST || undefined;
+type Settings = { port: number; host: string | undefined; webConcurrency: number };
+
+const ENTRY_FILE = fileURLToPath(import.meta.url);
+const CLIENT_DIR = path.resolve(path.dirname(ENTRY_FILE), "../client");
 
 /** Headers for files from the build (pages and API answers get theirs, a CSP included, from the root middleware). */
 function setStaticHeaders(res: express.Response) {
@@ -45,10 +50,16 @@ function buildFiles(): RequestHandler {
   return (req, res, next) => (known.has(req.path) ? serve(req, res, next) : next());
 }
 
-async function startWorker() {
-  // Node maps stack traces through source maps only when asked; tsx asks. Sequelize formats a trace on every query.
+function address({ host, port }: Settings) {
+  return `http://${host ?? "localhost"}:${port}`;
+}
+
+async function startWorker(settings: Settings) {
+  // Node maps stack traces through source maps only when asked (--enable-source-maps); Sequelize formats a trace on
+  // every query, so keep it off even then.
   process.setSourceMapsEnabled(false);
-  const build = (await import(pathToFileURL(BUILD_PATH).href)) as ServerBuild;
+  // A chunk of its own: the primary never loads the app, its models or the database.
+  const build = (await import("virtual:react-router/server-build")) as ServerBuild;
   const app = express();
   app.disable("x-powered-by");
   app.use(compression());
@@ -63,14 +74,16 @@ async function startWorker() {
   );
   app.use(buildFiles());
   app.use(morgan("tiny"));
-  app.all("*", createRequestHandler({ build, mode: process.env.NODE_ENV }));
+  // This file serves only the production build: errors reach the browser without their details.
+  app.all("*", createRequestHandler({ build, mode: "production" }));
   const onListening = () => {
-    if (cluster.isPrimary) console.log(`Plumbline on http://${HOST ?? "localhost"}:${PORT}`);
+    if (cluster.isPrimary) console.log(`Plumbline on ${address(settings)}`);
     process.send?.({ listening: true });
   };
-  const server = HOST ? app.listen(PORT, HOST, onListening) : app.listen(PORT, onListening);
+  const { host, port } = settings;
+  const server = host ? app.listen(port, host, onListening) : app.listen(port, onListening);
   server.on("error", (error) => {
-    console.error(`Plumbline could not listen on ${HOST ?? "any address"}:${PORT}: ${error.message}`);
+    console.error(`Plumbline could not listen on ${host ?? "any address"}:${port}: ${error.message}`);
     process.exit(1);
   });
   // Finish the requests in hand, then leave; a second signal, or 10 s, ends it at once.
@@ -83,15 +96,15 @@ async function startWorker() {
   process.once("SIGINT", stop);
 }
 
-function startPrimary(workers: number) {
+function startPrimary(settings: Settings) {
+  const workers = settings.webConcurrency;
   let stopping = false;
   const listeningWorkers = new Set<number>();
   for (let i = 0; i < workers; i++) cluster.fork();
   cluster.on("message", (worker, message: { listening?: boolean }) => {
     if (!message?.listening) return;
     listeningWorkers.add(worker.id);
-    if (listeningWorkers.size === workers)
-      console.log(`Plumbline on http://${HOST ?? "localhost"}:${PORT} (${workers} workers)`);
+    if (listeningWorkers.size === workers) console.log(`Plumbline on ${address(settings)} (${workers} workers)`);
   });
   const stopAll = () => {
     stopping = true;
@@ -117,6 +130,34 @@ function startPrimary(workers: number) {
   process.once("SIGINT", stopAll);
 }
 
-const workers = Math.max(1, Math.floor(Number(process.env.WEB_CONCURRENCY ?? os.availableParallelism())) || 1);
-if (cluster.isPrimary && workers > 1) startPrimary(workers);
-else await startWorker();
+async function serve() {
+  let settings: Settings;
+  try {
+    ({ env: settings } = await import("~/utils/env.server"));
+  } catch (error) {
+    // Refused before any worker starts: every one would fail the same way.
+    console.error(error instanceof Error ? error.message : error);
+    console.error("Plumbline stopped before it could serve.");
+    process.exit(1);
+  }
+  if (cluster.isPrimary && settings.webConcurrency > 1) startPrimary(settings);
+  else await startWorker(settings);
+}
+
+async function runCommand(command: string, argument: string | undefined) {
+  try {
+    const { runDatabaseCommand } = await import("../../db/cli");
+    await runDatabaseCommand(command, argument);
+    process.exit(0);
+  } catch (error) {
+    console.error(error instanceof Error ? error.message : error);
+    process.exit(1);
+  }
+}
+
+// Only when node runs this file, never when something imports it.
+if (process.argv[1] && path.resolve(process.argv[1]) === ENTRY_FILE) {
+  const command = process.argv[2] ?? "serve";
+  if (command === "serve") await serve();
+  else await runCommand(command, process.argv[3]);
+}

@@ -82,8 +82,8 @@ export type CheckedUpload = { bytes: Uint8Array; kind: FileKind; contentType: st
 /** A file name safe to keep and to offer back: no folders, no control characters, at most 200 characters. */
 export function cleanFileName(name: string): string {
   const base = name.split(/[\\/]/).pop() ?? "";
-  // eslint-disable-next-line no-control-regex
   const clean = base
+    // eslint-disable-next-line no-control-regex -- removing control characters is the point
     .replace(/[\u0000-\u001f\u007f"]/g, "")
     .trim()
     .slice(-200);

@@ -1,3 +1,5 @@
+import fs from "node:fs";
+import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { hydrated, openBrowser, signIn, type BrowserSession } from "./browser";
 
@@ -37,5 +39,18 @@ describe("the drawing library ships only with the editor", () => {
   it("the editor loads it", async () => {
     const { hasKonva } = await scriptsOf("/plans/1/edit");
     expect(hasKonva).toBe(true);
+  });
+});
+
+describe("mathjs stays on the server", () => {
+  it("no file of the browser build carries it, while the server build does (utils/quantities.ts)", () => {
+    // "hogshead" is one of mathjs's unit names: a string no minifier renames and nothing else here says.
+    const carriesMathjs = (dir: string) =>
+      fs
+        .readdirSync(dir)
+        .filter((f) => f.endsWith(".js"))
+        .filter((f) => fs.readFileSync(path.join(dir, f), "utf8").includes("hogshead"));
+    expect(carriesMathjs("build/client/assets")).toEqual([]);
+    expect(carriesMathjs("build/server/assets").length).toBeGreaterThan(0);
   });
 });

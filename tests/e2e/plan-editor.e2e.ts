@@ -199,12 +199,10 @@ describe("a planner lays out a lift from the keyboard alone", () => {
     expect(await isFocused(elevation)).toBe(true);
     // The focus ring is drawn over the canvas, 3 px wide, only while the drawing has keyboard focus.
     const ring = (locator: Locator) =>
-      locator
-        .locator("[data-focus-ring]")
-        .evaluate((el) => ({
-          style: getComputedStyle(el).outlineStyle,
-          width: parseFloat(getComputedStyle(el).outlineWidth),
-        }));
+      locator.locator("[data-focus-ring]").evaluate((el) => ({
+        style: getComputedStyle(el).outlineStyle,
+        width: parseFloat(getComputedStyle(el).outlineWidth),
+      }));
     expect(await ring(elevation)).toEqual({ style: "solid", width: 3 });
     expect((await ring(planView)).style).toBe("none");
     await page.keyboard.press("ArrowRight");

@@ -1,12 +1,12 @@
-// The production server (app/utils/serve.server.ts) as `npm start` runs it: the build's files with their
-// headers, page paths never looked up on disk, a worker that dies replaced, a misconfigured start
-// refused with its reason, and SIGTERM stopping every process.
+// The production server (app/utils/serve.server.ts, built into build/server/index.js) as `npm start` runs it with
+// plain node: the build's files with their headers, page paths never looked up on disk, a worker that dies
+// replaced, a misconfigured start refused with its reason, and SIGTERM stopping every process.
 import { spawn, spawnSync } from "node:child_process";
 import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { freePort, signInCookie, startBuiltServer, type BuiltServer } from "../support/built-server";
+import { freePort, SERVER_ENTRY, signInCookie, startBuiltServer, type BuiltServer } from "../support/built-server";
 
 let server: BuiltServer;
 
@@ -118,7 +118,7 @@ describe("worker processes", () => {
         WEB_CONCURRENCY: "2",
       };
       for (const name of ["PLUMBLINE_ENV", "SESSION_SECRET", "SMTP_URL", "PUBLIC_URL"]) delete env[name];
-      const child = spawn(process.execPath, ["--import", "tsx", "app/utils/serve.server.ts", "build/server/index.js"], {
+      const child = spawn(process.execPath, [SERVER_ENTRY], {
         env,
         stdio: ["ignore", "pipe", "pipe"],
       });

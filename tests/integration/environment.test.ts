@@ -1,3 +1,4 @@
+import os from "node:os";
 import { describe, expect, it } from "vitest";
 import { DEV_SESSION_SECRET, parseEnvironment } from "~/utils/env.server";
 
@@ -37,5 +38,18 @@ describe("configuration", () => {
 
   it("names the bad variable", () => {
     expect(() => parseEnvironment({ PORT: "eighty" })).toThrow(/PORT/);
+    expect(() => parseEnvironment({ WEB_CONCURRENCY: "0" })).toThrow(/WEB_CONCURRENCY/);
+    expect(() => parseEnvironment({ WEB_CONCURRENCY: "two" })).toThrow(/WEB_CONCURRENCY/);
+  });
+
+  it("gives the production server its address and one worker per core unless told", () => {
+    const defaults = parseEnvironment({});
+    expect(defaults).toMatchObject({ port: 3000, host: undefined, webConcurrency: os.availableParallelism() });
+    expect(parseEnvironment({ HOST: "" }).host).toBeUndefined();
+    expect(parseEnvironment({ HOST: "127.0.0.1", PORT: "8080", WEB_CONCURRENCY: "3" })).toMatchObject({
+      host: "127.0.0.1",
+      port: 8080,
+      webConcurrency: 3,
+    });
   });
 });

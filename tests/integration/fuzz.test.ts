@@ -576,7 +576,9 @@ async function check(
   try {
     result = await callRoute(action, request, params);
   } catch (error) {
-    throw new Error(`${name} threw instead of answering: ${error instanceof Error ? error.stack : String(error)}`);
+    throw new Error(`${name} threw instead of answering: ${error instanceof Error ? error.stack : String(error)}`, {
+      cause: error,
+    });
   }
   const { status, data } = result;
   // Messages are built only on failure: this runs thousands of times.

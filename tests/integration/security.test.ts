@@ -389,7 +389,8 @@ describe("the app as served", () => {
       expect(solved.headers.get("Content-Security-Policy")).toMatch(/^default-src 'self'/);
       expectCommonHeaders(solved);
       for (const res of [
-        await send("/_root.data", { headers: { Cookie: cookie } }),
+        // The root's data URL (future.v8_trailingSlashAwareDataRequests; it was /_root.data).
+        await send("/_.data", { headers: { Cookie: cookie } }),
         await send("/api/solve", { method: "POST", headers: { ...JSON_BODY, Origin: EVIL }, body: solveBody }),
         await send("/no/such/page", { headers: { Cookie: cookie } }),
       ]) {

@@ -95,7 +95,7 @@ export async function createAppHandler(): Promise<(request: Request) => Promise<
     basename: "/",
     publicPath: "/",
     assetsBuildDirectory: "build/client",
-    future: { v8_passThroughRequests: false, v8_trailingSlashAwareDataRequests: false, ...config.future },
+    future: config.future,
     ssr: true,
     isSpaMode: false,
     prerender: [],

@@ -7,6 +7,9 @@ import net from "node:net";
 import os from "node:os";
 import path from "node:path";
 
+/** The production build's entry: the server and the database commands, run with plain node as `npm start` does. */
+export const SERVER_ENTRY = "build/server/index.js";
+
 export type BuiltServer = {
   baseUrl: string;
   databasePath: string;
@@ -43,7 +46,7 @@ export type StartOptions = {
 };
 
 export async function startBuiltServer(options: StartOptions = {}): Promise<BuiltServer> {
-  if (!fs.existsSync("build/server/index.js")) throw new Error("Build the app first (npm run build).");
+  if (!fs.existsSync(SERVER_ENTRY)) throw new Error("Build the app first (npm run build).");
   const existing = options.databasePath;
   const workDir = existing
     ? path.dirname(path.resolve(existing))
@@ -58,7 +61,7 @@ export async function startBuiltServer(options: StartOptions = {}): Promise<Buil
     ...options.extraEnv,
   };
   if (!existing) {
-    const seeded = spawnSync(process.execPath, ["node_modules/tsx/dist/cli.mjs", "db/cli.ts", "setup"], {
+    const seeded = spawnSync(process.execPath, [SERVER_ENTRY, "setup"], {
       env,
       encoding: "utf8",
     });
@@ -66,7 +69,7 @@ export async function startBuiltServer(options: StartOptions = {}): Promise<Buil
   }
   options.prepare?.(env);
   const port = await freePort();
-  const child = spawn(process.execPath, ["--import", "tsx", "app/utils/serve.server.ts", "build/server/index.js"], {
+  const child = spawn(process.execPath, [SERVER_ENTRY, "serve"], {
     env: { ...env, PORT: String(port) },
     stdio: ["ignore", "pipe", "pipe"],
   });

@@ -1,4 +1,5 @@
-// Runs before each test file: a fresh SQLite file, migrated by the project's own migrations.
+// Runs before each test file: a fresh SQLite file, migrated by the project's own migrations, and an empty upload
+// folder; both are removed when the file's tests are done.
 import { randomUUID } from "node:crypto";
 import fs from "node:fs";
 import os from "node:os";
@@ -7,7 +8,8 @@ import { afterAll } from "vitest";
 
 const file = path.join(os.tmpdir(), `plumbline-test-${process.pid}-${randomUUID()}.sqlite`);
 process.env.DATABASE_PATH = file;
-process.env.UPLOAD_DIR = path.join(os.tmpdir(), `plumbline-uploads-${randomUUID()}`);
+const uploadDir = path.join(os.tmpdir(), `plumbline-uploads-${randomUUID()}`);
+process.env.UPLOAD_DIR = uploadDir;
 globalThis.__plumblineSequelize = undefined;
 globalThis.__plumblineMail = undefined;
 
@@ -18,4 +20,5 @@ await createMigrator(sequelize).up();
 afterAll(async () => {
   await sequelize.close();
   for (const suffix of ["", "-wal", "-shm"]) fs.rmSync(file + suffix, { force: true });
+  fs.rmSync(uploadDir, { recursive: true, force: true });
 });
