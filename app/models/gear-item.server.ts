@@ -40,6 +40,8 @@ export class GearItem extends Model<InferAttributes<GearItem>, InferCreationAttr
   declare lengthM: number | null;
   declare hookHeightM: number | null;
   declare beamMassKg: number | null;
+  /** The item's own mass, kg (null until recorded): the crane carries it with the load. */
+  declare massKg: number | null;
   declare homeSiteId: number | null;
   declare status: CreationOptional<GearStatus>;
   declare statusReason: CreationOptional<string>;
@@ -75,6 +77,7 @@ GearItem.init(
     lengthM: { type: DataTypes.DOUBLE, allowNull: true },
     hookHeightM: { type: DataTypes.DOUBLE, allowNull: true },
     beamMassKg: { type: DataTypes.DOUBLE, allowNull: true },
+    massKg: { type: DataTypes.DOUBLE, allowNull: true },
     homeSiteId: { type: DataTypes.INTEGER, allowNull: true },
     status: { type: DataTypes.STRING(15), allowNull: false, defaultValue: "in_service" },
     statusReason: { type: DataTypes.TEXT, allowNull: false, defaultValue: "" },
