@@ -10,6 +10,22 @@ export const DUE_SOON_DAYS = 30;
  */
 export const EXAMINATION_INTERVAL_MONTHS = { accessory: 6, equipment: 12 } as const;
 
+/** The longest intervals a rule set allows without an examination scheme, months, and where they come from. */
+export type ExaminationIntervals = { accessory: number; equipment: number; source?: string };
+
+/** A rule set's examination intervals. */
+export function intervalsOf(ruleSet: {
+  accessoryExaminationMonths: number;
+  equipmentExaminationMonths: number;
+  examinationSource: string;
+}): ExaminationIntervals {
+  return {
+    accessory: ruleSet.accessoryExaminationMonths,
+    equipment: ruleSet.equipmentExaminationMonths,
+    source: ruleSet.examinationSource,
+  };
+}
+
 export type DueState = "overdue" | "due_soon" | "in_date" | "never_examined";
 
 export const DUE_STATES: readonly DueState[] = ["overdue", "due_soon", "in_date", "never_examined"];
@@ -63,14 +79,21 @@ export function addMonths(date: string, months: number): string {
   return formatIso(target);
 }
 
-/** The interval in months LOLER allows for this kind of item without an examination scheme. */
-export function examinationIntervalMonths(kind: GearKind): number {
-  return GEAR_KIND_INFO[kind].accessory ? EXAMINATION_INTERVAL_MONTHS.accessory : EXAMINATION_INTERVAL_MONTHS.equipment;
+/** The interval in months the rule set (default LOLER) allows for this kind of item without an examination scheme. */
+export function examinationIntervalMonths(
+  kind: GearKind,
+  intervals: ExaminationIntervals = EXAMINATION_INTERVAL_MONTHS,
+): number {
+  return GEAR_KIND_INFO[kind].accessory ? intervals.accessory : intervals.equipment;
 }
 
 /** The next examination date to offer after an examination on `examinedOn` (YYYY-MM-DD). */
-export function defaultNextDue(kind: GearKind, examinedOn: string): string {
-  return addMonths(examinedOn, examinationIntervalMonths(kind));
+export function defaultNextDue(
+  kind: GearKind,
+  examinedOn: string,
+  intervals: ExaminationIntervals = EXAMINATION_INTERVAL_MONTHS,
+): string {
+  return addMonths(examinedOn, examinationIntervalMonths(kind, intervals));
 }
 
 /**

@@ -7,7 +7,10 @@ import {
   type NonAttribute,
   type Transaction,
 } from "sequelize";
-import { defaultNextDue } from "~/gear/due";
+import { defaultNextDue, intervalsOf } from "~/gear/due";
+import { getOrganisationRuleSet } from "~/models/organisation.server";
+import { getReferenceTables } from "~/models/reference-row.server";
+import { ruleSetRow } from "~/statics/rule-sets";
 import { sequelize } from "~/utils/db.server";
 import type { ExaminationFields } from "~/gear/schema";
 import { recordAudit } from "~/models/audit-event.server";
@@ -86,7 +89,7 @@ export type RecordedExamination = { examination: Examination; nextDueOn: string;
 
 /**
  * Records an examination and its certificate in one transaction. The next due date defaults to
- * LOLER's interval for the item's kind; the item's due date follows its latest examination; a
+ * the organisation's rule set's interval for the item's kind (LOLER's 6 / 12 months under UK / EU rules); the item's due date follows its latest examination; a
  * failed examination quarantines an item in service.
  */
 export async function recordExamination(
@@ -99,7 +102,8 @@ export async function recordExamination(
   return transactionWithFiles(async (transaction, store) => {
     const item = await GearItem.findOne({ where: { organisationId, id: gearItemId }, transaction });
     if (!item) return null;
-    const nextDueOn = fields.nextDueOn ?? defaultNextDue(item.kind, fields.examinedOn);
+    const intervals = intervalsOf(ruleSetRow(await getReferenceTables(), await getOrganisationRuleSet(organisationId, transaction)));
+    const nextDueOn = fields.nextDueOn ?? defaultNextDue(item.kind, fields.examinedOn, intervals);
     const file = certificate
       ? await store(certificate, { organisationId, purpose: "certificate", uploadedBy: actorId })
       : null;

@@ -111,6 +111,7 @@ export const COMPARED_FIELDS = [
   "wllValue",
   "wllUnit",
   ...SPEC_FIELDS,
+  "massKg",
   "homeSiteId",
 ] as const satisfies ReadonlyArray<keyof GearItemInput>;
 

@@ -13,7 +13,15 @@ import {
   SelectField,
   TextAreaField,
 } from "~/components/ui/form";
-import { defaultNextDue, dueState, examinationIntervalMonths, isIsoDate, todayIso } from "~/gear/due";
+import {
+  defaultNextDue,
+  dueState,
+  examinationIntervalMonths,
+  intervalsOf,
+  isIsoDate,
+  todayIso,
+  type ExaminationIntervals,
+} from "~/gear/due";
 import {
   GEAR_KIND_INFO,
   GEAR_STATUS_LABELS,
@@ -24,6 +32,10 @@ import {
 } from "~/gear/kinds";
 import { listExaminations } from "~/models/examination.server";
 import { listGearHistory, type GearHistoryEntry } from "~/models/gear-item.server";
+import { getOrganisationRuleSet } from "~/models/organisation.server";
+import { getReferenceTables } from "~/models/reference-row.server";
+import { ruleSetRow } from "~/statics/rule-sets";
+import { formatMass } from "~/utils/format";
 import { hasAnyRole } from "~/utils/roles";
 import { requireUser } from "~/utils/session.server";
 
@@ -37,8 +49,12 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     listGearHistory(user.organisationId, item.id),
   ]);
   const today = todayIso();
+  const rules = ruleSetRow(await getReferenceTables(), await getOrganisationRuleSet(user.organisationId));
   return {
     today,
+    units: user.units,
+    intervals: intervalsOf(rules),
+    ruleSetName: rules.name,
     canAdmin: hasAnyRole(user, "admin"),
     item: {
       id: item.id,
@@ -59,6 +75,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       lastExaminedOn: item.lastExaminedOn,
       nextDueOn: item.nextDueOn,
       dueState: dueState(item.nextDueOn, today),
+      massKg: item.massKg,
     },
     examinations: examinations.map((e) => ({
       id: e.id,
@@ -111,7 +128,7 @@ function describeEvent(entry: GearHistoryEntry): string {
 }
 
 export default function GearItemPage({ loaderData, actionData }: Route.ComponentProps) {
-  const { item, examinations, history, canAdmin, today } = loaderData;
+  const { item, examinations, history, canAdmin, today, units, intervals, ruleSetName } = loaderData;
   const errorsFor = (intent: GearIntent): Record<string, string[] | undefined> =>
     actionData && "intent" in actionData && actionData.intent === intent ? actionData.errors : {};
   const info = GEAR_KIND_INFO[item.kind];
@@ -202,7 +219,7 @@ export default function GearItemPage({ loaderData, actionData }: Route.Component
                 </table>
               </div>
             )}
-            {canAdmin && <ExaminationForm kind={item.kind} today={today} errors={errorsFor("examination")} />}
+            {canAdmin && <ExaminationForm kind={item.kind} today={today} intervals={intervals} errors={errorsFor("examination")} />}
           </Card>
 
           <Card title="History">
@@ -237,12 +254,14 @@ export default function GearItemPage({ loaderData, actionData }: Route.Component
               ))}
               <Spec label="Manufacturer" value={item.manufacturer} />
               <Spec label="Serial number" value={item.serial} />
+              <dt className="text-ink-soft">Own mass</dt>
+              <dd>{item.massKg === null ? "not recorded" : formatMass(item.massKg, units)}</dd>
               <dt className="text-ink-soft">Home site</dt>
               <dd>{item.homeSite ? item.homeSite.name : "none"}</dd>
               <dt className="text-ink-soft">Examination interval</dt>
               <dd>
-                {examinationIntervalMonths(item.kind)} months (
-                {info.accessory ? "lifting accessory" : "lifting equipment"}, LOLER reg 9(3))
+                {examinationIntervalMonths(item.kind, intervals)} months (
+                {info.accessory ? "lifting accessory" : "lifting equipment"}, {ruleSetName}: {intervals.source})
               </dd>
             </dl>
           </Card>
@@ -303,19 +322,21 @@ function Spec({ label, value }: { label: string; value: string | number | null }
 function ExaminationForm({
   kind,
   today,
+  intervals,
   errors,
 }: {
   kind: GearKind;
   today: string;
+  intervals: ExaminationIntervals;
   errors: Record<string, string[] | undefined>;
 }) {
   const [examinedOn, setExaminedOn] = useState(today);
-  const [nextDueOn, setNextDueOn] = useState(defaultNextDue(kind, today));
+  const [nextDueOn, setNextDueOn] = useState(defaultNextDue(kind, today, intervals));
   const [nextDueEdited, setNextDueEdited] = useState(false);
   const [result, setResult] = useState<"pass" | "fail">("pass");
   const navigation = useNavigation();
   const busy = navigation.state === "submitting" && navigation.formData?.get("intent") === "examination";
-  const months = examinationIntervalMonths(kind);
+  const months = examinationIntervalMonths(kind, intervals);
   return (
     <Form method="post" encType="multipart/form-data" className="mt-4 space-y-4 border-t border-rule pt-4">
       <h3>Record a thorough examination</h3>
@@ -329,7 +350,7 @@ function ExaminationForm({
           value={examinedOn}
           onChange={(e) => {
             setExaminedOn(e.target.value);
-            if (!nextDueEdited && isIsoDate(e.target.value)) setNextDueOn(defaultNextDue(kind, e.target.value));
+            if (!nextDueEdited && isIsoDate(e.target.value)) setNextDueOn(defaultNextDue(kind, e.target.value, intervals));
           }}
           errors={errors.examinedOn}
           required
@@ -360,7 +381,7 @@ function ExaminationForm({
           setNextDueEdited(true);
         }}
         errors={errors.nextDueOn}
-        hint={`Default ${months} months: LOLER 1998 reg 9(3) for ${GEAR_KIND_INFO[kind].accessory ? "a lifting accessory" : "lifting equipment"}. Change it only to follow your examination scheme.`}
+        hint={`Default ${months} months for ${GEAR_KIND_INFO[kind].accessory ? "a lifting accessory" : "lifting equipment"} (${intervals.source ?? "LOLER 1998 reg 9(3)"}). Change it only to follow your examination scheme.`}
       />
       <Field
         label="Certificate (PDF, up to 10 MB)"
