@@ -39,7 +39,8 @@ export async function updateOrganisationSettings(
   organisationId: number,
   settings: { name: string; allowSelfApproval: boolean; ruleSet?: RuleSetId },
 ) {
-  await Organisation.update(settings, { where: { id: organisationId } });
+  const { ruleSet, ...rest } = settings;
+  await Organisation.update(ruleSet ? { ...rest, ruleSet } : rest, { where: { id: organisationId } });
 }
 
 /** The rule set the organisation works to (UK / EU when unknown). */
