@@ -1,4 +1,5 @@
 import type { Route } from "./+types/api.solve";
+import { getOrganisationRuleSet } from "~/models/organisation.server";
 import { getReferenceTables } from "~/models/reference-row.server";
 import { requireUser } from "~/utils/session.server";
 import { handleSolve } from "~/statics/api";
@@ -20,7 +21,7 @@ export async function loader({ request }: Route.LoaderArgs) {
 
 /** Solves a hanging load (and checks its rigging when described). Stateless: nothing is stored. */
 export async function action({ request }: Route.ActionArgs) {
-  await requireUser(request);
+  const user = await requireUser(request);
   if (request.method !== "POST")
     return Response.json({ error: "Only POST is allowed here." }, { status: 405, headers: { Allow: "POST" } });
   const declared = Number(request.headers.get("Content-Length") ?? "0");
@@ -34,6 +35,9 @@ export async function action({ request }: Route.ActionArgs) {
     return badRequest("The body is not valid JSON. Send the load, lift points and hook (or leg lengths) as JSON.");
   }
   const tables = await getReferenceTables();
-  const result = handleSolve(body, tables, { todayIso: new Date().toISOString().slice(0, 10) });
+  const result = handleSolve(body, tables, {
+    todayIso: new Date().toISOString().slice(0, 10),
+    defaultRuleSet: await getOrganisationRuleSet(user.organisationId),
+  });
   return Response.json(result.body, { status: result.status });
 }
