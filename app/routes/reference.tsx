@@ -14,8 +14,9 @@ const TITLES: Record<string, string> = {
   chainGrade80Us: "Grade 80 chain (US), rated load in lb",
   wireRope: "Wire rope slings, single leg, tonnes",
   textileColours: "Textile slings: colour by WLL in a straight lift",
-  hitchFactors: "Hitch factors",
-  modeFactors: "Multi-leg mode factors",
+  hitchFactors: "Hitch factors, by rule set",
+  modeFactors: "Multi-leg mode factors, by rule set",
+  ruleSets: "Rule sets: angle limits, eyebolt tables and examination intervals",
 };
 
 export async function loader({ request }: Route.LoaderArgs) {

@@ -166,6 +166,15 @@ describe("inspection status (UK LOLER 1998 reg 9(3))", () => {
     expect(checkInspection("Sling leg A", record, today).verdict).toBe(status);
   });
   it("dates count in whole days", () => expect(isoDateToDay("1970-01-02")).toBe(1));
+  it("an item in date today but due before the planned lift date fails, showing both dates", () => {
+    const c = checkInspection("Sling leg A", rec("in_service", "2025-07-01"), "2025-05-01", { liftDateIso: "2025-07-15" });
+    expect(c.verdict).toBe("fail");
+    expect(c.finding).toBe("overdue-at-lift");
+    expect(c.fix).toEqual({ kind: "examine-before", dateIso: "2025-07-15" });
+    expect(c.inputs.inspection).toMatchObject({ daysLeftToday: 61, daysLeftAtLift: -14 });
+    expect(checkSentence(c, "metric")).toContain("today 2025-05-01; lift planned for 2025-07-15");
+    expect(checkInspection("Sling leg A", rec("in_service", "2025-07-01"), "2025-05-01", { liftDateIso: "2025-06-30" }).verdict).toBe("pass");
+  });
 });
 
 describe("checkRigging on the Furley 2-leg example with 10 % contingency", () => {
