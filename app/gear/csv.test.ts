@@ -125,7 +125,9 @@ describe("the item's own mass (mass_kg)", () => {
   it("is read on import, checked like the form, and written back on export", () => {
     const head = "item_code,kind,wll,wll_unit,shackle_type,pin_type,mass_kg";
     const { valid, errors } = validateGearRows(
-      rowsOf(`${head}\r\nSH-1,shackle,2,t,bow,screw,0.36\r\nSH-2,shackle,2,t,bow,screw,\r\nSH-3,shackle,2,t,bow,screw,-1\r\n`),
+      rowsOf(
+        `${head}\r\nSH-1,shackle,2,t,bow,screw,0.36\r\nSH-2,shackle,2,t,bow,screw,\r\nSH-3,shackle,2,t,bow,screw,-1\r\n`,
+      ),
       sites,
     );
     expect(valid.map((v) => v.input.massKg)).toEqual([0.36, null]);

@@ -41,7 +41,11 @@ function describe(item: GearItem) {
  * sling is marked with the assembly's WLL for legs up to 45 deg; one leg is taken as that over the
  * rule set's mode factor (via the reference tables).
  */
-export function toGearPick(item: GearItem, tables: ReferenceTables, ruleSet: RuleSetId = DEFAULT_RULE_SET): GearPick | null {
+export function toGearPick(
+  item: GearItem,
+  tables: ReferenceTables,
+  ruleSet: RuleSetId = DEFAULT_RULE_SET,
+): GearPick | null {
   const role = roleOfKind(item.kind);
   if (!role) return null;
   const base = {
@@ -57,7 +61,10 @@ export function toGearPick(item: GearItem, tables: ReferenceTables, ruleSet: Rul
     massKg: item.massKg ?? null,
   };
   const marked: Wll = { value: item.wllValue, unit: item.wllUnit };
-  const identity = { itemCode: item.itemCode, ...(item.massKg !== null && item.massKg !== undefined ? { massKg: item.massKg } : {}) };
+  const identity = {
+    itemCode: item.itemCode,
+    ...(item.massKg !== null && item.massKg !== undefined ? { massKg: item.massKg } : {}),
+  };
   switch (role) {
     case "eyebolt":
       return {

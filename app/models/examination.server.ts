@@ -102,7 +102,9 @@ export async function recordExamination(
   return transactionWithFiles(async (transaction, store) => {
     const item = await GearItem.findOne({ where: { organisationId, id: gearItemId }, transaction });
     if (!item) return null;
-    const intervals = intervalsOf(ruleSetRow(await getReferenceTables(), await getOrganisationRuleSet(organisationId, transaction)));
+    const intervals = intervalsOf(
+      ruleSetRow(await getReferenceTables(), await getOrganisationRuleSet(organisationId, transaction)),
+    );
     const nextDueOn = fields.nextDueOn ?? defaultNextDue(item.kind, fields.examinedOn, intervals);
     const file = certificate
       ? await store(certificate, { organisationId, purpose: "certificate", uploadedBy: actorId })

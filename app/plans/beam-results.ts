@@ -99,13 +99,19 @@ export function beamResults(
     if (!lr) return;
     const loadKg = leg.tensionKg * factor;
     if (lr.sling) {
-      checks.push(checkSlingLeg(leg.liftPointId, loadKg, lr.sling, tables, { ruleSet, allowedHitches: allowedHitches(lr.sling, lr) }));
+      checks.push(
+        checkSlingLeg(leg.liftPointId, loadKg, lr.sling, tables, {
+          ruleSet,
+          allowedHitches: allowedHitches(lr.sling, lr),
+        }),
+      );
       if (lr.sling.inspection) inspections.push({ name: `Sling leg ${leg.liftPointId}`, record: lr.sling.inspection });
     }
     if (lr.shackle) {
       const sideLoad = shackleSideLoad(up, point.axis, lr.eyePlane, lr.eyebolt, leg.axisAngleDeg);
       checks.push(checkShackle(leg.liftPointId, loadKg, lr.shackle, tables, { ruleSet, sideLoad }));
-      if (lr.shackle.inspection) inspections.push({ name: `Shackle at ${leg.liftPointId}`, record: lr.shackle.inspection });
+      if (lr.shackle.inspection)
+        inspections.push({ name: `Shackle at ${leg.liftPointId}`, record: lr.shackle.inspection });
     }
     if (lr.eyebolt) {
       const thread = byLabel.get(leg.liftPointId)?.thread || undefined;
@@ -115,7 +121,8 @@ export function beamResults(
           geometry: { pull: up, axis: point.axis, plane: lr.eyePlane },
         }),
       );
-      if (lr.eyebolt.inspection) inspections.push({ name: `Eyebolt at ${leg.liftPointId}`, record: lr.eyebolt.inspection });
+      if (lr.eyebolt.inspection)
+        inspections.push({ name: `Eyebolt at ${leg.liftPointId}`, record: lr.eyebolt.inspection });
     }
   });
   const designLoadKg = snapshot.massKg * factor;
@@ -147,7 +154,9 @@ export function beamResults(
     if (rigging.crane.inspection) inspections.push({ name: "Crane or hoist", record: rigging.crane.inspection });
     if (rigging.crane.maxHookHeightM !== undefined && rigging.headroom) {
       const drop = arrangement.hookHeightM - (rigging.headroom.loadUndersideZM ?? 0);
-      checks.push(checkHeadroom(rigging.headroom.clearanceAboveFloorM + drop, rigging.crane.maxHookHeightM, { ruleSet }));
+      checks.push(
+        checkHeadroom(rigging.headroom.clearanceAboveFloorM + drop, rigging.crane.maxHookHeightM, { ruleSet }),
+      );
     }
   }
   for (const { name, record } of inspections) {

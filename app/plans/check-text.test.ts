@@ -67,10 +67,14 @@ describe("fixes in words", () => {
   });
   it("an angle check that fails says so with the rule set's limit and the fix", () => {
     const c = checkLegAngle("A", 70, { fix: { warn: null, fail: { kind: "raise-hook", minHookZM: 1.2 } } });
-    expect(checkSentence(c, "metric")).toMatch(/70\.0° from vertical .*beyond 60°: raise the hook point to at least 1,200 mm/);
+    expect(checkSentence(c, "metric")).toMatch(
+      /70\.0° from vertical .*beyond 60°: raise the hook point to at least 1,200 mm/,
+    );
   });
   it("a shackle side-loaded from the geometry says where the angle came from", () => {
-    const c = checkShackle("A", 500, { type: "bow", wllKg: 2000 }, T, { sideLoad: { angleDeg: 30, from: "lug-plane" } });
+    const c = checkShackle("A", 500, { type: "bow", wllKg: 2000 }, T, {
+      sideLoad: { angleDeg: 30, from: "lug-plane" },
+    });
     expect(checkSentence(c, "metric")).toContain("Side load 30.0°, from the pull against the lug's plane");
   });
 });
@@ -87,8 +91,15 @@ describe("governing check and stored results", () => {
   });
   it("a check stored before checks were structured shows its stored sentence", () => {
     const legacy: LegacyCheck = {
-      id: "master-link", item: "Master link", status: "pass", utilisation: 0.5, loadKg: 1000, capacityKg: 2000,
-      rule: "Total hook load vs WLL", source: "marked WLL", message: "Master link carries 1,000 kg of its 2,000 kg WLL (50 %).",
+      id: "master-link",
+      item: "Master link",
+      status: "pass",
+      utilisation: 0.5,
+      loadKg: 1000,
+      capacityKg: 2000,
+      rule: "Total hook load vs WLL",
+      source: "marked WLL",
+      message: "Master link carries 1,000 kg of its 2,000 kg WLL (50 %).",
     };
     expect(checkSentence(legacy, "imperial")).toBe(legacy.message);
     expect(governingCheck([legacy], "metric")!.verdict).toBe("pass");

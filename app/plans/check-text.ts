@@ -180,7 +180,9 @@ function sideLoadNote(check: Check): string {
 
 function inspectionText(check: Check, units: Units): string {
   const x = check.inputs.inspection;
-  const dates = x ? ` (today ${x.todayIso}${x.liftDateIso ? `; lift planned for ${x.liftDateIso}` : "; no lift date set"})` : "";
+  const dates = x
+    ? ` (today ${x.todayIso}${x.liftDateIso ? `; lift planned for ${x.liftDateIso}` : "; no lift date set"})`
+    : "";
   const due = x?.examinationDue ?? "";
   switch (check.finding) {
     case "quarantined":
@@ -189,9 +191,19 @@ function inspectionText(check: Check, units: Units): string {
     case "no-due-date":
       return withFix(`${check.item} has no thorough examination on record`, check, units, "");
     case "overdue":
-      return withFix(`${check.item} was due for thorough examination on ${due} and is overdue${dates}`, check, units, "");
+      return withFix(
+        `${check.item} was due for thorough examination on ${due} and is overdue${dates}`,
+        check,
+        units,
+        "",
+      );
     case "overdue-at-lift":
-      return withFix(`${check.item} is in date today but due for thorough examination on ${due}, before the planned lift${dates}`, check, units, "");
+      return withFix(
+        `${check.item} is in date today but due for thorough examination on ${due}, before the planned lift${dates}`,
+        check,
+        units,
+        "",
+      );
     case "due-soon":
       return `${check.item} is due for thorough examination on ${due}, within ${x?.warnDays ?? 30} days${dates}.`;
     default:
@@ -244,17 +256,34 @@ export function checkSentence(check: AnyCheck, units: Units, options: { withUtil
       );
     case "no-wll":
       return withFix(
-        check.kind === "sling-assembly" ? `The ${check.item} has a leg with no known WLL` : `${check.item} has no known WLL`,
+        check.kind === "sling-assembly"
+          ? `The ${check.item} has a leg with no known WLL`
+          : `${check.item} has no known WLL`,
         check,
         units,
         "",
       );
     case "thread-mismatch":
-      return withFix(`${check.item} does not fit lift point ${check.position.legs[0] ?? ""}, which is tapped ${i.liftPointThread ?? ""}`, check, units, "");
+      return withFix(
+        `${check.item} does not fit lift point ${check.position.legs[0] ?? ""}, which is tapped ${i.liftPointThread ?? ""}`,
+        check,
+        units,
+        "",
+      );
     case "pull-behind":
-      return withFix(`${check.item} would be pulled ${deg(i.axisAngleDeg ?? 0)} from its axis, back toward the surface`, check, units, "");
+      return withFix(
+        `${check.item} would be pulled ${deg(i.axisAngleDeg ?? 0)} from its axis, back toward the surface`,
+        check,
+        units,
+        "",
+      );
     case "plain-angled":
-      return withFix(`${check.item} is pulled ${deg(i.axisAngleDeg ?? 0)} off its axis; a plain eyebolt takes in-line pull only`, check, units, "");
+      return withFix(
+        `${check.item} is pulled ${deg(i.axisAngleDeg ?? 0)} off its axis; a plain eyebolt takes in-line pull only`,
+        check,
+        units,
+        "",
+      );
     case "out-of-plane":
       return withFix(
         `${check.item} is pulled ${deg(i.axisAngleDeg ?? 0)} off its axis and ${deg(i.outOfPlaneDeg ?? 0)} out of the plane of its eye${i.eyeAlignment === "planner" ? ` (set along ${i.eyePlane} by the planner)` : ""}`,
@@ -263,7 +292,12 @@ export function checkSentence(check: AnyCheck, units: Units, options: { withUtil
         "",
       );
     case "not-in-table":
-      return withFix(`${check.item}: thread ${i.thread ?? ""} is not in the DIN 580 table, so its angled rating is unknown`, check, units, "");
+      return withFix(
+        `${check.item}: thread ${i.thread ?? ""} is not in the DIN 580 table, so its angled rating is unknown`,
+        check,
+        units,
+        "",
+      );
     case "beyond-table":
       return withFix(
         check.kind === "shackle"
@@ -274,7 +308,12 @@ export function checkSentence(check: AnyCheck, units: Units, options: { withUtil
         "",
       );
     case "included-angle":
-      return withFix(`${check.item} has the legs ${deg(i.includedAngleDeg ?? 0)} apart, over ${i.maxIncludedDeg ?? 120}°`, check, units, "");
+      return withFix(
+        `${check.item} has the legs ${deg(i.includedAngleDeg ?? 0)} apart, over ${i.maxIncludedDeg ?? 120}°`,
+        check,
+        units,
+        "",
+      );
     case "headroom-short":
       return withFix(
         `Crane hook headroom: the hook must reach ${formatLengthUp(i.neededHookHeightM ?? 0, units)} above the floor but can reach only ${formatLengthDown(i.maxHookHeightM ?? 0, units)}`,
@@ -291,7 +330,12 @@ export function checkSentence(check: AnyCheck, units: Units, options: { withUtil
     case "no-due-date":
       return inspectionText(check, units);
     case "over":
-      return withFix(`${check.item} would carry ${load} but is good for only ${capacity} ${capacityName(check)}${pct}`, check, units, "use a larger item or change the rigging");
+      return withFix(
+        `${check.item} would carry ${load} but is good for only ${capacity} ${capacityName(check)}${pct}`,
+        check,
+        units,
+        "use a larger item or change the rigging",
+      );
     case "thread-unrecorded":
       return `${check.item} carries ${load} of its ${capacity} ${capacityName(check)}${pct}.${eyeNote(check)} The lift point's thread is not recorded: ${fixText({ kind: "confirm-thread" }, units)}.`;
     case "masses-unrecorded":
@@ -305,8 +349,11 @@ export function checkSentence(check: AnyCheck, units: Units, options: { withUtil
 }
 
 function grossText(g: GrossLoad, units: Units): string {
-  const parts = [`${formatLoad(g.massKg, units)} x ${(1 + g.contingencyPct / 100).toFixed(2)} contingency = ${formatLoad(g.loadWithContingencyKg, units)}`];
-  for (const item of g.items) parts.push(`${item.item}${item.code ? ` ${item.code}` : ""} ${formatLoad(item.massKg, units)}`);
+  const parts = [
+    `${formatLoad(g.massKg, units)} x ${(1 + g.contingencyPct / 100).toFixed(2)} contingency = ${formatLoad(g.loadWithContingencyKg, units)}`,
+  ];
+  for (const item of g.items)
+    parts.push(`${item.item}${item.code ? ` ${item.code}` : ""} ${formatLoad(item.massKg, units)}`);
   if (g.riggingMassKg > 0) parts.push(`rigging ${formatLoad(g.riggingMassKg, units)}`);
   if (g.beamMassKg > 0) parts.push(`beam ${formatLoad(g.beamMassKg, units)}`);
   return parts.join(" + ");
@@ -316,38 +363,57 @@ function grossText(g: GrossLoad, units: Units): string {
 export function ruleText(check: AnyCheck, units: Units): string {
   if (!isStructured(check)) return check.rule;
   const i = check.inputs;
-  const wll = i.markedWll ? `marked ${formatMarkedWll(i.markedWll, units)}` : i.wllKg !== undefined ? formatCapacity(i.wllKg, units) : "";
+  const wll = i.markedWll
+    ? `marked ${formatMarkedWll(i.markedWll, units)}`
+    : i.wllKg !== undefined
+      ? formatCapacity(i.wllKg, units)
+      : "";
   const figures: string[] = [];
   switch (check.kind) {
     case "sling-leg":
-      if (i.wllKg !== undefined) figures.push(`single-leg WLL ${i.wllFrom === "assembly" ? `${formatCapacity(i.wllKg, units)} (assembly ${wll} over its mode factor)` : i.markedWll ? wll : `${formatCapacity(i.wllKg, units)} (table)`}`);
+      if (i.wllKg !== undefined)
+        figures.push(
+          `single-leg WLL ${i.wllFrom === "assembly" ? `${formatCapacity(i.wllKg, units)} (assembly ${wll} over its mode factor)` : i.markedWll ? wll : `${formatCapacity(i.wllKg, units)} (table)`}`,
+        );
       if (i.hitchFactor !== undefined) figures.push(`hitch factor ${i.hitchFactor} (${i.hitch})`);
-      if (i.allowedHitches && i.allowedHitches.length < 3) figures.push(`hitches it can make here: ${i.allowedHitches.join(", ")}`);
+      if (i.allowedHitches && i.allowedHitches.length < 3)
+        figures.push(`hitches it can make here: ${i.allowedHitches.join(", ")}`);
       break;
     case "sling-assembly":
       if (i.wllKg !== undefined) figures.push(`lowest leg WLL x hitch ${formatCapacity(i.wllKg, units)}`);
-      if (i.modeFactor !== undefined) figures.push(`mode factor ${i.modeFactor} (${i.effectiveLegs} carrying, up to ${i.modeUpToDeg}°)`);
+      if (i.modeFactor !== undefined)
+        figures.push(`mode factor ${i.modeFactor} (${i.effectiveLegs} carrying, up to ${i.modeUpToDeg}°)`);
       if (i.publishedCapT !== undefined) figures.push(`capped at the published table value ${i.publishedCapT} t`);
       if (i.ratingRule) figures.push(i.ratingRule);
       break;
     case "eyebolt":
       figures.push(`pull ${deg(i.axisAngleDeg ?? 0)} from the bolt axis`);
-      if (i.column) figures.push(`DIN 580 ${i.column} column${i.scaleToMarked !== undefined ? `, scaled to the marking ${wll}` : ""}`);
-      if (i.percent !== undefined) figures.push(`${i.percent} % of ${wll || "the rated load"} (row up to ${i.tableUpToDeg}°)`);
+      if (i.column)
+        figures.push(
+          `DIN 580 ${i.column} column${i.scaleToMarked !== undefined ? `, scaled to the marking ${wll}` : ""}`,
+        );
+      if (i.percent !== undefined)
+        figures.push(`${i.percent} % of ${wll || "the rated load"} (row up to ${i.tableUpToDeg}°)`);
       break;
     case "shackle":
-      figures.push(`side load ${deg(i.sideLoadAngleDeg ?? 0)}${i.percent !== undefined ? `: ${i.percent} % of ${wll}` : ""}`);
+      figures.push(
+        `side load ${deg(i.sideLoadAngleDeg ?? 0)}${i.percent !== undefined ? `: ${i.percent} % of ${wll}` : ""}`,
+      );
       break;
     case "shared-shackle":
       if (i.includedAngleDeg !== undefined) figures.push(`legs ${deg(i.includedAngleDeg)} apart`);
       break;
     case "master-link":
     case "crane-load":
-      if (i.gross) figures.push(`${check.kind === "crane-load" ? "gross load" : "hook load"} = ${grossText(i.gross, units)}`);
+      if (i.gross)
+        figures.push(`${check.kind === "crane-load" ? "gross load" : "hook load"} = ${grossText(i.gross, units)}`);
       if (wll) figures.push(`${check.kind === "crane-load" ? "SWL" : "WLL"} ${wll}`);
       break;
     case "leg-angle":
-      if (i.limits) figures.push(`vertical within ${i.limits.verticalDeg}°, warn over ${i.limits.warnDeg}°, fail over ${i.limits.maxDeg}°`);
+      if (i.limits)
+        figures.push(
+          `vertical within ${i.limits.verticalDeg}°, warn over ${i.limits.warnDeg}°, fail over ${i.limits.maxDeg}°`,
+        );
       break;
     default:
       if (wll) figures.push(wll);

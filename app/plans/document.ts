@@ -221,9 +221,12 @@ export const detailsSchema = z.object({
   liftDate: z
     .string({ error: "Give the lift date as YYYY-MM-DD." })
     .regex(/^\d{4}-\d{2}-\d{2}$/, "Give the lift date as YYYY-MM-DD.")
-    .refine((v) => !Number.isNaN(Date.parse(`${v}T00:00:00Z`)) && new Date(`${v}T00:00:00Z`).toISOString().startsWith(v), {
-      message: "The lift date is not a real date.",
-    })
+    .refine(
+      (v) => !Number.isNaN(Date.parse(`${v}T00:00:00Z`)) && new Date(`${v}T00:00:00Z`).toISOString().startsWith(v),
+      {
+        message: "The lift date is not a real date.",
+      },
+    )
     .optional(),
 });
 export type PlanDetails = z.infer<typeof detailsSchema>;

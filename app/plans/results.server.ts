@@ -173,7 +173,11 @@ export function describeRigging(
   const ruleSet = options.ruleSet ?? DEFAULT_RULE_SET;
   const extraChecks: Check[] = [];
   const notes: Described["notes"] = [];
-  const withInspection = <T extends object>(spec: T, item: GearItem, name: string): T & { inspection?: InspectionRecord } => {
+  const withInspection = <T extends object>(
+    spec: T,
+    item: GearItem,
+    name: string,
+  ): T & { inspection?: InspectionRecord } => {
     const inspection = inspectionOf(item);
     if (!inspection) {
       extraChecks.push(
@@ -255,7 +259,10 @@ export function describeRigging(
     };
     description.crane = withInspection(spec, crane, "Crane or hoist");
     if (options.details)
-      description.headroom = { clearanceAboveFloorM: options.details.floorClearanceM, loadUndersideZM: undersideZ(snapshot) };
+      description.headroom = {
+        clearanceAboveFloorM: options.details.floorClearanceM,
+        loadUndersideZM: undersideZ(snapshot),
+      };
   }
   return { description, extraChecks, notes };
 }

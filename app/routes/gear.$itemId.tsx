@@ -219,7 +219,9 @@ export default function GearItemPage({ loaderData, actionData }: Route.Component
                 </table>
               </div>
             )}
-            {canAdmin && <ExaminationForm kind={item.kind} today={today} intervals={intervals} errors={errorsFor("examination")} />}
+            {canAdmin && (
+              <ExaminationForm kind={item.kind} today={today} intervals={intervals} errors={errorsFor("examination")} />
+            )}
           </Card>
 
           <Card title="History">
@@ -350,7 +352,8 @@ function ExaminationForm({
           value={examinedOn}
           onChange={(e) => {
             setExaminedOn(e.target.value);
-            if (!nextDueEdited && isIsoDate(e.target.value)) setNextDueOn(defaultNextDue(kind, e.target.value, intervals));
+            if (!nextDueEdited && isIsoDate(e.target.value))
+              setNextDueOn(defaultNextDue(kind, e.target.value, intervals));
           }}
           errors={errors.examinedOn}
           required

@@ -87,14 +87,7 @@ export default function EditPlan({ loaderData }: Route.ComponentProps) {
         </p>
       )}
       {hydrated ? (
-        <PlanEditor
-          plan={plan}
-          units={units}
-          initialPicks={picks}
-          files={files}
-          canEdit={canEdit}
-          ruleSet={ruleSet}
-        />
+        <PlanEditor plan={plan} units={units} initialPicks={picks} files={files} canEdit={canEdit} ruleSet={ruleSet} />
       ) : (
         <p className="rounded border border-dashed border-rule p-6 text-sm text-ink-soft">Loading the editor…</p>
       )}

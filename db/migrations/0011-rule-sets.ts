@@ -20,7 +20,11 @@ function rowsOf(tableName: string, tableRows: ReadonlyArray<{ source: string }>)
  * 13414-1 Table 4 values where the standard lists the size.
  */
 export const up: Migration = async ({ context: qi }) => {
-  await qi.addColumn("organisations", "rule_set", { type: DataTypes.STRING(10), allowNull: false, defaultValue: "uk-eu" });
+  await qi.addColumn("organisations", "rule_set", {
+    type: DataTypes.STRING(10),
+    allowNull: false,
+    defaultValue: "uk-eu",
+  });
   await qi.bulkDelete("reference_rows", { table_name: { [Op.in]: [...TABLES] } });
   await qi.bulkInsert(
     "reference_rows",
@@ -49,7 +53,12 @@ const ROWS_0005: Record<string, ReadonlyArray<{ source: string }>> = {
     [2, 60, 1.0, MODE_0005],
     [3, 45, 2.1, MODE_0005],
     [3, 60, 1.5, MODE_0005],
-  ].map(([effectiveLegs, upToAngleDeg, factor, source]) => ({ effectiveLegs, upToAngleDeg, factor, source: source as string })),
+  ].map(([effectiveLegs, upToAngleDeg, factor, source]) => ({
+    effectiveLegs,
+    upToAngleDeg,
+    factor,
+    source: source as string,
+  })),
   shackleSideLoad: [
     [0, 100],
     [45, 70],

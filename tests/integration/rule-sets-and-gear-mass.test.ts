@@ -96,8 +96,12 @@ describe("the organisation's rule set", () => {
       rigging: { legs: { A: { sling: { kind: "web", wllKg: 1000, hitch: "choke" } } } },
     };
     const asOrg = await callRoute(solve.action, await jsonRequest("/api/solve", body, planner, "POST"));
-    const named = await callRoute(solve.action, await jsonRequest("/api/solve", { ...body, ruleSet: "uk-eu" }, planner, "POST"));
-    const leg = (res: { data: unknown }) => (res.data as { checks: CheckResult[] }).checks.find((c) => c.id === "sling-leg-A")!;
+    const named = await callRoute(
+      solve.action,
+      await jsonRequest("/api/solve", { ...body, ruleSet: "uk-eu" }, planner, "POST"),
+    );
+    const leg = (res: { data: unknown }) =>
+      (res.data as { checks: CheckResult[] }).checks.find((c) => c.id === "sling-leg-A")!;
     expect((asOrg.data as { ruleSet: string }).ruleSet).toBe("us");
     expect(leg(asOrg).capacityKg).toBeCloseTo(750, 9);
     expect(leg(named).capacityKg).toBeCloseTo(800, 9);
@@ -128,7 +132,13 @@ describe("the organisation's rule set", () => {
     const eu = await makeUser(["admin"]);
     const us = await makeUser(["admin"]);
     await setRuleSet(us, "us");
-    const fields = { examinedOn: "2025-01-15", examiner: "A. Examiner", result: "pass" as const, defects: "", nextDueOn: null };
+    const fields = {
+      examinedOn: "2025-01-15",
+      examiner: "A. Examiner",
+      result: "pass" as const,
+      defects: "",
+      nextDueOn: null,
+    };
     const euItem = await makeGear(eu.organisationId, "shackle", { wllKg: 2000, shackleType: "bow", pinType: "screw" });
     const usItem = await makeGear(us.organisationId, "shackle", { wllKg: 2000, shackleType: "bow", pinType: "screw" });
     expect((await recordExamination(eu.organisationId, euItem.id, fields, null, eu.id))!.nextDueOn).toBe("2025-07-15");
@@ -141,10 +151,20 @@ describe("gear masses in the crane check (ASME P30.1 ch. 5: gross load including
     const planner = await makeUser(["planner"]);
     const org = planner.organisationId;
     const base = twoPointElement();
-    const { plan } = await makePlan(planner, twoPointElement({ liftPoints: base.liftPoints.map((p) => ({ ...p, thread: "M30" })) }));
+    const { plan } = await makePlan(
+      planner,
+      twoPointElement({ liftPoints: base.liftPoints.map((p) => ({ ...p, thread: "M30" })) }),
+    );
     const eyeA = await makeGear(org, "eyebolt", { wllKg: 3200, thread: "M30", eyeboltFamily: "collar", massKg: 2.1 });
     const eyeB = await makeGear(org, "eyebolt", { wllKg: 3200, thread: "M30", eyeboltFamily: "collar", massKg: 2.1 });
-    const sling = await makeGear(org, "chain_sling", { wllKg: 4250, chainGrade: 8, diameterMm: 10, legs: 2, lengthM: 1.8, massKg: 11.6 });
+    const sling = await makeGear(org, "chain_sling", {
+      wllKg: 4250,
+      chainGrade: 8,
+      diameterMm: 10,
+      legs: 2,
+      lengthM: 1.8,
+      massKg: 11.6,
+    });
     const link = await makeGear(org, "master_link", { wllKg: 6700, massKg: 2.7 });
     const crane = await makeGear(org, "crane", { wllKg: 5000, hookHeightM: 6 });
     const found = (await getPlan(org, plan.id))!;
@@ -184,7 +204,12 @@ describe("gear masses in the crane check (ASME P30.1 ch. 5: gross load including
       org,
       plan.id,
       again.revision.version,
-      { title: plan.title, arrangement: again.revision.arrangement, rigging: again.revision.rigging, details: again.revision.details },
+      {
+        title: plan.title,
+        arrangement: again.revision.arrangement,
+        rigging: again.revision.rigging,
+        details: again.revision.details,
+      },
       planner.id,
     );
     expect(resaved.status).toBe("saved");
