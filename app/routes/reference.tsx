@@ -50,7 +50,7 @@ export default function Reference({ loaderData }: Route.ComponentProps) {
           const sources = [...new Set(table.rows.map((r) => r.source))];
           return (
             <Card key={table.name} title={table.title}>
-              <div className="overflow-x-auto">
+              <div className="overflow-x-auto" tabIndex={0} role="region" aria-label={table.title}>
                 <table>
                   <thead>
                     <tr>

@@ -34,7 +34,8 @@ export function LegTable({
   beam?: boolean;
 }) {
   return (
-    <div className="overflow-x-auto">
+    // Focusable so a keyboard can scroll it when it is wider than its column (WCAG 2.1.1).
+    <div className="overflow-x-auto" tabIndex={0} role="region" aria-label={beam ? "Drop figures" : "Leg figures"}>
       <table data-testid="leg-table">
         <thead>
           <tr>
