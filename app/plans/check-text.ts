@@ -419,7 +419,8 @@ export function ruleText(check: AnyCheck, units: Units): string {
       if (wll) figures.push(wll);
   }
   const rules = RULE_SET_NAMES[check.ruleSet];
-  return `${check.rule}${figures.length ? `: ${figures.join("; ")}` : ""}. ${rules}.`;
+  const text = `${check.rule}${figures.length ? `: ${figures.join("; ")}` : ""}`.replace(/ deg\b/g, "°").replace(/\.+$/, "");
+  return `${text}. ${rules}.`;
 }
 
 /** The item's name and its register code, once: "Sling leg A (chain 8 mm) · CH-07". */
