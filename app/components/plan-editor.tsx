@@ -882,6 +882,7 @@ export function PlanEditor({
                     thread={role === "eyebolt" ? p.thread : null}
                     loadKg={legLoadKg(p.label)}
                     disabled={!canEdit}
+                    units={units}
                     onPick={(pick) => {
                       if (pick) addPick(pick);
                       dispatch({ type: "allocate", label: p.label, slot: key, itemId: pick?.id ?? null });
@@ -942,6 +943,7 @@ export function PlanEditor({
                     thread={null}
                     loadKg={plan.snapshot.massKg * (1 + plan.snapshot.contingencyPct / 100)}
                     disabled={!canEdit}
+                    units={units}
                     onPick={(pick) => {
                       if (pick) addPick(pick);
                       dispatch({ type: "allocate", label: null, slot: "masterLinkItemId", itemId: pick?.id ?? null });
@@ -959,6 +961,7 @@ export function PlanEditor({
                     thread={null}
                     loadKg={plan.snapshot.massKg * (1 + plan.snapshot.contingencyPct / 100)}
                     disabled={!canEdit}
+                    units={units}
                     onPick={(pick) => {
                       if (pick) addPick(pick);
                       dispatch({ type: "allocate", label: null, slot: "craneItemId", itemId: pick?.id ?? null });
