@@ -10,6 +10,8 @@ import * as componentFiles from "./migrations/0007-component-files";
 import * as planWorkflow from "./migrations/0008-plan-workflow";
 import * as signInAttempts from "./migrations/0009-sign-in-attempts";
 import * as indexes from "./migrations/0010-indexes";
+import * as ruleSets from "./migrations/0011-rule-sets";
+import * as gearMass from "./migrations/0012-gear-mass";
 import * as organisationTimeZone from "./migrations/0021-organisation-time-zone";
 import * as examinationRecords from "./migrations/0022-examination-records";
 
@@ -31,6 +33,8 @@ export const migrations: Array<[name: string, module: MigrationModule]> = [
   ["0008-plan-workflow", planWorkflow],
   ["0009-sign-in-attempts", signInAttempts],
   ["0010-indexes", indexes],
+  ["0011-rule-sets", ruleSets],
+  ["0012-gear-mass", gearMass],
   ["0021-organisation-time-zone", organisationTimeZone],
   ["0022-examination-records", examinationRecords],
 ];

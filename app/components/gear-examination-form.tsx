@@ -4,7 +4,7 @@
 import { useState } from "react";
 import { Form, useNavigation } from "react-router";
 import { Button, Field, SelectField, TextAreaField } from "~/components/ui/form";
-import { defaultNextDue, latestNextDue, maxExaminationIntervalMonths, type ExaminationRules } from "~/gear/due";
+import { defaultNextDue, examinationIntervalMonths, type ExaminationIntervals } from "~/gear/due";
 import { GEAR_KIND_INFO, type GearKind } from "~/gear/kinds";
 import {
   DEFECT_URGENCIES,
@@ -23,26 +23,26 @@ type Errors = Record<string, string[] | undefined>;
 export function ExaminationForm({
   kind,
   today,
-  rules,
+  intervals,
   errors,
 }: {
   kind: GearKind;
   today: string;
-  rules: ExaminationRules;
+  intervals: ExaminationIntervals;
   errors: Errors;
 }) {
   const [examinedOn, setExaminedOn] = useState(today);
-  const [nextDueOn, setNextDueOn] = useState(defaultNextDue(kind, today));
+  const [nextDueOn, setNextDueOn] = useState(defaultNextDue(kind, today, intervals));
   const [nextDueEdited, setNextDueEdited] = useState(false);
   const [examKind, setExamKind] = useState<ExaminationKind>("periodic");
   const [result, setResult] = useState<"pass" | "fail">("pass");
   const [urgency, setUrgency] = useState<DefectUrgency>("none");
   const navigation = useNavigation();
   const busy = navigation.state === "submitting" && navigation.formData?.get("intent") === "examination";
-  const months = maxExaminationIntervalMonths(kind, rules);
-  const latest = isIsoDate(examinedOn) ? latestNextDue(kind, examinedOn, rules) : null;
+  const months = examinationIntervalMonths(kind, intervals);
+  const latest = isIsoDate(examinedOn) ? defaultNextDue(kind, examinedOn, intervals) : null;
   const beyondInterval = latest !== null && isIsoDate(nextDueOn) && nextDueOn > latest;
-  const rule = rules === "us" ? "ASME B30.9 / B30.26 periodic inspection" : "LOLER 1998 reg 9(3)(a)";
+  const rule = intervals.source ?? "LOLER 1998 reg 9(3)(a)";
   const what = GEAR_KIND_INFO[kind].accessory ? "a lifting accessory" : "lifting equipment";
   const showDefects = result === "fail" || urgency !== "none";
   return (
@@ -66,7 +66,8 @@ export function ExaminationForm({
           value={examinedOn}
           onChange={(e) => {
             setExaminedOn(e.target.value);
-            if (!nextDueEdited && isIsoDate(e.target.value)) setNextDueOn(defaultNextDue(kind, e.target.value));
+            if (!nextDueEdited && isIsoDate(e.target.value))
+              setNextDueOn(defaultNextDue(kind, e.target.value, intervals));
           }}
           errors={errors.examinedOn}
           required

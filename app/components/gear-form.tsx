@@ -148,6 +148,17 @@ export function GearItemForm({
           </div>
         </fieldset>
       )}
+      <Field
+        label="Own mass (kg)"
+        name="massKg"
+        type="number"
+        inputMode="decimal"
+        step="any"
+        min="0"
+        defaultValue={text("massKg")}
+        errors={errors.massKg}
+        hint="What the item itself weighs: the crane check adds it to the load."
+      />
       <SelectField
         label="Home site"
         name="homeSiteId"

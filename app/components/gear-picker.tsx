@@ -1,6 +1,7 @@
 import { useEffect, useId, useRef, useState } from "react";
 import { nextListIndex } from "~/plans/editor-state";
 import { GEAR_ROLE_LABELS, type GearPick, type GearRole } from "~/plans/rigging";
+import { formatCapacity, formatLoad, type Units } from "~/utils/format";
 
 function dueNote(pick: GearPick, today = new Date().toISOString().slice(0, 10)) {
   if (pick.status === "quarantined") return { text: "quarantined", bad: true };
@@ -11,7 +12,7 @@ function dueNote(pick: GearPick, today = new Date().toISOString().slice(0, 10)) 
 }
 
 /** Why an item does or does not fit a position, in words. */
-export function fitNotes(pick: GearPick, thread: string | null, loadKg: number | null) {
+export function fitNotes(pick: GearPick, thread: string | null, loadKg: number | null, units: Units = "metric") {
   const notes: Array<{ text: string; bad: boolean }> = [];
   if (pick.role === "eyebolt" && thread) {
     const matches = (pick.thread ?? "").toUpperCase() === thread.toUpperCase();
@@ -23,7 +24,7 @@ export function fitNotes(pick: GearPick, thread: string | null, loadKg: number |
   if (loadKg !== null) {
     const enough = pick.wllKg >= loadKg;
     notes.push({
-      text: enough ? "WLL covers the load" : `WLL below the ${Math.ceil(loadKg).toLocaleString("en-GB")} kg load`,
+      text: enough ? "WLL covers the load" : `WLL below the ${formatLoad(loadKg, units)} load`,
       bad: !enough,
     });
   }
@@ -44,6 +45,7 @@ export function GearPicker({
   loadKg,
   disabled,
   onPick,
+  units = "metric",
 }: {
   role: GearRole;
   /** What the position is, e.g. "Eyebolt for leg A"; read out before the chosen item. */
@@ -53,6 +55,7 @@ export function GearPicker({
   loadKg: number | null;
   disabled?: boolean;
   onPick: (pick: GearPick | null) => void;
+  units?: Units;
 }) {
   const [open, setOpen] = useState(false);
   const [query, setQuery] = useState("");
@@ -122,7 +125,7 @@ export function GearPicker({
     else buttons[next]?.focus();
   }
 
-  const selectedNotes = selected ? fitNotes(selected, thread, loadKg).filter((n) => n.bad) : [];
+  const selectedNotes = selected ? fitNotes(selected, thread, loadKg, units).filter((n) => n.bad) : [];
   const plural = `${GEAR_ROLE_LABELS[role].toLowerCase()}s`;
 
   return (
@@ -147,7 +150,7 @@ export function GearPicker({
         {selected ? (
           <>
             <span className="font-semibold">{selected.itemCode}</span>{" "}
-            <span className="text-ink-soft">{Math.round(selected.wllKg).toLocaleString("en-GB")} kg</span>
+            <span className="text-ink-soft">{formatCapacity(selected.wllKg, units)}</span>
           </>
         ) : (
           <span className="text-ink-soft">none · choose…</span>
@@ -196,7 +199,7 @@ export function GearPicker({
             )}
             {items?.length === 0 && <li className="px-1 py-1 text-ink-soft">Nothing in the register matches.</li>}
             {items?.map((pick) => {
-              const notes = fitNotes(pick, thread, loadKg);
+              const notes = fitNotes(pick, thread, loadKg, units);
               const fits = notes.every((n) => !n.bad);
               const chosen = selected?.id === pick.id;
               return (
@@ -208,7 +211,7 @@ export function GearPicker({
                     onClick={() => choose(pick)}
                   >
                     <span className="font-semibold">{pick.itemCode}</span> {pick.description} ·{" "}
-                    {Math.round(pick.wllKg).toLocaleString("en-GB")} kg
+                    {formatCapacity(pick.wllKg, units)}
                     {chosen && <span className="ml-1 text-xs font-semibold">(chosen)</span>}
                     <span className={`block text-xs ${fits ? "text-pass" : "text-fail"}`}>
                       {fits ? "✓ fits" : "✗"} {notes.map((n) => n.text).join(" · ")}

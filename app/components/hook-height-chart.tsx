@@ -1,6 +1,6 @@
 import { useMemo } from "react";
 import { solveLevel, type LiftPoint } from "~/statics/bridle";
-import { formatLength, type Units } from "~/utils/format";
+import { formatLength, massUnitLabel, toDisplayMass, type Units } from "~/utils/format";
 
 const W = 640;
 const H = 220;
@@ -99,11 +99,11 @@ export function HookHeightChart({
         </text>
         {[0, 0.5, 1].map((f) => (
           <text key={f} x={PAD.left - 6} y={YT(tMax * f) + 4} fontSize="11" textAnchor="end" fill="#2f5d7c">
-            {Math.round(tMax * f).toLocaleString("en-GB")}
+            {Math.round(toDisplayMass(tMax * f, units)).toLocaleString("en-GB")}
           </text>
         ))}
         <text x={8} y={PAD.top + 4} fontSize="11" fill="#2f5d7c">
-          kg
+          {massUnitLabel(units)}
         </text>
         {[0, 45, 90].map((a) => (
           <text key={a} x={W - PAD.right + 6} y={YA(a) + 4} fontSize="11" fill="#9a6a14">
@@ -112,7 +112,7 @@ export function HookHeightChart({
         ))}
       </svg>
       <p className="text-xs text-ink-soft">
-        <span className="font-semibold text-steel">Solid: largest leg tension (kg)</span> ·{" "}
+        <span className="font-semibold text-steel">Solid: largest leg tension ({massUnitLabel(units)})</span> ·{" "}
         <span className="font-semibold text-brass">dashed: largest angle from vertical</span>. Each point is a
         level-mode solve of this layout.
       </p>

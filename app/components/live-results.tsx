@@ -1,6 +1,9 @@
-import type { CheckResult } from "~/statics/checks";
-import { ceilTo } from "~/statics/units";
-import { formatLength, type Units } from "~/utils/format";
+import { ChecksList } from "~/components/results/checks-list";
+import { GoverningSummary } from "~/components/results/governing-summary";
+import { LegTable, type LegRow } from "~/components/results/leg-table";
+import type { AnyCheck } from "~/plans/check-text";
+import type { RuleSetId } from "~/statics/reference";
+import { formatAngle, formatForce, type Units } from "~/utils/format";
 
 export type ResultState =
   | { kind: "idle" }
@@ -8,60 +11,26 @@ export type ResultState =
   | { kind: "failed"; message: string }
   | { kind: "done"; status: number; body: unknown; stale: boolean };
 
-type Leg = {
-  liftPointId: string;
-  lengthM: number;
-  tensionKn: number;
-  tensionKg: number;
-  angleFromVerticalDeg: number;
-  axisAngleDeg: number;
-  verticalShare: number;
-  slack: boolean;
-};
 type Body = {
   mode: "level" | "lengths";
   method: "determinate" | "elastic";
   weightKn: number;
   tiltDeg: number;
-  legs: Leg[];
+  legs: LegRow[];
   warnings: Array<{ code: string; message: string }>;
-  rating?: { rule: string; source: string; effectiveLegs: number };
-  checks?: CheckResult[];
+  rating?: {
+    rule: string;
+    source: string;
+    effectiveLegs: number;
+    legs?: Array<{ liftPointId: string; designTensionKn: number; designTensionKg: number }>;
+  };
+  ruleSet?: RuleSetId;
+  checks?: AnyCheck[];
 };
 
-const STATUS_TEXT = { pass: "Pass", warn: "Warn", fail: "Fail" } as const;
-const STATUS_CLASS = {
-  pass: "bg-pass-soft text-pass",
-  warn: "bg-warn-soft text-warn",
-  fail: "bg-fail-soft text-fail",
-} as const;
-
-/** The worst check status on a leg (checks named "<kind>-<leg>"), or null when none. */
-export function worstStatusForLeg(
-  checks: ReadonlyArray<Pick<CheckResult, "id" | "status">>,
-  label: string,
-): "pass" | "warn" | "fail" | null {
-  let worst: "pass" | "warn" | "fail" | null = null;
-  const rank = { pass: 0, warn: 1, fail: 2 } as const;
-  for (const c of checks) {
-    if (!c.id.endsWith(`-${label}`)) continue;
-    if (worst === null || rank[c.status] > rank[worst]) worst = c.status;
-  }
-  return worst;
-}
-
-/** A utilisation as a percentage, rounded up (never down). */
-export function utilisationText(u: number | null) {
-  if (u === null || !Number.isFinite(u)) return "—";
-  return `${ceilTo(u * 100, 0)} %`;
-}
-
-export function StatusBadge({ status }: { status: "pass" | "warn" | "fail" }) {
-  return (
-    <span className={`inline-block rounded px-1.5 py-0.5 text-xs font-semibold ${STATUS_CLASS[status]}`}>
-      {STATUS_TEXT[status]}
-    </span>
-  );
+/** Warnings the checks already show (leg angles) are not repeated. */
+export function warningsBesideChecks(warnings: ReadonlyArray<{ code: string; message: string }>) {
+  return warnings.filter((w) => !w.code.startsWith("LEG_ANGLE_"));
 }
 
 /** Leg figures, warnings and every check with its verdict in words, as worked out by the statics core. */
@@ -103,76 +72,31 @@ export function LiveResults({ state, units }: { state: ResultState; units: Units
 
 function Figures({ body, units }: { body: Body; units: Units }) {
   const checks = body.checks ?? [];
+  const warnings = warningsBesideChecks(body.warnings);
   return (
     <>
       <p className="text-sm">
-        Load weight {body.weightKn.toFixed(2)} kN ·{" "}
-        {body.mode === "lengths" ? `hangs tilted ${body.tiltDeg.toFixed(1)}° from level` : "hangs level"} ·{" "}
+        Load weight {formatForce(body.weightKn, units)} ·{" "}
+        {body.mode === "lengths" ? `hangs tilted ${formatAngle(body.tiltDeg)} from level` : "hangs level"} ·{" "}
         {body.method === "elastic"
           ? "four legs: tensions shared as equal-stiffness legs (elastic)"
           : "tensions from statics (determinate)"}
       </p>
-      <div className="overflow-x-auto">
-        <table data-testid="leg-table">
-          <thead>
-            <tr>
-              <th scope="col">Leg</th>
-              <th scope="col">Length</th>
-              <th scope="col">Tension</th>
-              <th scope="col">From vertical</th>
-              <th scope="col">To hole axis</th>
-              <th scope="col">Share</th>
-            </tr>
-          </thead>
-          <tbody>
-            {body.legs.map((leg) => (
-              <tr key={leg.liftPointId}>
-                <td className="font-semibold">{leg.liftPointId}</td>
-                <td>{formatLength(leg.lengthM, units)}</td>
-                <td className="whitespace-nowrap">
-                  {leg.slack
-                    ? "slack"
-                    : `${leg.tensionKn.toFixed(2)} kN (${Math.round(leg.tensionKg).toLocaleString("en-GB")} kg)`}
-                </td>
-                <td>{leg.angleFromVerticalDeg.toFixed(1)}°</td>
-                <td>{leg.axisAngleDeg.toFixed(1)}°</td>
-                <td>{ceilTo(leg.verticalShare * 100, 1)} %</td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
-      </div>
+      <GoverningSummary checks={checks} units={units} ruleSet={body.ruleSet} />
+      <LegTable legs={body.legs} design={body.rating?.legs} checks={checks} units={units} />
       {body.rating && (
         <p className="text-xs text-ink-soft">
-          Sling rated by: {body.rating.rule} ({body.rating.source}).
+          Sling rated by: {body.rating.rule} ({body.rating.source}). Tensions are before contingency; the checks add it.
         </p>
       )}
-      {body.warnings.length > 0 && (
+      {warnings.length > 0 && (
         <ul className="space-y-1 text-sm text-warn">
-          {body.warnings.map((w, i) => (
+          {warnings.map((w, i) => (
             <li key={i}>⚠ {w.message}</li>
           ))}
         </ul>
       )}
-      {checks.length === 0 ? (
-        <p className="text-sm text-ink-soft">No checks yet: allocate gear to check each item against its WLL.</p>
-      ) : (
-        <ul className="space-y-1.5 text-sm" data-testid="checks">
-          {checks.map((c) => (
-            <li key={c.id} className="flex gap-2">
-              <StatusBadge status={c.status} />
-              <span>
-                <span className="font-semibold">{c.item}</span>
-                {c.utilisation !== null && <span className="ml-1">· {utilisationText(c.utilisation)} of capacity</span>}
-                <span className="block text-ink-soft">{c.message}</span>
-                <span className="block text-xs text-ink-soft">
-                  {c.rule} · {c.source}
-                </span>
-              </span>
-            </li>
-          ))}
-        </ul>
-      )}
+      <ChecksList checks={checks} units={units} />
     </>
   );
 }

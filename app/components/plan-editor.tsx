@@ -7,8 +7,12 @@ import type { Backdrop, LegFigure } from "~/components/plan-canvas.client";
 import { Button } from "~/components/ui/form";
 import { HookHeightChart } from "~/components/hook-height-chart";
 import { GearPicker } from "~/components/gear-picker";
-import { LiveResults, worstStatusForLeg, type ResultState } from "~/components/live-results";
+import { LiveResults, type ResultState } from "~/components/live-results";
+import { tensionText } from "~/components/results/leg-table";
+import { worstVerdictForLeg, type AnyCheck } from "~/plans/check-text";
 import {
+  EYE_PLANE_LABELS,
+  EYE_PLANES,
   HITCH_LABELS,
   HITCHES,
   type PlanDetails,
@@ -32,6 +36,8 @@ import {
 } from "~/plans/editor-state";
 import { assembleRigging, GEAR_ROLE_LABELS, type GearPick, type GearRole } from "~/plans/rigging";
 import { solveLevel } from "~/statics/bridle";
+import type { RuleSetId } from "~/statics/reference";
+import { HitchSelect, hitchesForLeg } from "~/components/hitch-select";
 import {
   formatLength,
   fromDisplayLength,
@@ -83,6 +89,7 @@ function solveBodyFor(
   snapshot: ComponentDefinition,
   picks: ReadonlyMap<number, GearPick>,
   details: PlanDetails,
+  ruleSet: RuleSetId,
 ) {
   if (edit.arrangement.kind !== "bridle") return null;
   const byLabel = new Map(edit.liftPoints.map((p) => [p.label, p]));
@@ -107,6 +114,8 @@ function solveBodyFor(
       floorClearanceM: details.floorClearanceM,
       loadUndersideZM: underside,
     }),
+    ruleSet,
+    ...(details.liftDate ? { liftDate: details.liftDate } : {}),
   };
 }
 
@@ -281,12 +290,14 @@ export function PlanEditor({
   initialPicks,
   files,
   canEdit,
+  ruleSet,
 }: {
   plan: EditorPlan;
   units: Units;
   initialPicks: GearPick[];
   files: EditorFile[];
   canEdit: boolean;
+  ruleSet: RuleSetId;
 }) {
   const [state, dispatch] = useReducer(editorReducer, plan, (p) => initialEditorState(toEdit(p)));
   const edit = state.present;
@@ -309,8 +320,8 @@ export function PlanEditor({
   const addPick = useCallback((pick: GearPick) => setPicks((m) => new Map(m).set(pick.id, pick)), []);
 
   const body = useMemo(
-    () => solveBodyFor(edit, plan.snapshot, picks, plan.details),
-    [edit, plan.snapshot, picks, plan.details],
+    () => solveBodyFor(edit, plan.snapshot, picks, plan.details, ruleSet),
+    [edit, plan.snapshot, picks, plan.details, ruleSet],
   );
   const live = useLiveSolve(body);
 
@@ -350,7 +361,7 @@ export function PlanEditor({
             angleFromVerticalDeg: number;
             slack: boolean;
           }>;
-          checks?: Array<{ id: string; status: "pass" | "warn" | "fail"; utilisation: number | null }>;
+          checks?: AnyCheck[];
           tiltDeg: number;
         })
       : null;
@@ -360,8 +371,8 @@ export function PlanEditor({
     (edit.arrangement.mode === "level" ? { x: edit.cog.x, y: edit.cog.y, z: edit.arrangement.hookHeightM } : null);
   const legFigures: LegFigure[] = (solution?.legs ?? []).map((leg) => ({
     label: leg.liftPointId,
-    text: `${leg.liftPointId}: ${leg.tensionKn.toFixed(2)} kN · ${Math.round(leg.tensionKg).toLocaleString("en-GB")} kg · ${leg.angleFromVerticalDeg.toFixed(1)}°`,
-    tone: worstStatusForLeg(solution?.checks ?? [], leg.liftPointId) ?? "none",
+    text: `${leg.liftPointId}: ${tensionText(leg.tensionKn, leg.tensionKg, units)} · ${leg.angleFromVerticalDeg.toFixed(1)}°`,
+    tone: worstVerdictForLeg(solution?.checks ?? [], leg.liftPointId) ?? "none",
     slack: leg.slack,
   }));
 
@@ -861,6 +872,7 @@ export function PlanEditor({
                 <th scope="col">Shackle</th>
                 <th scope="col">Sling</th>
                 <th scope="col">Hitch</th>
+                <th scope="col">Eye or lug plane</th>
               </tr>
             </thead>
             <tbody>
@@ -874,6 +886,7 @@ export function PlanEditor({
                     thread={role === "eyebolt" ? p.thread : null}
                     loadKg={legLoadKg(p.label)}
                     disabled={!canEdit}
+                    units={units}
                     onPick={(pick) => {
                       if (pick) addPick(pick);
                       dispatch({ type: "allocate", label: p.label, slot: key, itemId: pick?.id ?? null });
@@ -887,22 +900,31 @@ export function PlanEditor({
                     <td>{slot("shackle", "shackleItemId")}</td>
                     <td>{slot("sling", "slingItemId")}</td>
                     <td>
+                      <HitchSelect
+                        label={p.label}
+                        hitch={leg?.hitch ?? "straight"}
+                        allowed={hitchesForLeg(leg, picks)}
+                        disabled={!canEdit}
+                        onChange={(hitch) => dispatch({ type: "set-hitch", label: p.label, hitch })}
+                      />
+                    </td>
+                    <td>
                       <select
-                        aria-label={`Hitch for leg ${p.label}`}
+                        aria-label={`Eye or lug plane at leg ${p.label}`}
                         className="rounded border border-rule px-2 py-1 text-sm"
-                        value={leg?.hitch ?? "straight"}
+                        value={leg?.eyePlane ?? "pull"}
                         disabled={!canEdit}
                         onChange={(e) =>
                           dispatch({
-                            type: "set-hitch",
+                            type: "set-eye-plane",
                             label: p.label,
-                            hitch: e.target.value as (typeof HITCHES)[number],
+                            eyePlane: e.target.value as (typeof EYE_PLANES)[number],
                           })
                         }
                       >
-                        {HITCHES.map((h) => (
-                          <option key={h} value={h}>
-                            {HITCH_LABELS[h]}
+                        {EYE_PLANES.map((plane) => (
+                          <option key={plane} value={plane}>
+                            {EYE_PLANE_LABELS[plane]}
                           </option>
                         ))}
                       </select>
@@ -925,13 +947,14 @@ export function PlanEditor({
                     thread={null}
                     loadKg={plan.snapshot.massKg * (1 + plan.snapshot.contingencyPct / 100)}
                     disabled={!canEdit}
+                    units={units}
                     onPick={(pick) => {
                       if (pick) addPick(pick);
                       dispatch({ type: "allocate", label: null, slot: "masterLinkItemId", itemId: pick?.id ?? null });
                     }}
                   />
                 </td>
-                <td colSpan={2}>
+                <td colSpan={3}>
                   <span className="block text-xs text-ink-soft">Crane or hoist</span>
                   <GearPicker
                     role="crane"
@@ -942,6 +965,7 @@ export function PlanEditor({
                     thread={null}
                     loadKg={plan.snapshot.massKg * (1 + plan.snapshot.contingencyPct / 100)}
                     disabled={!canEdit}
+                    units={units}
                     onPick={(pick) => {
                       if (pick) addPick(pick);
                       dispatch({ type: "allocate", label: null, slot: "craneItemId", itemId: pick?.id ?? null });

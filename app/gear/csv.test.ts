@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { CSV_HEADERS, neutraliseCell, parseCsv, restoreCell, toCsv, validateGearRows } from "~/gear/csv";
+import { CSV_HEADERS, exportRow, neutraliseCell, parseCsv, restoreCell, toCsv, validateGearRows } from "~/gear/csv";
 
 const HEAD = "item_code,kind,wll,wll_unit,thread,eyebolt_family,shackle_type,pin_type,home_site";
 const sites = new Map([["fernbrook", 7]]);
@@ -118,5 +118,30 @@ describe("validating rows", () => {
       "thread: Enter the thread for an eyebolt.",
       "eyebolt_family: Enter the eyebolt type for an eyebolt.",
     ]);
+  });
+});
+
+describe("the item's own mass (mass_kg)", () => {
+  it("is read on import, checked like the form, and written back on export", () => {
+    const head = "item_code,kind,wll,wll_unit,shackle_type,pin_type,mass_kg";
+    const { valid, errors } = validateGearRows(
+      rowsOf(
+        `${head}\r\nSH-1,shackle,2,t,bow,screw,0.36\r\nSH-2,shackle,2,t,bow,screw,\r\nSH-3,shackle,2,t,bow,screw,-1\r\n`,
+      ),
+      sites,
+    );
+    expect(valid.map((v) => v.input.massKg)).toEqual([0.36, null]);
+    expect(errors).toHaveLength(1);
+    expect(errors[0]!.messages.join(" ")).toMatch(/^mass_kg: /);
+    const exported = exportRow({
+      ...valid[0]!.input,
+      homeSiteName: null,
+      wllKg: 2000,
+      status: "in_service",
+      lastExaminedOn: null,
+      nextDueOn: null,
+      dueState: "never_examined",
+    });
+    expect(exported[CSV_HEADERS.indexOf("mass_kg")]).toBe(0.36);
   });
 });

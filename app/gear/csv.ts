@@ -27,6 +27,7 @@ export const EDITABLE_COLUMNS: readonly EditableColumn[] = [
   { header: "length_m", field: "lengthM" },
   { header: "hook_height_m", field: "hookHeightM" },
   { header: "beam_mass_kg", field: "beamMassKg" },
+  { header: "mass_kg", field: "massKg" },
   { header: "home_site", field: "homeSite" },
 ];
 

@@ -11,6 +11,22 @@ export const DUE_SOON_DAYS = 30;
  */
 export const EXAMINATION_INTERVAL_MONTHS = { accessory: 6, equipment: 12 } as const;
 
+/** The longest intervals a rule set allows without an examination scheme, months, and where they come from. */
+export type ExaminationIntervals = { accessory: number; equipment: number; source?: string };
+
+/** A rule set's examination intervals. */
+export function intervalsOf(ruleSet: {
+  accessoryExaminationMonths: number;
+  equipmentExaminationMonths: number;
+  examinationSource: string;
+}): ExaminationIntervals {
+  return {
+    accessory: ruleSet.accessoryExaminationMonths,
+    equipment: ruleSet.equipmentExaminationMonths,
+    source: ruleSet.examinationSource,
+  };
+}
+
 export type DueState = "overdue" | "due_soon" | "in_date" | "never_examined";
 
 export const DUE_STATES: readonly DueState[] = ["overdue", "due_soon", "in_date", "never_examined"];
@@ -22,37 +38,24 @@ export const DUE_STATE_LABELS: Record<DueState, string> = {
   never_examined: "Never examined",
 };
 
-/** The rules an organisation works to, as far as examination intervals go. */
-export type ExaminationRules = "uk-eu" | "us";
+/** The interval in months the rule set (default LOLER) allows for this kind of item without an examination scheme. */
+export function examinationIntervalMonths(
+  kind: GearKind,
+  intervals: ExaminationIntervals = EXAMINATION_INTERVAL_MONTHS,
+): number {
+  return GEAR_KIND_INFO[kind].accessory ? intervals.accessory : intervals.equipment;
+}
 
 /**
- * Longest interval between periodic examinations without a written scheme, in months, by rule set:
- * UK/EU, LOLER 1998 reg 9(3)(a) (accessories 6, other lifting equipment 12); US, ASME B30.9 / B30.26
- * periodic inspection at least yearly in normal service (shorter in severe service, which the examiner sets).
+ * The next examination date to offer after an examination on `examinedOn` (YYYY-MM-DD): the rule set's
+ * longest interval, which is also the latest due date allowed without a written examination scheme.
  */
-export const MAX_INTERVAL_MONTHS: Record<ExaminationRules, { accessory: number; equipment: number }> = {
-  "uk-eu": { accessory: 6, equipment: 12 },
-  us: { accessory: 12, equipment: 12 },
-};
-
-/** The most months the rules allow between examinations of this kind of item without a written scheme. */
-export function maxExaminationIntervalMonths(kind: GearKind, rules: ExaminationRules = "uk-eu"): number {
-  return GEAR_KIND_INFO[kind].accessory ? MAX_INTERVAL_MONTHS[rules].accessory : MAX_INTERVAL_MONTHS[rules].equipment;
-}
-
-/** The latest next-due date the rules allow after an examination on `examinedOn` without a written scheme. */
-export function latestNextDue(kind: GearKind, examinedOn: string, rules: ExaminationRules = "uk-eu"): string {
-  return addMonths(examinedOn, maxExaminationIntervalMonths(kind, rules));
-}
-
-/** The interval in months LOLER allows for this kind of item without an examination scheme. */
-export function examinationIntervalMonths(kind: GearKind): number {
-  return GEAR_KIND_INFO[kind].accessory ? EXAMINATION_INTERVAL_MONTHS.accessory : EXAMINATION_INTERVAL_MONTHS.equipment;
-}
-
-/** The next examination date to offer after an examination on `examinedOn` (YYYY-MM-DD). */
-export function defaultNextDue(kind: GearKind, examinedOn: string): string {
-  return addMonths(examinedOn, examinationIntervalMonths(kind));
+export function defaultNextDue(
+  kind: GearKind,
+  examinedOn: string,
+  intervals: ExaminationIntervals = EXAMINATION_INTERVAL_MONTHS,
+): string {
+  return addMonths(examinedOn, examinationIntervalMonths(kind, intervals));
 }
 
 /**

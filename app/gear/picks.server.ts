@@ -3,8 +3,8 @@ import { Op } from "sequelize";
 import type { GearKind } from "~/gear/kinds";
 import { GearItem } from "~/models/gear-item.server";
 import type { GearPick, GearRole } from "~/plans/rigging";
-import type { EyeboltFamily, SlingSpec } from "~/statics/checks";
-import { findModeFactor, type ReferenceTables } from "~/statics/reference";
+import type { EyeboltFamily, SlingSpec, Wll } from "~/statics/checks";
+import { DEFAULT_RULE_SET, findModeFactor, type ReferenceTables, type RuleSetId } from "~/statics/reference";
 
 const SLING_KINDS: Partial<Record<GearKind, SlingSpec["kind"]>> = {
   chain_sling: "chain",
@@ -39,9 +39,13 @@ function describe(item: GearItem) {
 /**
  * The pick for a register item, or null for kinds a bridle leg does not use (beams). A multi-leg
  * sling is marked with the assembly's WLL for legs up to 45 deg; one leg is taken as that over the
- * mode factor (EN 818-4 / EN 13414-1 via the reference tables).
+ * rule set's mode factor (via the reference tables).
  */
-export function toGearPick(item: GearItem, tables: ReferenceTables): GearPick | null {
+export function toGearPick(
+  item: GearItem,
+  tables: ReferenceTables,
+  ruleSet: RuleSetId = DEFAULT_RULE_SET,
+): GearPick | null {
   const role = roleOfKind(item.kind);
   if (!role) return null;
   const base = {
@@ -54,6 +58,12 @@ export function toGearPick(item: GearItem, tables: ReferenceTables): GearPick | 
     lengthM: item.lengthM,
     status: item.status,
     nextDueOn: item.nextDueOn ?? null,
+    massKg: item.massKg ?? null,
+  };
+  const marked: Wll = { value: item.wllValue, unit: item.wllUnit };
+  const identity = {
+    itemCode: item.itemCode,
+    ...(item.massKg !== null && item.massKg !== undefined ? { massKg: item.massKg } : {}),
   };
   switch (role) {
     case "eyebolt":
@@ -64,7 +74,8 @@ export function toGearPick(item: GearItem, tables: ReferenceTables): GearPick | 
           eyebolt: {
             family: (item.eyeboltFamily ?? "plain") as EyeboltFamily,
             thread: item.thread ?? "",
-            wllKg: item.wllKg,
+            wll: marked,
+            ...identity,
           },
         },
       };
@@ -76,21 +87,23 @@ export function toGearPick(item: GearItem, tables: ReferenceTables): GearPick | 
           shackle: {
             type: item.shackleType === "dee" ? "dee" : "bow",
             ...(item.pinType === "screw" || item.pinType === "bolt" ? { pin: item.pinType } : {}),
-            wllKg: item.wllKg,
+            wll: marked,
+            ...identity,
           },
         },
       };
     case "sling": {
       const legCount = item.legs ?? 1;
-      const mode = legCount > 1 ? findModeFactor(tables.modeFactors, legCount === 2 ? 2 : 3, 45) : null;
-      const perLegKg = mode ? item.wllKg / mode.factor : item.wllKg;
+      const mode = legCount > 1 ? findModeFactor(tables.modeFactors, legCount === 2 ? 2 : 3, 45, ruleSet) : null;
       return {
         ...base,
         spec: {
           role,
           sling: {
             kind: SLING_KINDS[item.kind]!,
-            wllKg: perLegKg,
+            ...(mode ? { wllKg: item.wllKg / mode.factor, assemblyWll: marked } : { wll: marked }),
+            assemblyLegs: legCount,
+            ...identity,
             ...(item.diameterMm !== null ? { diameterMm: item.diameterMm } : {}),
             ...(item.chainGrade !== null ? { grade: String(item.chainGrade) } : {}),
           },
@@ -98,13 +111,18 @@ export function toGearPick(item: GearItem, tables: ReferenceTables): GearPick | 
       };
     }
     case "masterLink":
-      return { ...base, spec: { role, masterLink: { wllKg: item.wllKg } } };
+      return { ...base, spec: { role, masterLink: { wll: marked, ...identity } } };
     case "crane":
       return {
         ...base,
         spec: {
           role,
-          crane: { swlKg: item.wllKg, ...(item.hookHeightM !== null ? { maxHookHeightM: item.hookHeightM } : {}) },
+          crane: {
+            swlKg: item.wllKg,
+            swl: marked,
+            itemCode: item.itemCode,
+            ...(item.hookHeightM !== null ? { maxHookHeightM: item.hookHeightM } : {}),
+          },
         },
       };
   }
@@ -115,6 +133,7 @@ export async function searchGearPicks(
   organisationId: number,
   options: { role?: GearRole; query?: string; limit?: number },
   tables: ReferenceTables,
+  ruleSet: RuleSetId = DEFAULT_RULE_SET,
 ) {
   const q = (options.query ?? "").trim().slice(0, 100);
   const like = `%${q.replace(/[%_\\]/g, (c) => `\\${c}`)}%`;
@@ -141,12 +160,17 @@ export async function searchGearPicks(
     ],
     limit: Math.min(Math.max(options.limit ?? 50, 1), 200),
   });
-  return items.map((i) => toGearPick(i, tables)).filter((p): p is GearPick => p !== null);
+  return items.map((i) => toGearPick(i, tables, ruleSet)).filter((p): p is GearPick => p !== null);
 }
 
 /** The picks for the given item ids of the organisation (those allocated in a plan). */
-export async function gearPicksByIds(organisationId: number, ids: readonly number[], tables: ReferenceTables) {
+export async function gearPicksByIds(
+  organisationId: number,
+  ids: readonly number[],
+  tables: ReferenceTables,
+  ruleSet: RuleSetId = DEFAULT_RULE_SET,
+) {
   if (ids.length === 0) return [];
   const items = await GearItem.findAll({ where: { organisationId, id: { [Op.in]: [...new Set(ids)] } } });
-  return items.map((i) => toGearPick(i, tables)).filter((p): p is GearPick => p !== null);
+  return items.map((i) => toGearPick(i, tables, ruleSet)).filter((p): p is GearPick => p !== null);
 }

@@ -131,6 +131,7 @@ export const gearItemSchema = z
       z.enum(WLL_UNITS, { error: "Choose the WLL's unit as marked: kg, t, lb or shortTon." }),
     ),
     ...specShape,
+    massKg: optionalNumber("item's own mass", { min: 0, max: 100_000 }),
   })
   .superRefine((item, ctx) => {
     const info = GEAR_KIND_INFO[item.kind];
@@ -263,5 +264,6 @@ export const BLANK_GEAR_FIELDS: Omit<GearItemInput, "itemCode" | "kind" | "wllVa
   lengthM: null,
   hookHeightM: null,
   beamMassKg: null,
+  massKg: null,
   homeSiteId: null,
 };

@@ -7,7 +7,10 @@ import {
   type NonAttribute,
   type Transaction,
 } from "sequelize";
-import { defaultNextDue, latestNextDue, maxExaminationIntervalMonths, type ExaminationRules } from "~/gear/due";
+import { defaultNextDue, examinationIntervalMonths, intervalsOf } from "~/gear/due";
+import { getOrganisationRuleSet } from "~/models/organisation.server";
+import { getReferenceTables } from "~/models/reference-row.server";
+import { ruleSetRow } from "~/statics/rule-sets";
 import { GEAR_KIND_INFO } from "~/gear/kinds";
 import { sequelize } from "~/utils/db.server";
 import type { DefectUrgency, ExaminationFields, ExaminationKind } from "~/gear/schema";
@@ -102,8 +105,8 @@ export type RecordedExamination =
 
 /**
  * Records an examination and its certificate in one transaction. The next due date defaults to the
- * rules' interval for the item's kind and may not pass the rules' longest interval unless the
- * examination follows a named written scheme; the item's due date follows its latest examination.
+ * organisation's rule set's interval for the item's kind (LOLER's 6 / 12 months under UK / EU rules)
+ * and may not pass it unless the examination follows a named written scheme; the item's due date follows its latest examination.
  * A failed examination (or one finding a defect of immediate danger) quarantines an item in service;
  * a passed one dated on or after the day a quarantined item was taken out of use returns it to
  * service, recorded against the defect. A withdrawn item stays withdrawn.
@@ -114,21 +117,22 @@ export async function recordExamination(
   fields: ExaminationFields,
   certificate: CheckedUpload | null,
   actorId: number,
-  rules: ExaminationRules = "uk-eu",
 ): Promise<RecordedExamination> {
   return transactionWithFiles(async (transaction, store) => {
     const item = await GearItem.findOne({ where: { organisationId, id: gearItemId }, transaction });
     if (!item) return null;
-    const nextDueOn = fields.nextDueOn ?? defaultNextDue(item.kind, fields.examinedOn);
-    const latestAllowed = latestNextDue(item.kind, fields.examinedOn, rules);
+    const intervals = intervalsOf(
+      ruleSetRow(await getReferenceTables(), await getOrganisationRuleSet(organisationId, transaction)),
+    );
+    const nextDueOn = fields.nextDueOn ?? defaultNextDue(item.kind, fields.examinedOn, intervals);
+    const latestAllowed = defaultNextDue(item.kind, fields.examinedOn, intervals);
     if (nextDueOn > latestAllowed && !fields.schemeReference) {
-      const months = maxExaminationIntervalMonths(item.kind, rules);
+      const months = examinationIntervalMonths(item.kind, intervals);
       const what = GEAR_KIND_INFO[item.kind].accessory ? "a lifting accessory" : "lifting equipment";
-      const rule = rules === "us" ? "ASME B30.9 / B30.26 periodic inspection" : "LOLER 1998 reg 9(3)(a)";
       return {
         ok: false,
         field: "nextDueOn",
-        message: `Under ${rule}, ${what} is examined at least every ${months} months: the next examination is due by ${latestAllowed} at the latest. A longer interval needs a written examination scheme: name it.`,
+        message: `Your rules (${intervals.source ?? "the organisation's rule set"}) want ${what} examined at least every ${months} months: the next examination is due by ${latestAllowed} at the latest. A longer interval needs a written examination scheme: name it.`,
       };
     }
     const file = certificate

@@ -41,6 +41,8 @@ export class GearItem extends Model<InferAttributes<GearItem>, InferCreationAttr
   declare lengthM: number | null;
   declare hookHeightM: number | null;
   declare beamMassKg: number | null;
+  /** The item's own mass, kg (null until recorded): the crane carries it with the load. */
+  declare massKg: number | null;
   declare homeSiteId: number | null;
   declare status: CreationOptional<GearStatus>;
   declare statusReason: CreationOptional<string>;
@@ -76,6 +78,7 @@ GearItem.init(
     lengthM: { type: DataTypes.DOUBLE, allowNull: true },
     hookHeightM: { type: DataTypes.DOUBLE, allowNull: true },
     beamMassKg: { type: DataTypes.DOUBLE, allowNull: true },
+    massKg: { type: DataTypes.DOUBLE, allowNull: true },
     homeSiteId: { type: DataTypes.INTEGER, allowNull: true },
     status: { type: DataTypes.STRING(15), allowNull: false, defaultValue: "in_service" },
     statusReason: { type: DataTypes.TEXT, allowNull: false, defaultValue: "" },
@@ -109,6 +112,7 @@ export const COMPARED_FIELDS = [
   "wllValue",
   "wllUnit",
   ...SPEC_FIELDS,
+  "massKg",
   "homeSiteId",
 ] as const satisfies ReadonlyArray<keyof GearItemInput>;
 

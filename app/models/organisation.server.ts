@@ -1,11 +1,21 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type Transaction,
+} from "sequelize";
 import { DEFAULT_TIME_ZONE, todayIn } from "~/utils/dates";
 import { sequelize } from "~/utils/db.server";
+import { DEFAULT_RULE_SET, isRuleSetId, type RuleSetId } from "~/statics/reference";
 
 export class Organisation extends Model<InferAttributes<Organisation>, InferCreationAttributes<Organisation>> {
   declare id: CreationOptional<number>;
   declare name: string;
   declare allowSelfApproval: CreationOptional<boolean>;
+  /** The rules the organisation works to: factors, tables, limits and examination intervals. */
+  declare ruleSet: CreationOptional<RuleSetId>;
   /** IANA time zone the organisation works in: its calendar "today". */
   declare timeZone: CreationOptional<string>;
   declare createdAt: CreationOptional<Date>;
@@ -17,6 +27,7 @@ Organisation.init(
     id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
     name: { type: DataTypes.STRING(200), allowNull: false },
     allowSelfApproval: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
+    ruleSet: { type: DataTypes.STRING(10), allowNull: false, defaultValue: DEFAULT_RULE_SET },
     timeZone: { type: DataTypes.STRING(64), allowNull: false, defaultValue: DEFAULT_TIME_ZONE },
     createdAt: DataTypes.DATE,
     updatedAt: DataTypes.DATE,
@@ -30,10 +41,19 @@ export async function getOrganisation(organisationId: number) {
 
 export async function updateOrganisationSettings(
   organisationId: number,
-  settings: { name: string; allowSelfApproval: boolean; timeZone?: string },
+  settings: { name: string; allowSelfApproval: boolean; ruleSet?: RuleSetId; timeZone?: string },
 ) {
-  const { timeZone, ...rest } = settings;
-  await Organisation.update(timeZone ? { ...rest, timeZone } : rest, { where: { id: organisationId } });
+  const { ruleSet, timeZone, ...rest } = settings;
+  await Organisation.update(
+    { ...rest, ...(ruleSet ? { ruleSet } : {}), ...(timeZone ? { timeZone } : {}) },
+    { where: { id: organisationId } },
+  );
+}
+
+/** The rule set the organisation works to (UK / EU when unknown). */
+export async function getOrganisationRuleSet(organisationId: number, transaction?: Transaction): Promise<RuleSetId> {
+  const row = await Organisation.findByPk(organisationId, { attributes: ["ruleSet"], transaction });
+  return isRuleSetId(row?.ruleSet) ? row.ruleSet : DEFAULT_RULE_SET;
 }
 
 /** The organisation's time zone (the default when the row is missing). */

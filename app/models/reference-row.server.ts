@@ -33,6 +33,7 @@ const TABLE_NAMES: Array<keyof ReferenceTables> = [
   "textileColours",
   "hitchFactors",
   "modeFactors",
+  "ruleSets",
 ];
 
 async function readReferenceTables(): Promise<ReferenceTables> {

@@ -1,4 +1,4 @@
-// The details form (sequence, hazards, people, zone, communication, clearance) to a PlanDetails.
+// The details form (sequence, hazards, people, zone, communication, clearance, lift date) to a PlanDetails.
 import { detailsSchema, type PlanDetails } from "~/plans/document";
 import { fromDisplayLength, type Units } from "~/utils/format";
 
@@ -47,6 +47,7 @@ export function parseDetailsForm(formData: FormData, units: Units): DetailsFormR
     exclusionZone: str(formData, "exclusionZone"),
     communication: str(formData, "communication"),
     floorClearanceM: Number.isFinite(clearance) ? fromDisplayLength(clearance, units) : 0,
+    ...(str(formData, "liftDate") ? { liftDate: str(formData, "liftDate") } : {}),
   });
   if (!parsed.success) {
     for (const issue of parsed.error.issues) {

@@ -134,11 +134,20 @@ export const HITCH_LABELS: Record<(typeof HITCHES)[number], string> = {
   basket: "Basket",
 };
 
+export const EYE_PLANES = ["pull", "x", "y"] as const;
+export const EYE_PLANE_LABELS: Record<(typeof EYE_PLANES)[number], string> = {
+  pull: "Faces the pull",
+  x: "Along x",
+  y: "Along y",
+};
+
 export const legRiggingSchema = z.object({
   eyeboltItemId: gearItemId.optional(),
   shackleItemId: gearItemId.optional(),
   slingItemId: gearItemId.optional(),
   hitch: z.enum(HITCHES, { error: 'The hitch is "straight", "choke" or "basket".' }).default("straight"),
+  /** The plane of the eyebolt's eye or the lug: set to face the pull (default) or fixed along x or y. */
+  eyePlane: z.enum(EYE_PLANES, { error: 'The eye plane is "pull", "x" or "y".' }).optional(),
 });
 export type LegRiggingAllocation = z.infer<typeof legRiggingSchema>;
 
@@ -208,6 +217,17 @@ export const detailsSchema = z.object({
   floorClearanceM: finite("floor clearance")
     .min(0, "The floor clearance cannot be negative.")
     .max(MAX_FLOOR_CLEARANCE_M, `The floor clearance is at most ${MAX_FLOOR_CLEARANCE_M} m.`),
+  /** The planned lift date, YYYY-MM-DD: every item must be in date for examination then (and today). */
+  liftDate: z
+    .string({ error: "Give the lift date as YYYY-MM-DD." })
+    .regex(/^\d{4}-\d{2}-\d{2}$/, "Give the lift date as YYYY-MM-DD.")
+    .refine(
+      (v) => !Number.isNaN(Date.parse(`${v}T00:00:00Z`)) && new Date(`${v}T00:00:00Z`).toISOString().startsWith(v),
+      {
+        message: "The lift date is not a real date.",
+      },
+    )
+    .optional(),
 });
 export type PlanDetails = z.infer<typeof detailsSchema>;
 

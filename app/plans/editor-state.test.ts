@@ -119,6 +119,19 @@ describe("editor history", () => {
     expect(s.present.rigging.legs.B).toEqual({ hitch: "straight", slingItemId: 5 });
   });
 
+  it("a leg given an eyebolt or shackle hangs straight (it cannot choke or basket); the eye plane is set per leg", () => {
+    let s = initialEditorState(edit);
+    s = editorReducer(s, { type: "allocate", label: "A", slot: "slingItemId", itemId: 7 });
+    s = editorReducer(s, { type: "set-hitch", label: "A", hitch: "basket" });
+    expect(s.present.rigging.legs.A!.hitch).toBe("basket");
+    s = editorReducer(s, { type: "allocate", label: "A", slot: "shackleItemId", itemId: 8 });
+    expect(s.present.rigging.legs.A!.hitch).toBe("straight");
+    s = editorReducer(s, { type: "set-eye-plane", label: "A", eyePlane: "y" });
+    expect(s.present.rigging.legs.A!.eyePlane).toBe("y");
+    s = editorReducer(s, { type: "set-eye-plane", label: "A", eyePlane: "pull" });
+    expect(s.present.rigging.legs.A!.eyePlane).toBeUndefined();
+  });
+
   it("law: any sequence of edits undone in full gives back the start", () => {
     const actionArb = fc.oneof(
       fc.record({

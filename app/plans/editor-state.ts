@@ -1,6 +1,6 @@
 // The plan editor's state: the editable parts of a plan, with undo and redo, snapping and the
 // view transform of the drawing. Pure (no React, no Konva, no I/O), so it is tested on its own.
-import type { Arrangement, RiggingAllocation } from "~/plans/document";
+import type { Arrangement, LegRiggingAllocation, RiggingAllocation } from "~/plans/document";
 
 export type Vec3 = { x: number; y: number; z: number };
 export type EditorLiftPoint = { label: string; position: Vec3; axis: Vec3; thread: string };
@@ -41,6 +41,7 @@ export type EditorAction =
       itemId: number | null;
     }
   | { type: "set-hitch"; label: string; hitch: "straight" | "choke" | "basket" }
+  | { type: "set-eye-plane"; label: string; eyePlane: "pull" | "x" | "y" }
   | { type: "undo" }
   | { type: "redo" };
 
@@ -148,13 +149,21 @@ function apply(edit: PlanEdit, action: EditorAction): PlanEdit {
         return { ...edit, rigging };
       }
       if (!action.label) return edit;
-      const leg = { hitch: "straight" as const, ...edit.rigging.legs[action.label] };
+      const leg: LegRiggingAllocation = { hitch: "straight" as const, ...edit.rigging.legs[action.label] };
       if (action.itemId === null) delete leg[action.slot];
       else leg[action.slot] = action.itemId;
+      // A leg pinned in an eyebolt or shackle can only hang straight (rule-sets.ts allowedHitches).
+      if (leg.eyeboltItemId !== undefined || leg.shackleItemId !== undefined) leg.hitch = "straight";
       return { ...edit, rigging: { ...edit.rigging, legs: { ...edit.rigging.legs, [action.label]: leg } } };
     }
     case "set-hitch": {
       const leg = { ...edit.rigging.legs[action.label], hitch: action.hitch };
+      return { ...edit, rigging: { ...edit.rigging, legs: { ...edit.rigging.legs, [action.label]: leg } } };
+    }
+    case "set-eye-plane": {
+      const leg: LegRiggingAllocation = { hitch: "straight", ...edit.rigging.legs[action.label] };
+      if (action.eyePlane === "pull") delete leg.eyePlane;
+      else leg.eyePlane = action.eyePlane;
       return { ...edit, rigging: { ...edit.rigging, legs: { ...edit.rigging.legs, [action.label]: leg } } };
     }
     default:

@@ -4,39 +4,33 @@
 import { Op, type Transaction } from "sequelize";
 import type { ComponentDefinition } from "~/loads/component-definition";
 import { GearItem } from "~/models/gear-item.server";
+import { getOrganisationRuleSet } from "~/models/organisation.server";
 import { getReferenceTables } from "~/models/reference-row.server";
 import type { GearKind } from "~/gear/kinds";
+import { beamResults, uniqueById } from "~/plans/beam-results";
 import type {
   Arrangement,
   PlanDetails,
   PlanIssue,
-  PlanLeg,
   PlanResults,
   PlanResultsBody,
   RiggingAllocation,
 } from "~/plans/document";
-import { handleSolve, type SolveBody } from "~/statics/api";
-import { solveBeamLift } from "~/statics/beam";
-import type { LiftPoint } from "~/statics/bridle";
+import { handleSolve, toCheckResult, type SolveBody } from "~/statics/api";
 import {
-  checkCraneLoad,
-  checkEyebolt,
-  checkHeadroom,
-  checkInspection,
-  checkMasterLink,
-  checkShackle,
-  checkSlingLeg,
-  contingencyFactor,
-  type CheckResult,
+  checkNeverExamined,
+  type Check,
   type CraneSpec,
   type EyeboltFamily,
+  type EyeboltSpec,
   type InspectionRecord,
+  type LegRigging,
   type RiggingDescription,
   type ShackleSpec,
   type SlingSpec,
+  type Wll,
 } from "~/statics/checks";
-import { findModeFactor, type ReferenceTables } from "~/statics/reference";
-import { STANDARD_GRAVITY_MS2 } from "~/statics/units";
+import { DEFAULT_RULE_SET, findModeFactor, type ReferenceTables, type RuleSetId } from "~/statics/reference";
 
 const SLING_KINDS: Partial<Record<GearKind, SlingSpec["kind"]>> = {
   chain_sling: "chain",
@@ -147,39 +141,44 @@ function inspectionOf(item: GearItem): InspectionRecord | undefined {
   return { itemId: item.itemCode, status: item.status, examinationDue: item.nextDueOn };
 }
 
-function neverExamined(item: GearItem, name: string): CheckResult {
+/** What every spec carries about its item: the register code, its own mass, the marked WLL with its unit. */
+function identityOf(item: GearItem) {
   return {
-    id: `inspection-${item.itemCode}`,
-    item: `${name} (${item.itemCode})`,
-    status: "fail",
-    utilisation: null,
-    loadKg: null,
-    capacityKg: null,
-    rule: "In service and in date for thorough examination",
-    source: "UK LOLER 1998 reg 9(3); ASME B30.9 / B30.26 periodic inspection",
-    message: `${name} (${item.itemCode}) has no thorough examination on record: have it examined or allocate another item.`,
+    itemCode: item.itemCode,
+    ...(item.massKg !== null && item.massKg !== undefined ? { massKg: item.massKg } : {}),
   };
+}
+
+function markedOf(item: GearItem): Wll {
+  return { value: item.wllValue, unit: item.wllUnit };
 }
 
 type Described = {
   description: RiggingDescription;
-  extraChecks: CheckResult[];
+  extraChecks: Check[];
   notes: Array<{ code: string; message: string }>;
 };
 
+export type DescribeOptions = {
+  details?: Pick<PlanDetails, "floorClearanceM" | "liftDate">;
+  ruleSet?: RuleSetId;
+  todayIso?: string;
+};
+
 /**
- * The rigging description the checks take, from the allocated items: marked WLLs in kg, eyebolt
- * family and thread, shackle shape and pin, inspection status and due date; the crane's SWL and
- * highest hook position; the headroom the lift needs; the snapshot's contingency.
+ * The rigging description the checks take, from the allocated items: marked WLLs as marked, eyebolt
+ * family and thread, shackle shape and pin, each item's code and own mass, inspection status and due
+ * date; the crane's SWL and highest hook position; the headroom the lift needs; the snapshot's contingency.
  */
 export function describeRigging(
   snapshot: ComponentDefinition,
   rigging: RiggingAllocation,
   items: ReadonlyMap<number, GearItem>,
   tables: ReferenceTables,
-  details?: Pick<PlanDetails, "floorClearanceM">,
+  options: DescribeOptions = {},
 ): Described {
-  const extraChecks: CheckResult[] = [];
+  const ruleSet = options.ruleSet ?? DEFAULT_RULE_SET;
+  const extraChecks: Check[] = [];
   const notes: Described["notes"] = [];
   const withInspection = <T extends object>(
     spec: T,
@@ -188,83 +187,97 @@ export function describeRigging(
   ): T & { inspection?: InspectionRecord } => {
     const inspection = inspectionOf(item);
     if (!inspection) {
-      extraChecks.push(neverExamined(item, name));
+      extraChecks.push(
+        checkNeverExamined(name, item.itemCode, options.todayIso ?? "", {
+          ruleSet,
+          tables,
+          liftDateIso: options.details?.liftDate ?? null,
+        }),
+      );
       return spec;
     }
     return { ...spec, inspection };
   };
   const legs: NonNullable<RiggingDescription["legs"]> = {};
+  const noted = new Set<number>();
   for (const [leg, r] of Object.entries(rigging.legs)) {
-    const out: NonNullable<RiggingDescription["legs"]>[string] = {};
+    const out: LegRigging = r.eyePlane ? { eyePlane: r.eyePlane } : {};
     const eyebolt = r.eyeboltItemId !== undefined ? items.get(r.eyeboltItemId) : undefined;
     if (eyebolt) {
-      out.eyebolt = withInspection(
-        {
-          family: (eyebolt.eyeboltFamily ?? "plain") as EyeboltFamily,
-          thread: eyebolt.thread ?? "",
-          wllKg: eyebolt.wllKg,
-        },
-        eyebolt,
-        `Eyebolt at ${leg}`,
-      );
+      const spec: EyeboltSpec = {
+        family: (eyebolt.eyeboltFamily ?? "plain") as EyeboltFamily,
+        thread: eyebolt.thread ?? "",
+        wll: markedOf(eyebolt),
+        ...identityOf(eyebolt),
+      };
+      out.eyebolt = withInspection(spec, eyebolt, `Eyebolt at ${leg}`);
     }
     const shackle = r.shackleItemId !== undefined ? items.get(r.shackleItemId) : undefined;
     if (shackle) {
       const pin = shackle.pinType === "screw" || shackle.pinType === "bolt" ? shackle.pinType : undefined;
-      const shackleSpec: ShackleSpec = {
+      const spec: ShackleSpec = {
         type: shackle.shackleType === "dee" ? "dee" : "bow",
-        wllKg: shackle.wllKg,
+        wll: markedOf(shackle),
         ...(pin ? { pin } : {}),
+        ...identityOf(shackle),
       };
-      out.shackle = withInspection(shackleSpec, shackle, `Shackle at ${leg}`);
+      out.shackle = withInspection(spec, shackle, `Shackle at ${leg}`);
     }
     const sling = r.slingItemId !== undefined ? items.get(r.slingItemId) : undefined;
     const slingKind = sling ? SLING_KINDS[sling.kind] : undefined;
     if (sling && slingKind) {
-      let wllKg = sling.wllKg;
       const legCount = sling.legs ?? 1;
-      if (legCount > 1 && notes.some((n) => n.message.startsWith(`${sling.itemCode} `))) {
-        const mode = findModeFactor(tables.modeFactors, legCount === 2 ? 2 : 3, 45);
-        if (mode) wllKg = sling.wllKg / mode.factor;
-      } else if (legCount > 1) {
-        // A multi-leg sling is marked with the assembly's WLL for legs up to 45 deg; one leg's share is that over the mode factor.
-        const mode = findModeFactor(tables.modeFactors, legCount === 2 ? 2 : 3, 45);
-        if (mode) {
-          wllKg = sling.wllKg / mode.factor;
+      const spec: SlingSpec = {
+        kind: slingKind,
+        hitch: r.hitch,
+        assemblyLegs: legCount,
+        ...identityOf(sling),
+        ...(sling.diameterMm !== null ? { diameterMm: sling.diameterMm } : {}),
+        ...(sling.chainGrade !== null ? { grade: String(sling.chainGrade) } : {}),
+      };
+      const perLeg = legCount > 1 ? perLegWll(sling, legCount, tables, ruleSet) : null;
+      if (perLeg) {
+        spec.wllKg = perLeg.wllKg;
+        spec.assemblyWll = markedOf(sling);
+        if (!noted.has(sling.id)) {
+          noted.add(sling.id);
           notes.push({
             code: "SLING_LEG_FROM_ASSEMBLY",
-            message: `${sling.itemCode} is a ${legCount}-leg sling marked ${Math.round(sling.wllKg)} kg; each leg is taken as ${Math.floor(wllKg)} kg (marked WLL / mode factor ${mode.factor}, ${mode.source}).`,
+            message: `${sling.itemCode} is a ${legCount}-leg sling; each leg is taken as its marked WLL over the mode factor ${perLeg.factor} (${perLeg.source}).`,
           });
         }
+      } else {
+        spec.wll = markedOf(sling);
       }
-      out.sling = withInspection(
-        {
-          kind: slingKind,
-          wllKg,
-          hitch: r.hitch,
-          ...(sling.diameterMm !== null ? { diameterMm: sling.diameterMm } : {}),
-          ...(sling.chainGrade !== null ? { grade: String(sling.chainGrade) } : {}),
-        },
-        sling,
-        `Sling leg ${leg}`,
-      );
+      out.sling = withInspection(spec, sling, `Sling leg ${leg}`);
     }
     legs[leg] = out;
   }
   const description: RiggingDescription = { legs, contingencyPct: snapshot.contingencyPct };
   const link = rigging.masterLinkItemId !== undefined ? items.get(rigging.masterLinkItemId) : undefined;
-  if (link) description.masterLink = withInspection({ wllKg: link.wllKg }, link, "Master link");
+  if (link) description.masterLink = withInspection({ wll: markedOf(link), ...identityOf(link) }, link, "Master link");
   const crane = rigging.craneItemId !== undefined ? items.get(rigging.craneItemId) : undefined;
   if (crane) {
     const spec: CraneSpec = {
       swlKg: crane.wllKg,
+      swl: markedOf(crane),
+      itemCode: crane.itemCode,
       ...(crane.hookHeightM !== null ? { maxHookHeightM: crane.hookHeightM } : {}),
     };
     description.crane = withInspection(spec, crane, "Crane or hoist");
-    if (details)
-      description.headroom = { clearanceAboveFloorM: details.floorClearanceM, loadUndersideZM: undersideZ(snapshot) };
+    if (options.details)
+      description.headroom = {
+        clearanceAboveFloorM: options.details.floorClearanceM,
+        loadUndersideZM: undersideZ(snapshot),
+      };
   }
   return { description, extraChecks, notes };
+}
+
+/** One leg's WLL of a multi-leg sling, kg: marked for the assembly with legs up to 45 deg, over the rule set's mode factor. */
+function perLegWll(sling: GearItem, legCount: number, tables: ReferenceTables, ruleSet: RuleSetId) {
+  const mode = findModeFactor(tables.modeFactors, legCount === 2 ? 2 : 3, 45, ruleSet);
+  return mode ? { wllKg: sling.wllKg / mode.factor, factor: mode.factor, source: mode.source } : null;
 }
 
 /** The lowest z of the load's elevation outline (its underside), m. */
@@ -278,6 +291,7 @@ export function buildSolveBody(
   snapshot: ComponentDefinition,
   arrangement: Arrangement,
   rigging: RiggingDescription,
+  options: { ruleSet?: RuleSetId; liftDate?: string } = {},
 ): unknown {
   const byLabel = new Map(snapshot.liftPoints.map((p) => [p.label, p]));
   const liftPoints = arrangement.liftPointLabels.map((label) => {
@@ -294,18 +308,23 @@ export function buildSolveBody(
           legLengths: Object.fromEntries(arrangement.liftPointLabels.map((l) => [l, arrangement.legLengthsM[l] ?? 0])),
         }),
     rigging,
+    ...(options.ruleSet ? { ruleSet: options.ruleSet } : {}),
+    ...(options.liftDate ? { liftDate: options.liftDate } : {}),
   } satisfies Partial<Record<keyof SolveBody, unknown>>;
 }
 
 export type ComputeOptions = {
-  details?: Pick<PlanDetails, "floorClearanceM">;
+  details?: Pick<PlanDetails, "floorClearanceM" | "liftDate">;
   tables?: ReferenceTables;
   transaction?: Transaction;
+  /** The organisation's rule set; read from the organisation when not given. */
+  ruleSet?: RuleSetId;
 };
 
 /**
- * The plan's results: a bridle goes through handleSolve exactly as /api/solve would; a beam through
- * the beam solver with the same checks. Allocation problems come back as a 400 with their issues.
+ * The plan's results under the organisation's rule set: a bridle goes through handleSolve exactly as
+ * /api/solve would; a beam through the beam solver with the same checks. Allocation problems come
+ * back as a 400 with their issues.
  */
 export async function computePlanResults(
   snapshot: ComponentDefinition,
@@ -316,192 +335,35 @@ export async function computePlanResults(
   options: ComputeOptions = {},
 ): Promise<PlanResults> {
   const tables = options.tables ?? (await getReferenceTables());
+  const ruleSet = options.ruleSet ?? (await getOrganisationRuleSet(organisationId, options.transaction));
   const items = await loadAllocatedGear(organisationId, rigging, options.transaction);
   const base = { kind: arrangement.kind, computedOn: todayIso };
   const issues = allocationIssues(rigging, items);
   if (issues.length > 0) {
     return { ...base, status: 400, body: { error: `The gear allocation is not valid: ${issues[0]!.message}`, issues } };
   }
-  const { description, extraChecks, notes } = describeRigging(snapshot, rigging, items, tables, options.details);
+  const liftDate = options.details?.liftDate;
+  const { description, extraChecks, notes } = describeRigging(snapshot, rigging, items, tables, {
+    details: options.details,
+    ruleSet,
+    todayIso,
+  });
   if (arrangement.kind === "beam") {
-    const beam = beamResults(snapshot, arrangement, description, extraChecks, notes, tables, todayIso);
+    const beam = beamResults(snapshot, arrangement, description, extraChecks, notes, tables, {
+      todayIso,
+      ruleSet,
+      liftDateIso: liftDate ?? null,
+    });
     return beam.status === 200 ? { ...base, status: 200, body: beam.body } : { ...base, status: 422, body: beam.body };
   }
-  const solved = handleSolve(buildSolveBody(snapshot, arrangement, description), tables, { todayIso });
+  const solved = handleSolve(buildSolveBody(snapshot, arrangement, description, { ruleSet, liftDate }), tables, {
+    todayIso,
+  });
   if (solved.status !== 200) return { ...base, ...solved };
   const body: PlanResultsBody = {
     ...solved.body,
     warnings: [...solved.body.warnings, ...notes],
-    checks: uniqueById([...(solved.body.checks ?? []), ...extraChecks]),
+    checks: uniqueById([...(solved.body.checks ?? []), ...extraChecks.map(toCheckResult)]),
   };
   return { ...base, status: 200, body };
-}
-
-/** One check per id: a multi-leg sling on several legs is inspected once. */
-function uniqueById<T extends { id: string }>(items: T[]): T[] {
-  const seen = new Set<string>();
-  return items.filter((c) => (seen.has(c.id) ? false : (seen.add(c.id), true)));
-}
-
-type BeamOutcome = { status: 200; body: PlanResultsBody } | { status: 422; body: { error: string; code: string } };
-
-function beamResults(
-  snapshot: ComponentDefinition,
-  arrangement: Arrangement,
-  rigging: RiggingDescription,
-  extraChecks: CheckResult[],
-  notes: Array<{ code: string; message: string }>,
-  tables: ReferenceTables,
-  todayIso: string,
-): BeamOutcome {
-  const beam = arrangement.beam!;
-  const byLabel = new Map(snapshot.liftPoints.map((p) => [p.label, p]));
-  const chosen = arrangement.liftPointLabels.map((l) => byLabel.get(l)!);
-  const points: LiftPoint[] = chosen.map((p) => {
-    const n = Math.hypot(p.axis.x, p.axis.y, p.axis.z) || 1;
-    return { id: p.label, position: p.position, axis: { x: p.axis.x / n, y: p.axis.y / n, z: p.axis.z / n } };
-  });
-  const span = Math.max(
-    0,
-    ...points.flatMap((a) => points.map((b) => Math.hypot(a.position.x - b.position.x, a.position.y - b.position.y))),
-  );
-  if (span > beam.lengthM + 1e-6) {
-    return {
-      status: 422,
-      body: {
-        code: "BEAM_TOO_SHORT",
-        error: `The lift points are ${Math.round(span * 1000)} mm apart but the beam is ${Math.round(beam.lengthM * 1000)} mm long: use a longer beam or other lift points.`,
-      },
-    };
-  }
-  // The beam hangs level with its drops; its lug is set plumb over the load's CoG (an adjustable lifting beam).
-  const beamZ = Math.max(...points.map((p) => p.position.z)) + beam.dropLengthM;
-  if (!(arrangement.hookHeightM > beamZ + 1e-6)) {
-    return {
-      status: 422,
-      body: {
-        code: "HOOK_BELOW_BEAM",
-        error: `The hook must be above the beam's lug at ${Math.round(beamZ * 1000)} mm (component frame): raise the hook height.`,
-      },
-    };
-  }
-  const dropLengths = points.map((p) => beamZ - p.position.z);
-  const lug = { x: snapshot.cog.x, y: snapshot.cog.y, z: beamZ };
-  const outcome = solveBeamLift(
-    snapshot.massKg,
-    snapshot.cog,
-    points,
-    { massKg: beam.massKg, cog: lug, topLugs: [lug] },
-    arrangement.hookHeightM,
-    dropLengths,
-  );
-  if (!outcome.ok) return { status: 422, body: { error: outcome.message, code: outcome.code } };
-  const s = outcome.solution;
-  const factor = contingencyFactor(rigging.contingencyPct);
-  const legs: PlanLeg[] = s.drops.drops.map((d, i) => {
-    const axis = points[i]!.axis;
-    return {
-      liftPointId: d.liftPointId,
-      lengthM: dropLengths[i]!,
-      tensionKn: d.tensionKn,
-      tensionKg: d.tensionKg,
-      angleFromVerticalDeg: 0,
-      axisAngleDeg: (Math.acos(Math.max(-1, Math.min(1, axis.z))) * 180) / Math.PI,
-      verticalShare: d.share,
-      slack: d.slack,
-    };
-  });
-  const checks: CheckResult[] = [];
-  const inspections: Array<{ name: string; record: InspectionRecord }> = [];
-  for (const leg of legs) {
-    const lr = rigging.legs?.[leg.liftPointId];
-    const loadKg = leg.tensionKg * factor;
-    if (lr?.sling) {
-      checks.push(checkSlingLeg(leg.liftPointId, loadKg, lr.sling, tables));
-      if (lr.sling.inspection) inspections.push({ name: `Sling leg ${leg.liftPointId}`, record: lr.sling.inspection });
-    }
-    if (lr?.shackle) {
-      checks.push(checkShackle(leg.liftPointId, loadKg, lr.shackle, tables));
-      if (lr.shackle.inspection)
-        inspections.push({ name: `Shackle at ${leg.liftPointId}`, record: lr.shackle.inspection });
-    }
-    if (lr?.eyebolt) {
-      const thread = byLabel.get(leg.liftPointId)?.thread || undefined;
-      checks.push(checkEyebolt(leg.liftPointId, loadKg, leg.axisAngleDeg, lr.eyebolt, thread, tables));
-      if (lr.eyebolt.inspection)
-        inspections.push({ name: `Eyebolt at ${leg.liftPointId}`, record: lr.eyebolt.inspection });
-    }
-  }
-  const designLoadKg = snapshot.massKg * factor;
-  const beamUtilisation = designLoadKg / beam.wllKg;
-  const ceilKg = (x: number) => `${Math.ceil(x - 1e-9).toLocaleString("en-GB")} kg`;
-  checks.push({
-    id: "beam",
-    item: "Lifting beam",
-    status: beamUtilisation > 1 + 1e-12 ? "fail" : "pass",
-    utilisation: beamUtilisation,
-    loadKg: designLoadKg,
-    capacityKg: beam.wllKg,
-    rule: "Load with contingency vs the beam's marked WLL",
-    source: "marked WLL of the beam",
-    message:
-      beamUtilisation > 1 + 1e-12
-        ? `The lifting beam would carry ${ceilKg(designLoadKg)} but is marked for only ${ceilKg(beam.wllKg)}: use a larger beam.`
-        : `The lifting beam carries ${ceilKg(designLoadKg)} of its marked ${ceilKg(beam.wllKg)}.`,
-  });
-  const hookLoadKg = designLoadKg + beam.massKg + (rigging.riggingMassKg ?? 0);
-  if (rigging.masterLink) {
-    checks.push(checkMasterLink(hookLoadKg, rigging.masterLink));
-    if (rigging.masterLink.inspection) inspections.push({ name: "Master link", record: rigging.masterLink.inspection });
-  }
-  if (rigging.crane) {
-    checks.push(checkCraneLoad(hookLoadKg, rigging.crane));
-    if (rigging.crane.inspection) inspections.push({ name: "Crane or hoist", record: rigging.crane.inspection });
-    if (rigging.crane.maxHookHeightM !== undefined && rigging.headroom) {
-      const drop = arrangement.hookHeightM - (rigging.headroom.loadUndersideZM ?? 0);
-      checks.push(checkHeadroom(rigging.headroom.clearanceAboveFloorM + drop, rigging.crane.maxHookHeightM));
-    }
-  }
-  for (const { name, record } of inspections) checks.push(checkInspection(name, record, todayIso));
-  checks.push(...extraChecks);
-  const unique = uniqueById(checks);
-  const active = legs.filter((l) => !l.slack);
-  const maxKg = Math.max(0, ...active.map((l) => l.tensionKg));
-  const topLegs: PlanLeg[] = s.top.legs.map((l) => ({
-    liftPointId: l.liftPointId,
-    lengthM: l.lengthM,
-    tensionKn: l.tensionKn,
-    tensionKg: l.tensionKg,
-    angleFromVerticalDeg: l.angleFromVerticalDeg,
-    axisAngleDeg: l.axisAngleDeg,
-    verticalShare: l.verticalShare,
-    slack: l.slack,
-  }));
-  const body: PlanResultsBody = {
-    mode: "level",
-    weightKn: (snapshot.massKg * STANDARD_GRAVITY_MS2) / 1000,
-    method: s.drops.method,
-    hook: { x: s.top.hook.x, y: s.top.hook.y, z: s.top.hook.z },
-    tiltDeg: 0,
-    legs,
-    warnings: [...s.warnings.map((w) => ({ code: w.code, message: w.message })), ...notes],
-    rating: {
-      legCount: legs.length,
-      symmetric: false,
-      effectiveLegs: Math.min(3, Math.max(1, active.length)) as 1 | 2 | 3,
-      maxAngleFromVerticalDeg: 0,
-      rule: "Vertical drops from a beam: lever rule for two drops, elastic share of a rigid load for more.",
-      source: "common practice",
-      legs: legs.map((l) => ({
-        liftPointId: l.liftPointId,
-        designTensionKn: l.tensionKn,
-        designTensionKg: l.tensionKg,
-      })),
-      designTensionKn: (maxKg * STANDARD_GRAVITY_MS2) / 1000,
-      designTensionKg: maxKg,
-    },
-    checks: unique,
-    beam: { massKg: beam.massKg, wllKg: beam.wllKg, hookMassKg: s.hookMassKg, topLegs },
-  };
-  return { status: 200, body };
 }

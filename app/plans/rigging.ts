@@ -5,10 +5,12 @@ import type {
   CraneSpec,
   EyeboltSpec,
   InspectionRecord,
+  LegRigging,
+  MasterLinkSpec,
   RiggingDescription,
   ShackleSpec,
   SlingSpec,
-} from "~/statics/checks";
+} from "~/statics/check-types";
 
 export type GearRole = "eyebolt" | "shackle" | "sling" | "masterLink" | "crane";
 
@@ -32,12 +34,14 @@ export type GearPick = {
   lengthM: number | null;
   status: "in_service" | "quarantined" | "withdrawn";
   nextDueOn: string | null;
+  /** The item's own mass, kg, where recorded. */
+  massKg: number | null;
   /** The spec in the checks' terms (without hitch or inspection, added on assembly). */
   spec:
     | { role: "eyebolt"; eyebolt: Omit<EyeboltSpec, "inspection"> }
     | { role: "shackle"; shackle: Omit<ShackleSpec, "inspection"> }
     | { role: "sling"; sling: Omit<SlingSpec, "inspection" | "hitch"> }
-    | { role: "masterLink"; masterLink: { wllKg: number } }
+    | { role: "masterLink"; masterLink: Omit<MasterLinkSpec, "inspection"> }
     | { role: "crane"; crane: Omit<CraneSpec, "inspection"> };
 };
 
@@ -56,7 +60,7 @@ export function assembleRigging(
 ): RiggingDescription {
   const legs: NonNullable<RiggingDescription["legs"]> = {};
   for (const [label, leg] of Object.entries(allocation.legs)) {
-    const out: NonNullable<RiggingDescription["legs"]>[string] = {};
+    const out: LegRigging = leg.eyePlane ? { eyePlane: leg.eyePlane } : {};
     const eyebolt = leg.eyeboltItemId !== undefined ? picks.get(leg.eyeboltItemId) : undefined;
     if (eyebolt?.spec.role === "eyebolt") out.eyebolt = { ...eyebolt.spec.eyebolt, inspection: inspection(eyebolt) };
     const shackle = leg.shackleItemId !== undefined ? picks.get(leg.shackleItemId) : undefined;

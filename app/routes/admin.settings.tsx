@@ -1,16 +1,20 @@
 import { data, Form, redirect } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/admin.settings";
-import { Button, Card, Field, PageHeader } from "~/components/ui/form";
+import { Button, Card, Field, PageHeader, SelectField } from "~/components/ui/form";
 import { DEFAULT_TIME_ZONE, formatDate, isTimeZone, todayIn } from "~/utils/dates";
 import { parseForm, requiredText, requireFormData } from "~/utils/forms";
 import { recordAudit } from "~/models/audit-event.server";
 import { getOrganisation, updateOrganisationSettings } from "~/models/organisation.server";
+import { getReferenceTables } from "~/models/reference-row.server";
+import { DEFAULT_RULE_SET, isRuleSetId, RULE_SET_IDS } from "~/statics/reference";
 import { flashNotice, requireUserWithRole } from "~/utils/session.server";
 
 const schema = z.object({
   name: requiredText("organisation's name", 200),
   allowSelfApproval: z.preprocess((v) => v === "on", z.boolean()),
+  // Absent (an older form): the organisation keeps its rules.
+  ruleSet: z.enum(RULE_SET_IDS, { error: "Choose the rules your organisation works to: UK / EU or US." }).optional(),
   // Left out of a form that does not show it: the zone stays as it is.
   timeZone: z
     .string()
@@ -29,9 +33,17 @@ export async function loader({ request }: Route.LoaderArgs) {
   const admin = await requireUserWithRole(request, "admin");
   const organisation = await getOrganisation(admin.organisationId);
   if (!organisation) throw data({ message: "Your organisation was not found." }, { status: 404 });
+  const tables = await getReferenceTables();
   return {
     name: organisation.name,
     allowSelfApproval: organisation.allowSelfApproval,
+    ruleSet: isRuleSetId(organisation.ruleSet) ? organisation.ruleSet : DEFAULT_RULE_SET,
+    ruleSets: tables.ruleSets.map((r) => ({
+      id: r.id,
+      name: r.name,
+      standards: r.standards,
+      examinations: r.examinationSource,
+    })),
     timeZone: organisation.timeZone,
     today: todayIn(organisation.timeZone),
   };
@@ -65,6 +77,28 @@ export default function OrganisationSettings({ loaderData, actionData }: Route.C
       <Card className="max-w-xl">
         <Form method="post" className="space-y-4">
           <Field label="Organisation name" name="name" defaultValue={loaderData.name} required errors={errors.name} />
+          <div>
+            <SelectField
+              label="Rules the organisation works to"
+              name="ruleSet"
+              defaultValue={loaderData.ruleSet}
+              errors={errors.ruleSet}
+              options={loaderData.ruleSets.map((r) => ({ value: r.id, label: `${r.name}: ${r.standards}` }))}
+            />
+            <p className="mt-1 text-sm text-ink-soft">
+              The rule set gives every hitch and multi-leg factor, the sling angle limits, the eyebolt and shackle
+              tables and the longest examination intervals; each check and printed plan names it. Plans are worked out
+              again under the new rules when next saved, submitted or approved. Local regulations and the appointed
+              person still decide.
+            </p>
+            <ul className="mt-1 list-disc pl-5 text-xs text-ink-soft">
+              {loaderData.ruleSets.map((r) => (
+                <li key={r.id}>
+                  {r.name}: {r.examinations}
+                </li>
+              ))}
+            </ul>
+          </div>
           <label className="flex items-start gap-2 text-sm">
             <input
               type="checkbox"

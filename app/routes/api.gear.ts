@@ -2,6 +2,7 @@ import { z } from "zod";
 import type { Route } from "./+types/api.gear";
 import { withoutControlCharacters } from "~/utils/forms";
 import { searchGearPicks } from "~/gear/picks.server";
+import { getOrganisationRuleSet } from "~/models/organisation.server";
 import { getReferenceTables } from "~/models/reference-row.server";
 import { requireUser } from "~/utils/session.server";
 
@@ -25,6 +26,11 @@ export async function loader({ request }: Route.LoaderArgs) {
       { error: parsed.error.issues[0]?.message ?? "The search is not valid.", issues: parsed.error.issues },
       { status: 400 },
     );
-  const items = await searchGearPicks(user.organisationId, parsed.data, await getReferenceTables());
+  const items = await searchGearPicks(
+    user.organisationId,
+    parsed.data,
+    await getReferenceTables(),
+    await getOrganisationRuleSet(user.organisationId),
+  );
   return Response.json({ items });
 }

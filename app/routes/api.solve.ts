@@ -1,5 +1,5 @@
 import type { Route } from "./+types/api.solve";
-import { getOrganisationToday } from "~/models/organisation.server";
+import { getOrganisationRuleSet, getOrganisationToday } from "~/models/organisation.server";
 import { getReferenceTables } from "~/models/reference-row.server";
 import { requireUser } from "~/utils/session.server";
 import { handleSolve } from "~/statics/api";
@@ -35,6 +35,9 @@ export async function action({ request }: Route.ActionArgs) {
     return badRequest("The body is not valid JSON. Send the load, lift points and hook (or leg lengths) as JSON.");
   }
   const tables = await getReferenceTables();
-  const result = handleSolve(body, tables, { todayIso: await getOrganisationToday(user.organisationId) });
+  const result = handleSolve(body, tables, {
+    todayIso: await getOrganisationToday(user.organisationId),
+    defaultRuleSet: await getOrganisationRuleSet(user.organisationId),
+  });
   return Response.json(result.body, { status: result.status });
 }

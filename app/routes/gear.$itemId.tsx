@@ -4,7 +4,7 @@ import { handleGearItemAction, requireGearItem, type GearIntent } from "./gear.$
 import { DueLabel, StatusLabel, formatWll } from "~/components/gear-labels";
 import { ExaminationForm } from "~/components/gear-examination-form";
 import { Button, Card, EmptyState, FormError, PageHeader, SelectField, TextAreaField } from "~/components/ui/form";
-import { dueState, maxExaminationIntervalMonths, type ExaminationRules } from "~/gear/due";
+import { dueState, examinationIntervalMonths, intervalsOf } from "~/gear/due";
 import {
   DEFECT_URGENCY_LABELS,
   EXAMINATION_KIND_LABELS,
@@ -12,10 +12,13 @@ import {
   type ExaminationKind,
 } from "~/gear/schema";
 import { formatDateTime } from "~/utils/dates";
-import { getOrganisationTimeZone, getOrganisationToday } from "~/models/organisation.server";
+import { getOrganisationRuleSet, getOrganisationTimeZone, getOrganisationToday } from "~/models/organisation.server";
 import { GEAR_KIND_INFO, GEAR_STATUS_LABELS, GEAR_STATUSES, SPEC_FIELD_LABELS, type GearStatus } from "~/gear/kinds";
 import { listExaminations } from "~/models/examination.server";
 import { listGearHistory, type GearHistoryEntry } from "~/models/gear-item.server";
+import { getReferenceTables } from "~/models/reference-row.server";
+import { ruleSetRow } from "~/statics/rule-sets";
+import { formatMass } from "~/utils/format";
 import { hasAnyRole } from "~/utils/roles";
 import { requireUser } from "~/utils/session.server";
 
@@ -28,14 +31,19 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     listExaminations(user.organisationId, item.id),
     listGearHistory(user.organisationId, item.id),
   ]);
-  const [today, timeZone] = await Promise.all([
+  const [today, timeZone, ruleSet, tables] = await Promise.all([
     getOrganisationToday(user.organisationId),
     getOrganisationTimeZone(user.organisationId),
+    getOrganisationRuleSet(user.organisationId),
+    getReferenceTables(),
   ]);
+  const rules = ruleSetRow(tables, ruleSet);
   return {
     today,
     timeZone,
-    rules: "uk-eu" as ExaminationRules,
+    units: user.units,
+    intervals: intervalsOf(rules),
+    ruleSetName: rules.name,
     canAdmin: hasAnyRole(user, "admin"),
     item: {
       id: item.id,
@@ -56,6 +64,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       lastExaminedOn: item.lastExaminedOn,
       nextDueOn: item.nextDueOn,
       dueState: dueState(item.nextDueOn, today),
+      massKg: item.massKg,
     },
     examinations: examinations.map((e) => ({
       id: e.id,
@@ -116,7 +125,7 @@ function describeEvent(entry: GearHistoryEntry): string {
 }
 
 export default function GearItemPage({ loaderData, actionData }: Route.ComponentProps) {
-  const { item, examinations, history, canAdmin, today, timeZone, rules } = loaderData;
+  const { item, examinations, history, canAdmin, today, timeZone, units, intervals, ruleSetName } = loaderData;
   const when = (iso: string) => formatDateTime(iso, timeZone);
   const errorsFor = (intent: GearIntent): Record<string, string[] | undefined> =>
     actionData && "intent" in actionData && actionData.intent === intent ? actionData.errors : {};
@@ -225,7 +234,7 @@ export default function GearItemPage({ loaderData, actionData }: Route.Component
               </div>
             )}
             {canAdmin && item.status !== "withdrawn" && (
-              <ExaminationForm kind={item.kind} today={today} rules={rules} errors={errorsFor("examination")} />
+              <ExaminationForm kind={item.kind} today={today} intervals={intervals} errors={errorsFor("examination")} />
             )}
           </Card>
 
@@ -261,13 +270,15 @@ export default function GearItemPage({ loaderData, actionData }: Route.Component
               ))}
               <Spec label="Manufacturer" value={item.manufacturer} />
               <Spec label="Serial number" value={item.serial} />
+              <dt className="text-ink-soft">Own mass</dt>
+              <dd>{item.massKg === null ? "not recorded" : formatMass(item.massKg, units)}</dd>
               <dt className="text-ink-soft">Home site</dt>
               <dd>{item.homeSite ? item.homeSite.name : "none"}</dd>
               <dt className="text-ink-soft">Examination interval</dt>
               <dd>
-                at most {maxExaminationIntervalMonths(item.kind, rules)} months (
-                {info.accessory ? "lifting accessory" : "lifting equipment"},{" "}
-                {rules === "us" ? "ASME B30.9 / B30.26" : "LOLER reg 9(3)"}) unless a written scheme says otherwise
+                at most {examinationIntervalMonths(item.kind, intervals)} months (
+                {info.accessory ? "lifting accessory" : "lifting equipment"}, {ruleSetName}: {intervals.source}) unless
+                a written examination scheme says otherwise
               </dd>
             </dl>
           </Card>

@@ -278,6 +278,14 @@ export default function PlanDetailsPage({ loaderData, actionData }: Route.Compon
               </span>
               <FieldError errors={errors.floorClearanceM} />
             </label>
+            <label className="text-sm font-medium">
+              Planned lift date
+              <input className={input} name="liftDate" type="date" defaultValue={details.liftDate ?? ""} />
+              <span className="mt-1 block text-xs text-ink-soft">
+                Every allocated item must be in date for thorough examination on this day as well as today.
+              </span>
+              <FieldError errors={errors.liftDate} />
+            </label>
           </div>
         </Card>
         <Card title="People">

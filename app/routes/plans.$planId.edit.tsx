@@ -5,6 +5,7 @@ import { PlanEditor } from "~/components/plan-editor";
 import { PageHeader } from "~/components/ui/form";
 import { gearPicksByIds } from "~/gear/picks.server";
 import { listComponentFiles } from "~/models/component.server";
+import { getOrganisationRuleSet } from "~/models/organisation.server";
 import { getPlan } from "~/models/plan.server";
 import { getReferenceTables } from "~/models/reference-row.server";
 import { planJson } from "~/plans/api.server";
@@ -29,13 +30,26 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const found = await getPlan(user.organisationId, Number(params.planId));
   if (!found) throw data({ message: "There is no such plan in your organisation." }, { status: 404 });
   const plan = await planJson(user.organisationId, found);
-  const picks = await gearPicksByIds(user.organisationId, allocatedIds(plan.rigging), await getReferenceTables());
+  const ruleSet = await getOrganisationRuleSet(user.organisationId);
+  const picks = await gearPicksByIds(
+    user.organisationId,
+    allocatedIds(plan.rigging),
+    await getReferenceTables(),
+    ruleSet,
+  );
   const files = plan.componentId
     ? (await listComponentFiles(plan.componentId))
         .filter((f) => f.storedFile?.contentType.startsWith("image/"))
         .map((f) => ({ fileId: f.storedFileId, name: f.storedFile?.originalName ?? "", caption: f.caption }))
     : [];
-  return { plan, picks, files, units: user.units, canEdit: plan.status === "draft" || plan.status === "returned" };
+  return {
+    plan,
+    picks,
+    files,
+    ruleSet,
+    units: user.units,
+    canEdit: plan.status === "draft" || plan.status === "returned",
+  };
 }
 
 function useHydrated() {
@@ -45,7 +59,7 @@ function useHydrated() {
 }
 
 export default function EditPlan({ loaderData }: Route.ComponentProps) {
-  const { plan, picks, files, units, canEdit } = loaderData;
+  const { plan, picks, files, units, canEdit, ruleSet } = loaderData;
   const hydrated = useHydrated();
   return (
     <>
@@ -73,7 +87,7 @@ export default function EditPlan({ loaderData }: Route.ComponentProps) {
         </p>
       )}
       {hydrated ? (
-        <PlanEditor plan={plan} units={units} initialPicks={picks} files={files} canEdit={canEdit} />
+        <PlanEditor plan={plan} units={units} initialPicks={picks} files={files} canEdit={canEdit} ruleSet={ruleSet} />
       ) : (
         <p className="rounded border border-dashed border-rule p-6 text-sm text-ink-soft">Loading the editor…</p>
       )}

@@ -1,7 +1,10 @@
 import { data, Form, redirect } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/plans.$planId.review";
-import { StatusBadge, utilisationText } from "~/components/live-results";
+import { warningsBesideChecks } from "~/components/live-results";
+import { ChecksList } from "~/components/results/checks-list";
+import { GoverningSummary } from "~/components/results/governing-summary";
+import { LegTable } from "~/components/results/leg-table";
 import { Button, Card, Field, FormError, PageHeader, TextAreaField } from "~/components/ui/form";
 import { parseForm, requireFormData } from "~/utils/forms";
 import { getPlan, planExists } from "~/models/plan.server";
@@ -71,8 +74,8 @@ export async function action({ request, params }: Route.ActionArgs) {
 export default function ReviewPlan({ loaderData, actionData }: Route.ComponentProps) {
   const { plan, revision, acknowledgements, permissions, approverName, units } = loaderData;
   const s = revision.snapshot;
-  const checks = revision.results.status === 200 ? (revision.results.body.checks ?? []) : [];
-  const legs = revision.results.status === 200 ? revision.results.body.legs : [];
+  const results = revision.results.status === 200 ? revision.results.body : null;
+  const checks = results?.checks ?? [];
   const fieldError = (name: string) =>
     actionData?.field === name && actionData.error ? [actionData.error] : undefined;
   return (
@@ -100,29 +103,36 @@ export default function ReviewPlan({ loaderData, actionData }: Route.ComponentPr
               {formatLength(s.cog.x, units)}, {formatLength(s.cog.y, units)}, {formatLength(s.cog.z, units)}) (
               {s.cogSource}).
             </p>
-            <ul className="mt-2 text-sm">
-              {legs.map((l) => (
-                <li key={l.liftPointId}>
-                  Leg {l.liftPointId}: {l.tensionKn.toFixed(2)} kN ({Math.ceil(l.tensionKg).toLocaleString("en-GB")}{" "}
-                  kg), {l.angleFromVerticalDeg.toFixed(1)}° from vertical
-                </li>
-              ))}
-            </ul>
+            {results ? (
+              <div className="mt-2 space-y-2">
+                <LegTable
+                  legs={results.legs}
+                  design={results.rating.legs}
+                  checks={checks}
+                  units={units}
+                  beam={revision.results.kind === "beam"}
+                />
+                <p className="text-xs text-ink-soft">
+                  Rating: {results.rating.rule} ({results.rating.source}). Tensions are before contingency; the checks
+                  add it.
+                </p>
+                {warningsBesideChecks(results.warnings).map((w, i) => (
+                  <p key={i} className="text-sm text-warn">
+                    ⚠ {w.message}
+                  </p>
+                ))}
+              </div>
+            ) : (
+              <p role="alert" className="mt-2 text-sm text-fail">
+                {revision.results.status !== 200 ? revision.results.body.error : ""}
+              </p>
+            )}
           </Card>
           <Card title="Checks">
-            <ul className="space-y-1 text-sm">
-              {checks.map((c) => (
-                <li key={c.id} className="flex gap-2">
-                  <StatusBadge status={c.status} />
-                  <span>
-                    {c.message}{" "}
-                    {c.utilisation !== null && (
-                      <span className="text-ink-soft">({utilisationText(c.utilisation)})</span>
-                    )}
-                  </span>
-                </li>
-              ))}
-            </ul>
+            <GoverningSummary checks={checks} units={units} ruleSet={results?.ruleSet} />
+            <div className="mt-3">
+              <ChecksList checks={checks} units={units} empty="No checks: no gear was allocated." />
+            </div>
             {acknowledgements.length > 0 && (
               <div className="mt-3 text-sm">
                 <p className="font-semibold">Warnings the planner acknowledged</p>

@@ -1,6 +1,9 @@
 import { data, Form, redirect } from "react-router";
 import type { Route } from "./+types/plans.$planId.submit";
-import { StatusBadge, utilisationText } from "~/components/live-results";
+import { ChecksList } from "~/components/results/checks-list";
+import { GoverningSummary } from "~/components/results/governing-summary";
+import { StatusBadge } from "~/components/results/status-badge";
+import { checkSentence, itemText } from "~/plans/check-text";
 import { Button, Card, FormError, PageHeader } from "~/components/ui/form";
 import { requireFormData } from "~/utils/forms";
 import { getPlan } from "~/models/plan.server";
@@ -24,6 +27,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     },
     error: results.status === 200 ? null : results.body.error,
     checks: results.status === 200 ? (results.body.checks ?? []) : [],
+    ruleSet: results.status === 200 ? (results.body.ruleSet ?? null) : null,
+    units: user.units,
   };
 }
 
@@ -47,7 +52,7 @@ export async function action({ request, params }: Route.ActionArgs) {
 }
 
 export default function SubmitPlan({ loaderData, actionData }: Route.ComponentProps) {
-  const { plan, checks, error } = loaderData;
+  const { plan, checks, error, units, ruleSet } = loaderData;
   const warnings = checks.filter((c) => c.status === "warn");
   const failing = checks.filter((c) => c.status === "fail");
   return (
@@ -68,17 +73,10 @@ export default function SubmitPlan({ loaderData, actionData }: Route.ComponentPr
         {failing.length > 0 && (
           <p className="mb-2 text-sm text-fail">Failing checks must be put right before the plan can be submitted.</p>
         )}
-        <ul className="space-y-1 text-sm">
-          {checks.map((c) => (
-            <li key={c.id} className="flex gap-2">
-              <StatusBadge status={c.status} />
-              <span>
-                {c.message}{" "}
-                {c.utilisation !== null && <span className="text-ink-soft">({utilisationText(c.utilisation)})</span>}
-              </span>
-            </li>
-          ))}
-        </ul>
+        <GoverningSummary checks={checks} units={units} ruleSet={ruleSet ?? undefined} />
+        <div className="mt-3">
+          <ChecksList checks={checks} units={units} />
+        </div>
       </Card>
       <Form method="post" className="mt-4 space-y-4">
         {warnings.length > 0 && (
@@ -89,7 +87,8 @@ export default function SubmitPlan({ loaderData, actionData }: Route.ComponentPr
             <div className="space-y-3">
               {warnings.map((w) => (
                 <label key={w.id} className="block text-sm">
-                  <span className="font-semibold">{w.item}</span>: {w.message}
+                  <StatusBadge verdict="warn" /> <span className="font-semibold">{itemText(w)}</span>:{" "}
+                  {checkSentence(w, units)}
                   <textarea
                     name={`ack-${w.id}`}
                     required

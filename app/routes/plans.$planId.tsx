@@ -12,9 +12,13 @@ import { WorkflowPanel } from "~/components/plan-workflow-panel";
 import { HITCH_LABELS, PERSON_ROLE_LABELS, PLAN_CAUTION, PLAN_STATUS_LABELS, type PlanResults } from "~/plans/document";
 import { hasAnyRole } from "~/utils/roles";
 import { flashNotice, requireUser, requireUserWithRole } from "~/utils/session.server";
-import type { CheckStatus } from "~/statics/checks";
-import { ceilTo } from "~/statics/units";
-import { formatLength, formatMass, type Units } from "~/utils/format";
+import { warningsBesideChecks } from "~/components/live-results";
+import { ChecksList } from "~/components/results/checks-list";
+import { GoverningSummary } from "~/components/results/governing-summary";
+import { LegTable } from "~/components/results/leg-table";
+import { StatusBadge } from "~/components/results/status-badge";
+import { worstVerdict } from "~/plans/check-text";
+import { formatAngle, formatCapacity, formatLength, formatLoad, formatMass, type Units } from "~/utils/format";
 
 const schema = z.discriminatedUnion("intent", [
   z.object({ intent: z.literal("pull-component"), version: z.coerce.number().int().positive() }),
@@ -123,27 +127,6 @@ export async function action({ request, params }: Route.ActionArgs) {
   }
 }
 
-const STATUS_STYLE: Record<CheckStatus, { label: string; className: string }> = {
-  pass: { label: "Pass", className: "bg-pass-soft text-pass" },
-  warn: { label: "Warning", className: "bg-warn-soft text-warn" },
-  fail: { label: "Fail", className: "bg-fail-soft text-fail" },
-};
-
-function StatusTag({ status }: { status: CheckStatus }) {
-  const s = STATUS_STYLE[status];
-  return <span className={`inline-block rounded px-2 py-0.5 text-xs font-semibold ${s.className}`}>{s.label}</span>;
-}
-
-/** Utilisation as a percentage, only ever rounded up. */
-function utilisationText(u: number | null) {
-  if (u === null) return "—";
-  if (!Number.isFinite(u)) return "no capacity";
-  return `${ceilTo(u * 100, 0)} %`;
-}
-
-const kn = (x: number) => `${ceilTo(x, 2).toFixed(2)} kN`;
-const degText = (x: number) => `${x.toFixed(1)}°`;
-
 function Results({ results, units }: { results: PlanResults; units: Units }) {
   if (results.status !== 200) {
     return (
@@ -155,11 +138,7 @@ function Results({ results, units }: { results: PlanResults; units: Units }) {
   }
   const r = results.body;
   const checks = r.checks ?? [];
-  const worst: CheckStatus = checks.some((c) => c.status === "fail")
-    ? "fail"
-    : checks.some((c) => c.status === "warn")
-      ? "warn"
-      : "pass";
+  const warnings = warningsBesideChecks(r.warnings);
   return (
     <div className="space-y-4">
       <p className="text-sm">
@@ -172,57 +151,24 @@ function Results({ results, units }: { results: PlanResults; units: Units }) {
         {r.method === "elastic"
           ? "share of a rigid load on equally stretchy legs (four legs are statically indeterminate)"
           : "statically determinate"}
-        {r.tiltDeg > 0.05 ? ` · the load tilts ${degText(r.tiltDeg)}` : ""}
+        {r.tiltDeg > 0.05 ? ` · the load tilts ${formatAngle(r.tiltDeg)}` : ""}
         {" · computed on "}
         {results.computedOn}
       </p>
-      <div className="overflow-x-auto">
-        <table>
-          <thead>
-            <tr>
-              <th scope="col">{results.kind === "beam" ? "Drop to" : "Leg to"}</th>
-              <th scope="col">Length</th>
-              <th scope="col">Tension</th>
-              <th scope="col">Rated for</th>
-              <th scope="col">From vertical</th>
-              <th scope="col">Off the bolt axis</th>
-            </tr>
-          </thead>
-          <tbody>
-            {r.legs.map((leg) => {
-              const design = r.rating.legs.find((l) => l.liftPointId === leg.liftPointId);
-              return (
-                <tr key={leg.liftPointId}>
-                  <td className="font-semibold">{leg.liftPointId}</td>
-                  <td>{formatLength(leg.lengthM, units)}</td>
-                  <td>
-                    {leg.slack ? "slack" : `${kn(leg.tensionKn)} (${formatMass(Math.ceil(leg.tensionKg), units)})`}
-                  </td>
-                  <td>
-                    {design
-                      ? `${kn(design.designTensionKn)} (${formatMass(Math.ceil(design.designTensionKg), units)})`
-                      : "—"}
-                  </td>
-                  <td>{degText(leg.angleFromVerticalDeg)}</td>
-                  <td>{degText(leg.axisAngleDeg)}</td>
-                </tr>
-              );
-            })}
-          </tbody>
-        </table>
-      </div>
+      <GoverningSummary checks={checks} units={units} ruleSet={r.ruleSet} />
+      <LegTable legs={r.legs} design={r.rating.legs} checks={checks} units={units} beam={results.kind === "beam"} />
       <p className="text-xs text-ink-soft">
         Rating: {r.rating.rule} ({r.rating.source}). Tensions are before contingency; the checks add it.
       </p>
       {r.beam && (
         <p className="text-sm">
-          Beam {formatMass(r.beam.massKg, units)}, marked WLL {formatMass(r.beam.wllKg, units)}; the hook carries{" "}
-          {formatMass(Math.ceil(r.beam.hookMassKg), units)} before contingency.
+          Beam {formatMass(r.beam.massKg, units)}, marked WLL {formatCapacity(r.beam.wllKg, units)}; the hook carries{" "}
+          {formatLoad(r.beam.hookMassKg, units)} before contingency.
         </p>
       )}
-      {r.warnings.length > 0 && (
+      {warnings.length > 0 && (
         <ul className="space-y-1 text-sm">
-          {r.warnings.map((w, i) => (
+          {warnings.map((w, i) => (
             <li key={i} className="rounded border border-warn/40 bg-warn-soft px-3 py-1 text-warn">
               {w.message}
             </li>
@@ -230,41 +176,9 @@ function Results({ results, units }: { results: PlanResults; units: Units }) {
         </ul>
       )}
       <h3 className="text-base font-semibold">
-        Checks <StatusTag status={worst} />
+        Checks <StatusBadge verdict={worstVerdict(checks)} />
       </h3>
-      {checks.length === 0 ? (
-        <p className="text-sm text-ink-soft">No checks yet.</p>
-      ) : (
-        <div className="overflow-x-auto">
-          <table>
-            <thead>
-              <tr>
-                <th scope="col">Item</th>
-                <th scope="col">Result</th>
-                <th scope="col">Utilisation</th>
-                <th scope="col">What it means</th>
-              </tr>
-            </thead>
-            <tbody>
-              {checks.map((c) => (
-                <tr key={c.id}>
-                  <td>{c.item}</td>
-                  <td>
-                    <StatusTag status={c.status} />
-                  </td>
-                  <td>{utilisationText(c.utilisation)}</td>
-                  <td>
-                    {c.message}
-                    <span className="block text-xs text-ink-soft">
-                      {c.rule} · {c.source}
-                    </span>
-                  </td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
-      )}
+      <ChecksList checks={checks} units={units} empty="No checks yet." />
     </div>
   );
 }
@@ -479,6 +393,10 @@ export default function PlanPage({ loaderData, actionData }: Route.ComponentProp
               <div>
                 <dt className="text-ink-soft">Underside clear of the floor by</dt>
                 <dd>{formatLength(details.floorClearanceM, units)}</dd>
+              </div>
+              <div>
+                <dt className="text-ink-soft">Planned lift date</dt>
+                <dd>{details.liftDate ?? "not set"}</dd>
               </div>
             </dl>
           </Card>

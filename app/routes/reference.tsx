@@ -15,8 +15,9 @@ const TITLES: Record<string, string> = {
   chainGrade80Us: "Grade 80 chain (US), rated load in lb",
   wireRope: "Wire rope slings, single leg, tonnes",
   textileColours: "Textile slings: colour by WLL in a straight lift",
-  hitchFactors: "Hitch factors",
-  modeFactors: "Multi-leg mode factors",
+  hitchFactors: "Hitch factors, by rule set",
+  modeFactors: "Multi-leg mode factors, by rule set",
+  ruleSets: "Rule sets: angle limits, eyebolt tables and examination intervals",
 };
 
 export async function loader({ request }: Route.LoaderArgs) {
@@ -46,7 +47,7 @@ export default function Reference({ loaderData }: Route.ComponentProps) {
           const sources = [...new Set(table.rows.map((r) => r.source))];
           return (
             <Card key={table.name} title={table.title}>
-              <div className="overflow-x-auto">
+              <div className="overflow-x-auto" tabIndex={0} role="region" aria-label={table.title}>
                 <table>
                   <thead>
                     <tr>

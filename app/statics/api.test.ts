@@ -23,7 +23,7 @@ describe("200: level and given-lengths answers", () => {
     expect(r.status).toBe(200);
     if (r.status !== 200) return;
     const b = r.body;
-    expect(Object.keys(b).sort()).toEqual(["hook", "legs", "method", "mode", "rating", "tiltDeg", "warnings", "weightKn"]);
+    expect(Object.keys(b).sort()).toEqual(["checks", "hook", "legs", "method", "mode", "rating", "ruleSet", "tiltDeg", "warnings", "weightKn"]);
     expect(b.mode).toBe("level");
     expect(b.method).toBe("determinate");
     expect(b.weightKn).toBeCloseTo(19.6133, 12);

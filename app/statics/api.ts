@@ -1,8 +1,10 @@
 // The /api/solve contract: body schema, and a handler that never throws for any input.
 import { z } from "zod";
+import { checkSentence } from "~/plans/check-text";
 import { solveGivenLengths, solveLevel, type BridleSolution, type LiftPoint } from "./bridle";
-import { checkRigging, type CheckResult, type RiggingDescription } from "./checks";
-import type { ReferenceTables } from "./reference";
+import type { Check, CheckResult, RiggingDescription } from "./check-types";
+import { angleChecks, checkRigging } from "./checks";
+import { DEFAULT_RULE_SET, RULE_SET_IDS, type ReferenceTables, type RuleSetId } from "./reference";
 
 /** Largest load mass accepted, kg (100,000 t: beyond any crane lift). */
 export const MAX_MASS_KG = 1e8;
@@ -20,10 +22,13 @@ const positiveMass = z.number().gt(0).max(MAX_MASS_KG);
 const id = z.string().min(1).max(64);
 
 const wll = z.object({ value: positiveMass, unit: z.enum(["kg", "t", "lb", "shortTon"]) });
+const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, "Use a YYYY-MM-DD date.");
+/** An item's identity in the register and its own mass (kg), added to the hook and crane loads. */
+const identity = { itemCode: id.optional(), massKg: z.number().min(0).max(1e6).optional() };
 const inspection = z.object({
   itemId: id,
   status: z.enum(["in_service", "quarantined", "withdrawn"]),
-  examinationDue: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, "Use a YYYY-MM-DD date."),
+  examinationDue: isoDate,
 });
 const oneWll = (v: { wllKg?: number | undefined; wll?: unknown }): boolean => !(v.wllKg !== undefined && v.wll !== undefined);
 const oneWllMessage = { message: "Give either wllKg or wll, not both." };
@@ -37,7 +42,10 @@ const slingSpec = z
     grade: z.string().max(16).optional(),
     diameterMm: z.number().gt(0).max(500).optional(),
     colour: z.string().max(16).optional(),
+    assemblyLegs: z.number().int().min(1).max(4).optional(),
+    assemblyWll: wll.optional(),
     inspection: inspection.optional(),
+    ...identity,
   })
   .refine(oneWll, oneWllMessage);
 const shackleSpec = z
@@ -48,6 +56,7 @@ const shackleSpec = z
     pin: z.enum(["screw", "bolt"]).optional(),
     sideLoadAngleDeg: z.number().min(0).max(180).optional(),
     inspection: inspection.optional(),
+    ...identity,
   })
   .refine(oneWll, oneWllMessage);
 const eyeboltSpec = z
@@ -58,23 +67,43 @@ const eyeboltSpec = z
     wll: wll.optional(),
     eyeAlignedWithPull: z.boolean().optional(),
     inspection: inspection.optional(),
+    ...identity,
   })
   .refine(oneWll, oneWllMessage);
 
 export const riggingSchema = z.object({
-  legs: z.record(id, z.object({ sling: slingSpec.optional(), shackle: shackleSpec.optional(), eyebolt: eyeboltSpec.optional() })).optional(),
+  legs: z
+    .record(
+      id,
+      z.object({
+        sling: slingSpec.optional(),
+        shackle: shackleSpec.optional(),
+        eyebolt: eyeboltSpec.optional(),
+        eyePlane: z.enum(["pull", "x", "y"]).optional(),
+      }),
+    )
+    .optional(),
   sharedShackles: z
     .array(
       z
-        .object({ legIds: z.tuple([id, id]), wllKg: positiveMass.optional(), wll: wll.optional(), inspection: inspection.optional() })
+        .object({ legIds: z.tuple([id, id]), wllKg: positiveMass.optional(), wll: wll.optional(), inspection: inspection.optional(), ...identity })
         .refine(oneWll, oneWllMessage)
         .refine((s) => s.legIds[0] !== s.legIds[1], { message: "A shared shackle joins two different legs." }),
     )
     .max(4)
     .optional(),
-  masterLink: z.object({ wllKg: positiveMass.optional(), wll: wll.optional(), inspection: inspection.optional() }).refine(oneWll, oneWllMessage).optional(),
+  masterLink: z
+    .object({ wllKg: positiveMass.optional(), wll: wll.optional(), inspection: inspection.optional(), ...identity })
+    .refine(oneWll, oneWllMessage)
+    .optional(),
   crane: z
-    .object({ swlKg: positiveMass, maxHookHeightM: z.number().gt(0).max(MAX_COORD_M).optional(), inspection: inspection.optional() })
+    .object({
+      swlKg: positiveMass,
+      swl: wll.optional(),
+      maxHookHeightM: z.number().gt(0).max(MAX_COORD_M).optional(),
+      itemCode: id.optional(),
+      inspection: inspection.optional(),
+    })
     .optional(),
   headroom: z.object({ clearanceAboveFloorM: z.number().min(0).max(MAX_COORD_M), loadUndersideZM: coord.optional() }).optional(),
   contingencyPct: z.number().min(0).max(100).optional(),
@@ -91,6 +120,9 @@ export const solveBodySchema = z
     hook: z.object({ z: coord }).optional(),
     legLengths: z.record(z.string(), z.number().min(0).max(MAX_LEG_LENGTH_M)).optional(),
     rigging: riggingSchema.optional(),
+    ruleSet: z.enum(RULE_SET_IDS).optional(),
+    /** The planned lift date: inspections are judged against it as well as today. */
+    liftDate: isoDate.optional(),
   })
   .superRefine((body, ctx) => {
     const ids = body.liftPoints.map((p) => p.id);
@@ -143,6 +175,9 @@ export interface SolveResponseBody {
   legs: SolveLegBody[];
   warnings: Array<{ code: string; message: string }>;
   rating: BridleSolution["rating"];
+  /** The rule set the checks applied (absent only in results stored before rule sets). */
+  ruleSet?: RuleSetId;
+  /** Every solve answers with the leg-angle checks; rigging adds a check per item (optional only for results stored before). */
   checks?: CheckResult[];
 }
 
@@ -154,6 +189,8 @@ export type SolveResponse =
 export interface SolveContext {
   /** Today's date YYYY-MM-DD for inspection checks (server clock; never taken from the body). */
   todayIso?: string;
+  /** The rule set when the body names none (the organisation's); default UK / EU. */
+  defaultRuleSet?: RuleSetId;
 }
 
 function describeIssue(issue: z.core.$ZodIssue): string {
@@ -170,8 +207,23 @@ export function toLiftPoints(body: SolveBody): LiftPoint[] {
   });
 }
 
-/** Maps a core solution to the 200 body of /api/solve. */
-export function toResponseBody(solution: BridleSolution): SolveResponseBody {
+/** A structured check as the API answers it: with the older `status` and a metric `message`, so existing clients keep working. */
+export function toCheckResult(check: Check): CheckResult {
+  return { ...check, status: check.verdict, message: checkSentence(check, "metric", { withUtilisation: true }) };
+}
+
+/** Warnings for legs past the rule set's angles, so a bare solve says so too. */
+function angleWarnings(checks: readonly Check[]): Array<{ code: string; message: string }> {
+  return checks
+    .filter((c) => c.kind === "leg-angle" && c.verdict !== "pass")
+    .map((c) => ({
+      code: c.verdict === "fail" ? "LEG_ANGLE_OVER_MAX" : "LEG_ANGLE_OVER_WARN",
+      message: checkSentence(c, "metric"),
+    }));
+}
+
+/** Maps a core solution to the 200 body of /api/solve (checks added by the caller). */
+export function toResponseBody(solution: BridleSolution, ruleSet: RuleSetId = DEFAULT_RULE_SET): SolveResponseBody {
   return {
     mode: solution.mode,
     weightKn: solution.weightKn,
@@ -190,6 +242,8 @@ export function toResponseBody(solution: BridleSolution): SolveResponseBody {
     })),
     warnings: solution.warnings.map((w) => ({ code: w.code, message: w.message })),
     rating: solution.rating,
+    ruleSet,
+    checks: [],
   };
 }
 
@@ -208,19 +262,23 @@ function solveParsed(body: SolveBody, tables: ReferenceTables, context: SolveCon
     );
   }
   if (!outcome.ok) return { status: 422, body: { error: outcome.message, code: outcome.code } };
-  const responseBody = toResponseBody(outcome.solution);
-  if (body.rigging !== undefined) {
-    const rigging: RiggingDescription = body.rigging as RiggingDescription;
-    responseBody.checks = checkRigging(
-      outcome.solution,
-      body.load.massKg,
-      body.load.cog,
-      body.liftPoints.map((p) => ({ id: p.id, thread: p.thread })),
-      rigging,
-      tables,
-      context.todayIso,
-    );
-  }
+  const ruleSet = body.ruleSet ?? context.defaultRuleSet ?? DEFAULT_RULE_SET;
+  const responseBody = toResponseBody(outcome.solution, ruleSet);
+  const checks =
+    body.rigging !== undefined
+      ? checkRigging(
+          outcome.solution,
+          body.load.massKg,
+          body.load.cog,
+          points.map((p, i) => ({ id: p.id, thread: body.liftPoints[i]!.thread, axis: p.axis })),
+          body.rigging as RiggingDescription,
+          tables,
+          context.todayIso,
+          { ruleSet, liftDateIso: body.liftDate ?? null },
+        )
+      : angleChecks(outcome.solution, tables, ruleSet);
+  responseBody.checks = checks.map(toCheckResult);
+  responseBody.warnings.push(...angleWarnings(checks));
   return { status: 200, body: responseBody };
 }
 

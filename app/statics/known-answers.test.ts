@@ -202,7 +202,7 @@ describe("DIN 580 collar eyebolts (DIN 580 annex table; 90 deg column 2010 editi
   it("M16 collar eyebolt at 30 deg with a 480 kg leg passes at 500 kg (DIN 580 up-to-45 column)", () => {
     const c = checkEyebolt("A", 480, 30, { family: "collar", thread: "M16" }, "M16", REFERENCE_TABLES);
     expect(c.capacityKg).toBe(500);
-    expect(c.status).toBe("pass");
+    expect(c.verdict).toBe("pass");
     expect(c.utilisation).toBeCloseTo(0.96, 12);
   });
 });
@@ -228,8 +228,8 @@ describe("shoulder eyebolts, angular pull (US practice, ASME B18.15-type tables)
     expect(c.capacityKg).toBeCloseTo(650, 9);
   });
   it("plain eyebolt: in-line pull only (ASME B30.26) - 6 deg fails", () => {
-    expect(checkEyebolt("C", 10, 6, { family: "plain", thread: "M16", wllKg: 700 }, "M16", REFERENCE_TABLES).status).toBe("fail");
-    expect(checkEyebolt("C", 10, 4, { family: "plain", thread: "M16", wllKg: 700 }, "M16", REFERENCE_TABLES).status).toBe("pass");
+    expect(checkEyebolt("C", 10, 6, { family: "plain", thread: "M16", wllKg: 700 }, "M16", REFERENCE_TABLES).verdict).toBe("fail");
+    expect(checkEyebolt("C", 10, 4, { family: "plain", thread: "M16", wllKg: 700 }, "M16", REFERENCE_TABLES).verdict).toBe("pass");
   });
 });
 

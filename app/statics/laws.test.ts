@@ -254,7 +254,7 @@ describe("utilisation is non-decreasing with load", () => {
         const hi = Math.max(a, b);
         const rank = { pass: 0, warn: 1, fail: 2 } as const;
         const sling = { kind: "wire" as const, diameterMm: 16, hitch: "choke" as const };
-        expect(rank[checkSlingLeg("A", hi, sling, REFERENCE_TABLES).status]).toBeGreaterThanOrEqual(rank[checkSlingLeg("A", lo, sling, REFERENCE_TABLES).status]);
+        expect(rank[checkSlingLeg("A", hi, sling, REFERENCE_TABLES).verdict]).toBeGreaterThanOrEqual(rank[checkSlingLeg("A", lo, sling, REFERENCE_TABLES).verdict]);
       }),
       { numRuns: RUNS },
     );

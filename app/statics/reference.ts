@@ -5,6 +5,38 @@ import { massToKg, type MassUnit } from "./units";
 export type SlingKind = "chain" | "wire" | "web" | "round";
 export type Hitch = "straight" | "choke" | "basket";
 
+/** The rules an organisation works to: UK/EU (LOLER, EN, DIN) or US (ASME B30, OSHA). */
+export const RULE_SET_IDS = ["uk-eu", "us"] as const;
+export type RuleSetId = (typeof RULE_SET_IDS)[number];
+export const DEFAULT_RULE_SET: RuleSetId = "uk-eu";
+
+/** How a family of eyebolt is derated for angled pull under a rule set. */
+export type EyeboltMethod = "din580" | "shoulder-percent" | "in-line-only";
+
+/** One rule set: its limits and which tables it rates with. Factors live in the rows that name the set. */
+export interface RuleSetRow {
+  id: RuleSetId;
+  name: string;
+  /** The standards the set works to, in one line. */
+  standards: string;
+  /** Leg angle from vertical counted as vertical, above which it warns, above which it fails, deg. */
+  verticalDeg: number;
+  warnDeg: number;
+  maxDeg: number;
+  angleSource: string;
+  collarEyebolts: EyeboltMethod;
+  shoulderEyebolts: EyeboltMethod;
+  plainEyebolts: EyeboltMethod;
+  eyeboltSource: string;
+  /** Longest interval between thorough examinations without a scheme, months. */
+  accessoryExaminationMonths: number;
+  equipmentExaminationMonths: number;
+  examinationSource: string;
+  /** Largest included angle of two legs on one shackle, deg. */
+  sharedShackleMaxDeg: number;
+  source: string;
+}
+
 /** DIN 580 collar eyebolt capacity per eyebolt, kg. */
 export interface Din580EyeboltRow {
   thread: string;
@@ -16,6 +48,8 @@ export interface Din580EyeboltRow {
 
 /** Percentage of rated load up to an angle (inclusive); used for shoulder eyebolts and shackle side load. */
 export interface AnglePercentRow {
+  /** Set for tables that differ by rule set (shackle side load); absent where one table serves both. */
+  ruleSet?: RuleSetId;
   upToAngleDeg: number;
   percent: number;
   source: string;
@@ -55,6 +89,12 @@ export interface ChainGrade80UsRow {
 export interface WireRopeRow {
   diameterMm: number;
   singleLegT: number;
+  /** Published multi-leg columns (EN 13414-1 Table 4), where the source gives them, tonnes. */
+  twoLegUpTo45T?: number;
+  twoLeg45To60T?: number;
+  multiLegUpTo45T?: number;
+  multiLeg45To60T?: number;
+  endlessChokeT?: number;
   construction: string;
   ropeGradeNmm2: number;
   termination: string;
@@ -70,6 +110,7 @@ export interface TextileColourRow {
 }
 
 export interface HitchFactorRow {
+  ruleSet: RuleSetId;
   hitch: Hitch;
   factor: number;
   source: string;
@@ -77,6 +118,7 @@ export interface HitchFactorRow {
 
 /** Multi-leg mode factor by how many legs are taken to carry and the largest leg angle from vertical. */
 export interface ModeFactorRow {
+  ruleSet: RuleSetId;
   effectiveLegs: 1 | 2 | 3;
   upToAngleDeg: number;
   factor: number;
@@ -94,6 +136,7 @@ export interface ReferenceTables {
   textileColours: readonly TextileColourRow[];
   hitchFactors: readonly HitchFactorRow[];
   modeFactors: readonly ModeFactorRow[];
+  ruleSets: readonly RuleSetRow[];
 }
 
 /** Angles within this of a tabulated angle count as that angle (rounding only), deg. */
@@ -134,17 +177,41 @@ export function din580CapacityAtAngle(row: Din580EyeboltRow, angleDeg: number): 
   return null;
 }
 
-/** Hitch factor for a hitch, or null when the table lacks it. */
-export function findHitchFactor(rows: readonly HitchFactorRow[], hitch: Hitch): HitchFactorRow | null {
-  return rows.find((r) => r.hitch === hitch) ?? null;
+/** Hitch factor for a hitch under a rule set, or null when the table lacks it. */
+export function findHitchFactor(rows: readonly HitchFactorRow[], hitch: Hitch, ruleSet: RuleSetId = DEFAULT_RULE_SET): HitchFactorRow | null {
+  return rows.find((r) => r.hitch === hitch && r.ruleSet === ruleSet) ?? null;
 }
 
-/** Mode factor row for effective legs and the largest angle from vertical (deg); null beyond 60 deg. */
-export function findModeFactor(rows: readonly ModeFactorRow[], effectiveLegs: 1 | 2 | 3, maxAngleFromVerticalDeg: number): ModeFactorRow | null {
+/** Mode factor row for effective legs and the largest angle from vertical (deg) under a rule set; null beyond its table. */
+export function findModeFactor(
+  rows: readonly ModeFactorRow[],
+  effectiveLegs: 1 | 2 | 3,
+  maxAngleFromVerticalDeg: number,
+  ruleSet: RuleSetId = DEFAULT_RULE_SET,
+): ModeFactorRow | null {
   return rowForAngle(
-    rows.filter((r) => r.effectiveLegs === effectiveLegs),
+    rows.filter((r) => r.effectiveLegs === effectiveLegs && r.ruleSet === ruleSet),
     maxAngleFromVerticalDeg,
   );
+}
+
+/** Shackle side-load row for an angle (deg) under a rule set, next larger tabulated angle; null beyond the table. */
+export function findShackleSideLoad(rows: readonly AnglePercentRow[], angleDeg: number, ruleSet: RuleSetId = DEFAULT_RULE_SET): AnglePercentRow | null {
+  return rowForAngle(
+    rows.filter((r) => (r.ruleSet ?? DEFAULT_RULE_SET) === ruleSet),
+    angleDeg,
+  );
+}
+
+/** The rule set row for an id; throws when the tables lack it (a migration is missing). */
+export function requireRuleSet(rows: readonly RuleSetRow[], id: RuleSetId): RuleSetRow {
+  const row = rows.find((r) => r.id === id);
+  if (!row) throw new Error(`The reference tables have no rule set "${id}".`);
+  return row;
+}
+
+export function isRuleSetId(value: unknown): value is RuleSetId {
+  return typeof value === "string" && (RULE_SET_IDS as readonly string[]).includes(value);
 }
 
 /** EN 818-4 grade 8 row by chain diameter (mm), or null. */
@@ -152,14 +219,27 @@ export function findChainGrade8(rows: readonly ChainGrade8Row[], diameterMm: num
   return rows.find((r) => Math.abs(r.diameterMm - diameterMm) < 1e-9) ?? null;
 }
 
-/** Published EN 818-4 multi-leg WLL (t) for effective legs and angle, or null when not tabulated. */
-export function chainGrade8PublishedT(row: ChainGrade8Row, effectiveLegs: 1 | 2 | 3, maxAngleFromVerticalDeg: number): number | null {
+type PublishedColumns = {
+  singleLegT: number;
+  twoLegUpTo45T?: number;
+  twoLeg45To60T?: number;
+  multiLegUpTo45T?: number;
+  multiLeg45To60T?: number;
+};
+
+/** Published multi-leg WLL (t) of an EN 818-4 / EN 13414-1 row for effective legs and angle, or null when not tabulated. */
+export function publishedMultiLegT(row: PublishedColumns, effectiveLegs: 1 | 2 | 3, maxAngleFromVerticalDeg: number): number | null {
   const upTo45 = maxAngleFromVerticalDeg <= 45 + TABLE_ANGLE_TOL_DEG;
   const upTo60 = maxAngleFromVerticalDeg <= 60 + TABLE_ANGLE_TOL_DEG;
   if (!upTo60) return null;
   if (effectiveLegs === 1) return row.singleLegT;
-  if (effectiveLegs === 2) return upTo45 ? row.twoLegUpTo45T : row.twoLeg45To60T;
-  return upTo45 ? row.multiLegUpTo45T : row.multiLeg45To60T;
+  if (effectiveLegs === 2) return (upTo45 ? row.twoLegUpTo45T : row.twoLeg45To60T) ?? null;
+  return (upTo45 ? row.multiLegUpTo45T : row.multiLeg45To60T) ?? null;
+}
+
+/** Published EN 818-4 multi-leg WLL (t) for effective legs and angle, or null when not tabulated. */
+export function chainGrade8PublishedT(row: ChainGrade8Row, effectiveLegs: 1 | 2 | 3, maxAngleFromVerticalDeg: number): number | null {
+  return publishedMultiLegT(row, effectiveLegs, maxAngleFromVerticalDeg);
 }
 
 /** Wire rope sling row by rope diameter (mm), or null. */

@@ -1,4 +1,4 @@
-import { convertLength, convertMass } from "~/statics/units";
+import { convertLength, convertMass, massToKg, POUND_FORCE_N, type MassUnit } from "~/statics/units";
 
 /** A user's unit preference: metric (mm, kg) or imperial (in, lb). */
 export type Units = "metric" | "imperial";
@@ -56,4 +56,94 @@ export function formatLength(m: number, units: Units) {
 /** "2,000 kg" or "4,409 lb". */
 export function formatMass(kg: number, units: Units) {
   return `${grouped(toDisplayMass(kg, units), kg < 10 ? 1 : 0)} ${massUnitLabel(units)}`;
+}
+
+// ----- figures that carry a safety direction: loads up, capacities down -----
+
+// 12 significant digits strip binary noise (1.15 * 1000 = 1149.9999999999998) before rounding.
+function clean(x: number) {
+  return Number(x.toPrecision(12));
+}
+
+/** x rounded up (toward +infinity) to `decimals`. */
+export function roundUp(x: number, decimals: number) {
+  const f = 10 ** decimals;
+  return Math.ceil(clean(x * f)) / f;
+}
+
+/** x rounded down (toward -infinity) to `decimals`. */
+export function roundDown(x: number, decimals: number) {
+  const f = 10 ** decimals;
+  return Math.floor(clean(x * f)) / f;
+}
+
+function massText(value: number, units: Units, direction: "up" | "down") {
+  const decimals = Math.abs(value) < 10 ? 1 : 0;
+  const shown = direction === "up" ? roundUp(value, decimals) : roundDown(value, decimals);
+  return `${grouped(shown, decimals)} ${massUnitLabel(units)}`;
+}
+
+/** A load or tension as a mass, rounded up: "1,650 kg" or "3,636 lb". */
+export function formatLoad(kg: number, units: Units) {
+  return massText(toDisplayMass(kg, units), units, "up");
+}
+
+/** A capacity (WLL, SWL, derated figure), rounded down: "1,149 kg" or "2,533 lb". */
+export function formatCapacity(kg: number, units: Units) {
+  return massText(toDisplayMass(kg, units), units, "down");
+}
+
+/** A force, rounded up: "16.18 kN" or "3,636 lbf". */
+export function formatForce(kn: number, units: Units) {
+  if (units === "metric") return `${grouped(roundUp(kn, 2), 2)} kN`;
+  return `${grouped(roundUp(convertForceKnToLbf(kn), 0), 0)} lbf`;
+}
+
+function convertForceKnToLbf(kn: number) {
+  return (kn * 1000) / POUND_FORCE_N;
+}
+
+const MARKED_UNIT_TEXT: Record<MassUnit, string> = { kg: "kg", t: "t", lb: "lb", shortTon: "US ton" };
+
+/**
+ * A WLL as marked on the item ("1 t", "3.25 US ton"), with its value in the user's units beside it
+ * (rounded down) when the marking is in another unit: "1 t (2,204 lb)".
+ */
+export function formatMarkedWll(wll: { value: number; unit: MassUnit }, units: Units) {
+  const marked = `${grouped(wll.value, Number.isInteger(wll.value) ? 0 : Math.min(3, decimalsOf(wll.value)))} ${MARKED_UNIT_TEXT[wll.unit]}`;
+  const userUnit = units === "metric" ? "kg" : "lb";
+  if (wll.unit === userUnit) return marked;
+  return `${marked} (${formatCapacity(massToKg(wll.value, wll.unit), units)})`;
+}
+
+function decimalsOf(x: number) {
+  const text = String(clean(x));
+  const dot = text.indexOf(".");
+  return dot < 0 ? 0 : text.length - dot - 1;
+}
+
+/** A length that is a minimum to reach, rounded up: "1,235 mm" or "48.62 in". */
+export function formatLengthUp(m: number, units: Units) {
+  return units === "metric"
+    ? `${grouped(roundUp(toDisplayLength(m, units), 0), 0)} mm`
+    : `${grouped(roundUp(toDisplayLength(m, units), 2), 2)} in`;
+}
+
+/** A length that is an available maximum, rounded down. */
+export function formatLengthDown(m: number, units: Units) {
+  return units === "metric"
+    ? `${grouped(roundDown(toDisplayLength(m, units), 0), 0)} mm`
+    : `${grouped(roundDown(toDisplayLength(m, units), 2), 2)} in`;
+}
+
+/** A utilisation as a percentage, never rounded down: "15 %"; "—" when there is none; "no capacity" when infinite. */
+export function formatUtilisation(u: number | null | undefined) {
+  if (u === null || u === undefined || Number.isNaN(u)) return "—";
+  if (!Number.isFinite(u)) return "no capacity";
+  return `${grouped(roundUp(u * 100, 0), 0)} %`;
+}
+
+/** An angle in degrees to one decimal: "45.0°". */
+export function formatAngle(deg: number) {
+  return `${deg.toFixed(1)}°`;
 }

@@ -366,6 +366,37 @@ const DEMO_GEAR: DemoItem[] = [
   },
 ];
 
+/** Each item's own mass, kg (invented, plausible for the size): the crane check adds them to the load. */
+const MASSES_KG: Record<string, number> = {
+  "KR-EB-12-01": 0.18,
+  "KR-EB-12-02": 0.18,
+  "KR-EB-16-01": 0.32,
+  "KR-EB-16-02": 0.32,
+  "KR-EB-20-01": 0.62,
+  "KR-EB-20-02": 0.62,
+  "KR-EB-24-01": 1.05,
+  "KR-EB-24-02": 1.05,
+  "KR-SH-100": 0.14,
+  "KR-SH-200": 0.36,
+  "KR-SH-325-01": 0.76,
+  "KR-SH-325-02": 0.76,
+  "KR-SH-475": 1.25,
+  "KR-SH-D200": 0.31,
+  "KR-CS-08-2L": 7.4,
+  "KR-CS-10-2L": 11.6,
+  "KR-CS-08-1L": 3.6,
+  "KR-WR-12-1L": 2.1,
+  "KR-WS-1T-2M": 0.4,
+  "KR-WS-2T-3M": 0.9,
+  "KR-WS-3T-3M": 1.3,
+  "KR-RS-2T-2M": 0.6,
+  "KR-RS-3T-4M": 1.5,
+  "KR-ML-32": 2.7,
+  "KR-CB-200": 14.5,
+  "KR-LH-160": 7.8,
+  "KR-BM-300": 85,
+};
+
 export async function up() {
   const admin = await findUserByEmail(DEMO_USERS[0]!.email);
   const rigger = await findUserByEmail(DEMO_USERS.find((u) => u.roles.includes("rigger"))!.email);
@@ -381,7 +412,12 @@ export async function up() {
   const today = todayIn(DEFAULT_TIME_ZONE);
   let n = 0;
   for (const demo of DEMO_GEAR) {
-    const input: GearItemInput = { ...NONE, ...demo.item, homeSiteId: demo.site ? siteId(demo.site) : null };
+    const input: GearItemInput = {
+      ...NONE,
+      ...demo.item,
+      massKg: MASSES_KG[demo.item.itemCode] ?? null,
+      homeSiteId: demo.site ? siteId(demo.site) : null,
+    };
     const item = await createGearItem(orgId, input, admin.id);
     if (demo.dueInDays === "never") continue;
     const nextDueOn = addDays(today, demo.dueInDays);

@@ -4,7 +4,9 @@
 // is named (LOLER 1998 reg 9(3)(a) and Schedule 1; ASME B30.9 / B30.26 periodic inspection).
 import { describe, expect, it } from "vitest";
 import * as itemPage from "~/routes/gear.$itemId";
-import { latestNextDue, maxExaminationIntervalMonths } from "~/gear/due";
+import { defaultNextDue, examinationIntervalMonths, intervalsOf } from "~/gear/due";
+import { ruleSetRow } from "~/statics/rule-sets";
+import { REFERENCE_TABLES } from "../../db/seeders/reference-data";
 import { Examination } from "~/models/examination.server";
 import { GearItem } from "~/models/gear-item.server";
 import { addDays, addMonths, DEFAULT_TIME_ZONE, todayIn } from "~/utils/dates";
@@ -30,11 +32,13 @@ function errorsOf(res: { data: unknown }) {
 
 describe("statutory intervals", () => {
   it("LOLER 1998 reg 9(3)(a): 6 months for an accessory, 12 for lifting equipment; ASME B30: at least yearly", () => {
-    expect(maxExaminationIntervalMonths("shackle", "uk-eu")).toBe(6);
-    expect(maxExaminationIntervalMonths("chain_sling", "uk-eu")).toBe(6);
-    expect(maxExaminationIntervalMonths("crane", "uk-eu")).toBe(12);
-    expect(maxExaminationIntervalMonths("shackle", "us")).toBe(12);
-    expect(latestNextDue("shackle", "2026-08-31", "uk-eu")).toBe("2027-02-28");
+    const uk = intervalsOf(ruleSetRow(REFERENCE_TABLES, "uk-eu"));
+    const us = intervalsOf(ruleSetRow(REFERENCE_TABLES, "us"));
+    expect(examinationIntervalMonths("shackle", uk)).toBe(6);
+    expect(examinationIntervalMonths("chain_sling", uk)).toBe(6);
+    expect(examinationIntervalMonths("crane", uk)).toBe(12);
+    expect(examinationIntervalMonths("shackle", us)).toBe(12);
+    expect(defaultNextDue("shackle", "2026-08-31", uk)).toBe("2027-02-28");
   });
 
   it("refuses a next due date past the interval, and accepts it only with a written scheme named", async () => {
