@@ -6,7 +6,7 @@ import {
   rectangleOutlines,
   type ComponentDefinition,
 } from "~/loads/component-definition";
-import { CONTROL_CHARACTER_MESSAGE, hasControlCharacters, type FormResult } from "~/utils/forms";
+import { safeText, type FormResult } from "~/utils/forms";
 import { convertLength } from "~/statics/units";
 import { fromDisplayLength, fromDisplayMass, type Units } from "~/utils/format";
 
@@ -14,23 +14,14 @@ import { fromDisplayLength, fromDisplayMass, type Units } from "~/utils/format";
 export const MAX_LIFT_POINTS = 12;
 export const MAX_PARTS = 30;
 
-// Lift points and parts are written in one multi-row insert, which cannot carry a NUL; no field here needs control characters.
-const text = (max: number) =>
-  z.preprocess(
-    (v) => (typeof v === "string" ? v.trim() : ""),
-    z
-      .string()
-      .max(max, `At most ${max} characters.`)
-      .refine((s) => !hasControlCharacters(s), CONTROL_CHARACTER_MESSAGE),
-  );
+const text = (max: number, options: { multiline?: boolean } = {}) =>
+  z.preprocess((v) => (typeof v === "string" ? v.trim() : ""), safeText(options).max(max, `At most ${max} characters.`));
 const required = (label: string, max: number) =>
   z.preprocess(
     (v) => (typeof v === "string" ? v.trim() : ""),
-    z
-      .string()
+    safeText()
       .min(1, `Enter the ${label}.`)
-      .max(max, `At most ${max} characters.`)
-      .refine((s) => !hasControlCharacters(s), CONTROL_CHARACTER_MESSAGE),
+      .max(max, `At most ${max} characters.`),
   );
 const number = (label: string) =>
   z.preprocess(
@@ -48,7 +39,7 @@ const optionalNumber = (label: string) =>
 
 const headSchema = z.object({
   name: required("component's name", 200),
-  description: text(4000),
+  description: text(4000, { multiline: true }),
   mass: number("mass").refine((v) => v > 0, "The mass must be more than zero."),
   massSource: z.enum(MASS_SOURCES, { error: "Say where the mass comes from." }),
   massNote: text(500),
@@ -62,8 +53,8 @@ const headSchema = z.object({
   cogSource: z.enum(COG_SOURCES, { error: "Say where the CoG comes from." }),
   cogNote: text(500),
   outlineMode: z.enum(["rectangle", "custom"]).default("rectangle"),
-  outlineElevation: text(20000),
-  outlinePlan: text(20000),
+  outlineElevation: text(20000, { multiline: true }),
+  outlinePlan: text(20000, { multiline: true }),
 });
 
 const liftPointSchema = z.object({

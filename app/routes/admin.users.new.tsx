@@ -4,15 +4,14 @@ import type { Route } from "./+types/admin.users.new";
 import { sendInvitation } from "~/accounts/account-mail.server";
 import { RoleCheckboxes } from "~/components/role-checkboxes";
 import { Button, Card, Field, PageHeader } from "~/components/ui/form";
-import { parseForm, requiredText, requireFormData } from "~/utils/forms";
+import { parseForm, requiredText, requireFormData, safeText } from "~/utils/forms";
 import { createUser, findUserByEmail } from "~/models/user.server";
 import { ROLES } from "~/utils/roles";
 import { flashNotice, requireUserWithRole } from "~/utils/session.server";
 
 const schema = z.object({
   name: requiredText("name", 200),
-  email: z
-    .string({ error: "Enter an e-mail address." })
+  email: safeText({ error: "Enter an e-mail address." })
     .trim()
     .toLowerCase()
     .email("Enter a valid e-mail address.")

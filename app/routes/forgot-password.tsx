@@ -3,13 +3,14 @@ import { z } from "zod";
 import type { Route } from "./+types/forgot-password";
 import { sendPasswordReset } from "~/accounts/account-mail.server";
 import { Button, Field, FormError } from "~/components/ui/form";
-import { parseForm, requireFormData } from "~/utils/forms";
+import { parseForm, requireFormData, safeText } from "~/utils/forms";
 import { startPasswordResetRequest } from "~/models/sign-in-attempt.server";
 import { findUserByEmail } from "~/models/user.server";
 import { clientAddressKey } from "~/utils/security.server";
 
 const schema = z.object({
-  email: z.string({ error: "Enter your e-mail address." }).trim().email("Enter a valid e-mail address.").max(320),
+  email: safeText({ error: "Enter your e-mail address." })
+    .trim().email("Enter a valid e-mail address.").max(320),
 });
 
 export const meta: Route.MetaFunction = () => [{ title: "Reset password · Plumbline" }];

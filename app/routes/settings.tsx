@@ -2,7 +2,7 @@ import { data, Form, redirect } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/settings";
 import { Button, Card, Field, FormError, PageHeader, SelectField } from "~/components/ui/form";
-import { newPasswordSchema, parseForm, requireFormData } from "~/utils/forms";
+import { newPasswordSchema, parseForm, requireFormData, safeText } from "~/utils/forms";
 import { setPassword, setUnits, verifyPassword } from "~/models/user.server";
 import { ROLE_DUTIES, ROLE_LABELS } from "~/utils/roles";
 import { flashNotice, requireUser } from "~/utils/session.server";
@@ -15,9 +15,9 @@ const schema = z.discriminatedUnion("intent", [
   z
     .object({
       intent: z.literal("password"),
-      current: z.string({ error: "Enter your current password." }).min(1, "Enter your current password."),
+      current: safeText({ error: "Enter your current password." }).min(1, "Enter your current password."),
       password: newPasswordSchema,
-      confirm: z.string({ error: "Repeat the new password." }),
+      confirm: safeText({ error: "Repeat the new password." }),
     })
     .refine((v) => v.password === v.confirm, { message: "The two new passwords differ.", path: ["confirm"] }),
 ]);

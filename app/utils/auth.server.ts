@@ -2,6 +2,7 @@ import { Authenticator } from "remix-auth";
 import { FormStrategy } from "remix-auth-form";
 import { z } from "zod";
 import { verifyLogin, type SessionUser } from "~/models/user.server";
+import { safeText } from "~/utils/forms";
 
 /** Thrown by the password strategy with a message safe to show on the sign-in form. */
 export class SignInError extends Error {
@@ -9,13 +10,12 @@ export class SignInError extends Error {
 }
 
 const credentialsSchema = z.object({
-  email: z
-    .string({ error: "Enter your e-mail address." })
+  email: safeText({ error: "Enter your e-mail address." })
     .trim()
     .min(1, "Enter your e-mail address.")
     .max(320)
     .email("Enter a valid e-mail address."),
-  password: z.string({ error: "Enter your password." }).min(1, "Enter your password.").max(200),
+  password: safeText({ error: "Enter your password." }).min(1, "Enter your password.").max(200),
 });
 
 export const authenticator = new Authenticator<SessionUser>();
