@@ -10,6 +10,7 @@ import * as componentFiles from "./migrations/0007-component-files";
 import * as planWorkflow from "./migrations/0008-plan-workflow";
 import * as signInAttempts from "./migrations/0009-sign-in-attempts";
 import * as indexes from "./migrations/0010-indexes";
+import * as sessions from "./migrations/0015-sessions";
 
 export type Migration = (params: { context: QueryInterface }) => Promise<void>;
 type MigrationModule = { up: Migration; down: Migration };
@@ -29,6 +30,7 @@ export const migrations: Array<[name: string, module: MigrationModule]> = [
   ["0008-plan-workflow", planWorkflow],
   ["0009-sign-in-attempts", signInAttempts],
   ["0010-indexes", indexes],
+  ["0015-sessions", sessions],
 ];
 
 /** The umzug runner over `sequelize`, recording applied migrations in SequelizeMeta. */

@@ -76,29 +76,26 @@ function originOf(value: string): string | null {
   }
 }
 
-/** The origins a mutation may come from: the request's own and, when set, PUBLIC_URL's (behind a TLS proxy they differ). */
-function allowedOrigins(request: Request, publicUrl: string | null): Set<string> {
-  const allowed = new Set([new URL(request.url).origin]);
-  if (publicUrl) allowed.add(new URL(publicUrl).origin);
-  return allowed;
+/**
+ * The one origin Plumbline's pages are served from: PUBLIC_URL's (or the listening address's). The request's URL
+ * is built from its Host header, which the client writes, so it decides only in development without PUBLIC_URL.
+ */
+export function appOrigin(request?: Request): string {
+  if (request && env.appEnv === "development" && !env.publicUrlIsSet) return new URL(request.url).origin;
+  return env.publicUrl;
 }
 
 /**
  * Whether a request is a mutation from somewhere other than Plumbline's own pages. GET and HEAD never are.
- * Otherwise the Origin header (or, when a browser sent none, the Referer) must name Plumbline itself; a request
+ * Otherwise the Origin header (or, when a browser sent none, the Referer) must name Plumbline's origin; a request
  * with neither passes only if it carries no cookie, so nobody's session can be ridden. Browsers send Origin on
  * every POST, so a real page never meets this.
  */
-export function isCrossSiteMutation(
-  request: Request,
-  publicUrl: string | null = env.publicUrlIsSet ? env.publicUrl : null,
-): boolean {
+export function isCrossSiteMutation(request: Request, ownOrigin: string = appOrigin(request)): boolean {
   if (SAFE_METHODS.has(request.method.toUpperCase())) return false;
-  const allowed = allowedOrigins(request, publicUrl);
   const source = request.headers.get("Origin") ?? request.headers.get("Referer");
   if (source === null) return request.headers.has("Cookie");
-  const origin = originOf(source.trim());
-  return origin === null || !allowed.has(origin);
+  return originOf(source.trim()) !== ownOrigin;
 }
 
 /** The 403 answer to a cross-site mutation: JSON under /api, a plain sentence elsewhere. */
@@ -159,20 +156,27 @@ export function addressKeyOf(raw: string): string | null {
 }
 
 /**
- * The client's address key for attempt limits. Loaders are not given the socket's address,
- * so it comes from X-Forwarded-For, and only when TRUST_PROXY says how many proxies in front append to it: the
- * entry that many places from the right is the one our own proxy wrote (entries to its left are the client's
- * say-so). Without a trusted proxy, or with an unusable header, every client shares the key "direct".
+ * The client's address as our own proxy saw it, or null when it is not known. Loaders are not given the socket's
+ * address, so it comes from X-Forwarded-For, and only when TRUST_PROXY says how many proxies in front append to
+ * it: the entry that many places from the right is the one our own proxy wrote (entries to its left are the
+ * client's say-so).
+ */
+export function clientAddress(request: Request, trustedProxyHops = env.trustedProxyHops): string | null {
+  if (trustedProxyHops <= 0) return null;
+  const hops = (request.headers.get("X-Forwarded-For") ?? "")
+    .split(",")
+    .map((h) => h.trim())
+    .filter(Boolean);
+  const entry = hops[hops.length - trustedProxyHops];
+  return entry && addressKeyOf(entry) ? entry.slice(0, 64) : null;
+}
+
+/**
+ * The client's address key for attempt limits (an IPv4 address, an IPv6 /64), or "direct" when the address cannot
+ * be trusted (no TRUST_PROXY, or an unusable header): then every client looks the same and no limit may be keyed
+ * on it alone.
  */
 export function clientAddressKey(request: Request, trustedProxyHops = env.trustedProxyHops): string {
-  if (trustedProxyHops > 0) {
-    const hops = (request.headers.get("X-Forwarded-For") ?? "")
-      .split(",")
-      .map((h) => h.trim())
-      .filter(Boolean);
-    const entry = hops[hops.length - trustedProxyHops];
-    const key = entry ? addressKeyOf(entry) : null;
-    if (key) return key;
-  }
-  return SHARED_ADDRESS_KEY;
+  const address = clientAddress(request, trustedProxyHops);
+  return (address && addressKeyOf(address)) ?? SHARED_ADDRESS_KEY;
 }
