@@ -11,6 +11,7 @@ import * as planWorkflow from "./migrations/0008-plan-workflow";
 import * as signInAttempts from "./migrations/0009-sign-in-attempts";
 import * as indexes from "./migrations/0010-indexes";
 import * as sessions from "./migrations/0015-sessions";
+import * as signInAttemptsBySource from "./migrations/0016-sign-in-attempts-by-source";
 
 export type Migration = (params: { context: QueryInterface }) => Promise<void>;
 type MigrationModule = { up: Migration; down: Migration };
@@ -31,6 +32,7 @@ export const migrations: Array<[name: string, module: MigrationModule]> = [
   ["0009-sign-in-attempts", signInAttempts],
   ["0010-indexes", indexes],
   ["0015-sessions", sessions],
+  ["0016-sign-in-attempts-by-source", signInAttemptsBySource],
 ];
 
 /** The umzug runner over `sequelize`, recording applied migrations in SequelizeMeta. */

@@ -9,6 +9,7 @@ import { recordAudit } from "~/models/audit-event.server";
 import { countUserSessions, endUserSessions } from "~/models/session.server";
 import { countOtherActiveAdmins, getOrganisationUser, setUserActive, updateUserRoles } from "~/models/user.server";
 import { ROLES } from "~/utils/roles";
+import { runInBackground } from "~/utils/background.server";
 import { flashNotice, requireUserWithRole, sessionLifetimes } from "~/utils/session.server";
 
 const schema = z.discriminatedUnion("intent", [
@@ -87,8 +88,10 @@ export async function action({ request, params }: Route.ActionArgs) {
     }
     case "invite": {
       if (!user.active) return fail("Reactivate the user before sending an invitation.");
-      await sendInvitation(user, admin.name, admin.organisationName, request);
-      return back(`A new link to set a password went to ${user.email}.`);
+      runInBackground("the invitation mail", () =>
+        sendInvitation(user, admin.name, admin.organisationName, request),
+      );
+      return back(`A new link to set a password is on its way to ${user.email}.`);
     }
   }
 }

@@ -29,10 +29,15 @@ export function contentSecurityPolicy(nonce: string) {
   ].join("; ");
 }
 
-/** The headers every response carries (Content-Security-Policy only where the response has none of its own). */
+/**
+ * The headers every response carries (Content-Security-Policy only where the response has none of its own).
+ * Nothing is stored by browsers or proxies: pages show one organisation's data to one signed-in user and carry a
+ * per-response nonce, API answers likewise.
+ */
 export function securityHeaders(nonce: string, isProduction = env.isProduction): Record<string, string> {
   return {
     "Content-Security-Policy": contentSecurityPolicy(nonce),
+    "Cache-Control": "no-store",
     "X-Content-Type-Options": "nosniff",
     "Referrer-Policy": "same-origin",
     "X-Frame-Options": "DENY",
@@ -48,23 +53,63 @@ export function newCspNonce() {
   return crypto.randomBytes(16).toString("base64");
 }
 
-/** Sets the security headers on `headers`, keeping a Content-Security-Policy already there. */
+/** Sets the security headers on `headers`, keeping a Content-Security-Policy or a no-store Cache-Control already there. */
 export function setSecurityHeaders(headers: Headers, nonce: string) {
   for (const [name, value] of Object.entries(securityHeaders(nonce))) {
-    if (name !== "Content-Security-Policy" || !headers.has(name)) headers.set(name, value);
+    if (name === "Content-Security-Policy" && headers.has(name)) continue;
+    if (name === "Cache-Control" && /\bno-store\b/.test(headers.get(name) ?? "")) continue;
+    headers.set(name, value);
   }
 }
 
-function withSecurityHeaders(response: Response, nonce: string): Response {
+/** Methods every page takes; the JSON API's routes each answer other methods themselves (405 with their Allow). */
+const PAGE_METHODS = ["GET", "HEAD", "POST"];
+
+/**
+ * The 405 answer to a method no page takes (PUT, DELETE, OPTIONS, PROPFIND...), before any action runs: React
+ * Router would otherwise hand any method but GET to a form's action as if it were a POST.
+ */
+export function methodRefusal(request: Request): Response | null {
+  const method = request.method.toUpperCase();
+  if (PAGE_METHODS.includes(method) || new URL(request.url).pathname.startsWith("/api/")) return null;
+  return new Response(`Plumbline's pages do not take ${method.slice(0, 20)} requests; use ${PAGE_METHODS.join(", ")}.`, {
+    status: 405,
+    headers: { Allow: PAGE_METHODS.join(", "), "Content-Type": "text/plain; charset=utf-8" },
+  });
+}
+
+/**
+ * The Allow header of a 405 that React Router answered itself: a POST refused (which React Router renders as a GET)
+ * is a route without an action, GET and HEAD only; any other method is one React Router refuses before the
+ * middleware runs (OPTIONS, PROPFIND...).
+ */
+export function allowFor405(request: Request) {
+  return ["GET", "HEAD", "POST"].includes(request.method.toUpperCase()) ? "GET, HEAD" : PAGE_METHODS.join(", ");
+}
+
+function withAllow(response: Response, request: Request) {
+  if (response.status !== 405 || response.headers.has("Allow")) return response;
+  // An API route without an action: React Router's own 405 says only "Unexpected Server Error".
+  if (new URL(request.url).pathname.startsWith("/api/"))
+    return Response.json(
+      { error: `This address answers GET only, not ${request.method.toUpperCase().slice(0, 20)}.` },
+      { status: 405, headers: { Allow: "GET, HEAD" } },
+    );
+  response.headers.set("Allow", allowFor405(request));
+  return response;
+}
+
+function withSecurityHeaders(response: Response, nonce: string, request: Request): Response {
+  let answer: Response;
   try {
-    setSecurityHeaders(response.headers, nonce);
-    return response;
+    answer = withAllow(response, request);
+    setSecurityHeaders(answer.headers, nonce);
   } catch {
     // A Response whose headers are immutable (one passed on from fetch): answer with a copy.
-    const copy = new Response(response.body, response);
-    setSecurityHeaders(copy.headers, nonce);
-    return copy;
+    answer = withAllow(new Response(response.body, response), request);
+    setSecurityHeaders(answer.headers, nonce);
   }
+  return answer;
 }
 
 function originOf(value: string): string | null {
@@ -106,14 +151,16 @@ export function crossSiteRefusal(request: Request): Response {
 }
 
 /**
- * Runs first on every request React Router serves (pages, data requests, resource routes): refuses cross-site
- * mutations before any loader or action, picks the request's CSP nonce and puts the security headers on the answer.
+ * Runs first on every request React Router serves (pages, data requests, resource routes): refuses methods no page
+ * takes and cross-site mutations before any loader or action, picks the request's CSP nonce and puts the security
+ * headers on the answer.
  */
 export const securityMiddleware: MiddlewareFunction<Response> = async ({ request, context }, next) => {
   const nonce = newCspNonce();
   context.set(cspNonceContext, nonce);
-  const response = isCrossSiteMutation(request) ? crossSiteRefusal(request) : await next();
-  return withSecurityHeaders(response, nonce);
+  const response =
+    methodRefusal(request) ?? (isCrossSiteMutation(request) ? crossSiteRefusal(request) : await next());
+  return withSecurityHeaders(response, nonce, request);
 };
 
 /** The eight 16-bit groups of an IPv6 address that `net.isIPv6` has accepted, or null. */

@@ -45,6 +45,19 @@ function buildFiles(): RequestHandler {
   return (req, res, next) => (known.has(req.path) ? serve(req, res, next) : next());
 }
 
+/** Methods a fetch Request cannot carry: React Router's adapter would throw building one, and answer 500. */
+const UNREPRESENTABLE_METHODS = new Set(["TRACE", "TRACK", "CONNECT"]);
+
+/** Answers TRACE, TRACK and CONNECT with 405 before React Router sees them. */
+const refuseUnrepresentableMethods: RequestHandler = (req, res, next) => {
+  if (!UNREPRESENTABLE_METHODS.has(req.method.toUpperCase())) return next();
+  setStaticHeaders(res);
+  res
+    .status(405)
+    .set({ Allow: "GET, HEAD, POST", "Cache-Control": "no-store", "Content-Type": "text/plain; charset=utf-8" })
+    .send(`Plumbline does not take ${req.method} requests.`);
+};
+
 async function startWorker() {
   // Node maps stack traces through source maps only when asked; tsx asks. Sequelize formats a trace on every query.
   process.setSourceMapsEnabled(false);
@@ -63,6 +76,7 @@ async function startWorker() {
   );
   app.use(buildFiles());
   app.use(morgan("tiny"));
+  app.use(refuseUnrepresentableMethods);
   app.all("*", createRequestHandler({ build, mode: process.env.NODE_ENV }));
   const onListening = () => {
     if (cluster.isPrimary) console.log(`Plumbline on http://${HOST ?? "localhost"}:${PORT}`);
