@@ -71,7 +71,11 @@ export function SessionList({ sessions, currentSessionId }: { sessions: SessionL
                     <Form method="post">
                       <input type="hidden" name="intent" value="end-session" />
                       <input type="hidden" name="sessionId" value={s.id} />
-                      <Button type="submit" tone="secondary" aria-label={`End the session signed in ${when(s.createdAt)}`}>
+                      <Button
+                        type="submit"
+                        tone="secondary"
+                        aria-label={`End the session signed in ${when(s.createdAt)}`}
+                      >
                         End
                       </Button>
                     </Form>

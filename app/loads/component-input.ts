@@ -15,13 +15,14 @@ export const MAX_LIFT_POINTS = 12;
 export const MAX_PARTS = 30;
 
 const text = (max: number, options: { multiline?: boolean } = {}) =>
-  z.preprocess((v) => (typeof v === "string" ? v.trim() : ""), safeText(options).max(max, `At most ${max} characters.`));
+  z.preprocess(
+    (v) => (typeof v === "string" ? v.trim() : ""),
+    safeText(options).max(max, `At most ${max} characters.`),
+  );
 const required = (label: string, max: number) =>
   z.preprocess(
     (v) => (typeof v === "string" ? v.trim() : ""),
-    safeText()
-      .min(1, `Enter the ${label}.`)
-      .max(max, `At most ${max} characters.`),
+    safeText().min(1, `Enter the ${label}.`).max(max, `At most ${max} characters.`),
   );
 const number = (label: string) =>
   z.preprocess(

@@ -169,14 +169,11 @@ export async function endUserSessions(
   userId: number,
   options: { exceptSessionId?: number; transaction?: Transaction } = {},
 ): Promise<number> {
-  const ended = await sequelize.query(
-    "DELETE FROM sessions WHERE user_id = $userId AND id <> $exceptSessionId",
-    {
-      bind: { userId, exceptSessionId: options.exceptSessionId ?? -1 },
-      type: QueryTypes.BULKDELETE,
-      transaction: options.transaction,
-    },
-  );
+  const ended = await sequelize.query("DELETE FROM sessions WHERE user_id = $userId AND id <> $exceptSessionId", {
+    bind: { userId, exceptSessionId: options.exceptSessionId ?? -1 },
+    type: QueryTypes.BULKDELETE,
+    transaction: options.transaction,
+  });
   return Number(ended) || 0;
 }
 
@@ -203,15 +200,13 @@ export async function listUserSessions(userId: number, lifetimes: SessionLifetim
       ORDER BY last_seen_at_ms DESC, id DESC`,
     { bind: { userId, now, idleCutoff: now - lifetimes.idleMs }, type: QueryTypes.SELECT },
   );
-  return rows.map(
-    (r): SessionRow => ({
-      id: r.id,
-      createdAt: new Date(Number(r.createdAtMs)).toISOString(),
-      lastSeenAt: new Date(Number(r.lastSeenAtMs)).toISOString(),
-      address: r.address,
-      userAgent: r.userAgent,
-    }),
-  );
+  return rows.map((r): SessionRow => ({
+    id: r.id,
+    createdAt: new Date(Number(r.createdAtMs)).toISOString(),
+    lastSeenAt: new Date(Number(r.lastSeenAtMs)).toISOString(),
+    address: r.address,
+    userAgent: r.userAgent,
+  }));
 }
 
 /** How many live sessions the user has. */

@@ -12,7 +12,12 @@ import {
 import { sequelize } from "~/utils/db.server";
 import { env } from "~/utils/env.server";
 import { recordAudit } from "~/models/audit-event.server";
-import { endUserSessions, SESSION_USER_COLUMNS, sessionUserFromRow, type SessionUserRow } from "~/models/session.server";
+import {
+  endUserSessions,
+  SESSION_USER_COLUMNS,
+  sessionUserFromRow,
+  type SessionUserRow,
+} from "~/models/session.server";
 import { Organisation } from "~/models/organisation.server";
 import { ROLES, type Role } from "~/utils/roles";
 

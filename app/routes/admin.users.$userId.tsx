@@ -88,9 +88,7 @@ export async function action({ request, params }: Route.ActionArgs) {
     }
     case "invite": {
       if (!user.active) return fail("Reactivate the user before sending an invitation.");
-      runInBackground("the invitation mail", () =>
-        sendInvitation(user, admin.name, admin.organisationName, request),
-      );
+      runInBackground("the invitation mail", () => sendInvitation(user, admin.name, admin.organisationName, request));
       return back(`A new link to set a password is on its way to ${user.email}.`);
     }
   }

@@ -10,8 +10,7 @@ import { runInBackground } from "~/utils/background.server";
 import { clientAddressKey } from "~/utils/security.server";
 
 const schema = z.object({
-  email: safeText({ error: "Enter your e-mail address." })
-    .trim().email("Enter a valid e-mail address.").max(320),
+  email: safeText({ error: "Enter your e-mail address." }).trim().email("Enter a valid e-mail address.").max(320),
 });
 
 export const meta: Route.MetaFunction = () => [{ title: "Reset password · Plumbline" }];

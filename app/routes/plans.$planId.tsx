@@ -19,7 +19,10 @@ import { formatLength, formatMass, type Units } from "~/utils/format";
 const schema = z.discriminatedUnion("intent", [
   z.object({ intent: z.literal("pull-component"), version: z.coerce.number().int().positive() }),
   z.object({ intent: z.literal("new-revision") }),
-  z.object({ intent: z.literal("cancel"), reason: safeText({ multiline: true, error: "Say why the plan is cancelled." }) }),
+  z.object({
+    intent: z.literal("cancel"),
+    reason: safeText({ multiline: true, error: "Say why the plan is cancelled." }),
+  }),
   z.object({
     intent: z.literal("assign-rigger"),
     riggerId: z.coerce.number({ error: "Choose a rigger." }).int().positive("Choose a rigger."),

@@ -17,7 +17,11 @@ const envSchema = z.object({
   // How many reverse proxies in front of Plumbline append to X-Forwarded-For (0: none, the header is ignored).
   TRUST_PROXY: z.coerce.number().int().min(0).max(10).default(0),
   // A session ends after this long without a request, and in any case this long after sign-in.
-  SESSION_IDLE_HOURS: z.coerce.number().min(0.25).max(24 * 30).default(12),
+  SESSION_IDLE_HOURS: z.coerce
+    .number()
+    .min(0.25)
+    .max(24 * 30)
+    .default(12),
   SESSION_MAX_DAYS: z.coerce.number().min(0.5).max(90).default(7),
   HOST: z.string().optional(),
 });

@@ -72,10 +72,13 @@ const PAGE_METHODS = ["GET", "HEAD", "POST"];
 export function methodRefusal(request: Request): Response | null {
   const method = request.method.toUpperCase();
   if (PAGE_METHODS.includes(method) || new URL(request.url).pathname.startsWith("/api/")) return null;
-  return new Response(`Plumbline's pages do not take ${method.slice(0, 20)} requests; use ${PAGE_METHODS.join(", ")}.`, {
-    status: 405,
-    headers: { Allow: PAGE_METHODS.join(", "), "Content-Type": "text/plain; charset=utf-8" },
-  });
+  return new Response(
+    `Plumbline's pages do not take ${method.slice(0, 20)} requests; use ${PAGE_METHODS.join(", ")}.`,
+    {
+      status: 405,
+      headers: { Allow: PAGE_METHODS.join(", "), "Content-Type": "text/plain; charset=utf-8" },
+    },
+  );
 }
 
 /**
@@ -158,8 +161,7 @@ export function crossSiteRefusal(request: Request): Response {
 export const securityMiddleware: MiddlewareFunction<Response> = async ({ request, context }, next) => {
   const nonce = newCspNonce();
   context.set(cspNonceContext, nonce);
-  const response =
-    methodRefusal(request) ?? (isCrossSiteMutation(request) ? crossSiteRefusal(request) : await next());
+  const response = methodRefusal(request) ?? (isCrossSiteMutation(request) ? crossSiteRefusal(request) : await next());
   return withSecurityHeaders(response, nonce, request);
 };
 

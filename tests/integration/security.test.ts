@@ -314,7 +314,10 @@ describe("the app as served", () => {
     it("a POST to a page without a form, and a wrong method on the API, say which methods they take", async () => {
       const user = await makeUser(["planner"]);
       const cookie = await sessionCookie(user);
-      const reference = await send("/reference", { method: "POST", headers: { ...FORM, Cookie: cookie, Origin: BASE } });
+      const reference = await send("/reference", {
+        method: "POST",
+        headers: { ...FORM, Cookie: cookie, Origin: BASE },
+      });
       expect(reference.status).toBe(405);
       expect(reference.headers.get("Allow")).toBe("GET, HEAD");
       const ping = await send("/api/ping", { method: "DELETE", headers: { Cookie: cookie, Origin: BASE } });

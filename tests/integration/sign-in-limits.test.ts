@@ -234,6 +234,8 @@ describe("behind a trusted proxy (TRUST_PROXY=1)", () => {
 it("an account gets a few reset mails per window; past that the answer is the same but nothing is sent", async () => {
   const results = [];
   for (let i = 0; i < ACCOUNT_RESET_MAIL_LIMIT + 2; i++)
-    results.push(await startPasswordResetRequest({ email: "Someone@Test.invalid", addressKey: `192.0.2.${10 + i}` }, T0));
+    results.push(
+      await startPasswordResetRequest({ email: "Someone@Test.invalid", addressKey: `192.0.2.${10 + i}` }, T0),
+    );
   expect(results.map((r) => r.ok && r.sendMail)).toEqual([true, true, true, false, false]);
 });

@@ -64,7 +64,13 @@ describe("the text rule", () => {
       siteNew.action,
       await postForm(
         "/sites/new",
-        { name: "Weir works", customer: "Test Water", address: "1 Quay\r\nHull", siteContact: "", notes: "Gate 3\tnorth" },
+        {
+          name: "Weir works",
+          customer: "Test Water",
+          address: "1 Quay\r\nHull",
+          siteContact: "",
+          notes: "Gate 3\tnorth",
+        },
         planner,
       ),
     );

@@ -35,7 +35,10 @@ export async function makeUser(
 /** The Cookie header of a new signed-in session for `user` (a row in the sessions table, as signing in makes). */
 export async function sessionCookie(user: Pick<SessionUser, "id">) {
   const session = await sessionStorage.getSession();
-  session.set("sessionToken", await startSession({ userId: user.id, address: null, userAgent: null }, sessionLifetimes()));
+  session.set(
+    "sessionToken",
+    await startSession({ userId: user.id, address: null, userAgent: null }, sessionLifetimes()),
+  );
   const setCookie = await sessionStorage.commitSession(session);
   return setCookie.split(";")[0]!;
 }
