@@ -45,17 +45,25 @@ function buildFiles(): RequestHandler {
   return (req, res, next) => (known.has(req.path) ? serve(req, res, next) : next());
 }
 
-/** Methods a fetch Request cannot carry: React Router's adapter would throw building one, and answer 500. */
-const UNREPRESENTABLE_METHODS = new Set(["TRACE", "TRACK", "CONNECT"]);
+/** The methods Plumbline takes anywhere; pages take GET, HEAD and POST, the JSON API also PUT (routes say which). */
+const KNOWN_METHODS = new Set(["GET", "HEAD", "POST", "PUT", "PATCH", "DELETE"]);
 
-/** Answers TRACE, TRACK and CONNECT with 405 before React Router sees them. */
-const refuseUnrepresentableMethods: RequestHandler = (req, res, next) => {
-  if (!UNREPRESENTABLE_METHODS.has(req.method.toUpperCase())) return next();
+/**
+ * Answers any other method (TRACE, OPTIONS, PROPFIND...) with 405 before React Router sees it: TRACE, TRACK and
+ * CONNECT cannot even become a fetch Request (the adapter threw, a 500), and React Router answers the rest itself
+ * without the root middleware's headers.
+ */
+const refuseUnknownMethods: RequestHandler = (req, res, next) => {
+  if (KNOWN_METHODS.has(req.method.toUpperCase())) return next();
   setStaticHeaders(res);
   res
     .status(405)
-    .set({ Allow: "GET, HEAD, POST", "Cache-Control": "no-store", "Content-Type": "text/plain; charset=utf-8" })
-    .send(`Plumbline does not take ${req.method} requests.`);
+    .set({
+      Allow: req.path.startsWith("/api/") ? "GET, HEAD, POST, PUT" : "GET, HEAD, POST",
+      "Cache-Control": "no-store",
+      "Content-Type": "text/plain; charset=utf-8",
+    })
+    .send(`Plumbline does not take ${req.method.slice(0, 20)} requests.`);
 };
 
 async function startWorker() {
@@ -76,7 +84,7 @@ async function startWorker() {
   );
   app.use(buildFiles());
   app.use(morgan("tiny"));
-  app.use(refuseUnrepresentableMethods);
+  app.use(refuseUnknownMethods);
   app.all("*", createRequestHandler({ build, mode: process.env.NODE_ENV }));
   const onListening = () => {
     if (cluster.isPrimary) console.log(`Plumbline on http://${HOST ?? "localhost"}:${PORT}`);

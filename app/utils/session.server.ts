@@ -149,10 +149,6 @@ export async function newSessionCookie(request: Request, userId: number, notice?
   return sessionStorage.commitSession(session);
 }
 
-export async function createUserSession(request: Request, userId: number, redirectTo: string) {
-  return redirect(redirectTo, { status: 303, headers: { "Set-Cookie": await newSessionCookie(request, userId) } });
-}
-
 /** Signs out: ends this browser's session on the server and clears the cookie. */
 export async function destroyUserSession(request: Request, redirectTo = "/login") {
   const session = await sessionStorage.getSession(request.headers.get("Cookie"));

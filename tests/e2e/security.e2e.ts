@@ -80,24 +80,24 @@ describe("the served pages under their Content-Security-Policy", () => {
     expect(((await save.json()) as { error: string }).error).toMatch(/did not come from one of its own pages/);
   });
 
-  it("the built server answers TRACE and a DELETE to a form with 405 and Allow, never a 500", async () => {
+  it("the built server answers TRACE, OPTIONS, PROPFIND and a DELETE to a form with 405 and Allow, never a 500", async () => {
     const { baseUrl } = browser;
     const url = new URL(baseUrl);
-    const traced = await new Promise<{ status?: number; allow?: string; cache?: string }>((resolve, reject) => {
-      const request = http.request({ host: url.hostname, port: url.port, path: "/", method: "TRACE" }, (res) => {
-        res.resume();
-        res.on("end", () =>
-          resolve({
-            status: res.statusCode,
-            allow: res.headers.allow,
-            cache: res.headers["cache-control"],
-          }),
-        );
+    const send = (method: string, path: string) =>
+      new Promise<{ status?: number; allow?: string; cache?: string }>((resolve, reject) => {
+        const request = http.request({ host: url.hostname, port: url.port, path, method }, (res) => {
+          res.resume();
+          res.on("end", () =>
+            resolve({ status: res.statusCode, allow: res.headers.allow, cache: res.headers["cache-control"] }),
+          );
+        });
+        request.on("error", reject);
+        request.end();
       });
-      request.on("error", reject);
-      request.end();
-    });
-    expect(traced).toEqual({ status: 405, allow: "GET, HEAD, POST", cache: "no-store" });
+    for (const method of ["TRACE", "OPTIONS", "PROPFIND"]) {
+      expect(await send(method, "/"), method).toEqual({ status: 405, allow: "GET, HEAD, POST", cache: "no-store" });
+      expect((await send(method, "/api/solve")).status, method).toBe(405);
+    }
     const deleted = await fetch(`${baseUrl}/settings`, { method: "DELETE", headers: { Origin: baseUrl } });
     expect(deleted.status).toBe(405);
     expect(deleted.headers.get("allow")).toBe("GET, HEAD, POST");
