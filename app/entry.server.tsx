@@ -5,7 +5,7 @@ import { isbot } from "isbot";
 import { renderToPipeableStream, type RenderToPipeableStreamOptions } from "react-dom/server";
 import { ServerRouter, type EntryContext, type RouterContextProvider } from "react-router";
 import { CspNonceContext } from "~/utils/csp-nonce";
-import { cspNonceContext, newCspNonce, setSecurityHeaders } from "~/utils/security.server";
+import { allowFor405, cspNonceContext, newCspNonce, setSecurityHeaders } from "~/utils/security.server";
 
 export const streamTimeout = 5_000;
 
@@ -20,6 +20,8 @@ export default function handleRequest(
   // (a 404) never reaches it, so the document sets them itself.
   const nonce = loadContext.get(cspNonceContext) || newCspNonce();
   setSecurityHeaders(responseHeaders, nonce);
+  // A method React Router refuses before the root middleware runs (OPTIONS, PROPFIND...) is answered here.
+  if (responseStatusCode === 405 && !responseHeaders.has("Allow")) responseHeaders.set("Allow", allowFor405(request));
 
   // https://httpwg.org/specs/rfc9110.html#HEAD
   if (request.method.toUpperCase() === "HEAD") {

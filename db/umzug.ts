@@ -12,6 +12,8 @@ import * as signInAttempts from "./migrations/0009-sign-in-attempts";
 import * as indexes from "./migrations/0010-indexes";
 import * as ruleSets from "./migrations/0011-rule-sets";
 import * as gearMass from "./migrations/0012-gear-mass";
+import * as sessions from "./migrations/0015-sessions";
+import * as signInAttemptsBySource from "./migrations/0016-sign-in-attempts-by-source";
 import * as organisationTimeZone from "./migrations/0021-organisation-time-zone";
 import * as examinationRecords from "./migrations/0022-examination-records";
 
@@ -35,6 +37,8 @@ export const migrations: Array<[name: string, module: MigrationModule]> = [
   ["0010-indexes", indexes],
   ["0011-rule-sets", ruleSets],
   ["0012-gear-mass", gearMass],
+  ["0015-sessions", sessions],
+  ["0016-sign-in-attempts-by-source", signInAttemptsBySource],
   ["0021-organisation-time-zone", organisationTimeZone],
   ["0022-examination-records", examinationRecords],
 ];

@@ -42,3 +42,22 @@ export async function sendPasswordReset(user: Recipient, request?: Request) {
     ].join("\n"),
   });
 }
+
+/** Tells an account's owner that sign-ins to it keep failing (the limits slow whoever it is down). */
+export async function sendFailedSignInNotice(user: Recipient, failures: number) {
+  await sendMail({
+    organisationId: user.organisationId,
+    to: `${user.name} <${user.email}>`,
+    subject: "Failed sign-ins to your Plumbline account",
+    text: [
+      `Hello ${user.name},`,
+      "",
+      `${failures} attempts to sign in to your Plumbline account with a wrong password were made in the last 15 minutes.`,
+      "Plumbline now makes each further try wait, so guessing is slow; your own browser is not held up.",
+      "",
+      "If this was you, there is nothing to do. If not, your password has held, but consider changing it in",
+      "Settings, where you can also see and end every session signed in as you:",
+      absoluteUrl("/settings"),
+    ].join("\n"),
+  });
+}

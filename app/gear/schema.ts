@@ -16,6 +16,7 @@ import {
   type SpecField,
 } from "~/gear/kinds";
 import type { MassUnit } from "~/statics/units";
+import { safeText } from "~/utils/forms";
 
 const trimmed = (v: unknown) => (typeof v === "string" ? v.trim() : v == null ? "" : v);
 const blankToNull = (v: unknown) => {
@@ -23,7 +24,8 @@ const blankToNull = (v: unknown) => {
   return t === "" ? null : t;
 };
 
-const text = (max: number) => z.preprocess(trimmed, z.string().max(max, `At most ${max} characters.`));
+const text = (max: number, options: { multiline?: boolean } = {}) =>
+  z.preprocess(trimmed, safeText(options).max(max, `At most ${max} characters.`));
 
 function optionalNumber(label: string, { min, max, integer = false }: { min: number; max: number; integer?: boolean }) {
   return z.preprocess(
@@ -57,8 +59,7 @@ function withArticle(noun: string) {
 /** An organisation's own id marked on the item: letters, digits and a few separators. */
 export const itemCodeSchema = z.preprocess(
   trimmed,
-  z
-    .string()
+  safeText()
     .min(1, "Enter the item's id as marked on it.")
     .max(40, "The item id can be at most 40 characters.")
     .regex(
@@ -68,7 +69,7 @@ export const itemCodeSchema = z.preprocess(
 );
 
 const specShape = {
-  thread: z.preprocess(blankToNull, z.string().max(20, "At most 20 characters.").nullable()),
+  thread: z.preprocess(blankToNull, safeText().max(20, "At most 20 characters.").nullable()),
   eyeboltFamily: optionalChoice("eyebolt type", EYEBOLT_FAMILIES),
   shackleType: optionalChoice("shackle shape", SHACKLE_TYPES),
   pinType: optionalChoice("pin type", PIN_TYPES),
@@ -162,7 +163,7 @@ export type GearItemInput = GearItemFields & { homeSiteId: number | null };
 export type GearSpec = Pick<GearItemFields, SpecField> & { kind: GearKind; wllUnit: MassUnit };
 
 const isoDate = (label: string) =>
-  z.preprocess(trimmed, z.string().refine(isIsoDate, `Give the ${label} as a date (YYYY-MM-DD).`));
+  z.preprocess(trimmed, safeText().refine(isIsoDate, `Give the ${label} as a date (YYYY-MM-DD).`));
 
 /** A thorough examination as the form gives it; the next due date may be left empty for the default. */
 /** What kind of thorough examination this was (LOLER 1998 reg 9; ASME B30.9 / B30.26 inspections). */
@@ -191,11 +192,11 @@ export const examinationSchema = z
     reportNumber: text(100),
     examiner: z.preprocess(
       trimmed,
-      z.string().min(1, "Enter the competent person who examined the item.").max(200, "At most 200 characters."),
+      safeText().min(1, "Enter the competent person who examined the item.").max(200, "At most 200 characters."),
     ),
     examinerOrganisation: text(200),
     result: z.enum(["pass", "fail"], { error: "Choose pass or fail." }),
-    defects: text(4000),
+    defects: text(4000, { multiline: true }),
     defectUrgency: z.enum(DEFECT_URGENCIES, { error: "Choose how urgent the defects are." }).default("none"),
     defectsDueBy: z.preprocess(
       blankToNull,
@@ -204,7 +205,7 @@ export const examinationSchema = z
     schemeReference: text(200),
     nextDueOn: z.preprocess(
       blankToNull,
-      z.string().refine(isIsoDate, "Give the next due date as a date (YYYY-MM-DD).").nullable(),
+      safeText().refine(isIsoDate, "Give the next due date as a date (YYYY-MM-DD).").nullable(),
     ),
   })
   .superRefine((exam, ctx) => {
@@ -233,8 +234,7 @@ export const statusChangeSchema = z.object({
   status: z.enum(GEAR_STATUSES, { error: "Choose in service, quarantined or withdrawn." }),
   reason: z.preprocess(
     trimmed,
-    z
-      .string()
+    safeText({ multiline: true })
       .min(1, "Give the reason for the change; it goes in the item's history.")
       .max(1000, "At most 1000 characters."),
   ),
@@ -243,7 +243,7 @@ export const statusChangeSchema = z.object({
 export const defectReportSchema = z.object({
   defect: z.preprocess(
     trimmed,
-    z.string().min(3, "Describe the defect you found.").max(2000, "At most 2000 characters."),
+    safeText({ multiline: true }).min(3, "Describe the defect you found.").max(2000, "At most 2000 characters."),
   ),
 });
 

@@ -68,7 +68,8 @@ describe("the component form", () => {
       ),
       "metric",
     );
-    const message = "Remove the control character (an invisible one, such as NUL) from this field.";
+    const message =
+      "Remove the invisible control or text-direction character (such as NUL or a right-to-left override) from this field.";
     expect(result).toEqual({
       ok: false,
       errors: { "lp-0-thread": [message], "lp-1-label": [message], "part-0-name": [message] },

@@ -6,7 +6,7 @@ import {
   rectangleOutlines,
   type ComponentDefinition,
 } from "~/loads/component-definition";
-import { CONTROL_CHARACTER_MESSAGE, hasControlCharacters, type FormResult } from "~/utils/forms";
+import { safeText, type FormResult } from "~/utils/forms";
 import { fromDisplayLength, type Units } from "~/utils/format";
 import { typedNumberField } from "~/utils/numbers";
 import { amountField } from "~/utils/quantities";
@@ -15,23 +15,15 @@ import { amountField } from "~/utils/quantities";
 export const MAX_LIFT_POINTS = 12;
 export const MAX_PARTS = 30;
 
-// Lift points and parts are written in one multi-row insert, which cannot carry a NUL; no field here needs control characters.
-const text = (max: number) =>
+const text = (max: number, options: { multiline?: boolean } = {}) =>
   z.preprocess(
     (v) => (typeof v === "string" ? v.trim() : ""),
-    z
-      .string()
-      .max(max, `At most ${max} characters.`)
-      .refine((s) => !hasControlCharacters(s), CONTROL_CHARACTER_MESSAGE),
+    safeText(options).max(max, `At most ${max} characters.`),
   );
 const required = (label: string, max: number) =>
   z.preprocess(
     (v) => (typeof v === "string" ? v.trim() : ""),
-    z
-      .string()
-      .min(1, `Enter the ${label}.`)
-      .max(max, `At most ${max} characters.`)
-      .refine((s) => !hasControlCharacters(s), CONTROL_CHARACTER_MESSAGE),
+    safeText().min(1, `Enter the ${label}.`).max(max, `At most ${max} characters.`),
   );
 // Figures are typed as people write them ("1 240,5", "1,240.5") and may carry their unit ("2.5 t", "12 in"); a bare
 // figure is in the user's display unit. Masses come out in kg, lengths in m, thread engagement in mm.
@@ -43,7 +35,7 @@ const length = (label: string, units: Units, into: "m" | "mm" = "m") =>
 const headSchema = (units: Units) =>
   z.object({
     name: required("component's name", 200),
-    description: text(4000),
+    description: text(4000, { multiline: true }),
     mass: mass("mass", units).refine((v) => v > 0, "The mass must be more than zero."),
     massSource: z.enum(MASS_SOURCES, { error: "Say where the mass comes from." }),
     massNote: text(500),
@@ -60,8 +52,8 @@ const headSchema = (units: Units) =>
     cogSource: z.enum(COG_SOURCES, { error: "Say where the CoG comes from." }),
     cogNote: text(500),
     outlineMode: z.enum(["rectangle", "custom"]).default("rectangle"),
-    outlineElevation: text(20000),
-    outlinePlan: text(20000),
+    outlineElevation: text(20000, { multiline: true }),
+    outlinePlan: text(20000, { multiline: true }),
   });
 
 const liftPointSchema = (units: Units) =>

@@ -8,6 +8,7 @@ import {
   type InferCreationAttributes,
 } from "sequelize";
 import { sequelize } from "~/utils/db.server";
+import { endUserSessions } from "~/models/session.server";
 import { hashPassword, User } from "~/models/user.server";
 
 export type TokenPurpose = "invite" | "reset";
@@ -65,7 +66,10 @@ export async function findUsableToken(token: string, now = new Date()) {
   return user ? { token: row, user } : null;
 }
 
-/** Sets the password and spends the token in one transaction; false when the token no longer works. */
+/**
+ * Sets the password, spends the token and ends every session of the user in one transaction (whoever knew the old
+ * password is signed out everywhere); null when the token no longer works.
+ */
 export async function redeemPasswordToken(token: string, password: string, now = new Date()): Promise<number | null> {
   const passwordHash = await hashPassword(password);
   return sequelize
@@ -79,6 +83,7 @@ export async function redeemPasswordToken(token: string, password: string, now =
       if (spent !== 1) return null;
       const [updated] = await User.update({ passwordHash }, { where: { id: row.userId, active: true }, transaction });
       if (updated !== 1) throw new Error("token user is not active");
+      await endUserSessions(row.userId, { transaction });
       return row.userId;
     })
     .catch((error: unknown) => {

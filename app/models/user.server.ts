@@ -12,6 +12,12 @@ import {
 import { sequelize } from "~/utils/db.server";
 import { env } from "~/utils/env.server";
 import { recordAudit } from "~/models/audit-event.server";
+import {
+  endUserSessions,
+  SESSION_USER_COLUMNS,
+  sessionUserFromRow,
+  type SessionUserRow,
+} from "~/models/session.server";
 import { Organisation } from "~/models/organisation.server";
 import { ROLES, type Role } from "~/utils/roles";
 
@@ -105,28 +111,16 @@ const withRolesAndOrganisation = [
   { model: Organisation, as: "organisation" },
 ];
 
-// Every signed-in request asks this, so it is one statement, read without building model instances.
-const SESSION_USER_SQL = `
-  SELECT u.id, u.organisation_id AS organisationId, o.name AS organisationName, u.email, u.name, u.units,
-         (SELECT group_concat(r.role) FROM user_roles r WHERE r.user_id = u.id) AS roles
-    FROM users u JOIN organisations o ON o.id = u.organisation_id
-   WHERE u.id = :userId AND u.active = 1`;
-
-type SessionUserRow = Omit<SessionUser, "roles"> & { roles: string | null };
-
-/** The active user with this id, or null (a deactivated user has no session). */
+/** The active user with this id, or null. */
 export async function getActiveSessionUser(userId: number): Promise<SessionUser | null> {
   if (!Number.isSafeInteger(userId)) return null;
-  const [row] = await sequelize.query<SessionUserRow>(SESSION_USER_SQL, {
-    replacements: { userId },
-    type: QueryTypes.SELECT,
-  });
-  if (!row) return null;
-  const order = (r: Role) => ROLES.indexOf(r);
-  const roles = (row.roles ? row.roles.split(",") : [])
-    .filter((r): r is Role => ROLES.includes(r as Role))
-    .sort((a, b) => order(a) - order(b));
-  return { ...row, roles };
+  const [row] = await sequelize.query<SessionUserRow>(
+    `SELECT ${SESSION_USER_COLUMNS}
+       FROM users u JOIN organisations o ON o.id = u.organisation_id
+      WHERE u.id = $userId AND u.active = 1`,
+    { bind: { userId }, type: QueryTypes.SELECT },
+  );
+  return row ? sessionUserFromRow(row) : null;
 }
 
 /** Checks an e-mail and password; null when they do not match an active user with a password. */
@@ -145,8 +139,13 @@ export async function verifyPassword(userId: number, password: string): Promise<
   return bcrypt.compare(password, user.passwordHash);
 }
 
-export async function setPassword(userId: number, password: string) {
-  await User.update({ passwordHash: await hashPassword(password) }, { where: { id: userId } });
+/** Sets a new password and ends every session of the user in one transaction; the caller signs this browser in again. */
+export async function changePassword(userId: number, password: string) {
+  const passwordHash = await hashPassword(password);
+  await sequelize.transaction(async (transaction) => {
+    await User.update({ passwordHash }, { where: { id: userId }, transaction });
+    await endUserSessions(userId, { transaction });
+  });
 }
 
 export async function setUnits(userId: number, units: Units) {
@@ -257,6 +256,7 @@ export async function updateUserRoles(organisationId: number, userId: number, ro
 export async function setUserActive(organisationId: number, userId: number, active: boolean, actorId: number) {
   await sequelize.transaction(async (transaction) => {
     await User.update({ active }, { where: { id: userId, organisationId }, transaction });
+    if (!active) await endUserSessions(userId, { transaction });
     await recordAudit(
       {
         organisationId,

@@ -3,6 +3,7 @@
 import { z } from "zod";
 import type { ComponentDefinition } from "~/loads/component-definition";
 import type { SolveResponseBody } from "~/statics/api";
+import { safeText } from "~/utils/forms";
 
 export const PLAN_STATUSES = [
   "draft",
@@ -35,8 +36,7 @@ export const MAX_TITLE = 200;
 export const MAX_PLAN_LENGTH_M = 1000;
 
 const finite = (label: string) => z.number({ error: `Give the ${label} as a number.` }).finite();
-const liftPointLabel = z
-  .string()
+const liftPointLabel = safeText()
   .min(1, "A lift point label cannot be empty.")
   .max(10, "A lift point label is at most 10 characters.");
 const gearItemId = z
@@ -176,9 +176,8 @@ export const PERSON_ROLE_LABELS: Record<PersonRole, string> = {
   other: "Other",
 };
 
-const text = (label: string, max: number) =>
-  z
-    .string({ error: `Give the ${label} as text.` })
+const text = (label: string, max: number, options: { multiline?: boolean } = {}) =>
+  safeText({ ...options, error: `Give the ${label} as text.` })
     .trim()
     .max(max, `The ${label} can be at most ${max} characters.`);
 const requiredText = (label: string, max: number) => text(label, max).min(1, `Enter the ${label}.`);
@@ -186,7 +185,7 @@ const requiredText = (label: string, max: number) => text(label, max).min(1, `En
 export const sequenceStepSchema = z.object({
   title: requiredText("step's title", 120),
   holdPoint: z.boolean({ error: "Say whether the step is a hold point (true or false)." }),
-  notes: text("step's notes", 2000).default(""),
+  notes: text("step's notes", 2000, { multiline: true }).default(""),
 });
 export type SequenceStep = z.infer<typeof sequenceStepSchema>;
 
@@ -204,8 +203,8 @@ export const detailsSchema = z.object({
   hazards: z
     .array(z.object({ hazard: requiredText("hazard", 300), control: requiredText("control for the hazard", 1000) }))
     .max(MAX_HAZARDS, `At most ${MAX_HAZARDS} hazards.`),
-  exclusionZone: text("exclusion zone", 2000),
-  communication: text("communication method", 1000),
+  exclusionZone: text("exclusion zone", 2000, { multiline: true }),
+  communication: text("communication method", 1000, { multiline: true }),
   people: z
     .array(
       z.object({

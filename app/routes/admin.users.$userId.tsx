@@ -5,15 +5,19 @@ import { sendInvitation } from "~/accounts/account-mail.server";
 import { RoleCheckboxes } from "~/components/role-checkboxes";
 import { Button, Card, FormError, PageHeader } from "~/components/ui/form";
 import { parseForm, requireFormData } from "~/utils/forms";
+import { recordAudit } from "~/models/audit-event.server";
+import { countUserSessions, endUserSessions } from "~/models/session.server";
 import { countOtherActiveAdmins, getOrganisationUser, setUserActive, updateUserRoles } from "~/models/user.server";
 import { ROLES } from "~/utils/roles";
-import { flashNotice, requireUserWithRole } from "~/utils/session.server";
+import { runInBackground } from "~/utils/background.server";
+import { flashNotice, requireUserWithRole, sessionLifetimes } from "~/utils/session.server";
 
 const schema = z.discriminatedUnion("intent", [
   z.object({ intent: z.literal("roles"), roles: z.array(z.enum(ROLES)).min(1, "Give the user at least one role.") }),
   z.object({ intent: z.literal("deactivate") }),
   z.object({ intent: z.literal("reactivate") }),
   z.object({ intent: z.literal("invite") }),
+  z.object({ intent: z.literal("end-sessions") }),
 ]);
 
 export const meta: Route.MetaFunction = () => [{ title: "User · Plumbline" }];
@@ -30,6 +34,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireTargetUser(admin.organisationId, params.userId);
   return {
     isSelf: user.id === admin.id,
+    sessionCount: await countUserSessions(user.id, sessionLifetimes()),
     user: {
       id: user.id,
       name: user.name,
@@ -68,16 +73,29 @@ export async function action({ request, params }: Route.ActionArgs) {
       await setUserActive(admin.organisationId, user.id, true, admin.id);
       return back(`${user.name} is active again.`);
     }
+    case "end-sessions": {
+      const ended = await endUserSessions(user.id);
+      await recordAudit({
+        organisationId: admin.organisationId,
+        userId: admin.id,
+        entity: "user",
+        entityId: user.id,
+        action: "sessions ended",
+        details: { sessions: ended },
+      });
+      const whom = user.id === admin.id ? "You are" : `${user.name} is`;
+      return back(`${whom} signed out everywhere (${ended} ${ended === 1 ? "session" : "sessions"} ended).`);
+    }
     case "invite": {
       if (!user.active) return fail("Reactivate the user before sending an invitation.");
-      await sendInvitation(user, admin.name, admin.organisationName, request);
-      return back(`A new link to set a password went to ${user.email}.`);
+      runInBackground("the invitation mail", () => sendInvitation(user, admin.name, admin.organisationName, request));
+      return back(`A new link to set a password is on its way to ${user.email}.`);
     }
   }
 }
 
 export default function EditUser({ loaderData, actionData }: Route.ComponentProps) {
-  const { user, isSelf } = loaderData;
+  const { user, isSelf, sessionCount } = loaderData;
   const errors: Record<string, string[] | undefined> = actionData?.errors ?? {};
   return (
     <>
@@ -107,6 +125,17 @@ export default function EditUser({ loaderData, actionData }: Route.ComponentProp
                   <p className="mb-2 text-ink-soft">Send a fresh single-use link to set a password (72 hours).</p>
                   <Button type="submit" tone="secondary">
                     Send a new password link
+                  </Button>
+                </Form>
+                <Form method="post">
+                  <input type="hidden" name="intent" value="end-sessions" />
+                  <p className="mb-2 text-ink-soft">
+                    {sessionCount === 0
+                      ? "Not signed in anywhere."
+                      : `Signed in on ${sessionCount} ${sessionCount === 1 ? "browser" : "browsers"}. Signing them out ends every one at once; they sign in again with their password.`}
+                  </p>
+                  <Button type="submit" tone="secondary" disabled={sessionCount === 0}>
+                    Sign out everywhere
                   </Button>
                 </Form>
                 {!isSelf && (

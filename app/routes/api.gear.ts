@@ -1,13 +1,13 @@
 import { z } from "zod";
 import type { Route } from "./+types/api.gear";
-import { withoutControlCharacters } from "~/utils/forms";
+import { safeText, searchText } from "~/utils/forms";
 import { searchGearPicks } from "~/gear/picks.server";
 import { getOrganisationRuleSet } from "~/models/organisation.server";
 import { getReferenceTables } from "~/models/reference-row.server";
 import { requireUser } from "~/utils/session.server";
 
 const querySchema = z.object({
-  query: z.string().max(100, "The search is at most 100 characters.").transform(withoutControlCharacters).default(""),
+  query: searchText().pipe(safeText().max(100, "The search is at most 100 characters.")).default(""),
   role: z
     .enum(["eyebolt", "shackle", "sling", "masterLink", "crane"], {
       error: "role is one of eyebolt, shackle, sling, masterLink, crane.",

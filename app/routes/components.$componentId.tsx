@@ -6,7 +6,7 @@ import type { Route } from "./+types/components.$componentId";
 import { ComponentViews } from "~/components/component-views";
 import { Button, Card, FormError, PageHeader, SelectField } from "~/components/ui/form";
 import { COG_SOURCE_LABELS, MASS_SOURCE_LABELS } from "~/loads/component-definition";
-import { parseForm } from "~/utils/forms";
+import { parseForm, safeText } from "~/utils/forms";
 import {
   addComponentFile,
   getComponent,
@@ -28,7 +28,7 @@ const schema = z.discriminatedUnion("intent", [
     kind: z.enum(["drawing", "photo"], { error: "Say whether it is a drawing or a photo." }),
     caption: z.preprocess(
       (v) => (typeof v === "string" ? v.trim() : ""),
-      z.string().max(200, "At most 200 characters."),
+      safeText().max(200, "At most 200 characters."),
     ),
   }),
   z.object({ intent: z.literal("remove-file"), fileId: z.coerce.number().int().positive() }),

@@ -3,13 +3,14 @@ import { z } from "zod";
 import type { Route } from "./+types/forgot-password";
 import { sendPasswordReset } from "~/accounts/account-mail.server";
 import { Button, Field, FormError } from "~/components/ui/form";
-import { parseForm, requireFormData } from "~/utils/forms";
+import { parseForm, requireFormData, safeText } from "~/utils/forms";
 import { startPasswordResetRequest } from "~/models/sign-in-attempt.server";
 import { findUserByEmail } from "~/models/user.server";
+import { runInBackground } from "~/utils/background.server";
 import { clientAddressKey } from "~/utils/security.server";
 
 const schema = z.object({
-  email: z.string({ error: "Enter your e-mail address." }).trim().email("Enter a valid e-mail address.").max(320),
+  email: safeText({ error: "Enter your e-mail address." }).trim().email("Enter a valid e-mail address.").max(320),
 });
 
 export const meta: Route.MetaFunction = () => [{ title: "Reset password · Plumbline" }];
@@ -24,9 +25,15 @@ export async function action({ request }: Route.ActionArgs) {
       { status: 429, headers: { "Retry-After": String(limit.retryAfterSeconds) } },
     );
   }
-  const user = limit.sendMail ? await findUserByEmail(form.data.email) : null;
-  if (user?.active) await sendPasswordReset(user, request);
-  // The same answer either way, so the form does not reveal who has an account.
+  // The same answer in the same time either way, so the form does not reveal who has an account: looking the
+  // address up and sending the mail happen after the response.
+  if (limit.sendMail) {
+    const { email } = form.data;
+    runInBackground("the password reset mail", async () => {
+      const user = await findUserByEmail(email);
+      if (user?.active) await sendPasswordReset(user, request);
+    });
+  }
   return { errors: null, sent: true };
 }
 

@@ -10,7 +10,7 @@ import { z } from "zod";
 import type { Route } from "./+types/gear._index";
 import { DueLabel, StatusLabel, formatWll } from "~/components/gear-labels";
 import { Button, EmptyState, PageHeader } from "~/components/ui/form";
-import { withoutControlCharacters } from "~/utils/forms";
+import { safeText, searchText } from "~/utils/forms";
 import { DUE_SOON_DAYS, DUE_STATE_LABELS, DUE_STATES } from "~/gear/due";
 import { getOrganisationToday } from "~/models/organisation.server";
 import { GEAR_KIND_INFO, GEAR_KINDS, GEAR_STATUS_LABELS, GEAR_STATUSES, kindLabel, sizeSummary } from "~/gear/kinds";
@@ -29,7 +29,7 @@ const PAGE_SIZE = 50;
 
 // Unknown or malformed parameters fall back to "no filter" rather than failing the page.
 const searchSchema = z.object({
-  q: z.string().transform(withoutControlCharacters).pipe(z.string().trim().max(100)).catch(""),
+  q: searchText().pipe(safeText().trim().max(100)).catch(""),
   kind: z.enum(GEAR_KINDS).optional().catch(undefined),
   status: z.enum(GEAR_STATUSES).optional().catch(undefined),
   site: z

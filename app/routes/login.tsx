@@ -1,11 +1,19 @@
 import { data, Form, redirect, useNavigation, useSearchParams } from "react-router";
 import type { Route } from "./+types/login";
-import { authenticator, SignInError } from "~/utils/auth.server";
+import { sendFailedSignInNotice } from "~/accounts/account-mail.server";
+import { authenticator, deviceKeyFor, rememberDevice, SignInError } from "~/utils/auth.server";
 import { Button, Field, FormError } from "~/components/ui/form";
+import { runInBackground } from "~/utils/background.server";
 import { requireFormData } from "~/utils/forms";
-import { clearSignInFailures, startSignInAttempt } from "~/models/sign-in-attempt.server";
+import {
+  countSignInFailures,
+  NOTICE_AFTER_FAILURES,
+  recordSignInSuccess,
+  startSignInAttempt,
+} from "~/models/sign-in-attempt.server";
+import { findUserByEmail } from "~/models/user.server";
 import { clientAddressKey } from "~/utils/security.server";
-import { createUserSession, getUser, safeRedirectPath } from "~/utils/session.server";
+import { getUser, newSessionCookie, safeRedirectPath } from "~/utils/session.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Sign in · Plumbline" }];
 
@@ -15,11 +23,22 @@ export async function loader({ request }: Route.LoaderArgs) {
   return null;
 }
 
+/** After repeated failures the account's owner is told, once as the count passes the mark, after the response. */
+async function noticeRepeatedFailures(email: string) {
+  const failures = await countSignInFailures(email);
+  if (failures !== NOTICE_AFTER_FAILURES) return;
+  runInBackground("the failed sign-in notice", async () => {
+    const user = await findUserByEmail(email);
+    if (user?.active) await sendFailedSignInNotice(user, failures);
+  });
+}
+
 export async function action({ request }: Route.ActionArgs) {
   const form = await requireFormData(request.clone());
   const redirectTo = safeRedirectPath(form.get("redirectTo"));
   const email = typeof form.get("email") === "string" ? String(form.get("email")) : "";
-  const attempt = await startSignInAttempt({ email, addressKey: clientAddressKey(request) });
+  const source = { addressKey: clientAddressKey(request), deviceKey: await deviceKeyFor(request, email) };
+  const attempt = await startSignInAttempt({ email, ...source });
   if (!attempt.ok)
     return data(
       { error: attempt.message, email },
@@ -27,11 +46,15 @@ export async function action({ request }: Route.ActionArgs) {
     );
   try {
     const user = await authenticator.authenticate("password", request);
-    await clearSignInFailures(email);
-    return createUserSession(request, user.id, redirectTo);
+    await recordSignInSuccess(attempt.attemptId, email, source);
+    const headers = new Headers();
+    headers.append("Set-Cookie", await newSessionCookie(request, user.id));
+    headers.append("Set-Cookie", await rememberDevice(request, email));
+    return redirect(redirectTo, { status: 303, headers });
   } catch (error) {
-    if (error instanceof SignInError) return data({ error: error.message, email }, { status: 401 });
-    throw error;
+    if (!(error instanceof SignInError)) throw error;
+    await noticeRepeatedFailures(email);
+    return data({ error: error.message, email }, { status: 401 });
   }
 }
 

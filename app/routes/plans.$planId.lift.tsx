@@ -11,6 +11,7 @@ import { GEAR_ROLE_LABELS } from "~/plans/rigging";
 import { flashNotice, requireUserWithRole } from "~/utils/session.server";
 import { checkUpload, readUploadForm, type CheckedUpload } from "~/utils/uploads.server";
 import { formatMass } from "~/utils/format";
+import { CONTROL_CHARACTER_MESSAGE, hasControlCharacters } from "~/utils/forms";
 
 export const meta: Route.MetaFunction = () => [{ title: "At the lift · Plumbline" }];
 
@@ -86,6 +87,10 @@ export async function action({ request, params }: Route.ActionArgs) {
   const checklist = Object.fromEntries(
     PRE_LIFT_CHECKLIST.map((c) => [c.id, form.get(`check-${c.id}`) === "on"]),
   ) as Record<ChecklistId, boolean>;
+  const notes = String(form.get("notes") ?? "");
+  const nearMissDetails = String(form.get("nearMissDetails") ?? "");
+  if (hasControlCharacters(notes) || hasControlCharacters(nearMissDetails))
+    return data({ error: CONTROL_CHARACTER_MESSAGE }, { status: 400 });
   const liftedRaw = String(form.get("liftedAt") ?? "");
   const liftedAt = liftedRaw ? new Date(`${liftedRaw}Z`) : new Date();
   if (Number.isNaN(liftedAt.getTime()))
@@ -104,9 +109,9 @@ export async function action({ request, params }: Route.ActionArgs) {
     {
       checklist,
       liftedAt,
-      notes: String(form.get("notes") ?? ""),
+      notes,
       nearMiss: form.get("nearMiss") === "on",
-      nearMissDetails: String(form.get("nearMissDetails") ?? ""),
+      nearMissDetails,
     },
     photos,
   );

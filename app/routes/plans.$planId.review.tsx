@@ -6,7 +6,7 @@ import { ChecksList } from "~/components/results/checks-list";
 import { GoverningSummary } from "~/components/results/governing-summary";
 import { LegTable } from "~/components/results/leg-table";
 import { Button, Card, Field, FormError, PageHeader, TextAreaField } from "~/components/ui/form";
-import { parseForm, requireFormData } from "~/utils/forms";
+import { parseForm, requireFormData, safeText } from "~/utils/forms";
 import { getPlan, planExists } from "~/models/plan.server";
 import { approveRevision, getWorkflowView, returnRevision } from "~/models/plan-workflow.server";
 import { PLAN_CAUTION, PLAN_STATUS_LABELS } from "~/plans/document";
@@ -16,11 +16,14 @@ import { formatLength, formatMass } from "~/utils/format";
 const schema = z.discriminatedUnion("intent", [
   z.object({
     intent: z.literal("approve"),
-    password: z.string({ error: "Enter your password." }).min(1, "Enter your password."),
-    typedName: z.string({ error: "Type your name." }).min(1, "Type your name."),
-    comment: z.string().max(4000).default(""),
+    password: safeText({ error: "Enter your password." }).min(1, "Enter your password."),
+    typedName: safeText({ error: "Type your name." }).min(1, "Type your name."),
+    comment: safeText({ multiline: true }).max(4000).default(""),
   }),
-  z.object({ intent: z.literal("return"), comment: z.string({ error: "Say what should change." }).max(4000) }),
+  z.object({
+    intent: z.literal("return"),
+    comment: safeText({ multiline: true, error: "Say what should change." }).max(4000),
+  }),
 ]);
 
 export const meta: Route.MetaFunction = () => [{ title: "Review · Plumbline" }];

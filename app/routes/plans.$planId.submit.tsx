@@ -5,7 +5,7 @@ import { GoverningSummary } from "~/components/results/governing-summary";
 import { StatusBadge } from "~/components/results/status-badge";
 import { checkSentence, itemText } from "~/plans/check-text";
 import { Button, Card, FormError, PageHeader } from "~/components/ui/form";
-import { requireFormData } from "~/utils/forms";
+import { CONTROL_CHARACTER_MESSAGE, hasControlCharacters, requireFormData } from "~/utils/forms";
 import { getPlan } from "~/models/plan.server";
 import { submitRevision } from "~/models/plan-workflow.server";
 import { PLAN_CAUTION } from "~/plans/document";
@@ -39,6 +39,9 @@ export async function action({ request, params }: Route.ActionArgs) {
   const acknowledgements: Record<string, string> = {};
   for (const [key, value] of form.entries())
     if (key.startsWith("ack-") && typeof value === "string") acknowledgements[key.slice(4)] = value;
+  const unreadable = Object.keys(acknowledgements).find((id) => hasControlCharacters(acknowledgements[id]!));
+  if (unreadable !== undefined)
+    return data({ error: CONTROL_CHARACTER_MESSAGE, field: `ack-${unreadable}`, acknowledgements }, { status: 400 });
   const result = await submitRevision(user.organisationId, planId, user, acknowledgements, request);
   if (!result.ok) {
     if (result.status === 404) throw data({ message: result.message }, { status: 404 });

@@ -4,7 +4,7 @@ import type { Route } from "./+types/plans.$planId";
 import { ComponentViews } from "~/components/component-views";
 import { Button, Card, EmptyState, FormError, PageHeader } from "~/components/ui/form";
 import { COG_SOURCE_LABELS, MASS_SOURCE_LABELS } from "~/loads/component-definition";
-import { parseForm, requireFormData } from "~/utils/forms";
+import { parseForm, requireFormData, safeText } from "~/utils/forms";
 import { compareWithComponent, EDITABLE_STATUSES, getPlan, pullComponentVersion } from "~/models/plan.server";
 import { assignRigger, cancelPlan, getWorkflowView, startNewRevision } from "~/models/plan-workflow.server";
 import { listUsersWithRole } from "~/models/user.server";
@@ -23,7 +23,10 @@ import { formatAngle, formatCapacity, formatLength, formatLoad, formatMass, type
 const schema = z.discriminatedUnion("intent", [
   z.object({ intent: z.literal("pull-component"), version: z.coerce.number().int().positive() }),
   z.object({ intent: z.literal("new-revision") }),
-  z.object({ intent: z.literal("cancel"), reason: z.string({ error: "Say why the plan is cancelled." }) }),
+  z.object({
+    intent: z.literal("cancel"),
+    reason: safeText({ multiline: true, error: "Say why the plan is cancelled." }),
+  }),
   z.object({
     intent: z.literal("assign-rigger"),
     riggerId: z.coerce.number({ error: "Choose a rigger." }).int().positive("Choose a rigger."),

@@ -2,12 +2,12 @@ import { data, Form, redirect } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/set-password.$token";
 import { Button, Field, FormError } from "~/components/ui/form";
-import { newPasswordSchema, parseForm, requireFormData } from "~/utils/forms";
+import { newPasswordSchema, parseForm, requireFormData, safeText } from "~/utils/forms";
 import { findUsableToken, redeemPasswordToken } from "~/models/password-token.server";
 import { flashNotice } from "~/utils/session.server";
 
 const schema = z
-  .object({ password: newPasswordSchema, confirm: z.string({ error: "Repeat the password." }) })
+  .object({ password: newPasswordSchema, confirm: safeText({ error: "Repeat the password." }) })
   .refine((v) => v.password === v.confirm, { message: "The two passwords differ.", path: ["confirm"] });
 
 export const meta: Route.MetaFunction = () => [{ title: "Choose a password · Plumbline" }];

@@ -2,10 +2,12 @@ import { data, Form, redirect } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/settings";
 import { Button, Card, Field, FormError, PageHeader, SelectField } from "~/components/ui/form";
-import { newPasswordSchema, parseForm, requireFormData } from "~/utils/forms";
-import { setPassword, setUnits, verifyPassword } from "~/models/user.server";
+import { newPasswordSchema, parseForm, requireFormData, safeText } from "~/utils/forms";
+import { endUserSession, endUserSessions, listUserSessions } from "~/models/session.server";
+import { changePassword, setUnits, verifyPassword } from "~/models/user.server";
 import { ROLE_DUTIES, ROLE_LABELS } from "~/utils/roles";
-import { flashNotice, requireUser } from "~/utils/session.server";
+import { flashNotice, newSessionCookie, requireUserSession, sessionLifetimes } from "~/utils/session.server";
+import { SessionList } from "~/components/session-list";
 
 const schema = z.discriminatedUnion("intent", [
   z.object({
@@ -15,24 +17,43 @@ const schema = z.discriminatedUnion("intent", [
   z
     .object({
       intent: z.literal("password"),
-      current: z.string({ error: "Enter your current password." }).min(1, "Enter your current password."),
+      current: safeText({ error: "Enter your current password." }).min(1, "Enter your current password."),
       password: newPasswordSchema,
-      confirm: z.string({ error: "Repeat the new password." }),
+      confirm: safeText({ error: "Repeat the new password." }),
     })
     .refine((v) => v.password === v.confirm, { message: "The two new passwords differ.", path: ["confirm"] }),
+  z.object({
+    intent: z.literal("end-session"),
+    sessionId: z.coerce.number({ error: "Choose a session to end." }).int().positive("Choose a session to end."),
+  }),
+  z.object({ intent: z.literal("end-other-sessions") }),
 ]);
 
 export const meta: Route.MetaFunction = () => [{ title: "Settings · Plumbline" }];
 
 export async function loader({ request }: Route.LoaderArgs) {
-  const user = await requireUser(request);
-  return { user };
+  const { user, sessionId } = await requireUserSession(request);
+  const sessions = await listUserSessions(user.id, sessionLifetimes());
+  return { user, sessions, currentSessionId: sessionId };
 }
 
 export async function action({ request }: Route.ActionArgs) {
-  const user = await requireUser(request);
+  const { user, sessionId } = await requireUserSession(request);
   const form = parseForm(schema, await requireFormData(request));
   if (!form.ok) return data({ errors: form.errors }, { status: 400 });
+  const back = async (notice: string) =>
+    redirect("/settings", { headers: { "Set-Cookie": await flashNotice(request, notice) } });
+  if (form.data.intent === "end-session") {
+    if (form.data.sessionId === sessionId)
+      return data({ errors: { session: ["To end this browser's session, sign out."] } }, { status: 400 });
+    if (!(await endUserSession(user.id, form.data.sessionId)))
+      return data({ errors: { session: ["That session has already ended."] } }, { status: 400 });
+    return back("That session is ended; the browser that held it must sign in again.");
+  }
+  if (form.data.intent === "end-other-sessions") {
+    const ended = await endUserSessions(user.id, { exceptSessionId: sessionId });
+    return back(ended === 1 ? "One other session is ended." : `${ended} other sessions are ended.`);
+  }
   if (form.data.intent === "units") {
     await setUnits(user.id, form.data.units);
     const notice =
@@ -44,12 +65,18 @@ export async function action({ request }: Route.ActionArgs) {
   if (!(await verifyPassword(user.id, form.data.current))) {
     return data({ errors: { current: ["That is not your current password."] } }, { status: 400 });
   }
-  await setPassword(user.id, form.data.password);
-  throw redirect("/settings", { headers: { "Set-Cookie": await flashNotice(request, "Your password is changed.") } });
+  // Every session ends with the old password; this browser gets a new one.
+  await changePassword(user.id, form.data.password);
+  const cookie = await newSessionCookie(
+    request,
+    user.id,
+    "Your password is changed, and every other browser signed in as you is signed out.",
+  );
+  throw redirect("/settings", { headers: { "Set-Cookie": cookie } });
 }
 
 export default function Settings({ loaderData, actionData }: Route.ComponentProps) {
-  const { user } = loaderData;
+  const { user, sessions, currentSessionId } = loaderData;
   const errors: Record<string, string[] | undefined> = actionData?.errors ?? {};
   return (
     <>
@@ -103,6 +130,10 @@ export default function Settings({ loaderData, actionData }: Route.ComponentProp
             />
             <Button type="submit">Change password</Button>
           </Form>
+        </Card>
+        <Card title="Where you are signed in" className="md:col-span-2">
+          <FormError message={errors.session?.join(" ")} />
+          <SessionList sessions={sessions} currentSessionId={currentSessionId} />
         </Card>
         <Card title="Your roles" className="md:col-span-2">
           <ul className="space-y-1 text-sm">

@@ -21,7 +21,20 @@ const envSchema = z.object({
   WEB_CONCURRENCY: z.coerce.number().int().min(1).max(256).optional(),
   // How many reverse proxies in front of Plumbline append to X-Forwarded-For (0: none, the header is ignored).
   TRUST_PROXY: z.coerce.number().int().min(0).max(10).default(0),
+  // A session ends after this long without a request, and in any case this long after sign-in.
+  SESSION_IDLE_HOURS: z.coerce
+    .number()
+    .min(0.25)
+    .max(24 * 30)
+    .default(12),
+  SESSION_MAX_DAYS: z.coerce.number().min(0.5).max(90).default(7),
 });
+
+/** The origin of the address the server listens on: HOST (a wildcard address means localhost) and PORT. */
+function listeningOrigin(host: string | undefined, port: number) {
+  const name = !host || host === "0.0.0.0" || host === "::" ? "localhost" : host.includes(":") ? `[${host}]` : host;
+  return `http://${name}:${port}`;
+}
 
 export type AppEnvironment = "production" | "demo" | "development" | "test";
 
@@ -60,12 +73,16 @@ export function parseEnvironment(source: Record<string, string | undefined>) {
     smtpUrl: raw.SMTP_URL,
     mailFrom: raw.MAIL_FROM,
     mailCatcherPort: raw.MAIL_CATCHER_PORT,
-    publicUrl: raw.PUBLIC_URL ?? `http://localhost:${raw.PORT}`,
+    // Where users reach Plumbline: links in mail and the one origin a mutation may come from. Without PUBLIC_URL,
+    // the address the server is told to listen on (never a request's Host header).
+    publicUrl: raw.PUBLIC_URL ? new URL(raw.PUBLIC_URL).origin : listeningOrigin(raw.HOST, raw.PORT),
     publicUrlIsSet: !!raw.PUBLIC_URL,
     trustedProxyHops: raw.TRUST_PROXY,
     port: raw.PORT,
     host: raw.HOST || undefined,
     webConcurrency: raw.WEB_CONCURRENCY ?? os.availableParallelism(),
+    sessionIdleMs: raw.SESSION_IDLE_HOURS * 60 * 60 * 1000,
+    sessionMaxMs: raw.SESSION_MAX_DAYS * 24 * 60 * 60 * 1000,
   };
 }
 

@@ -21,22 +21,38 @@ export async function requireFormData(request: Request): Promise<FormData> {
   }
 }
 
-// Sequelize writes text into SQLite statements inline when it filters or inserts several rows, and a NUL there ends the
-// statement early: text that reaches a WHERE clause or a multi-row insert must not carry control characters.
+// One rule for the text of every field: no control characters (C0 but for tab, LF and CR in multi-line fields,
+// DEL, C1) and no bidirectional embedding, override or isolate marks (U+202A-202E, U+2066-2069). Control characters
+// reach messages, CSV and PDFs invisibly, a NUL ends the statement Sequelize writes inline for a WHERE clause, and a
+// right-to-left override makes "gpj.exe" read as "exe.jpg".
 // eslint-disable-next-line no-control-regex
-const CONTROL_CHARACTERS = /[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f]/g;
+const FORBIDDEN_IN_LINE = /[\u0000-\u001f\u007f-\u009f\u202a-\u202e\u2066-\u2069]/g;
+// eslint-disable-next-line no-control-regex
+const FORBIDDEN_IN_TEXT = /[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f-\u009f\u202a-\u202e\u2066-\u2069]/g;
 
 export const CONTROL_CHARACTER_MESSAGE =
-  "Remove the control character (an invisible one, such as NUL) from this field.";
+  "Remove the invisible control or text-direction character (such as NUL or a right-to-left override) from this field.";
 
-/** Whether `text` holds a control character other than tab, CR and LF. */
-export function hasControlCharacters(text: string): boolean {
-  return text.search(CONTROL_CHARACTERS) !== -1;
+/** Whether `text` holds a character no field takes; `multiline` allows tab, LF and CR. */
+export function hasControlCharacters(text: string, multiline = true): boolean {
+  return text.search(multiline ? FORBIDDEN_IN_TEXT : FORBIDDEN_IN_LINE) !== -1;
 }
 
-/** `text` with its control characters (other than tab, CR and LF) taken out: for search boxes. */
+/** `text` with the characters no field takes removed (tab, LF and CR kept): for search boxes, which never refuse. */
 export function withoutControlCharacters(text: string): string {
-  return text.replace(CONTROL_CHARACTERS, "");
+  return text.replace(FORBIDDEN_IN_TEXT, "");
+}
+
+/**
+ * The string schema of every text field in a form or an API body: refuses control characters and bidirectional
+ * overrides with a sentence. A one-line field refuses tab and line breaks too; `multiline` (text areas) keeps them.
+ * Chain `.trim()`, `.min()`, `.max()` on it as on `z.string()`.
+ */
+export function safeText(options: { multiline?: boolean; error?: string } = {}) {
+  const multiline = options.multiline ?? false;
+  return z
+    .string(options.error ? { error: options.error } : undefined)
+    .refine((v) => !hasControlCharacters(v, multiline), CONTROL_CHARACTER_MESSAGE);
 }
 
 export type FormResult<T> = { ok: true; data: T } | { ok: false; errors: Record<string, string[]> };
@@ -57,23 +73,27 @@ export function parseForm<S extends z.ZodType>(
   return { ok: false, errors };
 }
 
-/** A trimmed text field, empty allowed, bounded. */
-export function optionalText(max: number) {
+/** A search box's text: never refused, the characters no field takes are dropped instead. */
+export function searchText() {
+  return z.string().transform(withoutControlCharacters);
+}
+
+/** A trimmed text field, empty allowed, bounded; `multiline` for a text area. */
+export function optionalText(max: number, options: { multiline?: boolean } = {}) {
   return z.preprocess(
     (v) => (typeof v === "string" ? v.trim() : ""),
-    z.string().max(max, `At most ${max} characters.`),
+    safeText(options).max(max, `At most ${max} characters.`),
   );
 }
 
-/** A trimmed text field that must not be empty. */
-export function requiredText(label: string, max: number) {
+/** A trimmed text field that must not be empty; `multiline` for a text area. */
+export function requiredText(label: string, max: number, options: { multiline?: boolean } = {}) {
   return z.preprocess(
     (v) => (typeof v === "string" ? v.trim() : ""),
-    z.string().min(1, `Enter the ${label}.`).max(max, `The ${label} can be at most ${max} characters.`),
+    safeText(options).min(1, `Enter the ${label}.`).max(max, `The ${label} can be at most ${max} characters.`),
   );
 }
 
-export const newPasswordSchema = z
-  .string({ error: "Enter a new password." })
+export const newPasswordSchema = safeText({ error: "Enter a new password." })
   .min(10, "Use at least 10 characters.")
   .max(200, "Use at most 200 characters.");

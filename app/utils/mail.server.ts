@@ -102,10 +102,11 @@ export async function sendMail(mail: OutgoingMail) {
 }
 
 /**
- * The absolute URL for `path` for a link in a message: PUBLIC_URL when set (always in production,
- * so a forged Host header cannot redirect reset links), else the origin the request came in on.
+ * The absolute URL for `path` for a link in a message, always on PUBLIC_URL's origin (or, without it, the address
+ * the server listens on), so a forged Host header cannot send a reset link elsewhere. Only in development, with no
+ * PUBLIC_URL, does the request's own origin serve (Vite may move to another port).
  */
 export function absoluteUrl(path: string, request?: Request) {
-  const origin = env.publicUrlIsSet || !request ? env.publicUrl : new URL(request.url).origin;
-  return new URL(path, origin).toString();
+  const fromRequest = request && env.appEnv === "development" && !env.publicUrlIsSet;
+  return new URL(path, fromRequest ? new URL(request.url).origin : env.publicUrl).toString();
 }

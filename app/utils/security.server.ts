@@ -29,10 +29,15 @@ export function contentSecurityPolicy(nonce: string) {
   ].join("; ");
 }
 
-/** The headers every response carries (Content-Security-Policy only where the response has none of its own). */
+/**
+ * The headers every response carries (Content-Security-Policy only where the response has none of its own).
+ * Nothing is stored by browsers or proxies: pages show one organisation's data to one signed-in user and carry a
+ * per-response nonce, API answers likewise.
+ */
 export function securityHeaders(nonce: string, isProduction = env.isProduction): Record<string, string> {
   return {
     "Content-Security-Policy": contentSecurityPolicy(nonce),
+    "Cache-Control": "no-store",
     "X-Content-Type-Options": "nosniff",
     "Referrer-Policy": "same-origin",
     "X-Frame-Options": "DENY",
@@ -48,23 +53,66 @@ export function newCspNonce() {
   return crypto.randomBytes(16).toString("base64");
 }
 
-/** Sets the security headers on `headers`, keeping a Content-Security-Policy already there. */
+/** Sets the security headers on `headers`, keeping a Content-Security-Policy or a no-store Cache-Control already there. */
 export function setSecurityHeaders(headers: Headers, nonce: string) {
   for (const [name, value] of Object.entries(securityHeaders(nonce))) {
-    if (name !== "Content-Security-Policy" || !headers.has(name)) headers.set(name, value);
+    if (name === "Content-Security-Policy" && headers.has(name)) continue;
+    if (name === "Cache-Control" && /\bno-store\b/.test(headers.get(name) ?? "")) continue;
+    headers.set(name, value);
   }
 }
 
-function withSecurityHeaders(response: Response, nonce: string): Response {
+/** Methods every page takes; the JSON API's routes each answer other methods themselves (405 with their Allow). */
+const PAGE_METHODS = ["GET", "HEAD", "POST"];
+
+/**
+ * The 405 answer to a method no page takes (PUT, DELETE, OPTIONS, PROPFIND...), before any action runs: React
+ * Router would otherwise hand any method but GET to a form's action as if it were a POST.
+ */
+export function methodRefusal(request: Request): Response | null {
+  const method = request.method.toUpperCase();
+  if (PAGE_METHODS.includes(method) || new URL(request.url).pathname.startsWith("/api/")) return null;
+  return new Response(
+    `Plumbline's pages do not take ${method.slice(0, 20)} requests; use ${PAGE_METHODS.join(", ")}.`,
+    {
+      status: 405,
+      headers: { Allow: PAGE_METHODS.join(", "), "Content-Type": "text/plain; charset=utf-8" },
+    },
+  );
+}
+
+/**
+ * The Allow header of a 405 that React Router answered itself: a POST refused (which React Router renders as a GET)
+ * is a route without an action, GET and HEAD only; any other method is one React Router refuses before the
+ * middleware runs (OPTIONS, PROPFIND...).
+ */
+export function allowFor405(request: Request) {
+  return ["GET", "HEAD", "POST"].includes(request.method.toUpperCase()) ? "GET, HEAD" : PAGE_METHODS.join(", ");
+}
+
+function withAllow(response: Response, request: Request) {
+  if (response.status !== 405 || response.headers.has("Allow")) return response;
+  // An API route without an action: React Router's own 405 says only "Unexpected Server Error".
+  if (new URL(request.url).pathname.startsWith("/api/"))
+    return Response.json(
+      { error: `This address answers GET only, not ${request.method.toUpperCase().slice(0, 20)}.` },
+      { status: 405, headers: { Allow: "GET, HEAD" } },
+    );
+  response.headers.set("Allow", allowFor405(request));
+  return response;
+}
+
+function withSecurityHeaders(response: Response, nonce: string, request: Request): Response {
+  let answer: Response;
   try {
-    setSecurityHeaders(response.headers, nonce);
-    return response;
+    answer = withAllow(response, request);
+    setSecurityHeaders(answer.headers, nonce);
   } catch {
     // A Response whose headers are immutable (one passed on from fetch): answer with a copy.
-    const copy = new Response(response.body, response);
-    setSecurityHeaders(copy.headers, nonce);
-    return copy;
+    answer = withAllow(new Response(response.body, response), request);
+    setSecurityHeaders(answer.headers, nonce);
   }
+  return answer;
 }
 
 function originOf(value: string): string | null {
@@ -76,29 +124,26 @@ function originOf(value: string): string | null {
   }
 }
 
-/** The origins a mutation may come from: the request's own and, when set, PUBLIC_URL's (behind a TLS proxy they differ). */
-function allowedOrigins(request: Request, publicUrl: string | null): Set<string> {
-  const allowed = new Set([new URL(request.url).origin]);
-  if (publicUrl) allowed.add(new URL(publicUrl).origin);
-  return allowed;
+/**
+ * The one origin Plumbline's pages are served from: PUBLIC_URL's (or the listening address's). The request's URL
+ * is built from its Host header, which the client writes, so it decides only in development without PUBLIC_URL.
+ */
+export function appOrigin(request?: Request): string {
+  if (request && env.appEnv === "development" && !env.publicUrlIsSet) return new URL(request.url).origin;
+  return env.publicUrl;
 }
 
 /**
  * Whether a request is a mutation from somewhere other than Plumbline's own pages. GET and HEAD never are.
- * Otherwise the Origin header (or, when a browser sent none, the Referer) must name Plumbline itself; a request
+ * Otherwise the Origin header (or, when a browser sent none, the Referer) must name Plumbline's origin; a request
  * with neither passes only if it carries no cookie, so nobody's session can be ridden. Browsers send Origin on
  * every POST, so a real page never meets this.
  */
-export function isCrossSiteMutation(
-  request: Request,
-  publicUrl: string | null = env.publicUrlIsSet ? env.publicUrl : null,
-): boolean {
+export function isCrossSiteMutation(request: Request, ownOrigin: string = appOrigin(request)): boolean {
   if (SAFE_METHODS.has(request.method.toUpperCase())) return false;
-  const allowed = allowedOrigins(request, publicUrl);
   const source = request.headers.get("Origin") ?? request.headers.get("Referer");
   if (source === null) return request.headers.has("Cookie");
-  const origin = originOf(source.trim());
-  return origin === null || !allowed.has(origin);
+  return originOf(source.trim()) !== ownOrigin;
 }
 
 /** The 403 answer to a cross-site mutation: JSON under /api, a plain sentence elsewhere. */
@@ -109,14 +154,15 @@ export function crossSiteRefusal(request: Request): Response {
 }
 
 /**
- * Runs first on every request React Router serves (pages, data requests, resource routes): refuses cross-site
- * mutations before any loader or action, picks the request's CSP nonce and puts the security headers on the answer.
+ * Runs first on every request React Router serves (pages, data requests, resource routes): refuses methods no page
+ * takes and cross-site mutations before any loader or action, picks the request's CSP nonce and puts the security
+ * headers on the answer.
  */
 export const securityMiddleware: MiddlewareFunction<Response> = async ({ request, context }, next) => {
   const nonce = newCspNonce();
   context.set(cspNonceContext, nonce);
-  const response = isCrossSiteMutation(request) ? crossSiteRefusal(request) : await next();
-  return withSecurityHeaders(response, nonce);
+  const response = methodRefusal(request) ?? (isCrossSiteMutation(request) ? crossSiteRefusal(request) : await next());
+  return withSecurityHeaders(response, nonce, request);
 };
 
 /** The eight 16-bit groups of an IPv6 address that `net.isIPv6` has accepted, or null. */
@@ -159,20 +205,27 @@ export function addressKeyOf(raw: string): string | null {
 }
 
 /**
- * The client's address key for attempt limits. Loaders are not given the socket's address,
- * so it comes from X-Forwarded-For, and only when TRUST_PROXY says how many proxies in front append to it: the
- * entry that many places from the right is the one our own proxy wrote (entries to its left are the client's
- * say-so). Without a trusted proxy, or with an unusable header, every client shares the key "direct".
+ * The client's address as our own proxy saw it, or null when it is not known. Loaders are not given the socket's
+ * address, so it comes from X-Forwarded-For, and only when TRUST_PROXY says how many proxies in front append to
+ * it: the entry that many places from the right is the one our own proxy wrote (entries to its left are the
+ * client's say-so).
+ */
+export function clientAddress(request: Request, trustedProxyHops = env.trustedProxyHops): string | null {
+  if (trustedProxyHops <= 0) return null;
+  const hops = (request.headers.get("X-Forwarded-For") ?? "")
+    .split(",")
+    .map((h) => h.trim())
+    .filter(Boolean);
+  const entry = hops[hops.length - trustedProxyHops];
+  return entry && addressKeyOf(entry) ? entry.slice(0, 64) : null;
+}
+
+/**
+ * The client's address key for attempt limits (an IPv4 address, an IPv6 /64), or "direct" when the address cannot
+ * be trusted (no TRUST_PROXY, or an unusable header): then every client looks the same and no limit may be keyed
+ * on it alone.
  */
 export function clientAddressKey(request: Request, trustedProxyHops = env.trustedProxyHops): string {
-  if (trustedProxyHops > 0) {
-    const hops = (request.headers.get("X-Forwarded-For") ?? "")
-      .split(",")
-      .map((h) => h.trim())
-      .filter(Boolean);
-    const entry = hops[hops.length - trustedProxyHops];
-    const key = entry ? addressKeyOf(entry) : null;
-    if (key) return key;
-  }
-  return SHARED_ADDRESS_KEY;
+  const address = clientAddress(request, trustedProxyHops);
+  return (address && addressKeyOf(address)) ?? SHARED_ADDRESS_KEY;
 }

@@ -50,6 +50,27 @@ function buildFiles(): RequestHandler {
   return (req, res, next) => (known.has(req.path) ? serve(req, res, next) : next());
 }
 
+/** The methods Plumbline takes anywhere; pages take GET, HEAD and POST, the JSON API also PUT (routes say which). */
+const KNOWN_METHODS = new Set(["GET", "HEAD", "POST", "PUT", "PATCH", "DELETE"]);
+
+/**
+ * Answers any other method (TRACE, OPTIONS, PROPFIND...) with 405 before React Router sees it: TRACE, TRACK and
+ * CONNECT cannot even become a fetch Request (the adapter threw, a 500), and React Router answers the rest itself
+ * without the root middleware's headers.
+ */
+const refuseUnknownMethods: RequestHandler = (req, res, next) => {
+  if (KNOWN_METHODS.has(req.method.toUpperCase())) return next();
+  setStaticHeaders(res);
+  res
+    .status(405)
+    .set({
+      Allow: req.path.startsWith("/api/") ? "GET, HEAD, POST, PUT" : "GET, HEAD, POST",
+      "Cache-Control": "no-store",
+      "Content-Type": "text/plain; charset=utf-8",
+    })
+    .send(`Plumbline does not take ${req.method.slice(0, 20)} requests.`);
+};
+
 function address({ host, port }: Settings) {
   return `http://${host ?? "localhost"}:${port}`;
 }
@@ -74,6 +95,7 @@ async function startWorker(settings: Settings) {
   );
   app.use(buildFiles());
   app.use(morgan("tiny"));
+  app.use(refuseUnknownMethods);
   // This file serves only the production build: errors reach the browser without their details.
   app.all("*", createRequestHandler({ build, mode: "production" }));
   const onListening = () => {

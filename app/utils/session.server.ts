@@ -1,36 +1,61 @@
 import { createCookieSessionStorage, data, redirect } from "react-router";
 import { env } from "~/utils/env.server";
-import { getActiveSessionUser, type SessionUser } from "~/models/user.server";
+import type { SessionUser } from "~/models/user.server";
+import {
+  endSessionByToken,
+  findSession,
+  startSession,
+  touchSession,
+  type SessionLifetimes,
+} from "~/models/session.server";
 import { ROLE_LABELS, type Role } from "~/utils/roles";
+import { clientAddress } from "~/utils/security.server";
+import { withoutControlCharacters } from "~/utils/forms";
+import { isReturnPath } from "~/utils/return-paths";
 
-/** The session cookie holds only the signed-in user's id. SESSION_SECRET may list several (newest first) to rotate. */
-export const sessionStorage = createCookieSessionStorage<{ userId: number }, { flash: string }>({
+/**
+ * The session cookie holds a random session token (the server keeps only its hash, with the user) and a one-time
+ * notice. SESSION_SECRET may list several (newest first) to rotate. Outside development over plain http the name
+ * carries the __Host- prefix, which browsers accept only Secure, for this host and path /.
+ */
+export const sessionStorage = createCookieSessionStorage<{ sessionToken: string }, { flash: string }>({
   cookie: {
-    name: "__plumbline_session",
+    name: env.isProduction ? "__Host-plumbline_session" : "__plumbline_session",
     httpOnly: true,
     sameSite: "lax",
     path: "/",
     secure: env.isProduction,
     secrets: env.sessionSecrets,
-    maxAge: 60 * 60 * 12,
+    maxAge: Math.floor(env.sessionMaxMs / 1000),
   },
 });
+
+/** The idle and absolute session lifetimes from the environment. */
+export function sessionLifetimes(): SessionLifetimes {
+  return { idleMs: env.sessionIdleMs, absoluteMs: env.sessionMaxMs };
+}
 
 function isApiRequest(request: Request) {
   return new URL(request.url).pathname.startsWith("/api/");
 }
 
+type SignedIn = { user: SessionUser; sessionId: number };
+
 // The root loader and the route's loader both ask for the user of one request; the second gets the first's answer.
-const usersByRequest = new WeakMap<Request, Promise<SessionUser | null>>();
+const signedInByRequest = new WeakMap<Request, Promise<SignedIn | null>>();
+
+function signedIn(request: Request): Promise<SignedIn | null> {
+  let found = signedInByRequest.get(request);
+  if (!found) {
+    found = lookUpSession(request);
+    signedInByRequest.set(request, found);
+  }
+  return found;
+}
 
 /** The signed-in, active user, or null (looked up once per request). */
-export function getUser(request: Request): Promise<SessionUser | null> {
-  let user = usersByRequest.get(request);
-  if (!user) {
-    user = lookUpUser(request);
-    usersByRequest.set(request, user);
-  }
-  return user;
+export async function getUser(request: Request): Promise<SessionUser | null> {
+  return (await signedIn(request))?.user ?? null;
 }
 
 // A page's root loader reads the session twice (user, notice); the signature is checked once per request.
@@ -45,24 +70,34 @@ function requestSession(request: Request) {
   return session;
 }
 
-async function lookUpUser(request: Request): Promise<SessionUser | null> {
+async function lookUpSession(request: Request): Promise<SignedIn | null> {
   const session = await requestSession(request);
-  const userId = session.get("userId");
-  if (typeof userId !== "number") return null;
-  return getActiveSessionUser(userId);
+  const token = session.get("sessionToken");
+  if (typeof token !== "string" || token.length === 0) return null;
+  const found = await findSession(token, sessionLifetimes());
+  if (!found) return null;
+  await touchSession(found);
+  return { user: found.user, sessionId: found.sessionId };
 }
 
-/** A same-site path to return to, or the fallback: never another origin (no open redirect). */
+/**
+ * Where to go after signing in: `value` resolved by the URL parser against Plumbline's own origin, accepted only when
+ * it stays on that origin and names one of Plumbline's pages; anything else gives `fallback` (the dashboard). The
+ * answer is the parsed path, never the raw text, so "/a/..//evil.example" (parsed to "//evil.example", which a
+ * browser reads as another host) and "/\\evil.example" cannot leave the site.
+ */
 export function safeRedirectPath(value: unknown, fallback = "/"): string {
-  if (typeof value !== "string" || !value.startsWith("/") || value.startsWith("//") || value.startsWith("/\\"))
-    return fallback;
+  if (typeof value !== "string" || value.length > 2000) return fallback;
+  const origin = env.publicUrl;
+  let url: URL;
   try {
-    const url = new URL(value, "http://plumbline.invalid");
-    if (url.origin !== "http://plumbline.invalid") return fallback;
-    return url.pathname + url.search + url.hash;
+    url = new URL(value, origin);
   } catch {
     return fallback;
   }
+  if (url.origin !== origin || url.username || url.password) return fallback;
+  if (!url.pathname.startsWith("/") || url.pathname.startsWith("//") || !isReturnPath(url.pathname)) return fallback;
+  return url.pathname + url.search + url.hash;
 }
 
 /** The signed-in user; anonymous page requests go to /login, anonymous /api requests get 401 JSON. */
@@ -87,15 +122,38 @@ export async function requireUserWithRole(request: Request, ...roles: Role[]): P
   throw data({ message, roles }, { status: 403 });
 }
 
-export async function createUserSession(request: Request, userId: number, redirectTo: string) {
-  const session = await sessionStorage.getSession(request.headers.get("Cookie"));
-  session.unset("userId");
-  session.set("userId", userId);
-  return redirect(redirectTo, { status: 303, headers: { "Set-Cookie": await sessionStorage.commitSession(session) } });
+/** The signed-in user and the id of this request's session; as requireUser otherwise. */
+export async function requireUserSession(request: Request): Promise<SignedIn> {
+  const user = await requireUser(request);
+  const found = await signedIn(request);
+  return { user, sessionId: found!.sessionId };
 }
 
+/** What a session row records of the browser: the client address where it can be trusted, and the user agent. */
+function browserOf(request: Request) {
+  const agent = request.headers.get("User-Agent");
+  return { address: clientAddress(request), userAgent: agent ? withoutControlCharacters(agent).slice(0, 200) : null };
+}
+
+/**
+ * Starts a new server-side session for `userId` and returns the Set-Cookie value carrying its token. The session
+ * the request came with, if any, is ended first: a sign-in never reuses a token (no session fixation).
+ */
+export async function newSessionCookie(request: Request, userId: number, notice?: string) {
+  const session = await sessionStorage.getSession(request.headers.get("Cookie"));
+  const previous = session.get("sessionToken");
+  if (typeof previous === "string" && previous) await endSessionByToken(previous);
+  const token = await startSession({ userId, ...browserOf(request) }, sessionLifetimes());
+  session.set("sessionToken", token);
+  if (notice) session.flash("flash", notice);
+  return sessionStorage.commitSession(session);
+}
+
+/** Signs out: ends this browser's session on the server and clears the cookie. */
 export async function destroyUserSession(request: Request, redirectTo = "/login") {
   const session = await sessionStorage.getSession(request.headers.get("Cookie"));
+  const token = session.get("sessionToken");
+  if (typeof token === "string" && token) await endSessionByToken(token);
   return redirect(redirectTo, { status: 303, headers: { "Set-Cookie": await sessionStorage.destroySession(session) } });
 }
 

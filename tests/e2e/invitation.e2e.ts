@@ -22,10 +22,16 @@ describe("an admin invites a new rigger", () => {
     await page.waitForURL("**/admin");
     await expect
       .poll(() => page.getByRole("status").innerText())
-      .toContain("invitation to set a password went to sian.castell@example.com");
+      .toContain("invitation to set a password is on its way to sian.castell@example.com");
     await screenshot(page, "admin-users");
 
-    await page.goto("/admin/outbox");
+    // The invitation is sent after the answer, so the outbox may need a moment.
+    await expect
+      .poll(async () => {
+        await page.goto("/admin/outbox");
+        return page.getByRole("link", { name: /added to Plumbline/ }).count();
+      })
+      .toBeGreaterThan(0);
     await page
       .getByRole("link", { name: /added to Plumbline/ })
       .first()

@@ -1,3 +1,4 @@
+import http from "node:http";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { hydrated, openBrowser, signIn, type BrowserSession } from "./browser";
 
@@ -77,5 +78,28 @@ describe("the served pages under their Content-Security-Policy", () => {
     });
     expect(save.status).toBe(403);
     expect(((await save.json()) as { error: string }).error).toMatch(/did not come from one of its own pages/);
+  });
+
+  it("the built server answers TRACE, OPTIONS, PROPFIND and a DELETE to a form with 405 and Allow, never a 500", async () => {
+    const { baseUrl } = browser;
+    const url = new URL(baseUrl);
+    const send = (method: string, path: string) =>
+      new Promise<{ status?: number; allow?: string; cache?: string }>((resolve, reject) => {
+        const request = http.request({ host: url.hostname, port: url.port, path, method }, (res) => {
+          res.resume();
+          res.on("end", () =>
+            resolve({ status: res.statusCode, allow: res.headers.allow, cache: res.headers["cache-control"] }),
+          );
+        });
+        request.on("error", reject);
+        request.end();
+      });
+    for (const method of ["TRACE", "OPTIONS", "PROPFIND"]) {
+      expect(await send(method, "/"), method).toEqual({ status: 405, allow: "GET, HEAD, POST", cache: "no-store" });
+      expect((await send(method, "/api/solve")).status, method).toBe(405);
+    }
+    const deleted = await fetch(`${baseUrl}/settings`, { method: "DELETE", headers: { Origin: baseUrl } });
+    expect(deleted.status).toBe(405);
+    expect(deleted.headers.get("allow")).toBe("GET, HEAD, POST");
   });
 });

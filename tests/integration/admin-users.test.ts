@@ -16,6 +16,7 @@ import {
 } from "~/models/password-token.server";
 import { User, findUserByEmail, getActiveSessionUser, verifyPassword } from "~/models/user.server";
 import { AuditEvent } from "~/models/audit-event.server";
+import { settleBackgroundWork } from "~/utils/background.server";
 import { callRoute, getRequest, makeUser, postForm, TEST_PASSWORD } from "../support/factories";
 
 function linkIn(text: string) {
@@ -40,6 +41,7 @@ describe("an admin adds a user", () => {
     expect(created?.organisationId).toBe(admin.organisationId);
     expect((await getActiveSessionUser(created!.id))?.roles).toEqual(["planner", "rigger"]);
 
+    await settleBackgroundWork();
     const [mail] = await listCaughtMail(admin.organisationId);
     expect(mail?.toAddress).toContain("nia.new@test.invalid");
     expect(mail?.subject).toMatch(/added to Plumbline/);
@@ -90,6 +92,7 @@ describe("an admin adds a user", () => {
     );
     expect(badRole.status).toBe(400);
     expect(await User.count()).toBe(before);
+    await settleBackgroundWork();
     expect(await CaughtMail.count({ where: { organisationId: admin.organisationId } })).toBe(0);
   });
 
@@ -174,6 +177,7 @@ describe("an admin manages users", () => {
       newUser.action,
       await postForm("/admin/users/new", { name: "Theirs", email: "theirs@test.invalid", roles: "rigger" }, other),
     );
+    await settleBackgroundWork();
     const res = await callRoute(outbox.loader, await getRequest("/admin/outbox", admin));
     const messages = (res.data as { messages: Array<{ to: string }> }).messages;
     expect(messages.map((m) => m.to)).toEqual([expect.stringContaining("mine@test.invalid")]);
@@ -205,6 +209,7 @@ describe("password links", () => {
     const known = await callRoute(forgot.action, await postForm("/forgot-password", { email: user.email }));
     const unknown = await callRoute(forgot.action, await postForm("/forgot-password", { email: "ghost@test.invalid" }));
     expect(known.data).toEqual(unknown.data);
+    await settleBackgroundWork();
     const mails = await listCaughtMail(user.organisationId);
     expect(mails).toHaveLength(1);
     expect(mails[0]!.subject).toBe("Reset your Plumbline password");

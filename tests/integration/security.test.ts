@@ -1,19 +1,11 @@
 import { afterEach, beforeAll, describe, expect, it, vi } from "vitest";
 import * as forgotPassword from "~/routes/forgot-password";
-import * as login from "~/routes/login";
-import { env } from "~/utils/env.server";
-import { getOrganisation } from "~/models/organisation.server";
+import { CaughtMail } from "~/models/caught-mail.server";
+import { getOrganisation, updateOrganisationSettings } from "~/models/organisation.server";
 import { Plan, PlanRevision } from "~/models/plan.server";
-import {
-  ACCOUNT_FAILURE_LIMIT,
-  ADDRESS_LIMIT,
-  ATTEMPT_WINDOW_MS,
-  SHARED_ADDRESS_KEY,
-  SHARED_ADDRESS_LIMIT,
-  SignInAttempt,
-  startPasswordResetRequest,
-  startSignInAttempt,
-} from "~/models/sign-in-attempt.server";
+import { SignInAttempt } from "~/models/sign-in-attempt.server";
+import { getActiveSessionUser } from "~/models/user.server";
+import { settleBackgroundWork } from "~/utils/background.server";
 import { addressKeyOf, clientAddressKey, isCrossSiteMutation, securityHeaders } from "~/utils/security.server";
 import { checkUpload, transactionWithFiles } from "~/utils/uploads.server";
 import { createAppHandler } from "../support/app-handler";
@@ -23,167 +15,12 @@ import { makePlan } from "../support/plans";
 
 const BASE = "http://localhost:3000";
 const EVIL = "https://evil.example";
-const T0 = new Date("2030-03-04T08:00:00Z");
-const MINUTE = 60_000;
 
 afterEach(() => {
   vi.useRealTimers();
 });
 
-/** Freezes the clock the routes read (only Date: timers, bcrypt and SQLite run as usual). */
-function setClock(at: Date) {
-  vi.useFakeTimers({ toFake: ["Date"] });
-  vi.setSystemTime(at);
-}
-
-async function signIn(email: string, password: string) {
-  return callRoute(login.action, await postForm("/login", { email, password }));
-}
-
-describe("sign-in attempt limits", () => {
-  it("the sixth attempt on an account within 15 minutes gets 429, the right password too, until the window has passed", async () => {
-    const user = await makeUser(["planner"]);
-    setClock(T0);
-    for (let i = 0; i < ACCOUNT_FAILURE_LIMIT; i++) expect((await signIn(user.email, "not it")).status).toBe(401);
-
-    const sixth = await signIn(user.email, "not it");
-    expect(sixth.status).toBe(429);
-    expect(sixth.data).toMatchObject({
-      error: "Too many sign-in attempts for this account; try again in 15 minutes.",
-      email: user.email,
-    });
-    expect(sixth.headers.get("Retry-After")).toBe("900");
-    expect(sixth.headers.get("Set-Cookie")).toBeNull();
-
-    const right = await signIn(user.email.toUpperCase(), TEST_PASSWORD);
-    expect(right.status).toBe(429);
-    expect(right.headers.get("Set-Cookie")).toBeNull();
-
-    setClock(new Date(T0.getTime() + 14 * MINUTE + 30_000));
-    expect((await signIn(user.email, TEST_PASSWORD)).data).toMatchObject({
-      error: "Too many sign-in attempts for this account; try again in 1 minute.",
-    });
-
-    // Another account from the same address is not held up by this one's failures.
-    const colleague = await makeUser(["rigger"]);
-    expect((await signIn(colleague.email, TEST_PASSWORD)).status).toBe(303);
-
-    setClock(new Date(T0.getTime() + ATTEMPT_WINDOW_MS + 1000));
-    const later = await signIn(user.email, TEST_PASSWORD);
-    expect(later.status).toBe(303);
-    expect(later.headers.get("Set-Cookie")).toMatch(/^__plumbline_session=/);
-  });
-
-  it("a successful sign-in clears the account's failures", async () => {
-    const user = await makeUser(["planner"]);
-    setClock(T0);
-    for (let i = 0; i < ACCOUNT_FAILURE_LIMIT - 1; i++) expect((await signIn(user.email, "not it")).status).toBe(401);
-    expect((await signIn(user.email, TEST_PASSWORD)).status).toBe(303);
-    expect(await SignInAttempt.count({ where: { accountKey: user.email } })).toBe(0);
-    for (let i = 0; i < ACCOUNT_FAILURE_LIMIT; i++) expect((await signIn(user.email, "not it")).status).toBe(401);
-    expect((await signIn(user.email, "not it")).status).toBe(429);
-  });
-
-  it("one address is limited across accounts; the shared key of unknown addresses has a higher ceiling", async () => {
-    for (let i = 0; i < ADDRESS_LIMIT; i++) {
-      expect(await startSignInAttempt({ email: `guess-${i}@test.invalid`, addressKey: "203.0.113.9" }, T0)).toEqual({
-        ok: true,
-      });
-    }
-    const refused = await startSignInAttempt(
-      { email: "one-more@test.invalid", addressKey: "203.0.113.9" },
-      new Date(T0.getTime() + 5 * MINUTE),
-    );
-    expect(refused).toEqual({
-      ok: false,
-      message: "Too many sign-in attempts from this address; try again in 10 minutes.",
-      retryAfterSeconds: 600,
-    });
-    expect(await startSignInAttempt({ email: "one-more@test.invalid", addressKey: "198.51.100.4" }, T0)).toEqual({
-      ok: true,
-    });
-    expect(
-      await startSignInAttempt(
-        { email: "one-more@test.invalid", addressKey: "203.0.113.9" },
-        new Date(T0.getTime() + ATTEMPT_WINDOW_MS + 1),
-      ),
-    ).toEqual({ ok: true });
-
-    for (let i = 0; i < ADDRESS_LIMIT; i++)
-      await startSignInAttempt({ email: `shared-${i}@test.invalid`, addressKey: SHARED_ADDRESS_KEY }, T0);
-    expect((await startSignInAttempt({ email: "shared-x@test.invalid", addressKey: SHARED_ADDRESS_KEY }, T0)).ok).toBe(
-      true,
-    );
-    expect(SHARED_ADDRESS_LIMIT).toBeGreaterThan(ADDRESS_LIMIT);
-  });
-
-  it("attempts made at the same moment count against each other, so a burst gets exactly the limit through", async () => {
-    const burst = await Promise.all(
-      Array.from({ length: 12 }, () =>
-        startSignInAttempt({ email: "burst@test.invalid", addressKey: "192.0.2.1" }, T0),
-      ),
-    );
-    expect(burst.filter((r) => r.ok)).toHaveLength(ACCOUNT_FAILURE_LIMIT);
-    expect(await SignInAttempt.count({ where: { accountKey: "burst@test.invalid" } })).toBe(ACCOUNT_FAILURE_LIMIT);
-  });
-
-  it("rows that have left the window are pruned", async () => {
-    await startSignInAttempt({ email: "old@test.invalid", addressKey: "192.0.2.2" }, T0);
-    await startPasswordResetRequest({ email: "old@test.invalid", addressKey: "192.0.2.2" }, T0);
-    expect(await SignInAttempt.count({ where: { addressKey: "192.0.2.2" } })).toBe(2);
-    await startSignInAttempt(
-      { email: "new@test.invalid", addressKey: "192.0.2.3" },
-      new Date(T0.getTime() + ATTEMPT_WINDOW_MS + 1),
-    );
-    expect(await SignInAttempt.count({ where: { addressKey: "192.0.2.2" } })).toBe(0);
-  });
-
-  it("/forgot-password is limited per address (behind a trusted proxy), with 429 and the same sentence shape", async () => {
-    const hops = env.trustedProxyHops;
-    env.trustedProxyHops = 1;
-    try {
-      const ask = async (address: string, email: string) => {
-        const request = await postForm("/forgot-password", { email });
-        request.headers.set("X-Forwarded-For", `10.9.9.9, ${address}`);
-        return callRoute(forgotPassword.action, request);
-      };
-      for (let i = 0; i < ADDRESS_LIMIT; i++)
-        expect((await ask("203.0.113.50", `nobody-${i}@test.invalid`)).data).toMatchObject({ sent: true });
-      const refused = await ask("203.0.113.50", "nobody-x@test.invalid");
-      expect(refused.status).toBe(429);
-      expect(refused.data).toMatchObject({
-        sent: false,
-        errors: {
-          _form: [
-            expect.stringMatching(/^Too many password reset requests from this address; try again in \d+ minutes?\.$/),
-          ],
-        },
-      });
-      expect(Number(refused.headers.get("Retry-After"))).toBeGreaterThan(0);
-      // The client's own first entry is its say-so: only the one our proxy appended counts.
-      expect((await ask("203.0.113.51", "nobody-y@test.invalid")).status).toBe(200);
-      const invalid = await ask("203.0.113.50", "not an address");
-      expect(invalid.status).toBe(400);
-    } finally {
-      env.trustedProxyHops = hops;
-    }
-  });
-
-  it("an account gets a few reset mails per window; past that the answer is the same but nothing is sent", async () => {
-    const results = [];
-    for (let i = 0; i < 5; i++)
-      results.push(
-        await startPasswordResetRequest({ email: "Someone@Test.invalid", addressKey: `192.0.2.${10 + i}` }, T0),
-      );
-    expect(results).toEqual([
-      { ok: true, sendMail: true },
-      { ok: true, sendMail: true },
-      { ok: true, sendMail: true },
-      { ok: true, sendMail: false },
-      { ok: true, sendMail: false },
-    ]);
-  });
-
+describe("the client's address", () => {
   it("reads the client address from X-Forwarded-For only as far as TRUST_PROXY trusts it", () => {
     const request = (xff?: string) => new Request(`${BASE}/login`, { headers: xff ? { "X-Forwarded-For": xff } : {} });
     expect(clientAddressKey(request("203.0.113.7"), 0)).toBe("direct");
@@ -201,6 +38,40 @@ describe("sign-in attempt limits", () => {
     expect(addressKeyOf("64:ff9b::203.0.113.7")).toBe("64:ff9b:0:0::/64");
     expect(addressKeyOf("fe80::1%eth0")).toBe("fe80:0:0:0::/64");
     expect(addressKeyOf("<script>")).toBeNull();
+  });
+});
+
+describe("the Host header decides nothing", () => {
+  it("a reset link in mail names PUBLIC_URL's origin (here the listening address) whatever Host the request gave", async () => {
+    const user = await makeUser(["planner"]);
+    const request = new Request("http://evil.example/forgot-password", {
+      method: "POST",
+      body: new URLSearchParams({ email: user.email }),
+      headers: { "Content-Type": "application/x-www-form-urlencoded", Origin: "http://evil.example" },
+    });
+    expect((await callRoute(forgotPassword.action, request)).data).toMatchObject({ sent: true });
+    await settleBackgroundWork();
+    const [mail] = await CaughtMail.findAll({ where: { organisationId: user.organisationId } });
+    expect(mail?.textBody).toMatch(/http:\/\/localhost:3000\/set-password\/[A-Za-z0-9_-]+/);
+    expect(mail?.textBody).not.toContain("evil.example");
+  });
+
+  it("the same-origin check compares with PUBLIC_URL's origin, not with the origin the Host header claims", async () => {
+    const handle = await createAppHandler();
+    const admin = await makeUser(["admin"]);
+    const forged = await handle(
+      new Request("http://evil.example/admin/settings", {
+        method: "POST",
+        body: new URLSearchParams({ name: "Renamed via Host" }),
+        headers: {
+          "Content-Type": "application/x-www-form-urlencoded",
+          Origin: "http://evil.example",
+          Cookie: await sessionCookie(admin),
+        },
+      }),
+    );
+    expect(forged.status).toBe(403);
+    expect((await getOrganisation(admin.organisationId))?.name).not.toBe("Renamed via Host");
   });
 });
 
@@ -322,17 +193,18 @@ describe("the app as served", () => {
     it("refuses an opaque or malformed Origin and accepts PUBLIC_URL's origin behind a TLS proxy", () => {
       const post = (headers: Record<string, string>, url = `${BASE}/login`) =>
         new Request(url, { method: "POST", headers });
-      expect(isCrossSiteMutation(post({ Origin: "null" }), null)).toBe(true);
-      expect(isCrossSiteMutation(post({ Origin: "::::" }), null)).toBe(true);
-      expect(isCrossSiteMutation(post({ Origin: "http://localhost:3001" }), null)).toBe(true);
-      expect(isCrossSiteMutation(post({ Origin: "https://localhost:3000" }), null)).toBe(true);
-      expect(isCrossSiteMutation(post({ Origin: BASE }), null)).toBe(false);
+      expect(isCrossSiteMutation(post({ Origin: "null" }))).toBe(true);
+      expect(isCrossSiteMutation(post({ Origin: "::::" }))).toBe(true);
+      expect(isCrossSiteMutation(post({ Origin: "http://localhost:3001" }))).toBe(true);
+      expect(isCrossSiteMutation(post({ Origin: "https://localhost:3000" }))).toBe(true);
+      expect(isCrossSiteMutation(post({ Origin: BASE }))).toBe(false);
+      // Behind a TLS proxy the request URL says http; PUBLIC_URL says what the browser sees.
       const proxied = post({ Origin: "https://plumbline.example.com" }, "http://plumbline.example.com/login");
-      expect(isCrossSiteMutation(proxied, null)).toBe(true);
+      expect(isCrossSiteMutation(proxied, "http://localhost:3000")).toBe(true);
       expect(isCrossSiteMutation(proxied, "https://plumbline.example.com")).toBe(false);
-      expect(
-        isCrossSiteMutation(new Request(`${BASE}/login`, { headers: { Origin: EVIL, Cookie: "x=1" } }), null),
-      ).toBe(false);
+      expect(isCrossSiteMutation(new Request(`${BASE}/login`, { headers: { Origin: EVIL, Cookie: "x=1" } }))).toBe(
+        false,
+      );
     });
   });
 
@@ -411,6 +283,79 @@ describe("the app as served", () => {
       expect(res.status).toBe(200);
       expect(res.headers.get("Content-Security-Policy")).toBe("default-src 'none'; sandbox");
       expectCommonHeaders(res);
+    });
+  });
+
+  describe("methods", () => {
+    it("a method no page takes gets 405 with Allow before any action runs, on a form route too", async () => {
+      const user = await makeUser(["planner"]);
+      const cookie = await sessionCookie(user);
+      for (const [method, path] of [
+        ["DELETE", "/settings"],
+        ["PUT", "/settings"],
+        ["PATCH", "/sites/new"],
+        ["OPTIONS", "/"],
+        ["PROPFIND", "/login"],
+      ] as const) {
+        const res = await send(path, {
+          method,
+          headers: { ...FORM, Cookie: cookie, Origin: BASE },
+          body: method === "OPTIONS" ? undefined : form({ intent: "units", units: "imperial", name: "Via " + method }),
+        });
+        expect(res.status, `${method} ${path}`).toBe(405);
+        expect(res.headers.get("Allow"), `${method} ${path}`).toBe("GET, HEAD, POST");
+        // React Router refuses methods outside the fetch standard's list itself, with its error page.
+        if (!["OPTIONS", "PROPFIND"].includes(method))
+          expect(await res.text()).toMatch(/^Plumbline's pages do not take \w+ requests/);
+        expect(res.headers.get("X-Content-Type-Options")).toBe("nosniff");
+      }
+      expect((await getActiveSessionUser(user.id))?.units).toBe("metric");
+    });
+
+    it("a POST to a page without a form, and a wrong method on the API, say which methods they take", async () => {
+      const user = await makeUser(["planner"]);
+      const cookie = await sessionCookie(user);
+      const reference = await send("/reference", {
+        method: "POST",
+        headers: { ...FORM, Cookie: cookie, Origin: BASE },
+      });
+      expect(reference.status).toBe(405);
+      expect(reference.headers.get("Allow")).toBe("GET, HEAD");
+      const ping = await send("/api/ping", { method: "DELETE", headers: { Cookie: cookie, Origin: BASE } });
+      expect(ping.status).toBe(405);
+      expect(ping.headers.get("Allow")).toBe("GET, HEAD");
+      expect(await ping.json()).toEqual({ error: "This address answers GET only, not DELETE." });
+      const solve = await send("/api/solve", { method: "DELETE", headers: { Cookie: cookie, Origin: BASE } });
+      expect(solve.status).toBe(405);
+      expect(solve.headers.get("Allow")).toBe("POST");
+    });
+  });
+
+  describe("caching", () => {
+    it("signed-in pages, data requests, API answers and the sign-in page are never stored", async () => {
+      const user = await makeUser(["admin", "planner"]);
+      const cookie = await sessionCookie(user);
+      await updateOrganisationSettings(user.organisationId, { name: "Cache test", allowSelfApproval: false });
+      for (const [path, headers] of [
+        ["/", { Cookie: cookie }],
+        ["/settings", { Cookie: cookie }],
+        ["/admin", { Cookie: cookie }],
+        ["/_root.data", { Cookie: cookie }],
+        ["/api/ping", { Cookie: cookie }],
+        ["/api/plans", { Cookie: cookie }],
+        ["/api/ping", {}],
+        ["/login", {}],
+        ["/no/such/page", { Cookie: cookie }],
+      ] as const) {
+        const res = await send(path, { headers });
+        expect(res.headers.get("Cache-Control"), path).toBe("no-store");
+      }
+      const solved = await send("/api/solve", {
+        method: "POST",
+        headers: { ...JSON_BODY, Cookie: cookie, Origin: BASE },
+        body: solveBody,
+      });
+      expect(solved.headers.get("Cache-Control")).toBe("no-store");
     });
   });
 });

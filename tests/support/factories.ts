@@ -2,7 +2,8 @@ import { randomUUID } from "node:crypto";
 import { Organisation } from "~/models/organisation.server";
 import { createUser, getActiveSessionUser, type SessionUser } from "~/models/user.server";
 import type { Role } from "~/utils/roles";
-import { sessionStorage } from "~/utils/session.server";
+import { startSession } from "~/models/session.server";
+import { sessionLifetimes, sessionStorage } from "~/utils/session.server";
 
 export const TEST_PASSWORD = "correct horse battery";
 
@@ -31,10 +32,13 @@ export async function makeUser(
   return sessionUser;
 }
 
-/** The Cookie header of a signed-in session for `user`. */
+/** The Cookie header of a new signed-in session for `user` (a row in the sessions table, as signing in makes). */
 export async function sessionCookie(user: Pick<SessionUser, "id">) {
   const session = await sessionStorage.getSession();
-  session.set("userId", user.id);
+  session.set(
+    "sessionToken",
+    await startSession({ userId: user.id, address: null, userAgent: null }, sessionLifetimes()),
+  );
   const setCookie = await sessionStorage.commitSession(session);
   return setCookie.split(";")[0]!;
 }
