@@ -120,3 +120,10 @@ export function inverse3(m: Mat3, minDet = 0): Mat3 | null {
 export function columns3(a: Vec3, b: Vec3, c: Vec3): Mat3 {
   return [a.x, b.x, c.x, a.y, b.y, c.y, a.z, b.z, c.z];
 }
+
+/** A unit vector perpendicular to v, chosen deterministically (+z when v is zero). */
+export function perpendicular(v: Vec3): Vec3 {
+  const seed = Math.abs(v.x) < 0.9 ? { x: 1, y: 0, z: 0 } : { x: 0, y: 1, z: 0 };
+  const s = dot(seed, v);
+  return normalize({ x: seed.x - v.x * s, y: seed.y - v.y * s, z: seed.z - v.z * s }) ?? { x: 0, y: 0, z: 1 };
+}
