@@ -1,6 +1,8 @@
 // Spreader and lifting beams: vertical drops from the beam to the load's lift points; the beam
 // itself hangs from one top lug (lifting beam) or a 2-leg bridle to two top lugs (spreader).
-import { solveLevel, GEOMETRY_TOL_M, type BridleSolution, type LiftPoint, type SolveWarning } from "./bridle";
+import { solveLevel, GEOMETRY_TOL_M, type BridleRating, type BridleSolution, type LiftPoint, type SolveWarning } from "./bridle";
+import { diagonalTwoLegTensions, emptySlackStates, rateLegs, recordSlackState, type SlackStates } from "./bridle-rating";
+import { Z_UP } from "./bridle-types";
 import { STANDARD_GRAVITY_MS2 } from "./units";
 import { det3, solve3, type Mat3, type Vec3 } from "./vector";
 
@@ -17,6 +19,12 @@ export interface BeamDropsSolution {
   method: "determinate" | "elastic";
   drops: DropResult[];
   warnings: SolveWarning[];
+  /**
+   * How the drops are rated, in the bridle rating's shape: `rating.legs[i]` is drop i's design
+   * tension (lever rule for 2 drops; for 3 or more at least every admissible state with a drop
+   * slack, and the diagonal figure for 4, unless symmetric), with the rule that governed.
+   */
+  rating: BridleRating;
 }
 
 export interface BeamSpec {
@@ -89,7 +97,36 @@ export function solveBeamDrops(
       slack: !active.includes(i),
     };
   });
-  return { ok: true, solution: { method, drops, warnings } };
+  const weightKn = weightN / 1000;
+  const rating = rateLegs({
+    legs: drops.map((d) => ({ liftPointId: d.liftPointId, tensionKn: d.tensionKn, angleFromVerticalDeg: 0 })),
+    weightKn,
+    method,
+    diagonal: n === 4 ? diagonalTwoLegTensions([0, 0, 0, 0], points.map((p) => p.position), cog, Z_UP, weightKn) : null,
+    slack: n >= 3 ? dropSlackStates(rel, k, weightN) : null,
+    noun: "drop",
+  });
+  return { ok: true, solution: { method, drops, warnings, rating } };
+}
+
+/**
+ * Drops with some slack: every set of 2 or 3 drops (leaving at least one slack) that can carry the
+ * load with no drop pushing. The admissible states of the drops form a polytope whose corners have at
+ * most 3 drops carrying, so these maxima (kN) bound every drop's load over all admissible states.
+ */
+function dropSlackStates(rel: readonly { x: number; y: number }[], k: readonly number[], weightN: number): SlackStates {
+  const n = rel.length;
+  const states = emptySlackStates(n);
+  const record = (subset: number[]): void => {
+    const res = dropTensions(rel, k, subset, weightN);
+    if (res.kind === "ok") recordSlackState(states, res.tensions.map((t) => t / 1000), subset, n);
+  };
+  // Three carrying first, so a state with one drop slack names the figure when a pair ties with it.
+  for (let i = 0; i < n && n > 3; i++) {
+    for (let j = i + 1; j < n; j++) for (let m = j + 1; m < n; m++) record([i, j, m]);
+  }
+  for (let i = 0; i < n; i++) for (let j = i + 1; j < n; j++) record([i, j]);
+  return states;
 }
 
 type DropStep =

@@ -3,6 +3,7 @@
 // below the hook as the slings allow) over the points within reach of every sling, on the side the
 // legs leave their lift points from.
 import { activeTensions, finish, type TensionResult } from "./bridle-equilibrium";
+import { settleFromLiftOff } from "./bridle-settle";
 import {
   FEASIBLE_TOL_M,
   GEOMETRY_TOL_M,
@@ -115,6 +116,19 @@ function hangingCandidates(cog: Vec3, positions: readonly Vec3[], lengthsM: read
   return out.sort((a, b) => b.distM - a.distM);
 }
 
+function nearestCandidate(candidates: readonly Candidate[], point: Vec3, withinM: number): Candidate | null {
+  let nearest: Candidate | null = null;
+  let nearestD = withinM;
+  for (const c of candidates) {
+    const d = distance(c.hook, point);
+    if (d <= nearestD) {
+      nearestD = d;
+      nearest = c;
+    }
+  }
+  return nearest;
+}
+
 /**
  * The point within reach of every leg farthest from the CoG, on either side of the lift points
  * (the global maximum of |H - G|); null when the legs cannot meet. solveGivenLengths keeps to the
@@ -124,11 +138,11 @@ export function findHangingHook(cog: Vec3, positions: readonly Vec3[], lengthsM:
   return hangingCandidates(cog, positions, lengthsM)[0]?.hook ?? null;
 }
 
-/** Each leg leaves its lift point outward: (H - P_i) . a_i > 0 for every taut leg i. */
+/** Each leg leaves its lift point outward: (H - P_i) . a_i > 0 (beyond GEOMETRY_TOL_M) for every taut leg i. */
 function leavesOutward(hook: Vec3, points: readonly LiftPoint[], active: readonly number[]): boolean {
   for (const i of active) {
     const p = points[i]!;
-    if (!(dot(sub(hook, p.position), p.axis) > 0)) return false;
+    if (!(dot(sub(hook, p.position), p.axis) > GEOMETRY_TOL_M)) return false;
   }
   return true;
 }
@@ -238,20 +252,11 @@ export function solveGivenLengths(load: BridleLoad, points: readonly LiftPoint[]
     }
   }
   const positions = points.map((p) => p.position);
-  const candidates = hangingCandidates(load.cog, positions, lengthsM);
-  if (candidates.length === 0) {
-    return fail("LEGS_CANNOT_MEET", `Legs of these lengths cannot meet at one hook: some lift points are farther apart than their two legs reach; use longer slings.`);
-  }
   const weightN = load.massKg * STANDARD_GRAVITY_MS2;
-  let turnedOver = false;
-  // Farthest first: the first equilibrium with every taut leg leaving outward is where the load hangs.
-  for (const c of candidates) {
-    if (!leavesOutward(c.hook, points, tautLegs(c.hook, positions, lengthsM))) {
-      turnedOver = true;
-      continue;
-    }
-    const s = settleAt(c.hook, load, points, positions, lengthsM, weightN);
-    if (s === null) continue;
+  const hang = (start: Vec3): SolveOutcome | null => {
+    if (!leavesOutward(start, points, tautLegs(start, positions, lengthsM))) return null;
+    const s = settleAt(start, load, points, positions, lengthsM, weightN);
+    if (s === null) return null;
     const slack = new Array<boolean>(n).fill(true);
     for (const i of s.active) slack[i] = false;
     const warnings: SolveWarning[] = [];
@@ -263,6 +268,34 @@ export function solveGivenLengths(load: BridleLoad, points: readonly LiftPoint[]
       if (slack[i]) warnings.push({ code: "LEG_SLACK", message: `Leg ${points[i]!.id} is slack and carries nothing; the other legs carry the load.` });
     }
     return finish("lengths", load, points, lengthsM, s.hook, s.vertical, s.us, s.res.tensionsN, slack, s.res.method, warnings);
+  };
+  // Follow the load from lift-off (level, hook plumb over the CoG) to where it comes to rest.
+  const path = settleFromLiftOff(load.cog, positions, points.map((p) => p.axis), lengthsM);
+  let turnedOver = path.kind === "turns-over";
+  if (path.kind === "rest") {
+    const rest = hang(path.hook);
+    if (rest !== null) return rest;
+  }
+  const candidates = hangingCandidates(load.cog, positions, lengthsM);
+  if (candidates.length === 0) {
+    return fail("LEGS_CANNOT_MEET", `Legs of these lengths cannot meet at one hook: some lift points are farther apart than their two legs reach; use longer slings.`);
+  }
+  if (path.kind === "rest") {
+    // The rest point does not balance within rounding: take the exact candidate it reached.
+    const nearest = nearestCandidate(candidates, path.hook, 1e-7 * Math.max(1, ...lengthsM));
+    const rest = nearest === null ? null : hang(nearest.hook);
+    if (rest !== null) return rest;
+  }
+  if (path.kind !== "turns-over") {
+    // No start over the CoG (or a degenerate path): the farthest equilibrium on the outward side.
+    for (const c of candidates) {
+      if (!leavesOutward(c.hook, points, tautLegs(c.hook, positions, lengthsM))) {
+        turnedOver = true;
+        continue;
+      }
+      const rest = hang(c.hook);
+      if (rest !== null) return rest;
+    }
   }
   // No equilibrium on the outward side. Legs pulled straight between two lift points come first.
   const farthest = candidates[0]!.hook;

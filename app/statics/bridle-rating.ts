@@ -44,7 +44,9 @@ export interface RatingLeg {
 }
 
 export function emptySlackStates(n: number): SlackStates {
-  return { maxKn: new Array<number>(n).fill(0), slackIdx: Array.from({ length: n }, () => []) };
+  const slackIdx: number[][] = [];
+  for (let i = 0; i < n; i++) slackIdx.push([]);
+  return { maxKn: new Array<number>(n).fill(0), slackIdx };
 }
 
 /** Records one admissible state (tensions kN per leg, `carrying` the loaded legs) into the running maxima. */
@@ -53,57 +55,108 @@ export function recordSlackState(states: SlackStates, tensionsKn: readonly numbe
     const t = Math.max(0, tensionsKn[i]!);
     if (t > states.maxKn[i]!) {
       states.maxKn[i] = t;
-      states.slackIdx[i] = Array.from({ length: n }, (_, k) => k).filter((k) => !carrying.includes(k));
+      const slackLegs: number[] = [];
+      for (let k = 0; k < n; k++) if (!carrying.includes(k)) slackLegs.push(k);
+      states.slackIdx[i] = slackLegs;
     }
   }
 }
 
+/** The three legs left when leg m of four is slack, and the six pairs. */
+const TRIPLES: ReadonlyArray<readonly [number, number, number]> = [
+  [1, 2, 3],
+  [0, 2, 3],
+  [0, 1, 3],
+  [0, 1, 2],
+];
+const PAIRS: ReadonlyArray<readonly [number, number]> = [
+  [0, 1],
+  [0, 2],
+  [0, 3],
+  [1, 2],
+  [1, 3],
+  [2, 3],
+];
+
 /**
- * Four legs meeting at one hook: every statically admissible state with one leg slack (the
- * determinate solve of each triple, all three tensions >= 0), and with two slack (a pair whose plane
- * holds the vertical). The admissible states of four legs form a segment whose ends have a leg slack,
- * so these maxima bound the leg loads over every admissible state, the elastic share included.
+ * Four legs meeting at one hook: the statically admissible states (tensions >= 0 balancing the
+ * weight) are a segment T(s) = T + s d, d the null vector of the legs' directions, whose ends have a
+ * leg slack (two when they reach zero together). Each leg's largest load over every admissible state,
+ * the elastic share included, is at one end. `tensionsKn` is any exact equilibrium (the solved one).
  */
-export function bridleSlackStates(us: readonly Vec3[], vertical: Vec3, weightKn: number): SlackStates {
+export function bridleSlackStates(us: readonly Vec3[], tensionsKn: readonly number[], vertical: Vec3, weightKn: number): SlackStates {
   const n = us.length;
   const states = emptySlackStates(n);
   if (n !== 4) return states;
+  const [u0, u1, u2, u3] = us as [Vec3, Vec3, Vec3, Vec3];
+  // Generalised cross product: sum d_i u_i = 0.
+  const d = [det3(columns3(u1, u2, u3)), -det3(columns3(u0, u2, u3)), det3(columns3(u0, u1, u3)), -det3(columns3(u0, u1, u2))];
+  const size = Math.hypot(d[0]!, d[1]!, d[2]!, d[3]!);
+  if (!(size > MIN_DIRECTION_DET)) return enumerateSlackStates(us, vertical, weightKn);
+  const tol = NEGATIVE_TENSION_TOL * weightKn;
+  let lo = -Infinity;
+  let hi = Infinity;
+  for (let i = 0; i < 4; i++) {
+    const di = d[i]! / size;
+    if (Math.abs(di) < 1e-12) continue;
+    const s = -tensionsKn[i]! / di;
+    if (di > 0) lo = Math.max(lo, s);
+    else hi = Math.min(hi, s);
+  }
+  if (!(lo <= hi + tol) || !Number.isFinite(lo) || !Number.isFinite(hi)) return enumerateSlackStates(us, vertical, weightKn);
+  const t = [0, 0, 0, 0];
+  for (const s of [lo, hi]) {
+    const carrying: number[] = [];
+    for (let i = 0; i < 4; i++) {
+      t[i] = tensionsKn[i]! + (s * d[i]!) / size;
+      if (t[i]! > tol) carrying.push(i);
+    }
+    recordSlackState(states, t, carrying, n);
+  }
+  return states;
+}
+
+/**
+ * The same by enumeration, for directions that leave the segment undefined: each triple's
+ * determinate solve with all three tensions >= 0, and each pair whose plane holds the vertical.
+ */
+function enumerateSlackStates(us: readonly Vec3[], vertical: Vec3, weightKn: number): SlackStates {
+  const n = us.length;
+  const states = emptySlackStates(n);
   const w = { x: weightKn * vertical.x, y: weightKn * vertical.y, z: weightKn * vertical.z };
   const tol = -NEGATIVE_TENSION_TOL * weightKn;
   const t = [0, 0, 0, 0];
-  for (let m = 0; m < 4; m++) {
-    const tri = [0, 1, 2, 3].filter((k) => k !== m);
-    const [a, b, c] = tri as [number, number, number];
+  for (const tri of TRIPLES) {
+    const [a, b, c] = tri;
     const mat = columns3(us[a]!, us[b]!, us[c]!);
     if (!(Math.abs(det3(mat)) > MIN_DIRECTION_DET)) continue;
     const s = solve3(mat, w);
     if (s === null || s.x < tol || s.y < tol || s.z < tol) continue;
+    t.fill(0);
     t[a] = s.x;
     t[b] = s.y;
     t[c] = s.z;
-    t[m] = 0;
     recordSlackState(states, t, tri, n);
   }
-  for (let i = 0; i < 4; i++) {
-    for (let j = i + 1; j < 4; j++) {
-      const ui = us[i]!;
-      const uj = us[j]!;
-      const cij = dot(ui, uj);
-      const det = 1 - cij * cij;
-      if (!(det > MIN_DIRECTION_DET)) continue;
-      const bi = dot(ui, w);
-      const bj = dot(uj, w);
-      const ti = (bi - cij * bj) / det;
-      const tj = (bj - cij * bi) / det;
-      const rx = ti * ui.x + tj * uj.x - w.x;
-      const ry = ti * ui.y + tj * uj.y - w.y;
-      const rz = ti * ui.z + tj * uj.z - w.z;
-      if (Math.sqrt(rx * rx + ry * ry + rz * rz) > 1e-7 * weightKn || ti < tol || tj < tol) continue;
-      t.fill(0);
-      t[i] = ti;
-      t[j] = tj;
-      recordSlackState(states, t, [i, j], n);
-    }
+  for (const pair of PAIRS) {
+    const [i, j] = pair;
+    const ui = us[i]!;
+    const uj = us[j]!;
+    const cij = dot(ui, uj);
+    const det = 1 - cij * cij;
+    if (!(det > MIN_DIRECTION_DET)) continue;
+    const bi = dot(ui, w);
+    const bj = dot(uj, w);
+    const ti = (bi - cij * bj) / det;
+    const tj = (bj - cij * bi) / det;
+    const rx = ti * ui.x + tj * uj.x - w.x;
+    const ry = ti * ui.y + tj * uj.y - w.y;
+    const rz = ti * ui.z + tj * uj.z - w.z;
+    if (Math.sqrt(rx * rx + ry * ry + rz * rz) > 1e-7 * weightKn || ti < tol || tj < tol) continue;
+    t.fill(0);
+    t[i] = ti;
+    t[j] = tj;
+    recordSlackState(states, t, pair, n);
   }
   return states;
 }
@@ -196,71 +249,64 @@ export function rateLegs(input: RateLegsInput): BridleRating {
     n <= 1 ||
     (maxBeta - minBeta <= SYMMETRY_ANGLE_TOL_DEG && maxT > 0 && (maxT - minT) / maxT <= SYMMETRY_TENSION_TOL);
   const sling = noun === "leg" ? `${n}-leg sling` : `${n} drops from a beam`;
+  // Mode factors rate a multi-leg sling assembly; beam drops are separate slings, rated leg by leg.
+  const mode2 = noun === "leg" ? "; 2-leg mode factor" : "";
+  const mode34 = noun === "leg" ? "; 3/4-leg mode factor" : "";
   let effectiveLegs: 1 | 2 | 3;
   let rule: string;
   if (n === 1) {
     effectiveLegs = 1;
-    rule = noun === "leg" ? "Single leg: the leg carries the whole load." : "Single drop: the drop carries the whole load.";
+    rule = `Single ${noun}: it carries the whole load.`;
   } else if (n === 2) {
     effectiveLegs = symmetric ? 2 : 1;
     rule = symmetric
-      ? `${sling}, symmetric: both carry (uniform load method, 2-leg mode factor).`
-      : `${sling}, not symmetric: rated as if 1 leg carries (DGUV Regel 100-500); ${noun} loads from statics (lever rule).`;
+      ? `${sling}, symmetric: both ${noun}s carry (uniform load method${mode2}).`
+      : `${sling}, not symmetric: rated as if 1 ${noun} carries (DGUV Regel 100-500); ${noun} loads from statics (lever rule).`;
   } else if (n === 3) {
     effectiveLegs = symmetric ? 3 : 2;
     rule = symmetric
-      ? `${sling}, symmetric: all 3 carry (uniform load method, 3/4-leg mode factor).`
-      : `${sling}, not symmetric: rated as if only 2 legs carry (NAVEDTRA; DGUV Regel 100-500); ${noun} loads from statics, or from a state with a ${noun} slack where that is larger.`;
+      ? `${sling}, symmetric: all 3 ${noun}s carry (uniform load method${mode34}).`
+      : `${sling}, not symmetric: rated as if only 2 ${noun}s carry (NAVEDTRA; DGUV Regel 100-500); ${noun} loads from statics, or from a state with a ${noun} slack where that is larger.`;
   } else if (symmetric) {
     effectiveLegs = 3;
-    rule = `${sling}, symmetric: rated as if 3 carry (DGUV Regel 100-500; 3/4-leg mode factor); each ${noun} rated for W / (3 cos beta) or its statics share if larger. The 2-leg (diagonal) figure is shown beside it.`;
+    rule = `${sling}, symmetric: rated as if 3 ${noun}s carry (DGUV Regel 100-500${mode34}); each ${noun} rated for W / (3 cos beta) or its statics share if larger. The 2-leg (diagonal) figure is shown beside it.`;
   } else {
     effectiveLegs = 2;
-    rule = `${sling}, not symmetric: rated as if only 2 carry (NAVEDTRA; DGUV Regel 100-500); each ${noun} rated for the most it carries with any ${noun} slack, its diagonal's lever-rule share, or its statics share, whichever is largest.`;
+    rule = `${sling}, not symmetric: rated as if only 2 ${noun}s carry (NAVEDTRA; DGUV Regel 100-500); each ${noun} rated for the most it carries with any ${noun} slack, its diagonal's lever-rule share, or its statics share, whichever is largest.`;
   }
   let maxDesign = 0;
-  const out: LegDesignTension[] = legs.map((leg, i) => {
-    const id = leg.liftPointId;
-    const cands: Array<{ kn: number; gov: DesignGovernor; rule: string; source: string }> = [
-      method === "elastic"
-        ? { kn: leg.tensionKn, gov: "elastic", rule: `${cap(noun)} ${id}: its elastic share of equal slings (stiffness 1/L).`, source: SOURCE_ELASTIC }
-        : { kn: leg.tensionKn, gov: "determinate", rule: `${cap(noun)} ${id}: its tension from the equilibrium of the taut ${noun}s.`, source: SOURCE_STATICS },
-    ];
-    if (n === 4 && symmetric) {
-      const c = Math.max(1e-6, Math.cos(leg.angleFromVerticalDeg / RAD_TO_DEG));
-      cands.push({ kn: weightKn / (3 * c), gov: "three-leg-uniform", rule: `${cap(noun)} ${id}: W / (3 cos beta), 3 of 4 taken to carry a symmetric load.`, source: SOURCE_UNIFORM });
+  const out: LegDesignTension[] = [];
+  for (let i = 0; i < n; i++) {
+    const leg = legs[i]!;
+    // Figures in order of precedence: the first that reaches the design tension governs.
+    let design = leg.tensionKn;
+    let gov: DesignGovernor = method;
+    const uniform = n >= 4 && symmetric ? weightKn / (3 * Math.max(1e-6, Math.cos(leg.angleFromVerticalDeg / RAD_TO_DEG))) : -1;
+    const oneSlack = !symmetric && n >= 3 && slack ? slack.maxKn[i]! : -1;
+    const twoLeg = !symmetric && n === 4 && diagonal ? diagonal.kn[i]! : -1;
+    if (uniform > design * (1 + 1e-12)) {
+      design = uniform;
+      gov = "three-leg-uniform";
     }
-    const slackIds = slack ? slack.slackIdx[i]!.map((k) => legs[k]!.liftPointId) : [];
-    if (!symmetric && n >= 3 && slack && slack.maxKn[i]! > 0) {
-      const which = slackIds.length === 1 ? `${noun} ${slackIds[0]} is slack` : `${noun}s ${slackIds.join(" and ")} are slack`;
-      cands.push({
-        kn: slack.maxKn[i]!,
-        gov: "one-slack",
-        rule: `${cap(noun)} ${id}: its tension when ${which} and the others carry, a state the load reaches when the slings differ slightly in length.`,
-        source: SOURCE_ONE_SLACK,
-      });
+    if (oneSlack > design * (1 + 1e-12)) {
+      design = oneSlack;
+      gov = "one-slack";
     }
-    const partner = diagonal ? diagonal.partner[i]! : -1;
-    if (!symmetric && n === 4 && diagonal) {
-      cands.push({
-        kn: diagonal.kn[i]!,
-        gov: "diagonal",
-        rule: `${cap(noun)} ${id}: its lever-rule share when only the diagonal ${id}-${legs[partner]?.liftPointId ?? "?"} carries.`,
-        source: SOURCE_DIAGONAL,
-      });
+    if (twoLeg > design * (1 + 1e-12)) {
+      design = twoLeg;
+      gov = "diagonal";
     }
-    let design = 0;
-    for (const c of cands) design = Math.max(design, c.kn);
-    // The first figure (statics, uniform, one slack, diagonal) that reaches the design tension governs.
-    const gov = cands.find((c) => c.kn >= design * (1 - 1e-12)) ?? cands[0]!;
     maxDesign = Math.max(maxDesign, design);
+    const slackIds: string[] = [];
+    if (slack) for (const k of slack.slackIdx[i]!) slackIds.push(legs[k]!.liftPointId);
+    const partner = diagonal ? legs[diagonal.partner[i]!]?.liftPointId ?? "?" : "?";
     const entry: LegDesignTension = {
-      liftPointId: id,
+      liftPointId: leg.liftPointId,
       designTensionKn: design,
       designTensionKg: kgOf(design),
-      governedBy: gov.gov,
-      rule: gov.rule,
-      source: gov.source,
+      governedBy: gov,
+      rule: legRule(gov, noun, leg.liftPointId, slackIds, partner),
+      source: SOURCES[gov],
     };
     if (n === 4 && diagonal) {
       entry.twoLegTensionKn = diagonal.kn[i]!;
@@ -271,8 +317,8 @@ export function rateLegs(input: RateLegsInput): BridleRating {
       entry.oneSlackTensionKg = kgOf(slack.maxKn[i]!);
       entry.slackLegIds = slackIds;
     }
-    return entry;
-  });
+    out.push(entry);
+  }
   return {
     legCount: n,
     symmetric,
@@ -286,8 +332,31 @@ export function rateLegs(input: RateLegsInput): BridleRating {
   };
 }
 
-function cap(s: string): string {
-  return s.charAt(0).toUpperCase() + s.slice(1);
+const SOURCES: Record<DesignGovernor, string> = {
+  determinate: SOURCE_STATICS,
+  elastic: SOURCE_ELASTIC,
+  "three-leg-uniform": SOURCE_UNIFORM,
+  "one-slack": SOURCE_ONE_SLACK,
+  diagonal: SOURCE_DIAGONAL,
+};
+
+/** One sentence: how a leg's design tension was found. */
+function legRule(gov: DesignGovernor, noun: "leg" | "drop", id: string, slackIds: readonly string[], partner: string): string {
+  const Noun = noun === "leg" ? "Leg" : "Drop";
+  switch (gov) {
+    case "determinate":
+      return `${Noun} ${id}: its tension from the equilibrium of the taut ${noun}s.`;
+    case "elastic":
+      return `${Noun} ${id}: its elastic share of equal slings (stiffness 1/L).`;
+    case "three-leg-uniform":
+      return `${Noun} ${id}: W / (3 cos beta), 3 taken to carry a symmetric load.`;
+    case "one-slack": {
+      const which = slackIds.length === 1 ? `${noun} ${slackIds[0]} is slack` : `${noun}s ${slackIds.join(" and ")} are slack`;
+      return `${Noun} ${id}: its tension when ${which} and the others carry, a state the load reaches when the slings differ slightly in length.`;
+    }
+    case "diagonal":
+      return `${Noun} ${id}: its lever-rule share when only the diagonal ${id}-${partner} carries.`;
+  }
 }
 
 /** Rates a solved bridle: the statics tensions, and for 4 legs the one-slack and diagonal figures. */
@@ -307,7 +376,7 @@ export function rateBridle(
     weightKn,
     method: m,
     diagonal: four ? diagonalTwoLegTensions(legs.map((l) => l.angleFromVerticalDeg), liftPointPositions, cog, vertical, weightKn) : null,
-    slack: four ? bridleSlackStates(legs.map((l) => l.direction), vertical, weightKn) : null,
+    slack: four ? bridleSlackStates(legs.map((l) => l.direction), legs.map((l) => l.tensionKn), vertical, weightKn) : null,
     noun: "leg",
   });
 }

@@ -2,10 +2,10 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { REFERENCE_TABLES } from "../../db/seeders/reference-data";
-import { solveGivenLengths, solveLevel, type BridleLoad, type BridleSolution, type LiftPoint } from "./bridle";
+import { findHangingHook, solveGivenLengths, solveLevel, type BridleLoad, type BridleSolution, type LiftPoint } from "./bridle";
 import { checkCraneLoad, checkEyebolt, checkMasterLink, checkShackle, checkSlingAssembly, checkSlingLeg } from "./checks";
 import { STANDARD_GRAVITY_MS2 } from "./units";
-import { cross, distance, norm, sub, type Vec3 } from "./vector";
+import { cross, distance, dot, norm, sub, type Vec3 } from "./vector";
 
 const RUNS = Number(process.env.STATICS_LAW_RUNS ?? 300);
 const UP = { x: 0, y: 0, z: 1 };
@@ -206,7 +206,16 @@ describe("slack legs carry nothing", () => {
         const far = Math.max(...c.points.map((p) => distance(p.position, c.points[i]!.position)));
         lengths[i] = Math.max(...lengths) + far + 1;
         const r = solveGivenLengths(c.load, c.points, lengths);
-        if (!r.ok) throw new Error(`${r.code}: ${r.message}`);
+        if (!r.ok) {
+          // Swinging on the remaining legs, the load may tilt so far that a taut leg would leave its lift point on
+          // the inner side of its surface: it turns over and is refused (given-lengths side rule). Then the point
+          // farthest from G within reach of every sling has such a leg.
+          expect(["LOAD_TURNS_OVER", "COG_ABOVE_LIFT_LINE", "COG_ABOVE_LIFT_POINT"]).toContain(r.code);
+          const h = findHangingHook(c.load.cog, c.points.map((p) => p.position), lengths)!;
+          const inward = c.points.some((p, k) => distance(h, p.position) >= lengths[k]! - 1e-6 && dot(sub(h, p.position), p.axis) <= 1e-6);
+          expect(inward).toBe(true);
+          return;
+        }
         const s = r.solution;
         expect(s.legs[i]!.slack).toBe(true);
         expect(s.legs[i]!.tensionKn).toBe(0);
