@@ -104,14 +104,28 @@ export function bridleSlackStates(us: readonly Vec3[], tensionsKn: readonly numb
     else hi = Math.min(hi, s);
   }
   if (!(lo <= hi + tol) || !Number.isFinite(lo) || !Number.isFinite(hi)) return enumerateSlackStates(us, vertical, weightKn);
+  // Each end has a leg slack: solve the other three directly (the determinate state, to rounding).
+  const w = { x: weightKn * vertical.x, y: weightKn * vertical.y, z: weightKn * vertical.z };
   const t = [0, 0, 0, 0];
   for (const s of [lo, hi]) {
-    const carrying: number[] = [];
+    let slackLeg = 0;
+    let least = Infinity;
     for (let i = 0; i < 4; i++) {
-      t[i] = tensionsKn[i]! + (s * d[i]!) / size;
-      if (t[i]! > tol) carrying.push(i);
+      const ti = tensionsKn[i]! + (s * d[i]!) / size;
+      if (ti < least) {
+        least = ti;
+        slackLeg = i;
+      }
     }
-    recordSlackState(states, t, carrying, n);
+    const tri = TRIPLES[slackLeg]!;
+    const [a, b, c] = tri;
+    const sol = solve3(columns3(us[a]!, us[b]!, us[c]!), w, MIN_DIRECTION_DET);
+    if (sol === null || sol.x < -tol || sol.y < -tol || sol.z < -tol) return enumerateSlackStates(us, vertical, weightKn);
+    t.fill(0);
+    t[a] = sol.x;
+    t[b] = sol.y;
+    t[c] = sol.z;
+    recordSlackState(states, t, [a, b, c].filter((k) => t[k]! > tol), n);
   }
   return states;
 }
