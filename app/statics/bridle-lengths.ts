@@ -1,7 +1,8 @@
 // Given-lengths mode: where a rigid load settles on slings of known length from one hook, and the
-// leg loads there. In the component frame the hook point H maximises |H - G| (the CoG hangs as far
-// below the hook as the slings allow) over the points within reach of every sling, on the side the
-// legs leave their lift points from.
+// leg loads there. In the component frame the hook point H is a stable local maximum of |H - G| (the
+// CoG hangs as far below the hook as the slings allow) within reach of every sling: the one the load
+// swings to from lift-off (bridle-settle.ts). Each taut leg leaves its lift point outward along the
+// lift point's axis, so the hook is above the lift points; a load that would turn over is refused.
 import { activeTensions, finish, type TensionResult } from "./bridle-equilibrium";
 import { settleFromLiftOff } from "./bridle-settle";
 import {
@@ -254,7 +255,7 @@ export function solveGivenLengths(load: BridleLoad, points: readonly LiftPoint[]
   const positions = points.map((p) => p.position);
   const weightN = load.massKg * STANDARD_GRAVITY_MS2;
   const hang = (start: Vec3): SolveOutcome | null => {
-    if (!leavesOutward(start, points, tautLegs(start, positions, lengthsM))) return null;
+    if (!isFeasible(start, positions, lengthsM, TAUT_TOL_M) || !leavesOutward(start, points, tautLegs(start, positions, lengthsM))) return null;
     const s = settleAt(start, load, points, positions, lengthsM, weightN);
     if (s === null) return null;
     const slack = new Array<boolean>(n).fill(true);
