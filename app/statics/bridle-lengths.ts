@@ -216,25 +216,39 @@ function settleAt(
   return res.ok ? { hook, vertical, us, active, res } : null;
 }
 
-/** Refusal when no equilibrium exists on the side the legs leave from: the load turns over. */
-function turnsOver(points: readonly LiftPoint[]): SolveOutcome {
+/**
+ * Refusal when the load has no stable position on the side the legs leave from: it turns over. One leg
+ * with the CoG not below its lift point, and two with the CoG not below the line through theirs, get
+ * level mode's codes; anything else (three or four legs, or slings so uneven that the load swings a leg
+ * past its lift point's surface) is LOAD_TURNS_OVER. `leg` is the leg that would pass, when known.
+ */
+function turnsOver(points: readonly LiftPoint[], cog: Vec3, leg: number): SolveOutcome {
   const n = points.length;
   const all = points.map((_, i) => i);
-  if (n === 1) {
+  if (n === 1 && !(cog.z < points[0]!.position.z - GEOMETRY_TOL_M)) {
     return fail(
       "COG_ABOVE_LIFT_POINT",
       `The CoG is not below lift point ${points[0]!.id}, so on this sling the load will turn over and hang upside down; lift from a point above the CoG.`,
     );
   }
   if (n === 2) {
-    return fail(
-      "COG_ABOVE_LIFT_LINE",
-      `The CoG is not below the line through lift points ${names(points, all)}, so on these slings the load will turn over about them; lift from points above the CoG or use 3 or 4 legs.`,
-    );
+    const a = points[0]!.position;
+    const b = points[1]!.position;
+    const ex = b.x - a.x;
+    const ey = b.y - a.y;
+    const len2 = ex * ex + ey * ey;
+    const t = len2 > 0 ? ((cog.x - a.x) * ex + (cog.y - a.y) * ey) / len2 : 0;
+    if (len2 > 0 && !(cog.z < a.z + t * (b.z - a.z) - GEOMETRY_TOL_M)) {
+      return fail(
+        "COG_ABOVE_LIFT_LINE",
+        `The CoG is not below the line through lift points ${names(points, all)}, so on these slings the load will turn over about them; lift from points above the CoG or use 3 or 4 legs.`,
+      );
+    }
   }
+  const which = leg >= 0 ? `the leg to lift point ${points[leg]!.id} would pull from below its lift point's surface` : `no position holds it with the hook above lift points ${names(points, all)}`;
   return fail(
     "LOAD_TURNS_OVER",
-    `On slings of these lengths the load has no stable position with the hook above lift points ${names(points, all)}, so it will turn over; lift from points above the CoG, or use lengths that hang it level.`,
+    `On slings of these lengths the load swings until ${which}, so it will turn over; use sling lengths that hang it level (hook plumb over the CoG), or lift from points above the CoG.`,
   );
 }
 
@@ -312,6 +326,6 @@ export function solveGivenLengths(load: BridleLoad, points: readonly LiftPoint[]
       }
     }
   }
-  if (turnedOver) return turnsOver(points);
+  if (turnedOver) return turnsOver(points, load.cog, path.kind === "turns-over" ? path.leg : -1);
   return fail("NO_EQUILIBRIUM", `The taut legs to lift points ${names(points, active)} cannot hold the load steady; spread the lift points or change the sling lengths.`);
 }

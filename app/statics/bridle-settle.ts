@@ -12,8 +12,8 @@ import { columns3, cross, distance, dot, normalize, solve3, sub, type Vec3 } fro
 export type SettleResult =
   /** Came to rest at a stable position; `carrying` are the taut legs that hold it there. */
   | { kind: "rest"; hook: Vec3; carrying: number[] }
-  /** A taut leg would pass its lift point's outward plane: the load turns over. */
-  | { kind: "turns-over" }
+  /** Taut leg `leg` would pass its lift point's outward plane: the load turns over. */
+  | { kind: "turns-over"; leg: number }
   /** No start over the CoG, or a degenerate path: let the caller decide another way. */
   | { kind: "unknown" };
 
@@ -145,7 +145,7 @@ export function settleFromLiftOff(cog: Vec3, positions: readonly Vec3[], axes: r
       if (distance(hook, p) >= lengthsM[i]! - TAUT_TOL_M) taut.push(i);
       return u;
     });
-    for (const i of taut) if (!(dot(sub(hook, positions[i]!), axes[i]!) > GEOMETRY_TOL_M)) return { kind: "turns-over" };
+    for (const i of taut) if (!(dot(sub(hook, positions[i]!), axes[i]!) > GEOMETRY_TOL_M)) return { kind: "turns-over", leg: i };
     const proj = projectOnCone(v, us, taut);
     if (proj === null) return { kind: "unknown" };
     const speed = Math.hypot(proj.d.x, proj.d.y, proj.d.z);
@@ -177,8 +177,8 @@ export function settleFromLiftOff(cog: Vec3, positions: readonly Vec3[], axes: r
     const arc = arcFor(keep, hook, proj.d, cog, positions, lengthsM);
     if (arc === null) return { kind: "unknown" };
     let t = arc.end;
-    let turnsOver = false;
-    const events: Array<{ f: (h: Vec3) => number; over?: boolean }> = [];
+    let overLeg = -1;
+    const events: Array<{ f: (h: Vec3) => number; overLeg?: number }> = [];
     for (let k = 0; k < n; k++) {
       if (keep.includes(k)) continue;
       const pk = positions[k]!;
@@ -188,18 +188,18 @@ export function settleFromLiftOff(cog: Vec3, positions: readonly Vec3[], axes: r
     for (const i of keep) {
       const pi = positions[i]!;
       const ai = axes[i]!;
-      events.push({ f: (h) => dot(sub(h, pi), ai) - GEOMETRY_TOL_M, over: true });
+      events.push({ f: (h) => dot(sub(h, pi), ai) - GEOMETRY_TOL_M, overLeg: i });
     }
     events.push(...slackEvents(keep, cog, positions, lengthsM, us));
     for (const e of events) {
       const [a, b, c] = sinusoid(e.f, arc.at);
       const te = firstDrop(a, b, c, arc.end);
-      if (te < t || (te === t && e.over)) {
+      if (te < t || (te === t && e.overLeg !== undefined)) {
         t = te;
-        turnsOver = e.over === true;
+        overLeg = e.overLeg ?? -1;
       }
     }
-    if (turnsOver) return { kind: "turns-over" };
+    if (overLeg >= 0) return { kind: "turns-over", leg: overLeg };
     hook = arc.at(t);
   }
   return { kind: "unknown" };
