@@ -145,7 +145,11 @@ export function settleFromLiftOff(cog: Vec3, positions: readonly Vec3[], axes: r
       if (distance(hook, p) >= lengthsM[i]! - TAUT_TOL_M) taut.push(i);
       return u;
     });
-    for (const i of taut) if (!(dot(sub(hook, positions[i]!), axes[i]!) > GEOMETRY_TOL_M)) return { kind: "turns-over", leg: i };
+    for (const i of taut) {
+      // At lift-off every taut leg must rise from its lift point; a leg that becomes taut on the inner
+      // side later means the load has turned over.
+      if (!(dot(sub(hook, positions[i]!), axes[i]!) > GEOMETRY_TOL_M)) return move === 0 ? { kind: "unknown" } : { kind: "turns-over", leg: i };
+    }
     const proj = projectOnCone(v, us, taut);
     if (proj === null) return { kind: "unknown" };
     const speed = Math.hypot(proj.d.x, proj.d.y, proj.d.z);
