@@ -23,13 +23,33 @@ describe("200: level and given-lengths answers", () => {
     expect(r.status).toBe(200);
     if (r.status !== 200) return;
     const b = r.body;
-    expect(Object.keys(b).sort()).toEqual(["checks", "hook", "legs", "method", "mode", "rating", "ruleSet", "tiltDeg", "warnings", "weightKn"]);
+    expect(Object.keys(b).sort()).toEqual([
+      "checks",
+      "hook",
+      "legs",
+      "method",
+      "mode",
+      "rating",
+      "ruleSet",
+      "tiltDeg",
+      "warnings",
+      "weightKn",
+    ]);
     expect(b.mode).toBe("level");
     expect(b.method).toBe("determinate");
     expect(b.weightKn).toBeCloseTo(19.6133, 12);
     expect(b.hook).toEqual({ x: 0, y: 0, z: 0.8 });
     expect(b.tiltDeg).toBe(0);
-    expect(Object.keys(b.legs[0]!).sort()).toEqual(["angleFromVerticalDeg", "axisAngleDeg", "lengthM", "liftPointId", "slack", "tensionKg", "tensionKn", "verticalShare"]);
+    expect(Object.keys(b.legs[0]!).sort()).toEqual([
+      "angleFromVerticalDeg",
+      "axisAngleDeg",
+      "lengthM",
+      "liftPointId",
+      "slack",
+      "tensionKg",
+      "tensionKn",
+      "verticalShare",
+    ]);
     expect(b.legs[0]!.tensionKg).toBeCloseTo(1649.2, 1);
     expect(b.legs[1]!.tensionKg).toBeCloseTo(565.7, 1);
     // The axis (0,0,2) is normalised: the axis angle equals the angle from vertical.
@@ -51,7 +71,13 @@ describe("200: level and given-lengths answers", () => {
       ...furley,
       rigging: {
         legs: {
-          A: { sling: { kind: "chain", diameterMm: 8, inspection: { itemId: "CH-7", status: "in_service", examinationDue: "2025-01-01" } } },
+          A: {
+            sling: {
+              kind: "chain",
+              diameterMm: 8,
+              inspection: { itemId: "CH-7", status: "in_service", examinationDue: "2025-01-01" },
+            },
+          },
           B: { sling: { kind: "chain", diameterMm: 8 }, shackle: { type: "bow", wll: { value: 1, unit: "t" } } },
         },
         crane: { swlKg: 5000 },
@@ -62,7 +88,17 @@ describe("200: level and given-lengths answers", () => {
     expect(r.status).toBe(200);
     if (r.status !== 200) return;
     const ids = (r.body.checks ?? []).map((c) => c.id);
-    expect(ids).toEqual(expect.arrayContaining(["angle-A", "sling-leg-A", "sling-leg-B", "shackle-B", "sling-assembly", "crane-load", "inspection-CH-7"]));
+    expect(ids).toEqual(
+      expect.arrayContaining([
+        "angle-A",
+        "sling-leg-A",
+        "sling-leg-B",
+        "shackle-B",
+        "sling-assembly",
+        "crane-load",
+        "inspection-CH-7",
+      ]),
+    );
     expect(r.body.checks!.find((c) => c.id === "inspection-CH-7")!.status).toBe("fail");
     expect(r.body.checks!.find((c) => c.id === "crane-load")!.loadKg).toBeCloseTo(2100, 9);
   });
@@ -76,9 +112,15 @@ describe("400: bad input, with zod issues", () => {
     ["duplicate ids", { ...furley, liftPoints: [furley.liftPoints[0], furley.liftPoints[0]] }],
     ["legLengths names an unknown id", { ...furley, hook: undefined, legLengths: { A: 1, B: 1, C: 1 } }],
     ["legLengths misses an id", { ...furley, hook: undefined, legLengths: { A: 1 } }],
-    ["legLengths with __proto__ key", { ...furley, hook: undefined, legLengths: JSON.parse('{"A":1,"B":1,"__proto__":1}') }],
+    [
+      "legLengths with __proto__ key",
+      { ...furley, hook: undefined, legLengths: JSON.parse('{"A":1,"B":1,"__proto__":1}') },
+    ],
     ["zero axis", { ...furley, liftPoints: [{ id: "A", x: 0, y: 0, z: 0, axis: { x: 0, y: 0, z: 0 } }] }],
-    ["five lift points", { ...furley, liftPoints: ["A", "B", "C", "D", "E"].map((id, i) => ({ id, x: i, y: 0, z: 0 })) }],
+    [
+      "five lift points",
+      { ...furley, liftPoints: ["A", "B", "C", "D", "E"].map((id, i) => ({ id, x: i, y: 0, z: 0 })) },
+    ],
     ["no lift points", { ...furley, liftPoints: [] }],
     ["negative mass", { ...furley, load: { ...furley.load, massKg: -1 } }],
     ["zero mass", { ...furley, load: { ...furley.load, massKg: 0 } }],
@@ -118,17 +160,40 @@ describe("never throws: any JSON value gets 200, 400 or 422, and an error senten
   const num = fc.oneof(
     fc.double(),
     fc.integer(),
-    fc.constantFrom(0, -0, 1e308, -1e308, 1e-308, Number.NaN, Number.POSITIVE_INFINITY, Number.NEGATIVE_INFINITY, 1e7, 1e8, 1000, -1000),
+    fc.constantFrom(
+      0,
+      -0,
+      1e308,
+      -1e308,
+      1e-308,
+      Number.NaN,
+      Number.POSITIVE_INFINITY,
+      Number.NEGATIVE_INFINITY,
+      1e7,
+      1e8,
+      1000,
+      -1000,
+    ),
   );
   const vec = fc.record({ x: num, y: num, z: num });
   const smallNum = fc.double({ min: -3, max: 3, noNaN: true, noDefaultInfinity: true });
   const id = fc.constantFrom("A", "B", "C", "D", "__proto__", "constructor", "");
   const nearValid = fc.record(
     {
-      load: fc.record({ massKg: fc.oneof(num, fc.double({ min: 0.001, max: 1e5, noNaN: true })), cog: fc.oneof(vec, fc.record({ x: smallNum, y: smallNum, z: smallNum })) }),
+      load: fc.record({
+        massKg: fc.oneof(num, fc.double({ min: 0.001, max: 1e5, noNaN: true })),
+        cog: fc.oneof(vec, fc.record({ x: smallNum, y: smallNum, z: smallNum })),
+      }),
       liftPoints: fc.array(
         fc.record(
-          { id, x: fc.oneof(smallNum, num), y: fc.oneof(smallNum, num), z: fc.oneof(smallNum, num), axis: fc.oneof(vec, fc.record({ x: smallNum, y: smallNum, z: smallNum })), thread: fc.constantFrom("M16", "M20", "") },
+          {
+            id,
+            x: fc.oneof(smallNum, num),
+            y: fc.oneof(smallNum, num),
+            z: fc.oneof(smallNum, num),
+            axis: fc.oneof(vec, fc.record({ x: smallNum, y: smallNum, z: smallNum })),
+            thread: fc.constantFrom("M16", "M20", ""),
+          },
           { requiredKeys: ["id", "x", "y", "z"] },
         ),
         { minLength: 0, maxLength: 5 },
@@ -137,7 +202,28 @@ describe("never throws: any JSON value gets 200, 400 or 422, and an error senten
       legLengths: fc.dictionary(id, fc.oneof(fc.double({ min: 0, max: 5, noNaN: true }), num)),
       rigging: fc.record(
         {
-          legs: fc.dictionary(id, fc.record({ sling: fc.record({ kind: fc.constantFrom("chain", "wire", "web", "round", "rope"), diameterMm: fc.oneof(num, fc.constantFrom(8, 10, 16)), colour: fc.constantFrom("green", "pink"), wllKg: num }, { requiredKeys: ["kind"] }), eyebolt: fc.record({ family: fc.constantFrom("collar", "shoulder", "plain"), thread: fc.constantFrom("M16", "M20") }), shackle: fc.record({ type: fc.constantFrom("bow", "dee"), wllKg: num, sideLoadAngleDeg: num }) }, { requiredKeys: [] })),
+          legs: fc.dictionary(
+            id,
+            fc.record(
+              {
+                sling: fc.record(
+                  {
+                    kind: fc.constantFrom("chain", "wire", "web", "round", "rope"),
+                    diameterMm: fc.oneof(num, fc.constantFrom(8, 10, 16)),
+                    colour: fc.constantFrom("green", "pink"),
+                    wllKg: num,
+                  },
+                  { requiredKeys: ["kind"] },
+                ),
+                eyebolt: fc.record({
+                  family: fc.constantFrom("collar", "shoulder", "plain"),
+                  thread: fc.constantFrom("M16", "M20"),
+                }),
+                shackle: fc.record({ type: fc.constantFrom("bow", "dee"), wllKg: num, sideLoadAngleDeg: num }),
+              },
+              { requiredKeys: [] },
+            ),
+          ),
           sharedShackles: fc.array(fc.record({ legIds: fc.tuple(id, id), wllKg: num }), { maxLength: 2 }),
           masterLink: fc.record({ wllKg: num }),
           crane: fc.record({ swlKg: num, maxHookHeightM: num }),

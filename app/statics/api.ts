@@ -16,7 +16,11 @@ export const MAX_LEG_LENGTH_M = 2000;
 const coord = z.number().min(-MAX_COORD_M).max(MAX_COORD_M);
 const point = z.object({ x: coord, y: coord, z: coord });
 const axis = z
-  .object({ x: z.number().min(-1000).max(1000), y: z.number().min(-1000).max(1000), z: z.number().min(-1000).max(1000) })
+  .object({
+    x: z.number().min(-1000).max(1000),
+    y: z.number().min(-1000).max(1000),
+    z: z.number().min(-1000).max(1000),
+  })
   .refine((a) => Math.hypot(a.x, a.y, a.z) > 1e-9, { message: "The axis must not be a zero vector." });
 const positiveMass = z.number().gt(0).max(MAX_MASS_KG);
 const id = z.string().min(1).max(64);
@@ -30,7 +34,8 @@ const inspection = z.object({
   status: z.enum(["in_service", "quarantined", "withdrawn"]),
   examinationDue: isoDate,
 });
-const oneWll = (v: { wllKg?: number | undefined; wll?: unknown }): boolean => !(v.wllKg !== undefined && v.wll !== undefined);
+const oneWll = (v: { wllKg?: number | undefined; wll?: unknown }): boolean =>
+  !(v.wllKg !== undefined && v.wll !== undefined);
 const oneWllMessage = { message: "Give either wllKg or wll, not both." };
 
 const slingSpec = z
@@ -86,7 +91,13 @@ export const riggingSchema = z.object({
   sharedShackles: z
     .array(
       z
-        .object({ legIds: z.tuple([id, id]), wllKg: positiveMass.optional(), wll: wll.optional(), inspection: inspection.optional(), ...identity })
+        .object({
+          legIds: z.tuple([id, id]),
+          wllKg: positiveMass.optional(),
+          wll: wll.optional(),
+          inspection: inspection.optional(),
+          ...identity,
+        })
         .refine(oneWll, oneWllMessage)
         .refine((s) => s.legIds[0] !== s.legIds[1], { message: "A shared shackle joins two different legs." }),
     )
@@ -105,7 +116,9 @@ export const riggingSchema = z.object({
       inspection: inspection.optional(),
     })
     .optional(),
-  headroom: z.object({ clearanceAboveFloorM: z.number().min(0).max(MAX_COORD_M), loadUndersideZM: coord.optional() }).optional(),
+  headroom: z
+    .object({ clearanceAboveFloorM: z.number().min(0).max(MAX_COORD_M), loadUndersideZM: coord.optional() })
+    .optional(),
   contingencyPct: z.number().min(0).max(100).optional(),
   riggingMassKg: z.number().min(0).max(MAX_MASS_KG).optional(),
 });
@@ -114,7 +127,16 @@ export const solveBodySchema = z
   .object({
     load: z.object({ massKg: positiveMass, cog: point }),
     liftPoints: z
-      .array(z.object({ id, x: coord, y: coord, z: coord, axis: axis.optional(), thread: z.string().min(1).max(16).optional() }))
+      .array(
+        z.object({
+          id,
+          x: coord,
+          y: coord,
+          z: coord,
+          axis: axis.optional(),
+          thread: z.string().min(1).max(16).optional(),
+        }),
+      )
       .min(1)
       .max(4),
     hook: z.object({ z: coord }).optional(),
@@ -128,27 +150,48 @@ export const solveBodySchema = z
     const ids = body.liftPoints.map((p) => p.id);
     const seen = new Set<string>();
     ids.forEach((pid, i) => {
-      if (seen.has(pid)) ctx.addIssue({ code: "custom", path: ["liftPoints", i, "id"], message: `Lift point id "${pid}" is used twice; ids must be unique.` });
+      if (seen.has(pid))
+        ctx.addIssue({
+          code: "custom",
+          path: ["liftPoints", i, "id"],
+          message: `Lift point id "${pid}" is used twice; ids must be unique.`,
+        });
       seen.add(pid);
     });
     if ((body.hook === undefined) === (body.legLengths === undefined)) {
-      ctx.addIssue({ code: "custom", path: [], message: 'Give exactly one of "hook" (level lift) and "legLengths" (given slings).' });
+      ctx.addIssue({
+        code: "custom",
+        path: [],
+        message: 'Give exactly one of "hook" (level lift) and "legLengths" (given slings).',
+      });
     }
     if (body.legLengths !== undefined) {
       const keys = Object.keys(body.legLengths);
       for (const k of keys) {
-        if (!seen.has(k)) ctx.addIssue({ code: "custom", path: ["legLengths", k], message: `Leg length "${k}" names no lift point.` });
+        if (!seen.has(k))
+          ctx.addIssue({ code: "custom", path: ["legLengths", k], message: `Leg length "${k}" names no lift point.` });
       }
       for (const pid of seen) {
-        if (!Object.hasOwn(body.legLengths, pid)) ctx.addIssue({ code: "custom", path: ["legLengths"], message: `Give a leg length for lift point "${pid}".` });
+        if (!Object.hasOwn(body.legLengths, pid))
+          ctx.addIssue({ code: "custom", path: ["legLengths"], message: `Give a leg length for lift point "${pid}".` });
       }
     }
     for (const k of Object.keys(body.rigging?.legs ?? {})) {
-      if (!seen.has(k)) ctx.addIssue({ code: "custom", path: ["rigging", "legs", k], message: `Rigging for "${k}" names no lift point.` });
+      if (!seen.has(k))
+        ctx.addIssue({
+          code: "custom",
+          path: ["rigging", "legs", k],
+          message: `Rigging for "${k}" names no lift point.`,
+        });
     }
     (body.rigging?.sharedShackles ?? []).forEach((s, i) => {
       for (const lid of s.legIds) {
-        if (!seen.has(lid)) ctx.addIssue({ code: "custom", path: ["rigging", "sharedShackles", i, "legIds"], message: `Shared shackle names leg "${lid}", which is no lift point.` });
+        if (!seen.has(lid))
+          ctx.addIssue({
+            code: "custom",
+            path: ["rigging", "sharedShackles", i, "legIds"],
+            message: `Shared shackle names leg "${lid}", which is no lift point.`,
+          });
       }
     });
   });
@@ -307,7 +350,13 @@ export function handleSolve(body: unknown, tables: ReferenceTables, context: Sol
   try {
     const dropped = droppedKeyIssues(body);
     if (dropped.length > 0) {
-      return { status: 400, body: { error: `The solve request is not valid: ${dropped[0]!.path.join(".")}: ${dropped[0]!.message}`, issues: dropped } };
+      return {
+        status: 400,
+        body: {
+          error: `The solve request is not valid: ${dropped[0]!.path.join(".")}: ${dropped[0]!.message}`,
+          issues: dropped,
+        },
+      };
     }
     const parsed = solveBodySchema.safeParse(body);
     if (!parsed.success) {
@@ -323,6 +372,12 @@ export function handleSolve(body: unknown, tables: ReferenceTables, context: Sol
     return solveParsed(parsed.data, tables, context);
   } catch {
     // Defence in depth: the contract is never a 500. The tests assert this path is not reached.
-    return { status: 422, body: { error: "This arrangement could not be solved; check the lift points, hook and leg lengths.", code: "UNSOLVABLE" } };
+    return {
+      status: 422,
+      body: {
+        error: "This arrangement could not be solved; check the lift points, hook and leg lengths.",
+        code: "UNSOLVABLE",
+      },
+    };
   }
 }

@@ -1,6 +1,21 @@
 // Spreader and lifting beams: vertical drops from the beam to the load's lift points; the beam
 // itself hangs from one top lug (lifting beam) or a 2-leg bridle to two top lugs (spreader).
-import { solveLevel, GEOMETRY_TOL_M, type BridleSolution, type LiftPoint, type SolveWarning } from "./bridle";
+import {
+  solveLevel,
+  GEOMETRY_TOL_M,
+  type BridleRating,
+  type BridleSolution,
+  type LiftPoint,
+  type SolveWarning,
+} from "./bridle";
+import {
+  diagonalTwoLegTensions,
+  emptySlackStates,
+  rateLegs,
+  recordSlackState,
+  type SlackStates,
+} from "./bridle-rating";
+import { Z_UP } from "./bridle-types";
 import { STANDARD_GRAVITY_MS2 } from "./units";
 import { det3, solve3, type Mat3, type Vec3 } from "./vector";
 
@@ -17,6 +32,12 @@ export interface BeamDropsSolution {
   method: "determinate" | "elastic";
   drops: DropResult[];
   warnings: SolveWarning[];
+  /**
+   * How the drops are rated, in the bridle rating's shape: `rating.legs[i]` is drop i's design
+   * tension (lever rule for 2 drops; for 3 or more at least every admissible state with a drop
+   * slack, and the diagonal figure for 4, unless symmetric), with the rule that governed.
+   */
+  rating: BridleRating;
 }
 
 export interface BeamSpec {
@@ -70,13 +91,17 @@ export function solveBeamDrops(
     // A drop would have to push: it goes slack, the others carry.
     active.splice(active.indexOf(res.index), 1);
     method = active.length <= 2 ? "determinate" : "elastic";
-    warnings.push({ code: "DROP_SLACK", message: `The drop to lift point ${points[res.index]!.id} goes slack; the other drops carry the load.` });
+    warnings.push({
+      code: "DROP_SLACK",
+      message: `The drop to lift point ${points[res.index]!.id} goes slack; the other drops carry the load.`,
+    });
   }
   const minZ = Math.min(...points.map((p) => p.position.z));
   if (!(cog.z < minZ - GEOMETRY_TOL_M)) {
     warnings.push({
       code: "BEAM_LOAD_UNSTABLE",
-      message: "The load's CoG is not below its lift points: on vertical drops it can topple; lift from points above the CoG or steady the load.",
+      message:
+        "The load's CoG is not below its lift points: on vertical drops it can topple; lift from points above the CoG or steady the load.",
     });
   }
   const drops = points.map((p, i) => {
@@ -89,7 +114,51 @@ export function solveBeamDrops(
       slack: !active.includes(i),
     };
   });
-  return { ok: true, solution: { method, drops, warnings } };
+  const weightKn = weightN / 1000;
+  const rating = rateLegs({
+    legs: drops.map((d) => ({ liftPointId: d.liftPointId, tensionKn: d.tensionKn, angleFromVerticalDeg: 0 })),
+    weightKn,
+    method,
+    diagonal:
+      n === 4
+        ? diagonalTwoLegTensions(
+            [0, 0, 0, 0],
+            points.map((p) => p.position),
+            cog,
+            Z_UP,
+            weightKn,
+          )
+        : null,
+    slack: n >= 3 ? dropSlackStates(rel, k, weightN) : null,
+    noun: "drop",
+  });
+  return { ok: true, solution: { method, drops, warnings, rating } };
+}
+
+/**
+ * Drops with some slack: every set of 2 or 3 drops (leaving at least one slack) that can carry the
+ * load with no drop pushing. The admissible states of the drops form a polytope whose corners have at
+ * most 3 drops carrying, so these maxima (kN) bound every drop's load over all admissible states.
+ */
+function dropSlackStates(rel: readonly { x: number; y: number }[], k: readonly number[], weightN: number): SlackStates {
+  const n = rel.length;
+  const states = emptySlackStates(n);
+  const record = (subset: number[]): void => {
+    const res = dropTensions(rel, k, subset, weightN);
+    if (res.kind === "ok")
+      recordSlackState(
+        states,
+        res.tensions.map((t) => t / 1000),
+        subset,
+        n,
+      );
+  };
+  // Three carrying first, so a state with one drop slack names the figure when a pair ties with it.
+  for (let i = 0; i < n && n > 3; i++) {
+    for (let j = i + 1; j < n; j++) for (let m = j + 1; m < n; m++) record([i, j, m]);
+  }
+  for (let i = 0; i < n; i++) for (let j = i + 1; j < n; j++) record([i, j]);
+  return states;
 }
 
 type DropStep =
@@ -97,12 +166,18 @@ type DropStep =
   | { kind: "negative"; index: number }
   | { kind: "fail"; code: string; message: (points: readonly LiftPoint[]) => string };
 
-function dropTensions(rel: readonly { x: number; y: number }[], k: readonly number[], active: readonly number[], weightN: number): DropStep {
+function dropTensions(
+  rel: readonly { x: number; y: number }[],
+  k: readonly number[],
+  active: readonly number[],
+  weightN: number,
+): DropStep {
   const tensions = new Array<number>(rel.length).fill(0);
   const offPlumb: DropStep = {
     kind: "fail",
     code: "COG_OUTSIDE_SUPPORT",
-    message: (pts) => `The CoG's plumb point is not within the drops to ${active.map((i) => pts[i]!.id).join(", ")}; place the drops around the CoG.`,
+    message: (pts) =>
+      `The CoG's plumb point is not within the drops to ${active.map((i) => pts[i]!.id).join(", ")}; place the drops around the CoG.`,
   };
   if (active.length === 1) {
     const i = active[0]!;
@@ -111,7 +186,12 @@ function dropTensions(rel: readonly { x: number; y: number }[], k: readonly numb
     tensions[i] = weightN;
     return { kind: "ok", tensions };
   }
-  let sk = 0, skx = 0, sky = 0, skxx = 0, skxy = 0, skyy = 0;
+  let sk = 0,
+    skx = 0,
+    sky = 0,
+    skxx = 0,
+    skxy = 0,
+    skyy = 0;
   for (const i of active) {
     const r = rel[i]!;
     const ki = k[i]!;
@@ -142,13 +222,18 @@ function dropTensions(rel: readonly { x: number; y: number }[], k: readonly numb
       }
     }
     if (!(farD > GEOMETRY_TOL_M)) {
-      return { kind: "fail", code: "DEGENERATE_LIFT_POINTS", message: () => "The drops are all at one point in plan; spread them." };
+      return {
+        kind: "fail",
+        code: "DEGENERATE_LIFT_POINTS",
+        message: () => "The drops are all at one point in plan; spread them.",
+      };
     }
     const ex = (far.x - first.x) / farD;
     const ey = (far.y - first.y) / farD;
     // Distance of the CoG (origin) from the line.
     if (Math.abs(ex * -first.y - ey * -first.x) > GEOMETRY_TOL_M) return offPlumb;
-    let s1 = 0, s2 = 0;
+    let s1 = 0,
+      s2 = 0;
     for (const i of active) {
       const s = rel[i]!.x * ex + rel[i]!.y * ey;
       s1 += k[i]! * s;
@@ -198,7 +283,11 @@ export function solveBeamLift(
     y: (massKg * cog.y + beam.massKg * beam.cog.y) / hookMassKg,
     z: (massKg * cog.z + beam.massKg * beam.cog.z) / hookMassKg,
   };
-  const lugs: LiftPoint[] = beam.topLugs.map((p, i) => ({ id: `lug ${i + 1}`, position: p, axis: { x: 0, y: 0, z: 1 } }));
+  const lugs: LiftPoint[] = beam.topLugs.map((p, i) => ({
+    id: `lug ${i + 1}`,
+    position: p,
+    axis: { x: 0, y: 0, z: 1 },
+  }));
   const top = solveLevel({ massKg: hookMassKg, cog: combinedCog }, lugs, hookZM);
   if (!top.ok) {
     return { ok: false, code: top.code, message: `The beam with its load cannot hang level: ${top.message}` };

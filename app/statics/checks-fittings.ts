@@ -1,7 +1,15 @@
 // Fittings at the lift points: eyebolts (derated by the pull's angle to the bolt axis, its eye set by
 // the geometry), shackles (side load from the geometry) and two legs sharing one shackle.
 import type { LegResult } from "./bridle";
-import type { Check, EyeAlignmentSource, EyeboltSpec, EyePlane, ShackleSpec, SharedShackleSpec, SideLoadSource } from "./check-types";
+import type {
+  Check,
+  EyeAlignmentSource,
+  EyeboltSpec,
+  EyePlane,
+  ShackleSpec,
+  SharedShackleSpec,
+  SideLoadSource,
+} from "./check-types";
 import { EPS, failCheck, markedWll, ratioCheck, statedWllKg, type CheckBase } from "./checks-common";
 import {
   DEFAULT_RULE_SET,
@@ -50,7 +58,11 @@ export interface EyeGeometry {
 }
 
 /** How the eye faces the pull: who set it and how far the pull leaves its plane, deg. */
-export function eyeAlignment(spec: Pick<EyeboltSpec, "family" | "eyeAlignedWithPull">, geometry: EyeGeometry | undefined, axisAngleDeg: number) {
+export function eyeAlignment(
+  spec: Pick<EyeboltSpec, "family" | "eyeAlignedWithPull">,
+  geometry: EyeGeometry | undefined,
+  axisAngleDeg: number,
+) {
   if (spec.eyeAlignedWithPull === false) {
     // Out of line by an unknown amount: take the worst, the whole inclination out of the plane.
     return { source: "given-not-aligned" as EyeAlignmentSource, outOfPlaneDeg: axisAngleDeg };
@@ -80,7 +92,8 @@ export function checkEyebolt(
 ): Check {
   const ruleSet = options.ruleSet ?? DEFAULT_RULE_SET;
   const rules = ruleSetRow(tables, ruleSet);
-  const familyName = spec.family === "collar" ? "collar eyebolt" : spec.family === "shoulder" ? "shoulder eyebolt" : "plain eyebolt";
+  const familyName =
+    spec.family === "collar" ? "collar eyebolt" : spec.family === "shoulder" ? "shoulder eyebolt" : "plain eyebolt";
   const angle = axisAngleDeg;
   const alignment = eyeAlignment(spec, options.geometry, angle);
   const base: CheckBase = {
@@ -103,10 +116,17 @@ export function checkEyebolt(
       ...markedWll(spec),
     },
   };
-  const fail = (rule: string, finding: Parameters<typeof failCheck>[1], fix: Parameters<typeof failCheck>[2], capacityKg: number | null = null) =>
-    failCheck({ ...base, rule }, finding, fix, designLoadKg, capacityKg);
+  const fail = (
+    rule: string,
+    finding: Parameters<typeof failCheck>[1],
+    fix: Parameters<typeof failCheck>[2],
+    capacityKg: number | null = null,
+  ) => failCheck({ ...base, rule }, finding, fix, designLoadKg, capacityKg);
   if (liftPointThread !== undefined && normaliseThread(liftPointThread) !== normaliseThread(spec.thread)) {
-    return fail("Eyebolt thread must match the tapped hole (common practice)", "thread-mismatch", { kind: "tapped-size", thread: liftPointThread });
+    return fail("Eyebolt thread must match the tapped hole (common practice)", "thread-mismatch", {
+      kind: "tapped-size",
+      thread: liftPointThread,
+    });
   }
   if (angle > 90 + TABLE_ANGLE_TOL_DEG) {
     return fail("No pull more than 90 deg from the bolt axis", "pull-behind", { kind: "lead-away-from-surface" });
@@ -119,7 +139,9 @@ export function checkEyebolt(
   const extra: CheckBase["inputs"] = {};
   if (method === "in-line-only") {
     if (angle > IN_LINE_DEG + TABLE_ANGLE_TOL_DEG) {
-      return fail("Plain eyebolts take in-line pull only (within 5 deg)", "plain-angled", { kind: "collar-or-shoulder-eyebolt" });
+      return fail("Plain eyebolts take in-line pull only (within 5 deg)", "plain-angled", {
+        kind: "collar-or-shoulder-eyebolt",
+      });
     }
     if (stated === null) return fail("Marked WLL required", "no-wll", { kind: "state-wll" });
     capacityKg = stated;
@@ -148,7 +170,8 @@ export function checkEyebolt(
         extra.wllKg = row.axialKg;
         extra.wllFrom = "table";
         if (scaleToMarked < 1) extra.scaleToMarked = scaleToMarked;
-        rule = "DIN 580 column for the angle (next larger tabulated angle, never interpolated); per eyebolt, not added up for multi-leg lifts";
+        rule =
+          "DIN 580 column for the angle (next larger tabulated angle, never interpolated); per eyebolt, not added up for multi-leg lifts";
         source = row.source;
       }
     } else {
@@ -187,7 +210,13 @@ export interface ShackleOptions {
 }
 
 /** Shackle at a lift point: leg load (kg) against WLL reduced for side load by the rule set's table. */
-export function checkShackle(legId: string, designLoadKg: number, spec: ShackleSpec, tables: ReferenceTables, options: ShackleOptions = {}): Check {
+export function checkShackle(
+  legId: string,
+  designLoadKg: number,
+  spec: ShackleSpec,
+  tables: ReferenceTables,
+  options: ShackleOptions = {},
+): Check {
   const ruleSet = options.ruleSet ?? DEFAULT_RULE_SET;
   const given = spec.sideLoadAngleDeg;
   const side = given ?? options.sideLoad?.angleDeg ?? 0;
@@ -203,7 +232,12 @@ export function checkShackle(legId: string, designLoadKg: number, spec: ShackleS
     rule: "Shackle WLL reduced for side load (next larger tabulated angle)",
     ruleSet,
     source: row?.source ?? "shackle side load table",
-    inputs: { sideLoadAngleDeg: side, sideLoadFrom: from, ...(row ? { percent: row.percent, tableUpToDeg: row.upToAngleDeg } : {}), ...markedWll(spec) },
+    inputs: {
+      sideLoadAngleDeg: side,
+      sideLoadFrom: from,
+      ...(row ? { percent: row.percent, tableUpToDeg: row.upToAngleDeg } : {}),
+      ...markedWll(spec),
+    },
   };
   if (wllKg === null) return failCheck(base, "no-wll", { kind: "state-wll" }, designLoadKg, null);
   if (row === null) return failCheck(base, "beyond-table", { kind: "face-eye-to-pull" }, designLoadKg, null);
@@ -224,7 +258,8 @@ export function shackleSideLoad(
   if (eyebolt) {
     return { angleDeg: eyeAlignment(eyebolt, { pull, axis, plane }, axisAngleDeg).outOfPlaneDeg, from: "eye-plane" };
   }
-  if (plane === "x" || plane === "y") return { angleDeg: angleOutOfPlaneDeg(pull, axis, plane) ?? 0, from: "lug-plane" };
+  if (plane === "x" || plane === "y")
+    return { angleDeg: angleOutOfPlaneDeg(pull, axis, plane) ?? 0, from: "lug-plane" };
   return { angleDeg: 0, from: "lug-assumed" };
 }
 

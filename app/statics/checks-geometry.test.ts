@@ -30,7 +30,10 @@ describe("the pull against the plane of an eye or lug (geometry; DEVELOPERS.md m
     expect(side.angleDeg).toBeCloseTo(45, 9);
   });
   it("a lug with no plane recorded is taken to lie along the pull, and says so", () => {
-    expect(shackleSideLoad({ x: 1, y: 0, z: 1 }, UP, undefined, undefined, 45)).toEqual({ angleDeg: 0, from: "lug-assumed" });
+    expect(shackleSideLoad({ x: 1, y: 0, z: 1 }, UP, undefined, undefined, 45)).toEqual({
+      angleDeg: 0,
+      from: "lug-assumed",
+    });
   });
 });
 
@@ -65,7 +68,10 @@ describe("eyebolts and shackles rated from the geometry", () => {
     expect(eyebolt.verdict).toBe("pass");
     expect(eyebolt.capacityKg).toBe(860);
     expect(eyebolt.inputs.eyeAlignment).toBe("set-to-pull");
-    expect(checks.find((c) => c.id === "shackle-A")!.inputs).toMatchObject({ sideLoadAngleDeg: 0, sideLoadFrom: "eye-plane" });
+    expect(checks.find((c) => c.id === "shackle-A")!.inputs).toMatchObject({
+      sideLoadAngleDeg: 0,
+      sideLoadFrom: "eye-plane",
+    });
   });
   it("eyes fixed along y by the planner while the legs pull along x: the eyebolt fails out of plane and the shackle drops to 70 %", () => {
     const checks = checkRigging(solution, 1000, { x: 0, y: 0, z: -0.3 }, lps, rigAt("y"), T);
@@ -88,8 +94,14 @@ describe("gross load: load x (1 + contingency) + every allocated item's own mass
   const rigging: RiggingDescription = {
     contingencyPct: 10,
     legs: {
-      A: { sling: { kind: "chain", wllKg: 1400, hitch: "straight", itemCode: "CH-2L", massKg: 7.4 }, eyebolt: { family: "collar", thread: "M20", itemCode: "EB-1", massKg: 0.6 } },
-      B: { sling: { kind: "chain", wllKg: 1400, hitch: "straight", itemCode: "CH-2L", massKg: 7.4 }, eyebolt: { family: "collar", thread: "M20", itemCode: "EB-2", massKg: 0.6 } },
+      A: {
+        sling: { kind: "chain", wllKg: 1400, hitch: "straight", itemCode: "CH-2L", massKg: 7.4 },
+        eyebolt: { family: "collar", thread: "M20", itemCode: "EB-1", massKg: 0.6 },
+      },
+      B: {
+        sling: { kind: "chain", wllKg: 1400, hitch: "straight", itemCode: "CH-2L", massKg: 7.4 },
+        eyebolt: { family: "collar", thread: "M20", itemCode: "EB-2", massKg: 0.6 },
+      },
     },
     masterLink: { wllKg: 3150, itemCode: "ML-1", massKg: 2.7 },
     crane: { swlKg: 2000 },
@@ -102,7 +114,17 @@ describe("gross load: load x (1 + contingency) + every allocated item's own mass
     expect(loads.crane.gross.unrecorded).toEqual([]);
   });
   it("the crane check carries that gross load and names what it added", () => {
-    const checks = checkRigging(twoLegs(0.5, 1), 1000, { x: 0, y: 0, z: -0.3 }, [{ id: "A", thread: "M20" }, { id: "B", thread: "M20" }], rigging, T);
+    const checks = checkRigging(
+      twoLegs(0.5, 1),
+      1000,
+      { x: 0, y: 0, z: -0.3 },
+      [
+        { id: "A", thread: "M20" },
+        { id: "B", thread: "M20" },
+      ],
+      rigging,
+      T,
+    );
     const crane = checks.find((c) => c.id === "crane-load")!;
     expect(crane.loadKg).toBeCloseTo(1100 + 11.3, 9);
     expect(crane.verdict).toBe("pass");
@@ -110,7 +132,17 @@ describe("gross load: load x (1 + contingency) + every allocated item's own mass
   });
   it("an item without a recorded mass makes the crane check warn and name it", () => {
     const missing: RiggingDescription = { ...rigging, masterLink: { wllKg: 3150, itemCode: "ML-9" } };
-    const checks = checkRigging(twoLegs(0.5, 1), 1000, { x: 0, y: 0, z: -0.3 }, [{ id: "A", thread: "M20" }, { id: "B", thread: "M20" }], missing, T);
+    const checks = checkRigging(
+      twoLegs(0.5, 1),
+      1000,
+      { x: 0, y: 0, z: -0.3 },
+      [
+        { id: "A", thread: "M20" },
+        { id: "B", thread: "M20" },
+      ],
+      missing,
+      T,
+    );
     const crane = checks.find((c) => c.id === "crane-load")!;
     expect(crane.verdict).toBe("warn");
     expect(crane.fix).toEqual({ kind: "record-masses", items: ["Master link (ML-9)"] });

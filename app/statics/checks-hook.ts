@@ -21,7 +21,12 @@ function grossInputs(gross: GrossLoad | undefined) {
 /** Items in the load path whose own mass is unknown make the gross load incomplete: a warning. */
 function warnIfUnrecorded(check: Check, gross: GrossLoad | undefined): Check {
   if (!gross || gross.unrecorded.length === 0 || check.verdict !== "pass") return check;
-  return { ...check, verdict: "warn", finding: "masses-unrecorded", fix: { kind: "record-masses", items: gross.unrecorded } };
+  return {
+    ...check,
+    verdict: "warn",
+    finding: "masses-unrecorded",
+    fix: { kind: "record-masses", items: gross.unrecorded },
+  };
 }
 
 /** Master link or top fitting: the total hook load (kg) against its WLL. */
@@ -39,7 +44,10 @@ export function checkMasterLink(hookLoadKg: number, spec: MasterLinkSpec, option
     inputs: { ...markedWll(spec), ...grossInputs(options.gross), ...(wllKg !== null ? { wllKg } : {}) },
   };
   if (wllKg === null) return failCheck(base, "no-wll", { kind: "state-wll" }, hookLoadKg, null);
-  return warnIfUnrecorded(ratioCheck(base, hookLoadKg, wllKg, { kind: "larger-item", minWllKg: hookLoadKg }), options.gross);
+  return warnIfUnrecorded(
+    ratioCheck(base, hookLoadKg, wllKg, { kind: "larger-item", minWllKg: hookLoadKg }),
+    options.gross,
+  );
 }
 
 /** Crane or hoist: gross load (kg) = load x (1 + contingency) + every allocated item's mass + beam, against SWL. */
@@ -64,7 +72,11 @@ export function checkCraneLoad(grossLoadKg: number, crane: CraneSpec, options: H
 }
 
 /** Hook headroom: hook height needed over the floor (m) against the hook's highest position (m). */
-export function checkHeadroom(neededHookHeightM: number, maxHookHeightM: number, options: { ruleSet?: RuleSetId; itemCode?: string } = {}): Check {
+export function checkHeadroom(
+  neededHookHeightM: number,
+  maxHookHeightM: number,
+  options: { ruleSet?: RuleSetId; itemCode?: string } = {},
+): Check {
   const utilisation = maxHookHeightM > 0 ? neededHookHeightM / maxHookHeightM : Infinity;
   const ok = neededHookHeightM <= maxHookHeightM + 1e-9;
   return {
@@ -97,9 +109,16 @@ export interface InspectionOptions {
  * Inspection status of an allocated item: in service, and in date for thorough examination today
  * and on the planned lift date (YYYY-MM-DD); due within 30 days of today warns.
  */
-export function checkInspection(itemName: string, record: InspectionRecord, todayIso: string, options: InspectionOptions = {}): Check {
+export function checkInspection(
+  itemName: string,
+  record: InspectionRecord,
+  todayIso: string,
+  options: InspectionOptions = {},
+): Check {
   const ruleSet = options.ruleSet ?? DEFAULT_RULE_SET;
-  const source = options.tables ? ruleSetRow(options.tables, ruleSet).examinationSource : "UK LOLER 1998 reg 9(3); ASME B30.9 / B30.26 periodic inspection";
+  const source = options.tables
+    ? ruleSetRow(options.tables, ruleSet).examinationSource
+    : "UK LOLER 1998 reg 9(3); ASME B30.9 / B30.26 periodic inspection";
   const due = isoDateToDay(record.examinationDue);
   const today = isoDateToDay(todayIso);
   const liftDateIso = options.liftDateIso ?? null;
@@ -129,21 +148,43 @@ export function checkInspection(itemName: string, record: InspectionRecord, toda
     },
   };
   if (record.status !== "in_service") {
-    return { ...base, verdict: "fail", finding: record.status === "quarantined" ? "quarantined" : "withdrawn", fix: { kind: "replace-item" } };
+    return {
+      ...base,
+      verdict: "fail",
+      finding: record.status === "quarantined" ? "quarantined" : "withdrawn",
+      fix: { kind: "replace-item" },
+    };
   }
-  if (due === null || today === null) return { ...base, verdict: "fail", finding: "no-due-date", fix: { kind: "record-examination" } };
-  if (due < today) return { ...base, verdict: "fail", finding: "overdue", fix: { kind: "examine-before", dateIso: todayIso } };
+  if (due === null || today === null)
+    return { ...base, verdict: "fail", finding: "no-due-date", fix: { kind: "record-examination" } };
+  if (due < today)
+    return { ...base, verdict: "fail", finding: "overdue", fix: { kind: "examine-before", dateIso: todayIso } };
   if (lift !== null && due < lift) {
-    return { ...base, verdict: "fail", finding: "overdue-at-lift", fix: { kind: "examine-before", dateIso: liftDateIso! } };
+    return {
+      ...base,
+      verdict: "fail",
+      finding: "overdue-at-lift",
+      fix: { kind: "examine-before", dateIso: liftDateIso! },
+    };
   }
   if (due - today <= EXAMINATION_WARN_DAYS) {
-    return { ...base, verdict: "warn", finding: "due-soon", fix: { kind: "examine-before", dateIso: record.examinationDue } };
+    return {
+      ...base,
+      verdict: "warn",
+      finding: "due-soon",
+      fix: { kind: "examine-before", dateIso: record.examinationDue },
+    };
   }
   return { ...base, verdict: "pass", finding: "in-date", fix: null };
 }
 
 /** An item with no thorough examination on record: it fails until one is recorded. */
-export function checkNeverExamined(itemName: string, itemCode: string, todayIso: string, options: InspectionOptions = {}): Check {
+export function checkNeverExamined(
+  itemName: string,
+  itemCode: string,
+  todayIso: string,
+  options: InspectionOptions = {},
+): Check {
   const ruleSet = options.ruleSet ?? DEFAULT_RULE_SET;
   return {
     id: `inspection-${itemCode}`,

@@ -57,7 +57,13 @@ export function resolveSlingWll(
 export function describeSling(spec: SlingSpec): string {
   const size = spec.diameterMm !== undefined ? ` ${spec.diameterMm} mm` : spec.colour ? ` ${spec.colour}` : "";
   const kind =
-    spec.kind === "web" ? "webbing" : spec.kind === "round" ? "roundsling" : spec.kind === "wire" ? "wire rope" : "chain";
+    spec.kind === "web"
+      ? "webbing"
+      : spec.kind === "round"
+        ? "roundsling"
+        : spec.kind === "wire"
+          ? "wire rope"
+          : "chain";
   const hitch = spec.hitch === "straight" ? "" : `, ${spec.hitch} hitch`;
   return `${kind}${size}${hitch}`;
 }
@@ -109,12 +115,10 @@ export function checkSlingLeg(
     );
   }
   if (wll === null || hitch === null) return failCheck(base, "no-wll", { kind: "state-wll" }, designLoadKg, null);
-  return ratioCheck(
-    { ...base, source: `${wll.source}; ${hitch.source}` },
-    designLoadKg,
-    wll.wllKg * hitch.factor,
-    { kind: "larger-item", minWllKg: designLoadKg / hitch.factor },
-  );
+  return ratioCheck({ ...base, source: `${wll.source}; ${hitch.source}` }, designLoadKg, wll.wllKg * hitch.factor, {
+    kind: "larger-item",
+    minWllKg: designLoadKg / hitch.factor,
+  });
 }
 
 export interface AssemblyOptions {
@@ -162,7 +166,9 @@ export function checkSlingAssembly(
   if (mode === null) {
     const ratedUpToDeg = Math.max(
       0,
-      ...tables.modeFactors.filter((r) => r.ruleSet === ruleSet && r.effectiveLegs === effectiveLegs).map((r) => r.upToAngleDeg),
+      ...tables.modeFactors
+        .filter((r) => r.ruleSet === ruleSet && r.effectiveLegs === effectiveLegs)
+        .map((r) => r.upToAngleDeg),
     );
     return failCheck(
       { ...base, inputs: { ...base.inputs, wllKg: legCapacity, modeUpToDeg: ratedUpToDeg } },
@@ -179,11 +185,19 @@ export function checkSlingAssembly(
   const sameSize =
     first !== undefined &&
     first.diameterMm !== undefined &&
-    specs.every((s) => s.kind === first.kind && s.diameterMm === first.diameterMm && statedWllKg(s) === null && s.hitch === first.hitch);
+    specs.every(
+      (s) =>
+        s.kind === first.kind &&
+        s.diameterMm === first.diameterMm &&
+        statedWllKg(s) === null &&
+        s.hitch === first.hitch,
+    );
   // Published EN tables round some multi-leg values below factor x single leg: never exceed them.
   if (ruleSet === "uk-eu" && sameSize && (first.kind === "chain" || first.kind === "wire")) {
     const row =
-      first.kind === "chain" ? findChainGrade8(tables.chainGrade8, first.diameterMm!) : findWireRope(tables.wireRope, first.diameterMm!);
+      first.kind === "chain"
+        ? findChainGrade8(tables.chainGrade8, first.diameterMm!)
+        : findWireRope(tables.wireRope, first.diameterMm!);
     const hitch = findHitchFactor(tables.hitchFactors, first.hitch, ruleSet);
     const publishedT = row ? publishedMultiLegT(row, effectiveLegs, maxAngleFromVerticalDeg) : null;
     if (row && hitch && publishedT !== null && publishedT * 1000 * hitch.factor < capacityKg) {
@@ -241,10 +255,22 @@ export function checkLegAngle(legId: string, angleFromVerticalDeg: number, optio
     utilisation: null,
   };
   if (beta <= limits.verticalDeg + TABLE_ANGLE_TOL_DEG) {
-    return { ...base, verdict: "pass", finding: "vertical", rule: `Within ${limits.verticalDeg} deg of vertical counts as vertical`, fix: null };
+    return {
+      ...base,
+      verdict: "pass",
+      finding: "vertical",
+      rule: `Within ${limits.verticalDeg} deg of vertical counts as vertical`,
+      fix: null,
+    };
   }
   if (beta <= limits.warnDeg + TABLE_ANGLE_TOL_DEG) {
-    return { ...base, verdict: "pass", finding: "angle-ok", rule: `Leg angle up to ${limits.warnDeg} deg from vertical`, fix: null };
+    return {
+      ...base,
+      verdict: "pass",
+      finding: "angle-ok",
+      rule: `Leg angle up to ${limits.warnDeg} deg from vertical`,
+      fix: null,
+    };
   }
   if (beta <= limits.maxDeg + TABLE_ANGLE_TOL_DEG) {
     return {
@@ -286,6 +312,9 @@ export function angleFix(solution: BridleSolution, limitDeg: number): Fix | null
   }
   const legs = taut
     .filter((l) => l.angleFromVerticalDeg > limitDeg + TABLE_ANGLE_TOL_DEG)
-    .map((l) => ({ legId: l.liftPointId, minLengthM: (l.lengthM * Math.sin((l.angleFromVerticalDeg * Math.PI) / 180)) / sinLimit }));
+    .map((l) => ({
+      legId: l.liftPointId,
+      minLengthM: (l.lengthM * Math.sin((l.angleFromVerticalDeg * Math.PI) / 180)) / sinLimit,
+    }));
   return legs.length ? { kind: "longer-legs", legs } : null;
 }

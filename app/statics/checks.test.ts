@@ -36,7 +36,9 @@ describe("leg angle limits (29 CFR 1910.184(b); OSHA Guidance on Safe Sling Use;
   ] as const)("beta %d deg -> %s (%s)", (beta, status, rule) => {
     const c = checkLegAngle("A", beta);
     expect(c.verdict).toBe(status);
-    expect(c.rule.toLowerCase()).toContain(rule === "vertical" ? "vertical" : rule === "up to 45" ? "up to 45" : rule === "45-60" ? "45-60" : "over 60");
+    expect(c.rule.toLowerCase()).toContain(
+      rule === "vertical" ? "vertical" : rule === "up to 45" ? "up to 45" : rule === "45-60" ? "45-60" : "over 60",
+    );
     expect(checkSentence(c, "metric")).toContain("Sling leg A");
   });
 });
@@ -72,10 +74,21 @@ describe("multi-leg rating (uniform load method; DGUV Regel 100-500; NAVEDTRA)",
     expect(checkSlingAssembly(1000, [chain8, chain8], 2, 50, "sym.", T).capacityKg).toBeCloseTo(2000, 9);
   });
   it("asymmetric 2-leg Furley example is rated as 1 leg carrying (DGUV Regel 100-500)", () => {
-    const r = solveLevel({ massKg: 2000, cog: { x: 0, y: 0, z: -0.1 } }, [lp("A", -0.2, 0, 0), lp("B", 0.8, 0, 0)], 0.8);
+    const r = solveLevel(
+      { massKg: 2000, cog: { x: 0, y: 0, z: -0.1 } },
+      [lp("A", -0.2, 0, 0), lp("B", 0.8, 0, 0)],
+      0.8,
+    );
     if (!r.ok) throw new Error(r.message);
     expect(r.solution.rating.effectiveLegs).toBe(1);
-    const c = checkSlingAssembly(2000, [chain8, chain8], r.solution.rating.effectiveLegs, r.solution.rating.maxAngleFromVerticalDeg, r.solution.rating.rule, T);
+    const c = checkSlingAssembly(
+      2000,
+      [chain8, chain8],
+      r.solution.rating.effectiveLegs,
+      r.solution.rating.maxAngleFromVerticalDeg,
+      r.solution.rating.rule,
+      T,
+    );
     expect(c.capacityKg).toBeCloseTo(2000, 9);
     expect(c.rule).toContain("1 leg");
   });
@@ -97,8 +110,13 @@ describe("eyebolts (DIN 580; ASME B18.15-type table; ASME B30.26)", () => {
     expect(checkSentence(c, "metric")).toContain("use an M20 eyebolt");
   });
   it("angled pull out of the plane of the eye fails", () => {
-    expect(checkEyebolt("A", 100, 30, { family: "collar", thread: "M16", eyeAlignedWithPull: false }, "M16", T).verdict).toBe("fail");
-    expect(checkEyebolt("A", 100, 30, { family: "shoulder", thread: "M16", wllKg: 700, eyeAlignedWithPull: false }, "M16", T).verdict).toBe("fail");
+    expect(
+      checkEyebolt("A", 100, 30, { family: "collar", thread: "M16", eyeAlignedWithPull: false }, "M16", T).verdict,
+    ).toBe("fail");
+    expect(
+      checkEyebolt("A", 100, 30, { family: "shoulder", thread: "M16", wllKg: 700, eyeAlignedWithPull: false }, "M16", T)
+        .verdict,
+    ).toBe("fail");
   });
   it("pull beyond 90 deg from the axis fails", () => {
     expect(checkEyebolt("A", 1, 95, { family: "collar", thread: "M16" }, "M16", T).verdict).toBe("fail");
@@ -108,7 +126,10 @@ describe("eyebolts (DIN 580; ASME B18.15-type table; ASME B30.26)", () => {
     expect(checkEyebolt("A", 701, 0, { family: "collar", thread: "M16" }, "M16", T).verdict).toBe("fail");
   });
   it("a collar eyebolt marked below the DIN 580 value is derated from its marking", () => {
-    expect(checkEyebolt("A", 1, 50, { family: "collar", thread: "M16", wllKg: 350 }, "M16", T).capacityKg).toBeCloseTo(175, 9);
+    expect(checkEyebolt("A", 1, 50, { family: "collar", thread: "M16", wllKg: 350 }, "M16", T).capacityKg).toBeCloseTo(
+      175,
+      9,
+    );
   });
   it("unrecorded lift point thread turns a pass into a warning", () => {
     expect(checkEyebolt("A", 100, 0, { family: "collar", thread: "M16" }, undefined, T).verdict).toBe("warn");
@@ -127,8 +148,15 @@ describe("shackles (side load and included angle: common practice across rigging
   const leg = (id: string, halfAngleDeg: number, sign: number): LegResult => {
     const a = (halfAngleDeg * Math.PI) / 180;
     return {
-      liftPointId: id, lengthM: 1, tensionKn: 9.80665, tensionKg: 1000, angleFromVerticalDeg: halfAngleDeg, axisAngleDeg: halfAngleDeg,
-      verticalShare: 0.5, slack: false, direction: { x: -sign * Math.sin(a), y: 0, z: Math.cos(a) },
+      liftPointId: id,
+      lengthM: 1,
+      tensionKn: 9.80665,
+      tensionKg: 1000,
+      angleFromVerticalDeg: halfAngleDeg,
+      axisAngleDeg: halfAngleDeg,
+      verticalShare: 0.5,
+      slack: false,
+      direction: { x: -sign * Math.sin(a), y: 0, z: Math.cos(a) },
     };
   };
   it("two legs 120 deg apart on one shackle pass; 130 deg fails", () => {
@@ -136,7 +164,9 @@ describe("shackles (side load and included angle: common practice across rigging
     expect(ok.verdict).toBe("pass");
     // Resultant of two 1000 kg legs 120 deg apart is 1000 kg (vector sum).
     expect(ok.loadKg).toBeCloseTo(1000, 9);
-    expect(checkSharedShackle(0, leg("A", 65, 1), leg("B", 65, -1), 1, { legIds: ["A", "B"], wllKg: 3250 }).verdict).toBe("fail");
+    expect(
+      checkSharedShackle(0, leg("A", 65, 1), leg("B", 65, -1), 1, { legIds: ["A", "B"], wllKg: 3250 }).verdict,
+    ).toBe("fail");
   });
 });
 
@@ -153,7 +183,11 @@ describe("master link, crane and headroom (LOLER reg 8; ASME P30.1)", () => {
 });
 
 describe("inspection status (UK LOLER 1998 reg 9(3))", () => {
-  const rec = (status: "in_service" | "quarantined" | "withdrawn", due: string) => ({ itemId: "SL-1", status, examinationDue: due });
+  const rec = (status: "in_service" | "quarantined" | "withdrawn", due: string) => ({
+    itemId: "SL-1",
+    status,
+    examinationDue: due,
+  });
   it.each([
     [rec("in_service", "2025-12-31"), "2025-06-01", "pass"],
     [rec("in_service", "2025-06-20"), "2025-06-01", "warn"],
@@ -167,13 +201,18 @@ describe("inspection status (UK LOLER 1998 reg 9(3))", () => {
   });
   it("dates count in whole days", () => expect(isoDateToDay("1970-01-02")).toBe(1));
   it("an item in date today but due before the planned lift date fails, showing both dates", () => {
-    const c = checkInspection("Sling leg A", rec("in_service", "2025-07-01"), "2025-05-01", { liftDateIso: "2025-07-15" });
+    const c = checkInspection("Sling leg A", rec("in_service", "2025-07-01"), "2025-05-01", {
+      liftDateIso: "2025-07-15",
+    });
     expect(c.verdict).toBe("fail");
     expect(c.finding).toBe("overdue-at-lift");
     expect(c.fix).toEqual({ kind: "examine-before", dateIso: "2025-07-15" });
     expect(c.inputs.inspection).toMatchObject({ daysLeftToday: 61, daysLeftAtLift: -14 });
     expect(checkSentence(c, "metric")).toContain("today 2025-05-01; lift planned for 2025-07-15");
-    expect(checkInspection("Sling leg A", rec("in_service", "2025-07-01"), "2025-05-01", { liftDateIso: "2025-06-30" }).verdict).toBe("pass");
+    expect(
+      checkInspection("Sling leg A", rec("in_service", "2025-07-01"), "2025-05-01", { liftDateIso: "2025-06-30" })
+        .verdict,
+    ).toBe("pass");
   });
 });
 
@@ -181,7 +220,13 @@ describe("checkRigging on the Furley 2-leg example with 10 % contingency", () =>
   const r = solveLevel({ massKg: 2000, cog: { x: 0, y: 0, z: -0.1 } }, [lp("A", -0.2, 0, 0), lp("B", 0.8, 0, 0)], 0.8);
   if (!r.ok) throw new Error(r.message);
   const checks = checkRigging(
-    r.solution, 2000, { x: 0, y: 0, z: -0.1 }, [{ id: "A", thread: "M24" }, { id: "B", thread: "M24" }],
+    r.solution,
+    2000,
+    { x: 0, y: 0, z: -0.1 },
+    [
+      { id: "A", thread: "M24" },
+      { id: "B", thread: "M24" },
+    ],
     {
       legs: {
         A: { sling: { kind: "chain", diameterMm: 8, hitch: "straight" }, eyebolt: { family: "collar", thread: "M24" } },
@@ -203,8 +248,10 @@ describe("checkRigging on the Furley 2-leg example with 10 % contingency", () =>
     expect(byId.get("eyebolt-B")!.capacityKg).toBe(1290);
   });
   it("crane gross load = 2000 x 1.1 + 40 = 2240 kg", () => expect(byId.get("crane-load")!.loadKg).toBeCloseTo(2240, 9));
-  it("headroom needed = 2.5 m + (0.8 - (-0.4)) m = 3.7 m", () => expect(byId.get("crane-headroom")!.utilisation).toBeCloseTo(3.7 / 4, 12));
-  it("asymmetric 2-leg sling rated as 1 leg: 2200 kg on 2000 kg fails", () => expect(byId.get("sling-assembly")!.verdict).toBe("fail"));
+  it("headroom needed = 2.5 m + (0.8 - (-0.4)) m = 3.7 m", () =>
+    expect(byId.get("crane-headroom")!.utilisation).toBeCloseTo(3.7 / 4, 12));
+  it("asymmetric 2-leg sling rated as 1 leg: 2200 kg on 2000 kg fails", () =>
+    expect(byId.get("sling-assembly")!.verdict).toBe("fail"));
   it("every check names its item and has a source", () => {
     for (const c of checks) {
       expect(c.item.length).toBeGreaterThan(0);

@@ -39,7 +39,13 @@ export type {
 } from "./check-types";
 export { contingencyFactor, isoDateToDay, statedWllKg } from "./checks-common";
 export { checkEyebolt, checkShackle, checkSharedShackle, MAX_SHACKLE_INCLUDED_DEG } from "./checks-fittings";
-export { checkCraneLoad, checkHeadroom, checkInspection, checkNeverExamined, EXAMINATION_WARN_DAYS } from "./checks-hook";
+export {
+  checkCraneLoad,
+  checkHeadroom,
+  checkInspection,
+  checkNeverExamined,
+  EXAMINATION_WARN_DAYS,
+} from "./checks-hook";
 export {
   checkLegAngle,
   checkSlingAssembly,
@@ -61,15 +67,27 @@ export interface CheckOptions {
 }
 
 /** Every taut leg's angle against the rule set's limits, with the hook height or leg lengths that fix it. */
-export function angleChecks(solution: BridleSolution, tables: ReferenceTables, ruleSet: RuleSetId = DEFAULT_RULE_SET): Check[] {
+export function angleChecks(
+  solution: BridleSolution,
+  tables: ReferenceTables,
+  ruleSet: RuleSetId = DEFAULT_RULE_SET,
+): Check[] {
   const rules = ruleSetRow(tables, ruleSet);
   const limits = { verticalDeg: rules.verticalDeg, warnDeg: rules.warnDeg, maxDeg: rules.maxDeg };
   const taut = solution.legs.filter((l) => !l.slack);
   const worst = Math.max(0, ...taut.map((l) => l.angleFromVerticalDeg));
   const fix =
-    worst > limits.warnDeg ? { warn: angleFix(solution, limits.warnDeg), fail: angleFix(solution, limits.maxDeg) } : undefined;
+    worst > limits.warnDeg
+      ? { warn: angleFix(solution, limits.warnDeg), fail: angleFix(solution, limits.maxDeg) }
+      : undefined;
   return taut.map((leg) =>
-    checkLegAngle(leg.liftPointId, leg.angleFromVerticalDeg, { ruleSet, limits, source: rules.angleSource, mode: solution.mode, fix }),
+    checkLegAngle(leg.liftPointId, leg.angleFromVerticalDeg, {
+      ruleSet,
+      limits,
+      source: rules.angleSource,
+      mode: solution.mode,
+      fix,
+    }),
   );
 }
 
@@ -102,10 +120,22 @@ export function grossLoads(massKg: number, rigging: RiggingDescription, beamMass
   const sum = (items: GrossLoad["items"]) => items.reduce((total, i) => total + i.massKg, 0);
   // A lump sum stands for whatever rigging has no mass of its own.
   const missing = rigging.riggingMassKg !== undefined ? [] : unrecorded;
-  const atLink: GrossLoad = { massKg, contingencyPct, loadWithContingencyKg, items: below, unrecorded: [...missing], riggingMassKg, beamMassKg };
+  const atLink: GrossLoad = {
+    massKg,
+    contingencyPct,
+    loadWithContingencyKg,
+    items: below,
+    unrecorded: [...missing],
+    riggingMassKg,
+    beamMassKg,
+  };
   const withLink = [...below];
   if (rigging.masterLink) add(withLink, "Master link", rigging.masterLink);
-  const atCrane: GrossLoad = { ...atLink, items: withLink, unrecorded: rigging.riggingMassKg !== undefined ? [] : [...unrecorded] };
+  const atCrane: GrossLoad = {
+    ...atLink,
+    items: withLink,
+    unrecorded: rigging.riggingMassKg !== undefined ? [] : [...unrecorded],
+  };
   return {
     masterLink: { kg: loadWithContingencyKg + sum(below) + riggingMassKg + beamMassKg, gross: atLink },
     crane: { kg: loadWithContingencyKg + sum(withLink) + riggingMassKg + beamMassKg, gross: atCrane },
@@ -166,17 +196,27 @@ export function checkRigging(
   if (solution.legs.length >= 2 && slingSpecs.length === solution.legs.length) {
     const { rating } = solution;
     results.push(
-      checkSlingAssembly(massKg * factor, slingSpecs, rating.effectiveLegs, rating.maxAngleFromVerticalDeg, rating.rule, tables, {
-        ruleSet,
-        angleFix: angleFix(solution, rules.maxDeg),
-      }),
+      checkSlingAssembly(
+        massKg * factor,
+        slingSpecs,
+        rating.effectiveLegs,
+        rating.maxAngleFromVerticalDeg,
+        rating.rule,
+        tables,
+        {
+          ruleSet,
+          angleFix: angleFix(solution, rules.maxDeg),
+        },
+      ),
     );
   }
   (rigging.sharedShackles ?? []).forEach((s, index) => {
     const a = solution.legs.find((l) => l.liftPointId === s.legIds[0]);
     const b = solution.legs.find((l) => l.liftPointId === s.legIds[1]);
-    if (a && b) results.push(checkSharedShackle(index, a, b, factor, s, { ruleSet, maxIncludedDeg: rules.sharedShackleMaxDeg }));
-    if (s.inspection) inspections.push({ name: `Shackle joining legs ${s.legIds[0]} and ${s.legIds[1]}`, record: s.inspection });
+    if (a && b)
+      results.push(checkSharedShackle(index, a, b, factor, s, { ruleSet, maxIncludedDeg: rules.sharedShackleMaxDeg }));
+    if (s.inspection)
+      inspections.push({ name: `Shackle joining legs ${s.legIds[0]} and ${s.legIds[1]}`, record: s.inspection });
   });
   const loads = grossLoads(massKg, rigging, options.beamMassKg ?? 0);
   if (rigging.masterLink) {
@@ -202,7 +242,9 @@ export function checkRigging(
   }
   if (todayIso !== undefined) {
     for (const { name, record } of inspections) {
-      results.push(checkInspection(name, record, todayIso, { ruleSet, tables, liftDateIso: options.liftDateIso ?? null }));
+      results.push(
+        checkInspection(name, record, todayIso, { ruleSet, tables, liftDateIso: options.liftDateIso ?? null }),
+      );
     }
   }
   return results;

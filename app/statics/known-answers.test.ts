@@ -79,7 +79,11 @@ describe("load angle factor 1/sin(theta) (ASME B30.9 / OSHA Guidance on Safe Sli
 
 describe("two legs, CoG offset (Furley Engineering, 'Sling Load' worked example)", () => {
   // 2000 kg; lift points 800 mm and 200 mm either side of the CoG, same level; hook 800 mm above them.
-  const r = solveLevel({ massKg: 2000, cog: { x: 0, y: 0, z: 0 } }, [lp("near", -0.2, 0, 0), lp("far", 0.8, 0, 0)], 0.8);
+  const r = solveLevel(
+    { massKg: 2000, cog: { x: 0, y: 0, z: 0 } },
+    [lp("near", -0.2, 0, 0), lp("far", 0.8, 0, 0)],
+    0.8,
+  );
   if (!r.ok) throw new Error(r.message);
   const [near, far] = r.solution.legs;
   it("near leg length 824.6 mm, theta 75.96 deg, tension 1649.2 kg (published 1650 kg)", () => {
@@ -102,7 +106,11 @@ describe("two legs, CoG offset (Furley Engineering, 'Sling Load' worked example)
 
 describe("three legs in 3-D (mrhengineering.dk 'three-leg sling' worked example)", () => {
   // Hook (0.5, 0.4, 2.0); lift points (0.1,0,0), (0.8,0.3,0), (0.1,0.7,0); CoG plumb under the hook.
-  const r = solveLevel({ massKg: 1000, cog: { x: 0.5, y: 0.4, z: -0.5 } }, [lp("1", 0.1, 0, 0), lp("2", 0.8, 0.3, 0), lp("3", 0.1, 0.7, 0)], 2.0);
+  const r = solveLevel(
+    { massKg: 1000, cog: { x: 0.5, y: 0.4, z: -0.5 } },
+    [lp("1", 0.1, 0, 0), lp("2", 0.8, 0.3, 0), lp("3", 0.1, 0.7, 0)],
+    2.0,
+  );
   if (!r.ok) throw new Error(r.message);
   const legs = r.solution.legs;
   it("hook at (0.5, 0.4, 2.0)", () => expect(r.solution.hook).toEqual({ x: 0.5, y: 0.4, z: 2.0 }));
@@ -131,7 +139,12 @@ describe("EN 818-4 grade 8 chain: 1-leg WLL x mode factor vs the reprinted stand
   // vs 3.15 x 1.4 = 4.41 t, published 3.8 % lower), which the assembly check therefore caps at the published value.
   const cells: Array<[number, 2 | 3, number, keyof (typeof CHAIN_GRADE_8)[number]]> = [];
   for (const row of CHAIN_GRADE_8) {
-    cells.push([row.diameterMm, 2, 45, "twoLegUpTo45T"], [row.diameterMm, 2, 60, "twoLeg45To60T"], [row.diameterMm, 3, 45, "multiLegUpTo45T"], [row.diameterMm, 3, 60, "multiLeg45To60T"]);
+    cells.push(
+      [row.diameterMm, 2, 45, "twoLegUpTo45T"],
+      [row.diameterMm, 2, 60, "twoLeg45To60T"],
+      [row.diameterMm, 3, 45, "multiLegUpTo45T"],
+      [row.diameterMm, 3, 60, "multiLeg45To60T"],
+    );
   }
   it.each(cells)("%d mm, %d legs carrying, up to %d deg (EN 818-4 table)", (d, legs, angle, column) => {
     const row = CHAIN_GRADE_8.find((r) => r.diameterMm === d)!;
@@ -182,12 +195,15 @@ describe("OSHA Guidance on Safe Sling Use, Table 1: grade 80 chain 1/2 in (round
 });
 
 describe("DIN 580 collar eyebolts (DIN 580 annex table; 90 deg column 2010 edition)", () => {
-  it.each(DIN_580_EYEBOLTS.map((r) => [r.thread, r.axialKg, r.upTo45Kg, r.at90Kg] as const))("%s: axial %d, up to 45 %d, 90 %d kg", (thread, axial, at45, at90) => {
-    const row = findDin580Eyebolt(REFERENCE_TABLES.din580Eyebolts, thread.toLowerCase())!;
-    expect(din580CapacityAtAngle(row, 0)!.capacityKg).toBe(axial);
-    expect(din580CapacityAtAngle(row, 45)!.capacityKg).toBe(at45);
-    expect(din580CapacityAtAngle(row, 90)!.capacityKg).toBe(at90);
-  });
+  it.each(DIN_580_EYEBOLTS.map((r) => [r.thread, r.axialKg, r.upTo45Kg, r.at90Kg] as const))(
+    "%s: axial %d, up to 45 %d, 90 %d kg",
+    (thread, axial, at45, at90) => {
+      const row = findDin580Eyebolt(REFERENCE_TABLES.din580Eyebolts, thread.toLowerCase())!;
+      expect(din580CapacityAtAngle(row, 0)!.capacityKg).toBe(axial);
+      expect(din580CapacityAtAngle(row, 45)!.capacityKg).toBe(at45);
+      expect(din580CapacityAtAngle(row, 90)!.capacityKg).toBe(at90);
+    },
+  );
   it("M16 published 700 / 500 / 350 kg", () => {
     const row = findDin580Eyebolt(REFERENCE_TABLES.din580Eyebolts, "M16")!;
     expect([row.axialKg, row.upTo45Kg, row.at90Kg]).toEqual([700, 500, 350]);
@@ -228,8 +244,12 @@ describe("shoulder eyebolts, angular pull (US practice, ASME B18.15-type tables)
     expect(c.capacityKg).toBeCloseTo(650, 9);
   });
   it("plain eyebolt: in-line pull only (ASME B30.26) - 6 deg fails", () => {
-    expect(checkEyebolt("C", 10, 6, { family: "plain", thread: "M16", wllKg: 700 }, "M16", REFERENCE_TABLES).verdict).toBe("fail");
-    expect(checkEyebolt("C", 10, 4, { family: "plain", thread: "M16", wllKg: 700 }, "M16", REFERENCE_TABLES).verdict).toBe("pass");
+    expect(
+      checkEyebolt("C", 10, 6, { family: "plain", thread: "M16", wllKg: 700 }, "M16", REFERENCE_TABLES).verdict,
+    ).toBe("fail");
+    expect(
+      checkEyebolt("C", 10, 4, { family: "plain", thread: "M16", wllKg: 700 }, "M16", REFERENCE_TABLES).verdict,
+    ).toBe("pass");
   });
 });
 
@@ -249,10 +269,13 @@ describe("shackles (RR-C-271 / EN 13889 sizes; side load common practice)", () =
     [90, 1000],
     [20, 1400],
     [60, 1000],
-  ])("2 t shackle side-loaded %d deg is good for %d kg (45 deg: 70 pct, 90 deg: 50 pct, next larger angle)", (angle, capacity) => {
-    const c = checkShackle("A", 100, { type: "bow", wllKg: 2000, sideLoadAngleDeg: angle }, REFERENCE_TABLES);
-    expect(c.capacityKg).toBeCloseTo(capacity, 9);
-  });
+  ])(
+    "2 t shackle side-loaded %d deg is good for %d kg (45 deg: 70 pct, 90 deg: 50 pct, next larger angle)",
+    (angle, capacity) => {
+      const c = checkShackle("A", 100, { type: "bow", wllKg: 2000, sideLoadAngleDeg: angle }, REFERENCE_TABLES);
+      expect(c.capacityKg).toBeCloseTo(capacity, 9);
+    },
+  );
 });
 
 describe("textile slings (EN 1492-1 / EN 1492-2 colour code)", () => {
@@ -269,7 +292,8 @@ describe("textile slings (EN 1492-1 / EN 1492-2 colour code)", () => {
     expect(findTextileColour(TEXTILE_COLOURS, colour)!.wllT).toBe(t);
     expect(textileColourForWll(TEXTILE_COLOURS, t)!.colour).toBe(colour);
   });
-  it("orange covers 10 t and above; a 12 t sling is orange", () => expect(textileColourForWll(TEXTILE_COLOURS, 12)!.colour).toBe("orange"));
+  it("orange covers 10 t and above; a 12 t sling is orange", () =>
+    expect(textileColourForWll(TEXTILE_COLOURS, 12)!.colour).toBe("orange"));
   it("a green webbing sling resolves to 2000 kg; basket parallel doubles it (EN 1492-1 annex)", () => {
     expect(resolveSlingWll({ kind: "web", colour: "Green", hitch: "basket" }, REFERENCE_TABLES)!.wllKg).toBe(2000);
     expect(REFERENCE_TABLES.hitchFactors.find((h) => h.hitch === "basket")!.factor).toBe(2.0);

@@ -147,7 +147,8 @@ export function rowForAngle<T extends { upToAngleDeg: number }>(rows: readonly T
   if (!Number.isFinite(angleDeg)) return null;
   let best: T | null = null;
   for (const row of rows) {
-    if (angleDeg <= row.upToAngleDeg + TABLE_ANGLE_TOL_DEG && (best === null || row.upToAngleDeg < best.upToAngleDeg)) best = row;
+    if (angleDeg <= row.upToAngleDeg + TABLE_ANGLE_TOL_DEG && (best === null || row.upToAngleDeg < best.upToAngleDeg))
+      best = row;
   }
   return best;
 }
@@ -178,7 +179,11 @@ export function din580CapacityAtAngle(row: Din580EyeboltRow, angleDeg: number): 
 }
 
 /** Hitch factor for a hitch under a rule set, or null when the table lacks it. */
-export function findHitchFactor(rows: readonly HitchFactorRow[], hitch: Hitch, ruleSet: RuleSetId = DEFAULT_RULE_SET): HitchFactorRow | null {
+export function findHitchFactor(
+  rows: readonly HitchFactorRow[],
+  hitch: Hitch,
+  ruleSet: RuleSetId = DEFAULT_RULE_SET,
+): HitchFactorRow | null {
   return rows.find((r) => r.hitch === hitch && r.ruleSet === ruleSet) ?? null;
 }
 
@@ -196,7 +201,11 @@ export function findModeFactor(
 }
 
 /** Shackle side-load row for an angle (deg) under a rule set, next larger tabulated angle; null beyond the table. */
-export function findShackleSideLoad(rows: readonly AnglePercentRow[], angleDeg: number, ruleSet: RuleSetId = DEFAULT_RULE_SET): AnglePercentRow | null {
+export function findShackleSideLoad(
+  rows: readonly AnglePercentRow[],
+  angleDeg: number,
+  ruleSet: RuleSetId = DEFAULT_RULE_SET,
+): AnglePercentRow | null {
   return rowForAngle(
     rows.filter((r) => (r.ruleSet ?? DEFAULT_RULE_SET) === ruleSet),
     angleDeg,
@@ -228,7 +237,11 @@ type PublishedColumns = {
 };
 
 /** Published multi-leg WLL (t) of an EN 818-4 / EN 13414-1 row for effective legs and angle, or null when not tabulated. */
-export function publishedMultiLegT(row: PublishedColumns, effectiveLegs: 1 | 2 | 3, maxAngleFromVerticalDeg: number): number | null {
+export function publishedMultiLegT(
+  row: PublishedColumns,
+  effectiveLegs: 1 | 2 | 3,
+  maxAngleFromVerticalDeg: number,
+): number | null {
   const upTo45 = maxAngleFromVerticalDeg <= 45 + TABLE_ANGLE_TOL_DEG;
   const upTo60 = maxAngleFromVerticalDeg <= 60 + TABLE_ANGLE_TOL_DEG;
   if (!upTo60) return null;
@@ -238,7 +251,11 @@ export function publishedMultiLegT(row: PublishedColumns, effectiveLegs: 1 | 2 |
 }
 
 /** Published EN 818-4 multi-leg WLL (t) for effective legs and angle, or null when not tabulated. */
-export function chainGrade8PublishedT(row: ChainGrade8Row, effectiveLegs: 1 | 2 | 3, maxAngleFromVerticalDeg: number): number | null {
+export function chainGrade8PublishedT(
+  row: ChainGrade8Row,
+  effectiveLegs: 1 | 2 | 3,
+  maxAngleFromVerticalDeg: number,
+): number | null {
   return publishedMultiLegT(row, effectiveLegs, maxAngleFromVerticalDeg);
 }
 

@@ -73,7 +73,12 @@ describe("EN 13414-1:2003 Table 4 wire rope slings (CHECK-VALUES.md)", () => {
   ] as const)("%d mm: 1 leg %d t, multi-leg cells as printed", (d, single, two45, two60, multi45, multi60) => {
     const row = findWireRope(T.wireRope, d)!;
     expect(row.singleLegT).toBe(single);
-    expect([row.twoLegUpTo45T, row.twoLeg45To60T, row.multiLegUpTo45T, row.multiLeg45To60T]).toEqual([two45, two60, multi45, multi60]);
+    expect([row.twoLegUpTo45T, row.twoLeg45To60T, row.multiLegUpTo45T, row.multiLeg45To60T]).toEqual([
+      two45,
+      two60,
+      multi45,
+      multi60,
+    ]);
     // The table's leg factors 1.4 / 1.0 / 2.1 / 1.5 on the single leg, within the table's rounding (+/- 4 %).
     expect(two45 / (single * 1.4)).toBeGreaterThan(0.96);
     expect(two45 / (single * 1.4)).toBeLessThan(1.04);
@@ -119,7 +124,9 @@ describe("eyebolt tables by rule set", () => {
     [45, 30],
     [90, 25],
   ] as const)("shoulder eyebolt at %d deg: %d %% of its marked WLL (US practice shoulder table)", (angle, pct) => {
-    const c = checkEyebolt("B", 1, angle, { family: "shoulder", thread: "M20", wllKg: 1000 }, "M20", T, { ruleSet: "us" });
+    const c = checkEyebolt("B", 1, angle, { family: "shoulder", thread: "M20", wllKg: 1000 }, "M20", T, {
+      ruleSet: "us",
+    });
     expect(c.capacityKg).toBeCloseTo(10 * pct, 9);
   });
 });
@@ -132,8 +139,13 @@ describe("limits and intervals by rule set", () => {
     }
   });
   it("examination: LOLER reg 9(3) 6 months for accessories, 12 for equipment; US periodic at most yearly (ASME B30.9 / B30.26)", () => {
-    expect([ruleSetRow(T, "uk-eu").accessoryExaminationMonths, ruleSetRow(T, "uk-eu").equipmentExaminationMonths]).toEqual([6, 12]);
-    expect([ruleSetRow(T, "us").accessoryExaminationMonths, ruleSetRow(T, "us").equipmentExaminationMonths]).toEqual([12, 12]);
+    expect([
+      ruleSetRow(T, "uk-eu").accessoryExaminationMonths,
+      ruleSetRow(T, "uk-eu").equipmentExaminationMonths,
+    ]).toEqual([6, 12]);
+    expect([ruleSetRow(T, "us").accessoryExaminationMonths, ruleSetRow(T, "us").equipmentExaminationMonths]).toEqual([
+      12, 12,
+    ]);
   });
   it("shackle side load 45 deg 70 %, 90 deg 50 % in each set, each naming its source (common practice)", () => {
     for (const id of ["uk-eu", "us"] as const) {
@@ -167,7 +179,17 @@ describe("hitches the leg can make (common practice)", () => {
       shackle: { type: "bow" as const, wllKg: 2000 },
       eyebolt: { family: "collar" as const, thread: "M16" },
     };
-    const checks = checkRigging(r.solution, 1000, { x: 0, y: 0, z: -0.2 }, [{ id: "A", thread: "M16" }, { id: "B", thread: "M16" }], { legs: { A: leg, B: leg } }, T);
+    const checks = checkRigging(
+      r.solution,
+      1000,
+      { x: 0, y: 0, z: -0.2 },
+      [
+        { id: "A", thread: "M16" },
+        { id: "B", thread: "M16" },
+      ],
+      { legs: { A: leg, B: leg } },
+      T,
+    );
     const sling = checks.find((c) => c.id === "sling-leg-A")!;
     expect(sling.verdict).toBe("fail");
     expect(sling.finding).toBe("hitch-impossible");

@@ -1,7 +1,14 @@
 // Which rules a check applies: the organisation's rule set picks the factors, tables and limits.
 // Pure lookups over the reference rows passed in.
 import type { EyeboltFamily, LegRigging, SlingSpec } from "./check-types";
-import { requireRuleSet, type EyeboltMethod, type Hitch, type ReferenceTables, type RuleSetId, type RuleSetRow } from "./reference";
+import {
+  requireRuleSet,
+  type EyeboltMethod,
+  type Hitch,
+  type ReferenceTables,
+  type RuleSetId,
+  type RuleSetRow,
+} from "./reference";
 
 /** The rule set's row (limits, eyebolt methods, examination intervals). */
 export function ruleSetRow(tables: ReferenceTables, id: RuleSetId): RuleSetRow {
@@ -19,7 +26,10 @@ export function eyeboltMethod(row: RuleSetRow, family: EyeboltFamily): EyeboltMe
  * the load at the lift point can also choke; only a single sling can basket (both ends to the
  * hook), since a leg of a multi-leg sling has one free end. Common practice.
  */
-export function allowedHitches(sling: Pick<SlingSpec, "kind" | "assemblyLegs">, leg: Pick<LegRigging, "eyebolt" | "shackle">): Hitch[] {
+export function allowedHitches(
+  sling: Pick<SlingSpec, "kind" | "assemblyLegs">,
+  leg: Pick<LegRigging, "eyebolt" | "shackle">,
+): Hitch[] {
   if (leg.eyebolt || leg.shackle) return ["straight"];
   const single = (sling.assemblyLegs ?? 1) <= 1;
   return single ? ["straight", "choke", "basket"] : ["straight", "choke"];

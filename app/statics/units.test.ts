@@ -9,8 +9,12 @@ const massUnits = Object.keys(MASS_UNIT_KG) as MassUnit[];
 const lengthUnits = Object.keys(LENGTH_UNIT_M) as LengthUnit[];
 
 describe("unit factors agree with mathjs's unit definitions", () => {
-  it.each(massUnits)("1 %s in kg", (u) => expect(MASS_UNIT_KG[u]).toBeCloseTo(unit(1, MATHJS_MASS[u]).toNumber("kg"), 12));
-  it.each(lengthUnits)("1 %s in m", (u) => expect(LENGTH_UNIT_M[u]).toBeCloseTo(unit(1, MATHJS_LENGTH[u]).toNumber("m"), 15));
+  it.each(massUnits)("1 %s in kg", (u) =>
+    expect(MASS_UNIT_KG[u]).toBeCloseTo(unit(1, MATHJS_MASS[u]).toNumber("kg"), 12),
+  );
+  it.each(lengthUnits)("1 %s in m", (u) =>
+    expect(LENGTH_UNIT_M[u]).toBeCloseTo(unit(1, MATHJS_LENGTH[u]).toNumber("m"), 15),
+  );
 
   it("every conversion matches mathjs to 1e-12 relative", () => {
     const value = fc.double({ min: 1e-6, max: 1e8, noNaN: true });

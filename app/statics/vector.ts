@@ -70,11 +70,7 @@ export function angleBetweenDeg(a: Vec3, b: Vec3): number {
 
 /** Determinant of a 3x3 matrix. */
 export function det3(m: Mat3): number {
-  return (
-    m[0] * (m[4] * m[8] - m[5] * m[7]) -
-    m[1] * (m[3] * m[8] - m[5] * m[6]) +
-    m[2] * (m[3] * m[7] - m[4] * m[6])
-  );
+  return m[0] * (m[4] * m[8] - m[5] * m[7]) - m[1] * (m[3] * m[8] - m[5] * m[6]) + m[2] * (m[3] * m[7] - m[4] * m[6]);
 }
 
 /** Solves M x = b by Cramer's rule; null when |det| <= minDet. */
@@ -119,4 +115,11 @@ export function inverse3(m: Mat3, minDet = 0): Mat3 | null {
 /** Matrix whose columns are a, b, c. */
 export function columns3(a: Vec3, b: Vec3, c: Vec3): Mat3 {
   return [a.x, b.x, c.x, a.y, b.y, c.y, a.z, b.z, c.z];
+}
+
+/** A unit vector perpendicular to v, chosen deterministically (+z when v is zero). */
+export function perpendicular(v: Vec3): Vec3 {
+  const seed = Math.abs(v.x) < 0.9 ? { x: 1, y: 0, z: 0 } : { x: 0, y: 1, z: 0 };
+  const s = dot(seed, v);
+  return normalize({ x: seed.x - v.x * s, y: seed.y - v.y * s, z: seed.z - v.z * s }) ?? { x: 0, y: 0, z: 1 };
 }
