@@ -97,7 +97,8 @@ export function beamResults(
     const leg = legs[i]!;
     const lr = rigging.legs?.[leg.liftPointId];
     if (!lr) return;
-    const loadKg = leg.tensionKg * factor;
+    // Each drop is rated for its design tension (lever rule, or the worst state with a drop slack), not its elastic share.
+    const loadKg = (s.drops.rating.legs[i]?.designTensionKg ?? leg.tensionKg) * factor;
     if (lr.sling) {
       checks.push(
         checkSlingLeg(leg.liftPointId, loadKg, lr.sling, tables, {
@@ -164,8 +165,7 @@ export function beamResults(
   }
   checks.push(...extraChecks);
   const unique = uniqueById(checks).map(toCheckResult);
-  const active = legs.filter((l) => !l.slack);
-  const maxKg = Math.max(0, ...active.map((l) => l.tensionKg));
+  const dropRating = s.drops.rating;
   const topLegs: PlanLeg[] = s.top.legs.map((l) => ({
     liftPointId: l.liftPointId,
     lengthM: l.lengthM,
@@ -184,21 +184,7 @@ export function beamResults(
     tiltDeg: 0,
     legs,
     warnings: [...s.warnings.map((w) => ({ code: w.code, message: w.message })), ...notes],
-    rating: {
-      legCount: legs.length,
-      symmetric: false,
-      effectiveLegs: Math.min(3, Math.max(1, active.length)) as 1 | 2 | 3,
-      maxAngleFromVerticalDeg: 0,
-      rule: "Vertical drops from a beam: lever rule for two drops, elastic share of a rigid load for more.",
-      source: "common practice",
-      legs: legs.map((l) => ({
-        liftPointId: l.liftPointId,
-        designTensionKn: l.tensionKn,
-        designTensionKg: l.tensionKg,
-      })),
-      designTensionKn: (maxKg * STANDARD_GRAVITY_MS2) / 1000,
-      designTensionKg: maxKg,
-    },
+    rating: dropRating,
     ruleSet,
     checks: unique,
     beam: { massKg: beam.massKg, wllKg: beam.wllKg, hookMassKg: s.hookMassKg, topLegs },
