@@ -1,6 +1,6 @@
 import type { Route } from "./+types/plans.$planId.print.pdf";
 import { recordAudit } from "~/models/audit-event.server";
-import { buildPlanPdf } from "~/plans/pdf.server";
+import { buildPlanPdf } from "~/plans/pdf/build.server";
 import { buildPrintablePlan } from "~/plans/printable.server";
 import { requireUser } from "~/utils/session.server";
 
