@@ -10,6 +10,8 @@ import * as componentFiles from "./migrations/0007-component-files";
 import * as planWorkflow from "./migrations/0008-plan-workflow";
 import * as signInAttempts from "./migrations/0009-sign-in-attempts";
 import * as indexes from "./migrations/0010-indexes";
+import * as sealedRevisions from "./migrations/0018-sealed-revisions";
+import * as revisionAuthors from "./migrations/0019-revision-authors";
 
 export type Migration = (params: { context: QueryInterface }) => Promise<void>;
 type MigrationModule = { up: Migration; down: Migration };
@@ -29,6 +31,8 @@ export const migrations: Array<[name: string, module: MigrationModule]> = [
   ["0008-plan-workflow", planWorkflow],
   ["0009-sign-in-attempts", signInAttempts],
   ["0010-indexes", indexes],
+  ["0018-sealed-revisions", sealedRevisions],
+  ["0019-revision-authors", revisionAuthors],
 ];
 
 /** The umzug runner over `sequelize`, recording applied migrations in SequelizeMeta. */

@@ -4,7 +4,7 @@ import { StatusBadge, utilisationText } from "~/components/live-results";
 import { Button, Card, FormError, PageHeader } from "~/components/ui/form";
 import { requireFormData } from "~/utils/forms";
 import { getPlan } from "~/models/plan.server";
-import { submitRevision } from "~/models/plan-workflow.server";
+import { submitRevision } from "~/plans/workflow.server";
 import { PLAN_CAUTION } from "~/plans/document";
 import { flashNotice, requireUserWithRole } from "~/utils/session.server";
 

@@ -1,5 +1,5 @@
 import type { Route } from "./+types/verify.$token";
-import { findRevisionByVerifyToken } from "~/models/plan-workflow.server";
+import { verifyRevision } from "~/plans/verify.server";
 import { getUser } from "~/utils/session.server";
 
 export const meta: Route.MetaFunction = () => [
@@ -9,7 +9,7 @@ export const meta: Route.MetaFunction = () => [
 
 /** Open to anyone holding the printed plan: says whether that revision is still the current approved one. */
 export async function loader({ request, params }: Route.LoaderArgs) {
-  const found = await findRevisionByVerifyToken(params.token);
+  const found = await verifyRevision(params.token);
   if (!found) return { found: null, canOpen: false };
   const user = await getUser(request);
   return {

@@ -44,7 +44,9 @@ import { addComponentFile, Component, createComponent } from "~/models/component
 import { GearItem } from "~/models/gear-item.server";
 import { createJob } from "~/models/job.server";
 import { issuePasswordToken } from "~/models/password-token.server";
-import { approveRevision, LiftRecord, LiftRecordPhoto, submitRevision } from "~/models/plan-workflow.server";
+import { approveRevision, submitRevision } from "~/plans/workflow.server";
+import { LiftRecord } from "~/models/lift-record.server";
+import { LiftRecordPhoto } from "~/models/lift-record-photo.server";
 import { getPlan, PlanRevision } from "~/models/plan.server";
 import { createSite } from "~/models/site.server";
 import type { SessionUser } from "~/models/user.server";

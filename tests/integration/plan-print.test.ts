@@ -4,10 +4,11 @@ import os from "node:os";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
 import * as print from "~/routes/plans.$planId.print.pdf";
+import * as printPage from "~/routes/plans.$planId.print";
 import * as verify from "~/routes/verify.$token";
 import { AuditEvent } from "~/models/audit-event.server";
 import { PlanRevision } from "~/models/plan.server";
-import { approveRevision, startNewRevision, submitRevision } from "~/models/plan-workflow.server";
+import { approveRevision, startNewRevision, submitRevision } from "~/plans/workflow.server";
 import { callRoute, getRequest, makeUser, TEST_PASSWORD } from "../support/factories";
 import { readyPlan } from "../support/workflow";
 
@@ -26,11 +27,20 @@ function pdfText(bytes: Uint8Array) {
 }
 
 describe("printing", () => {
-  it("a draft cannot be printed: 409 with a sentence", async () => {
+  it("a draft cannot be printed: the PDF address sends to the app's own page, which says why (409) and links back", async () => {
     const { planner, plan } = await readyPlan();
     const res = await printRequest(plan.id, planner);
-    expect(res.status).toBe(409);
-    expect(String(res.data)).toMatch(/Only the current approved revision can be printed/);
+    expect(res.status).toBe(302);
+    expect(res.headers.get("Location")).toBe(`/plans/${plan.id}/print`);
+    const page = await callRoute(printPage.loader, await getRequest(`/plans/${plan.id}/print`, planner), {
+      planId: String(plan.id),
+    });
+    expect(page.status).toBe(409);
+    expect(page.data).toEqual({
+      message:
+        "The plan has no approved revision to print yet. Revision 1 is a draft: it prints once an appointed person has approved it.",
+      planId: plan.id,
+    });
   });
 
   it("the approved revision prints with the approver, its fingerprint and the caution, and the print is in the history", async () => {

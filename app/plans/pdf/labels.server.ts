@@ -28,7 +28,8 @@ export function segmentHitsBox(s: { x1: number; y1: number; x2: number; y2: numb
   return true;
 }
 
-export const boxesOverlap = (a: Box, b: Box) => a.x < b.x + b.w && b.x < a.x + a.w && a.y < b.y + b.h && b.y < a.y + a.h;
+export const boxesOverlap = (a: Box, b: Box) =>
+  a.x < b.x + b.w && b.x < a.x + a.w && a.y < b.y + b.h && b.y < a.y + a.h;
 
 export type Point = { x: number; y: number };
 export type Candidate = Point & { anchor: Point };

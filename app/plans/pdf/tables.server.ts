@@ -33,7 +33,15 @@ export function heading(flow: Flow, number: number, title: string, keepWith = 60
 export type Fact = [label: string, value: string];
 
 /** Label/value rows in a column; draws when `draw` is set, and returns the height either way. */
-export function facts(flow: Flow, items: Fact[], x: number, width: number, yTop: number, draw: boolean, labelW = 74): number {
+export function facts(
+  flow: Flow,
+  items: Fact[],
+  x: number,
+  width: number,
+  yTop: number,
+  draw: boolean,
+  labelW = 74,
+): number {
   const valueStyle = { font: flow.fonts.regular, size: 8.5, color: INK };
   const labelStyle = { font: flow.fonts.semibold, size: 7, color: STEEL };
   let y = yTop;

@@ -1,0 +1,43 @@
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type Transaction,
+} from "sequelize";
+import { sequelize } from "~/utils/db.server";
+
+/** A gear item an approved revision's sealed record allocates (an index of the record, written with it). */
+export class PlanRevisionItem extends Model<
+  InferAttributes<PlanRevisionItem>,
+  InferCreationAttributes<PlanRevisionItem>
+> {
+  declare id: CreationOptional<number>;
+  declare revisionId: number;
+  declare gearItemId: number;
+}
+
+PlanRevisionItem.init(
+  {
+    id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+    revisionId: { type: DataTypes.INTEGER, allowNull: false },
+    gearItemId: { type: DataTypes.INTEGER, allowNull: false },
+  },
+  { sequelize, tableName: "plan_revision_items", underscored: true, timestamps: false },
+);
+
+export async function addRevisionItems(revisionId: number, gearItemIds: readonly number[], transaction: Transaction) {
+  const ids = [...new Set(gearItemIds)];
+  if (ids.length)
+    await PlanRevisionItem.bulkCreate(
+      ids.map((gearItemId) => ({ revisionId, gearItemId })),
+      { transaction },
+    );
+}
+
+/** The ids of the revisions whose sealed record allocates the item. */
+export async function listRevisionIdsUsingItem(gearItemId: number) {
+  const rows = await PlanRevisionItem.findAll({ where: { gearItemId }, attributes: ["revisionId"], raw: true });
+  return rows.map((r) => r.revisionId);
+}

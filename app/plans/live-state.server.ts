@@ -1,0 +1,106 @@
+// The gear's state now, read from the register, beside an approved revision's sealed record; and the
+// mail to the people of an approved plan when a change to an item it allocates makes it unfit.
+import type { Transaction } from "sequelize";
+import { listGearItemsByIds, type GearItem } from "~/models/gear-item.server";
+import { listApprovedRevisions, todayIso, type PlanRevision } from "~/models/plan.server";
+import { listRevisionIdsUsingItem } from "~/models/plan-revision-item.server";
+import { listActiveUsersByIds } from "~/models/user.server";
+import { judgeLiveState, type GearNow, type LiveGearState, type LiveProblem } from "~/plans/live-state";
+import { mailNotFitToLift } from "~/plans/notifications.server";
+import { readSealed, type SealedPlan } from "~/plans/sealed";
+
+function gearNow(item: GearItem): GearNow {
+  return {
+    id: item.id,
+    itemCode: item.itemCode,
+    kind: item.kind,
+    serial: item.serial,
+    manufacturer: item.manufacturer,
+    wllKg: item.wllKg,
+    massKg: item.beamMassKg ?? null,
+    status: item.status,
+    statusReason: item.statusReason,
+    statusChangedAt: item.statusChangedAt ? item.statusChangedAt.toISOString() : null,
+    nextDueOn: item.nextDueOn ?? null,
+    updatedAt: item.updatedAt.toISOString(),
+  };
+}
+
+/** The day a lift to the plan is judged for: the job's start day when that is still ahead, else today. */
+export function liftDateOf(sealed: Pick<SealedPlan, "job">, today = todayIso()): string {
+  const starts = sealed.job.startsOn;
+  return starts && starts > today ? starts : today;
+}
+
+/** Every allocated item of the sealed record judged against the register now. */
+export async function liveStateOf(
+  organisationId: number,
+  sealed: SealedPlan,
+  options: { liftDate?: string; transaction?: Transaction } = {},
+): Promise<LiveGearState> {
+  const items = await listGearItemsByIds(
+    organisationId,
+    sealed.schedule.map((s) => s.itemId),
+    options.transaction,
+  );
+  const now = new Map(items.map((i) => [i.id, gearNow(i)]));
+  return judgeLiveState(sealed.schedule, now, options.liftDate ?? liftDateOf(sealed), new Date().toISOString());
+}
+
+type Watched = { revision: PlanRevision; sealed: SealedPlan; problems: LiveProblem[] };
+
+/** The approved revisions of the organisation whose sealed record allocates the item, with that item's problems now. */
+async function watchedRevisions(organisationId: number, itemId: number): Promise<Watched[]> {
+  const revisions = await listApprovedRevisions(await listRevisionIdsUsingItem(itemId));
+  const watched: Watched[] = [];
+  for (const revision of revisions) {
+    const sealed = readSealed(revision.sealed);
+    if (!sealed) continue;
+    const state = await liveStateOf(organisationId, sealed);
+    // Only the organisation's own items are ever found, so a foreign plan simply sees none.
+    watched.push({ revision, sealed, problems: state.problems.filter((p) => p.itemId === itemId) });
+  }
+  return watched;
+}
+
+// A new kind of trouble with the item is news; a further edit of an item already changed is not.
+const key = (p: LiveProblem) => p.kind;
+
+/**
+ * Runs a change to a gear item (status, defect, examination, edit, import) and then mails the
+ * planner, the appointed person and the assigned rigger of every approved plan that allocates the
+ * item and has become unfit by the change. The change's own result is returned as it came.
+ */
+export async function watchAllocatedGear<T>(
+  organisationId: number,
+  itemIds: number | readonly number[],
+  change: () => Promise<T>,
+  request?: Request,
+): Promise<T> {
+  const ids = typeof itemIds === "number" ? [itemIds] : [...new Set(itemIds)];
+  const before = new Map<string, Set<string>>();
+  for (const id of ids)
+    for (const w of await watchedRevisions(organisationId, id))
+      before.set(`${id}/${w.revision.id}`, new Set(w.problems.map(key)));
+  const result = await change();
+  for (const id of ids) {
+    for (const w of await watchedRevisions(organisationId, id)) {
+      const had = before.get(`${id}/${w.revision.id}`) ?? new Set<string>();
+      const fresh = w.problems.filter((p) => !had.has(key(p)));
+      if (fresh.length === 0) continue;
+      const to = await listActiveUsersByIds(organisationId, [
+        w.sealed.planner.id,
+        w.sealed.approval.userId,
+        ...(w.revision.assignedRiggerId ? [w.revision.assignedRiggerId] : []),
+      ]);
+      await mailNotFitToLift(
+        organisationId,
+        to,
+        { id: w.sealed.planId, title: w.sealed.title, revision: w.sealed.revision },
+        w.problems,
+        request,
+      );
+    }
+  }
+  return result;
+}
