@@ -1,6 +1,7 @@
 import {
   DataTypes,
   Model,
+  QueryTypes,
   type CreationOptional,
   type InferAttributes,
   type InferCreationAttributes,
@@ -40,4 +41,16 @@ export async function addRevisionItems(revisionId: number, gearItemIds: readonly
 export async function listRevisionIdsUsingItem(gearItemId: number) {
   const rows = await PlanRevisionItem.findAll({ where: { gearItemId }, attributes: ["revisionId"], raw: true });
   return rows.map((r) => r.revisionId);
+}
+
+/** The ids of the organisation's items that its approved revisions allocate. */
+export async function listItemIdsInApprovedRevisions(organisationId: number) {
+  const rows = await sequelize.query<{ gearItemId: number }>(
+    `SELECT DISTINCT i.gear_item_id AS gearItemId
+     FROM plan_revision_items i
+     JOIN plan_revisions r ON r.id = i.revision_id AND r.status = 'approved'
+     JOIN plans p ON p.id = r.plan_id AND p.organisation_id = :organisationId`,
+    { replacements: { organisationId }, type: QueryTypes.SELECT },
+  );
+  return rows.map((r) => r.gearItemId);
 }

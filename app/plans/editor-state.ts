@@ -36,6 +36,8 @@ export type EditorAction =
       itemId: number | null;
     }
   | { type: "set-hitch"; label: string; hitch: "straight" | "choke" | "basket" }
+  /** No master link: the crane hook takes the legs (or the beam's top rigging) directly. */
+  | { type: "set-hook-takes-legs"; value: boolean }
   | { type: "undo" }
   | { type: "redo" };
 
@@ -118,6 +120,12 @@ function apply(edit: PlanEdit, action: EditorAction): PlanEdit {
       if (action.itemId === null) delete leg[action.slot];
       else leg[action.slot] = action.itemId;
       return { ...edit, rigging: { ...edit.rigging, legs: { ...edit.rigging.legs, [action.label]: leg } } };
+    }
+    case "set-hook-takes-legs": {
+      const rigging = { ...edit.rigging };
+      if (action.value) rigging.hookTakesLegs = true;
+      else delete rigging.hookTakesLegs;
+      return { ...edit, rigging };
     }
     case "set-hitch": {
       const leg = { ...edit.rigging.legs[action.label], hitch: action.hitch };

@@ -3,7 +3,7 @@
 import type { Transaction } from "sequelize";
 import { listGearItemsByIds, type GearItem } from "~/models/gear-item.server";
 import { listApprovedRevisions, todayIso, type PlanRevision } from "~/models/plan.server";
-import { listRevisionIdsUsingItem } from "~/models/plan-revision-item.server";
+import { listItemIdsInApprovedRevisions, listRevisionIdsUsingItem } from "~/models/plan-revision-item.server";
 import { listActiveUsersByIds } from "~/models/user.server";
 import { judgeLiveState, type GearNow, type LiveGearState, type LiveProblem } from "~/plans/live-state";
 import { mailNotFitToLift } from "~/plans/notifications.server";
@@ -73,11 +73,11 @@ const key = (p: LiveProblem) => p.kind;
  */
 export async function watchAllocatedGear<T>(
   organisationId: number,
-  itemIds: number | readonly number[],
+  itemIds: number | "every allocated item",
   change: () => Promise<T>,
   request?: Request,
 ): Promise<T> {
-  const ids = typeof itemIds === "number" ? [itemIds] : [...new Set(itemIds)];
+  const ids = typeof itemIds === "number" ? [itemIds] : await listItemIdsInApprovedRevisions(organisationId);
   const before = new Map<string, Set<string>>();
   for (const id of ids)
     for (const w of await watchedRevisions(organisationId, id))

@@ -20,13 +20,15 @@ import { userNames, type SessionUser } from "~/models/user.server";
 import type { PlanStatus } from "~/plans/document";
 import { notFitSentence, type LiveGearState } from "~/plans/live-state";
 import { liveStateOf } from "~/plans/live-state.server";
-import { readSealed } from "~/plans/sealed";
+import { readSealed, type SealedPlan } from "~/plans/sealed";
 import { permission, type WorkflowAction } from "~/plans/workflow";
 import { ENTITY, workflowContext } from "~/plans/workflow-context.server";
 
 export type WorkflowView = {
   working: RevisionView;
   approved: (RevisionView & { verifyToken: string | null }) | null;
+  /** The sealed record of the current approved revision, else of the completed one; null when there is none. */
+  sealed: SealedPlan | null;
   /** The gear of the current approved revision judged now; null when there is none (or it was never sealed). */
   live: LiveGearState | null;
   acknowledgements: Array<{ checkItem: string; checkMessage: string; reason: string; by: string; at: string }>;
@@ -77,8 +79,8 @@ export async function getWorkflowView(
         verifyToken: approvedRow.verifyToken ?? null,
       }
     : null;
-  const sealed = loaded.approved ? readSealed(loaded.approved.sealed) : null;
-  const live = sealed ? await liveStateOf(organisationId, sealed) : null;
+  const sealed = approvedRow ? readSealed(approvedRow.sealed) : null;
+  const live = sealed && loaded.approved ? await liveStateOf(organisationId, sealed) : null;
   const revisionsById = new Map(revisions.map((r) => [r.id, r.revision]));
   const acknowledgementRows = await listAcknowledgements(loaded.current.id);
   const commentRows = await listPlanComments([...revisionsById.keys()]);
@@ -113,6 +115,7 @@ export async function getWorkflowView(
   return {
     working,
     approved,
+    sealed,
     live,
     acknowledgements: acknowledgementRows.map((a) => ({
       checkItem: a.checkItem,
@@ -158,4 +161,50 @@ export async function listPlanHistory(organisationId: number, planId: number) {
     action: e.action,
     details: e.details ? (JSON.parse(e.details) as Record<string, unknown>) : {},
   }));
+}
+
+/**
+ * What the plan page shows of its working revision: once that revision is approved (or completed),
+ * the sealed record and nothing read again from the plan, job or site rows.
+ */
+export function shownRevision(
+  found: { plan: Plan; revision: RevisionView },
+  workflow: Pick<WorkflowView, "sealed"> | null,
+) {
+  const { plan, revision } = found;
+  const sealed = workflow?.sealed?.revision === revision.revision ? workflow.sealed : null;
+  const site = plan.job?.site;
+  if (!sealed)
+    return {
+      title: plan.title,
+      job: {
+        id: plan.jobId,
+        workOrder: plan.job?.workOrder ?? "",
+        title: plan.job?.title ?? "",
+        site: site ? `${site.name} · ${site.customer}` : "",
+      },
+      revision,
+    };
+  return {
+    title: sealed.title,
+    job: {
+      id: plan.jobId,
+      workOrder: sealed.job.workOrder,
+      title: sealed.job.title,
+      site: `${sealed.site.name} · ${sealed.site.customer}`,
+    },
+    revision: {
+      ...revision,
+      snapshot: sealed.snapshot,
+      arrangement: sealed.arrangement,
+      rigging: sealed.rigging,
+      details: sealed.details,
+      results: {
+        status: 200 as const,
+        kind: sealed.arrangement.kind,
+        computedOn: sealed.resultsComputedOn,
+        body: sealed.results,
+      },
+    },
+  };
 }

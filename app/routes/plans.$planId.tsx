@@ -8,7 +8,7 @@ import { parseForm, requireFormData } from "~/utils/forms";
 import { EDITABLE_STATUSES, getPlan } from "~/models/plan.server";
 import { compareWithComponent, pullComponentVersion } from "~/plans/revisions.server";
 import { assignRigger, cancelPlan, startNewRevision } from "~/plans/workflow.server";
-import { getWorkflowView } from "~/plans/workflow-view.server";
+import { getWorkflowView, shownRevision } from "~/plans/workflow-view.server";
 import { listUsersWithRole } from "~/models/user.server";
 import { WorkflowPanel } from "~/components/plan-workflow-panel";
 import { HITCH_LABELS, PERSON_ROLE_LABELS, PLAN_CAUTION, PLAN_STATUS_LABELS, type PlanResults } from "~/plans/document";
@@ -41,16 +41,12 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const { plan, revision } = await requirePlan(user.organisationId, params.planId);
   const comparison = await compareWithComponent(user.organisationId, revision);
   const workflow = await getWorkflowView(user.organisationId, plan.id, user, { plan, revision });
-  const site = plan.job?.site;
+  // An approved or completed revision shows its sealed record.
+  const shown = shownRevision({ plan, revision }, workflow);
   return {
-    plan: { id: plan.id, title: plan.title },
-    job: {
-      id: plan.jobId,
-      workOrder: plan.job?.workOrder ?? "",
-      title: plan.job?.title ?? "",
-      site: site ? `${site.name} · ${site.customer}` : "",
-    },
-    revision,
+    plan: { id: plan.id, title: shown.title },
+    job: shown.job,
+    revision: shown.revision,
     comparison,
     units: user.units,
     canEdit: hasAnyRole(user, "planner", "admin") && EDITABLE_STATUSES.includes(revision.status),

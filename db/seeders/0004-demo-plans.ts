@@ -177,6 +177,9 @@ export async function up() {
     if (demo.masterLink) {
       const link = take(await findItems(organisationId, ["master_link"]));
       if (link) rigging.masterLinkItemId = link.id;
+    } else {
+      // The load path still needs its top: here the crane hook takes the beam's top rigging directly.
+      rigging.hookTakesLegs = true;
     }
     const cranes = await findItems(organisationId, ["crane"]);
     const crane = cranes.find((c) => c.homeSiteId === job.siteId) ?? cranes[0];

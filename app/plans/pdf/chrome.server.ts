@@ -23,6 +23,7 @@ import {
   type Tone,
   type Typesetter,
 } from "~/plans/pdf/layout.server";
+import { drawLiveBand, LIVE_BAND_H, liveBand, type LiveBand } from "~/plans/pdf/live-band.server";
 import type { PrintablePlan } from "~/plans/printable";
 
 export function headerAndFooter(
@@ -67,6 +68,7 @@ export function headerAndFooter(
     draw(chrome.metaLine, LEFT, y + 1, { font: regular, size: 8, color: INK });
     y -= 5;
     page.drawLine({ start: { x: LEFT, y }, end: { x: RIGHT, y }, thickness: 1.2, color: BRASS });
+    if (chrome.band) drawLiveBand(page, chrome.band, y - 4, fonts);
 
     // Footer: the caution, then print details, fingerprint and page number.
     let fy = MARGIN_BOTTOM;
@@ -117,6 +119,8 @@ export type Chrome = {
   statusTag: string;
   statusTone: Tone;
   cautionLines: string[];
+  /** What the gear was like when printed (or when the lift was made), on every page under the header. */
+  band: LiveBand | null;
   headerH: number;
   footerH: number;
 };
@@ -136,7 +140,8 @@ export function chromeFor(plan: PrintablePlan, fonts: Fonts, ts: Typesetter): Ch
   );
   const cautionLines = ts.wrap(PLAN_CAUTION, fonts.regular, CAUTION_SIZE, CONTENT_W);
   const statusTone: Tone = plan.status === "approved" ? "pass" : plan.status === "completed" ? "neutral" : "fail";
-  const headerH = 12 + titleLines.length * 14 + 11 + 5;
+  const band = liveBand(plan, fonts, ts);
+  const headerH = 12 + titleLines.length * 14 + 11 + 5 + (band ? LIVE_BAND_H + 6 : 0);
   const footerH = 11 + cautionLines.length * CAUTION_SIZE * 1.25 + 2;
-  return { titleLines, metaLine, statusTag, statusTone, cautionLines, headerH, footerH };
+  return { titleLines, metaLine, statusTag, statusTone, cautionLines, band, headerH, footerH };
 }

@@ -74,6 +74,7 @@ export function scheduleSection(flow: Flow, plan: PrintablePlan) {
   heading(flow, 4, "Rigging schedule", 50);
   const units = plan.units;
   const body = { font: flow.fonts.regular, size: 8, color: INK };
+  const small = { font: flow.fonts.regular, size: 6.5, color: INK_SOFT };
   const strong = { font: flow.fonts.semibold, size: 8, color: INK };
   const cols: Column[] = [
     { title: "Position", width: 78 },
@@ -92,7 +93,11 @@ export function scheduleSection(flow: Flow, plan: PrintablePlan) {
     cells: [
       cell(flow, cols[0]!.width, [{ text: r.position, style: body }]),
       cell(flow, cols[1]!.width, [{ text: r.itemCode, style: strong }]),
-      cell(flow, cols[2]!.width, [{ text: r.description, style: body }]),
+      cell(flow, cols[2]!.width, [
+        { text: r.description, style: body },
+        { text: r.serial ? `Serial ${r.serial}` : "", style: small },
+        { text: r.certificate ?? "", style: small },
+      ]),
       cell(flow, cols[3]!.width, [{ text: formatMass(r.wllKg, units), style: body }]),
       cell(flow, cols[4]!.width, [{ text: r.loadKg === null ? "–" : loadText(r.loadKg, units), style: body }]),
       cell(flow, cols[5]!.width, [
