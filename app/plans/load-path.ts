@@ -7,7 +7,7 @@ import type { Arrangement, RiggingAllocation } from "~/plans/document";
 
 /** Each gap in the load path as a sentence naming the position; empty when the path is complete. */
 export function loadPathGaps(
-  snapshot: Pick<ComponentDefinition, "liftPoints">,
+  snapshot: { liftPoints: ReadonlyArray<Pick<ComponentDefinition["liftPoints"][number], "label" | "thread">> },
   arrangement: Pick<Arrangement, "kind" | "liftPointLabels">,
   rigging: RiggingAllocation,
 ): string[] {

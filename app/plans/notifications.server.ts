@@ -116,18 +116,20 @@ export async function mailNotFitToLift(
   problems: readonly LiveProblem[],
   request?: Request,
 ) {
-  await notify(
-    organisationId,
-    to,
-    `NOT FIT TO LIFT: ${plan.title} (revision ${plan.revision})`,
-    [
-      `The approved lift plan "${plan.title}", revision ${plan.revision}, is not fit to lift:`,
-      "",
-      ...problems.map((p) => `- ${p.message}${p.detail ? ` ${p.detail}` : ""}`),
-      "",
-      "Do not lift to this plan. Start a new revision with other gear, or put the item right, and have it approved again.",
-    ],
-    plan.id,
-    request,
-  );
+  // One message each: every one of them must act on it, whoever else was told.
+  for (const person of to)
+    await notify(
+      organisationId,
+      [person],
+      `NOT FIT TO LIFT: ${plan.title} (revision ${plan.revision})`,
+      [
+        `The approved lift plan "${plan.title}", revision ${plan.revision}, is not fit to lift:`,
+        "",
+        ...problems.map((p) => `- ${p.message}${p.detail ? ` ${p.detail}` : ""}`),
+        "",
+        "Do not lift to this plan. Start a new revision with other gear, or put the item right, and have it approved again.",
+      ],
+      plan.id,
+      request,
+    );
 }

@@ -8,6 +8,8 @@ import * as printPage from "~/routes/plans.$planId.print";
 import * as verify from "~/routes/verify.$token";
 import { AuditEvent } from "~/models/audit-event.server";
 import { PlanRevision } from "~/models/plan.server";
+import { recordLift, type LiftRecordInput } from "~/plans/lift.server";
+import { PRE_LIFT_CHECKLIST } from "~/plans/workflow";
 import { approveRevision, startNewRevision, submitRevision } from "~/plans/workflow.server";
 import { callRoute, getRequest, makeUser, TEST_PASSWORD } from "../support/factories";
 import { readyPlan } from "../support/workflow";
@@ -89,6 +91,30 @@ describe("printing", () => {
       { token: "not-a-real-token-at-all" },
     );
     expect(unknown.data).toEqual({ found: null, canOpen: false });
+  });
+
+  it("a completed plan prints its sealed plan, marked as the record of the lift it was made to", async () => {
+    const { planner, approver, rigger, plan } = await readyPlan();
+    const org = planner.organisationId;
+    await submitRevision(org, plan.id, planner, {});
+    await approveRevision(org, plan.id, approver, { password: TEST_PASSWORD, typedName: approver.name, comment: "" });
+    const checklist = Object.fromEntries(PRE_LIFT_CHECKLIST.map((c) => [c.id, true])) as LiftRecordInput["checklist"];
+    const lifted = await recordLift(org, plan.id, rigger, {
+      checklist,
+      liftedAt: new Date("2025-06-02T09:15:00Z"),
+      notes: "",
+      nearMiss: false,
+      nearMissDetails: "",
+    });
+    expect(lifted.ok).toBe(true);
+    const request = await getRequest(`/plans/${plan.id}/print.pdf`, planner);
+    const res = await print.loader({ request, params: { planId: String(plan.id) }, context: {} } as never);
+    expect(res.status).toBe(200);
+    const text = pdfText(new Uint8Array(await res.arrayBuffer())).replace(/\s+/g, " ");
+    expect(text).toContain("COMPLETED");
+    expect(text).toContain("LIFT COMPLETED 2025-06-02 09:15 UTC, recorded by Robin Rigger");
+    expect(text).toContain(plan.title);
+    expect(text).not.toContain("no approved revision");
   });
 
   it("another organisation cannot print the plan", async () => {
