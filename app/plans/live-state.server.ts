@@ -26,10 +26,13 @@ function gearNow(item: GearItem): GearNow {
   };
 }
 
-/** The day a lift to the plan is judged for: the job's start day when that is still ahead, else today. */
-export function liftDateOf(sealed: Pick<SealedPlan, "job">, today = todayIso()): string {
-  const starts = sealed.job.startsOn;
-  return starts && starts > today ? starts : today;
+/**
+ * The day a lift to the plan is judged for when it is looked at: today, since nobody lifts earlier. A
+ * plan holds no lift day of its own (a job's start is only when its lifts may begin); recording the
+ * lift judges the day it was made.
+ */
+export function liftDateOf(): string {
+  return todayIso();
 }
 
 /** Every allocated item of the sealed record judged against the register now. */
@@ -44,7 +47,7 @@ export async function liveStateOf(
     options.transaction,
   );
   const now = new Map(items.map((i) => [i.id, gearNow(i)]));
-  return judgeLiveState(sealed.schedule, now, options.liftDate ?? liftDateOf(sealed), new Date().toISOString());
+  return judgeLiveState(sealed.schedule, now, options.liftDate ?? liftDateOf(), new Date().toISOString());
 }
 
 type Watched = { revision: PlanRevision; sealed: SealedPlan; problems: LiveProblem[] };
