@@ -72,7 +72,10 @@ describe("an allocated item of an approved plan is quarantined", () => {
     const mails = await notFitMail(org);
     expect(mails).toHaveLength(3);
     for (const person of [planner, approver, rigger])
-      expect(mails.filter((m) => m.toAddress.includes(person.email)), person.name).toHaveLength(1);
+      expect(
+        mails.filter((m) => m.toAddress.includes(person.email)),
+        person.name,
+      ).toHaveLength(1);
     for (const m of mails) {
       expect(m.subject).toBe(`NOT FIT TO LIFT: ${plan.title} (revision 1)`);
       expect(m.textBody).toContain(`${gear.eyeboltA.itemCode} (Leg A eyebolt) has been quarantined since`);
