@@ -1,6 +1,7 @@
 import {
   DataTypes,
   Model,
+  Op,
   QueryTypes,
   type CreationOptional,
   type InferAttributes,
@@ -37,10 +38,15 @@ export async function addRevisionItems(revisionId: number, gearItemIds: readonly
     );
 }
 
-/** The ids of the revisions whose sealed record allocates the item. */
-export async function listRevisionIdsUsingItem(gearItemId: number) {
-  const rows = await PlanRevisionItem.findAll({ where: { gearItemId }, attributes: ["revisionId"], raw: true });
-  return rows.map((r) => r.revisionId);
+/** The ids of the revisions whose sealed record allocates any of the items. */
+export async function listRevisionIdsUsingItems(gearItemIds: readonly number[]) {
+  if (gearItemIds.length === 0) return [];
+  const rows = await PlanRevisionItem.findAll({
+    where: { gearItemId: { [Op.in]: [...new Set(gearItemIds)] } },
+    attributes: ["revisionId"],
+    raw: true,
+  });
+  return [...new Set(rows.map((r) => r.revisionId))];
 }
 
 /** The ids of the organisation's items that its approved revisions allocate. */

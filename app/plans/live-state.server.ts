@@ -2,8 +2,8 @@
 // mail to the people of an approved plan when a change to an item it allocates makes it unfit.
 import type { Transaction } from "sequelize";
 import { listGearItemsByIds, type GearItem } from "~/models/gear-item.server";
-import { listApprovedRevisions, todayIso, type PlanRevision } from "~/models/plan.server";
-import { listItemIdsInApprovedRevisions, listRevisionIdsUsingItem } from "~/models/plan-revision-item.server";
+import { listApprovedRevisions, planExists, todayIso, type PlanRevision } from "~/models/plan.server";
+import { listItemIdsInApprovedRevisions, listRevisionIdsUsingItems } from "~/models/plan-revision-item.server";
 import { listActiveUsersByIds } from "~/models/user.server";
 import { judgeLiveState, type GearNow, type LiveGearState, type LiveProblem } from "~/plans/live-state";
 import { mailNotFitToLift } from "~/plans/notifications.server";
@@ -52,27 +52,26 @@ export async function liveStateOf(
 
 type Watched = { revision: PlanRevision; sealed: SealedPlan; problems: LiveProblem[] };
 
-/** The approved revisions of the organisation whose sealed record allocates the item, with that item's problems now. */
-async function watchedRevisions(organisationId: number, itemId: number): Promise<Watched[]> {
-  const revisions = await listApprovedRevisions(await listRevisionIdsUsingItem(itemId));
+/** The organisation's approved revisions whose sealed record allocates any of the items, each judged now. */
+async function watchedRevisions(organisationId: number, itemIds: readonly number[]): Promise<Watched[]> {
+  const revisions = await listApprovedRevisions(await listRevisionIdsUsingItems(itemIds));
   const watched: Watched[] = [];
   for (const revision of revisions) {
     const sealed = readSealed(revision.sealed);
-    if (!sealed) continue;
-    const state = await liveStateOf(organisationId, sealed);
-    // Only the organisation's own items are ever found, so a foreign plan simply sees none.
-    watched.push({ revision, sealed, problems: state.problems.filter((p) => p.itemId === itemId) });
+    // Only the organisation's own items are ever read, so another organisation's plan is left alone.
+    if (!sealed || !(await planExists(organisationId, revision.planId))) continue;
+    watched.push({ revision, sealed, problems: (await liveStateOf(organisationId, sealed)).problems });
   }
   return watched;
 }
 
-// A new kind of trouble with the item is news; a further edit of an item already changed is not.
-const key = (p: LiveProblem) => p.kind;
+// A new kind of trouble with an item is news; a further edit of an item already changed is not.
+const key = (p: LiveProblem) => `${p.itemId}:${p.kind}`;
 
 /**
- * Runs a change to a gear item (status, defect, examination, edit, import) and then mails the
- * planner, the appointed person and the assigned rigger of every approved plan that allocates the
- * item and has become unfit by the change. The change's own result is returned as it came.
+ * Runs a change to gear items (status, defect, examination, edit, import) and then mails the planner,
+ * the appointed person and the assigned rigger of every approved plan that allocates one of them and
+ * has a new kind of problem with it after the change. The change's own result is returned as it came.
  */
 export async function watchAllocatedGear<T>(
   organisationId: number,
@@ -81,29 +80,27 @@ export async function watchAllocatedGear<T>(
   request?: Request,
 ): Promise<T> {
   const ids = typeof itemIds === "number" ? [itemIds] : await listItemIdsInApprovedRevisions(organisationId);
-  const before = new Map<string, Set<string>>();
-  for (const id of ids)
-    for (const w of await watchedRevisions(organisationId, id))
-      before.set(`${id}/${w.revision.id}`, new Set(w.problems.map(key)));
+  const watchedIds = new Set(ids);
+  const before = new Map(
+    (await watchedRevisions(organisationId, ids)).map((w) => [w.revision.id, new Set(w.problems.map(key))]),
+  );
   const result = await change();
-  for (const id of ids) {
-    for (const w of await watchedRevisions(organisationId, id)) {
-      const had = before.get(`${id}/${w.revision.id}`) ?? new Set<string>();
-      const fresh = w.problems.filter((p) => !had.has(key(p)));
-      if (fresh.length === 0) continue;
-      const to = await listActiveUsersByIds(organisationId, [
-        w.sealed.planner.id,
-        w.sealed.approval.userId,
-        ...(w.revision.assignedRiggerId ? [w.revision.assignedRiggerId] : []),
-      ]);
-      await mailNotFitToLift(
-        organisationId,
-        to,
-        { id: w.sealed.planId, title: w.sealed.title, revision: w.sealed.revision },
-        w.problems,
-        request,
-      );
-    }
+  for (const w of await watchedRevisions(organisationId, ids)) {
+    const had = before.get(w.revision.id) ?? new Set<string>();
+    const fresh = w.problems.filter((p) => watchedIds.has(p.itemId) && !had.has(key(p)));
+    if (fresh.length === 0) continue;
+    const to = await listActiveUsersByIds(organisationId, [
+      w.sealed.planner.id,
+      w.sealed.approval.userId,
+      ...(w.revision.assignedRiggerId ? [w.revision.assignedRiggerId] : []),
+    ]);
+    await mailNotFitToLift(
+      organisationId,
+      to,
+      { id: w.sealed.planId, title: w.sealed.title, revision: w.sealed.revision },
+      w.problems,
+      request,
+    );
   }
   return result;
 }

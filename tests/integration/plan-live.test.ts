@@ -7,16 +7,18 @@ import os from "node:os";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
 import * as itemPage from "~/routes/gear.$itemId";
+import * as gearEdit from "~/routes/gear.$itemId.edit";
 import * as liftPage from "~/routes/plans.$planId.lift";
 import * as planPage from "~/routes/plans.$planId";
 import * as print from "~/routes/plans.$planId.print.pdf";
 import * as verify from "~/routes/verify.$token";
 import { CaughtMail } from "~/models/caught-mail.server";
+import { GearItem, toFormValues } from "~/models/gear-item.server";
 import { LiftRecord } from "~/models/lift-record.server";
 import { PlanRevision } from "~/models/plan.server";
 import { PRE_LIFT_CHECKLIST } from "~/plans/workflow";
 import { approveRevision, assignRigger, submitRevision } from "~/plans/workflow.server";
-import { callRoute, getRequest, postForm, TEST_PASSWORD } from "../support/factories";
+import { callRoute, getRequest, makeUser, postForm, TEST_PASSWORD } from "../support/factories";
 import { makeGear } from "../support/plans";
 import { readyPlan } from "../support/workflow";
 
@@ -162,5 +164,29 @@ describe("an allocated item of an approved plan is quarantined", () => {
     ]);
     expect(problems[0]!.message).toContain("was due 2001-01-01");
     expect(problems[1]!.message).toContain("its WLL is now 8,000 kg (was 10,000 kg)");
+  });
+
+  it("an edit of an allocated item's WLL through the gear form mails the three people; a later description edit does not", async () => {
+    const { plan, gear, org } = await approvedAndAssigned();
+    const admin = await makeUser(["admin"], { organisationId: org, name: "Ada Admin" });
+    const link = (await GearItem.findByPk(gear.masterLink.id))!;
+    const { id: _id, ...values } = toFormValues(link);
+    const fields = (changes: Record<string, string>) => ({
+      ...Object.fromEntries(Object.entries(values).map(([k, v]) => [k, v === null ? "" : String(v)])),
+      ...changes,
+    });
+    const edit = async (changes: Record<string, string>) =>
+      callRoute(gearEdit.action, await postForm(`/gear/${link.id}/edit`, fields(changes), admin), {
+        itemId: String(link.id),
+      });
+    expect((await edit({ wllValue: "5000" })).status).toBe(302);
+    const mails = await notFitMail(org);
+    expect(mails).toHaveLength(3);
+    expect(mails[0]!.textBody).toContain(
+      `${link.itemCode} (Master link) has changed since approval: its WLL is now 5,000 kg (was 6,700 kg)`,
+    );
+    expect((await edit({ wllValue: "5000", description: "Repainted" })).status).toBe(302);
+    expect(await notFitMail(org)).toHaveLength(3);
+    expect(mails[0]!.subject).toBe(`NOT FIT TO LIFT: ${plan.title} (revision 1)`);
   });
 });
