@@ -57,6 +57,7 @@ export default [
     route(":planId/review", "routes/plans.$planId.review.tsx"),
     route(":planId/history", "routes/plans.$planId.history.tsx"),
     route(":planId/lift", "routes/plans.$planId.lift.tsx"),
+    route(":planId/print", "routes/plans.$planId.print.tsx"),
     route(":planId/print.pdf", "routes/plans.$planId.print.pdf.ts"),
   ]),
 

@@ -14,6 +14,8 @@ import * as ruleSets from "./migrations/0011-rule-sets";
 import * as gearMass from "./migrations/0012-gear-mass";
 import * as sessions from "./migrations/0015-sessions";
 import * as signInAttemptsBySource from "./migrations/0016-sign-in-attempts-by-source";
+import * as sealedRevisions from "./migrations/0018-sealed-revisions";
+import * as revisionAuthors from "./migrations/0019-revision-authors";
 import * as organisationTimeZone from "./migrations/0021-organisation-time-zone";
 import * as examinationRecords from "./migrations/0022-examination-records";
 
@@ -39,6 +41,8 @@ export const migrations: Array<[name: string, module: MigrationModule]> = [
   ["0012-gear-mass", gearMass],
   ["0015-sessions", sessions],
   ["0016-sign-in-attempts-by-source", signInAttemptsBySource],
+  ["0018-sealed-revisions", sealedRevisions],
+  ["0019-revision-authors", revisionAuthors],
   ["0021-organisation-time-zone", organisationTimeZone],
   ["0022-examination-records", examinationRecords],
 ];

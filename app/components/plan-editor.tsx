@@ -953,6 +953,15 @@ export function PlanEditor({
                       dispatch({ type: "allocate", label: null, slot: "masterLinkItemId", itemId: pick?.id ?? null });
                     }}
                   />
+                  <label className="mt-1 flex items-center gap-2 text-xs">
+                    <input
+                      type="checkbox"
+                      checked={edit.rigging.hookTakesLegs === true}
+                      disabled={!canEdit}
+                      onChange={(e) => dispatch({ type: "set-hook-takes-legs", value: e.target.checked })}
+                    />
+                    No master link: the crane hook takes the legs directly
+                  </label>
                 </td>
                 <td colSpan={3}>
                   <span className="block text-xs text-ink-soft">Crane or hoist</span>

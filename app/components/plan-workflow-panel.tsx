@@ -1,6 +1,8 @@
 import { Form } from "react-router";
+import { LiftFitness } from "~/components/lift-fitness";
 import { Button } from "~/components/ui/form";
 import { PLAN_STATUS_LABELS, type PlanStatus } from "~/plans/document";
+import type { LiveGearState } from "~/plans/live-state";
 import type { WorkflowAction } from "~/plans/workflow";
 
 type Permission = { allowed: boolean; reason?: string };
@@ -20,6 +22,8 @@ export type WorkflowPanelData = {
   comments: Array<{ kind: string; body: string; by: string; at: string; revision: number }>;
   liftRecord: { liftedAt: string; notes: string; nearMiss: boolean; nearMissDetails: string; by: string } | null;
   assignedRigger: { id: number; name: string } | null;
+  /** The approved revision's gear judged now (absent for a plan with no approved revision). */
+  live?: LiveGearState | null;
   permissions: Record<WorkflowAction, Permission>;
 };
 
@@ -60,6 +64,7 @@ export function WorkflowPanel({
           </>
         )}
       </p>
+      {approved?.status === "approved" && <LiftFitness live={workflow.live ?? null} />}
       {lastReturn && working.status === "returned" && (
         <div className="rounded border border-warn/40 bg-warn-soft p-3 text-sm">
           <p className="font-semibold">

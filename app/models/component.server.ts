@@ -6,6 +6,7 @@ import {
   type InferAttributes,
   type InferCreationAttributes,
   type NonAttribute,
+  type Transaction,
 } from "sequelize";
 import type { ComponentDefinition, CogSource, MassSource } from "~/loads/component-definition";
 import { sequelize } from "~/utils/db.server";
@@ -204,8 +205,13 @@ export async function listComponents(organisationId: number, options: { archived
   });
 }
 
-export async function getComponent(organisationId: number, componentId: number) {
-  return Component.findOne({ where: { organisationId, id: componentId }, include: withChildren });
+export async function getComponent(organisationId: number, componentId: number, transaction?: Transaction) {
+  return Component.findOne({ where: { organisationId, id: componentId }, include: withChildren, transaction });
+}
+
+/** The component's id and current version only (a plain row), or null. */
+export async function getComponentVersion(organisationId: number, componentId: number) {
+  return Component.findOne({ where: { organisationId, id: componentId }, attributes: ["id", "version"], raw: true });
 }
 
 async function writeChildren(

@@ -98,6 +98,27 @@ export async function getLatestExamination(organisationId: number, gearItemId: n
   });
 }
 
+/** The latest examination of each of the items, with its certificate's name, by item id. */
+export async function latestExaminationsOf(
+  organisationId: number,
+  gearItemIds: readonly number[],
+  transaction?: Transaction,
+) {
+  const latest = new Map<number, Examination>();
+  if (gearItemIds.length === 0) return latest;
+  const rows = await Examination.findAll({
+    where: { organisationId, gearItemId: [...new Set(gearItemIds)] },
+    include: [{ model: StoredFile, as: "certificate", attributes: ["id", "originalName"] }],
+    order: [
+      ["examinedOn", "DESC"],
+      ["id", "DESC"],
+    ],
+    transaction,
+  });
+  for (const row of rows) if (!latest.has(row.gearItemId)) latest.set(row.gearItemId, row);
+  return latest;
+}
+
 export type RecordedExamination =
   | { ok: true; examination: Examination; nextDueOn: string; quarantined: boolean; released: boolean }
   | { ok: false; field: keyof ExaminationFields; message: string }

@@ -314,6 +314,13 @@ export async function getGearItem(organisationId: number, itemId: number) {
   });
 }
 
+/** The organisation's items with these ids (those a plan allocates). */
+export async function listGearItemsByIds(organisationId: number, ids: readonly number[], transaction?: Transaction) {
+  const unique = [...new Set(ids)];
+  if (unique.length === 0) return [];
+  return GearItem.findAll({ where: { organisationId, id: { [Op.in]: unique } }, transaction });
+}
+
 export async function isItemCodeTaken(organisationId: number, itemCode: string, exceptItemId?: number) {
   const item = await GearItem.findOne({ where: { organisationId, itemCode }, attributes: ["id"] });
   return !!item && item.id !== exceptItemId;

@@ -5,6 +5,7 @@ import {
   type InferAttributes,
   type InferCreationAttributes,
   type NonAttribute,
+  type Transaction,
 } from "sequelize";
 import { sequelize } from "~/utils/db.server";
 import { recordAudit } from "~/models/audit-event.server";
@@ -67,8 +68,8 @@ export async function listJobs(organisationId: number, options: { siteId?: numbe
   });
 }
 
-export async function getJob(organisationId: number, jobId: number) {
-  return Job.findOne({ where: { organisationId, id: jobId }, include: [{ model: Site, as: "site" }] });
+export async function getJob(organisationId: number, jobId: number, transaction?: Transaction) {
+  return Job.findOne({ where: { organisationId, id: jobId }, include: [{ model: Site, as: "site" }], transaction });
 }
 
 export async function isWorkOrderTaken(organisationId: number, workOrder: string, exceptJobId?: number) {

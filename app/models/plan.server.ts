@@ -9,34 +9,19 @@ import {
   type Transaction,
 } from "sequelize";
 import { componentDefinitionSchema, type ComponentDefinition } from "~/loads/component-definition";
-import { getOrganisationToday } from "~/models/organisation.server";
 import { sequelize } from "~/utils/db.server";
-import { recordAudit } from "~/models/audit-event.server";
-import { Component, getComponent, toDefinition } from "~/models/component.server";
 import { Job } from "~/models/job.server";
 import { Site } from "~/models/site.server";
-import { getReferenceTables } from "~/models/reference-row.server";
 import {
   arrangementSchema,
-  defaultArrangement,
-  applyLoadEdit,
-  defaultDetails,
   detailsSchema,
-  diffComponentDefinitions,
-  fitToSnapshot,
   riggingAllocationSchema,
-  snapshotIssues,
   type Arrangement,
-  type ComponentChange,
-  type LoadEdit,
   type PlanDetails,
-  type PlanDocument,
-  type PlanIssue,
   type PlanResults,
   type PlanStatus,
   type RiggingAllocation,
 } from "~/plans/document";
-import { computePlanResults } from "~/plans/results.server";
 
 /** A lift plan: one lift of one job; its content lives in its revisions. */
 export class Plan extends Model<InferAttributes<Plan>, InferCreationAttributes<Plan>> {
@@ -81,6 +66,8 @@ export class PlanRevision extends Model<InferAttributes<PlanRevision>, InferCrea
   declare supersededByRevision: CreationOptional<number | null>;
   declare closedReason: CreationOptional<string | null>;
   declare closedAt: CreationOptional<Date | null>;
+  /** The sealed record of an approved revision (JSON), written once in the approval's transaction. */
+  declare sealed: CreationOptional<string | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -128,6 +115,7 @@ PlanRevision.init(
     supersededByRevision: { type: DataTypes.INTEGER, allowNull: true },
     closedReason: { type: DataTypes.TEXT, allowNull: true },
     closedAt: { type: DataTypes.DATE, allowNull: true },
+    sealed: { type: DataTypes.TEXT, allowNull: true },
     createdAt: DataTypes.DATE,
     updatedAt: DataTypes.DATE,
   },
@@ -137,8 +125,6 @@ PlanRevision.init(
 Plan.belongsTo(Job, { foreignKey: "jobId", as: "job" });
 Plan.belongsTo(PlanRevision, { foreignKey: "currentRevisionId", as: "currentRevision", constraints: false });
 PlanRevision.belongsTo(Plan, { foreignKey: "planId", as: "plan" });
-
-const ENTITY = "plan";
 
 /** A revision's JSON columns, parsed. Stored documents were checked on the way in; the snapshot is re-checked as the one the statics read. */
 export function readRevision(revision: PlanRevision) {
@@ -216,120 +202,23 @@ export async function getPlan(organisationId: number, planId: number, transactio
   return { plan, revision: readRevision(plan.currentRevision) };
 }
 
+/** The plan row alone (no revision), or null when it is not the organisation's. */
+export async function getPlanRow(organisationId: number, planId: number) {
+  if (!Number.isSafeInteger(planId)) return null;
+  return Plan.findOne({ where: { organisationId, id: planId } });
+}
+
 /** Whether the organisation has this plan: a cheap check for actions that answer another organisation's plan with 404 first. */
 export async function planExists(organisationId: number, planId: number): Promise<boolean> {
   if (!Number.isSafeInteger(planId)) return false;
   return (await Plan.count({ where: { organisationId, id: planId } })) > 0;
 }
 
-export type CreatePlanResult =
-  { ok: true; plan: Plan } | { ok: false; field: "jobId" | "componentId"; message: string };
-
-/** A new plan with revision 1 (draft): the component's definition copied in, a default arrangement and sequence, results computed. */
-export async function createPlanFromComponent(
-  organisationId: number,
-  jobId: number,
-  componentId: number,
-  title: string,
-  actorId: number,
-): Promise<CreatePlanResult> {
-  const tables = await getReferenceTables();
-  return sequelize.transaction(async (transaction) => {
-    const job = await Job.findOne({ where: { organisationId, id: jobId }, transaction });
-    if (!job) return { ok: false, field: "jobId", message: "There is no such job in your organisation." };
-    const component = await Component.findOne({
-      where: { organisationId, id: componentId, archivedAt: null },
-      include: [{ association: "liftPoints" }, { association: "parts" }],
-      transaction,
-    });
-    if (!component)
-      return { ok: false, field: "componentId", message: "There is no such component in your organisation." };
-    const snapshot = toDefinition(component);
-    if (snapshot.liftPoints.length === 0) {
-      return {
-        ok: false,
-        field: "componentId",
-        message: `${snapshot.name} has no lift points yet: add them to the component first.`,
-      };
-    }
-    const arrangement = defaultArrangement(snapshot);
-    const rigging: RiggingAllocation = { legs: {} };
-    const details = defaultDetails();
-    const results = await computePlanResults(
-      snapshot,
-      arrangement,
-      rigging,
-      organisationId,
-      await getOrganisationToday(organisationId),
-      {
-        details,
-        tables,
-        transaction,
-      },
-    );
-    const plan = await Plan.create(
-      { organisationId, jobId, title, createdBy: actorId, currentRevisionId: null },
-      { transaction },
-    );
-    const revision = await PlanRevision.create(
-      {
-        planId: plan.id,
-        revision: 1,
-        componentId: component.id,
-        componentVersion: component.version,
-        loadSnapshot: JSON.stringify(snapshot),
-        arrangement: JSON.stringify(arrangement),
-        rigging: JSON.stringify(rigging),
-        craneItemId: null,
-        results: JSON.stringify(results),
-        details: JSON.stringify(details),
-        plannedBy: actorId,
-      },
-      { transaction },
-    );
-    await plan.update({ currentRevisionId: revision.id }, { transaction });
-    await recordAudit(
-      {
-        organisationId,
-        userId: actorId,
-        entity: ENTITY,
-        entityId: plan.id,
-        action: "created",
-        details: { revision: 1, componentId, componentVersion: component.version },
-      },
-      transaction,
-    );
-    return { ok: true, plan };
-  });
-}
-
-export type SaveResult =
-  | { status: "saved"; version: number }
-  | { status: "stale"; version: number }
-  | { status: "frozen"; planStatus: PlanStatus }
-  | { status: "not-found" }
-  | { status: "invalid"; issues: PlanIssue[]; error: string };
-
-async function lockedWrite(
-  organisationId: number,
-  planId: number,
-  expectedVersion: number,
-  transaction: Transaction,
-): Promise<{ ok: true; found: NonNullable<Awaited<ReturnType<typeof getPlan>>> } | { ok: false; result: SaveResult }> {
-  const found = await getPlan(organisationId, planId, transaction);
-  if (!found) return { ok: false, result: { status: "not-found" } };
-  if (!EDITABLE_STATUSES.includes(found.revision.status))
-    return { ok: false, result: { status: "frozen", planStatus: found.revision.status } };
-  if (found.revision.version !== expectedVersion)
-    return { ok: false, result: { status: "stale", version: found.revision.version } };
-  return { ok: true, found };
-}
-
 /** Revisions a planner may still change: drafts, and revisions returned with comments (saving one makes it a draft again). */
 export const EDITABLE_STATUSES: readonly PlanStatus[] = ["draft", "returned"];
 
 /** UPDATE ... WHERE version = expected AND status is editable; false when someone else got there first. */
-async function updateDraft(
+export async function updateDraftRevision(
   revisionId: number,
   expectedVersion: number,
   values: Partial<InferAttributes<PlanRevision>>,
@@ -342,167 +231,108 @@ async function updateDraft(
   return count === 1;
 }
 
-/**
- * Saves the draft revision's document when `expectedVersion` is still current, recomputing the results on
- * the server. Nothing is written unless everything is valid and the version matches.
- */
-export async function savePlanRevision(
-  organisationId: number,
-  planId: number,
-  expectedVersion: number,
-  document: PlanDocument,
-  actorId: number,
-  loadEdit?: LoadEdit,
-): Promise<SaveResult> {
-  const tables = await getReferenceTables();
-  return sequelize.transaction(async (transaction) => {
-    const locked = await lockedWrite(organisationId, planId, expectedVersion, transaction);
-    if (!locked.ok) return locked.result;
-    const { plan, revision } = locked.found;
-    const edited = applyLoadEdit(revision.snapshot, loadEdit);
-    const snapshot = edited.snapshot;
-    const issues = [...edited.issues, ...snapshotIssues(document, snapshot)];
-    if (issues.length > 0)
-      return { status: "invalid", issues, error: `The plan does not fit its load: ${issues[0]!.message}` };
-    const results = await computePlanResults(
-      snapshot,
-      document.arrangement,
-      document.rigging,
-      organisationId,
-      await getOrganisationToday(organisationId),
-      {
-        details: document.details,
-        tables,
-        transaction,
-      },
-    );
-    if (results.status === 400)
-      return { status: "invalid", issues: results.body.issues as PlanIssue[], error: results.body.error };
-    const written = await updateDraft(
-      revision.id,
-      expectedVersion,
-      {
-        ...(loadEdit ? { loadSnapshot: JSON.stringify(snapshot) } : {}),
-        arrangement: JSON.stringify(document.arrangement),
-        rigging: JSON.stringify(document.rigging),
-        details: JSON.stringify(document.details),
-        craneItemId: document.rigging.craneItemId ?? null,
-        results: JSON.stringify(results),
-        plannedBy: actorId,
-      },
-      transaction,
-    );
-    if (!written) return { status: "stale", version: expectedVersion };
-    if (document.title !== plan.title) await plan.update({ title: document.title }, { transaction });
-    await recordAudit(
-      {
-        organisationId,
-        userId: actorId,
-        entity: ENTITY,
-        entityId: plan.id,
-        action: "saved",
-        details: { revision: revision.revision, version: expectedVersion + 1, resultStatus: results.status },
-      },
-      transaction,
-    );
-    return { status: "saved", version: expectedVersion + 1 };
-  });
+/** What a new revision is made of (everything else starts empty). */
+type RevisionValues = Pick<
+  InferCreationAttributes<PlanRevision>,
+  | "componentId"
+  | "componentVersion"
+  | "loadSnapshot"
+  | "arrangement"
+  | "rigging"
+  | "craneItemId"
+  | "results"
+  | "details"
+  | "plannedBy"
+>;
+
+/** A new plan and its first revision (a draft), the plan pointing at it. */
+export async function insertPlanWithRevision(
+  plan: Pick<InferCreationAttributes<Plan>, "organisationId" | "jobId" | "title" | "createdBy">,
+  revision: RevisionValues,
+  transaction: Transaction,
+) {
+  const created = await Plan.create({ ...plan, currentRevisionId: null }, { transaction });
+  const first = await PlanRevision.create({ ...revision, planId: created.id, revision: 1 }, { transaction });
+  await created.update({ currentRevisionId: first.id }, { transaction });
+  return { plan: created, revision: first };
 }
 
-export type PullResult =
-  | { status: "pulled"; version: number; changes: ComponentChange[]; componentVersion: number }
-  | { status: "up-to-date" }
-  | { status: "no-component" }
-  | Extract<SaveResult, { status: "stale" | "frozen" | "not-found" }>;
-
-/**
- * Replaces the draft's load snapshot with the component's current definition, drops lift points the
- * component no longer has from the arrangement and rigging, recomputes, and says what changed.
- */
-export async function pullComponentVersion(
-  organisationId: number,
-  planId: number,
-  expectedVersion: number,
-  actorId: number,
-): Promise<PullResult> {
-  const tables = await getReferenceTables();
-  return sequelize.transaction(async (transaction) => {
-    const locked = await lockedWrite(organisationId, planId, expectedVersion, transaction);
-    if (!locked.ok) return locked.result as PullResult;
-    const { plan, revision } = locked.found;
-    if (revision.componentId === null) return { status: "no-component" };
-    const component = await Component.findOne({
-      where: { organisationId, id: revision.componentId },
-      include: [{ association: "liftPoints" }, { association: "parts" }],
-      transaction,
-    });
-    if (!component) return { status: "no-component" };
-    if (component.version === revision.componentVersion) return { status: "up-to-date" };
-    const snapshot = toDefinition(component);
-    const changes = diffComponentDefinitions(revision.snapshot, snapshot);
-    const fitted = fitToSnapshot(revision, snapshot);
-    const results = await computePlanResults(
-      snapshot,
-      fitted.arrangement,
-      fitted.rigging,
-      organisationId,
-      await getOrganisationToday(organisationId),
-      {
-        details: revision.details,
-        tables,
-        transaction,
-      },
-    );
-    const written = await updateDraft(
-      revision.id,
-      expectedVersion,
-      {
-        loadSnapshot: JSON.stringify(snapshot),
-        componentVersion: component.version,
-        arrangement: JSON.stringify(fitted.arrangement),
-        rigging: JSON.stringify(fitted.rigging),
-        craneItemId: fitted.rigging.craneItemId ?? null,
-        results: JSON.stringify(results),
-      },
-      transaction,
-    );
-    if (!written) return { status: "stale", version: expectedVersion };
-    await recordAudit(
-      {
-        organisationId,
-        userId: actorId,
-        entity: ENTITY,
-        entityId: plan.id,
-        action: "component version pulled",
-        details: {
-          revision: revision.revision,
-          from: revision.componentVersion,
-          to: component.version,
-          changes: changes.map((c) => c.message),
-        },
-      },
-      transaction,
-    );
-    return { status: "pulled", version: expectedVersion + 1, changes, componentVersion: component.version };
-  });
+/** Revision n+1 of the plan, which becomes the plan's working revision. */
+export async function insertNextRevision(plan: Plan, values: RevisionValues, transaction: Transaction) {
+  const latest = (await PlanRevision.max("revision", { where: { planId: plan.id }, transaction })) as number;
+  const revision = await PlanRevision.create({ ...values, planId: plan.id, revision: latest + 1 }, { transaction });
+  await plan.update({ currentRevisionId: revision.id }, { transaction });
+  return revision;
 }
 
-/** The component's current version and what differs from the plan's snapshot; null when the component is gone. */
-export async function compareWithComponent(organisationId: number, revision: RevisionView) {
-  if (revision.componentId === null) return null;
-  // The version alone settles the usual case (nothing newer); the definition is read only to list changes.
-  const latest = await Component.findOne({
-    where: { organisationId, id: revision.componentId },
-    attributes: ["id", "version"],
-    raw: true,
+export async function setPlanTitle(plan: Plan, title: string, transaction: Transaction) {
+  if (title !== plan.title) await plan.update({ title }, { transaction });
+}
+
+export type PlanForWorkflow = { plan: Plan; current: PlanRevision; approved: PlanRevision | null };
+
+/** The plan, its working revision and its current approved revision (if any), read inside `transaction`. */
+export async function getPlanForWorkflow(
+  organisationId: number,
+  planId: number,
+  transaction?: Transaction,
+): Promise<PlanForWorkflow | null> {
+  if (!Number.isSafeInteger(planId)) return null;
+  const plan = await Plan.findOne({ where: { organisationId, id: planId }, transaction });
+  if (!plan?.currentRevisionId) return null;
+  const current = await PlanRevision.findOne({ where: { id: plan.currentRevisionId, planId }, transaction });
+  if (!current) return null;
+  const approved = await PlanRevision.findOne({
+    where: { planId, status: "approved" },
+    order: [["revision", "DESC"]],
+    transaction,
   });
-  if (!latest) return null;
-  const newer = latest.version !== revision.componentVersion;
-  const component = newer ? await getComponent(organisationId, revision.componentId) : null;
-  return {
-    componentId: latest.id,
-    latestVersion: component?.version ?? latest.version,
-    newer,
-    changes: component ? diffComponentDefinitions(revision.snapshot, toDefinition(component)) : [],
-  };
+  return { plan, current, approved };
+}
+
+/** Every revision of the plan, in one read. */
+export async function listPlanRevisions(planId: number) {
+  return PlanRevision.findAll({ where: { planId } });
+}
+
+/** Sets values on the revision only while it still has status `from`; false when someone else moved it first. */
+export async function moveRevision(
+  revisionId: number,
+  from: PlanStatus | readonly PlanStatus[],
+  values: Partial<InferAttributes<PlanRevision>>,
+  transaction: Transaction,
+  extra: { version?: number } = {},
+) {
+  const [count] = await PlanRevision.update(values, {
+    where: {
+      id: revisionId,
+      status: typeof from === "string" ? from : { [Op.in]: [...from] },
+      ...(extra.version !== undefined ? { version: extra.version } : {}),
+    },
+    transaction,
+  });
+  return count === 1;
+}
+
+/** Cancels every open revision of the plan (draft, in review, returned, approved). */
+export async function cancelOpenRevisions(planId: number, reason: string, transaction: Transaction) {
+  await PlanRevision.update(
+    { status: "cancelled", closedReason: reason, closedAt: new Date() },
+    { where: { planId, status: { [Op.in]: ["draft", "in_review", "returned", "approved"] } }, transaction },
+  );
+}
+
+/** The revision a printed QR code names, with its plan (any organisation: the token is the secret). */
+export async function findRevisionByVerifyToken(token: string) {
+  if (!/^[A-Za-z0-9_-]{10,64}$/.test(token)) return null;
+  const revision = await PlanRevision.findOne({ where: { verifyToken: token } });
+  if (!revision) return null;
+  const plan = await Plan.findByPk(revision.planId);
+  return plan ? { plan, revision } : null;
+}
+
+/** Approved revisions (any organisation's) by id, for re-checking their gear. */
+export async function listApprovedRevisions(revisionIds: readonly number[]) {
+  if (revisionIds.length === 0) return [];
+  return PlanRevision.findAll({ where: { id: { [Op.in]: [...revisionIds] }, status: "approved" } });
 }

@@ -8,6 +8,7 @@ import {
   type InferAttributes,
   type InferCreationAttributes,
   type NonAttribute,
+  type Transaction,
 } from "sequelize";
 import { sequelize } from "~/utils/db.server";
 import { env } from "~/utils/env.server";
@@ -197,6 +198,26 @@ export async function listUsersWithRole(organisationId: number, role: Role) {
     include: [{ model: UserRole, as: "userRoles", where: { role }, required: true }],
     order: [["name", "ASC"]],
   });
+}
+
+/** The names of the organisation's users with these ids (any user the plan names, active or not). */
+export async function userNames(organisationId: number, ids: readonly number[], transaction?: Transaction) {
+  const unique = [...new Set(ids)];
+  if (unique.length === 0) return new Map<number, string>();
+  const rows = await User.findAll({
+    where: { organisationId, id: unique },
+    attributes: ["id", "name"],
+    raw: true,
+    transaction,
+  });
+  return new Map(rows.map((u) => [u.id, u.name]));
+}
+
+/** The organisation's active users with these ids (for mail). */
+export async function listActiveUsersByIds(organisationId: number, ids: readonly number[]) {
+  const unique = [...new Set(ids)];
+  if (unique.length === 0) return [];
+  return User.findAll({ where: { organisationId, id: unique, active: true }, order: [["name", "ASC"]] });
 }
 
 export async function createUser(

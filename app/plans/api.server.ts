@@ -1,5 +1,6 @@
 // The JSON shapes of /api/plans, shared by the API routes and the plan pages.
-import { compareWithComponent, type getPlan } from "~/models/plan.server";
+import { type getPlan } from "~/models/plan.server";
+import { compareWithComponent } from "~/plans/revisions.server";
 
 type Found = NonNullable<Awaited<ReturnType<typeof getPlan>>>;
 

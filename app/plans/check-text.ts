@@ -419,7 +419,9 @@ export function ruleText(check: AnyCheck, units: Units): string {
       if (wll) figures.push(wll);
   }
   const rules = RULE_SET_NAMES[check.ruleSet];
-  const text = `${check.rule}${figures.length ? `: ${figures.join("; ")}` : ""}`.replace(/ deg\b/g, "°").replace(/\.+$/, "");
+  const text = `${check.rule}${figures.length ? `: ${figures.join("; ")}` : ""}`
+    .replace(/ deg\b/g, "°")
+    .replace(/\.+$/, "");
   return `${text}. ${rules}.`;
 }
 

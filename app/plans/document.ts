@@ -154,6 +154,8 @@ export type LegRiggingAllocation = z.infer<typeof legRiggingSchema>;
 export const riggingAllocationSchema = z.object({
   legs: z.record(liftPointLabel, legRiggingSchema).default({}),
   masterLinkItemId: gearItemId.optional(),
+  /** No master link: the planner states the crane hook takes the legs (or the beam's top rigging) directly. */
+  hookTakesLegs: z.boolean({ error: "Say whether the crane hook takes the legs directly (true or false)." }).optional(),
   craneItemId: gearItemId.optional(),
 });
 export type RiggingAllocation = z.infer<typeof riggingAllocationSchema>;

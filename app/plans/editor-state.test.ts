@@ -34,6 +34,16 @@ const edit: PlanEdit = {
 };
 
 describe("editor history", () => {
+  it("states, and withdraws in one undo step, that the crane hook takes the legs directly", () => {
+    let s = initialEditorState(edit);
+    s = editorReducer(s, { type: "set-hook-takes-legs", value: true });
+    expect(s.present.rigging.hookTakesLegs).toBe(true);
+    s = editorReducer(s, { type: "set-hook-takes-legs", value: false });
+    expect("hookTakesLegs" in s.present.rigging).toBe(false);
+    s = editorReducer(s, { type: "undo" });
+    expect(s.present.rigging.hookTakesLegs).toBe(true);
+  });
+
   it("undoes and redoes each edit in order", () => {
     let s = initialEditorState(edit);
     s = editorReducer(s, { type: "set-hook-height", hookHeightM: 2 });

@@ -42,6 +42,8 @@ export type EditorAction =
     }
   | { type: "set-hitch"; label: string; hitch: "straight" | "choke" | "basket" }
   | { type: "set-eye-plane"; label: string; eyePlane: "pull" | "x" | "y" }
+  /** No master link: the crane hook takes the legs (or the beam's top rigging) directly. */
+  | { type: "set-hook-takes-legs"; value: boolean }
   | { type: "undo" }
   | { type: "redo" };
 
@@ -155,6 +157,12 @@ function apply(edit: PlanEdit, action: EditorAction): PlanEdit {
       // A leg pinned in an eyebolt or shackle can only hang straight (rule-sets.ts allowedHitches).
       if (leg.eyeboltItemId !== undefined || leg.shackleItemId !== undefined) leg.hitch = "straight";
       return { ...edit, rigging: { ...edit.rigging, legs: { ...edit.rigging.legs, [action.label]: leg } } };
+    }
+    case "set-hook-takes-legs": {
+      const rigging = { ...edit.rigging };
+      if (action.value) rigging.hookTakesLegs = true;
+      else delete rigging.hookTakesLegs;
+      return { ...edit, rigging };
     }
     case "set-hitch": {
       const leg = { ...edit.rigging.legs[action.label], hitch: action.hitch };

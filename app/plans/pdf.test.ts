@@ -8,7 +8,10 @@ import jsQR from "jsqr";
 import { PNG } from "pngjs";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { PLAN_CAUTION } from "~/plans/document";
-import { buildPlanPdf, drawingScale, printableText, PT_MM } from "~/plans/pdf.server";
+import { buildPlanPdf } from "~/plans/pdf/build.server";
+import { drawingScale } from "~/plans/pdf/drawing.server";
+import { printableText } from "~/plans/pdf/fonts.server";
+import { PT_MM } from "~/plans/pdf/layout.server";
 import type { PrintablePlan } from "~/plans/printable";
 import { longPrintablePlan, printablePlanFixture } from "../../tests/support/printable-plan";
 

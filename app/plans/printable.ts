@@ -1,7 +1,9 @@
-// What the printed plan shows: everything is decided before printing (server side) and handed to
-// the PDF builder as plain data, so the PDF never works anything out for itself.
+// What the printed plan shows: the sealed record of the revision, and beside it the gear's state now
+// and who printed it when. Everything is decided before printing (server side) and handed to the
+// PDF builder as plain data, so the PDF never works anything out for itself.
 import type { ComponentDefinition } from "~/loads/component-definition";
 import type { Arrangement, PlanDetails, PlanResultsBody } from "~/plans/document";
+import type { LiveGearState } from "~/plans/live-state";
 import type { Units } from "~/utils/format";
 
 export type PrintableScheduleRow = {
@@ -15,6 +17,9 @@ export type PrintableScheduleRow = {
   /** load / derated WLL, unrounded; printed rounded up. */
   utilisation: number | null;
   nextDueOn: string | null;
+  /** As sealed (absent from prints made before sealing): serial and the latest examination and certificate. */
+  serial?: string;
+  certificate?: string;
 };
 
 export type PrintablePlan = {
@@ -27,7 +32,7 @@ export type PrintablePlan = {
   units: Units;
   planner: { name: string };
   approval: { name: string; role: string; approvedAt: string; comment: string; selfApproved: boolean };
-  /** SHA-256 (hex) of the approved content. */
+  /** SHA-256 (hex) of the sealed record. */
   fingerprint: string;
   /** Absolute URL of /verify/<token>, for the QR code. */
   verifyUrl: string;
@@ -40,4 +45,8 @@ export type PrintablePlan = {
   schedule: PrintableScheduleRow[];
   details: PlanDetails;
   acknowledgements: Array<{ checkItem: string; reason: string; by: string; at: string }>;
+  /** The gear judged when printing (an approved revision); NOT FIT TO LIFT is printed across every page. */
+  live?: LiveGearState | null;
+  /** The lift made to a completed revision. */
+  liftRecord?: { liftedAt: string; by: string } | null;
 };

@@ -26,7 +26,7 @@ const EXPECTED: Record<WorkflowAction, { roles: Role[]; statuses: PlanStatus[] }
   cancel: { roles: ["planner", "admin"], statuses: ["draft", "in_review", "returned", "approved"] },
   "assign-rigger": { roles: ["approver", "planner", "admin"], statuses: ["approved"] },
   "record-lift": { roles: ["rigger"], statuses: ["approved"] },
-  print: { roles: [...ROLES], statuses: ["approved"] },
+  print: { roles: [...ROLES], statuses: ["approved", "completed"] },
 };
 
 describe("the plan workflow", () => {
@@ -51,6 +51,23 @@ describe("the plan workflow", () => {
     });
     expect(permission("approve", { ...own, allowSelfApproval: true }).allowed).toBe(true);
     expect(permission("return", own).allowed).toBe(true);
+  });
+
+  it("an author's refusal names what made them one", () => {
+    const own = ctx("in_review", ["approver"], {
+      isOwnPlan: true,
+      authorReason: "You submitted it, so you are an author.",
+    });
+    expect(permission("approve", own)).toEqual({ allowed: false, reason: "You submitted it, so you are an author." });
+  });
+
+  it("a revision not fit to lift is not recorded as lifted, and says why", () => {
+    const unfit = ctx("approved", ["rigger"], { notFitToLift: "NOT FIT TO LIFT: EB-1 is quarantined." });
+    expect(permission("record-lift", unfit)).toEqual({
+      allowed: false,
+      reason: "NOT FIT TO LIFT: EB-1 is quarantined.",
+    });
+    expect(permission("print", unfit).allowed).toBe(true);
   });
 
   it("a new revision starts only once, from the current approved revision", () => {

@@ -19,13 +19,17 @@ export type WorkflowAction = (typeof WORKFLOW_ACTIONS)[number];
 export type WorkflowContext = {
   status: PlanStatus;
   roles: readonly Role[];
-  /** The user planned or submitted this revision. */
+  /** The user is an author of this revision: they created, started, saved, pulled into or submitted it. */
   isOwnPlan: boolean;
+  /** What made them an author, as the refusal should say it (see plans/authorship.ts). */
+  authorReason?: string;
   allowSelfApproval: boolean;
   /** This revision is the plan's approved one that nothing newer has superseded. */
   isCurrentApproved: boolean;
   /** A newer draft (or one in review) exists beside this approved revision. */
   hasNewerRevision: boolean;
+  /** Why the approved revision is not fit to lift now (its gear changed since approval); absent when it is fit. */
+  notFitToLift?: string;
 };
 
 export type Permission = { allowed: true } | { allowed: false; reason: string };
@@ -53,7 +57,7 @@ export function permission(action: WorkflowAction, ctx: WorkflowContext): Permis
       if (!hasRole(ctx, "approver")) return no("Only an appointed person approves plans.");
       if (ctx.status !== "in_review") return no("Only a revision in review can be approved.");
       if (ctx.isOwnPlan && !ctx.allowSelfApproval)
-        return no("You planned this revision: another appointed person must approve it.");
+        return no(ctx.authorReason ?? "You planned this revision: another appointed person must approve it.");
       return yes;
     case "return":
       if (!hasRole(ctx, "approver")) return no("Only an appointed person returns plans.");
@@ -73,12 +77,14 @@ export function permission(action: WorkflowAction, ctx: WorkflowContext): Permis
       return ctx.isCurrentApproved ? yes : no("A rigger is assigned to the current approved revision.");
     case "record-lift":
       if (!hasRole(ctx, "rigger")) return no("The rigger records the lift.");
-      return ctx.isCurrentApproved ? yes : no("Only the current approved revision can be lifted and recorded.");
+      if (!ctx.isCurrentApproved) return no("Only the current approved revision can be lifted and recorded.");
+      return ctx.notFitToLift ? no(ctx.notFitToLift) : yes;
     case "print":
-      return ctx.isCurrentApproved
+      // A completed plan prints as the record of the lift it was.
+      return ctx.isCurrentApproved || ctx.status === "completed"
         ? yes
         : no(
-            "Only the current approved revision can be printed: a draft, superseded, completed or cancelled revision cannot.",
+            "Only the current approved revision, or the revision a recorded lift was made to, can be printed: a draft, superseded or cancelled revision cannot.",
           );
   }
 }

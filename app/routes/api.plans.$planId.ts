@@ -1,5 +1,6 @@
 import type { Route } from "./+types/api.plans.$planId";
-import { getPlan, savePlanRevision } from "~/models/plan.server";
+import { getPlan } from "~/models/plan.server";
+import { savePlanRevision } from "~/plans/revisions.server";
 import { planJson } from "~/plans/api.server";
 import { describeIssue, planPutSchema, zodIssues } from "~/plans/document";
 import { requireUser, requireUserWithRole } from "~/utils/session.server";

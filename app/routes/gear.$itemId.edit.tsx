@@ -7,6 +7,7 @@ import { parseGearItemForm } from "~/gear/form.server";
 import { toFormValues, updateGearItem } from "~/models/gear-item.server";
 import { requireGearItem } from "./gear.$itemId.server";
 import { listSites } from "~/models/site.server";
+import { watchAllocatedGear } from "~/plans/live-state.server";
 import { flashNotice, requireUserWithRole } from "~/utils/session.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `Edit ${data?.item.itemCode ?? "gear"} · Plumbline` }];
@@ -26,7 +27,12 @@ export async function action({ request, params }: Route.ActionArgs) {
   const item = await requireGearItem(user.organisationId, params.itemId);
   const form = await parseGearItemForm(user.organisationId, await requireFormData(request), item.id);
   if (!form.ok) return data({ errors: form.errors }, { status: 400 });
-  await updateGearItem(user.organisationId, item.id, form.data, user.id);
+  await watchAllocatedGear(
+    user.organisationId,
+    item.id,
+    () => updateGearItem(user.organisationId, item.id, form.data, user.id),
+    request,
+  );
   throw redirect(`/gear/${item.id}`, {
     headers: { "Set-Cookie": await flashNotice(request, `${form.data.itemCode} saved.`) },
   });

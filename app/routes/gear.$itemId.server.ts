@@ -7,6 +7,7 @@ import { defectReportSchema, examinationSchema, statusChangeSchema } from "~/gea
 import { recordExamination } from "~/models/examination.server";
 import { changeGearStatus, getGearItem, reportGearDefect, type GearItem } from "~/models/gear-item.server";
 import type { SessionUser } from "~/models/user.server";
+import { watchAllocatedGear } from "~/plans/live-state.server";
 import { flashNotice } from "~/utils/session.server";
 import { checkUpload, readUploadForm, uploadedFile } from "~/utils/uploads.server";
 
@@ -54,12 +55,11 @@ export async function handleGearItemAction(request: Request, user: SessionUser, 
     const checked = file ? await checkUpload(file, ["pdf"]) : null;
     if (checked && !checked.ok) errors.certificate = [checked.message];
     if (!form.ok || Object.keys(errors).length) return refuse("examination", errors);
-    const recorded = await recordExamination(
+    const recorded = await watchAllocatedGear(
       user.organisationId,
       item.id,
-      form.data,
-      checked?.ok ? checked.upload : null,
-      user.id,
+      () => recordExamination(user.organisationId, item.id, form.data, checked?.ok ? checked.upload : null, user.id),
+      request,
     );
     if (!recorded) throw data({ message: "There is no such item in your organisation's register." }, { status: 404 });
     if (!recorded.ok) return refuse("examination", { [recorded.field]: [recorded.message] });
@@ -74,7 +74,12 @@ export async function handleGearItemAction(request: Request, user: SessionUser, 
     if (!isAdmin) throw forbidden();
     const form = parseForm(statusChangeSchema, formData);
     if (!form.ok) return refuse("status", form.errors);
-    const result = await changeGearStatus(user.organisationId, item.id, form.data, user.id);
+    const result = await watchAllocatedGear(
+      user.organisationId,
+      item.id,
+      () => changeGearStatus(user.organisationId, item.id, form.data, user.id),
+      request,
+    );
     if (!result.ok) return refuse("status", { status: [result.message] });
     return backToItem(request, item, `${item.itemCode} is now ${GEAR_STATUS_LABELS[form.data.status].toLowerCase()}.`);
   }
@@ -82,10 +87,12 @@ export async function handleGearItemAction(request: Request, user: SessionUser, 
   if (intent === "defect") {
     const form = parseForm(defectReportSchema, formData);
     if (!form.ok) return refuse("defect", form.errors);
-    const report = await reportGearDefect(user.organisationId, item.id, form.data.defect, {
-      id: user.id,
-      name: user.name,
-    });
+    const report = await watchAllocatedGear(
+      user.organisationId,
+      item.id,
+      () => reportGearDefect(user.organisationId, item.id, form.data.defect, { id: user.id, name: user.name }),
+      request,
+    );
     if (!report) throw data({ message: "There is no such item in your organisation's register." }, { status: 404 });
     let mailNote = "";
     try {

@@ -5,6 +5,7 @@ import type { Route } from "./+types/gear.import";
 import { Button, Card, FormError, PageHeader } from "~/components/ui/form";
 import { CSV_HEADERS, MAX_IMPORT_BYTES, MAX_IMPORT_ROWS, READ_ONLY_COLUMNS, REQUIRED_HEADERS } from "~/gear/csv";
 import { confirmGearImport, stageGearImport, type ImportPreview } from "~/gear/import.server";
+import { watchAllocatedGear } from "~/plans/live-state.server";
 import type { ImportCounts } from "~/models/gear-item.server";
 import { requireUserWithRole } from "~/utils/session.server";
 import { readUploadForm, uploadedFile } from "~/utils/uploads.server";
@@ -43,7 +44,12 @@ export async function action({ request }: Route.ActionArgs) {
   if (formData.get("intent") === "confirm") {
     const form = confirmSchema.safeParse(Object.fromEntries([...formData].filter(([, v]) => typeof v === "string")));
     if (!form.success) return fail("confirm", "The confirmation did not name a staged file; upload the file again.");
-    const result = await confirmGearImport(user.organisationId, form.data.fileId, form.data.mode === "valid", user.id);
+    const result = await watchAllocatedGear(
+      user.organisationId,
+      "every allocated item",
+      () => confirmGearImport(user.organisationId, form.data.fileId, form.data.mode === "valid", user.id),
+      request,
+    );
     if (!result.ok) return fail("confirm", result.message, result.status);
     return data<ActionResult>({ intent: "confirm", done: { ...result.counts, skipped: result.skipped } });
   }

@@ -4,7 +4,8 @@ import { z } from "zod";
 import type { Route } from "./+types/plans.$planId.details";
 import { Button, Card, FieldError, FormError, PageHeader } from "~/components/ui/form";
 import { requireFormData } from "~/utils/forms";
-import { getPlan, savePlanRevision } from "~/models/plan.server";
+import { getPlan } from "~/models/plan.server";
+import { savePlanRevision } from "~/plans/revisions.server";
 import { parseDetailsForm } from "~/plans/details-form";
 import {
   MAX_HAZARDS,

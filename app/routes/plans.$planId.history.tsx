@@ -2,7 +2,7 @@ import { data } from "react-router";
 import type { Route } from "./+types/plans.$planId.history";
 import { EmptyState, PageHeader } from "~/components/ui/form";
 import { getPlan } from "~/models/plan.server";
-import { listPlanHistory } from "~/models/plan-workflow.server";
+import { listPlanHistory } from "~/plans/workflow-view.server";
 import { requireUser } from "~/utils/session.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "History · Plumbline" }];

@@ -1,31 +1,18 @@
 import { data, Form, redirect } from "react-router";
 import type { Route } from "./+types/plans.$planId.lift";
 import { Button, Card, FormError, PageHeader } from "~/components/ui/form";
-import { gearPicksByIds } from "~/gear/picks.server";
-import { getReferenceTables } from "~/models/reference-row.server";
-import { getWorkflowView, recordLift } from "~/models/plan-workflow.server";
+import { LiftFitness } from "~/components/lift-fitness";
+import { getWorkflowView } from "~/plans/workflow-view.server";
+import { recordLift } from "~/plans/lift.server";
 import { PRE_LIFT_CHECKLIST, type ChecklistId } from "~/plans/workflow";
 import { getPlan, planExists } from "~/models/plan.server";
-import { PERSON_ROLE_LABELS, PLAN_CAUTION, type RiggingAllocation } from "~/plans/document";
-import { GEAR_ROLE_LABELS } from "~/plans/rigging";
+import { PERSON_ROLE_LABELS, PLAN_CAUTION } from "~/plans/document";
 import { flashNotice, requireUserWithRole } from "~/utils/session.server";
 import { checkUpload, readUploadForm, type CheckedUpload } from "~/utils/uploads.server";
 import { formatMass } from "~/utils/format";
 import { CONTROL_CHARACTER_MESSAGE, hasControlCharacters } from "~/utils/forms";
 
 export const meta: Route.MetaFunction = () => [{ title: "At the lift · Plumbline" }];
-
-function scheduleOf(rigging: RiggingAllocation) {
-  const rows: Array<{ position: string; itemId: number }> = [];
-  for (const [leg, r] of Object.entries(rigging.legs)) {
-    if (r.eyeboltItemId) rows.push({ position: `Leg ${leg} eyebolt`, itemId: r.eyeboltItemId });
-    if (r.shackleItemId) rows.push({ position: `Leg ${leg} shackle`, itemId: r.shackleItemId });
-    if (r.slingItemId) rows.push({ position: `Leg ${leg} sling`, itemId: r.slingItemId });
-  }
-  if (rigging.masterLinkItemId) rows.push({ position: "Master link", itemId: rigging.masterLinkItemId });
-  if (rigging.craneItemId) rows.push({ position: "Crane or hoist", itemId: rigging.craneItemId });
-  return rows;
-}
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUserWithRole(request, "rigger");
@@ -39,38 +26,30 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       { status: 409 },
     );
   }
-  const rows = scheduleOf(approved.rigging);
-  const picks = new Map(
-    (
-      await gearPicksByIds(
-        user.organisationId,
-        rows.map((r) => r.itemId),
-        await getReferenceTables(),
-      )
-    ).map((p) => [p.id, p]),
-  );
+  // What the rigger checks the gear against is the sealed record; the live state beside it says whether it still holds.
+  const sealed = workflow.sealed;
   return {
     plan: {
       id: found.plan.id,
-      title: found.plan.title,
+      title: sealed?.title ?? found.plan.title,
       revision: approved.revision,
-      approverName: approved.approverName,
+      approverName: sealed?.approval.name ?? approved.approverName,
     },
+    sealedMissing: !sealed,
+    live: workflow.live,
     massKg: approved.snapshot.massKg * (1 + approved.snapshot.contingencyPct / 100),
-    schedule: rows.map((r) => {
-      const p = picks.get(r.itemId);
-      return {
-        ...r,
-        itemCode: p?.itemCode ?? `#${r.itemId}`,
-        description: p?.description ?? "",
-        wllKg: p?.wllKg ?? null,
-        role: p ? GEAR_ROLE_LABELS[p.role] : "",
-        nextDueOn: p?.nextDueOn ?? null,
-        status: p?.status ?? null,
-      };
-    }),
-    details: approved.details,
+    schedule: (sealed?.schedule ?? []).map((row) => ({
+      position: row.position,
+      itemId: row.itemId,
+      itemCode: row.itemCode,
+      description: row.description,
+      serial: row.serial,
+      wllKg: row.wllKg,
+      nextDueOn: row.nextDueOn,
+    })),
+    details: sealed?.details ?? approved.details,
     canRecord: workflow.permissions["record-lift"].allowed,
+    recordRefusal: workflow.permissions["record-lift"].reason ?? null,
     units: user.units,
   };
 }
@@ -125,7 +104,7 @@ export async function action({ request, params }: Route.ActionArgs) {
 }
 
 export default function AtTheLift({ loaderData, actionData }: Route.ComponentProps) {
-  const { plan, schedule, details, canRecord, massKg, units } = loaderData;
+  const { plan, schedule, details, canRecord, recordRefusal, massKg, units, live, sealedMissing } = loaderData;
   return (
     <>
       <PageHeader
@@ -139,6 +118,7 @@ export default function AtTheLift({ loaderData, actionData }: Route.ComponentPro
           Print (PDF)
         </a>
       </PageHeader>
+      <LiftFitness live={live} sealedMissing={sealedMissing} />
       <p role="note" className="mb-4 rounded border border-brass/40 bg-brass-soft px-3 py-2 text-sm">
         {PLAN_CAUTION}
       </p>
@@ -149,11 +129,10 @@ export default function AtTheLift({ loaderData, actionData }: Route.ComponentPro
               <li key={row.position} className="py-2">
                 <span className="font-semibold">{row.position}</span>: {row.itemCode}{" "}
                 {row.description && <span className="text-ink-soft">({row.description})</span>}
-                {row.wllKg !== null && (
-                  <span className="block">
-                    WLL {formatMass(row.wllKg, units)} · next examination {row.nextDueOn ?? "none on record"}
-                  </span>
-                )}
+                <span className="block">
+                  WLL {formatMass(row.wllKg, units)}
+                  {row.serial ? ` · serial ${row.serial}` : ""} · next examination {row.nextDueOn ?? "none on record"}
+                </span>
                 <a href={`/gear/${row.itemId}#report-defect`} className="text-sm">
                   Report a defect on {row.itemCode}
                 </a>
@@ -229,7 +208,9 @@ export default function AtTheLift({ loaderData, actionData }: Route.ComponentPro
             </Form>
           </Card>
         ) : (
-          <p className="text-sm text-ink-soft">Only a rigger records the lift on the current approved revision.</p>
+          <p className="text-sm text-ink-soft" data-testid="no-record">
+            {recordRefusal ?? "Only a rigger records the lift on the current approved revision."}
+          </p>
         )}
       </div>
     </>

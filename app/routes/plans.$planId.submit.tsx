@@ -7,7 +7,7 @@ import { checkSentence, itemText } from "~/plans/check-text";
 import { Button, Card, FormError, PageHeader } from "~/components/ui/form";
 import { CONTROL_CHARACTER_MESSAGE, hasControlCharacters, requireFormData } from "~/utils/forms";
 import { getPlan } from "~/models/plan.server";
-import { submitRevision } from "~/models/plan-workflow.server";
+import { submitRevision } from "~/plans/workflow.server";
 import { PLAN_CAUTION } from "~/plans/document";
 import { flashNotice, requireUserWithRole } from "~/utils/session.server";
 

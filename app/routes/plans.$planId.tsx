@@ -5,8 +5,10 @@ import { ComponentViews } from "~/components/component-views";
 import { Button, Card, EmptyState, FormError, PageHeader } from "~/components/ui/form";
 import { COG_SOURCE_LABELS, MASS_SOURCE_LABELS } from "~/loads/component-definition";
 import { parseForm, requireFormData, safeText } from "~/utils/forms";
-import { compareWithComponent, EDITABLE_STATUSES, getPlan, pullComponentVersion } from "~/models/plan.server";
-import { assignRigger, cancelPlan, getWorkflowView, startNewRevision } from "~/models/plan-workflow.server";
+import { EDITABLE_STATUSES, getPlan } from "~/models/plan.server";
+import { compareWithComponent, pullComponentVersion } from "~/plans/revisions.server";
+import { assignRigger, cancelPlan, startNewRevision } from "~/plans/workflow.server";
+import { getWorkflowView, shownRevision } from "~/plans/workflow-view.server";
 import { listUsersWithRole } from "~/models/user.server";
 import { WorkflowPanel } from "~/components/plan-workflow-panel";
 import { HITCH_LABELS, PERSON_ROLE_LABELS, PLAN_CAUTION, PLAN_STATUS_LABELS, type PlanResults } from "~/plans/document";
@@ -46,16 +48,12 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const { plan, revision } = await requirePlan(user.organisationId, params.planId);
   const comparison = await compareWithComponent(user.organisationId, revision);
   const workflow = await getWorkflowView(user.organisationId, plan.id, user, { plan, revision });
-  const site = plan.job?.site;
+  // An approved or completed revision shows its sealed record.
+  const shown = shownRevision({ plan, revision }, workflow);
   return {
-    plan: { id: plan.id, title: plan.title },
-    job: {
-      id: plan.jobId,
-      workOrder: plan.job?.workOrder ?? "",
-      title: plan.job?.title ?? "",
-      site: site ? `${site.name} · ${site.customer}` : "",
-    },
-    revision,
+    plan: { id: plan.id, title: shown.title },
+    job: shown.job,
+    revision: shown.revision,
     comparison,
     units: user.units,
     canEdit: hasAnyRole(user, "planner", "admin") && EDITABLE_STATUSES.includes(revision.status),

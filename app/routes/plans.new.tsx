@@ -5,7 +5,7 @@ import { Button, Card, EmptyState, Field, FormError, PageHeader, SelectField } f
 import { parseForm, requiredText, requireFormData } from "~/utils/forms";
 import { listComponents } from "~/models/component.server";
 import { listJobs } from "~/models/job.server";
-import { createPlanFromComponent } from "~/models/plan.server";
+import { createPlanFromComponent } from "~/plans/revisions.server";
 import { MAX_TITLE } from "~/plans/document";
 import { flashNotice, requireUserWithRole } from "~/utils/session.server";
 

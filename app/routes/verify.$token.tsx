@@ -1,5 +1,7 @@
 import type { Route } from "./+types/verify.$token";
-import { findRevisionByVerifyToken } from "~/models/plan-workflow.server";
+import { LiftFitness } from "~/components/lift-fitness";
+import { sinceText } from "~/plans/live-state";
+import { verifyRevision } from "~/plans/verify.server";
 import { getUser } from "~/utils/session.server";
 
 export const meta: Route.MetaFunction = () => [
@@ -7,11 +9,16 @@ export const meta: Route.MetaFunction = () => [
   { name: "robots", content: "noindex" },
 ];
 
-/** Open to anyone holding the printed plan: says whether that revision is still the current approved one. */
+/**
+ * Open to anyone holding the printed plan: says whether that revision is still the current approved
+ * one and, if it is, whether its gear is fit to lift now, naming any item that is not and since when.
+ * The register's reasons (defect reports) are shown only to the organisation's own people.
+ */
 export async function loader({ request, params }: Route.LoaderArgs) {
-  const found = await findRevisionByVerifyToken(params.token);
+  const found = await verifyRevision(params.token);
   if (!found) return { found: null, canOpen: false };
   const user = await getUser(request);
+  const canOpen = user?.organisationId === found.organisationId;
   return {
     found: {
       title: found.title,
@@ -20,8 +27,17 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       status: found.status,
       supersededByRevision: found.supersededByRevision,
       planId: found.planId,
+      intact: found.intact,
+      live: found.live
+        ? {
+            fit: found.live.fit,
+            checkedAt: found.live.checkedAt,
+            liftDate: found.live.liftDate,
+            problems: found.live.problems.map((p) => ({ ...p, detail: canOpen ? p.detail : "" })),
+          }
+        : null,
     },
-    canOpen: user?.organisationId === found.organisationId,
+    canOpen,
   };
 }
 
@@ -48,6 +64,8 @@ const VERDICTS = {
   },
 } as const;
 
+const when = (iso: string) => sinceText(iso);
+
 export default function Verify({ loaderData }: Route.ComponentProps) {
   const { found, canOpen } = loaderData;
   if (!found) {
@@ -61,18 +79,38 @@ export default function Verify({ loaderData }: Route.ComponentProps) {
       </section>
     );
   }
+  const live = found.live;
   const verdict = VERDICTS[found.status as keyof typeof VERDICTS] ?? VERDICTS.cancelled;
   return (
     <section className="mx-auto max-w-lg py-8" data-testid="verify">
+      {live && !live.fit && <LiftFitness live={live} />}
       <div className={`rounded border-2 p-4 ${verdict.tone}`} role="status">
-        <h1 className="text-2xl">{verdict.title}</h1>
+        {live && !live.fit ? (
+          <h2 className="text-xl">{verdict.title}</h2>
+        ) : (
+          <h1 className="text-2xl">{verdict.title}</h1>
+        )}
         <p className="mt-2 text-ink">
-          {verdict.say}
+          {live && !live.fit
+            ? "This is still the current approved revision, but its gear is not fit to lift: see above."
+            : verdict.say}
           {found.status === "superseded" && found.supersededByRevision
             ? ` It was replaced by revision ${found.supersededByRevision}.`
             : ""}
         </p>
+        {live?.fit && (
+          <p className="mt-2 text-ink" data-testid="fit">
+            Fit to lift: every allocated item is in service, in date for thorough examination on {live.liftDate} and as
+            approved. Checked {when(live.checkedAt)}.
+          </p>
+        )}
       </div>
+      {!found.intact && (
+        <p className="mt-4 rounded border-2 border-fail bg-fail-soft p-3 text-fail" role="alert">
+          The stored record of this revision does not match its fingerprint. Do not use this copy: tell the appointed
+          person.
+        </p>
+      )}
       <dl className="mt-4 space-y-1 text-sm">
         <div>
           <dt className="inline text-ink-soft">Plan: </dt>

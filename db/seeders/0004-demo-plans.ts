@@ -4,7 +4,8 @@ import { Op } from "sequelize";
 import { Component } from "~/models/component.server";
 import { GearItem } from "~/models/gear-item.server";
 import { Job } from "~/models/job.server";
-import { createPlanFromComponent, getPlan, Plan, savePlanRevision } from "~/models/plan.server";
+import { getPlan, Plan } from "~/models/plan.server";
+import { createPlanFromComponent, savePlanRevision } from "~/plans/revisions.server";
 import { findUserByEmail } from "~/models/user.server";
 import type { GearKind } from "~/gear/kinds";
 import { defaultDetails, type PlanDetails, type RiggingAllocation } from "~/plans/document";
@@ -176,6 +177,9 @@ export async function up() {
     if (demo.masterLink) {
       const link = take(await findItems(organisationId, ["master_link"]));
       if (link) rigging.masterLinkItemId = link.id;
+    } else {
+      // The load path still needs its top: here the crane hook takes the beam's top rigging directly.
+      rigging.hookTakesLegs = true;
     }
     const cranes = await findItems(organisationId, ["crane"]);
     const crane = cranes.find((c) => c.homeSiteId === job.siteId) ?? cranes[0];

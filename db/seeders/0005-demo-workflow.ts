@@ -1,11 +1,6 @@
 import { getPlan, Plan } from "~/models/plan.server";
-import {
-  approveRevision,
-  assignRigger,
-  recordLift,
-  startNewRevision,
-  submitRevision,
-} from "~/models/plan-workflow.server";
+import { approveRevision, assignRigger, startNewRevision, submitRevision } from "~/plans/workflow.server";
+import { recordLift } from "~/plans/lift.server";
 import { PRE_LIFT_CHECKLIST } from "~/plans/workflow";
 import { findUserByEmail, getActiveSessionUser, type SessionUser } from "~/models/user.server";
 import { DEMO_PASSWORD } from "./0001-demo-scenario";

@@ -1,6 +1,6 @@
 // The printed plan: median time to build the PDF of a typical plan, and its size, against the
 // targets (<= 150 ms, <= 300 KB). Run: npx tsx tests/bench/pdf.ts
-import { buildPlanPdf } from "../../app/plans/pdf.server";
+import { buildPlanPdf } from "../../app/plans/pdf/build.server";
 import { printablePlanFixture } from "../support/printable-plan";
 import type { BenchResult } from "./statics";
 

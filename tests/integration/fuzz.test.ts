@@ -45,8 +45,11 @@ import { addComponentFile, Component, createComponent } from "~/models/component
 import { GearItem } from "~/models/gear-item.server";
 import { createJob } from "~/models/job.server";
 import { issuePasswordToken } from "~/models/password-token.server";
-import { approveRevision, LiftRecord, LiftRecordPhoto, submitRevision } from "~/models/plan-workflow.server";
+import { approveRevision, submitRevision } from "~/plans/workflow.server";
+import { LiftRecord } from "~/models/lift-record.server";
+import { LiftRecordPhoto } from "~/models/lift-record-photo.server";
 import { getPlan, PlanRevision } from "~/models/plan.server";
+import { PlanRevisionItem } from "~/models/plan-revision-item.server";
 import { createSite } from "~/models/site.server";
 import type { SessionUser } from "~/models/user.server";
 import { PRE_LIFT_CHECKLIST } from "~/plans/workflow";
@@ -1224,9 +1227,12 @@ describe("fuzzing the forms", () => {
           approvalComment: null,
           fingerprint: null,
           verifyToken: null,
+          sealed: null,
         },
         { where: { planId: world.reviewing.plan.id } },
       );
+      const revisions = await PlanRevision.findAll({ where: { planId: world.reviewing.plan.id } });
+      await PlanRevisionItem.destroy({ where: { revisionId: revisions.map((r) => r.id) } });
     },
   });
 

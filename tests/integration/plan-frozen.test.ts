@@ -4,7 +4,7 @@ import * as planDetails from "~/routes/plans.$planId.details";
 import * as planPage from "~/routes/plans.$planId";
 import * as submit from "~/routes/plans.$planId.submit";
 import { getPlan, PlanRevision } from "~/models/plan.server";
-import { approveRevision, submitRevision } from "~/models/plan-workflow.server";
+import { approveRevision, submitRevision } from "~/plans/workflow.server";
 import { callRoute, postForm, TEST_PASSWORD } from "../support/factories";
 import { jsonRequest } from "../support/plans";
 import { readyPlan } from "../support/workflow";

@@ -4,10 +4,13 @@ import os from "node:os";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
 import * as print from "~/routes/plans.$planId.print.pdf";
+import * as printPage from "~/routes/plans.$planId.print";
 import * as verify from "~/routes/verify.$token";
 import { AuditEvent } from "~/models/audit-event.server";
 import { PlanRevision } from "~/models/plan.server";
-import { approveRevision, startNewRevision, submitRevision } from "~/models/plan-workflow.server";
+import { recordLift, type LiftRecordInput } from "~/plans/lift.server";
+import { PRE_LIFT_CHECKLIST } from "~/plans/workflow";
+import { approveRevision, startNewRevision, submitRevision } from "~/plans/workflow.server";
 import { callRoute, getRequest, makeUser, TEST_PASSWORD } from "../support/factories";
 import { readyPlan } from "../support/workflow";
 
@@ -26,11 +29,20 @@ function pdfText(bytes: Uint8Array) {
 }
 
 describe("printing", () => {
-  it("a draft cannot be printed: 409 with a sentence", async () => {
+  it("a draft cannot be printed: the PDF address sends to the app's own page, which says why (409) and links back", async () => {
     const { planner, plan } = await readyPlan();
     const res = await printRequest(plan.id, planner);
-    expect(res.status).toBe(409);
-    expect(String(res.data)).toMatch(/Only the current approved revision can be printed/);
+    expect(res.status).toBe(302);
+    expect(res.headers.get("Location")).toBe(`/plans/${plan.id}/print`);
+    const page = await callRoute(printPage.loader, await getRequest(`/plans/${plan.id}/print`, planner), {
+      planId: String(plan.id),
+    });
+    expect(page.status).toBe(409);
+    expect(page.data).toEqual({
+      message:
+        "The plan has no approved revision to print yet. Revision 1 is a draft: it prints once an appointed person has approved it.",
+      planId: plan.id,
+    });
   });
 
   it("the approved revision prints with the approver, its fingerprint and the caution, and the print is in the history", async () => {
@@ -79,6 +91,30 @@ describe("printing", () => {
       { token: "not-a-real-token-at-all" },
     );
     expect(unknown.data).toEqual({ found: null, canOpen: false });
+  });
+
+  it("a completed plan prints its sealed plan, marked as the record of the lift it was made to", async () => {
+    const { planner, approver, rigger, plan } = await readyPlan();
+    const org = planner.organisationId;
+    await submitRevision(org, plan.id, planner, {});
+    await approveRevision(org, plan.id, approver, { password: TEST_PASSWORD, typedName: approver.name, comment: "" });
+    const checklist = Object.fromEntries(PRE_LIFT_CHECKLIST.map((c) => [c.id, true])) as LiftRecordInput["checklist"];
+    const lifted = await recordLift(org, plan.id, rigger, {
+      checklist,
+      liftedAt: new Date("2025-06-02T09:15:00Z"),
+      notes: "",
+      nearMiss: false,
+      nearMissDetails: "",
+    });
+    expect(lifted.ok).toBe(true);
+    const request = await getRequest(`/plans/${plan.id}/print.pdf`, planner);
+    const res = await print.loader({ request, params: { planId: String(plan.id) }, context: {} } as never);
+    expect(res.status).toBe(200);
+    const text = pdfText(new Uint8Array(await res.arrayBuffer())).replace(/\s+/g, " ");
+    expect(text).toContain("COMPLETED");
+    expect(text).toContain("LIFT COMPLETED 2025-06-02 09:15 UTC, recorded by Robin Rigger");
+    expect(text).toContain(plan.title);
+    expect(text).not.toContain("no approved revision");
   });
 
   it("another organisation cannot print the plan", async () => {

@@ -1,18 +1,18 @@
 import { describe, expect, it } from "vitest";
 import { CaughtMail } from "~/models/caught-mail.server";
-import { getPlan, PlanRevision, savePlanRevision } from "~/models/plan.server";
+import { getPlan, PlanRevision } from "~/models/plan.server";
+import { savePlanRevision } from "~/plans/revisions.server";
 import {
   approveRevision,
   assignRigger,
   cancelPlan,
-  findRevisionByVerifyToken,
-  getWorkflowView,
-  listPlanHistory,
-  recordLift,
   returnRevision,
   startNewRevision,
   submitRevision,
-} from "~/models/plan-workflow.server";
+} from "~/plans/workflow.server";
+import { verifyRevision } from "~/plans/verify.server";
+import { getWorkflowView, listPlanHistory } from "~/plans/workflow-view.server";
+import { recordLift } from "~/plans/lift.server";
 import { PRE_LIFT_CHECKLIST } from "~/plans/workflow";
 import { makeUser, TEST_PASSWORD } from "../support/factories";
 import { makePlan } from "../support/plans";
@@ -123,11 +123,11 @@ describe("a plan moves from draft to completed", () => {
       typedName: "Sam Both",
       comment: "",
     });
-    expect(refused).toMatchObject({
-      ok: false,
-      status: 409,
-      message: "You planned this revision: another appointed person must approve it.",
-    });
+    expect(refused).toMatchObject({ ok: false, status: 409 });
+    if (refused.ok) return;
+    expect(refused.message).toMatch(
+      /^You saved this revision on \d{1,2} \w+ \d{4} and you submitted it, so you are an author of this revision: another appointed person must approve it\.$/,
+    );
     await allowSelfApproval(both);
     const allowed = await approveRevision(org, plan.id, both, {
       password: TEST_PASSWORD,
@@ -220,10 +220,10 @@ describe("a plan moves from draft to completed", () => {
 
     expect(await startNewRevision(org, plan.id, planner)).toEqual({ ok: true, revision: 2 });
     expect((await startNewRevision(org, plan.id, planner)).ok).toBe(false);
-    expect((await findRevisionByVerifyToken(first.verifyToken!))?.status).toBe("approved");
+    expect((await verifyRevision(first.verifyToken!))?.status).toBe("approved");
     await submitRevision(org, plan.id, planner, {});
     await approveRevision(org, plan.id, approver, { password: TEST_PASSWORD, typedName: approver.name, comment: "" });
-    const verified = await findRevisionByVerifyToken(first.verifyToken!);
+    const verified = await verifyRevision(first.verifyToken!);
     expect(verified).toMatchObject({ status: "superseded", supersededByRevision: 2, revision: 1 });
     const view = (await getWorkflowView(org, plan.id, planner))!;
     expect(view.approved?.revision).toBe(2);

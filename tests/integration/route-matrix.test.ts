@@ -8,8 +8,9 @@ import { createComponent } from "~/models/component.server";
 import { createJob } from "~/models/job.server";
 import { updateOrganisationSettings } from "~/models/organisation.server";
 import { issuePasswordToken } from "~/models/password-token.server";
-import { approveRevision, submitRevision } from "~/models/plan-workflow.server";
-import { createPlanFromComponent, PlanRevision } from "~/models/plan.server";
+import { approveRevision, submitRevision } from "~/plans/workflow.server";
+import { PlanRevision } from "~/models/plan.server";
+import { createPlanFromComponent } from "~/plans/revisions.server";
 import { createSite } from "~/models/site.server";
 import type { SessionUser } from "~/models/user.server";
 import { ROLES } from "~/utils/roles";
@@ -75,7 +76,8 @@ const MATRIX: Record<string, { loader: string; action: string }> = {
   "/plans/:planId/review":        { loader: "login  403     403     200      403     404",      action: "login  403     403     400      403     404" },
   "/plans/:planId/history":       { loader: "login  200     200     200      200     404",      action: "n/a" },
   "/plans/:planId/lift":          { loader: "login  403     403     403      409     404",      action: "login  403     403     403      400     404" },
-  "/plans/:planId/print.pdf":     { loader: "login  409     409     409      409     404",      action: "n/a" },
+  "/plans/:planId/print":         { loader: "login  409     409     409      409     404",      action: "n/a" },
+  "/plans/:planId/print.pdf":     { loader: "login  redirect redirect redirect redirect 404",  action: "n/a" },
 
   "/api/ping":                    { loader: "401    200     200     200      200     200",      action: "n/a" },
   "/api/solve":                   { loader: "401    405     405     405      405     405",      action: "401    400     400     400      400     400" },

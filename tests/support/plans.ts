@@ -3,7 +3,7 @@ import { rectangleOutlines, type ComponentDefinition } from "~/loads/component-d
 import { createComponent } from "~/models/component.server";
 import { GearItem } from "~/models/gear-item.server";
 import { createJob } from "~/models/job.server";
-import { createPlanFromComponent } from "~/models/plan.server";
+import { createPlanFromComponent } from "~/plans/revisions.server";
 import { createSite } from "~/models/site.server";
 import type { SessionUser } from "~/models/user.server";
 import type { GearKind } from "~/gear/kinds";

@@ -1,7 +1,9 @@
 // A plan ready for review: a 2000 kg two-point element with M30 collar eyebolts (DIN 580 M30:
-// 2300 kg per eyebolt up to 45 deg) and 10 mm grade 8 chain legs (EN 818-4: 3.15 t single leg)
-// allocated, every check passing with the legs 30 deg from vertical.
-import { getPlan, savePlanRevision } from "~/models/plan.server";
+// 2300 kg per eyebolt up to 45 deg), 10 mm grade 8 chain legs (EN 818-4: 3.15 t single leg), a
+// master link and a 10 t crane allocated (a complete load path), every check passing with the legs
+// 30 deg from vertical.
+import { getPlan } from "~/models/plan.server";
+import { savePlanRevision } from "~/plans/revisions.server";
 import { getOrganisation, updateOrganisationSettings } from "~/models/organisation.server";
 import type { SessionUser } from "~/models/user.server";
 import { makeUser } from "./factories";
@@ -38,6 +40,8 @@ export async function readyPlan(options: { overdueEyebolt?: boolean } = {}) {
     legs: 1,
     lengthM: 1.8,
   });
+  const masterLink = await makeGear(org, "master_link", { wllKg: 6700 });
+  const crane = await makeGear(org, "crane", { wllKg: 10000 });
   const found = (await getPlan(org, plan.id))!;
   const saved = await savePlanRevision(
     org,
@@ -51,13 +55,15 @@ export async function readyPlan(options: { overdueEyebolt?: boolean } = {}) {
           A: { eyeboltItemId: eyeboltA.id, slingItemId: slingA.id, hitch: "straight" },
           B: { eyeboltItemId: eyeboltB.id, slingItemId: slingB.id, hitch: "straight" },
         },
+        masterLinkItemId: masterLink.id,
+        craneItemId: crane.id,
       },
       details: found.revision.details,
     },
     planner.id,
   );
   if (saved.status !== "saved") throw new Error(`could not prepare the plan: ${JSON.stringify(saved)}`);
-  return { planner, approver, rigger, plan, gear: { eyeboltA, eyeboltB, slingA, slingB } };
+  return { planner, approver, rigger, plan, gear: { eyeboltA, eyeboltB, slingA, slingB, masterLink, crane } };
 }
 
 export async function allowSelfApproval(user: SessionUser) {

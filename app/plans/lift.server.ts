@@ -1,0 +1,97 @@
+// Recording the lift: the rigger's record completes the current approved revision, only while every
+// pre-lift check is ticked and the gear it allocates is still fit to lift on the day of the lift.
+import { recordAudit } from "~/models/audit-event.server";
+import { createLiftRecord } from "~/models/lift-record.server";
+import { addLiftRecordPhoto } from "~/models/lift-record-photo.server";
+import { getPlanForWorkflow, moveRevision } from "~/models/plan.server";
+import type { SessionUser } from "~/models/user.server";
+import { notFitSentence } from "~/plans/live-state";
+import { liveStateOf } from "~/plans/live-state.server";
+import { readSealed } from "~/plans/sealed";
+import { PRE_LIFT_CHECKLIST, type ChecklistId } from "~/plans/workflow";
+import { ENTITY, fail, NOT_FOUND, refusal, type WorkflowResult } from "~/plans/workflow-context.server";
+import { transactionWithFiles, type CheckedUpload } from "~/utils/uploads.server";
+
+export type LiftRecordInput = {
+  checklist: Record<ChecklistId, boolean>;
+  liftedAt: Date;
+  notes: string;
+  nearMiss: boolean;
+  nearMissDetails: string;
+};
+
+/** Records the lift on the current approved revision, which becomes completed; every checklist item must be ticked. */
+export async function recordLift(
+  organisationId: number,
+  planId: number,
+  user: SessionUser,
+  input: LiftRecordInput,
+  photos: readonly CheckedUpload[] = [],
+): Promise<WorkflowResult> {
+  const unticked = PRE_LIFT_CHECKLIST.filter((c) => !input.checklist[c.id]);
+  if (unticked.length)
+    return fail(
+      400,
+      `Tick every pre-lift check before recording the lift: ${unticked.map((c) => c.text.toLowerCase()).join("; ")}.`,
+      `check-${unticked[0]!.id}`,
+    );
+  if (input.nearMiss && input.nearMissDetails.trim().length < 5)
+    return fail(400, "Describe the near miss.", "nearMissDetails");
+  if (input.liftedAt.getTime() > Date.now() + 5 * 60_000)
+    return fail(400, "The lift time cannot be in the future.", "liftedAt");
+  return transactionWithFiles(async (transaction, store): Promise<WorkflowResult> => {
+    const loaded = await getPlanForWorkflow(organisationId, planId, transaction);
+    if (!loaded) return fail(404, NOT_FOUND);
+    if (!loaded.approved) return fail(409, "Only the current approved revision can be lifted and recorded.");
+    const sealed = readSealed(loaded.approved.sealed);
+    if (!sealed)
+      return fail(
+        409,
+        "This revision was approved before approved plans were sealed, so its gear cannot be checked: start a new revision and have it approved.",
+      );
+    // The server re-checks the gear at the moment of recording, whatever the page showed.
+    const live = await liveStateOf(organisationId, sealed, {
+      liftDate: input.liftedAt.toISOString().slice(0, 10),
+      transaction,
+    });
+    const refused = await refusal("record-lift", user, loaded, loaded.approved, {
+      ...(live.fit ? {} : { notFitToLift: notFitSentence(live) }),
+    });
+    if (refused) return refused;
+    const completed = await moveRevision(
+      loaded.approved.id,
+      "approved",
+      { status: "completed", closedAt: new Date() },
+      transaction,
+    );
+    if (!completed) return fail(409, "This lift has just been recorded by someone else.");
+    const record = await createLiftRecord(
+      {
+        revisionId: loaded.approved.id,
+        checklist: JSON.stringify(input.checklist),
+        liftedAt: input.liftedAt,
+        notes: input.notes.trim().slice(0, 4000),
+        nearMiss: input.nearMiss,
+        nearMissDetails: input.nearMiss ? input.nearMissDetails.trim().slice(0, 4000) : "",
+        recordedBy: user.id,
+      },
+      transaction,
+    );
+    for (const photo of photos) {
+      const stored = await store(photo, { organisationId, purpose: "photo", uploadedBy: user.id });
+      await addLiftRecordPhoto(record.id, stored.id, transaction);
+    }
+    await recordAudit(
+      {
+        organisationId,
+        userId: user.id,
+        entity: ENTITY,
+        entityId: planId,
+        action: "lift recorded",
+        details: { revision: loaded.approved.revision, nearMiss: input.nearMiss },
+      },
+      transaction,
+    );
+    return { ok: true };
+  });
+}
