@@ -34,11 +34,40 @@ export const HEADINGS: Record<string, string> = {
   hitch: "Hitch",
   factor: "Factor",
   effectiveLegs: "Legs taken to carry",
+  ruleSet: "Rule set",
+  endlessChokeT: "Endless sling, choke (t)",
+  id: "Id",
+  name: "Rule set",
+  standards: "Standards",
+  verticalDeg: "Counts as vertical up to (°)",
+  warnDeg: "Warns past (° from vertical)",
+  maxDeg: "Fails past (° from vertical)",
+  angleSource: "Angle limits from",
+  collarEyebolts: "Collar eyebolts rated by",
+  shoulderEyebolts: "Shoulder eyebolts rated by",
+  plainEyebolts: "Plain eyebolts rated by",
+  eyeboltSource: "Eyebolt tables from",
+  accessoryExaminationMonths: "Accessories examined at least every (months)",
+  equipmentExaminationMonths: "Other lifting equipment at least every (months)",
+  examinationSource: "Examination intervals from",
+  sharedShackleMaxDeg: "Two legs on one shackle, included angle at most (°)",
 };
 
 /** Values as a rigger reads them: units spelt as marked, and flags in words. */
 export function cellText(column: string, value: string) {
   if (column === "andAbove") return value === "true" ? "and above" : "exactly";
+  if (column === "ruleSet" || column === "id")
+    return ({ "uk-eu": "UK / EU", us: "US" } as Record<string, string>)[value] ?? value;
+  if (column.endsWith("Eyebolts"))
+    return (
+      (
+        {
+          din580: "DIN 580 table",
+          "shoulder-percent": "shoulder % table",
+          "in-line-only": "in-line pull only",
+        } as Record<string, string>
+      )[value] ?? value
+    );
   if (column === "unit")
     return ({ t: "t", kg: "kg", lb: "lb", shortTon: "US short tons" } as Record<string, string>)[value] ?? value;
   return value;

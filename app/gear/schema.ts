@@ -200,7 +200,7 @@ export const examinationSchema = z
     defectUrgency: z.enum(DEFECT_URGENCIES, { error: "Choose how urgent the defects are." }).default("none"),
     defectsDueBy: z.preprocess(
       blankToNull,
-      z.string().refine(isIsoDate, "Give the date as a date (YYYY-MM-DD).").nullable(),
+      safeText().refine(isIsoDate, "Give the date as a date (YYYY-MM-DD).").nullable(),
     ),
     schemeReference: text(200),
     nextDueOn: z.preprocess(

@@ -55,8 +55,8 @@ export async function listItemIdsInApprovedRevisions(organisationId: number) {
     `SELECT DISTINCT i.gear_item_id AS gearItemId
      FROM plan_revision_items i
      JOIN plan_revisions r ON r.id = i.revision_id AND r.status = 'approved'
-     JOIN plans p ON p.id = r.plan_id AND p.organisation_id = :organisationId`,
-    { replacements: { organisationId }, type: QueryTypes.SELECT },
+     JOIN plans p ON p.id = r.plan_id AND p.organisation_id = $organisationId`,
+    { bind: { organisationId }, type: QueryTypes.SELECT },
   );
   return rows.map((r) => r.gearItemId);
 }

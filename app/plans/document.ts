@@ -219,8 +219,7 @@ export const detailsSchema = z.object({
     .min(0, "The floor clearance cannot be negative.")
     .max(MAX_FLOOR_CLEARANCE_M, `The floor clearance is at most ${MAX_FLOOR_CLEARANCE_M} m.`),
   /** The planned lift date, YYYY-MM-DD: every item must be in date for examination then (and today). */
-  liftDate: z
-    .string({ error: "Give the lift date as YYYY-MM-DD." })
+  liftDate: safeText({ error: "Give the lift date as YYYY-MM-DD." })
     .regex(/^\d{4}-\d{2}-\d{2}$/, "Give the lift date as YYYY-MM-DD.")
     .refine(
       (v) => !Number.isNaN(Date.parse(`${v}T00:00:00Z`)) && new Date(`${v}T00:00:00Z`).toISOString().startsWith(v),

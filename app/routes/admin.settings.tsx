@@ -3,7 +3,7 @@ import { z } from "zod";
 import type { Route } from "./+types/admin.settings";
 import { Button, Card, Field, PageHeader, SelectField } from "~/components/ui/form";
 import { DEFAULT_TIME_ZONE, formatDate, isTimeZone, todayIn } from "~/utils/dates";
-import { parseForm, requiredText, requireFormData } from "~/utils/forms";
+import { parseForm, requiredText, requireFormData, safeText } from "~/utils/forms";
 import { recordAudit } from "~/models/audit-event.server";
 import { getOrganisation, updateOrganisationSettings } from "~/models/organisation.server";
 import { getReferenceTables } from "~/models/reference-row.server";
@@ -16,8 +16,7 @@ const schema = z.object({
   // Absent (an older form): the organisation keeps its rules.
   ruleSet: z.enum(RULE_SET_IDS, { error: "Choose the rules your organisation works to: UK / EU or US." }).optional(),
   // Left out of a form that does not show it: the zone stays as it is.
-  timeZone: z
-    .string()
+  timeZone: safeText()
     .trim()
     .refine(isTimeZone, "Choose a time zone from the list, written as Region/City (for example Europe/London).")
     .optional(),

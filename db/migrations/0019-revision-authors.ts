@@ -33,12 +33,12 @@ export const up: Migration = async ({ context: qi }) => {
   for (const [action, act] of ACTS) {
     await qi.sequelize.query(
       `INSERT OR IGNORE INTO plan_revision_authors (revision_id, user_id, act, first_at, last_at)
-       SELECT r.id, e.user_id, :act, MIN(e.created_at), MAX(e.created_at)
+       SELECT r.id, e.user_id, $act, MIN(e.created_at), MAX(e.created_at)
        FROM audit_events e
        JOIN plan_revisions r ON r.plan_id = e.entity_id AND r.revision = json_extract(e.details, '$.revision')
-       WHERE e.entity = 'plan' AND e.action = :action AND e.user_id IS NOT NULL AND json_valid(e.details)
+       WHERE e.entity = 'plan' AND e.action = $action AND e.user_id IS NOT NULL AND json_valid(e.details)
        GROUP BY r.id, e.user_id`,
-      { replacements: { act, action } },
+      { bind: { act, action } },
     );
   }
 };

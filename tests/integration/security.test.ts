@@ -340,7 +340,7 @@ describe("the app as served", () => {
         ["/", { Cookie: cookie }],
         ["/settings", { Cookie: cookie }],
         ["/admin", { Cookie: cookie }],
-        ["/_root.data", { Cookie: cookie }],
+        ["/_.data", { Cookie: cookie }],
         ["/api/ping", { Cookie: cookie }],
         ["/api/plans", { Cookie: cookie }],
         ["/api/ping", {}],

@@ -6,6 +6,14 @@ import { degText, knText, loadText, percentUp, tensionMassNumber, utcText, VERDI
 import { CONTENT_W, INK, INK_SOFT, LEFT, STEEL, TONE, type Flow } from "~/plans/pdf/layout.server";
 import { cell, heading, table, type Column } from "~/plans/pdf/tables.server";
 import type { PrintablePlan } from "~/plans/printable";
+import { checkSentence, itemText, ruleText } from "~/plans/check-text";
+import { DEFAULT_RULE_SET, type RuleSetId } from "~/statics/reference";
+
+/** How the printed plan names each rule set. */
+const RULE_SET_TITLES: Record<RuleSetId, string> = {
+  "uk-eu": "UK / EU (LOLER 1998, BS 7121, EN 13414-1, EN 818-4, EN 1492, DIN 580, EN 13889)",
+  us: "US (OSHA 29 CFR 1910.184, ASME B30.9, B30.26, B30.20, ASME B18.15)",
+};
 import { ceilTo } from "~/statics/units";
 import { formatLength, formatMass, massUnitLabel } from "~/utils/format";
 
@@ -60,6 +68,7 @@ export function riggingSection(flow: Flow, plan: PrintablePlan) {
     beam
       ? `Beam: own mass ${formatMass(beam.massKg, units)}, marked WLL ${formatMass(beam.wllKg, units)}, drops ${formatLength(beam.dropLengthM, units)}; the hook carries ${loadText(plan.results.beam?.hookMassKg ?? 0, units)}.`
       : "",
+    `Worked out under the ${RULE_SET_TITLES[plan.results.ruleSet ?? DEFAULT_RULE_SET]} rule set: its hitch and multi-leg factors, angle limits, eyebolt and shackle tables and examination intervals. Local lifting regulations and the appointed person decide.`,
     `${plan.results.method === "elastic" ? "Shared between the legs elastically (a rigid load on equal slings)" : "Found by statics alone (the legs' share is fixed by the geometry)"}. ${plan.results.rating.rule}`,
   ].filter((s) => s !== "");
   for (const n of notes) flow.paragraph(n, { font: flow.fonts.regular, size: 7, color: INK_SOFT }, { gapAfter: 1 });
@@ -121,6 +130,7 @@ export function checksSection(flow: Flow, plan: PrintablePlan) {
   // Worst first, so a failure or a warning is never buried under passes; otherwise as computed.
   const rank = { fail: 0, warn: 1, pass: 2 };
   const checks = [...(plan.results.checks ?? [])].sort((a, b) => rank[a.status] - rank[b.status]);
+  const inUnits = plan.units;
   const body = { font: flow.fonts.regular, size: 8, color: INK };
   const strong = { font: flow.fonts.semibold, size: 8, color: INK };
   const small = { font: flow.fonts.regular, size: 6.5, color: INK_SOFT };
@@ -144,11 +154,11 @@ export function checksSection(flow: Flow, plan: PrintablePlan) {
       accent: c.status === "pass" ? undefined : TONE[c.status],
       cells: [
         cell(flow, cols[0]!.width, [], { tag: { text: VERDICT[c.status], tone: c.status } }),
-        cell(flow, cols[1]!.width, [{ text: c.item, style: strong }]),
+        cell(flow, cols[1]!.width, [{ text: itemText(c), style: strong }]),
         cell(flow, cols[2]!.width, [{ text: percentUp(c.utilisation), style: strong }]),
         cell(flow, cols[3]!.width, [
-          { text: c.message, style: body },
-          { text: `Rule: ${c.rule}  Source: ${c.source}`, style: small },
+          { text: checkSentence(c, inUnits), style: body },
+          { text: `Rule: ${ruleText(c, inUnits)}  Source: ${c.source}`, style: small },
         ]),
       ],
     }));
