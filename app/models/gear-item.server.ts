@@ -12,9 +12,9 @@ import {
 import { sequelize } from "~/utils/db.server";
 import { dueState, DUE_SOON_DAYS, type DueState } from "~/gear/due";
 import { addDays } from "~/utils/dates";
-import { GEAR_STATUS_LABELS, SPEC_FIELDS, type GearKind, type GearStatus } from "~/gear/kinds";
+import { SPEC_FIELDS, type GearKind, type GearStatus } from "~/gear/kinds";
 import type { GearItemInput } from "~/gear/schema";
-import { AuditEvent, listAuditEvents, recordAudit } from "~/models/audit-event.server";
+import { AuditEvent, recordAudit } from "~/models/audit-event.server";
 import { Site } from "~/models/site.server";
 import { User } from "~/models/user.server";
 import { massToKg, type MassUnit } from "~/statics/units";
@@ -95,7 +95,8 @@ GearItem.init(
 GearItem.belongsTo(Site, { foreignKey: "homeSiteId", as: "homeSite" });
 GearItem.belongsTo(User, { foreignKey: "statusChangedBy", as: "statusChanger" });
 
-const ENTITY = "gear_item";
+export const GEAR_ENTITY = "gear_item";
+const ENTITY = GEAR_ENTITY;
 
 /** The stored columns for a checked input: the marked WLL as marked, plus its value in kg. */
 function columnsFor(input: GearItemInput) {
@@ -360,8 +361,6 @@ export async function updateGearItem(organisationId: number, itemId: number, inp
   });
 }
 
-export type StatusChangeResult = { ok: true; item: GearItem } | { ok: false; message: string };
-
 /** Sets an item's status inside `transaction`, with the reason, who and when, and records it in the audit trail. */
 export async function setGearStatus(
   item: GearItem,
@@ -389,109 +388,6 @@ export async function setGearStatus(
     },
     transaction,
   );
-}
-
-/**
- * An admin's change of status, along the item's life: in service -> quarantined -> withdrawn, or in
- * service -> withdrawn. Withdrawn is final (the item stays on record and is never allocated again),
- * and a quarantined item returns to service only through a passed thorough examination recorded
- * after it was quarantined (recordExamination), never by a change of status alone.
- */
-export async function changeGearStatus(
-  organisationId: number,
-  itemId: number,
-  change: { status: GearStatus; reason: string },
-  actorId: number,
-): Promise<StatusChangeResult> {
-  return sequelize.transaction(async (transaction) => {
-    const item = await GearItem.findOne({ where: { organisationId, id: itemId }, transaction });
-    if (!item) return { ok: false, message: "There is no such item in your organisation." };
-    if (item.status === change.status)
-      return { ok: false, message: `The item is already ${GEAR_STATUS_LABELS[change.status].toLowerCase()}.` };
-    if (item.status === "withdrawn")
-      return {
-        ok: false,
-        message:
-          "Withdrawn is final: the item stays on record but can never be used or allocated again. Register a replacement.",
-      };
-    if (change.status === "in_service")
-      return {
-        ok: false,
-        message:
-          "A quarantined item returns to service only through a passed thorough examination recorded after it was quarantined: record the examination, and a pass returns it to service.",
-      };
-    await setGearStatus(item, { ...change, actorId }, transaction);
-    return { ok: true, item };
-  });
-}
-
-/**
- * A defect reported by anyone who handles the item: an item in service is quarantined at once
- * with the report as its reason; an item already out of service keeps its status, and the report
- * is recorded either way.
- */
-export async function reportGearDefect(
-  organisationId: number,
-  itemId: number,
-  defect: string,
-  reporter: { id: number; name: string },
-) {
-  return sequelize.transaction(async (transaction) => {
-    const item = await GearItem.findOne({ where: { organisationId, id: itemId }, transaction });
-    if (!item) return null;
-    const quarantined = item.status === "in_service";
-    if (quarantined) {
-      await setGearStatus(
-        item,
-        {
-          status: "quarantined",
-          reason: `Defect reported by ${reporter.name}: ${defect}`,
-          actorId: reporter.id,
-          action: "defect reported",
-          details: { defect },
-        },
-        transaction,
-      );
-    } else {
-      await recordAudit(
-        {
-          organisationId,
-          userId: reporter.id,
-          entity: ENTITY,
-          entityId: item.id,
-          action: "defect reported",
-          details: { defect, from: item.status, to: item.status },
-        },
-        transaction,
-      );
-    }
-    return { item, quarantined };
-  });
-}
-
-export type GearHistoryEntry = {
-  id: number;
-  at: string;
-  who: string;
-  action: string;
-  details: Record<string, unknown>;
-};
-
-/** The item's audit trail, oldest first, with the name of whoever acted. */
-export async function listGearHistory(organisationId: number, itemId: number): Promise<GearHistoryEntry[]> {
-  const events = await listAuditEvents(organisationId, ENTITY, itemId);
-  const userIds = [...new Set(events.map((e) => e.userId).filter((id): id is number => id !== null))];
-  const users = userIds.length
-    ? await User.findAll({ where: { organisationId, id: userIds }, attributes: ["id", "name"] })
-    : [];
-  const names = new Map(users.map((u) => [u.id, u.name]));
-  return events.map((e) => ({
-    id: e.id,
-    at: e.createdAt.toISOString(),
-    who: e.userId === null ? "Plumbline" : (names.get(e.userId) ?? "a former user"),
-    action: e.action,
-    details: e.details ? (JSON.parse(e.details) as Record<string, unknown>) : {},
-  }));
 }
 
 /**

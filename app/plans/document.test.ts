@@ -2,15 +2,12 @@ import { describe, expect, it } from "vitest";
 import { rectangleOutlines, type ComponentDefinition } from "~/loads/component-definition";
 import {
   arrangementSchema,
-  defaultArrangement,
-  defaultDetails,
-  defaultSequence,
   detailsSchema,
   diffComponentDefinitions,
-  fitToSnapshot,
   planPutSchema,
   snapshotIssues,
 } from "~/plans/document";
+import { defaultArrangement, defaultDetails, defaultSequence, fitToSnapshot } from "~/plans/defaults";
 
 function element(overrides: Partial<ComponentDefinition> = {}): ComponentDefinition {
   return {

@@ -20,10 +20,7 @@ import { recordRevisionAuthor } from "~/models/plan-revision-author.server";
 import { getReferenceTables } from "~/models/reference-row.server";
 import {
   applyLoadEdit,
-  defaultArrangement,
-  defaultDetails,
   diffComponentDefinitions,
-  fitToSnapshot,
   snapshotIssues,
   type ComponentChange,
   type LoadEdit,
@@ -32,6 +29,7 @@ import {
   type PlanStatus,
   type RiggingAllocation,
 } from "~/plans/document";
+import { defaultArrangement, defaultDetails, fitToSnapshot } from "~/plans/defaults";
 import { computePlanResults } from "~/plans/results.server";
 
 const ENTITY = "plan";

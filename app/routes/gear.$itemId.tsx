@@ -15,7 +15,7 @@ import { formatDateTime } from "~/utils/dates";
 import { getOrganisationRuleSet, getOrganisationTimeZone, getOrganisationToday } from "~/models/organisation.server";
 import { GEAR_KIND_INFO, GEAR_STATUS_LABELS, GEAR_STATUSES, SPEC_FIELD_LABELS, type GearStatus } from "~/gear/kinds";
 import { listExaminations } from "~/models/examination.server";
-import { listGearHistory, type GearHistoryEntry } from "~/models/gear-item.server";
+import { listGearHistory, type GearHistoryEntry } from "~/gear/history.server";
 import { getReferenceTables } from "~/models/reference-row.server";
 import { ruleSetRow } from "~/statics/rule-sets";
 import { formatMass } from "~/utils/format";

@@ -8,7 +8,8 @@ import { getPlan, Plan } from "~/models/plan.server";
 import { createPlanFromComponent, savePlanRevision } from "~/plans/revisions.server";
 import { findUserByEmail } from "~/models/user.server";
 import type { GearKind } from "~/gear/kinds";
-import { defaultDetails, type PlanDetails, type RiggingAllocation } from "~/plans/document";
+import { type PlanDetails, type RiggingAllocation } from "~/plans/document";
+import { defaultDetails } from "~/plans/defaults";
 
 type DemoPlan = {
   workOrder: string;

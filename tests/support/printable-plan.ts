@@ -1,7 +1,8 @@
 // Printable plans for the PDF tests and the PDF benchmark, built from a real statics solve of an
 // invented scenario (invented organisation, site, people and gear).
 import type { ComponentDefinition } from "~/loads/component-definition";
-import { defaultSequence, type PlanResultsBody } from "~/plans/document";
+import { type PlanResultsBody } from "~/plans/document";
+import { defaultSequence } from "~/plans/defaults";
 import type { PrintablePlan, PrintableScheduleRow } from "~/plans/printable";
 import { handleSolve, type SolveBody } from "~/statics/api";
 import { REFERENCE_TABLES } from "../../db/seeders/reference-data";
