@@ -86,7 +86,12 @@ describe("a planner traces over the component's drawing", () => {
     const right = await drawingPixelOnScreen(page, { x: 880, y: DIMENSION_Y });
     const a = await liftPointOnScreen(page, "A");
     const b = await liftPointOnScreen(page, "B");
-    const metreOnScreen = Math.abs(b.x - a.x) / 1.0; // the demo's A and B are 1,000 mm apart
+    // Other tests may have moved the demo's lift points: take their distance apart from the saved plan.
+    const saved = (await savedPlan(page)).snapshot.liftPoints;
+    const apartM = Math.abs(
+      saved.find((p) => p.label === "B")!.position.x - saved.find((p) => p.label === "A")!.position.x,
+    );
+    const metreOnScreen = Math.abs(b.x - a.x) / apartM;
     expect(Math.abs(right.x - left.x)).toBeCloseTo(metreOnScreen, 0);
     await screenshot(page, "editor-tracing");
 
