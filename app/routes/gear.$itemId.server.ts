@@ -95,7 +95,7 @@ export async function handleGearItemAction(request: Request, user: SessionUser, 
       request,
     );
     if (!report) throw data({ message: "There is no such item in your organisation's register." }, { status: 404 });
-    let mailNote = "";
+    let mailNote: string;
     try {
       const sent = await sendDefectReportMail(
         user.organisationId,

@@ -1,4 +1,4 @@
-import { useEffect, useState } from "react";
+import { useSyncExternalStore } from "react";
 import { data } from "react-router";
 import type { Route } from "./+types/plans.$planId.edit";
 import { PlanEditor } from "~/components/plan-editor";
@@ -52,10 +52,15 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   };
 }
 
+const noSubscription = () => () => undefined;
+
+/** False while rendering on the server and hydrating, true once running in the browser. */
 function useHydrated() {
-  const [hydrated, setHydrated] = useState(false);
-  useEffect(() => setHydrated(true), []);
-  return hydrated;
+  return useSyncExternalStore(
+    noSubscription,
+    () => true,
+    () => false,
+  );
 }
 
 export default function EditPlan({ loaderData }: Route.ComponentProps) {

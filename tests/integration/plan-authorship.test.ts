@@ -185,7 +185,7 @@ describe("anyone who wrote a revision is its author", () => {
   });
 
   it("submitting it", async () => {
-    const { org, sam, plan } = await setUp();
+    const { sam, plan } = await setUp();
     const res = await callRoute(submit.action, await postForm(`/plans/${plan.id}/submit`, {}, sam), {
       planId: String(plan.id),
     });

@@ -9,7 +9,7 @@ import { settleBackgroundWork } from "~/utils/background.server";
 import { addressKeyOf, clientAddressKey, isCrossSiteMutation, securityHeaders } from "~/utils/security.server";
 import { checkUpload, transactionWithFiles } from "~/utils/uploads.server";
 import { createAppHandler } from "../support/app-handler";
-import { callRoute, makeUser, postForm, sessionCookie, TEST_PASSWORD } from "../support/factories";
+import { callRoute, makeUser, sessionCookie, TEST_PASSWORD } from "../support/factories";
 import { PNG_BYTES } from "../support/gear";
 import { makePlan } from "../support/plans";
 

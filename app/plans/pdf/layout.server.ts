@@ -76,8 +76,6 @@ export class Typesetter {
           continue;
         }
         if (line) lines.push(line);
-        line = "";
-        lineW = 0;
         while (wordW > width) {
           let cut = word.length - 1;
           while (cut > 1 && this.width(word.slice(0, cut), font, size) > width) cut--;
