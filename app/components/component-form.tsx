@@ -1,7 +1,10 @@
 import { useMemo, useState } from "react";
 import { Form, useNavigation } from "react-router";
+import { LiftPointsCard } from "~/components/component-form/lift-points";
+import { PartsCard } from "~/components/component-form/parts";
+import { newRowKey, toNumber, type Errors, type LiftRow, type PartRow } from "~/components/component-form/rows";
 import { ComponentViews } from "~/components/component-views";
-import { Button, Card, Field, FieldError, FormError, SelectField, TextAreaField } from "~/components/ui/form";
+import { Button, Card, Field, FormError, SelectField, TextAreaField } from "~/components/ui/form";
 import {
   COG_SOURCE_LABELS,
   COG_SOURCES,
@@ -12,14 +15,10 @@ import {
   type ComponentDefinition,
   type MassSource,
 } from "~/loads/component-definition";
-import { MAX_LIFT_POINTS, MAX_PARTS } from "~/loads/component-input";
-import { compositeMassAndCog } from "~/statics/composite";
+import type { CompositeResult } from "~/statics/composite";
 import { convertLength } from "~/statics/units";
 import {
-  formatLength,
-  formatMass,
   fromDisplayLength,
-  fromDisplayMass,
   inputNumber,
   lengthUnitLabel,
   massUnitLabel,
@@ -27,28 +26,6 @@ import {
   toDisplayMass,
   type Units,
 } from "~/utils/format";
-
-type Errors = Record<string, string[] | undefined>;
-type LiftRow = {
-  key: number;
-  label: string;
-  x: string;
-  y: string;
-  z: string;
-  ax: string;
-  ay: string;
-  az: string;
-  thread: string;
-  engagement: string;
-};
-type PartRow = { key: number; name: string; mass: string; x: string; y: string; z: string };
-
-let nextKey = 1;
-
-function toNumber(v: string) {
-  const n = Number(v.replace(/,/g, ""));
-  return v.trim() !== "" && Number.isFinite(n) ? n : null;
-}
 
 function initialState(def: ComponentDefinition | null, units: Units) {
   const len = (m: number) => inputNumber(toDisplayLength(m, units), units === "metric" ? 1 : 3);
@@ -79,7 +56,7 @@ function initialState(def: ComponentDefinition | null, units: Units) {
       outlinePlan: def ? def.outlinePlan.map(([a, b]) => `${len(a)}, ${len(b)}`).join("\n") : "",
     },
     liftPoints: (def?.liftPoints ?? []).map<LiftRow>((p) => ({
-      key: nextKey++,
+      key: newRowKey(),
       label: p.label,
       x: len(p.position.x),
       y: len(p.position.y),
@@ -94,7 +71,7 @@ function initialState(def: ComponentDefinition | null, units: Units) {
           : inputNumber(units === "metric" ? p.engagementMm : convertLength(p.engagementMm, "mm", "in"), 2),
     })),
     parts: (def?.parts ?? []).map<PartRow>((p) => ({
-      key: nextKey++,
+      key: newRowKey(),
       name: p.name,
       mass: mass(p.massKg),
       x: len(p.position.x),
@@ -129,29 +106,6 @@ export function ComponentForm({
     (field: keyof typeof head) => (e: React.ChangeEvent<HTMLInputElement | HTMLSelectElement | HTMLTextAreaElement>) =>
       setHead((h) => ({ ...h, [field]: e.target.value }));
 
-  const composite = useMemo(() => {
-    const parsed = parts.map((p) => ({
-      name: p.name,
-      mass: toNumber(p.mass),
-      x: toNumber(p.x),
-      y: toNumber(p.y),
-      z: toNumber(p.z),
-    }));
-    if (!parsed.length || parsed.some((p) => p.mass === null || p.x === null || p.y === null || p.z === null))
-      return null;
-    return compositeMassAndCog(
-      parsed.map((p) => ({
-        name: p.name,
-        massKg: fromDisplayMass(p.mass!, units),
-        position: {
-          x: fromDisplayLength(p.x!, units),
-          y: fromDisplayLength(p.y!, units),
-          z: fromDisplayLength(p.z!, units),
-        },
-      })),
-    );
-  }, [parts, units]);
-
   const preview = useMemo(() => {
     const [l, w, h] = [toNumber(head.length), toNumber(head.width), toNumber(head.height)];
     if (!l || !w || !h || l <= 0 || w <= 0 || h <= 0) return null;
@@ -185,8 +139,7 @@ export function ComponentForm({
     };
   }, [head, liftPoints, units]);
 
-  function applyComposite() {
-    if (!composite) return;
+  function applyComposite(composite: CompositeResult) {
     const len = (m: number) => inputNumber(toDisplayLength(m, units), units === "metric" ? 1 : 3);
     setHead((h) => ({
       ...h,
@@ -213,14 +166,6 @@ export function ComponentForm({
       outlinePlan: fmt(r.outlinePlan),
     }));
   }
-
-  const nextLabel = () => {
-    const used = new Set(liftPoints.map((p) => p.label.toUpperCase()));
-    for (const c of "ABCDEFGHJKLMNPQRSTUVWXYZ") if (!used.has(c)) return c;
-    return "";
-  };
-
-  const rowError = (key: string) => errors[key];
 
   return (
     <Form method="post" className="space-y-6">
@@ -368,176 +313,15 @@ export function ComponentForm({
             </div>
           </Card>
 
-          <Card title="Lift points">
-            <p className="mb-3 text-sm text-ink-soft">
-              Each point is where a leg's line of force acts (the eye of the eyebolt, the shackle pin). The axis is the
-              direction out of the tapped hole's surface: 0, 0, 1 for a hole in the top face.
-            </p>
-            <FieldError errors={errors.liftPoints} />
-            {liftPoints.length > 0 && (
-              // One block per point whose fields wrap to the card's width: nothing is clipped at any screen size.
-              <div className="space-y-3">
-                {liftPoints.map((p, i) => {
-                  const update = (field: keyof LiftRow) => (e: React.ChangeEvent<HTMLInputElement>) =>
-                    setLiftPoints((rows) => rows.map((r) => (r.key === p.key ? { ...r, [field]: e.target.value } : r)));
-                  const cell = (field: keyof LiftRow, label: string, heading: string, width = "w-20") => (
-                    <label className="flex flex-col text-xs font-medium text-ink-soft">
-                      <span aria-hidden="true">{heading}</span>
-                      <input
-                        aria-label={`Lift point ${i + 1} ${label}`}
-                        name={`lp-${i}-${field}`}
-                        value={p[field]}
-                        onChange={update(field)}
-                        className={`${width} mt-0.5 rounded border border-rule px-2 py-1 text-sm text-ink aria-[invalid=true]:border-fail`}
-                        aria-invalid={rowError(`lp-${i}-${field}`) ? true : undefined}
-                      />
-                      <FieldError errors={rowError(`lp-${i}-${field}`)} />
-                    </label>
-                  );
-                  return (
-                    <fieldset key={p.key} className="rounded border border-rule p-2">
-                      <legend className="px-1 text-sm font-semibold">Lift point {p.label || i + 1}</legend>
-                      <div className="flex flex-wrap items-end gap-x-3 gap-y-2">
-                        {cell("label", "id", "Id", "w-14")}
-                        {cell("x", "x", `x (${lu})`)}
-                        {cell("y", "y", `y (${lu})`)}
-                        {cell("z", "z", `z (${lu})`)}
-                        {cell("ax", "axis x", "Axis x", "w-14")}
-                        {cell("ay", "axis y", "Axis y", "w-14")}
-                        {cell("az", "axis z", "Axis z", "w-14")}
-                        {cell("thread", "thread", "Thread")}
-                        {cell("engagement", "thread engagement", `Engagement (${lu})`)}
-                        <button
-                          type="button"
-                          className="min-h-9 text-sm text-fail underline"
-                          onClick={() => setLiftPoints((rows) => rows.filter((r) => r.key !== p.key))}
-                        >
-                          Remove {p.label || "point"}
-                        </button>
-                      </div>
-                    </fieldset>
-                  );
-                })}
-              </div>
-            )}
-            <Button
-              type="button"
-              tone="secondary"
-              className="mt-3"
-              disabled={liftPoints.length >= MAX_LIFT_POINTS}
-              onClick={() =>
-                setLiftPoints((rows) => [
-                  ...rows,
-                  {
-                    key: nextKey++,
-                    label: nextLabel(),
-                    x: "",
-                    y: "",
-                    z: head.height,
-                    ax: "0",
-                    ay: "0",
-                    az: "1",
-                    thread: "",
-                    engagement: "",
-                  },
-                ])
-              }
-            >
-              Add a lift point
-            </Button>
-          </Card>
+          <LiftPointsCard
+            liftPoints={liftPoints}
+            setLiftPoints={setLiftPoints}
+            newPointZ={head.height}
+            errors={errors}
+            units={units}
+          />
 
-          <Card title="Composite calculator">
-            <p className="mb-3 text-sm text-ink-soft">
-              Build the mass and CoG from parts (for example the element, a fitted gear and the coupling): G = Σ mᵢ rᵢ /
-              Σ mᵢ.
-            </p>
-            <FieldError errors={errors.parts} />
-            {parts.length > 0 && (
-              <div className="overflow-x-auto">
-                <table className="min-w-[40rem]">
-                  <thead>
-                    <tr>
-                      <th scope="col">Part</th>
-                      <th scope="col">Mass ({mu})</th>
-                      <th scope="col">x ({lu})</th>
-                      <th scope="col">y ({lu})</th>
-                      <th scope="col">z ({lu})</th>
-                      <th scope="col">
-                        <span className="sr-only">Remove</span>
-                      </th>
-                    </tr>
-                  </thead>
-                  <tbody>
-                    {parts.map((p, i) => {
-                      const update = (field: keyof PartRow) => (e: React.ChangeEvent<HTMLInputElement>) =>
-                        setParts((rows) => rows.map((r) => (r.key === p.key ? { ...r, [field]: e.target.value } : r)));
-                      const cell = (field: keyof PartRow, label: string, width = "w-24") => (
-                        <>
-                          <input
-                            aria-label={`Part ${i + 1} ${label}`}
-                            name={`part-${i}-${field}`}
-                            value={p[field]}
-                            onChange={update(field)}
-                            className={`${width} rounded border border-rule px-2 py-1 text-sm`}
-                            aria-invalid={rowError(`part-${i}-${field}`) ? true : undefined}
-                          />
-                          <FieldError errors={rowError(`part-${i}-${field}`)} />
-                        </>
-                      );
-                      return (
-                        <tr key={p.key}>
-                          <td>{cell("name", "name", "w-44")}</td>
-                          <td>{cell("mass", "mass")}</td>
-                          <td>{cell("x", "x")}</td>
-                          <td>{cell("y", "y")}</td>
-                          <td>{cell("z", "z")}</td>
-                          <td>
-                            <button
-                              type="button"
-                              className="text-sm text-fail underline"
-                              onClick={() => setParts((rows) => rows.filter((r) => r.key !== p.key))}
-                            >
-                              Remove
-                            </button>
-                          </td>
-                        </tr>
-                      );
-                    })}
-                  </tbody>
-                </table>
-              </div>
-            )}
-            {composite && (
-              <div className="mt-3 rounded bg-steel-soft p-3 text-sm" data-testid="composite-result">
-                <p>
-                  Σ m = <strong>{formatMass(composite.massKg, units)}</strong>; Σ m·x, Σ m·y, Σ m·z ={" "}
-                  {[composite.momentKgM.x, composite.momentKgM.y, composite.momentKgM.z]
-                    .map((v) => v.toFixed(1))
-                    .join(", ")}{" "}
-                  kg·m
-                </p>
-                <p>
-                  G = ({formatLength(composite.cog.x, units)}, {formatLength(composite.cog.y, units)},{" "}
-                  {formatLength(composite.cog.z, units)})
-                </p>
-                <Button type="button" tone="secondary" className="mt-2" onClick={applyComposite}>
-                  Use as the component's mass and CoG
-                </Button>
-              </div>
-            )}
-            <Button
-              type="button"
-              tone="secondary"
-              className="mt-3"
-              disabled={parts.length >= MAX_PARTS}
-              onClick={() =>
-                setParts((rows) => [...rows, { key: nextKey++, name: "", mass: "", x: "0", y: "0", z: "0" }])
-              }
-            >
-              Add a part
-            </Button>
-          </Card>
+          <PartsCard parts={parts} setParts={setParts} onUseComposite={applyComposite} errors={errors} units={units} />
 
           <Card title="Outline">
             <fieldset className="space-y-2 text-sm">

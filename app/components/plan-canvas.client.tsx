@@ -5,6 +5,11 @@
 import type Konva from "konva";
 import { useEffect, useMemo, useRef, useState } from "react";
 import { Circle, Group, Image as KonvaImage, Layer, Line, Rect, Stage, Text } from "react-konva";
+import { COLOURS } from "~/components/plan-canvas/colours";
+import { FiguresBox } from "~/components/plan-canvas/figures-box";
+import { BeamDrops, BridleLegs } from "~/components/plan-canvas/legs";
+import { project, unproject } from "~/components/plan-canvas/projection";
+import { ScaleBar } from "~/components/plan-canvas/scale-bar";
 import {
   fitView,
   handleKey,
@@ -64,31 +69,6 @@ export type PlanCanvasProps = {
   label: string;
   describedBy?: string;
 };
-
-const COLOURS = {
-  outline: "#2f5d7c",
-  fill: "#dbe8f1",
-  grid: "#e6e1d6",
-  gridMajor: "#d2cbbb",
-  ink: "#17212b",
-  point: "#9a6a14",
-  pass: "#2e7346",
-  warn: "#9a5b00",
-  fail: "#a8261d",
-  none: "#3d4a57",
-  /** The selection ring: the brass of the page's focus outline. */
-  focus: "#9a6a14",
-};
-
-function project(p: Vec3, view: ViewKind) {
-  const [a, b] = VIEW_AXES[view];
-  return { a: p[a], b: p[b] };
-}
-
-function unproject(base: Vec3, view: ViewKind, a: number, b: number): Vec3 {
-  const [ka, kb] = VIEW_AXES[view];
-  return { ...base, [ka]: a, [kb]: b };
-}
 
 /** The selected handle's place in this view, in words, for the drawing's live region. */
 function describeHandle(handle: Handle, edit: PlanEdit, hook: Vec3 | null, view: ViewKind, units: Units) {
@@ -310,118 +290,29 @@ export default function PlanCanvas(props: PlanCanvasProps) {
             stroke={COLOURS.outline}
             strokeWidth={2}
           />
-          {hookScreen &&
-            beamZM === null &&
-            edit.liftPoints
-              .filter((p) => usedLabels.has(p.label))
-              .map((p) => {
-                const s = S(project(p.position, view).a, project(p.position, view).b);
-                const figure = legs.find((l) => l.label === p.label);
-                const colour = COLOURS[figure?.tone ?? "none"];
-                return (
-                  <Line
-                    key={`leg-${p.label}`}
-                    points={[hookScreen.x, hookScreen.y, s.x, s.y]}
-                    stroke={colour}
-                    strokeWidth={figure?.tone === "fail" ? 4 : 3}
-                    dash={figure?.slack ? [8, 6] : undefined}
-                  />
-                );
-              })}
-          {hookScreen &&
-            beamZM !== null &&
-            (() => {
-              const used = edit.liftPoints.filter((p) => usedLabels.has(p.label));
-              const lug = project({ x: edit.cog.x, y: edit.cog.y, z: beamZM }, view);
-              const lugScreen = S(lug.a, lug.b);
-              const ends = used.map((p) => project({ ...p.position, z: beamZM }, view));
-              const as = ends.map((e) => e.a);
-              const beamStart =
-                view === "elevation" ? S(Math.min(...as, lug.a), lug.b) : S(ends[0]?.a ?? lug.a, ends[0]?.b ?? lug.b);
-              const beamEnd =
-                view === "elevation"
-                  ? S(Math.max(...as, lug.a), lug.b)
-                  : S(ends.at(-1)?.a ?? lug.a, ends.at(-1)?.b ?? lug.b);
-              return (
-                <Group>
-                  {used.map((p) => {
-                    const figure = legs.find((l) => l.label === p.label);
-                    const bottom = S(project(p.position, view).a, project(p.position, view).b);
-                    const top = S(
-                      project({ ...p.position, z: beamZM }, view).a,
-                      project({ ...p.position, z: beamZM }, view).b,
-                    );
-                    return (
-                      <Line
-                        key={`drop-${p.label}`}
-                        points={[top.x, top.y, bottom.x, bottom.y]}
-                        stroke={COLOURS[figure?.tone ?? "none"]}
-                        strokeWidth={3}
-                      />
-                    );
-                  })}
-                  <Line
-                    points={[beamStart.x, beamStart.y, beamEnd.x, beamEnd.y]}
-                    stroke={COLOURS.ink}
-                    strokeWidth={8}
-                    lineCap="round"
-                  />
-                  <Line
-                    points={[hookScreen.x, hookScreen.y, lugScreen.x, lugScreen.y]}
-                    stroke={COLOURS.ink}
-                    strokeWidth={3}
-                  />
-                </Group>
-              );
-            })()}
-          {legs.length > 0 && (
-            <Group x={figuresAt.x} y={figuresAt.y} name="leg-figures">
-              <Rect
-                width={figuresSize.width}
-                height={figuresSize.height}
-                fill="#ffffff"
-                opacity={0.85}
-                cornerRadius={3}
-              />
-              {legs.map((leg, i) => (
-                <Text
-                  key={leg.label}
-                  x={6}
-                  y={5 + i * 17}
-                  text={`${leg.text}${leg.slack ? " (slack)" : ""}`}
-                  fontSize={12}
-                  fontStyle="bold"
-                  fontFamily="Barlow, sans-serif"
-                  fill={COLOURS[leg.tone]}
-                />
-              ))}
-            </Group>
+          {hookScreen && beamZM === null && (
+            <BridleLegs edit={edit} view={view} legs={legs} hookScreen={hookScreen} usedLabels={usedLabels} S={S} />
           )}
-          <Group>
-            <Line
-              points={[16, height - 16, 16 + bar * transform.scalePxPerM, height - 16]}
-              stroke={COLOURS.ink}
-              strokeWidth={3}
+          {hookScreen && beamZM !== null && (
+            <BeamDrops
+              edit={edit}
+              view={view}
+              legs={legs}
+              hookScreen={hookScreen}
+              usedLabels={usedLabels}
+              beamZM={beamZM}
+              S={S}
             />
-            <Text
-              x={16}
-              y={height - 34}
-              text={formatLength(bar, units)}
-              fontSize={12}
-              fontFamily="Barlow, sans-serif"
-              fill={COLOURS.ink}
-            />
-            <Text
-              x={width - 120}
-              y={height - 22}
-              width={110}
-              align="right"
-              text={view === "elevation" ? "x →   z ↑" : "x →   y ↑"}
-              fontSize={12}
-              fontFamily="Barlow, sans-serif"
-              fill={COLOURS.none}
-            />
-          </Group>
+          )}
+          {legs.length > 0 && <FiguresBox legs={legs} at={figuresAt} size={figuresSize} />}
+          <ScaleBar
+            view={view}
+            width={width}
+            height={height}
+            barM={bar}
+            scalePxPerM={transform.scalePxPerM}
+            units={units}
+          />
         </Layer>
         <Layer>
           {edit.liftPoints.map((p) => {

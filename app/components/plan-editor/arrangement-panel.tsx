@@ -1,0 +1,251 @@
+// The arrangement panel: how the load is hung, what is given, the hook and CoG, the lift-point table with
+// sling lengths, and what would level a tilted load.
+import { useMemo, type ReactNode } from "react";
+import { NumberInput } from "~/components/plan-editor/fields";
+import type { LiveSolution } from "~/components/plan-editor/use-live-solve";
+import { Button } from "~/components/ui/form";
+import type { ComponentDefinition } from "~/loads/component-definition";
+import type { EditorAction, PlanEdit } from "~/plans/editor-state";
+import type { GearPick } from "~/plans/rigging";
+import { solveLevel } from "~/statics/bridle";
+import { formatLength, lengthUnitLabel, type Units } from "~/utils/format";
+
+export function ArrangementPanel({
+  edit,
+  dispatch,
+  canEdit,
+  units,
+  snapshot,
+  solution,
+  picks,
+  children,
+}: {
+  edit: PlanEdit;
+  dispatch: (action: EditorAction) => void;
+  canEdit: boolean;
+  units: Units;
+  snapshot: ComponentDefinition;
+  solution: LiveSolution | null;
+  picks: ReadonlyMap<number, GearPick>;
+  /** Shown at the foot of the panel (the drawing to trace over). */
+  children?: ReactNode;
+}) {
+  const lu = lengthUnitLabel(units);
+
+  function setMode(mode: "level" | "lengths") {
+    if (mode === edit.arrangement.mode) return;
+    // Switching to given lengths starts from the lengths of the level solution (the slings a level lift needs).
+    const legLengthsM =
+      mode === "lengths" && solution
+        ? Object.fromEntries(solution.legs.map((l) => [l.liftPointId, Number(l.lengthM.toFixed(4))]))
+        : undefined;
+    dispatch({ type: "set-mode", mode, legLengthsM });
+  }
+
+  function useAllocatedSlingLengths() {
+    const lengths: Record<string, number> = {};
+    for (const label of edit.arrangement.liftPointLabels) {
+      const slingId = edit.rigging.legs[label]?.slingItemId;
+      const length = slingId !== undefined ? picks.get(slingId)?.lengthM : null;
+      if (length) lengths[label] = length;
+    }
+    dispatch({ type: "set-mode", mode: "lengths", legLengthsM: { ...edit.arrangement.legLengthsM, ...lengths } });
+  }
+
+  // Given lengths: the change in each leg that would level the load, keeping the hook at the height it settled at.
+  const levelling = useMemo(() => {
+    if (edit.arrangement.mode !== "lengths" || !solution || solution.tiltDeg < 0.05) return null;
+    const points = edit.liftPoints
+      .filter((p) => edit.arrangement.liftPointLabels.includes(p.label))
+      .map((p) => ({ id: p.label, position: p.position, axis: p.axis }));
+    const level = solveLevel({ massKg: snapshot.massKg, cog: edit.cog }, points, solution.hook.z);
+    if (!level.ok) return null;
+    return level.solution.legs.map((l) => ({
+      label: l.liftPointId,
+      changeM: l.lengthM - (edit.arrangement.legLengthsM[l.liftPointId] ?? 0),
+    }));
+  }, [edit, solution, snapshot.massKg]);
+
+  return (
+    <section className="space-y-4 rounded border border-rule bg-card p-4" aria-labelledby="arrangement-heading">
+      <h2 id="arrangement-heading" className="text-lg">
+        Arrangement
+      </h2>
+      <fieldset className="flex flex-wrap gap-4 text-sm" disabled={!canEdit}>
+        <legend className="sr-only">How the load is hung</legend>
+        <label className="flex items-center gap-1">
+          <input
+            type="radio"
+            name="hung-by"
+            checked={edit.arrangement.kind === "bridle"}
+            onChange={() => dispatch({ type: "set-kind", kind: "bridle" })}
+          />{" "}
+          Legs to one hook
+        </label>
+        <label className="flex items-center gap-1">
+          <input
+            type="radio"
+            name="hung-by"
+            checked={edit.arrangement.kind === "beam"}
+            onChange={() =>
+              dispatch({
+                type: "set-kind",
+                kind: "beam",
+                beam: edit.arrangement.beam ?? {
+                  massKg: 60,
+                  wllKg: 2000,
+                  lengthM: Math.max(snapshot.lengthM, 0.5),
+                  dropLengthM: 0.6,
+                },
+              })
+            }
+          />{" "}
+          Lifting beam with vertical drops
+        </label>
+      </fieldset>
+      {edit.arrangement.kind === "bridle" && (
+        <fieldset className="flex flex-wrap gap-4 text-sm" disabled={!canEdit}>
+          <legend className="sr-only">What is given</legend>
+          <label className="flex items-center gap-1">
+            <input
+              type="radio"
+              name="given"
+              checked={edit.arrangement.mode === "level"}
+              onChange={() => setMode("level")}
+            />{" "}
+            Level lift: the hook height gives the leg lengths
+          </label>
+          <label className="flex items-center gap-1">
+            <input
+              type="radio"
+              name="given"
+              checked={edit.arrangement.mode === "lengths"}
+              onChange={() => setMode("lengths")}
+            />{" "}
+            Given sling lengths: find the tilt
+          </label>
+        </fieldset>
+      )}
+      <div className="grid grid-cols-2 gap-3 sm:grid-cols-4">
+        {edit.arrangement.mode === "level" && (
+          <NumberInput
+            label={`Hook height z (${lu})`}
+            valueM={edit.arrangement.hookHeightM}
+            units={units}
+            disabled={!canEdit}
+            onCommit={(v) => dispatch({ type: "set-hook-height", hookHeightM: v })}
+          />
+        )}
+        {(["x", "y", "z"] as const).map((axis) => (
+          <NumberInput
+            key={axis}
+            label={`CoG ${axis} (${lu})`}
+            valueM={edit.cog[axis]}
+            units={units}
+            disabled={!canEdit}
+            onCommit={(v) => dispatch({ type: "move-cog", cog: { ...edit.cog, [axis]: v } })}
+          />
+        ))}
+      </div>
+      {edit.arrangement.kind === "beam" && edit.arrangement.beam && (
+        <p className="text-sm text-ink-soft">
+          Beam: {formatLength(edit.arrangement.beam.lengthM, units)} long, drops{" "}
+          {formatLength(edit.arrangement.beam.dropLengthM, units)}, its mass and WLL as on the plan&apos;s details. Beam
+          figures are worked out by the server on each save.
+        </p>
+      )}
+      <div className="overflow-x-auto">
+        <table className="w-full table-fixed">
+          <thead>
+            <tr>
+              <th scope="col" className="w-12">
+                Use
+              </th>
+              <th scope="col" className="w-20">
+                Lift point
+              </th>
+              <th scope="col">x ({lu})</th>
+              <th scope="col">y ({lu})</th>
+              <th scope="col">z ({lu})</th>
+              {edit.arrangement.mode === "lengths" && <th scope="col">Sling length ({lu})</th>}
+            </tr>
+          </thead>
+          <tbody>
+            {edit.liftPoints.map((p) => {
+              const used = edit.arrangement.liftPointLabels.includes(p.label);
+              return (
+                <tr key={p.label}>
+                  <td>
+                    <input
+                      type="checkbox"
+                      aria-label={`Use lift point ${p.label}`}
+                      checked={used}
+                      disabled={!canEdit}
+                      onChange={() => dispatch({ type: "toggle-lift-point", label: p.label })}
+                    />
+                  </td>
+                  <td className="font-semibold">
+                    {p.label} {p.thread && <span className="font-normal text-ink-soft">{p.thread}</span>}
+                  </td>
+                  {(["x", "y", "z"] as const).map((axis) => (
+                    <td key={axis}>
+                      <NumberInput
+                        label={`${p.label} ${axis}`}
+                        valueM={p.position[axis]}
+                        units={units}
+                        disabled={!canEdit}
+                        onCommit={(v) =>
+                          dispatch({
+                            type: "move-lift-point",
+                            label: p.label,
+                            position: { ...p.position, [axis]: v },
+                          })
+                        }
+                      />
+                    </td>
+                  ))}
+                  {edit.arrangement.mode === "lengths" && (
+                    <td>
+                      {used && (
+                        <NumberInput
+                          label={`Sling length to ${p.label}`}
+                          valueM={edit.arrangement.legLengthsM[p.label] ?? 0}
+                          units={units}
+                          disabled={!canEdit}
+                          onCommit={(v) => dispatch({ type: "set-leg-length", label: p.label, lengthM: v })}
+                        />
+                      )}
+                    </td>
+                  )}
+                </tr>
+              );
+            })}
+          </tbody>
+        </table>
+      </div>
+      {edit.arrangement.mode === "lengths" && (
+        <div className="space-y-2 text-sm">
+          <Button type="button" tone="secondary" onClick={useAllocatedSlingLengths} disabled={!canEdit}>
+            Take the lengths of the allocated slings
+          </Button>
+          {levelling && (
+            <div className="rounded border border-warn/40 bg-warn-soft p-2" data-testid="levelling">
+              <p className="font-semibold">To hang level (hook kept at the height it settles at):</p>
+              <ul>
+                {levelling.map((l) => (
+                  <li key={l.label}>
+                    Leg {l.label}:{" "}
+                    {Math.abs(l.changeM) < 0.0005
+                      ? "no change"
+                      : `${l.changeM > 0 ? "lengthen" : "shorten"} by ${formatLength(Math.abs(l.changeM), units)}`}
+                  </li>
+                ))}
+              </ul>
+            </div>
+          )}
+        </div>
+      )}
+      {children}
+    </section>
+  );
+}
