@@ -3,7 +3,7 @@
 // loaded with lazy() after hydration, never rendered on the server. The drawing is one tab stop:
 // with focus, the arrow keys move the selected handle, + and - zoom, 0 fits the view, G snaps.
 import type Konva from "konva";
-import { useEffect, useMemo, useRef, useState } from "react";
+import { useMemo, useRef, useState } from "react";
 import { Circle, Group, Image as KonvaImage, Layer, Line, Rect, Stage, Text } from "react-konva";
 import { COLOURS } from "~/components/plan-canvas/colours";
 import { FiguresBox } from "~/components/plan-canvas/figures-box";
@@ -120,7 +120,12 @@ export default function PlanCanvas(props: PlanCanvasProps) {
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [outline, view, width, height]);
   const [transform, setTransform] = useState<ViewTransform>(() => fitView(box, width, height));
-  useEffect(() => setTransform(fitView(box, width, height)), [box, width, height]);
+  // Refit when the load or the view's size changes: adjusted while rendering, not in an effect.
+  const [fittedFor, setFittedFor] = useState({ box, width, height });
+  if (fittedFor.box !== box || fittedFor.width !== width || fittedFor.height !== height) {
+    setFittedFor({ box, width, height });
+    setTransform(fitView(box, width, height));
+  }
 
   const S = (a: number, b: number) => worldToScreen(transform, a, b);
   const usedLabels = new Set(edit.arrangement.liftPointLabels);

@@ -46,7 +46,12 @@ export function NumberInput({
 }) {
   const shown = inputNumber(toDisplayLength(valueM, units), units === "metric" ? 0 : 2);
   const [text, setText] = useState(shown);
-  useEffect(() => setText(shown), [shown]);
+  // A new value from outside (a drag, an undo) replaces what is typed: adjusted while rendering, not in an effect.
+  const [lastShown, setLastShown] = useState(shown);
+  if (lastShown !== shown) {
+    setLastShown(shown);
+    setText(shown);
+  }
   const commit = () => {
     const n = Number(text.replace(/,/g, ""));
     if (text.trim() !== "" && Number.isFinite(n)) onCommit(fromDisplayLength(n, units));

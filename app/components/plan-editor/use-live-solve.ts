@@ -17,16 +17,20 @@ export type LiveSolution = {
   tiltDeg: number;
 };
 
-/** Fetches /api/solve for the body, debounced; answers to superseded bodies are dropped. */
+type Answer = { key: string; status: number; body: unknown } | { key: string; failed: string };
+
+/**
+ * Fetches /api/solve for the body, debounced; answers to superseded bodies are dropped. While a newer
+ * body is on its way the last answer is shown marked stale (derived from the keys, not set in the effect).
+ */
 export function useLiveSolve(body: unknown | null): ResultState {
-  const [state, setState] = useState<ResultState>({ kind: "idle" });
+  const [answer, setAnswer] = useState<Answer | null>(null);
   const key = body === null ? null : JSON.stringify(body);
   const sequence = useRef(0);
   useEffect(() => {
     if (key === null) return;
     const id = ++sequence.current;
     const controller = new AbortController();
-    setState((s) => (s.kind === "done" ? { ...s, stale: true } : { kind: "loading" }));
     const timer = setTimeout(async () => {
       try {
         const res = await fetch("/api/solve", {
@@ -37,13 +41,10 @@ export function useLiveSolve(body: unknown | null): ResultState {
         });
         const json = (await res.json()) as unknown;
         if (id !== sequence.current) return;
-        setState({ kind: "done", status: res.status, body: json, stale: false });
+        setAnswer({ key, status: res.status, body: json });
       } catch (error) {
         if (controller.signal.aborted || id !== sequence.current) return;
-        setState({
-          kind: "failed",
-          message: error instanceof Error ? error.message : "The figures could not be fetched.",
-        });
+        setAnswer({ key, failed: error instanceof Error ? error.message : "The figures could not be fetched." });
       }
     }, 180);
     return () => {
@@ -51,5 +52,8 @@ export function useLiveSolve(body: unknown | null): ResultState {
       controller.abort();
     };
   }, [key]);
-  return state;
+  if (key === null) return { kind: "idle" };
+  if (answer === null) return { kind: "loading" };
+  if ("failed" in answer) return answer.key === key ? { kind: "failed", message: answer.failed } : { kind: "loading" };
+  return { kind: "done", status: answer.status, body: answer.body, stale: answer.key !== key };
 }
