@@ -18,6 +18,7 @@ import {
 import { listRevisionAuthors } from "~/models/plan-revision-author.server";
 import { userNames, type SessionUser } from "~/models/user.server";
 import type { PlanStatus } from "~/plans/document";
+import { collapseEditingSessions } from "~/plans/history";
 import { notFitSentence, type LiveGearState } from "~/plans/live-state";
 import { liveStateOf } from "~/plans/live-state.server";
 import { readSealed, type SealedPlan } from "~/plans/sealed";
@@ -147,20 +148,23 @@ export async function getWorkflowView(
   };
 }
 
-/** The plan's audit trail, oldest first, with who did each thing. Never editable. */
+/** The plan's audit trail, oldest first, with who did each thing and each editing session as one entry. Never editable. */
 export async function listPlanHistory(organisationId: number, planId: number) {
   const events = await listAuditEvents(organisationId, ENTITY, planId);
   const users = await userNames(
     organisationId,
     events.map((e) => e.userId).filter((id): id is number => id !== null),
   );
-  return events.map((e) => ({
-    id: e.id,
-    at: e.createdAt.toISOString(),
-    by: e.userId ? (users.get(e.userId) ?? "unknown") : "system",
-    action: e.action,
-    details: e.details ? (JSON.parse(e.details) as Record<string, unknown>) : {},
-  }));
+  return collapseEditingSessions(
+    events.map((e) => ({
+      id: e.id,
+      at: e.createdAt.toISOString(),
+      userId: e.userId,
+      by: e.userId ? (users.get(e.userId) ?? "unknown") : "system",
+      action: e.action,
+      details: e.details ? (JSON.parse(e.details) as Record<string, unknown>) : {},
+    })),
+  );
 }
 
 /**
