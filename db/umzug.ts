@@ -12,6 +12,7 @@ import * as signInAttempts from "./migrations/0009-sign-in-attempts";
 import * as indexes from "./migrations/0010-indexes";
 import * as sealedRevisions from "./migrations/0018-sealed-revisions";
 import * as revisionAuthors from "./migrations/0019-revision-authors";
+import * as liftRecordDocument from "./migrations/0020-lift-record-document";
 
 export type Migration = (params: { context: QueryInterface }) => Promise<void>;
 type MigrationModule = { up: Migration; down: Migration };
@@ -33,6 +34,7 @@ export const migrations: Array<[name: string, module: MigrationModule]> = [
   ["0010-indexes", indexes],
   ["0018-sealed-revisions", sealedRevisions],
   ["0019-revision-authors", revisionAuthors],
+  ["0020-lift-record-document", liftRecordDocument],
 ];
 
 /** The umzug runner over `sequelize`, recording applied migrations in SequelizeMeta. */

@@ -19,6 +19,7 @@ import { listRevisionAuthors } from "~/models/plan-revision-author.server";
 import { userNames, type SessionUser } from "~/models/user.server";
 import type { PlanStatus } from "~/plans/document";
 import { collapseEditingSessions } from "~/plans/history";
+import { readLiftRecordDocument, type LiftRecordDocument } from "~/plans/lift-record";
 import { notFitSentence, type LiveGearState } from "~/plans/live-state";
 import { liveStateOf } from "~/plans/live-state.server";
 import { readSealed, type SealedPlan } from "~/plans/sealed";
@@ -42,6 +43,8 @@ export type WorkflowView = {
     by: string;
     checklist: Record<string, boolean>;
     photos: number[];
+    /** Who ticked and released what and when, the gear confirmed, who was there; null on records made before. */
+    document: LiftRecordDocument | null;
   } | null;
   assignedRigger: { id: number; name: string } | null;
   permissions: Record<WorkflowAction, { allowed: boolean; reason?: string }>;
@@ -141,6 +144,7 @@ export async function getWorkflowView(
           by: users.get(record.recordedBy) ?? "unknown",
           checklist: JSON.parse(record.checklist) as Record<string, boolean>,
           photos: await listLiftRecordPhotoIds(record.id),
+          document: readLiftRecordDocument(record.document),
         }
       : null,
     assignedRigger: riggerId ? { id: riggerId, name: users.get(riggerId) ?? "unknown" } : null,
