@@ -59,6 +59,7 @@ export default [
     route(":planId/lift", "routes/plans.$planId.lift.tsx"),
     route(":planId/print", "routes/plans.$planId.print.tsx"),
     route(":planId/print.pdf", "routes/plans.$planId.print.pdf.ts"),
+    route(":planId/lift-record.pdf", "routes/plans.$planId.lift-record.pdf.ts"),
   ]),
 
   ...prefix("api", [

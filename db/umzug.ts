@@ -16,6 +16,7 @@ import * as sessions from "./migrations/0015-sessions";
 import * as signInAttemptsBySource from "./migrations/0016-sign-in-attempts-by-source";
 import * as sealedRevisions from "./migrations/0018-sealed-revisions";
 import * as revisionAuthors from "./migrations/0019-revision-authors";
+import * as liftRecordDocument from "./migrations/0020-lift-record-document";
 import * as organisationTimeZone from "./migrations/0021-organisation-time-zone";
 import * as examinationRecords from "./migrations/0022-examination-records";
 
@@ -43,6 +44,7 @@ export const migrations: Array<[name: string, module: MigrationModule]> = [
   ["0016-sign-in-attempts-by-source", signInAttemptsBySource],
   ["0018-sealed-revisions", sealedRevisions],
   ["0019-revision-authors", revisionAuthors],
+  ["0020-lift-record-document", liftRecordDocument],
   ["0021-organisation-time-zone", organisationTimeZone],
   ["0022-examination-records", examinationRecords],
 ];

@@ -1,5 +1,6 @@
 import { Form } from "react-router";
 import { LiftFitness } from "~/components/lift-fitness";
+import { LiftRecordView, type LiftRecordViewData } from "~/components/lift-record-view";
 import { Button } from "~/components/ui/form";
 import { PLAN_STATUS_LABELS, type PlanStatus } from "~/plans/document";
 import type { LiveGearState } from "~/plans/live-state";
@@ -20,7 +21,7 @@ export type WorkflowPanelData = {
   } | null;
   acknowledgements: Array<{ checkItem: string; reason: string; by: string; at: string }>;
   comments: Array<{ kind: string; body: string; by: string; at: string; revision: number }>;
-  liftRecord: { liftedAt: string; notes: string; nearMiss: boolean; nearMissDetails: string; by: string } | null;
+  liftRecord: LiftRecordViewData | null;
   assignedRigger: { id: number; name: string } | null;
   /** The approved revision's gear judged now (absent for a plan with no approved revision). */
   live?: LiveGearState | null;
@@ -91,17 +92,7 @@ export function WorkflowPanel({
           )}
         </div>
       )}
-      {workflow.liftRecord && (
-        <div className="rounded border border-steel/40 bg-steel-soft p-3 text-sm">
-          <p>
-            Lift recorded by {workflow.liftRecord.by}, lifted {when(workflow.liftRecord.liftedAt)}.
-          </p>
-          {workflow.liftRecord.notes && <p>{workflow.liftRecord.notes}</p>}
-          {workflow.liftRecord.nearMiss && (
-            <p className="font-semibold text-fail">Near miss: {workflow.liftRecord.nearMissDetails}</p>
-          )}
-        </div>
-      )}
+      {workflow.liftRecord && <LiftRecordView planId={planId} record={workflow.liftRecord} />}
       {workflow.acknowledgements.length > 0 && (
         <details className="text-sm">
           <summary className="cursor-pointer">

@@ -18,6 +18,8 @@ export class LiftRecord extends Model<InferAttributes<LiftRecord>, InferCreation
   declare nearMiss: boolean;
   declare nearMissDetails: string;
   declare recordedBy: number;
+  /** The record as a document (JSON, plans/lift-record.ts); null on records made before it was kept. */
+  declare document: string | null;
   declare createdAt: CreationOptional<Date>;
 }
 
@@ -31,6 +33,7 @@ LiftRecord.init(
     nearMiss: { type: DataTypes.BOOLEAN, allowNull: false },
     nearMissDetails: { type: DataTypes.TEXT, allowNull: false },
     recordedBy: { type: DataTypes.INTEGER, allowNull: false },
+    document: { type: DataTypes.TEXT, allowNull: true },
     createdAt: DataTypes.DATE,
   },
   { sequelize, tableName: "lift_records", underscored: true, updatedAt: false },

@@ -5,6 +5,7 @@ import { createLiftRecord } from "~/models/lift-record.server";
 import { addLiftRecordPhoto } from "~/models/lift-record-photo.server";
 import { getPlanForWorkflow, moveRevision } from "~/models/plan.server";
 import type { SessionUser } from "~/models/user.server";
+import { buildLiftRecordDocument, siteTimeText, type LiftRecordForm } from "~/plans/lift-record";
 import { notFitSentence } from "~/plans/live-state";
 import { liveStateOf } from "~/plans/live-state.server";
 import { readSealed } from "~/plans/sealed";
@@ -14,7 +15,10 @@ import { transactionWithFiles, type CheckedUpload } from "~/utils/uploads.server
 
 export type LiftRecordInput = {
   checklist: Record<ChecklistId, boolean>;
+  /** When the load was landed (the page reads it in the site's time zone). */
   liftedAt: Date;
+  /** Who ticked and released what and when, the gear confirmed on the hook, who was there. */
+  form: LiftRecordForm;
   notes: string;
   nearMiss: boolean;
   nearMissDetails: string;
@@ -58,6 +62,8 @@ export async function recordLift(
       ...(live.fit ? {} : { notFitToLift: notFitSentence(live) }),
     });
     if (refused) return refused;
+    const built = buildLiftRecordDocument(sealed, input.form, user.name, new Date());
+    if (!built.ok) return fail(400, built.problem.message, built.problem.field);
     const completed = await moveRevision(
       loaded.approved.id,
       "approved",
@@ -74,12 +80,15 @@ export async function recordLift(
         nearMiss: input.nearMiss,
         nearMissDetails: input.nearMiss ? input.nearMissDetails.trim().slice(0, 4000) : "",
         recordedBy: user.id,
+        document: JSON.stringify(built.document),
       },
       transaction,
     );
+    const photoIds: number[] = [];
     for (const photo of photos) {
       const stored = await store(photo, { organisationId, purpose: "photo", uploadedBy: user.id });
       await addLiftRecordPhoto(record.id, stored.id, transaction);
+      photoIds.push(stored.id);
     }
     await recordAudit(
       {
@@ -88,7 +97,12 @@ export async function recordLift(
         entity: ENTITY,
         entityId: planId,
         action: "lift recorded",
-        details: { revision: loaded.approved.revision, nearMiss: input.nearMiss },
+        details: {
+          revision: loaded.approved.revision,
+          landed: siteTimeText(input.liftedAt.toISOString(), built.document.timeZone),
+          nearMiss: input.nearMiss,
+          photos: photoIds,
+        },
       },
       transaction,
     );

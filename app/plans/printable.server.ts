@@ -7,7 +7,7 @@ import { userNames, type SessionUser } from "~/models/user.server";
 import { PLAN_STATUS_LABELS, type PlanStatus } from "~/plans/document";
 import { liveStateOf } from "~/plans/live-state.server";
 import type { PrintablePlan } from "~/plans/printable";
-import { readSealed } from "~/plans/sealed";
+import { readSealed, type SealedPlan } from "~/plans/sealed";
 import { absoluteUrl } from "~/utils/mail.server";
 
 export type PrintableOutcome =
@@ -54,16 +54,29 @@ export async function buildPrintablePlan(
   return {
     ok: true,
     revision: row.revision,
-    printable: {
-      ...sealed,
-      status: row.status === "completed" ? "completed" : "approved",
-      units: user.units,
-      fingerprint: row.fingerprint,
-      verifyUrl: absoluteUrl(`/verify/${row.verifyToken}`, request),
-      printedAt: new Date().toISOString(),
-      printedBy: user.name,
+    printable: printableFrom(user, row, sealed, request, {
       live,
       liftRecord: record ? { liftedAt: record.liftedAt.toISOString(), by: recorder ?? "unknown" } : null,
-    },
+    }),
+  };
+}
+
+/** The printable plan of a sealed revision, printed now by `user` in their units. */
+export function printableFrom(
+  user: SessionUser,
+  row: PlanRevision,
+  sealed: SealedPlan,
+  request: Request,
+  extra: Pick<PrintablePlan, "live" | "liftRecord">,
+): PrintablePlan {
+  return {
+    ...sealed,
+    status: row.status === "completed" ? "completed" : "approved",
+    units: user.units,
+    fingerprint: row.fingerprint ?? "",
+    verifyUrl: absoluteUrl(`/verify/${row.verifyToken ?? ""}`, request),
+    printedAt: new Date().toISOString(),
+    printedBy: user.name,
+    ...extra,
   };
 }

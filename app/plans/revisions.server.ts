@@ -128,6 +128,34 @@ async function lockedWrite(
   return { ok: true, found };
 }
 
+/** Which parts of the plan a save changes, in the words the history shows (see plans/history.ts). */
+function changedParts(
+  title: string,
+  before: RevisionView,
+  after: PlanDocument & { snapshot: RevisionView["snapshot"] },
+): string[] {
+  const same = (a: unknown, b: unknown) => JSON.stringify(a) === JSON.stringify(b);
+  const parts: Array<[string, boolean]> = [
+    ["title", title !== after.title],
+    [
+      "load",
+      !same(before.snapshot.cog, after.snapshot.cog) || !same(before.snapshot.liftPoints, after.snapshot.liftPoints),
+    ],
+    ["arrangement", !same(before.arrangement, after.arrangement)],
+    ["gear", !same(before.rigging, after.rigging)],
+    ["sequence", !same(before.details.sequence, after.details.sequence)],
+    ["hazards", !same(before.details.hazards, after.details.hazards)],
+    ["people", !same(before.details.people, after.details.people)],
+    [
+      "site details",
+      before.details.exclusionZone !== after.details.exclusionZone ||
+        before.details.communication !== after.details.communication ||
+        before.details.floorClearanceM !== after.details.floorClearanceM,
+    ],
+  ];
+  return parts.filter(([, changed]) => changed).map(([part]) => part);
+}
+
 /**
  * Saves the draft revision's document when `expectedVersion` is still current, recomputing the results on
  * the server. Nothing is written unless everything is valid and the version matches.
@@ -179,6 +207,7 @@ export async function savePlanRevision(
       transaction,
     );
     if (!written) return { status: "stale", version: expectedVersion };
+    const changed = changedParts(plan.title, revision, { ...document, snapshot });
     await setPlanTitle(plan, document.title, transaction);
     await recordRevisionAuthor(revision.id, actorId, "saved", transaction);
     await recordAudit(
@@ -188,7 +217,7 @@ export async function savePlanRevision(
         entity: ENTITY,
         entityId: plan.id,
         action: "saved",
-        details: { revision: revision.revision, version: expectedVersion + 1, resultStatus: results.status },
+        details: { revision: revision.revision, version: expectedVersion + 1, resultStatus: results.status, changed },
       },
       transaction,
     );

@@ -18,6 +18,8 @@ import {
 import { listRevisionAuthors } from "~/models/plan-revision-author.server";
 import { userNames, type SessionUser } from "~/models/user.server";
 import type { PlanStatus } from "~/plans/document";
+import { collapseEditingSessions } from "~/plans/history";
+import { readLiftRecordDocument, type LiftRecordDocument } from "~/plans/lift-record";
 import { notFitSentence, type LiveGearState } from "~/plans/live-state";
 import { liveStateOf } from "~/plans/live-state.server";
 import { readSealed, type SealedPlan } from "~/plans/sealed";
@@ -41,6 +43,8 @@ export type WorkflowView = {
     by: string;
     checklist: Record<string, boolean>;
     photos: number[];
+    /** Who ticked and released what and when, the gear confirmed, who was there; null on records made before. */
+    document: LiftRecordDocument | null;
   } | null;
   assignedRigger: { id: number; name: string } | null;
   permissions: Record<WorkflowAction, { allowed: boolean; reason?: string }>;
@@ -140,6 +144,7 @@ export async function getWorkflowView(
           by: users.get(record.recordedBy) ?? "unknown",
           checklist: JSON.parse(record.checklist) as Record<string, boolean>,
           photos: await listLiftRecordPhotoIds(record.id),
+          document: readLiftRecordDocument(record.document),
         }
       : null,
     assignedRigger: riggerId ? { id: riggerId, name: users.get(riggerId) ?? "unknown" } : null,
@@ -147,20 +152,23 @@ export async function getWorkflowView(
   };
 }
 
-/** The plan's audit trail, oldest first, with who did each thing. Never editable. */
+/** The plan's audit trail, oldest first, with who did each thing and each editing session as one entry. Never editable. */
 export async function listPlanHistory(organisationId: number, planId: number) {
   const events = await listAuditEvents(organisationId, ENTITY, planId);
   const users = await userNames(
     organisationId,
     events.map((e) => e.userId).filter((id): id is number => id !== null),
   );
-  return events.map((e) => ({
-    id: e.id,
-    at: e.createdAt.toISOString(),
-    by: e.userId ? (users.get(e.userId) ?? "unknown") : "system",
-    action: e.action,
-    details: e.details ? (JSON.parse(e.details) as Record<string, unknown>) : {},
-  }));
+  return collapseEditingSessions(
+    events.map((e) => ({
+      id: e.id,
+      at: e.createdAt.toISOString(),
+      userId: e.userId,
+      by: e.userId ? (users.get(e.userId) ?? "unknown") : "system",
+      action: e.action,
+      details: e.details ? (JSON.parse(e.details) as Record<string, unknown>) : {},
+    })),
+  );
 }
 
 /**

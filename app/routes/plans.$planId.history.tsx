@@ -13,13 +13,19 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   if (!found) throw data({ message: "There is no such plan in your organisation." }, { status: 404 });
   return {
     plan: { id: found.plan.id, title: found.plan.title },
-    events: await listPlanHistory(user.organisationId, found.plan.id),
+    // Photos taken at the lift are shown with the event that recorded them.
+    events: (await listPlanHistory(user.organisationId, found.plan.id)).map((e) => ({
+      ...e,
+      photos: Array.isArray(e.details.photos)
+        ? e.details.photos.filter((id): id is number => Number.isInteger(id))
+        : [],
+    })),
   };
 }
 
 function describe(details: Record<string, unknown>) {
   return Object.entries(details)
-    .filter(([k]) => k !== "fingerprint")
+    .filter(([k]) => k !== "fingerprint" && k !== "photos")
     .map(
       ([k, v]) =>
         `${k.replace(/([A-Z])/g, " $1").toLowerCase()}: ${typeof v === "object" ? JSON.stringify(v) : String(v)}`,
@@ -58,7 +64,22 @@ export default function PlanHistory({ loaderData }: Route.ComponentProps) {
                   <td className="whitespace-nowrap">{new Date(e.at).toLocaleString("en-GB", { timeZone: "UTC" })}</td>
                   <td>{e.by}</td>
                   <td className="font-semibold">{e.action}</td>
-                  <td className="text-ink-soft">{describe(e.details)}</td>
+                  <td className="text-ink-soft">
+                    {describe(e.details)}
+                    {e.photos.length > 0 && (
+                      <span className="mt-1 flex flex-wrap gap-2">
+                        {e.photos.map((id, i) => (
+                          <a key={id} href={`/files/${id}`}>
+                            <img
+                              src={`/files/${id}`}
+                              alt={`Photo ${i + 1} taken at the lift`}
+                              className="h-16 w-auto rounded border border-rule"
+                            />
+                          </a>
+                        ))}
+                      </span>
+                    )}
+                  </td>
                 </tr>
               ))}
             </tbody>

@@ -1,16 +1,17 @@
-import { data, Form, redirect } from "react-router";
+import { data, redirect } from "react-router";
 import type { Route } from "./+types/plans.$planId.lift";
-import { Button, Card, FormError, PageHeader } from "~/components/ui/form";
+import { Card, PageHeader } from "~/components/ui/form";
 import { LiftFitness } from "~/components/lift-fitness";
+import { LiftRecordEntry } from "~/components/lift-record-entry";
 import { getWorkflowView } from "~/plans/workflow-view.server";
 import { recordLift } from "~/plans/lift.server";
-import { PRE_LIFT_CHECKLIST, type ChecklistId } from "~/plans/workflow";
+import { holdPointsOf } from "~/plans/lift-record";
+import { readLiftForm } from "./plans.$planId.lift.server";
 import { getPlan, planExists } from "~/models/plan.server";
 import { PERSON_ROLE_LABELS, PLAN_CAUTION } from "~/plans/document";
 import { flashNotice, requireUserWithRole } from "~/utils/session.server";
 import { checkUpload, readUploadForm, type CheckedUpload } from "~/utils/uploads.server";
 import { formatMass } from "~/utils/format";
-import { CONTROL_CHARACTER_MESSAGE, hasControlCharacters } from "~/utils/forms";
 
 export const meta: Route.MetaFunction = () => [{ title: "At the lift · Plumbline" }];
 
@@ -48,6 +49,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       nextDueOn: row.nextDueOn,
     })),
     details: sealed?.details ?? approved.details,
+    holdPoints: sealed ? holdPointsOf(sealed) : [],
     canRecord: workflow.permissions["record-lift"].allowed,
     recordRefusal: workflow.permissions["record-lift"].reason ?? null,
     units: user.units,
@@ -62,18 +64,9 @@ export async function action({ request, params }: Route.ActionArgs) {
     throw data({ message: "There is no such plan in your organisation." }, { status: 404 });
   const upload = await readUploadForm(request, { maxFiles: 3 });
   if (!upload.ok) return data({ error: upload.message }, { status: upload.status });
+  const read = readLiftForm(upload.formData);
+  if (!read.ok) return data({ error: read.message, field: read.field }, { status: 400 });
   const form = upload.formData;
-  const checklist = Object.fromEntries(
-    PRE_LIFT_CHECKLIST.map((c) => [c.id, form.get(`check-${c.id}`) === "on"]),
-  ) as Record<ChecklistId, boolean>;
-  const notes = String(form.get("notes") ?? "");
-  const nearMissDetails = String(form.get("nearMissDetails") ?? "");
-  if (hasControlCharacters(notes) || hasControlCharacters(nearMissDetails))
-    return data({ error: CONTROL_CHARACTER_MESSAGE }, { status: 400 });
-  const liftedRaw = String(form.get("liftedAt") ?? "");
-  const liftedAt = liftedRaw ? new Date(`${liftedRaw}Z`) : new Date();
-  if (Number.isNaN(liftedAt.getTime()))
-    return data({ error: "Give the time of the lift as a date and time." }, { status: 400 });
   const photos: CheckedUpload[] = [];
   for (const value of form.getAll("photos")) {
     if (!(value instanceof File) || (value.size === 0 && !value.name)) continue;
@@ -81,22 +74,10 @@ export async function action({ request, params }: Route.ActionArgs) {
     if (!checked.ok) return data({ error: checked.message }, { status: 400 });
     photos.push(checked.upload);
   }
-  const result = await recordLift(
-    user.organisationId,
-    planId,
-    user,
-    {
-      checklist,
-      liftedAt,
-      notes,
-      nearMiss: form.get("nearMiss") === "on",
-      nearMissDetails,
-    },
-    photos,
-  );
+  const result = await recordLift(user.organisationId, planId, user, read.input, photos);
   if (!result.ok) {
     if (result.status === 404) throw data({ message: result.message }, { status: 404 });
-    return data({ error: result.message }, { status: result.status });
+    return data({ error: result.message, field: result.field ?? null }, { status: result.status });
   }
   throw redirect(`/plans/${planId}`, {
     headers: { "Set-Cookie": await flashNotice(request, "The lift is recorded and the plan is completed.") },
@@ -104,7 +85,8 @@ export async function action({ request, params }: Route.ActionArgs) {
 }
 
 export default function AtTheLift({ loaderData, actionData }: Route.ComponentProps) {
-  const { plan, schedule, details, canRecord, recordRefusal, massKg, units, live, sealedMissing } = loaderData;
+  const { plan, schedule, details, holdPoints, canRecord, recordRefusal, massKg, units, live, sealedMissing } =
+    loaderData;
   return (
     <>
       <PageHeader
@@ -163,50 +145,13 @@ export default function AtTheLift({ loaderData, actionData }: Route.ComponentPro
           )}
         </Card>
         {canRecord ? (
-          <Card title="Pre-lift checklist and lift record">
-            <Form method="post" encType="multipart/form-data" className="space-y-4">
-              <FormError message={actionData?.error} />
-              <fieldset className="space-y-3">
-                <legend className="text-sm font-semibold">Tick each before lifting</legend>
-                {PRE_LIFT_CHECKLIST.map((c) => (
-                  <label key={c.id} className="flex items-start gap-3 text-base">
-                    <input type="checkbox" name={`check-${c.id}`} className="mt-1 h-5 w-5" />
-                    <span>{c.text}</span>
-                  </label>
-                ))}
-              </fieldset>
-              <label className="block text-sm">
-                When the load was landed (UTC)
-                <input
-                  type="datetime-local"
-                  name="liftedAt"
-                  className="mt-1 block w-full rounded border border-rule px-2 py-2"
-                />
-              </label>
-              <label className="block text-sm">
-                Notes
-                <textarea name="notes" rows={3} className="mt-1 block w-full rounded border border-rule px-2 py-2" />
-              </label>
-              <label className="flex items-center gap-2 text-sm">
-                <input type="checkbox" name="nearMiss" className="h-5 w-5" /> There was a near miss
-              </label>
-              <label className="block text-sm">
-                What happened (for a near miss)
-                <textarea
-                  name="nearMissDetails"
-                  rows={2}
-                  className="mt-1 block w-full rounded border border-rule px-2 py-2"
-                />
-              </label>
-              <label className="block text-sm">
-                Photos (PNG or JPEG, up to 3, 10 MB each)
-                <input type="file" name="photos" accept="image/png,image/jpeg" multiple className="mt-1 block w-full" />
-              </label>
-              <Button type="submit" className="w-full">
-                Record the lift as done
-              </Button>
-            </Form>
-          </Card>
+          <LiftRecordEntry
+            error={actionData?.error}
+            schedule={schedule}
+            holdPoints={holdPoints}
+            people={details.people}
+            supervisor={details.people.find((p) => p.role === "lift_supervisor")?.name ?? ""}
+          />
         ) : (
           <p className="text-sm text-ink-soft" data-testid="no-record">
             {recordRefusal ?? "Only a rigger records the lift on the current approved revision."}

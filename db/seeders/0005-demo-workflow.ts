@@ -1,4 +1,6 @@
-import { getPlan, Plan } from "~/models/plan.server";
+import { getPlan, Plan, PlanRevision } from "~/models/plan.server";
+import { formAsPlanned } from "~/plans/lift-record";
+import { readSealed } from "~/plans/sealed";
 import { approveRevision, assignRigger, startNewRevision, submitRevision } from "~/plans/workflow.server";
 import { recordLift } from "~/plans/lift.server";
 import { PRE_LIFT_CHECKLIST } from "~/plans/workflow";
@@ -81,10 +83,14 @@ export async function up() {
     (typeof PRE_LIFT_CHECKLIST)[number]["id"],
     boolean
   >;
+  const sealed = readSealed((await PlanRevision.findOne({ where: { planId: motor.id, status: "approved" } }))?.sealed);
+  if (!sealed) throw new Error("demo workflow: the motor's approved revision is not sealed");
+  const landed = Date.now() - 24 * 60 * 60 * 1000;
   expectOk(
     await recordLift(org, motor.id, rigger, {
+      form: formAsPlanned(sealed, "Tomasz Wren", new Date(landed - 20 * 60 * 1000), "Europe/London"),
       checklist,
-      liftedAt: new Date(Date.now() - 24 * 60 * 60 * 1000),
+      liftedAt: new Date(landed),
       notes: "Motor landed on its feet first time; shims kept with the old motor.",
       nearMiss: false,
       nearMissDetails: "",

@@ -80,7 +80,12 @@ describe("planner -> appointed person -> rigger on the demo scenario", () => {
       await expect.poll(() => page.getByTestId("schedule").innerText()).toMatch(/KR-/);
       await page.getByRole("button", { name: "Record the lift as done" }).click();
       await expect.poll(() => page.getByRole("alert").first().innerText()).toContain("Tick every pre-lift check");
-      for (const box of await page.locator("input[name^='check-']").all()) await box.check();
+      for (const box of await page.locator("input[type=checkbox][name^='check-']").all()) await box.check();
+      for (const box of await page.locator("input[name^='gear-']").all()) await box.check();
+      // Each hold point is released by the lift supervisor (filled in) at a time the rigger gives.
+      const past = new Date(Date.now() - 30 * 60_000);
+      const local = `${past.getFullYear()}-${String(past.getMonth() + 1).padStart(2, "0")}-${String(past.getDate()).padStart(2, "0")}T${String(past.getHours()).padStart(2, "0")}:${String(past.getMinutes()).padStart(2, "0")}`;
+      for (const field of await page.locator("input[name^='hold-'][name$='-at']").all()) await field.fill(local);
       await page.getByLabel("Notes").fill("Gearbox landed on the skid and chocked.");
       const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
       expect(overflow).toBeLessThanOrEqual(0);
@@ -88,6 +93,7 @@ describe("planner -> appointed person -> rigger on the demo scenario", () => {
       await page.getByRole("button", { name: "Record the lift as done" }).click();
       await page.waitForURL(`**/plans/${planId}`);
       await expect.poll(() => page.getByTestId("workflow").innerText()).toContain("Completed");
+      await expect.poll(() => page.getByTestId("lift-record").innerText()).toContain("Lift recorded by Dale Hutton");
     } finally {
       await phone.close();
     }

@@ -1247,6 +1247,12 @@ describe("fuzzing the forms", () => {
     bases: [
       () => ({
         ...Object.fromEntries(PRE_LIFT_CHECKLIST.map((c) => [`check-${c.id}`, "on"])),
+        ...Object.fromEntries(Object.values(world.lifting.gear).map((g) => [`gear-${g.id}`, "on"])),
+        "hold-2-by": "Dee Marchetti",
+        "hold-2-at": "2024-06-01T09:10",
+        "hold-3-by": "Dee Marchetti",
+        "hold-3-at": "2024-06-01T09:12",
+        timeZone: "Europe/London",
         liftedAt: "2024-06-01T09:30",
         notes: "Landed first time",
         nearMiss: "on",
@@ -1254,7 +1260,7 @@ describe("fuzzing the forms", () => {
       }),
     ],
     extraFields: ["photos"],
-    words: ["on", "2024-06-01T09:30", "2999-01-01T00:00"],
+    words: ["on", "2024-06-01T09:30", "2999-01-01T00:00", "Europe/London", "Mars/Olympus"],
     afterSuccess: async () => {
       // Back to approved with no record, so the next run has a lift to record.
       const revision = (await PlanRevision.findOne({ where: { planId: world.lifting.plan.id, status: "completed" } }))!;

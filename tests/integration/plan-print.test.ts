@@ -12,7 +12,7 @@ import { recordLift, type LiftRecordInput } from "~/plans/lift.server";
 import { PRE_LIFT_CHECKLIST } from "~/plans/workflow";
 import { approveRevision, startNewRevision, submitRevision } from "~/plans/workflow.server";
 import { callRoute, getRequest, makeUser, TEST_PASSWORD } from "../support/factories";
-import { readyPlan } from "../support/workflow";
+import { liftAsPlanned, readyPlan } from "../support/workflow";
 
 async function printRequest(planId: number, user: { id: number }) {
   return callRoute(print.loader, await getRequest(`/plans/${planId}/print.pdf`, user), { planId: String(planId) });
@@ -100,6 +100,7 @@ describe("printing", () => {
     await approveRevision(org, plan.id, approver, { password: TEST_PASSWORD, typedName: approver.name, comment: "" });
     const checklist = Object.fromEntries(PRE_LIFT_CHECKLIST.map((c) => [c.id, true])) as LiftRecordInput["checklist"];
     const lifted = await recordLift(org, plan.id, rigger, {
+      form: await liftAsPlanned(plan.id),
       checklist,
       liftedAt: new Date("2025-06-02T09:15:00Z"),
       notes: "",

@@ -16,7 +16,7 @@ import { recordLift } from "~/plans/lift.server";
 import { PRE_LIFT_CHECKLIST } from "~/plans/workflow";
 import { makeUser, TEST_PASSWORD } from "../support/factories";
 import { makePlan } from "../support/plans";
-import { allowSelfApproval, readyPlan } from "../support/workflow";
+import { allowSelfApproval, liftAsPlanned, readyPlan } from "../support/workflow";
 
 const allTicked = Object.fromEntries(PRE_LIFT_CHECKLIST.map((c) => [c.id, true])) as Record<
   (typeof PRE_LIFT_CHECKLIST)[number]["id"],
@@ -59,6 +59,7 @@ describe("a plan moves from draft to completed", () => {
     expect(
       (
         await recordLift(org, plan.id, rigger, {
+          form: await liftAsPlanned(plan.id),
           checklist: allTicked,
           liftedAt: new Date(Date.now() - 60_000),
           notes: "Landed on dowels first time.",
@@ -236,6 +237,7 @@ describe("a plan moves from draft to completed", () => {
     await submitRevision(org, plan.id, planner, {});
     await approveRevision(org, plan.id, approver, { password: TEST_PASSWORD, typedName: approver.name, comment: "" });
     const missing = await recordLift(org, plan.id, rigger, {
+      form: await liftAsPlanned(plan.id),
       checklist: { ...allTicked, "trial-lift": false },
       liftedAt: new Date(),
       notes: "",
@@ -244,6 +246,7 @@ describe("a plan moves from draft to completed", () => {
     });
     expect(missing).toMatchObject({ ok: false, status: 400, field: "check-trial-lift" });
     const notRigger = await recordLift(org, plan.id, planner, {
+      form: await liftAsPlanned(plan.id),
       checklist: allTicked,
       liftedAt: new Date(),
       notes: "",

@@ -78,6 +78,7 @@ const MATRIX: Record<string, { loader: string; action: string }> = {
   "/plans/:planId/lift":          { loader: "login  403     403     403      409     404",      action: "login  403     403     403      400     404" },
   "/plans/:planId/print":         { loader: "login  409     409     409      409     404",      action: "n/a" },
   "/plans/:planId/print.pdf":     { loader: "login  redirect redirect redirect redirect 404",  action: "n/a" },
+  "/plans/:planId/lift-record.pdf": { loader: "login  redirect redirect redirect redirect 404", action: "n/a" },
 
   "/api/ping":                    { loader: "401    200     200     200      200     200",      action: "n/a" },
   "/api/solve":                   { loader: "401    405     405     405      405     405",      action: "401    400     400     400      400     400" },

@@ -2,7 +2,9 @@
 // 2300 kg per eyebolt up to 45 deg), 10 mm grade 8 chain legs (EN 818-4: 3.15 t single leg), a
 // master link and a 10 t crane allocated (a complete load path), every check passing with the legs
 // 30 deg from vertical.
-import { getPlan } from "~/models/plan.server";
+import { getPlan, PlanRevision } from "~/models/plan.server";
+import { formAsPlanned } from "~/plans/lift-record";
+import { readSealed } from "~/plans/sealed";
 import { savePlanRevision } from "~/plans/revisions.server";
 import { getOrganisation, updateOrganisationSettings } from "~/models/organisation.server";
 import type { SessionUser } from "~/models/user.server";
@@ -69,4 +71,12 @@ export async function readyPlan(options: { overdueEyebolt?: boolean } = {}) {
 export async function allowSelfApproval(user: SessionUser) {
   const org = (await getOrganisation(user.organisationId))!;
   await updateOrganisationSettings(user.organisationId, { name: org.name, allowSelfApproval: true });
+}
+
+/** The lift record form of a lift made to the plan's approved revision exactly as planned. */
+export async function liftAsPlanned(planId: number, releasedBy = "Dee Marchetti") {
+  const approved = await PlanRevision.findOne({ where: { planId, status: "approved" } });
+  const sealed = readSealed(approved?.sealed);
+  if (!sealed) throw new Error("the plan has no sealed approved revision");
+  return formAsPlanned(sealed, releasedBy, new Date(Date.now() - 10 * 60_000));
 }

@@ -3,7 +3,7 @@
 import { PDFDocument } from "pdf-lib";
 import QRCode from "qrcode";
 import { chromeFor, headerAndFooter } from "~/plans/pdf/chrome.server";
-import { cachingFontkit, loadFontFiles, PLAIN_GLYPHS, subsetName } from "~/plans/pdf/fonts.server";
+import { embedBarlow } from "~/plans/pdf/fonts.server";
 import { A4_HEIGHT_PT, Flow, MARGIN_BOTTOM, MARGIN_TOP, Typesetter } from "~/plans/pdf/layout.server";
 import { hazardsSection, checklistSection, sequenceSection, siteSection } from "~/plans/pdf/lift-sections.server";
 import { checksSection, riggingSection, scheduleSection } from "~/plans/pdf/rigging-sections.server";
@@ -12,29 +12,9 @@ import type { PrintablePlan } from "~/plans/printable";
 
 /** The printed plan as an A4 PDF (every page: header, the caution, page numbers, the fingerprint). */
 export async function buildPlanPdf(plan: PrintablePlan): Promise<Uint8Array> {
-  const files = loadFontFiles();
   const pdf = await PDFDocument.create();
-  pdf.registerFontkit(cachingFontkit);
-  const [regular, semibold] = await Promise.all([
-    pdf.embedFont(files.regular, {
-      subset: true,
-      features: PLAIN_GLYPHS,
-      customName: subsetName(plan.fingerprint, "Barlow-Regular"),
-    }),
-    pdf.embedFont(files.semibold, {
-      subset: true,
-      features: PLAIN_GLYPHS,
-      customName: subsetName(plan.fingerprint, "Barlow-SemiBold"),
-    }),
-  ]);
-  const fonts = { regular, semibold };
-  const ts = new Typesetter(
-    files.codePoints,
-    new Map([
-      [regular, files.regular],
-      [semibold, files.semibold],
-    ]),
-  );
+  const { fonts, codePoints, files } = await embedBarlow(pdf, plan.fingerprint);
+  const ts = new Typesetter(codePoints, files);
   const qrPng = await QRCode.toBuffer(plan.verifyUrl, { errorCorrectionLevel: "M", margin: 2, scale: 6 });
   const qr = await pdf.embedPng(qrPng);
 

@@ -55,7 +55,7 @@ export function headerAndFooter(
       size: 8,
       color: STEEL,
     });
-    draw("LIFT PLAN", RIGHT, y - 8, { font: semibold, size: 8, color: BRASS }, "right");
+    draw(chrome.documentName, RIGHT, y - 8, { font: semibold, size: 8, color: BRASS }, "right");
     y -= 12;
     const tagText = chrome.statusTag;
     const tagW = tagWidth(ts, semibold, tagText, 8);
@@ -114,6 +114,8 @@ export function headerAndFooter(
 const CAUTION_SIZE = 7;
 
 export type Chrome = {
+  /** "LIFT PLAN", or "LIFT RECORD" on the record of a lift. */
+  documentName: string;
   titleLines: string[];
   metaLine: string;
   statusTag: string;
@@ -125,7 +127,7 @@ export type Chrome = {
   footerH: number;
 };
 
-export function chromeFor(plan: PrintablePlan, fonts: Fonts, ts: Typesetter): Chrome {
+export function chromeFor(plan: PrintablePlan, fonts: Fonts, ts: Typesetter, documentName = "LIFT PLAN"): Chrome {
   const statusTag = statusWords(plan.status).toUpperCase();
   const tagW = tagWidth(ts, fonts.semibold, statusTag, 8);
   const titleW = CONTENT_W - tagW - 12;
@@ -143,5 +145,5 @@ export function chromeFor(plan: PrintablePlan, fonts: Fonts, ts: Typesetter): Ch
   const band = liveBand(plan, fonts, ts);
   const headerH = 12 + titleLines.length * 14 + 11 + 5 + (band ? LIVE_BAND_H + 6 : 0);
   const footerH = 11 + cautionLines.length * CAUTION_SIZE * 1.25 + 2;
-  return { titleLines, metaLine, statusTag, statusTone, cautionLines, band, headerH, footerH };
+  return { documentName, titleLines, metaLine, statusTag, statusTone, cautionLines, band, headerH, footerH };
 }

@@ -120,3 +120,27 @@ export function printableText(text: string, codePoints: ReadonlySet<number> = lo
   }
   return out;
 }
+
+/** Both weights of Barlow embedded in `pdf` as subsets named from `seed`, with the typesetter that measures them. */
+export async function embedBarlow(pdf: PDFDocument, seed: string) {
+  const files = loadFontFiles();
+  pdf.registerFontkit(cachingFontkit);
+  const [regular, semibold] = await Promise.all([
+    pdf.embedFont(files.regular, {
+      subset: true,
+      features: PLAIN_GLYPHS,
+      customName: subsetName(seed, "Barlow-Regular"),
+    }),
+    pdf.embedFont(files.semibold, {
+      subset: true,
+      features: PLAIN_GLYPHS,
+      customName: subsetName(seed, "Barlow-SemiBold"),
+    }),
+  ]);
+  const fonts = { regular, semibold };
+  const fileOf = new Map([
+    [regular, files.regular],
+    [semibold, files.semibold],
+  ]);
+  return { fonts, codePoints: files.codePoints, files: fileOf };
+}
