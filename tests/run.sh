@@ -1,5 +1,5 @@
 #!/usr/bin/env bash
-# The whole test suite, as `npm test` and CI run it: types, unit and integration tests, the production build, then
+# The whole test suite, as `npm test` and CI run it: lint and format, types, unit and integration tests, the production build, then
 # the build driven in Debian's Chromium. Every stage runs even when an earlier one failed (the browser tests need the
 # build), and the output ends with one line, `N passed, N failed`, summed over all stages by
 # tests/support/test-summary.mjs: each test of a vitest stage counts, and each other stage counts as one.
@@ -45,6 +45,7 @@ not_run() {
 
 passed() { [ "$(cat "$results"/*-"$1".exit)" = 0 ]; }
 
+stage lint bash -c "eslint -c .eslint.config.js . && prettier --check ."
 stage types bash -c "react-router typegen && tsc"
 vitest_stage unit unit
 stage build react-router build

@@ -1,4 +1,4 @@
-import { useEffect, useState } from "react";
+import { useState, useSyncExternalStore } from "react";
 import { Form } from "react-router";
 import { Button, Card, FormError } from "~/components/ui/form";
 import { PERSON_ROLE_LABELS, type PersonRole } from "~/plans/document";
@@ -11,6 +11,8 @@ const input = "mt-1 block w-full rounded border border-rule px-2 py-2";
  * hold point's release, the gear confirmed on the hook by its id, who was there, the landing time in
  * the site's time (this device's zone, sent with the form), notes and photos.
  */
+const noSubscription = () => () => undefined;
+
 export function LiftRecordEntry({
   error,
   schedule,
@@ -25,8 +27,12 @@ export function LiftRecordEntry({
   supervisor: string;
 }) {
   const [tickedAt, setTickedAt] = useState<Partial<Record<ChecklistId, string>>>({});
-  const [timeZone, setTimeZone] = useState("UTC");
-  useEffect(() => setTimeZone(Intl.DateTimeFormat().resolvedOptions().timeZone || "UTC"), []);
+  // The rigger's device zone, read once hydrated (the server renders UTC).
+  const timeZone = useSyncExternalStore(
+    noSubscription,
+    () => Intl.DateTimeFormat().resolvedOptions().timeZone || "UTC",
+    () => "UTC",
+  );
   const gear = schedule.filter((row, i) => schedule.findIndex((r) => r.itemId === row.itemId) === i);
   return (
     <Card title="Pre-lift checklist and lift record">

@@ -161,6 +161,8 @@ export default function GearRegister({ loaderData }: Route.ComponentProps) {
   const sorting: SortingState = [
     { id: search.sort === "site" ? "siteName" : search.sort, desc: search.dir === "desc" },
   ];
+  // TanStack Table returns functions React's compiler cannot memoise; this app does not run the compiler.
+  // eslint-disable-next-line react-hooks/incompatible-library
   const table = useReactTable({
     data: rows,
     columns,
