@@ -15,7 +15,10 @@ import { solveBodyFor } from "~/components/plan-editor/solve-body";
 import { TracingPanel, useTracing } from "~/components/plan-editor/tracing";
 import { useAutosave } from "~/components/plan-editor/use-autosave";
 import { useLiveSolve, type LiveSolution } from "~/components/plan-editor/use-live-solve";
-import { worstVerdictForLeg } from "~/plans/check-text";
+import { standing } from "~/plans/check-text";
+
+/** Grey until the leg's gear is checked; a failing or warning angle shows at once. */
+const legTone = (s: ReturnType<typeof standing>): LegFigure["tone"] => (s === "unchecked" ? "none" : s);
 import type { PlanDetails, PlanResults, RiggingAllocation, Arrangement } from "~/plans/document";
 import {
   canRedo,
@@ -115,7 +118,7 @@ export function PlanEditor({
   const legFigures: LegFigure[] = (solution?.legs ?? []).map((leg) => ({
     label: leg.liftPointId,
     text: `${leg.liftPointId}: ${tensionText(leg.tensionKn, leg.tensionKg, units)} · ${leg.angleFromVerticalDeg.toFixed(1)}°`,
-    tone: worstVerdictForLeg(solution?.checks ?? [], leg.liftPointId) ?? "none",
+    tone: legTone(standing(solution?.checks ?? [], leg.liftPointId)),
     slack: leg.slack,
   }));
 

@@ -3,7 +3,15 @@ import { describe, expect, it } from "vitest";
 import { REFERENCE_TABLES } from "../../db/seeders/reference-data";
 import { checkCraneLoad, checkLegAngle, checkShackle, checkSlingLeg } from "~/statics/checks";
 import { toCheckResult } from "~/statics/api";
-import { checkSentence, fixText, governingCheck, marginText, ruleText, type LegacyCheck } from "~/plans/check-text";
+import {
+  checkSentence,
+  fixText,
+  governingCheck,
+  marginText,
+  ruleText,
+  standing,
+  type LegacyCheck,
+} from "~/plans/check-text";
 import { formatCapacity, formatForce, formatLoad, formatMarkedWll, formatUtilisation } from "~/utils/format";
 
 const T = REFERENCE_TABLES;
@@ -109,5 +117,34 @@ describe("governing check and stored results", () => {
     expect(wire.status).toBe("fail");
     expect(wire.message).toContain("2,500 kg");
     expect(wire.message).toContain("(125 %)");
+  });
+});
+
+describe("a plan with no gear allocated is not yet checked", () => {
+  const angle = (leg: string, status: "pass" | "warn" | "fail") => ({
+    id: `angle-${leg}`,
+    item: `Sling leg ${leg}`,
+    status,
+    utilisation: null,
+    loadKg: null,
+    capacityKg: null,
+    rule: "angle from vertical",
+    source: "common practice",
+    message: "",
+  });
+  const eyebolt = (leg: string, status: "pass" | "warn" | "fail") => ({ ...angle(leg, status), id: `eyebolt-${leg}` });
+
+  it("angle passes alone never read as a pass, for the plan or a leg", () => {
+    expect(standing([angle("A", "pass"), angle("B", "pass")])).toBe("unchecked");
+    expect(standing([angle("A", "pass")], "A")).toBe("unchecked");
+  });
+  it("an angle that warns or fails shows at once, gear or not", () => {
+    expect(standing([angle("A", "pass"), angle("B", "fail")])).toBe("fail");
+    expect(standing([angle("B", "warn")], "B")).toBe("warn");
+  });
+  it("once gear is checked the worst verdict stands", () => {
+    expect(standing([angle("A", "pass"), eyebolt("A", "pass")])).toBe("pass");
+    expect(standing([angle("A", "pass"), eyebolt("A", "fail")], "A")).toBe("fail");
+    expect(standing([angle("A", "pass"), eyebolt("B", "pass")], "A")).toBe("unchecked");
   });
 });

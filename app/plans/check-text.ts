@@ -49,10 +49,29 @@ export function worstVerdict(checks: readonly AnyCheck[]): Verdict {
   return checks.reduce<Verdict>((worst, c) => (RANK[verdictOf(c)] > RANK[worst] ? verdictOf(c) : worst), "pass");
 }
 
+/** Whether a check rates an item of gear (anything but a sling angle, which the geometry alone decides). */
+export function isGearCheck(check: AnyCheck): boolean {
+  return isStructured(check) ? check.kind !== "leg-angle" : !check.id.startsWith("angle-");
+}
+
+/**
+ * How a plan or a leg stands: "unchecked" while no gear is allocated to check (only angles were judged),
+ * unless an angle already warns or fails; otherwise the worst verdict. A bare angle pass never shows green.
+ */
+export function standing(checks: readonly AnyCheck[], leg?: string): Verdict | "unchecked" {
+  const scoped = leg === undefined ? checks : checks.filter((c) => onLeg(c, leg));
+  const worst = worstVerdict(scoped);
+  return scoped.some(isGearCheck) || worst !== "pass" ? worst : "unchecked";
+}
+
+function onLeg(c: AnyCheck, leg: string): boolean {
+  return isStructured(c) ? c.position.legs.includes(leg) : c.id.endsWith(`-${leg}`);
+}
+
 /** The worst verdict among the checks on one leg, or null when none. */
 export function worstVerdictForLeg(checks: readonly AnyCheck[], leg: string): Verdict | null {
-  const onLeg = checks.filter((c) => (isStructured(c) ? c.position.legs.includes(leg) : c.id.endsWith(`-${leg}`)));
-  return onLeg.length ? worstVerdict(onLeg) : null;
+  const legChecks = checks.filter((c) => onLeg(c, leg));
+  return legChecks.length ? worstVerdict(legChecks) : null;
 }
 
 const deg = (x: number) => formatAngle(x);

@@ -19,7 +19,7 @@ import { ChecksList } from "~/components/results/checks-list";
 import { GoverningSummary } from "~/components/results/governing-summary";
 import { LegTable } from "~/components/results/leg-table";
 import { StatusBadge } from "~/components/results/status-badge";
-import { worstVerdict } from "~/plans/check-text";
+import { standing } from "~/plans/check-text";
 import { formatAngle, formatCapacity, formatLength, formatLoad, formatMass, type Units } from "~/utils/format";
 
 const schema = z.discriminatedUnion("intent", [
@@ -177,7 +177,7 @@ function Results({ results, units }: { results: PlanResults; units: Units }) {
         </ul>
       )}
       <h3 className="text-base font-semibold">
-        Checks <StatusBadge verdict={worstVerdict(checks)} />
+        Checks <StatusBadge verdict={standing(checks)} />
       </h3>
       <ChecksList checks={checks} units={units} empty="No checks yet." />
     </div>
