@@ -143,7 +143,24 @@ export function isCrossSiteMutation(request: Request, ownOrigin: string = appOri
   if (SAFE_METHODS.has(request.method.toUpperCase())) return false;
   const source = request.headers.get("Origin") ?? request.headers.get("Referer");
   if (source === null) return request.headers.has("Cookie");
-  return originOf(source.trim()) !== ownOrigin;
+  const origin = originOf(source.trim());
+  return origin === null || !(origin === ownOrigin || isLoopbackAlias(origin, ownOrigin));
+}
+
+const LOOPBACK_NAMES = new Set(["localhost", "127.0.0.1", "[::1]"]);
+
+/**
+ * Outside production proper, when Plumbline's own origin is a loopback address (the demo, a developer's machine),
+ * the other names of the same loopback address and port are the same place: http://127.0.0.1:3000 and
+ * http://localhost:3000 are one server that nobody else can reach. Fixed names, never the Host header.
+ */
+function isLoopbackAlias(origin: string, ownOrigin: string): boolean {
+  if (env.isProduction) return false;
+  const a = new URL(origin);
+  const b = new URL(ownOrigin);
+  return (
+    a.protocol === b.protocol && a.port === b.port && LOOPBACK_NAMES.has(a.hostname) && LOOPBACK_NAMES.has(b.hostname)
+  );
 }
 
 /** The 403 answer to a cross-site mutation: JSON under /api, a plain sentence elsewhere. */

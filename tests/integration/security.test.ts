@@ -198,6 +198,17 @@ describe("the app as served", () => {
       expect(isCrossSiteMutation(post({ Origin: "http://localhost:3001" }))).toBe(true);
       expect(isCrossSiteMutation(post({ Origin: "https://localhost:3000" }))).toBe(true);
       expect(isCrossSiteMutation(post({ Origin: BASE }))).toBe(false);
+      // Outside production a loopback origin's other names on the same port are the same server (the demo is
+      // opened as localhost or 127.0.0.1); another port, scheme or host is not.
+      expect(isCrossSiteMutation(post({ Origin: "http://127.0.0.1:3000" }), "http://localhost:3000")).toBe(false);
+      expect(isCrossSiteMutation(post({ Origin: "http://[::1]:3000" }), "http://localhost:3000")).toBe(false);
+      expect(isCrossSiteMutation(post({ Origin: "http://127.0.0.1:3001" }), "http://localhost:3000")).toBe(true);
+      expect(isCrossSiteMutation(post({ Origin: "http://127.0.0.2.example:3000" }), "http://localhost:3000")).toBe(
+        true,
+      );
+      expect(isCrossSiteMutation(post({ Origin: "http://localhost:3000" }), "https://plumbline.example.com")).toBe(
+        true,
+      );
       // Behind a TLS proxy the request URL says http; PUBLIC_URL says what the browser sees.
       const proxied = post({ Origin: "https://plumbline.example.com" }, "http://plumbline.example.com/login");
       expect(isCrossSiteMutation(proxied, "http://localhost:3000")).toBe(true);
