@@ -43,6 +43,7 @@ export const RETURN_PATHS = [
   "/plans/:planId/review",
   "/plans/:planId/history",
   "/plans/:planId/lift",
+  "/plans/:planId/lift-record.pdf",
   "/plans/:planId/print",
   "/plans/:planId/print.pdf",
 ] as const;
