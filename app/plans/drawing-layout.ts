@@ -42,7 +42,7 @@ export function segmentHitsBox(a: ScreenPoint, b: ScreenPoint, box: Box): boolea
     [dy, box.y + box.height - a.y],
   ];
   for (const [p, q] of edges) {
-    if (p === 0) {
+    if (Math.abs(p) < 1e-12) {
       if (q < 0) return false;
       continue;
     }

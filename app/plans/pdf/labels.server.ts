@@ -1,31 +1,12 @@
 // Placing the drawing's labels where they cross the fewest lines, markers and other labels.
+import { segmentHitsBox as hitsBox } from "~/plans/drawing-layout";
 import type { Style } from "~/plans/pdf/layout.server";
 
 export type Box = { x: number; y: number; w: number; h: number };
 
+/** Whether any part of the segment lies inside the box (the same test the editor's drawings use). */
 export function segmentHitsBox(s: { x1: number; y1: number; x2: number; y2: number }, r: Box): boolean {
-  // Liang-Barsky clipping: does any part of the segment lie inside the box?
-  let t0 = 0;
-  let t1 = 1;
-  const dx = s.x2 - s.x1;
-  const dy = s.y2 - s.y1;
-  const edges: Array<[number, number]> = [
-    [-dx, s.x1 - r.x],
-    [dx, r.x + r.w - s.x1],
-    [-dy, s.y1 - r.y],
-    [dy, r.y + r.h - s.y1],
-  ];
-  for (const [p, q] of edges) {
-    if (Math.abs(p) < 1e-12) {
-      if (q < 0) return false;
-      continue;
-    }
-    const t = q / p;
-    if (p < 0) t0 = Math.max(t0, t);
-    else t1 = Math.min(t1, t);
-    if (t0 > t1) return false;
-  }
-  return true;
+  return hitsBox({ x: s.x1, y: s.y1 }, { x: s.x2, y: s.y2 }, { x: r.x, y: r.y, width: r.w, height: r.h });
 }
 
 export const boxesOverlap = (a: Box, b: Box) =>
