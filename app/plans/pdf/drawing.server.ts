@@ -132,7 +132,8 @@ const VIEW_W = (CONTENT_W - VIEW_GAP) / 2;
 const VIEW_PAD = 22;
 const VIEW_TITLE_H = 16;
 const VIEW_FOOT_H = 16;
-const VIEW_MAX_H = 300;
+/** The tallest the two views can be, pt: a heading kept with the drawing needs this much below it. */
+export const VIEW_MAX_H = 300;
 const VIEW_MIN_H = 170;
 
 function legLabelLines(flow: Flow, name: string, leg: PlanLeg | null, units: Units): LabelLines {

@@ -1,7 +1,7 @@
 // Sections 3 to 5 of the printed plan: the rigging arrangement with its drawing and leg loads, the
 // rigging schedule, and the checks.
 import type { PlanLeg } from "~/plans/document";
-import { riggingDrawing } from "~/plans/pdf/drawing.server";
+import { riggingDrawing, VIEW_MAX_H } from "~/plans/pdf/drawing.server";
 import { degText, knText, loadText, percentUp, tensionMassNumber, utcText, VERDICT } from "~/plans/pdf/format";
 import { CONTENT_W, INK, INK_SOFT, LEFT, STEEL, TONE, type Flow } from "~/plans/pdf/layout.server";
 import { cell, heading, table, type Column } from "~/plans/pdf/tables.server";
@@ -32,7 +32,8 @@ export function riggingSection(flow: Flow, plan: PrintablePlan) {
     plan.arrangement.kind === "beam"
       ? "lifting beam with vertical drops"
       : `${plan.results.legs.length}-leg bridle to one hook`;
-  heading(flow, 3, `Rigging arrangement: ${kind}`, 200);
+  // Kept with the whole drawing, so the heading never ends a page on its own.
+  heading(flow, 3, `Rigging arrangement: ${kind}`, VIEW_MAX_H + 34);
   riggingDrawing(flow, plan);
   const units = plan.units;
   const body = { font: flow.fonts.regular, size: 8, color: INK };
