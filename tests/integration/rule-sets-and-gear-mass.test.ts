@@ -11,7 +11,7 @@ import type { SessionUser } from "~/models/user.server";
 import { ruleText } from "~/plans/check-text";
 import type { CheckResult } from "~/statics/checks";
 import { callRoute, getRequest, makeUser, postForm } from "../support/factories";
-import { jsonRequest, makeGear, makePlan, twoPointElement } from "../support/plans";
+import { jsonRequest, makeGear, makePlan, saveRigging, twoPointElement } from "../support/plans";
 
 async function setRuleSet(user: SessionUser, ruleSet: "uk-eu" | "us") {
   const org = (await getOrganisation(user.organisationId))!;
@@ -24,21 +24,9 @@ async function chokedPlan(planner: SessionUser) {
   const org = planner.organisationId;
   const slingA = await makeGear(org, "round_sling", { wllKg: 2000, legs: 1, lengthM: 2 });
   const slingB = await makeGear(org, "round_sling", { wllKg: 2000, legs: 1, lengthM: 2 });
-  const found = (await getPlan(org, plan.id))!;
-  const saved = await savePlanRevision(
-    org,
-    plan.id,
-    found.revision.version,
-    {
-      title: plan.title,
-      arrangement: found.revision.arrangement,
-      rigging: {
-        legs: { A: { slingItemId: slingA.id, hitch: "choke" }, B: { slingItemId: slingB.id, hitch: "choke" } },
-      },
-      details: found.revision.details,
-    },
-    planner.id,
-  );
+  const saved = await saveRigging(planner, plan, {
+    legs: { A: { slingItemId: slingA.id, hitch: "choke" }, B: { slingItemId: slingB.id, hitch: "choke" } },
+  });
   if (saved.status !== "saved") throw new Error(JSON.stringify(saved));
   const results = (await getPlan(org, plan.id))!.revision.results;
   if (results.status !== 200) throw new Error(results.body.error);
@@ -180,26 +168,14 @@ describe("gear masses in the crane check (ASME P30.1 ch. 5: gross load including
     });
     const link = await makeGear(org, "master_link", { wllKg: 6700, massKg: 2.7 });
     const crane = await makeGear(org, "crane", { wllKg: 5000, hookHeightM: 6 });
-    const found = (await getPlan(org, plan.id))!;
-    const saved = await savePlanRevision(
-      org,
-      plan.id,
-      found.revision.version,
-      {
-        title: plan.title,
-        arrangement: found.revision.arrangement,
-        rigging: {
-          legs: {
-            A: { eyeboltItemId: eyeA.id, slingItemId: sling.id, hitch: "straight" },
-            B: { eyeboltItemId: eyeB.id, slingItemId: sling.id, hitch: "straight" },
-          },
-          masterLinkItemId: link.id,
-          craneItemId: crane.id,
-        },
-        details: found.revision.details,
+    const saved = await saveRigging(planner, plan, {
+      legs: {
+        A: { eyeboltItemId: eyeA.id, slingItemId: sling.id, hitch: "straight" },
+        B: { eyeboltItemId: eyeB.id, slingItemId: sling.id, hitch: "straight" },
       },
-      planner.id,
-    );
+      masterLinkItemId: link.id,
+      craneItemId: crane.id,
+    });
     expect(saved.status).toBe("saved");
     const results = (await getPlan(org, plan.id))!.revision.results;
     if (results.status !== 200) throw new Error(results.body.error);

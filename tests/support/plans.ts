@@ -3,7 +3,9 @@ import { rectangleOutlines, type ComponentDefinition } from "~/loads/component-d
 import { createComponent } from "~/models/component.server";
 import { GearItem } from "~/models/gear-item.server";
 import { createJob } from "~/models/job.server";
-import { createPlanFromComponent } from "~/plans/revisions.server";
+import { getPlan } from "~/models/plan.server";
+import type { RiggingAllocation } from "~/plans/document";
+import { createPlanFromComponent, savePlanRevision } from "~/plans/revisions.server";
 import { createSite } from "~/models/site.server";
 import type { SessionUser } from "~/models/user.server";
 import type { GearKind } from "~/gear/kinds";
@@ -93,4 +95,20 @@ export async function jsonRequest(pathname: string, body: unknown, user?: Pick<S
     body: typeof body === "string" ? body : JSON.stringify(body),
     headers: { "Content-Type": "application/json", ...(user ? { Cookie: await sessionCookie(user) } : {}) },
   });
+}
+
+/** Saves the plan's current draft with `rigging` allocated, keeping its title, arrangement and details. */
+export async function saveRigging(
+  planner: Pick<SessionUser, "id" | "organisationId">,
+  plan: { id: number; title: string },
+  rigging: RiggingAllocation,
+) {
+  const found = (await getPlan(planner.organisationId, plan.id))!;
+  return savePlanRevision(
+    planner.organisationId,
+    plan.id,
+    found.revision.version,
+    { title: plan.title, arrangement: found.revision.arrangement, rigging, details: found.revision.details },
+    planner.id,
+  );
 }

@@ -2,14 +2,13 @@
 // 2300 kg per eyebolt up to 45 deg), 10 mm grade 8 chain legs (EN 818-4: 3.15 t single leg), a
 // master link and a 10 t crane allocated (a complete load path), every check passing with the legs
 // 30 deg from vertical.
-import { getPlan, PlanRevision } from "~/models/plan.server";
+import { PlanRevision } from "~/models/plan.server";
 import { formAsPlanned } from "~/plans/lift-record";
 import { readSealed } from "~/plans/sealed";
-import { savePlanRevision } from "~/plans/revisions.server";
 import { getOrganisation, updateOrganisationSettings } from "~/models/organisation.server";
 import type { SessionUser } from "~/models/user.server";
 import { makeUser } from "./factories";
-import { makeGear, makePlan, twoPointElement } from "./plans";
+import { makeGear, makePlan, saveRigging, twoPointElement } from "./plans";
 
 export async function readyPlan(options: { overdueEyebolt?: boolean } = {}) {
   const planner = await makeUser(["planner"], { name: "Pat Planner" });
@@ -44,26 +43,14 @@ export async function readyPlan(options: { overdueEyebolt?: boolean } = {}) {
   });
   const masterLink = await makeGear(org, "master_link", { wllKg: 6700 });
   const crane = await makeGear(org, "crane", { wllKg: 10000 });
-  const found = (await getPlan(org, plan.id))!;
-  const saved = await savePlanRevision(
-    org,
-    plan.id,
-    found.revision.version,
-    {
-      title: plan.title,
-      arrangement: found.revision.arrangement,
-      rigging: {
-        legs: {
-          A: { eyeboltItemId: eyeboltA.id, slingItemId: slingA.id, hitch: "straight" },
-          B: { eyeboltItemId: eyeboltB.id, slingItemId: slingB.id, hitch: "straight" },
-        },
-        masterLinkItemId: masterLink.id,
-        craneItemId: crane.id,
-      },
-      details: found.revision.details,
+  const saved = await saveRigging(planner, plan, {
+    legs: {
+      A: { eyeboltItemId: eyeboltA.id, slingItemId: slingA.id, hitch: "straight" },
+      B: { eyeboltItemId: eyeboltB.id, slingItemId: slingB.id, hitch: "straight" },
     },
-    planner.id,
-  );
+    masterLinkItemId: masterLink.id,
+    craneItemId: crane.id,
+  });
   if (saved.status !== "saved") throw new Error(`could not prepare the plan: ${JSON.stringify(saved)}`);
   return { planner, approver, rigger, plan, gear: { eyeboltA, eyeboltB, slingA, slingB, masterLink, crane } };
 }
