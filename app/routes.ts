@@ -64,6 +64,7 @@ export default [
 
   ...prefix("api", [
     route("ping", "routes/api.ping.ts"),
+    route("sync", "routes/api.sync.ts"),
     route("solve", "routes/api.solve.ts"),
     route("gear", "routes/api.gear.ts"),
     route("plans", "routes/api.plans.ts"),

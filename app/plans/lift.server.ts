@@ -6,11 +6,13 @@ import { addLiftRecordPhoto } from "~/models/lift-record-photo.server";
 import { getPlanForWorkflow, moveRevision } from "~/models/plan.server";
 import type { SessionUser } from "~/models/user.server";
 import { buildLiftRecordDocument, siteTimeText, type LiftRecordForm } from "~/plans/lift-record";
-import { notFitSentence } from "~/plans/live-state";
+import { notFitSentence, type LiveProblem } from "~/plans/live-state";
+import { judgedAsMade } from "~/plans/made-offline";
 import { liveStateOf } from "~/plans/live-state.server";
 import { readSealed } from "~/plans/sealed";
 import { PRE_LIFT_CHECKLIST, type ChecklistId } from "~/plans/workflow";
 import { ENTITY, fail, NOT_FOUND, refusal, type WorkflowResult } from "~/plans/workflow-context.server";
+import type { Transaction } from "sequelize";
 import { transactionWithFiles, type CheckedUpload } from "~/utils/uploads.server";
 
 export type LiftRecordInput = {
@@ -24,6 +26,15 @@ export type LiftRecordInput = {
   nearMissDetails: string;
 };
 
+/**
+ * A record made on a phone without signal: judged at `madeAt`, and `settle` is told in the record's transaction
+ * which gear problems began between then and now.
+ */
+export type MadeOffline = {
+  madeAt: Date;
+  settle: (liftRecordId: number, arisenSince: LiveProblem[], transaction: Transaction) => Promise<void>;
+};
+
 /** Records the lift on the current approved revision, which becomes completed; every checklist item must be ticked. */
 export async function recordLift(
   organisationId: number,
@@ -31,6 +42,7 @@ export async function recordLift(
   user: SessionUser,
   input: LiftRecordInput,
   photos: readonly CheckedUpload[] = [],
+  offline?: MadeOffline,
 ): Promise<WorkflowResult> {
   const unticked = PRE_LIFT_CHECKLIST.filter((c) => !input.checklist[c.id]);
   if (unticked.length)
@@ -54,10 +66,14 @@ export async function recordLift(
         "This revision was approved before approved plans were sealed, so its gear cannot be checked: start a new revision and have it approved.",
       );
     // The server re-checks the gear at the moment of recording, whatever the page showed.
-    const live = await liveStateOf(organisationId, sealed, {
+    const liveNow = await liveStateOf(organisationId, sealed, {
       liftDate: input.liftedAt.toISOString().slice(0, 10),
       transaction,
     });
+    // Made without signal: what began after the record was made did not stand in the rigger's way.
+    const { asMade: live, arisenSince } = offline
+      ? judgedAsMade(liveNow, offline.madeAt)
+      : { asMade: liveNow, arisenSince: [] };
     const refused = await refusal("record-lift", user, loaded, loaded.approved, {
       ...(live.fit ? {} : { notFitToLift: notFitSentence(live) }),
     });
@@ -90,6 +106,7 @@ export async function recordLift(
       await addLiftRecordPhoto(record.id, stored.id, transaction);
       photoIds.push(stored.id);
     }
+    await offline?.settle(record.id, arisenSince, transaction);
     await recordAudit(
       {
         organisationId,

@@ -11,6 +11,8 @@ import { assignRigger, cancelPlan, startNewRevision } from "~/plans/workflow.ser
 import { getWorkflowView, shownRevision } from "~/plans/workflow-view.server";
 import { listUsersWithRole } from "~/models/user.server";
 import { WorkflowPanel } from "~/components/plan-workflow-panel";
+import { ArrivedFromPhonePanel, type ArrivedFromPhone } from "~/components/arrived-from-phone";
+import { listPlanSubmissions } from "~/models/offline-submission.server";
 import { HITCH_LABELS, PERSON_ROLE_LABELS, PLAN_CAUTION, PLAN_STATUS_LABELS, type PlanResults } from "~/plans/document";
 import { hasAnyRole } from "~/utils/roles";
 import { flashNotice, requireUser, requireUserWithRole } from "~/utils/session.server";
@@ -62,6 +64,14 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     riggers: workflow?.permissions["assign-rigger"].allowed
       ? (await listUsersWithRole(user.organisationId, "rigger")).map((r) => ({ id: r.id, name: r.name }))
       : [],
+    arrivedFromPhone: (await listPlanSubmissions(user.organisationId, plan.id)).map((s): ArrivedFromPhone => ({
+      clientId: s.clientId,
+      outcome: s.outcome,
+      message: s.message,
+      madeAt: s.madeAt.toISOString(),
+      receivedAt: s.receivedAt.toISOString(),
+      changes: JSON.parse(s.changes) as ArrivedFromPhone["changes"],
+    })),
   };
 }
 
@@ -185,7 +195,7 @@ function Results({ results, units }: { results: PlanResults; units: Units }) {
 }
 
 export default function PlanPage({ loaderData, actionData }: Route.ComponentProps) {
-  const { plan, job, revision, comparison, units, canEdit, workflow, riggers } = loaderData;
+  const { plan, job, revision, comparison, units, canEdit, workflow, riggers, arrivedFromPhone } = loaderData;
   const { snapshot: s, arrangement: a, rigging, details } = revision;
   const planMass = s.massKg * (1 + s.contingencyPct / 100);
   return (
@@ -224,6 +234,7 @@ export default function PlanPage({ loaderData, actionData }: Route.ComponentProp
       <p role="note" className="mb-6 rounded border border-brass/40 bg-brass-soft px-3 py-2 text-sm">
         {PLAN_CAUTION}
       </p>
+      <ArrivedFromPhonePanel arrived={arrivedFromPhone} />
       {comparison?.newer && (
         <div className="mb-6 rounded border border-steel/40 bg-steel-soft px-3 py-2 text-sm">
           <p className="font-semibold">

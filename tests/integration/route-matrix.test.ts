@@ -81,6 +81,7 @@ const MATRIX: Record<string, { loader: string; action: string }> = {
   "/plans/:planId/lift-record.pdf": { loader: "login  redirect redirect redirect redirect 404", action: "n/a" },
 
   "/api/ping":                    { loader: "401    200     200     200      200     200",      action: "n/a" },
+  "/api/sync":                    { loader: "n/a",                                        action: "401    400     400     400      400     400" },
   "/api/solve":                   { loader: "401    405     405     405      405     405",      action: "401    400     400     400      400     400" },
   "/api/gear":                    { loader: "401    200     200     200      200     200",      action: "n/a" },
   "/api/plans":                   { loader: "401    200     200     200      200     200",      action: "401    405     405     405      405     405" },
