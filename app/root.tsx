@@ -16,6 +16,9 @@ import {
 } from "react-router";
 import type { Route } from "./+types/root";
 import { AppShell } from "~/components/app-shell";
+import { OfflineBanner } from "~/components/offline-banner";
+import { startSending } from "~/offline/outbox";
+import { registerWorker } from "~/offline/register-worker";
 import { useCspNonce } from "~/utils/csp-nonce";
 import { securityMiddleware } from "~/utils/security.server";
 import { readFlash, getUser } from "~/utils/session.server";
@@ -25,7 +28,11 @@ export const middleware: Route.MiddlewareFunction[] = [securityMiddleware];
 
 export const meta: Route.MetaFunction = () => [{ title: "Plumbline" }];
 
-export const links: Route.LinksFunction = () => [{ rel: "icon", href: "/favicon.svg", type: "image/svg+xml" }];
+export const links: Route.LinksFunction = () => [
+  { rel: "icon", href: "/favicon.svg", type: "image/svg+xml" },
+  { rel: "manifest", href: "/manifest.webmanifest" },
+  { rel: "apple-touch-icon", href: "/icon-192.png" },
+];
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await getUser(request);
@@ -42,11 +49,18 @@ export function Layout({ children }: { children: React.ReactNode }) {
   useEffect(() => {
     document.documentElement.dataset.hydrated = "true";
   }, []);
+  // Installable and usable without signal: the service worker keeps the shell and kept plans, the outbox sends
+  // what was saved on the phone.
+  useEffect(() => {
+    registerWorker();
+    startSending();
+  }, []);
   return (
     <html lang="en-GB">
       <head>
         <meta charSet="utf-8" />
         <meta name="viewport" content="width=device-width, initial-scale=1" />
+        <meta name="theme-color" content="#2f5d7c" />
         {/* zod probes `new Function` when it builds its first object schema; the CSP refuses that and reports it as
             a violation, so zod is told to go without before any module runs. */}
         <script
@@ -60,6 +74,7 @@ export function Layout({ children }: { children: React.ReactNode }) {
         <Links nonce="" />
       </head>
       <body className="min-h-screen">
+        <OfflineBanner />
         <AppShell user={rootData?.user ?? null} flash={rootData?.flash ?? null}>
           {children}
         </AppShell>

@@ -1,3 +1,4 @@
+import { OfflineCurrency } from "~/components/offline-currency";
 import { sinceText, type LiveGearState } from "~/plans/live-state";
 
 const KIND_WORDS = {
@@ -23,10 +24,13 @@ export function LiftFitness({ live, sealedMissing = false }: { live: LiveGearSta
   if (!live) return null;
   if (live.fit)
     return (
-      <p className="mb-4 rounded border border-pass/40 bg-pass-soft px-3 py-2 text-sm text-pass" data-testid="fit">
-        <span className="font-semibold">Fit to lift</span> as checked {sinceText(live.checkedAt)}: every allocated item
-        is in service, in date for thorough examination on {live.liftDate} and as approved.
-      </p>
+      // Without signal the page says when it was last checked, not that the gear is fit now.
+      <OfflineCurrency checkedAt={live.checkedAt}>
+        <p className="mb-4 rounded border border-pass/40 bg-pass-soft px-3 py-2 text-sm text-pass" data-testid="fit">
+          <span className="font-semibold">Fit to lift</span> as checked {sinceText(live.checkedAt)}: every allocated
+          item is in service, in date for thorough examination on {live.liftDate} and as approved.
+        </p>
+      </OfflineCurrency>
     );
   return (
     <div role="alert" className="mb-4 rounded border-4 border-fail bg-fail p-4 text-white" data-testid="not-fit">

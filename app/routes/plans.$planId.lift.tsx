@@ -3,6 +3,10 @@ import type { Route } from "./+types/plans.$planId.lift";
 import { Card, PageHeader } from "~/components/ui/form";
 import { LiftFitness } from "~/components/lift-fitness";
 import { LiftRecordEntry } from "~/components/lift-record-entry";
+import { DefectReportOffline } from "~/components/defect-report-offline";
+import { KeepOnPhone } from "~/components/keep-on-phone";
+import { OutboxPanel } from "~/components/outbox-panel";
+import { getOrganisationTimeZone } from "~/models/organisation.server";
 import { getWorkflowView } from "~/plans/workflow-view.server";
 import { recordLift } from "~/plans/lift.server";
 import { holdPointsOf } from "~/plans/lift-record";
@@ -53,6 +57,9 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     canRecord: workflow.permissions["record-lift"].allowed,
     recordRefusal: workflow.permissions["record-lift"].reason ?? null,
     units: user.units,
+    // Times on the record are entered in the site's (the organisation's) time zone, whatever the phone's.
+    timeZone: await getOrganisationTimeZone(user.organisationId),
+    checkedAt: workflow.live?.checkedAt ?? new Date().toISOString(),
   };
 }
 
@@ -85,8 +92,20 @@ export async function action({ request, params }: Route.ActionArgs) {
 }
 
 export default function AtTheLift({ loaderData, actionData }: Route.ComponentProps) {
-  const { plan, schedule, details, holdPoints, canRecord, recordRefusal, massKg, units, live, sealedMissing } =
-    loaderData;
+  const {
+    plan,
+    schedule,
+    details,
+    holdPoints,
+    canRecord,
+    recordRefusal,
+    massKg,
+    units,
+    live,
+    sealedMissing,
+    timeZone,
+    checkedAt,
+  } = loaderData;
   return (
     <>
       <PageHeader
@@ -101,6 +120,7 @@ export default function AtTheLift({ loaderData, actionData }: Route.ComponentPro
         </a>
       </PageHeader>
       <LiftFitness live={live} sealedMissing={sealedMissing} />
+      <KeepOnPhone planId={plan.id} title={plan.title} checkedAt={checkedAt} />
       <p role="note" className="mb-4 rounded border border-brass/40 bg-brass-soft px-3 py-2 text-sm">
         {PLAN_CAUTION}
       </p>
@@ -115,9 +135,7 @@ export default function AtTheLift({ loaderData, actionData }: Route.ComponentPro
                   WLL {formatMass(row.wllKg, units)}
                   {row.serial ? ` · serial ${row.serial}` : ""} · next examination {row.nextDueOn ?? "none on record"}
                 </span>
-                <a href={`/gear/${row.itemId}#report-defect`} className="text-sm">
-                  Report a defect on {row.itemCode}
-                </a>
+                <DefectReportOffline itemId={row.itemId} itemCode={row.itemCode} />
               </li>
             ))}
           </ul>
@@ -146,7 +164,11 @@ export default function AtTheLift({ loaderData, actionData }: Route.ComponentPro
         </Card>
         {canRecord ? (
           <LiftRecordEntry
+            planId={plan.id}
+            planTitle={plan.title}
+            timeZone={timeZone}
             error={actionData?.error}
+            errorField={actionData && "field" in actionData ? (actionData.field as string | null) : null}
             schedule={schedule}
             holdPoints={holdPoints}
             people={details.people}
@@ -157,6 +179,7 @@ export default function AtTheLift({ loaderData, actionData }: Route.ComponentPro
             {recordRefusal ?? "Only a rigger records the lift on the current approved revision."}
           </p>
         )}
+        <OutboxPanel />
       </div>
     </>
   );

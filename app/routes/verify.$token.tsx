@@ -1,5 +1,6 @@
 import type { Route } from "./+types/verify.$token";
 import { LiftFitness } from "~/components/lift-fitness";
+import { OfflineCurrency } from "~/components/offline-currency";
 import { sinceText } from "~/plans/live-state";
 import { verifyRevision } from "~/plans/verify.server";
 import { getUser } from "~/utils/session.server";
@@ -99,10 +100,12 @@ export default function Verify({ loaderData }: Route.ComponentProps) {
             : ""}
         </p>
         {live?.fit && (
-          <p className="mt-2 text-ink" data-testid="fit">
-            Fit to lift: every allocated item is in service, in date for thorough examination on {live.liftDate} and as
-            approved. Checked {when(live.checkedAt)}.
-          </p>
+          <OfflineCurrency checkedAt={live.checkedAt}>
+            <p className="mt-2 text-ink" data-testid="fit">
+              Fit to lift: every allocated item is in service, in date for thorough examination on {live.liftDate} and
+              as approved. Checked {when(live.checkedAt)}.
+            </p>
+          </OfflineCurrency>
         )}
       </div>
       {!found.intact && (

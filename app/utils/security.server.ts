@@ -22,6 +22,9 @@ export function contentSecurityPolicy(nonce: string) {
     "img-src 'self' data: blob:",
     "font-src 'self'",
     "connect-src 'self'",
+    // The service worker (/sw.js) and the web app manifest, both from the app's own origin.
+    "worker-src 'self'",
+    "manifest-src 'self'",
     "object-src 'none'",
     "base-uri 'self'",
     "form-action 'self'",

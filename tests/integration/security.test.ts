@@ -245,6 +245,8 @@ describe("the app as served", () => {
         "style-src 'self' 'unsafe-inline'",
         "font-src 'self'",
         "connect-src 'self'",
+        "worker-src 'self'",
+        "manifest-src 'self'",
         "frame-ancestors 'none'",
         "base-uri 'self'",
         "form-action 'self'",
