@@ -114,7 +114,7 @@ export default function AtTheLift({ loaderData, actionData }: Route.ComponentPro
       >
         <a
           href={`/plans/${plan.id}/print.pdf`}
-          className="rounded border border-rule bg-white px-4 py-2 text-sm font-semibold text-ink no-underline"
+          className="inline-flex min-h-12 items-center rounded border-2 border-ink/50 bg-white px-4 py-2 text-base font-semibold text-ink no-underline"
         >
           Print (PDF)
         </a>
