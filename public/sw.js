@@ -59,6 +59,22 @@ async function keptPage(request, url) {
   }
 }
 
+/** Empties the phone's list of kept plans (the app's Dexie table "kept"); unsent work and drafts stay. */
+function forgetKeptList() {
+  return new Promise((resolve) => {
+    const open = indexedDB.open("plumbline");
+    open.onupgradeneeded = () => open.transaction.abort();
+    open.onerror = () => resolve();
+    open.onsuccess = () => {
+      const db = open.result;
+      if (!db.objectStoreNames.contains("kept")) return resolve(db.close());
+      const tx = db.transaction("kept", "readwrite");
+      tx.objectStore("kept").clear();
+      tx.oncomplete = tx.onerror = () => resolve(db.close());
+    };
+  });
+}
+
 async function offlineShell() {
   const shell = await caches.match("/offline.html", { cacheName: SHELL_CACHE });
   return shell ?? new Response("No signal, and this page is not kept on this phone.", { status: 503 });
@@ -70,7 +86,7 @@ self.addEventListener("fetch", (event) => {
   if (url.origin !== self.location.origin) return;
   // Signing out forgets the kept pages: the next person on this phone does not see them.
   if (request.method === "POST" && url.pathname === "/logout") {
-    event.waitUntil(caches.delete(PAGE_CACHE));
+    event.waitUntil(Promise.all([caches.delete(PAGE_CACHE), forgetKeptList()]));
     return;
   }
   if (request.method !== "GET") return;
