@@ -33,7 +33,10 @@ export const loadOverrideSchema = z.object({
     .max(MAX_OVERRIDE_MASS_KG, "That mass is over 1,000 t; check the figure and its unit.")
     .nullable()
     .default(null),
-  cog: z.object({ x: coordinate("x"), y: coordinate("y"), z: coordinate("z") }).nullable().default(null),
+  cog: z
+    .object({ x: coordinate("x"), y: coordinate("y"), z: coordinate("z") })
+    .nullable()
+    .default(null),
   reason: safeText({ multiline: true, error: "Give the reason as text." })
     .trim()
     .min(1, "Give the reason for overriding the component's mass or CoG.")

@@ -49,7 +49,8 @@ export function LoadOverridePanel({
   const [errors, setErrors] = useState<Record<string, string[]>>({});
   const mark = overrideMark(component, edit.override);
   const lu = lengthUnitLabel(units);
-  const set = (key: keyof Draft) => (e: { target: { value: string } }) => setDraft((d) => ({ ...d, [key]: e.target.value }));
+  const set = (key: keyof Draft) => (e: { target: { value: string } }) =>
+    setDraft((d) => ({ ...d, [key]: e.target.value }));
 
   function apply() {
     const massKg = draft.mass.trim() === own.mass ? null : fromDisplayMass(typed(draft.mass), units);
