@@ -248,10 +248,10 @@ export function PlanEditor({
         </div>
       )}
       <p id={helpId} className="text-xs text-ink-soft">
-        Drag the lift points in either view and the hook up and down in the elevation (level mode); wheel to
-        zoom, drag the background to pan, double-click a lift point to use it or not. From the keyboard: choose what to
-        move, Tab into a drawing and use the arrow keys (Shift for ten grid steps); + and − zoom about it, 0 fits the
-        view, G turns snapping on and off; Ctrl+S saves at once. Grid {formatLength(gridM, units)}.
+        Drag the lift points in either view and the hook up and down in the elevation (level mode); wheel to zoom, drag
+        the background to pan, double-click a lift point to use it or not. From the keyboard: choose what to move, Tab
+        into a drawing and use the arrow keys (Shift for ten grid steps); + and − zoom about it, 0 fits the view, G
+        turns snapping on and off; Ctrl+S saves at once. Grid {formatLength(gridM, units)}.
       </p>
       {canEdit && (
         <fieldset className="no-print flex flex-wrap items-center gap-x-4 gap-y-1 text-sm">

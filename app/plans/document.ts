@@ -289,8 +289,14 @@ export function applyLoadEdit(
   component: ComponentDefinition,
   currentOverride: LoadOverride | null,
   edit: LoadEdit | undefined,
-): { component: ComponentDefinition; override: LoadOverride | null; snapshot: ComponentDefinition; issues: PlanIssue[] } {
-  if (!edit) return { component, override: currentOverride, snapshot: plannedLoad(component, currentOverride), issues: [] };
+): {
+  component: ComponentDefinition;
+  override: LoadOverride | null;
+  snapshot: ComponentDefinition;
+  issues: PlanIssue[];
+} {
+  if (!edit)
+    return { component, override: currentOverride, snapshot: plannedLoad(component, currentOverride), issues: [] };
   const issues: PlanIssue[] = [];
   const moved = new Map(edit.liftPoints.map((p) => [p.label, p.position]));
   const known = new Set(component.liftPoints.map((p) => p.label));

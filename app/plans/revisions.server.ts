@@ -30,12 +30,7 @@ import {
   type RiggingAllocation,
 } from "~/plans/document";
 import { defaultArrangement, defaultDetails, fitToSnapshot } from "~/plans/defaults";
-import {
-  overrideAuditDetails,
-  overrideIssues,
-  plannedLoad,
-  storedLoadJson,
-} from "~/plans/load-override";
+import { overrideAuditDetails, overrideIssues, plannedLoad, storedLoadJson } from "~/plans/load-override";
 import { computePlanResults } from "~/plans/results.server";
 
 const ENTITY = "plan";

@@ -112,8 +112,9 @@ export default function ReviewPlan({ loaderData, actionData }: Route.ComponentPr
         <div className="space-y-6">
           <Card title="The load">
             <p className="text-sm">
-              {s.name}: {formatMass(s.massKg, units)} ({revision.loadOverride?.mass ? "planner's override" : s.massSource}), contingency {s.contingencyPct} %, CoG (
-              {formatLength(s.cog.x, units)}, {formatLength(s.cog.y, units)}, {formatLength(s.cog.z, units)}) (
+              {s.name}: {formatMass(s.massKg, units)} (
+              {revision.loadOverride?.mass ? "planner's override" : s.massSource}), contingency {s.contingencyPct} %,
+              CoG ({formatLength(s.cog.x, units)}, {formatLength(s.cog.y, units)}, {formatLength(s.cog.z, units)}) (
               {revision.loadOverride?.cog ? "planner's override" : s.cogSource}).
             </p>
             <LoadOverrideNotice mark={revision.loadOverride} units={units} />

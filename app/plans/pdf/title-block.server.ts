@@ -189,7 +189,11 @@ export function loadSection(flow: Flow, plan: PrintablePlan) {
   facts(flow, right, LEFT + colW + 16, colW, flow.y, true, 82);
   flow.y -= h + 2;
   if (mark) {
-    flow.paragraph("Differs from the component:", { font: flow.fonts.semibold, size: 8.5, color: INK }, { gapAfter: 1 });
+    flow.paragraph(
+      "Differs from the component:",
+      { font: flow.fonts.semibold, size: 8.5, color: INK },
+      { gapAfter: 1 },
+    );
     for (const line of overrideSentences(mark, units))
       flow.paragraph(line, { font: flow.fonts.regular, size: 8.5, color: INK }, { gapAfter: 1 });
     flow.y -= 2;
