@@ -121,7 +121,7 @@ export function LoadOverridePanel({
           </legend>
           <div className="grid grid-cols-2 gap-2 sm:grid-cols-4">
             <Field
-              label={`Mass (${massUnitLabel(units)})`}
+              label={`Planned mass (${massUnitLabel(units)})`}
               name="override-mass"
               inputMode="decimal"
               value={draft.mass}
@@ -131,7 +131,7 @@ export function LoadOverridePanel({
             {(["x", "y", "z"] as const).map((axis) => (
               <Field
                 key={axis}
-                label={`CoG ${axis} (${lu})`}
+                label={`Planned CoG ${axis} (${lu})`}
                 name={`override-cog-${axis}`}
                 inputMode="decimal"
                 value={draft[axis]}
