@@ -19,6 +19,9 @@ import { approveRevision, submitRevision } from "~/plans/workflow.server";
 import { callRoute, getRequest, TEST_PASSWORD } from "../support/factories";
 import { jsonRequest } from "../support/plans";
 import { readyPlan } from "../support/workflow";
+import * as migration from "../../db/migrations/0024-plan-load-overrides";
+import { sequelize } from "~/utils/db.server";
+import { getPlan } from "~/models/plan.server";
 
 type PlanJson = {
   version: number;
@@ -221,5 +224,21 @@ describe("overriding the component's mass and CoG in a plan", () => {
       oldReason: REASON,
       reason: null,
     });
+  });
+
+  it("migration 0024 turns a CoG the editor moved without a reason into an override saying so, and back", async () => {
+    const { planner, plan } = await readyPlan();
+    const row = (await PlanRevision.findOne({ where: { planId: plan.id } }))!;
+    const moved = { ...JSON.parse(row.loadSnapshot), cog: { x: 0.3, y: 0, z: 0.5 } };
+    await row.update({ loadSnapshot: JSON.stringify(moved) });
+    await migration.up({ context: sequelize.getQueryInterface() });
+    const after = (await getPlan(planner.organisationId, plan.id))!.revision;
+    expect(after.componentSnapshot.cog).toEqual({ x: 0, y: 0, z: 0.5 });
+    expect(after.snapshot.cog).toEqual({ x: 0.3, y: 0, z: 0.5 });
+    expect(after.loadOverride?.reason).toMatch(/before an override needed a reason/);
+    await migration.down({ context: sequelize.getQueryInterface() });
+    const back = JSON.parse((await PlanRevision.findByPk(row.id))!.loadSnapshot) as Record<string, unknown>;
+    expect(back.cog).toEqual({ x: 0.3, y: 0, z: 0.5 });
+    expect(back.override).toBeUndefined();
   });
 });
