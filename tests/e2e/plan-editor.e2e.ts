@@ -216,7 +216,6 @@ describe("a planner lays out a lift from the keyboard alone", () => {
     // The hook: three grid steps up. The first lands on the grid line nearest one step up; each after adds one step.
     await page.keyboard.press("Shift+Tab");
     await page.keyboard.press("ArrowRight");
-    await page.keyboard.press("ArrowRight");
     expect(await handle("Hook").isChecked()).toBe(true);
     await page.keyboard.press("Tab");
     for (let i = 0; i < 3; i++) await page.keyboard.press("ArrowUp");
