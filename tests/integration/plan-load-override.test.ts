@@ -8,6 +8,7 @@ import path from "node:path";
 import { describe, expect, it } from "vitest";
 import * as planApi from "~/routes/api.plans.$planId";
 import * as planPage from "~/routes/plans.$planId";
+import * as history from "~/routes/plans.$planId.history";
 import * as print from "~/routes/plans.$planId.print.pdf";
 import * as review from "~/routes/plans.$planId.review";
 import { listAuditEvents } from "~/models/audit-event.server";
@@ -218,6 +219,16 @@ describe("overriding the component's mass and CoG in a plan", () => {
     expect((removed.data as PlanJson).loadOverride).toBeNull();
     const events = await listAuditEvents(planner.organisationId, "plan", plan.id);
     const gone = events.find((e) => e.action === "load override removed");
+    // The plan's history page lists both, with the figures and the reason.
+    const shown = await callRoute(history.loader, await getRequest(`/plans/${plan.id}/history`, planner), {
+      planId: String(plan.id),
+    });
+    const listed = (shown.data as { events: Array<{ action: string; details: Record<string, unknown> }> }).events;
+    expect(listed.find((e) => e.action === "load override set")?.details).toMatchObject({
+      newMassKg: 2200,
+      reason: REASON,
+    });
+    expect(listed.some((e) => e.action === "load override removed")).toBe(true);
     expect(JSON.parse(gone!.details!)).toMatchObject({
       oldMassKg: 2200,
       newMassKg: 2000,
