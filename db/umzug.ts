@@ -19,6 +19,7 @@ import * as revisionAuthors from "./migrations/0019-revision-authors";
 import * as liftRecordDocument from "./migrations/0020-lift-record-document";
 import * as organisationTimeZone from "./migrations/0021-organisation-time-zone";
 import * as examinationRecords from "./migrations/0022-examination-records";
+import * as planLoadOverrides from "./migrations/0024-plan-load-overrides";
 import * as offlineSubmissions from "./migrations/0027-offline-submissions";
 
 export type Migration = (params: { context: QueryInterface }) => Promise<void>;
@@ -48,6 +49,7 @@ export const migrations: Array<[name: string, module: MigrationModule]> = [
   ["0020-lift-record-document", liftRecordDocument],
   ["0021-organisation-time-zone", organisationTimeZone],
   ["0022-examination-records", examinationRecords],
+  ["0024-plan-load-overrides", planLoadOverrides],
   ["0027-offline-submissions", offlineSubmissions],
 ];
 

@@ -19,6 +19,7 @@ import type { CompositeResult } from "~/statics/composite";
 import { convertLength } from "~/statics/units";
 import {
   fromDisplayLength,
+  fromDisplayMass,
   inputNumber,
   lengthUnitLabel,
   massUnitLabel,
@@ -138,6 +139,17 @@ export function ComponentForm({
         })),
     };
   }, [head, liftPoints, units]);
+
+  // The mass and CoG as typed, for the composite calculator to compare its sum with.
+  const typedLoad = useMemo(() => {
+    const mass = toNumber(head.mass);
+    const [x, y, z] = [toNumber(head.cogX), toNumber(head.cogY), toNumber(head.cogZ)];
+    const L = (v: number) => fromDisplayLength(v, units);
+    return {
+      massKg: mass !== null && mass > 0 ? fromDisplayMass(mass, units) : null,
+      cog: x !== null && y !== null && z !== null ? { x: L(x), y: L(y), z: L(z) } : null,
+    };
+  }, [head.mass, head.cogX, head.cogY, head.cogZ, units]);
 
   function applyComposite(composite: CompositeResult) {
     const len = (m: number) => inputNumber(toDisplayLength(m, units), units === "metric" ? 1 : 3);
@@ -321,7 +333,14 @@ export function ComponentForm({
             units={units}
           />
 
-          <PartsCard parts={parts} setParts={setParts} onUseComposite={applyComposite} errors={errors} units={units} />
+          <PartsCard
+            parts={parts}
+            setParts={setParts}
+            onUseComposite={applyComposite}
+            errors={errors}
+            units={units}
+            component={typedLoad}
+          />
 
           <Card title="Outline">
             <fieldset className="space-y-2 text-sm">

@@ -362,17 +362,8 @@ export default function PlanCanvas(props: PlanCanvasProps) {
             const at = project(edit.cog, view);
             const s = S(at.a, at.b);
             return (
-              <Group
-                x={s.x}
-                y={s.y}
-                draggable={!onPick}
-                onPointerDown={() => onSelect({ kind: "cog" })}
-                onDragStart={() => dispatch({ type: "checkpoint" })}
-                onDragMove={(e) => {
-                  const w = dragToWorld(e.target);
-                  dispatch({ type: "move-cog", cog: unproject(edit.cog, view, w.a, w.b), transient: true });
-                }}
-              >
+              // The CoG is not dragged: it is the component's unless overridden with a reason (the panel).
+              <Group x={s.x} y={s.y}>
                 {ringFor({ kind: "cog" }, 15)}
                 <Circle radius={9} fill="#ffffff" stroke={COLOURS.ink} strokeWidth={2} />
                 <Line points={[0, -9, 0, 9]} stroke={COLOURS.ink} strokeWidth={1} />

@@ -11,6 +11,7 @@ import { tensionText } from "~/components/results/leg-table";
 import { ArrangementPanel } from "~/components/plan-editor/arrangement-panel";
 import { toEdit, useElementWidth } from "~/components/plan-editor/fields";
 import { GearTable } from "~/components/plan-editor/gear-table";
+import { LoadOverridePanel } from "~/components/plan-editor/load-override-panel";
 import { solveBodyFor } from "~/components/plan-editor/solve-body";
 import { TracingPanel, useTracing } from "~/components/plan-editor/tracing";
 import { useAutosave } from "~/components/plan-editor/use-autosave";
@@ -32,6 +33,7 @@ import {
   type EditorAction,
   type Handle,
 } from "~/plans/editor-state";
+import type { LoadOverride } from "~/plans/load-override";
 import type { GearPick } from "~/plans/rigging";
 import type { RuleSetId } from "~/statics/reference";
 import { formatLength, type Units } from "~/utils/format";
@@ -43,7 +45,11 @@ export type EditorPlan = {
   title: string;
   status: string;
   version: number;
+  /** The load as planned when the editor opened. */
   snapshot: ComponentDefinition;
+  /** The component's own mass and CoG (the plan's copy), which the plan lifts unless overridden. */
+  componentLoad: { massKg: number; cog: ComponentDefinition["cog"] };
+  loadOverride: LoadOverride | null;
   arrangement: Arrangement;
   rigging: RiggingAllocation;
   details: PlanDetails;
@@ -80,9 +86,14 @@ export function PlanEditor({
 
   const addPick = useCallback((pick: GearPick) => setPicks((m) => new Map(m).set(pick.id, pick)), []);
 
+  // The load as planned now: the component's mass unless the override (in the editor's state) gives another.
+  const planned = useMemo(
+    () => ({ ...plan.snapshot, massKg: edit.override?.massKg ?? plan.componentLoad.massKg, cog: edit.cog }),
+    [plan.snapshot, plan.componentLoad.massKg, edit.override, edit.cog],
+  );
   const body = useMemo(
-    () => solveBodyFor(edit, plan.snapshot, picks, plan.details, ruleSet),
-    [edit, plan.snapshot, picks, plan.details, ruleSet],
+    () => solveBodyFor(edit, planned, picks, plan.details, ruleSet),
+    [edit, planned, picks, plan.details, ruleSet],
   );
   const live = useLiveSolve(body);
 
@@ -92,7 +103,10 @@ export function PlanEditor({
       arrangement: edit.arrangement,
       rigging: edit.rigging,
       details: plan.details,
-      load: { cog: edit.cog, liftPoints: edit.liftPoints.map((p) => ({ label: p.label, position: p.position })) },
+      load: {
+        liftPoints: edit.liftPoints.map((p) => ({ label: p.label, position: p.position })),
+        override: edit.override,
+      },
     }),
     [edit, plan.title, plan.details],
   );
@@ -234,10 +248,10 @@ export function PlanEditor({
         </div>
       )}
       <p id={helpId} className="text-xs text-ink-soft">
-        Drag the lift points and the CoG in either view and the hook up and down in the elevation (level mode); wheel to
-        zoom, drag the background to pan, double-click a lift point to use it or not. From the keyboard: choose what to
-        move, Tab into a drawing and use the arrow keys (Shift for ten grid steps); + and − zoom about it, 0 fits the
-        view, G turns snapping on and off; Ctrl+S saves at once. Grid {formatLength(gridM, units)}.
+        Drag the lift points in either view and the hook up and down in the elevation (level mode); wheel to zoom, drag
+        the background to pan, double-click a lift point to use it or not. From the keyboard: choose what to move, Tab
+        into a drawing and use the arrow keys (Shift for ten grid steps); + and − zoom about it, 0 fits the view, G
+        turns snapping on and off; Ctrl+S saves at once. Grid {formatLength(gridM, units)}.
       </p>
       {canEdit && (
         <fieldset className="no-print flex flex-wrap items-center gap-x-4 gap-y-1 text-sm">
@@ -311,10 +325,17 @@ export function PlanEditor({
           dispatch={dispatch}
           canEdit={canEdit}
           units={units}
-          snapshot={plan.snapshot}
+          snapshot={planned}
           solution={solution}
           picks={picks}
         >
+          <LoadOverridePanel
+            edit={edit}
+            dispatch={dispatch}
+            canEdit={canEdit}
+            units={units}
+            component={{ ...plan.snapshot, ...plan.componentLoad }}
+          />
           <TracingPanel files={files} units={units} tracing={tracing} />
         </ArrangementPanel>
 
@@ -326,7 +347,7 @@ export function PlanEditor({
         dispatch={dispatch}
         canEdit={canEdit}
         units={units}
-        snapshot={plan.snapshot}
+        snapshot={planned}
         solution={solution}
         usedPoints={usedPoints}
         picks={picks}
@@ -335,7 +356,7 @@ export function PlanEditor({
 
       {edit.arrangement.kind === "bridle" && (
         <HookHeightChart
-          massKg={plan.snapshot.massKg}
+          massKg={planned.massKg}
           cog={edit.cog}
           points={usedPoints.map((p) => ({ id: p.label, position: p.position, axis: p.axis }))}
           currentHookZM={hook?.z ?? edit.arrangement.hookHeightM}

@@ -92,3 +92,27 @@ export function polygonBounds(points: ReadonlyArray<readonly [number, number]>) 
   const bs = points.map((p) => p[1]);
   return { minA: Math.min(...as), maxA: Math.max(...as), minB: Math.min(...bs), maxB: Math.max(...bs) };
 }
+
+/** How far a CoG may sit outside the outline's extents before it is refused, m (rounding of typed figures). */
+export const COG_OUTLINE_TOLERANCE_M = 0.001;
+
+/**
+ * Where a CoG lies outside the extents of the component's outlines, one sentence per axis (the component
+ * form's and the plan's load override's wording); empty when it lies within them.
+ */
+export function cogOutsideOutline(
+  cog: { x: number; y: number; z: number },
+  outlines: Pick<ComponentDefinition, "outlineElevation" | "outlinePlan">,
+): Partial<Record<"x" | "y" | "z", string>> {
+  const elevation = polygonBounds(outlines.outlineElevation);
+  const plan = polygonBounds(outlines.outlinePlan);
+  const inside = (v: number, min: number, max: number) =>
+    v >= min - COG_OUTLINE_TOLERANCE_M && v <= max + COG_OUTLINE_TOLERANCE_M;
+  const out: Partial<Record<"x" | "y" | "z", string>> = {};
+  const say = (axis: "x" | "y" | "z") =>
+    `The CoG lies outside the component's outline along ${axis}; check the figure and the datum.`;
+  if (!inside(cog.x, Math.min(elevation.minA, plan.minA), Math.max(elevation.maxA, plan.maxA))) out.x = say("x");
+  if (!inside(cog.y, plan.minB, plan.maxB)) out.y = say("y");
+  if (!inside(cog.z, elevation.minB, elevation.maxB)) out.z = say("z");
+  return out;
+}

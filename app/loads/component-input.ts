@@ -1,8 +1,8 @@
 import { z } from "zod";
 import {
   COG_SOURCES,
+  cogOutsideOutline,
   MASS_SOURCES,
-  polygonBounds,
   rectangleOutlines,
   type ComponentDefinition,
 } from "~/loads/component-definition";
@@ -123,7 +123,6 @@ export function parsePolygon(textValue: string): Array<[number, number]> | strin
 
 const MAX_MASS_KG = 1_000_000;
 const MAX_DIMENSION_M = 100;
-const TOLERANCE_M = 0.001;
 
 /** Parses the component form, typed in the user's units, into an SI definition, with field errors keyed by field name. */
 export function parseComponentForm(formData: FormData, units: Units): FormResult<ComponentDefinition> {
@@ -214,15 +213,10 @@ export function parseComponentForm(formData: FormData, units: Units): FormResult
   }
 
   const cog = { x: h.cogX, y: h.cogY, z: h.cogZ };
-  const elevation = polygonBounds(outlines.outlineElevation);
-  const plan = polygonBounds(outlines.outlinePlan);
-  const inside = (v: number, min: number, max: number) => v >= min - TOLERANCE_M && v <= max + TOLERANCE_M;
-  if (!inside(cog.x, Math.min(elevation.minA, plan.minA), Math.max(elevation.maxA, plan.maxA)))
-    add("cogX", "The CoG lies outside the component's outline along x; check the figure and the datum.");
-  if (!inside(cog.y, plan.minB, plan.maxB))
-    add("cogY", "The CoG lies outside the component's outline along y; check the figure and the datum.");
-  if (!inside(cog.z, elevation.minB, elevation.maxB))
-    add("cogZ", "The CoG lies outside the component's outline along z; check the figure and the datum.");
+  const outside = cogOutsideOutline(cog, outlines);
+  if (outside.x) add("cogX", outside.x);
+  if (outside.y) add("cogY", outside.y);
+  if (outside.z) add("cogZ", outside.z);
 
   if (Object.keys(errors).length) return { ok: false, errors };
   return {

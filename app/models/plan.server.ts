@@ -8,7 +8,7 @@ import {
   type NonAttribute,
   type Transaction,
 } from "sequelize";
-import { componentDefinitionSchema, type ComponentDefinition } from "~/loads/component-definition";
+import { plannedLoad, readStoredLoad } from "~/plans/load-override";
 import { sequelize } from "~/utils/db.server";
 import { Job } from "~/models/job.server";
 import { Site } from "~/models/site.server";
@@ -128,6 +128,8 @@ PlanRevision.belongsTo(Plan, { foreignKey: "planId", as: "plan" });
 
 /** A revision's JSON columns, parsed. Stored documents were checked on the way in; the snapshot is re-checked as the one the statics read. */
 export function readRevision(revision: PlanRevision) {
+  // The stored copy holds the component's definition and the planner's override of its mass and CoG.
+  const load = readStoredLoad(revision.loadSnapshot);
   return {
     id: revision.id,
     revision: revision.revision,
@@ -135,7 +137,11 @@ export function readRevision(revision: PlanRevision) {
     version: revision.version,
     componentId: revision.componentId,
     componentVersion: revision.componentVersion,
-    snapshot: componentDefinitionSchema.parse(JSON.parse(revision.loadSnapshot)) as ComponentDefinition,
+    /** The load as planned: the component's definition with the override's mass and CoG. */
+    snapshot: plannedLoad(load.component, load.override),
+    /** The plan's copy of the component, without the override. */
+    componentSnapshot: load.component,
+    loadOverride: load.override,
     arrangement: arrangementSchema.parse(JSON.parse(revision.arrangement)) as Arrangement,
     rigging: riggingAllocationSchema.parse(JSON.parse(revision.rigging)) as RiggingAllocation,
     details: detailsSchema.parse(JSON.parse(revision.details)) as PlanDetails,

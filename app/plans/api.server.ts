@@ -21,7 +21,11 @@ export async function planJson(organisationId: number, found: Found) {
       title: plan.job?.title ?? "",
       site: site ? { id: site.id, name: site.name, customer: site.customer } : null,
     },
+    /** The load as planned: the component's copy with the planner's override of its mass and CoG. */
     snapshot: revision.snapshot,
+    /** The component's own mass and CoG in the plan's copy, and the override (null when the plan follows the component). */
+    componentLoad: { massKg: revision.componentSnapshot.massKg, cog: revision.componentSnapshot.cog },
+    loadOverride: revision.loadOverride,
     arrangement: revision.arrangement,
     rigging: revision.rigging,
     details: revision.details,

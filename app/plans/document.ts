@@ -4,6 +4,13 @@ import { z } from "zod";
 import type { ComponentDefinition } from "~/loads/component-definition";
 import type { SolveResponseBody } from "~/statics/api";
 import { safeText } from "~/utils/forms";
+import {
+  effectiveOverride,
+  loadOverrideSchema,
+  overrideIssues,
+  plannedLoad,
+  type LoadOverride,
+} from "~/plans/load-override";
 
 export const PLAN_STATUSES = [
   "draft",
@@ -252,12 +259,15 @@ const position = z.object({
 });
 
 /**
- * Edits the editor makes to the plan's own copy of the load: where the CoG and the lift points are.
- * The component itself is never changed from a plan.
+ * Edits the editor makes to the plan's own copy of the load: where the lift points are, and the planner's
+ * override of the mass and CoG (null removes it; absent leaves it as it is). `cog`, when sent, must be the
+ * CoG as planned: the CoG follows the component unless the override moves it. The component itself is
+ * never changed from a plan.
  */
 export const loadEditSchema = z.object({
-  cog: position,
+  cog: position.optional(),
   liftPoints: z.array(z.object({ label: liftPointLabel, position })).max(12, "At most 12 lift points."),
+  override: loadOverrideSchema.nullable().optional(),
 });
 export type LoadEdit = z.infer<typeof loadEditSchema>;
 
@@ -270,27 +280,45 @@ export const planPutSchema = planDocumentSchema.extend({
   load: loadEditSchema.optional(),
 });
 
-/** The snapshot with the editor's load edits applied; issues for lift points the snapshot does not have. */
+/**
+ * The editor's load edits applied to the plan's copy of the component and its override: the copy (lift
+ * points moved), the override in force and the load as planned, with issues for lift points the copy does
+ * not have, an override that cannot be taken and a CoG moved without one.
+ */
 export function applyLoadEdit(
-  snapshot: ComponentDefinition,
+  component: ComponentDefinition,
+  currentOverride: LoadOverride | null,
   edit: LoadEdit | undefined,
-): { snapshot: ComponentDefinition; issues: PlanIssue[] } {
-  if (!edit) return { snapshot, issues: [] };
+): {
+  component: ComponentDefinition;
+  override: LoadOverride | null;
+  snapshot: ComponentDefinition;
+  issues: PlanIssue[];
+} {
+  if (!edit)
+    return { component, override: currentOverride, snapshot: plannedLoad(component, currentOverride), issues: [] };
   const issues: PlanIssue[] = [];
   const moved = new Map(edit.liftPoints.map((p) => [p.label, p.position]));
-  const known = new Set(snapshot.liftPoints.map((p) => p.label));
+  const known = new Set(component.liftPoints.map((p) => p.label));
   edit.liftPoints.forEach((p, i) => {
     if (!known.has(p.label))
       issues.push({ path: ["load", "liftPoints", i, "label"], message: `The load has no lift point ${p.label}.` });
   });
-  return {
-    snapshot: {
-      ...snapshot,
-      cog: edit.cog,
-      liftPoints: snapshot.liftPoints.map((p) => ({ ...p, position: moved.get(p.label) ?? p.position })),
-    },
-    issues,
+  const copy = {
+    ...component,
+    liftPoints: component.liftPoints.map((p) => ({ ...p, position: moved.get(p.label) ?? p.position })),
   };
+  const override = edit.override === undefined ? currentOverride : edit.override;
+  if (edit.override) issues.push(...overrideIssues(copy, edit.override));
+  const snapshot = plannedLoad(copy, override);
+  const cog = edit.cog;
+  if (cog && Math.hypot(cog.x - snapshot.cog.x, cog.y - snapshot.cog.y, cog.z - snapshot.cog.z) > 5e-4)
+    issues.push({
+      path: ["load", "cog"],
+      message:
+        "The CoG follows the component unless it is overridden with a reason: give the planned CoG and the reason as an override.",
+    });
+  return { component: copy, override: effectiveOverride(copy, override), snapshot, issues };
 }
 
 export type PlanIssue = { path: Array<string | number>; message: string };
@@ -363,7 +391,8 @@ export type ComponentChangeKind =
   | "lift-point-moved"
   | "lift-point-axis"
   | "lift-point-thread"
-  | "parts";
+  | "parts"
+  | "override-removed";
 
 export type ComponentChange = { kind: ComponentChangeKind; message: string };
 

@@ -24,6 +24,7 @@ import { fromDisplayLength, toDisplayLength } from "~/utils/format";
 const up = { x: 0, y: 0, z: 1 };
 const edit: PlanEdit = {
   cog: { x: 0, y: 0, z: 0.4 },
+  override: null,
   liftPoints: [
     { label: "A", position: { x: -0.8, y: 0, z: 0.9 }, axis: up, thread: "M20" },
     { label: "B", position: { x: 0.2, y: 0, z: 0.9 }, axis: up, thread: "M20" },
@@ -47,10 +48,15 @@ describe("editor history", () => {
   it("undoes and redoes each edit in order", () => {
     let s = initialEditorState(edit);
     s = editorReducer(s, { type: "set-hook-height", hookHeightM: 2 });
-    s = editorReducer(s, { type: "move-cog", cog: { x: 0.1, y: 0, z: 0.4 } });
+    s = editorReducer(s, {
+      type: "set-load-override",
+      override: { massKg: null, cog: { x: 0.1, y: 0, z: 0.4 }, reason: "Weighed at the corners" },
+      cog: { x: 0.1, y: 0, z: 0.4 },
+    });
     expect(s.present.arrangement.hookHeightM).toBe(2);
     s = editorReducer(s, { type: "undo" });
     expect(s.present.cog.x).toBe(0);
+    expect(s.present.override).toBeNull();
     expect(s.present.arrangement.hookHeightM).toBe(2);
     s = editorReducer(s, { type: "undo" });
     expect(s.present).toEqual(edit);
@@ -149,7 +155,8 @@ describe("editor history", () => {
         hookHeightM: fc.double({ min: 1, max: 5, noNaN: true }),
       }),
       fc.record({
-        type: fc.constant("move-cog" as const),
+        type: fc.constant("set-load-override" as const),
+        override: fc.constant({ massKg: 1200, cog: null, reason: "Weighed" }),
         cog: fc.record({ x: fc.double({ min: -1, max: 1, noNaN: true }), y: fc.constant(0), z: fc.constant(0.4) }),
       }),
       fc.record({ type: fc.constant("toggle-lift-point" as const), label: fc.constantFrom("A", "B", "C") }),
@@ -238,14 +245,9 @@ describe("tracing over a drawing", () => {
 describe("the keyboard", () => {
   const fine = { gridM: 0.05, coarse: false, snap: true };
 
-  it("the arrow keys can move every lift point, the CoG and, in a level lift, the hook", () => {
-    expect(movableHandles(edit).map(handleKey)).toEqual([
-      "lift-point:A",
-      "lift-point:B",
-      "lift-point:C",
-      "cog",
-      "hook",
-    ]);
+  it("the arrow keys can move every lift point and, in a level lift, the hook; never the CoG (the component's unless overridden)", () => {
+    expect(movableHandles(edit).map(handleKey)).toEqual(["lift-point:A", "lift-point:B", "lift-point:C", "hook"]);
+    expect(nudgeHandle(edit, { kind: "cog" }, "plan", "ArrowLeft", { ...fine, coarse: true })).toBeNull();
     const lengths: PlanEdit = { ...edit, arrangement: { ...edit.arrangement, mode: "lengths" } };
     expect(movableHandles(lengths).map(handleKey)).not.toContain("hook");
   });
@@ -267,26 +269,18 @@ describe("the keyboard", () => {
       label: "B",
       position: { x: 0.2, y: -0.05, z: 0.9 },
     });
-    expect(nudgeHandle(edit, { kind: "cog" }, "plan", "ArrowLeft", { ...fine, coarse: true })).toEqual({
-      type: "move-cog",
-      cog: { x: -0.5, y: 0, z: 0.4 },
-    });
   });
 
   it("with snapping on, a step from off the grid lands on the grid in the direction pressed", () => {
-    const off: PlanEdit = { ...edit, cog: { x: 0.03, y: 0, z: 0.4 } };
-    expect(nudgeHandle(off, { kind: "cog" }, "elevation", "ArrowRight", fine)).toEqual({
-      type: "move-cog",
-      cog: { x: 0.1, y: 0, z: 0.4 },
-    });
-    expect(nudgeHandle(off, { kind: "cog" }, "elevation", "ArrowLeft", fine)).toEqual({
-      type: "move-cog",
-      cog: { x: 0, y: 0, z: 0.4 },
-    });
-    expect(nudgeHandle(off, { kind: "cog" }, "elevation", "ArrowLeft", { ...fine, snap: false })).toEqual({
-      type: "move-cog",
-      cog: { x: -0.02, y: 0, z: 0.4 },
-    });
+    const a = { kind: "lift-point", label: "A" } as const;
+    const off: PlanEdit = {
+      ...edit,
+      liftPoints: edit.liftPoints.map((p) => (p.label === "A" ? { ...p, position: { x: 0.03, y: 0, z: 0.9 } } : p)),
+    };
+    const x = (action: ReturnType<typeof nudgeHandle>) => (action as { position: { x: number } }).position.x;
+    expect(x(nudgeHandle(off, a, "elevation", "ArrowRight", fine))).toBeCloseTo(0.1, 12);
+    expect(x(nudgeHandle(off, a, "elevation", "ArrowLeft", fine))).toBe(0);
+    expect(x(nudgeHandle(off, a, "elevation", "ArrowLeft", { ...fine, snap: false }))).toBeCloseTo(-0.02, 12);
   });
 
   it("the hook goes only up and down, only in the elevation and only in a level lift", () => {
@@ -328,23 +322,20 @@ describe("the keyboard", () => {
         fc.integer({ min: -200, max: 200 }),
         fc.boolean(),
         (i, k, coarse) => {
-          const start: PlanEdit = { ...edit, cog: { x: i * 0.05, y: 0, z: k * 0.05 } };
+          const a = { kind: "lift-point", label: "A" } as const;
+          const at = (position: PlanEdit["cog"]): PlanEdit => ({
+            ...edit,
+            liftPoints: edit.liftPoints.map((p) => (p.label === "A" ? { ...p, position } : p)),
+          });
+          const start = { x: i * 0.05, y: 0, z: k * 0.05 };
           const options = { ...fine, coarse };
-          const right = nudgeHandle(start, { kind: "cog" }, "elevation", "ArrowRight", options) as {
-            cog: PlanEdit["cog"];
+          const right = nudgeHandle(at(start), a, "elevation", "ArrowRight", options) as { position: PlanEdit["cog"] };
+          const back = nudgeHandle(at(right.position), a, "elevation", "ArrowLeft", options) as {
+            position: PlanEdit["cog"];
           };
-          const back = nudgeHandle(
-            { ...start, cog: right.cog },
-            { kind: "cog" },
-            "elevation",
-            "ArrowLeft",
-            options,
-          ) as { cog: PlanEdit["cog"] };
-          expect(back.cog.x).toBeCloseTo(start.cog.x, 9);
-          const upped = nudgeHandle(start, { kind: "cog" }, "elevation", "ArrowUp", options) as {
-            cog: PlanEdit["cog"];
-          };
-          expect(upped.cog.z - start.cog.z).toBeCloseTo(coarse ? 0.5 : 0.05, 9);
+          expect(back.position.x).toBeCloseTo(start.x, 9);
+          const upped = nudgeHandle(at(start), a, "elevation", "ArrowUp", options) as { position: PlanEdit["cog"] };
+          expect(upped.position.z - start.z).toBeCloseTo(coarse ? 0.5 : 0.05, 9);
         },
       ),
     );

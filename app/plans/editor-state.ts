@@ -1,13 +1,19 @@
 // The plan editor's state: the editable parts of a plan, with undo and redo, snapping and the
 // view transform of the drawing. Pure (no React, no Konva, no I/O), so it is tested on its own.
 import type { Arrangement, LegRiggingAllocation, RiggingAllocation } from "~/plans/document";
+import type { LoadOverride } from "~/plans/load-override";
 
 export type Vec3 = { x: number; y: number; z: number };
 export type EditorLiftPoint = { label: string; position: Vec3; axis: Vec3; thread: string };
 
-/** What the planner edits on the drawing: the load's CoG and lift points (the plan's own copy), the arrangement and the gear. */
+/**
+ * What the planner edits on the drawing: the load's lift points (the plan's own copy), the override of the
+ * component's mass and CoG (with its reason), the arrangement and the gear. `cog` is the CoG as planned: the
+ * component's, or the override's; it moves only with the override.
+ */
 export type PlanEdit = {
   cog: Vec3;
+  override: LoadOverride | null;
   liftPoints: EditorLiftPoint[];
   arrangement: Arrangement;
   rigging: RiggingAllocation;
@@ -27,7 +33,8 @@ export type EditorAction =
   | { type: "load"; edit: PlanEdit }
   /** Starts a drag: the state before it becomes one undo step, and the moves that follow are transient. */
   | { type: "checkpoint" }
-  | { type: "move-cog"; cog: Vec3; transient?: boolean }
+  /** Sets or (null) removes the override; `cog` is the CoG as planned that follows from it. */
+  | { type: "set-load-override"; override: LoadOverride | null; cog: Vec3 }
   | { type: "move-lift-point"; label: string; position: Vec3; transient?: boolean }
   | { type: "set-hook-height"; hookHeightM: number; transient?: boolean }
   | { type: "set-leg-length"; label: string; lengthM: number }
@@ -68,8 +75,8 @@ function commit(state: EditorState, next: PlanEdit, transient = false): EditorSt
 
 function apply(edit: PlanEdit, action: EditorAction): PlanEdit {
   switch (action.type) {
-    case "move-cog":
-      return { ...edit, cog: action.cog };
+    case "set-load-override":
+      return { ...edit, override: action.override, cog: action.cog };
     case "move-lift-point":
       return {
         ...edit,
@@ -339,10 +346,12 @@ export function handleName(handle: Handle) {
   return handle.kind === "lift-point" ? `Lift point ${handle.label}` : handle.kind === "cog" ? "CoG" : "Hook";
 }
 
-/** What the arrow keys can move: every lift point, the CoG, and the hook when its height is what is given (level mode). */
+/**
+ * What the arrow keys can move: every lift point, and the hook when its height is what is given (level mode).
+ * Not the CoG: it is the component's unless the planner overrides it with a reason.
+ */
 export function movableHandles(edit: PlanEdit): Handle[] {
   const handles: Handle[] = edit.liftPoints.map((p) => ({ kind: "lift-point", label: p.label }));
-  handles.push({ kind: "cog" });
   if (edit.arrangement.mode === "level") handles.push({ kind: "hook" });
   return handles;
 }
@@ -381,8 +390,7 @@ export function nudgeHandle(
     if (view !== "elevation" || arrow.axis !== 1 || edit.arrangement.mode !== "level") return null;
     return { type: "set-hook-height", hookHeightM: stepped(edit.arrangement.hookHeightM, arrow.sign, options) };
   }
-  if (handle.kind === "cog")
-    return { type: "move-cog", cog: { ...edit.cog, [axis]: stepped(edit.cog[axis], arrow.sign, options) } };
+  if (handle.kind === "cog") return null;
   const point = edit.liftPoints.find((p) => p.label === handle.label);
   if (!point) return null;
   return {

@@ -17,7 +17,7 @@ export const SESSION_GAP_MS = 30 * 60 * 1000;
 /** What each changed part is called in the history. */
 const PART_WORDS: Record<string, string> = {
   title: "the title",
-  load: "the load's CoG or lift points",
+  load: "the load's mass, CoG or lift points",
   arrangement: "the arrangement",
   gear: "the gear allocation",
   sequence: "the sequence",

@@ -3,6 +3,7 @@
 // PDF builder as plain data, so the PDF never works anything out for itself.
 import type { ComponentDefinition } from "~/loads/component-definition";
 import type { Arrangement, PlanDetails, PlanResultsBody } from "~/plans/document";
+import type { LoadOverrideMark } from "~/plans/load-override";
 import type { LiveGearState } from "~/plans/live-state";
 import type { Units } from "~/utils/format";
 
@@ -39,6 +40,8 @@ export type PrintablePlan = {
   printedAt: string;
   printedBy: string;
   snapshot: ComponentDefinition;
+  /** Where the load as planned differs from the component (both figures and the reason). */
+  loadOverride?: LoadOverrideMark | null;
   arrangement: Arrangement;
   /** The server's results (status 200 body) of the approved revision. */
   results: PlanResultsBody;

@@ -30,6 +30,7 @@ import {
   type RiggingAllocation,
 } from "~/plans/document";
 import { defaultArrangement, defaultDetails, fitToSnapshot } from "~/plans/defaults";
+import { overrideAuditDetails, overrideIssues, plannedLoad, storedLoadJson } from "~/plans/load-override";
 import { computePlanResults } from "~/plans/results.server";
 
 const ENTITY = "plan";
@@ -139,7 +140,9 @@ function changedParts(
     ["title", title !== after.title],
     [
       "load",
-      !same(before.snapshot.cog, after.snapshot.cog) || !same(before.snapshot.liftPoints, after.snapshot.liftPoints),
+      !same(before.snapshot.cog, after.snapshot.cog) ||
+        before.snapshot.massKg !== after.snapshot.massKg ||
+        !same(before.snapshot.liftPoints, after.snapshot.liftPoints),
     ],
     ["arrangement", !same(before.arrangement, after.arrangement)],
     ["gear", !same(before.rigging, after.rigging)],
@@ -173,7 +176,7 @@ export async function savePlanRevision(
     const locked = await lockedWrite(organisationId, planId, expectedVersion, transaction);
     if (!locked.ok) return locked.result;
     const { plan, revision } = locked.found;
-    const edited = applyLoadEdit(revision.snapshot, loadEdit);
+    const edited = applyLoadEdit(revision.componentSnapshot, revision.loadOverride, loadEdit);
     const snapshot = edited.snapshot;
     const issues = [...edited.issues, ...snapshotIssues(document, snapshot)];
     if (issues.length > 0)
@@ -196,7 +199,7 @@ export async function savePlanRevision(
       revision.id,
       expectedVersion,
       {
-        ...(loadEdit ? { loadSnapshot: JSON.stringify(snapshot) } : {}),
+        ...(loadEdit ? { loadSnapshot: storedLoadJson(edited.component, edited.override) } : {}),
         arrangement: JSON.stringify(document.arrangement),
         rigging: JSON.stringify(document.rigging),
         details: JSON.stringify(document.details),
@@ -208,8 +211,22 @@ export async function savePlanRevision(
     );
     if (!written) return { status: "stale", version: expectedVersion };
     const changed = changedParts(plan.title, revision, { ...document, snapshot });
+    const overrideChange = overrideAuditDetails(edited.component, revision.loadOverride, edited.override);
+    if (overrideChange && !changed.includes("load")) changed.push("load");
     await setPlanTitle(plan, document.title, transaction);
     await recordRevisionAuthor(revision.id, actorId, "saved", transaction);
+    if (overrideChange)
+      await recordAudit(
+        {
+          organisationId,
+          userId: actorId,
+          entity: ENTITY,
+          entityId: plan.id,
+          action: edited.override ? "load override set" : "load override removed",
+          details: { revision: revision.revision, ...overrideChange },
+        },
+        transaction,
+      );
     await recordAudit(
       {
         organisationId,
@@ -250,8 +267,17 @@ export async function pullComponentVersion(
     const component = await getComponent(organisationId, revision.componentId, transaction);
     if (!component) return { status: "no-component" };
     if (component.version === revision.componentVersion) return { status: "up-to-date" };
-    const snapshot = toDefinition(component);
-    const changes = diffComponentDefinitions(revision.snapshot, snapshot);
+    const fresh = toDefinition(component);
+    const changes = diffComponentDefinitions(revision.componentSnapshot, fresh);
+    // The planner's override stays with its reason unless its CoG falls outside the new outline.
+    const kept = revision.loadOverride && overrideIssues(fresh, revision.loadOverride).length === 0;
+    const override = kept ? revision.loadOverride : null;
+    if (revision.loadOverride && !kept)
+      changes.push({
+        kind: "override-removed",
+        message: "The override of the mass or CoG was removed: it no longer fits the component.",
+      });
+    const snapshot = plannedLoad(fresh, override);
     const fitted = fitToSnapshot(revision, snapshot);
     const results = await computePlanResults(
       snapshot,
@@ -269,7 +295,7 @@ export async function pullComponentVersion(
       revision.id,
       expectedVersion,
       {
-        loadSnapshot: JSON.stringify(snapshot),
+        loadSnapshot: storedLoadJson(fresh, override),
         componentVersion: component.version,
         arrangement: JSON.stringify(fitted.arrangement),
         rigging: JSON.stringify(fitted.rigging),
@@ -312,6 +338,6 @@ export async function compareWithComponent(organisationId: number, revision: Rev
     componentId: latest.id,
     latestVersion: component?.version ?? latest.version,
     newer,
-    changes: component ? diffComponentDefinitions(revision.snapshot, toDefinition(component)) : [],
+    changes: component ? diffComponentDefinitions(revision.componentSnapshot, toDefinition(component)) : [],
   };
 }

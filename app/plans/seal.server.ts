@@ -12,6 +12,7 @@ import type { PlanForWorkflow, RevisionView } from "~/models/plan.server";
 import { getReferenceTables } from "~/models/reference-row.server";
 import { userNames, type SessionUser } from "~/models/user.server";
 import type { PlanResultsBody, RiggingAllocation } from "~/plans/document";
+import { overrideMark } from "~/plans/load-override";
 import type { GearSlot, SealedItem, SealedPlan } from "~/plans/sealed";
 
 /** SHA-256 of a value in a canonical form (object keys sorted), hex. */
@@ -176,6 +177,7 @@ export async function buildSealedRecord(
     },
     component: { id: view.componentId, version: view.componentVersion },
     snapshot: view.snapshot,
+    loadOverride: overrideMark(view.componentSnapshot, view.loadOverride),
     arrangement: view.arrangement,
     rigging: view.rigging,
     results,

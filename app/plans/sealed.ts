@@ -2,6 +2,7 @@
 // stored once in the approval's transaction and never read again from live rows. Its SHA-256 is the
 // revision's fingerprint. Pure and shared with the browser.
 import type { ComponentDefinition } from "~/loads/component-definition";
+import type { LoadOverrideMark } from "~/plans/load-override";
 import type { Arrangement, PlanDetails, PlanResultsBody, RiggingAllocation } from "~/plans/document";
 
 export type GearSlot = "eyebolt" | "shackle" | "sling" | "masterLink" | "crane";
@@ -55,8 +56,10 @@ export type SealedPlan = {
     typedName: string;
   };
   component: { id: number | null; version: number | null };
-  /** The load as planned (the plan's copy of the component). */
+  /** The load as planned (the plan's copy of the component, with the planner's override of its mass and CoG). */
   snapshot: ComponentDefinition;
+  /** Where the load as planned differs from the component, with both figures and the reason; absent in older seals. */
+  loadOverride?: LoadOverrideMark | null;
   arrangement: Arrangement;
   rigging: RiggingAllocation;
   /** The server's results (status 200 body) worked out on approval. */

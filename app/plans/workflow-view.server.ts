@@ -19,6 +19,7 @@ import { listRevisionAuthors } from "~/models/plan-revision-author.server";
 import { userNames, type SessionUser } from "~/models/user.server";
 import type { PlanStatus } from "~/plans/document";
 import { collapseEditingSessions } from "~/plans/history";
+import { overrideMark } from "~/plans/load-override";
 import { readLiftRecordDocument, type LiftRecordDocument } from "~/plans/lift-record";
 import { notFitSentence, type LiveGearState } from "~/plans/live-state";
 import { liveStateOf } from "~/plans/live-state.server";
@@ -191,7 +192,7 @@ export function shownRevision(
         title: plan.job?.title ?? "",
         site: site ? `${site.name} · ${site.customer}` : "",
       },
-      revision,
+      revision: { ...revision, loadOverrideMark: overrideMark(revision.componentSnapshot, revision.loadOverride) },
     };
   return {
     title: sealed.title,
@@ -204,6 +205,7 @@ export function shownRevision(
     revision: {
       ...revision,
       snapshot: sealed.snapshot,
+      loadOverrideMark: sealed.loadOverride ?? null,
       arrangement: sealed.arrangement,
       rigging: sealed.rigging,
       details: sealed.details,

@@ -5,12 +5,14 @@ import { warningsBesideChecks } from "~/components/live-results";
 import { ChecksList } from "~/components/results/checks-list";
 import { GoverningSummary } from "~/components/results/governing-summary";
 import { LegTable } from "~/components/results/leg-table";
+import { LoadOverrideNotice } from "~/components/load-override-mark";
 import { Button, Card, Field, FormError, PageHeader, TextAreaField } from "~/components/ui/form";
 import { parseForm, requireFormData, safeText } from "~/utils/forms";
 import { getPlan, planExists } from "~/models/plan.server";
 import { approveRevision, returnRevision } from "~/plans/workflow.server";
 import { getWorkflowView } from "~/plans/workflow-view.server";
 import { PLAN_CAUTION, PLAN_STATUS_LABELS } from "~/plans/document";
+import { overrideMark } from "~/plans/load-override";
 import { flashNotice, requireUserWithRole } from "~/utils/session.server";
 import { formatLength, formatMass } from "~/utils/format";
 
@@ -37,7 +39,14 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const r = found.revision;
   return {
     plan: { id: found.plan.id, title: found.plan.title },
-    revision: { revision: r.revision, status: r.status, snapshot: r.snapshot, results: r.results, details: r.details },
+    revision: {
+      revision: r.revision,
+      status: r.status,
+      snapshot: r.snapshot,
+      results: r.results,
+      details: r.details,
+      loadOverride: overrideMark(r.componentSnapshot, r.loadOverride),
+    },
     acknowledgements: workflow.acknowledgements,
     permissions: { approve: workflow.permissions.approve, return: workflow.permissions.return },
     approverName: user.name,
@@ -103,10 +112,12 @@ export default function ReviewPlan({ loaderData, actionData }: Route.ComponentPr
         <div className="space-y-6">
           <Card title="The load">
             <p className="text-sm">
-              {s.name}: {formatMass(s.massKg, units)} ({s.massSource}), contingency {s.contingencyPct} %, CoG (
-              {formatLength(s.cog.x, units)}, {formatLength(s.cog.y, units)}, {formatLength(s.cog.z, units)}) (
-              {s.cogSource}).
+              {s.name}: {formatMass(s.massKg, units)} (
+              {revision.loadOverride?.mass ? "planner's override" : s.massSource}), contingency {s.contingencyPct} %,
+              CoG ({formatLength(s.cog.x, units)}, {formatLength(s.cog.y, units)}, {formatLength(s.cog.z, units)}) (
+              {revision.loadOverride?.cog ? "planner's override" : s.cogSource}).
             </p>
+            <LoadOverrideNotice mark={revision.loadOverride} units={units} />
             {results ? (
               <div className="mt-2 space-y-2">
                 <LegTable

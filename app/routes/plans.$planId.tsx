@@ -2,6 +2,7 @@ import { data, Form, redirect } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/plans.$planId";
 import { ComponentViews } from "~/components/component-views";
+import { LoadOverrideNotice } from "~/components/load-override-mark";
 import { Button, Card, EmptyState, FormError, PageHeader } from "~/components/ui/form";
 import { COG_SOURCE_LABELS, MASS_SOURCE_LABELS } from "~/loads/component-definition";
 import { parseForm, requireFormData, safeText } from "~/utils/forms";
@@ -196,7 +197,7 @@ function Results({ results, units }: { results: PlanResults; units: Units }) {
 
 export default function PlanPage({ loaderData, actionData }: Route.ComponentProps) {
   const { plan, job, revision, comparison, units, canEdit, workflow, riggers, arrivedFromPhone } = loaderData;
-  const { snapshot: s, arrangement: a, rigging, details } = revision;
+  const { snapshot: s, arrangement: a, rigging, details, loadOverrideMark: mark } = revision;
   const planMass = s.massKg * (1 + s.contingencyPct / 100);
   return (
     <>
@@ -263,7 +264,7 @@ export default function PlanPage({ loaderData, actionData }: Route.ComponentProp
       {workflow && <WorkflowPanel planId={plan.id} workflow={workflow} riggers={riggers} />}
       <div className="grid gap-6 lg:grid-cols-[minmax(0,1fr)_24rem]">
         <div className="space-y-6">
-          <Card title="Load (as copied into this plan)">
+          <Card title="Load (as planned)">
             <dl className="grid gap-x-6 gap-y-2 text-sm sm:grid-cols-2">
               <div>
                 <dt className="text-ink-soft">Component</dt>
@@ -276,8 +277,9 @@ export default function PlanPage({ loaderData, actionData }: Route.ComponentProp
                 <dt className="text-ink-soft">Mass</dt>
                 <dd className="font-semibold">{formatMass(s.massKg, units)}</dd>
                 <dd>
-                  {MASS_SOURCE_LABELS[s.massSource]}
-                  {s.massNote ? ` · ${s.massNote}` : ""}
+                  {mark?.mass
+                    ? "Planner's override (differs from the component)"
+                    : `${MASS_SOURCE_LABELS[s.massSource]}${s.massNote ? ` · ${s.massNote}` : ""}`}
                 </dd>
               </div>
               <div>
@@ -290,11 +292,13 @@ export default function PlanPage({ loaderData, actionData }: Route.ComponentProp
                   {formatLength(s.cog.x, units)}, {formatLength(s.cog.y, units)}, {formatLength(s.cog.z, units)}
                 </dd>
                 <dd>
-                  {COG_SOURCE_LABELS[s.cogSource]}
-                  {s.cogNote ? ` · ${s.cogNote}` : ""}
+                  {mark?.cog
+                    ? "Planner's override (differs from the component)"
+                    : `${COG_SOURCE_LABELS[s.cogSource]}${s.cogNote ? ` · ${s.cogNote}` : ""}`}
                 </dd>
               </div>
             </dl>
+            <LoadOverrideNotice mark={mark} units={units} />
           </Card>
           <Card title="Arrangement">
             <dl className="grid gap-x-6 gap-y-2 text-sm sm:grid-cols-2">

@@ -13,6 +13,7 @@ import {
   Z_UP,
   fail,
   names,
+  pullsFromBelowSurface,
   type BridleLoad,
   type LiftPoint,
   type SolveOutcome,
@@ -267,7 +268,7 @@ function turnsOver(points: readonly LiftPoint[], cog: Vec3, leg: number): SolveO
   }
   const which =
     leg >= 0
-      ? `the leg to lift point ${points[leg]!.id} would pull from below its lift point's surface`
+      ? pullsFromBelowSurface(points[leg]!.id)
       : `no position holds it with the hook above lift points ${names(points, all)}`;
   return fail(
     "LOAD_TURNS_OVER",

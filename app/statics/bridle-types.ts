@@ -146,6 +146,14 @@ export function fail(code: SolveErrorCode, message: string): SolveOutcome {
   return { ok: false, code, message };
 }
 
+/**
+ * The words both modes use when a leg would leave its lift point against the lift point's axis, (H - P) . a <=
+ * GEOMETRY_TOL_M: it would pull from the inner side of the surface, into the part (code LOAD_TURNS_OVER).
+ */
+export function pullsFromBelowSurface(liftPointId: string): string {
+  return `the leg to lift point ${liftPointId} would pull from below its lift point's surface`;
+}
+
 /** A length in whole millimetres for messages. */
 export function mm(lengthM: number): string {
   return `${Math.round(lengthM * 1000)} mm`;

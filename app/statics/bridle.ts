@@ -12,13 +12,14 @@ import {
   fail,
   mm,
   names,
+  pullsFromBelowSurface,
   type BridleLoad,
   type LiftPoint,
   type SolveOutcome,
   type SolveWarning,
 } from "./bridle-types";
 import { STANDARD_GRAVITY_MS2 } from "./units";
-import { sub, type Vec3 } from "./vector";
+import { angleBetweenDeg, dot, sub, type Vec3 } from "./vector";
 
 export { findHangingHook, solveGivenLengths } from "./bridle-lengths";
 export { rateBridle } from "./bridle-rating";
@@ -72,6 +73,14 @@ export function solveLevel(load: BridleLoad, points: readonly LiftPoint[], hookZ
       return fail(
         "HOOK_NOT_ABOVE_LIFT_POINT",
         `The hook is not above lift point ${p.id}, so its leg cannot hang up to the hook; raise the hook above all lift points.`,
+      );
+    }
+    // The given-lengths side rule holds here too: a leg leaves its lift point outward along the lift point's axis.
+    // Level, with the hook plumb over the CoG, a leg that would pull into the part is refused with the same code.
+    if (!(dot(d, p.axis) > GEOMETRY_TOL_M)) {
+      return fail(
+        "LOAD_TURNS_OVER",
+        `Hanging level with the hook plumb over the CoG, ${pullsFromBelowSurface(p.id)} (${angleBetweenDeg(d, p.axis).toFixed(0)} deg from its axis), so the load will turn over; use lift points whose axes face the hook, or raise the hook.`,
       );
     }
     lengths.push(len);

@@ -1,6 +1,11 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { compositeMassAndCog } from "./composite";
+import {
+  COMPOSITE_COG_TOLERANCE_M,
+  COMPOSITE_MASS_TOLERANCE,
+  compositeDisagreements,
+  compositeMassAndCog,
+} from "./composite";
 
 describe("composite mass and CoG", () => {
   it("a 1000 kg element and a 250 kg coupling 1.2 m away: G sits 0.24 m from the element (lever rule, common practice)", () => {
@@ -53,5 +58,36 @@ describe("composite mass and CoG", () => {
         expect(b.cog.x).toBeCloseTo(a.cog.x, 9);
       }),
     );
+  });
+});
+
+describe("the composite sum against the component's own figures", () => {
+  // The 1000 kg element with a 250 kg coupling 1.2 m away: 1250 kg, G at x = 0.24 m (lever rule, common practice).
+  const composite = compositeMassAndCog([
+    { name: "element", massKg: 1000, position: { x: 0, y: 0, z: 0.5 } },
+    { name: "coupling", massKg: 250, position: { x: 1.2, y: 0, z: 0.5 } },
+  ])!;
+
+  it("agrees within 2 % of the mass and 5 mm of the CoG (common practice): no warning", () => {
+    expect(compositeDisagreements(composite, { massKg: 1240, cog: { x: 0.243, y: 0, z: 0.5 } })).toEqual([]);
+    expect(COMPOSITE_MASS_TOLERANCE).toBe(0.02);
+    expect(COMPOSITE_COG_TOLERANCE_M).toBe(0.005);
+  });
+
+  it("a component entered at 1200 kg with its CoG at the element's centre: both disagree", () => {
+    const found = compositeDisagreements(composite, { massKg: 1200, cog: { x: 0, y: 0, z: 0.5 } });
+    const mass = found.find((d) => d.kind === "mass");
+    const cog = found.find((d) => d.kind === "cog");
+    // (1250 - 1200) / 1200 = 4.17 %, over 2 %; the CoGs are 240 mm apart, over 5 mm.
+    expect(mass && mass.kind === "mass" && mass.difference).toBeCloseTo(50 / 1200, 12);
+    expect(cog && cog.kind === "cog" && cog.distanceM).toBeCloseTo(0.24, 12);
+  });
+
+  it("just past the tolerances warns, and a figure not given is not compared", () => {
+    expect(compositeDisagreements(composite, { massKg: 1250 / 1.021, cog: null }).map((d) => d.kind)).toEqual(["mass"]);
+    expect(
+      compositeDisagreements(composite, { massKg: null, cog: { x: 0.246, y: 0, z: 0.5 } }).map((d) => d.kind),
+    ).toEqual(["cog"]);
+    expect(compositeDisagreements(composite, { massKg: null, cog: null })).toEqual([]);
   });
 });

@@ -28,3 +28,38 @@ export function compositeMassAndCog(parts: readonly CompositePart[]): CompositeR
   if (!(massKg > 0) || !Number.isFinite(massKg)) return null;
   return { massKg, cog: { x: mx / massKg, y: my / massKg, z: mz / massKg }, momentKgM: { x: mx, y: my, z: mz } };
 }
+
+/**
+ * How far the parts' sum may be from the component's own figures before the calculator warns (common practice,
+ * not a published limit): a mass within 2 % (the usual spread of drawing masses, paint, fluids and fixings left
+ * out of a parts list), and a CoG within 5 mm (a few mm: the rounding of positions read off a drawing).
+ */
+export const COMPOSITE_MASS_TOLERANCE = 0.02;
+export const COMPOSITE_COG_TOLERANCE_M = 0.005;
+
+export type CompositeDisagreement =
+  | { kind: "mass"; partsKg: number; componentKg: number; /** (parts - component) / component */ difference: number }
+  | { kind: "cog"; parts: Vec3; component: Vec3; /** |G_parts - G_component|, m */ distanceM: number };
+
+/**
+ * Where the parts' total mass or combined CoG disagrees with the component's own mass or CoG beyond the
+ * tolerances above; empty when they agree (or when the component's figure is not given).
+ */
+export function compositeDisagreements(
+  composite: CompositeResult,
+  component: { massKg: number | null; cog: Vec3 | null },
+): CompositeDisagreement[] {
+  const out: CompositeDisagreement[] = [];
+  const { massKg, cog } = component;
+  if (massKg !== null && massKg > 0) {
+    const difference = (composite.massKg - massKg) / massKg;
+    if (Math.abs(difference) > COMPOSITE_MASS_TOLERANCE)
+      out.push({ kind: "mass", partsKg: composite.massKg, componentKg: massKg, difference });
+  }
+  if (cog !== null) {
+    const distanceM = Math.hypot(composite.cog.x - cog.x, composite.cog.y - cog.y, composite.cog.z - cog.z);
+    if (distanceM > COMPOSITE_COG_TOLERANCE_M)
+      out.push({ kind: "cog", parts: composite.cog, component: cog, distanceM });
+  }
+  return out;
+}

@@ -116,6 +116,7 @@ type SavedPlan = {
     cog: { x: number; y: number; z: number };
     liftPoints: Array<{ label: string; position: { x: number; y: number; z: number } }>;
   };
+  loadOverride: { reason: string } | null;
   arrangement: { hookHeightM: number };
   rigging: { legs: Record<string, { eyeboltItemId?: number }> };
 };
@@ -162,7 +163,7 @@ async function pickEyeboltByKeyboard(page: Page, leg: string, thread: string, av
 }
 
 describe("a planner lays out a lift from the keyboard alone", () => {
-  it("chooses handles, moves a lift point, the hook and the CoG, undoes and redoes, picks eyebolts and saves", async () => {
+  it("chooses handles, moves a lift point and the hook, overrides the CoG with a reason, undoes and redoes, picks eyebolts and saves", async () => {
     const { page, context } = browser;
     await context.clearCookies();
     await signIn(page, "planner@example.com");
@@ -215,7 +216,6 @@ describe("a planner lays out a lift from the keyboard alone", () => {
     // The hook: three grid steps up. The first lands on the grid line nearest one step up; each after adds one step.
     await page.keyboard.press("Shift+Tab");
     await page.keyboard.press("ArrowRight");
-    await page.keyboard.press("ArrowRight");
     expect(await handle("Hook").isChecked()).toBe(true);
     await page.keyboard.press("Tab");
     for (let i = 0; i < 3; i++) await page.keyboard.press("ArrowUp");
@@ -230,13 +230,18 @@ describe("a planner lays out a lift from the keyboard alone", () => {
     await page.keyboard.press("Enter");
     await expect.poll(() => hookInput.inputValue()).toBe(String(Math.round(hookExpectedM * 1000)));
 
-    // The CoG, moved in the plan view: one step along x.
-    await tabTo(page, handle("Hook"));
-    await page.keyboard.press("ArrowLeft");
-    expect(await handle("CoG").isChecked()).toBe(true);
-    await tabTo(page, planView);
-    await page.keyboard.press("ArrowRight");
-    const cogExpectedX = Math.round((before.snapshot.cog.x + 0.05) / 0.05) * 0.05;
+    // The CoG is the component's: the arrow keys do not offer it. It moves only by an override with a reason.
+    expect(await handle("CoG").count()).toBe(0);
+    await page.getByRole("button", { name: "Override the mass or CoG" }).click();
+    const cogExpectedX = before.snapshot.cog.x + 0.05;
+    await page.getByLabel("Planned CoG x (mm)").fill(String(Math.round(cogExpectedX * 1000)));
+    await page.getByRole("button", { name: "Apply the override" }).click();
+    await expect
+      .poll(() => page.getByTestId("load-override-form").innerText())
+      .toContain("Give the reason for overriding the component's mass or CoG.");
+    await page.getByLabel("Reason for the override").fill("Coupling half removed before the lift");
+    await page.getByRole("button", { name: "Apply the override" }).click();
+    await expect.poll(() => page.getByTestId("load-override").innerText()).toContain("CoG differs from the component");
     await expect.poll(() => page.getByLabel("CoG x (mm)").inputValue()).toBe(String(Math.round(cogExpectedX * 1000)));
 
     // Eyebolts for both legs from the pickers; Escape closes a picker and gives focus back to its button.
@@ -269,6 +274,7 @@ describe("a planner lays out a lift from the keyboard alone", () => {
     );
     expect(after.arrangement.hookHeightM).toBeCloseTo(hookExpectedM, 6);
     expect(after.snapshot.cog.x).toBeCloseTo(cogExpectedX, 6);
+    expect(after.loadOverride?.reason).toBe("Coupling half removed before the lift");
     expect(after.rigging.legs.A?.eyeboltItemId).toBe(await gearIdByCode(page, codeA));
     expect(after.rigging.legs.B?.eyeboltItemId).toBe(await gearIdByCode(page, codeB));
 

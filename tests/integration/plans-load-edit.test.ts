@@ -19,7 +19,7 @@ async function load(planId: number, user: { id: number }) {
     .data as Body;
 }
 
-describe("moving the CoG and lift points in the editor", () => {
+describe("moving the lift points and overriding the CoG in the editor", () => {
   it("changes the plan's own copy of the load and the results, never the component", async () => {
     const planner = await makeUser(["planner"]);
     const { plan, component } = await makePlan(planner);
@@ -31,7 +31,7 @@ describe("moving the CoG and lift points in the editor", () => {
       rigging: before.rigging,
       details: before.details,
       load: {
-        cog: { x: 0.4, y: 0, z: 0.5 },
+        override: { cog: { x: 0.4, y: 0, z: 0.5 }, reason: "Weighed at the four corners on site" },
         liftPoints: [
           { label: "A", position: { x: -0.8, y: 0, z: 0.9 } },
           { label: "B", position: { x: 0.8, y: 0, z: 0.9 } },
@@ -60,7 +60,7 @@ describe("moving the CoG and lift points in the editor", () => {
       arrangement: before.arrangement,
       rigging: before.rigging,
       details: before.details,
-      load: { cog: { x: 0, y: 0, z: 0.5 }, liftPoints: [{ label: "Z", position: { x: 0, y: 0, z: 1 } }] },
+      load: { liftPoints: [{ label: "Z", position: { x: 0, y: 0, z: 1 } }] },
     };
     const res = await callRoute(planApi.action, await jsonRequest(`/api/plans/${plan.id}`, payload, planner, "PUT"), {
       planId: String(plan.id),

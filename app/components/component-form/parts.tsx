@@ -2,7 +2,14 @@ import { useMemo, type Dispatch, type SetStateAction } from "react";
 import { newRowKey, toNumber, type Errors, type PartRow } from "~/components/component-form/rows";
 import { Button, Card, FieldError } from "~/components/ui/form";
 import { MAX_PARTS } from "~/loads/component-input";
-import { compositeMassAndCog, type CompositeResult } from "~/statics/composite";
+import {
+  COMPOSITE_COG_TOLERANCE_M,
+  COMPOSITE_MASS_TOLERANCE,
+  compositeDisagreements,
+  compositeMassAndCog,
+  type CompositeResult,
+} from "~/statics/composite";
+import type { Vec3 } from "~/statics/vector";
 import {
   formatLength,
   formatMass,
@@ -20,12 +27,15 @@ export function PartsCard({
   onUseComposite,
   errors,
   units,
+  component,
 }: {
   parts: PartRow[];
   setParts: Dispatch<SetStateAction<PartRow[]>>;
   onUseComposite: (composite: CompositeResult) => void;
   errors: Errors;
   units: Units;
+  /** The component's own mass (kg) and CoG (m) as typed in the form, null where not given. */
+  component: { massKg: number | null; cog: Vec3 | null };
 }) {
   const lu = lengthUnitLabel(units);
   const mu = massUnitLabel(units);
@@ -126,6 +136,13 @@ export function PartsCard({
             G = ({formatLength(composite.cog.x, units)}, {formatLength(composite.cog.y, units)},{" "}
             {formatLength(composite.cog.z, units)})
           </p>
+          {compositeDisagreements(composite, component).map((d) => (
+            <p key={d.kind} role="status" className="mt-2 rounded border border-warn/40 bg-warn-soft px-2 py-1">
+              {d.kind === "mass"
+                ? `The parts add up to ${formatMass(d.partsKg, units)}, ${Math.abs(d.difference * 100).toFixed(1)} % ${d.difference > 0 ? "more" : "less"} than the component's mass of ${formatMass(d.componentKg, units)} (more than the ${COMPOSITE_MASS_TOLERANCE * 100} % common practice allows for rounding): check the parts, or use their sum.`
+                : `The parts' CoG is ${formatLength(d.distanceM, units)} from the component's CoG (${formatLength(d.component.x, units)}, ${formatLength(d.component.y, units)}, ${formatLength(d.component.z, units)}), more than the ${formatLength(COMPOSITE_COG_TOLERANCE_M, units)} common practice allows for rounding: check the parts' positions and the datum, or use their CoG.`}
+            </p>
+          ))}
           <Button type="button" tone="secondary" className="mt-2" onClick={() => onUseComposite(composite)}>
             Use as the component's mass and CoG
           </Button>

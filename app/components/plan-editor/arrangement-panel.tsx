@@ -142,11 +142,14 @@ export function ArrangementPanel({
             label={`CoG ${axis} (${lu})`}
             valueM={edit.cog[axis]}
             units={units}
-            disabled={!canEdit}
-            onCommit={(v) => dispatch({ type: "move-cog", cog: { ...edit.cog, [axis]: v } })}
+            disabled
+            onCommit={() => undefined}
           />
         ))}
       </div>
+      <p className="text-xs text-ink-soft">
+        The CoG and the mass are the component&apos;s; to plan with others, override them with a reason below.
+      </p>
       {edit.arrangement.kind === "beam" && edit.arrangement.beam && (
         <p className="text-sm text-ink-soft">
           Beam: {formatLength(edit.arrangement.beam.lengthM, units)} long, drops{" "}

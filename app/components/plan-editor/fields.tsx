@@ -7,6 +7,7 @@ import { fromDisplayLength, inputNumber, toDisplayLength, type Units } from "~/u
 export function toEdit(plan: EditorPlan): PlanEdit {
   return {
     cog: plan.snapshot.cog,
+    override: plan.loadOverride,
     liftPoints: plan.snapshot.liftPoints.map((p) => ({
       label: p.label,
       position: p.position,

@@ -2,6 +2,7 @@
 // code), and the load.
 import type { PDFImage } from "pdf-lib";
 import { COG_SOURCE_LABELS, MASS_SOURCE_LABELS } from "~/loads/component-definition";
+import { overrideSentences } from "~/plans/load-override";
 import { loadText, statusWords, utcText } from "~/plans/pdf/format";
 import {
   BRASS,
@@ -148,6 +149,7 @@ export function titleBlock(flow: Flow, plan: PrintablePlan, qr: PDFImage) {
 export function loadSection(flow: Flow, plan: PrintablePlan) {
   const s = plan.snapshot;
   const units = plan.units;
+  const mark = plan.loadOverride ?? null;
   heading(flow, 2, "The load", 70);
   const withContingency = s.massKg * (1 + s.contingencyPct / 100);
   const colW = (CONTENT_W - 16) / 2;
@@ -155,7 +157,9 @@ export function loadSection(flow: Flow, plan: PrintablePlan) {
     ["Component", s.name],
     [
       "Mass",
-      `${formatMass(s.massKg, units)}, ${MASS_SOURCE_LABELS[s.massSource].toLowerCase()}${s.massNote.trim() ? ` (${s.massNote.trim()})` : ""}`,
+      mark?.mass
+        ? `${formatMass(s.massKg, units)}, planner's override (differs from the component)`
+        : `${formatMass(s.massKg, units)}, ${MASS_SOURCE_LABELS[s.massSource].toLowerCase()}${s.massNote.trim() ? ` (${s.massNote.trim()})` : ""}`,
     ],
     ["Contingency", `${s.contingencyPct.toLocaleString("en-GB")} %`],
     ["With contingency", loadText(withContingency, units)],
@@ -165,7 +169,12 @@ export function loadSection(flow: Flow, plan: PrintablePlan) {
       "CoG (x, y, z)",
       `${formatLength(s.cog.x, units)}, ${formatLength(s.cog.y, units)}, ${formatLength(s.cog.z, units)}`,
     ],
-    ["CoG source", `${COG_SOURCE_LABELS[s.cogSource]}${s.cogNote.trim() ? ` (${s.cogNote.trim()})` : ""}`],
+    [
+      "CoG source",
+      mark?.cog
+        ? "Planner's override (differs from the component)"
+        : `${COG_SOURCE_LABELS[s.cogSource]}${s.cogNote.trim() ? ` (${s.cogNote.trim()})` : ""}`,
+    ],
     [
       "Size (L × W × H)",
       `${formatLength(s.lengthM, units)} × ${formatLength(s.widthM, units)} × ${formatLength(s.heightM, units)}`,
@@ -179,4 +188,14 @@ export function loadSection(flow: Flow, plan: PrintablePlan) {
   facts(flow, left, LEFT, colW, flow.y, true, 82);
   facts(flow, right, LEFT + colW + 16, colW, flow.y, true, 82);
   flow.y -= h + 2;
+  if (mark) {
+    flow.paragraph(
+      "Differs from the component:",
+      { font: flow.fonts.semibold, size: 8.5, color: INK },
+      { gapAfter: 1 },
+    );
+    for (const line of overrideSentences(mark, units))
+      flow.paragraph(line, { font: flow.fonts.regular, size: 8.5, color: INK }, { gapAfter: 1 });
+    flow.y -= 2;
+  }
 }
