@@ -307,6 +307,30 @@ export async function listPlanRevisions(planId: number) {
   return PlanRevision.findAll({ where: { planId } });
 }
 
+/** The columns that say where a revision stands and who is on it: never its documents, results or sealed record. */
+const REVISION_SUMMARY = [
+  "id",
+  "planId",
+  "revision",
+  "status",
+  "plannedBy",
+  "submittedBy",
+  "approvedBy",
+  "assignedRiggerId",
+  "supersededByRevision",
+  "updatedAt",
+] as const;
+
+/** Every revision of the plan with the summary columns only (a plan with many revisions costs little more). */
+export async function listRevisionSummaries(planId: number) {
+  return PlanRevision.findAll({ where: { planId }, attributes: [...REVISION_SUMMARY] });
+}
+
+/** One revision of the plan in full, or null. */
+export async function getPlanRevision(planId: number, revisionId: number) {
+  return PlanRevision.findOne({ where: { id: revisionId, planId } });
+}
+
 /** Sets values on the revision only while it still has status `from`; false when someone else moved it first. */
 export async function moveRevision(
   revisionId: number,
