@@ -3,8 +3,8 @@ import { Card, EmptyState, PageHeader } from "~/components/ui/form";
 import { countOpenJobs, listJobsPage } from "~/models/job.server";
 import { listPendingInvitations } from "~/models/user.server";
 import { plannerQueue, reviewQueue, riggerQueue, type QueueRow } from "~/models/plan-queue.server";
-import { listGearNeedingAttention } from "~/models/gear-item.server";
-import { ATTENTION_GROUP_TITLES, ATTENTION_GROUPS, groupForAttention } from "~/gear/attention";
+import { gearAttentionSummary } from "~/models/gear-item-reads.server";
+import { ATTENTION_GROUP_TITLES, ATTENTION_GROUPS } from "~/gear/attention";
 import { DUE_SOON_DAYS } from "~/gear/due";
 import { addDays } from "~/utils/dates";
 import { getOrganisationToday } from "~/models/organisation.server";
@@ -19,19 +19,8 @@ const DASHBOARD_JOBS = 12;
 
 /** The admin's view of the register: the same named groups the reminder mail carries, a few items each. */
 async function gearAttention(organisationId: number, today: string) {
-  const items = await listGearNeedingAttention(addDays(today, DUE_SOON_DAYS), organisationId);
-  const groups = groupForAttention(items, today);
-  return ATTENTION_GROUPS.map((group) => ({
-    group,
-    title: ATTENTION_GROUP_TITLES[group],
-    count: groups[group].length,
-    items: groups[group].slice(0, 8).map((g) => ({
-      id: g.id,
-      itemCode: g.itemCode,
-      description: g.description,
-      nextDueOn: g.nextDueOn,
-    })),
-  }));
+  const groups = await gearAttentionSummary(organisationId, today, addDays(today, DUE_SOON_DAYS), ATTENTION_GROUPS, 8);
+  return groups.map(({ group, count, items }) => ({ group, title: ATTENTION_GROUP_TITLES[group], count, items }));
 }
 
 export async function loader({ request }: Route.LoaderArgs) {

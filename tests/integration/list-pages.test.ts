@@ -12,6 +12,12 @@ import { Component } from "~/models/component.server";
 import { Job, listJobs } from "~/models/job.server";
 import { Plan } from "~/models/plan.server";
 import { createSite } from "~/models/site.server";
+import * as dashboard from "~/routes/_index";
+import { ATTENTION_GROUPS, groupForAttention } from "~/gear/attention";
+import { DUE_SOON_DAYS } from "~/gear/due";
+import { listGearNeedingAttention } from "~/models/gear-item.server";
+import { addDays, DEFAULT_TIME_ZONE, todayIn } from "~/utils/dates";
+import { makeGearItem } from "../support/gear";
 import { decodeCursor, encodeCursor, PAGE_SIZE } from "~/utils/keyset.server";
 import { callRoute, getRequest, makeUser } from "../support/factories";
 import { makePlan } from "../support/plans";
@@ -198,5 +204,36 @@ describe("lists read a page at a time", () => {
     expect(events.forwards.flat()).toEqual(all);
     expect(events.forwards.length).toBe(Math.ceil(all.length / 200));
     expect(events.backwards).toEqual(events.forwards);
+  });
+
+  it("the admin's dashboard counts each attention group and shows its first eight, as grouping every item would", async () => {
+    const admin = await makeUser(["admin"]);
+    const today = todayIn(DEFAULT_TIME_ZONE);
+    for (let i = 0; i < 60; i++) {
+      const item = await makeGearItem(admin, { itemCode: `AT-${String((i * 13) % 60).padStart(2, "0")}` });
+      const due = i % 6 === 0 ? null : addDays(today, ((i * 11) % 70) - 30);
+      await item.update({
+        nextDueOn: due,
+        lastExaminedOn: due ? addDays(due, -180) : null,
+        status: i % 9 === 4 ? "quarantined" : i % 13 === 5 ? "withdrawn" : "in_service",
+      });
+    }
+    const res = await callRoute(dashboard.loader, await getRequest("/", admin));
+    const shown = (res.data as { gearAttention: Array<{ group: string; count: number; items: Array<{ id: number }> }> })
+      .gearAttention;
+    const grouped = groupForAttention(
+      await listGearNeedingAttention(addDays(today, DUE_SOON_DAYS), admin.organisationId),
+      today,
+    );
+    expect(shown.map((g) => g.group)).toEqual([...ATTENTION_GROUPS]);
+    for (const g of shown) {
+      const all = grouped[g.group as keyof typeof grouped];
+      expect(g.count, g.group).toBe(all.length);
+      expect(
+        g.items.map((i) => i.id),
+        g.group,
+      ).toEqual(all.slice(0, 8).map((i) => i.id));
+    }
+    expect(shown.every((g) => g.count > 0)).toBe(true);
   });
 });
