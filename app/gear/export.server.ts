@@ -5,7 +5,7 @@ import { dueState } from "~/gear/due";
 import { readGearExportBatch } from "~/models/gear-item-reads.server";
 
 /** Items read and written per step. */
-export const EXPORT_BATCH = 1000;
+export const EXPORT_BATCH = 250;
 
 /** The organisation's register as CSV bytes, in item id order: the same text `toCsv` gives for the whole list. */
 export function gearRegisterCsv(organisationId: number, today: string, batch = EXPORT_BATCH) {
