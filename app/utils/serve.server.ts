@@ -16,10 +16,12 @@ import cluster from "node:cluster";
 import fs from "node:fs";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
+import { isMainThread, workerData } from "node:worker_threads";
 import { createRequestHandler } from "@react-router/express";
 import compression from "compression";
 import express, { type RequestHandler } from "express";
 import type { ServerBuild } from "react-router";
+import { PDF_WORKER_ROLE, registerPdfWorkerFile } from "~/plans/pdf/off-thread.server";
 
 type Settings = { port: number; host: string | undefined; webConcurrency: number };
 
@@ -103,6 +105,8 @@ async function startWorker(settings: Settings) {
   process.setSourceMapsEnabled(false);
   // A chunk of its own: the primary never loads the app, its models or the database.
   const build = (await import("virtual:react-router/server-build")) as ServerBuild;
+  // Printed plans are built on a thread started from this file.
+  registerPdfWorkerFile(ENTRY_FILE);
   const app = express();
   app.disable("x-powered-by");
   app.use(compression());
@@ -199,8 +203,12 @@ async function runCommand(command: string, argument: string | undefined) {
   }
 }
 
-// Only when node runs this file, never when something imports it.
-if (process.argv[1] && path.resolve(process.argv[1]) === ENTRY_FILE) {
+// A thread this file was started as by the server (the PDF builder) does that job only.
+if (!isMainThread && (workerData as { role?: string } | null)?.role === PDF_WORKER_ROLE) {
+  const { servePdfJobs } = await import("~/plans/pdf/worker.server");
+  servePdfJobs();
+} else if (process.argv[1] && path.resolve(process.argv[1]) === ENTRY_FILE) {
+  // Only when node runs this file, never when something imports it.
   const command = process.argv[2] ?? "serve";
   if (command === "serve") await serve();
   else await runCommand(command, process.argv[3]);

@@ -180,10 +180,11 @@ export async function runPagesBench(mode: Mode): Promise<BenchResult[]> {
   const started = performance.now();
   const database = cachedDatabase(mode, (env) => seedShaped(env, sizes));
   const seeded = database.seeded;
-  const server = await startBuiltServer({ databasePath: database.databasePath });
   const results: BenchResult[] = [];
   const note = (r: BenchResult) => results.push(r);
+  let server: Awaited<ReturnType<typeof startBuiltServer>> | undefined;
   try {
+    server = await startBuiltServer({ databasePath: database.databasePath, startSeconds: 120 });
     const { firstPlanId, lastPlanId, shape } = seeded;
     console.log(
       `pages (${mode}): ${(lastPlanId - firstPlanId + 1).toLocaleString("en-GB")} plans over ${shape.jobs} jobs, ` +
@@ -358,7 +359,7 @@ export async function runPagesBench(mode: Mode): Promise<BenchResult[]> {
     note({ name: "export: worker peak memory rise", value: rise, unit: "MB", target: 50, ok: rise <= 50 });
     return results;
   } finally {
-    await server.stop();
+    await server?.stop();
     database.remove();
   }
 }
