@@ -267,7 +267,7 @@ export async function runPagesBench(mode: Mode): Promise<BenchResult[]> {
       const ratio = r.requestsPerSecond / pingRps;
       const bad = r.errors + r.non2xx;
       console.log(
-        `  ${page.request.name.padEnd(30)} ${ratio.toFixed(2)}x ping  p50 ${String(r.p50).padStart(4)} ms  ` +
+        `  ${page.request.name.padEnd(30)} ${ratio.toFixed(2)}x ping  p50 ${(r.p50 ?? Number.NaN).toFixed(1).padStart(6)} ms  ` +
           `${(r.bytesPerResponse / 1024).toFixed(1).padStart(6)} KB/response` +
           (page.target ? `  (target >= ${page.target}x ${ratio >= page.target ? "OK" : "MISSED"})` : "") +
           (bad ? `  ${bad} errors or non-2xx` : ""),
