@@ -49,10 +49,19 @@ export function restoreCell(value: string): string {
   return value.startsWith("'") && FORMULA_START.test(value.slice(1)) ? value.slice(1) : value;
 }
 
+/** The byte order mark the export starts with, so spreadsheets read UTF-8. */
+export const CSV_BOM = "\uFEFF";
+
+/** CSV lines for rows, each ended by CRLF, every cell neutralised: a part of a file, to stream a batch at a time. */
+export function csvLines(rows: ReadonlyArray<ReadonlyArray<string | number | null>>): string {
+  if (rows.length === 0) return "";
+  const cells = rows.map((row) => row.map((v) => neutraliseCell(v === null ? "" : String(v))));
+  return Papa.unparse(cells, { newline: "\r\n" }) + "\r\n";
+}
+
 /** The CSV text for a header and rows: every cell neutralised, CRLF line ends, a BOM so spreadsheets read UTF-8. */
 export function toCsv(rows: ReadonlyArray<ReadonlyArray<string | number | null>>): string {
-  const cells = rows.map((row) => row.map((v) => neutraliseCell(v === null ? "" : String(v))));
-  return "\uFEFF" + Papa.unparse(cells, { newline: "\r\n" }) + "\r\n";
+  return CSV_BOM + csvLines(rows);
 }
 
 export type CsvRow = { line: number; values: Record<string, string> };

@@ -1,12 +1,14 @@
 import {
   DataTypes,
   Model,
+  Op,
   type CreationOptional,
   type InferAttributes,
   type InferCreationAttributes,
   type Transaction,
 } from "sequelize";
 import { sequelize } from "~/utils/db.server";
+import { pageOf, type Page, type PageRequest, type SortKey } from "~/utils/keyset.server";
 
 /** A row of the audit trail: appended, never updated or deleted. */
 export class AuditEvent extends Model<InferAttributes<AuditEvent>, InferCreationAttributes<AuditEvent>> {
@@ -72,4 +74,29 @@ export async function recordAudit(input: AuditInput, transaction?: Transaction) 
 
 export async function listAuditEvents(organisationId: number, entity: string, entityId: number) {
   return AuditEvent.findAll({ where: { organisationId, entity, entityId }, order: [["id", "ASC"]] });
+}
+
+/** Oldest first: the id alone orders an entity's events. */
+export const AUDIT_LIST_KEYS: SortKey[] = [{ sql: "id", direction: "ASC" }];
+
+/** One page of an entity's events, oldest first. */
+export async function listAuditEventsPage(
+  organisationId: number,
+  entity: string,
+  entityId: number,
+  request: PageRequest,
+): Promise<Page<AuditEvent>> {
+  const backwards = request.towards === "previous";
+  const after = request.cursor ? Number(request.cursor[0]) : null;
+  const rows = await AuditEvent.findAll({
+    where: {
+      organisationId,
+      entity,
+      entityId,
+      ...(after !== null ? { id: { [backwards ? Op.lt : Op.gt]: after } } : {}),
+    },
+    order: [["id", backwards ? "DESC" : "ASC"]],
+    limit: request.limit + 1,
+  });
+  return pageOf(rows, request, (e) => [e.id]);
 }

@@ -2,6 +2,7 @@ import {
   DataTypes,
   Model,
   Op,
+  QueryTypes,
   type CreationOptional,
   type InferAttributes,
   type InferCreationAttributes,
@@ -13,6 +14,7 @@ import { sequelize } from "~/utils/db.server";
 import { recordAudit } from "~/models/audit-event.server";
 import { StoredFile } from "~/models/stored-file.server";
 import { transactionWithFiles, type CheckedUpload } from "~/utils/uploads.server";
+import { keysetClauses, pageOf, type Page, type PageRequest, type SortKey } from "~/utils/keyset.server";
 
 export class Component extends Model<InferAttributes<Component>, InferCreationAttributes<Component>> {
   declare id: CreationOptional<number>;
@@ -203,6 +205,58 @@ export async function listComponents(organisationId: number, options: { archived
     include: [{ model: ComponentLiftPoint, as: "liftPoints" }],
     order: [["name", "ASC"]],
   });
+}
+
+export type ComponentListRow = {
+  id: number;
+  name: string;
+  massKg: number;
+  massSource: MassSource;
+  contingencyPct: number;
+  /** How many lift points it has. */
+  liftPoints: number;
+};
+
+export const COMPONENT_LIST_KEYS: SortKey[] = [
+  { sql: "c.name", direction: "ASC" },
+  { sql: "c.id", direction: "ASC" },
+];
+
+const COMPONENT_LIST_COLUMNS = `c.id AS id, c.name AS name, c.mass_kg AS massKg, c.mass_source AS massSource,
+  c.contingency_pct AS contingencyPct,
+  (SELECT COUNT(*) FROM component_lift_points p WHERE p.component_id = c.id) AS liftPoints`;
+
+/** One page of the organisation's current (or archived) components by name, optionally those whose name holds `query`. */
+export async function listComponentsPage(
+  organisationId: number,
+  request: PageRequest,
+  options: { archived?: boolean; query?: string } = {},
+): Promise<Page<ComponentListRow>> {
+  const clauses = keysetClauses(COMPONENT_LIST_KEYS, request);
+  const rows = await sequelize.query<ComponentListRow>(
+    `SELECT ${COMPONENT_LIST_COLUMNS} FROM components c
+      WHERE c.organisation_id = ? AND c.archived_at IS ${options.archived ? "NOT NULL" : "NULL"}
+        ${options.query ? "AND instr(lower(c.name), lower(?)) > 0" : ""}
+        AND ${clauses.where} ORDER BY ${clauses.order} LIMIT ?`,
+    {
+      replacements: [organisationId, ...(options.query ? [options.query] : []), ...clauses.values, clauses.limit],
+      type: QueryTypes.SELECT,
+    },
+  );
+  return pageOf(rows, request, (c) => [c.name, c.id]);
+}
+
+/** The current components a plan can be made from (those with lift points), by name: the columns a choice shows. */
+export async function listComponentChoices(organisationId: number) {
+  return sequelize.query<Pick<ComponentListRow, "id" | "name" | "massKg" | "liftPoints">>(
+    `SELECT c.id AS id, c.name AS name, c.mass_kg AS massKg,
+            (SELECT COUNT(*) FROM component_lift_points p WHERE p.component_id = c.id) AS liftPoints
+       FROM components c
+      WHERE c.organisation_id = ? AND c.archived_at IS NULL
+        AND EXISTS (SELECT 1 FROM component_lift_points p WHERE p.component_id = c.id)
+      ORDER BY c.name, c.id`,
+    { replacements: [organisationId], type: QueryTypes.SELECT },
+  );
 }
 
 export async function getComponent(organisationId: number, componentId: number, transaction?: Transaction) {

@@ -174,6 +174,25 @@ function contains(column: string, q: string) {
   );
 }
 
+/**
+ * Items with `q` in their item id, description, manufacturer or serial (case-insensitive). Three characters or more
+ * are looked up in the trigram index (migration 0026) as one phrase; shorter text, which no trigram holds, is looked
+ * for in the columns themselves.
+ */
+function searchWhere(q: string): WhereOptions {
+  if ([...q].length >= 3) {
+    const phrase = sequelize.escape(`"${q.replaceAll('"', '""')}"`);
+    return sequelize.literal(
+      `\`GearItem\`.\`id\` IN (SELECT rowid FROM gear_items_search WHERE gear_items_search MATCH ${phrase})`,
+    ) as unknown as WhereOptions;
+  }
+  return {
+    [Op.or]: ["GearItem.item_code", "GearItem.description", "GearItem.manufacturer", "GearItem.serial"].map((c) =>
+      contains(c, q),
+    ),
+  };
+}
+
 function dueWhere(due: DueState, today: string): WhereOptions {
   const soon = addDays(today, DUE_SOON_DAYS);
   switch (due) {
@@ -256,13 +275,7 @@ export async function searchGearItems(
   else if (search.site) and.push({ homeSiteId: search.site });
   if (search.due) and.push(dueWhere(search.due, today));
   const q = search.q?.trim();
-  if (q) {
-    and.push({
-      [Op.or]: ["GearItem.item_code", "GearItem.description", "GearItem.manufacturer", "GearItem.serial"].map((c) =>
-        contains(c, q),
-      ),
-    });
-  }
+  if (q) and.push(searchWhere(q));
   const dir = search.dir === "desc" ? "DESC" : "ASC";
   const order: Array<[string, string] | [{ model: typeof Site; as: string }, string, string]> =
     search.sort === "site" ? [[{ model: Site, as: "homeSite" }, "name", dir]] : [[search.sort, dir]];

@@ -1,6 +1,7 @@
 import {
   DataTypes,
   Model,
+  QueryTypes,
   type CreationOptional,
   type InferAttributes,
   type InferCreationAttributes,
@@ -10,6 +11,7 @@ import {
 import { sequelize } from "~/utils/db.server";
 import { recordAudit } from "~/models/audit-event.server";
 import { Site } from "~/models/site.server";
+import { keysetClauses, pageOf, type Page, type PageRequest, type SortKey } from "~/utils/keyset.server";
 
 export type JobStatus = "open" | "closed";
 
@@ -66,6 +68,60 @@ export async function listJobs(organisationId: number, options: { siteId?: numbe
       ["workOrder", "ASC"],
     ],
   });
+}
+
+export type JobListRow = {
+  id: number;
+  workOrder: string;
+  title: string;
+  status: JobStatus;
+  startsOn: string | null;
+  site: string;
+  customer: string;
+};
+
+/** Open jobs first, then by start date (none first), work order and id: the order of `listJobs`. */
+export const JOB_LIST_KEYS: SortKey[] = [
+  { sql: "j.status", direction: "DESC" },
+  { sql: "COALESCE(j.starts_on, '')", direction: "ASC" },
+  { sql: "j.work_order", direction: "ASC" },
+  { sql: "j.id", direction: "ASC" },
+];
+
+/** One page of the organisation's jobs (optionally one site's, or only open ones), with the columns a list shows. */
+export async function listJobsPage(
+  organisationId: number,
+  request: PageRequest,
+  options: { siteId?: number; status?: JobStatus } = {},
+): Promise<Page<JobListRow>> {
+  const clauses = keysetClauses(JOB_LIST_KEYS, request);
+  const filters: string[] = [];
+  const filterValues: Array<string | number> = [];
+  if (options.siteId !== undefined) {
+    filters.push("AND j.site_id = ?");
+    filterValues.push(options.siteId);
+  }
+  if (options.status !== undefined) {
+    filters.push("AND j.status = ?");
+    filterValues.push(options.status);
+  }
+  const rows = await sequelize.query<JobListRow>(
+    `SELECT j.id AS id, j.work_order AS workOrder, j.title AS title, j.status AS status, j.starts_on AS startsOn,
+            COALESCE(s.name, '') AS site, COALESCE(s.customer, '') AS customer
+       FROM jobs j LEFT JOIN sites s ON s.id = j.site_id
+      WHERE j.organisation_id = ? ${filters.join(" ")} AND ${clauses.where}
+      ORDER BY ${clauses.order} LIMIT ?`,
+    {
+      replacements: [organisationId, ...filterValues, ...clauses.values, clauses.limit],
+      type: QueryTypes.SELECT,
+    },
+  );
+  return pageOf(rows, request, (j) => [j.status, j.startsOn ?? "", j.workOrder, j.id]);
+}
+
+/** How many open jobs the organisation has. */
+export async function countOpenJobs(organisationId: number) {
+  return Job.count({ where: { organisationId, status: "open" } });
 }
 
 export async function getJob(organisationId: number, jobId: number, transaction?: Transaction) {

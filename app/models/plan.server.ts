@@ -1,6 +1,7 @@
 import {
   DataTypes,
   Op,
+  QueryTypes,
   Model,
   type CreationOptional,
   type InferAttributes,
@@ -12,6 +13,7 @@ import { plannedLoad, readStoredLoad } from "~/plans/load-override";
 import { sequelize } from "~/utils/db.server";
 import { Job } from "~/models/job.server";
 import { Site } from "~/models/site.server";
+import { keysetClauses, pageOf, type Page, type PageRequest, type SortKey } from "~/utils/keyset.server";
 import {
   arrangementSchema,
   detailsSchema,
@@ -176,28 +178,38 @@ export type PlanListRow = {
   revision: number;
   version: number;
   jobId: number;
-  job: { id: number; workOrder: string; title: string };
 };
 
-/** The organisation's plans (optionally one job's), newest first, with their current revision's status. */
-export async function listPlans(organisationId: number, options: { jobId?: number } = {}): Promise<PlanListRow[]> {
-  const plans = await Plan.findAll({
-    where: { organisationId, ...(options.jobId !== undefined ? { jobId: options.jobId } : {}) },
-    include: [
-      { model: PlanRevision, as: "currentRevision", attributes: ["id", "revision", "status", "version"] },
-      { model: Job, as: "job", attributes: ["id", "workOrder", "title"] },
-    ],
-    order: [["id", "DESC"]],
-  });
-  return plans.map((p) => ({
-    id: p.id,
-    title: p.title,
-    status: p.currentRevision?.status ?? "draft",
-    revision: p.currentRevision?.revision ?? 1,
-    version: p.currentRevision?.version ?? 1,
-    jobId: p.jobId,
-    job: { id: p.jobId, workOrder: p.job?.workOrder ?? "", title: p.job?.title ?? "" },
-  }));
+/** Plans newest first: the id alone orders them. */
+export const PLAN_LIST_KEYS: SortKey[] = [{ sql: "p.id", direction: "DESC" }];
+
+/**
+ * One page of the organisation's plans (optionally one job's), newest first, with their current revision's status:
+ * the listed columns only, never a revision's documents.
+ */
+export async function listPlansPage(
+  organisationId: number,
+  request: PageRequest,
+  options: { jobId?: number } = {},
+): Promise<Page<PlanListRow>> {
+  const clauses = keysetClauses(PLAN_LIST_KEYS, request);
+  const byJob = options.jobId !== undefined;
+  const rows = await sequelize.query<PlanListRow & { status: PlanStatus | null }>(
+    `SELECT p.id AS id, p.title AS title, p.job_id AS jobId,
+            r.status AS status, r.revision AS revision, r.version AS version
+       FROM plans p LEFT JOIN plan_revisions r ON r.id = p.current_revision_id
+      WHERE p.organisation_id = ? ${byJob ? "AND p.job_id = ?" : ""} AND ${clauses.where}
+      ORDER BY ${clauses.order} LIMIT ?`,
+    {
+      replacements: [organisationId, ...(byJob ? [options.jobId!] : []), ...clauses.values, clauses.limit],
+      type: QueryTypes.SELECT,
+    },
+  );
+  return pageOf(
+    rows.map((r) => ({ ...r, status: r.status ?? "draft", revision: r.revision ?? 1, version: r.version ?? 1 })),
+    request,
+    (r) => [r.id],
+  );
 }
 
 /** The plan with its job, site and current revision; null when it is not the organisation's. */
@@ -299,6 +311,30 @@ export async function getPlanForWorkflow(
 /** Every revision of the plan, in one read. */
 export async function listPlanRevisions(planId: number) {
   return PlanRevision.findAll({ where: { planId } });
+}
+
+/** The columns that say where a revision stands and who is on it: never its documents, results or sealed record. */
+const REVISION_SUMMARY = [
+  "id",
+  "planId",
+  "revision",
+  "status",
+  "plannedBy",
+  "submittedBy",
+  "approvedBy",
+  "assignedRiggerId",
+  "supersededByRevision",
+  "updatedAt",
+] as const;
+
+/** Every revision of the plan with the summary columns only (a plan with many revisions costs little more). */
+export async function listRevisionSummaries(planId: number) {
+  return PlanRevision.findAll({ where: { planId }, attributes: [...REVISION_SUMMARY] });
+}
+
+/** One revision of the plan in full, or null. */
+export async function getPlanRevision(planId: number, revisionId: number) {
+  return PlanRevision.findOne({ where: { id: revisionId, planId } });
 }
 
 /** Sets values on the revision only while it still has status `from`; false when someone else moved it first. */

@@ -20,6 +20,7 @@ import {
   type SessionUserRow,
 } from "~/models/session.server";
 import { Organisation } from "~/models/organisation.server";
+import { keysetClauses, pageOf, type Page, type PageRequest, type SortKey } from "~/utils/keyset.server";
 import { ROLES, type Role } from "~/utils/roles";
 
 export type Units = "metric" | "imperial";
@@ -163,24 +164,58 @@ export type UserRow = {
   createdAt: string;
 };
 
-export async function listOrganisationUsers(organisationId: number): Promise<UserRow[]> {
-  const users = await User.findAll({
-    where: { organisationId },
-    include: [{ model: UserRole, as: "userRoles" }],
-    order: [
-      ["active", "DESC"],
-      ["name", "ASC"],
-    ],
-  });
-  return users.map((u) => ({
-    id: u.id,
-    name: u.name,
-    email: u.email,
-    roles: toSessionUser(u).roles,
-    active: u.active,
-    hasPassword: !!u.passwordHash,
-    createdAt: u.createdAt.toISOString(),
-  }));
+/** Active users first, then by name and id. */
+export const USER_LIST_KEYS: SortKey[] = [
+  { sql: "u.active", direction: "DESC" },
+  { sql: "u.name", direction: "ASC" },
+  { sql: "u.id", direction: "ASC" },
+];
+
+type UserListSqlRow = {
+  id: number;
+  name: string;
+  email: string;
+  roles: string | null;
+  active: number;
+  hasPassword: number;
+  createdAt: string;
+};
+
+function toUserRow(r: UserListSqlRow): UserRow {
+  const order = (role: Role) => ROLES.indexOf(role);
+  return {
+    id: r.id,
+    name: r.name,
+    email: r.email,
+    roles: ((r.roles ? r.roles.split(",") : []) as Role[]).sort((a, b) => order(a) - order(b)),
+    active: !!r.active,
+    hasPassword: !!r.hasPassword,
+    createdAt: new Date(r.createdAt.replace(" ", "T").replace(/ ?\+00:00$/, "Z")).toISOString(),
+  };
+}
+
+const USER_LIST_COLUMNS = `u.id AS id, u.name AS name, u.email AS email, u.active AS active,
+  u.password_hash IS NOT NULL AS hasPassword, u.created_at AS createdAt,
+  (SELECT group_concat(r.role) FROM user_roles r WHERE r.user_id = u.id) AS roles`;
+
+/** One page of the organisation's users, active first, by name. */
+export async function listUsersPage(organisationId: number, request: PageRequest): Promise<Page<UserRow>> {
+  const clauses = keysetClauses(USER_LIST_KEYS, request);
+  const rows = await sequelize.query<UserListSqlRow>(
+    `SELECT ${USER_LIST_COLUMNS} FROM users u
+      WHERE u.organisation_id = ? AND ${clauses.where} ORDER BY ${clauses.order} LIMIT ?`,
+    { replacements: [organisationId, ...clauses.values, clauses.limit], type: QueryTypes.SELECT },
+  );
+  return pageOf(rows.map(toUserRow), request, (u) => [u.active ? 1 : 0, u.name, u.id]);
+}
+
+/** Up to `limit` active users who were invited and have not set a password yet, by name. */
+export async function listPendingInvitations(organisationId: number, limit: number) {
+  return sequelize.query<{ id: number; name: string; email: string }>(
+    `SELECT u.id AS id, u.name AS name, u.email AS email FROM users u
+      WHERE u.organisation_id = ? AND u.active = 1 AND u.password_hash IS NULL ORDER BY u.name, u.id LIMIT ?`,
+    { replacements: [organisationId, limit], type: QueryTypes.SELECT },
+  );
 }
 
 export async function findUserByEmail(email: string) {

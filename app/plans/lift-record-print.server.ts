@@ -2,7 +2,7 @@
 // document, and the photos' bytes.
 import { getLiftRecord } from "~/models/lift-record.server";
 import { listLiftRecordPhotoIds } from "~/models/lift-record-photo.server";
-import { getPlanRow, listPlanRevisions } from "~/models/plan.server";
+import { getPlanRevision, getPlanRow, listRevisionSummaries } from "~/models/plan.server";
 import { getStoredFile } from "~/models/stored-file.server";
 import { userNames, type SessionUser } from "~/models/user.server";
 import { readLiftRecordDocument } from "~/plans/lift-record";
@@ -22,7 +22,8 @@ export async function buildPrintableLiftRecord(
 ): Promise<LiftRecordOutcome> {
   const plan = await getPlanRow(user.organisationId, planId);
   if (!plan) return { ok: false, status: 404, message: "There is no such plan in your organisation." };
-  const row = (await listPlanRevisions(plan.id)).find((r) => r.status === "completed");
+  const completed = (await listRevisionSummaries(plan.id)).find((r) => r.status === "completed");
+  const row = completed ? await getPlanRevision(plan.id, completed.id) : null;
   const record = row ? await getLiftRecord(row.id) : null;
   const sealed = row ? readSealed(row.sealed) : null;
   if (!row || !record || !sealed)

@@ -2,7 +2,7 @@
 // completed one, as the record of its lift), with the gear's state now. Nothing is read from the
 // plan's live rows.
 import { getLiftRecord } from "~/models/lift-record.server";
-import { getPlanRow, listPlanRevisions, type PlanRevision } from "~/models/plan.server";
+import { getPlanRevision, getPlanRow, listRevisionSummaries, type PlanRevision } from "~/models/plan.server";
 import { userNames, type SessionUser } from "~/models/user.server";
 import { PLAN_STATUS_LABELS, type PlanStatus } from "~/plans/document";
 import { liveStateOf } from "~/plans/live-state.server";
@@ -33,12 +33,15 @@ export async function buildPrintablePlan(
 ): Promise<PrintableOutcome> {
   const plan = await getPlanRow(user.organisationId, planId);
   if (!plan) return { ok: false, status: 404, message: "There is no such plan in your organisation.", planId };
-  const revisions = await listPlanRevisions(plan.id);
-  const row = latest(revisions, "approved") ?? latest(revisions, "completed");
-  if (!row) {
+  // Where each revision stands first; then the one printed, in full.
+  const revisions = await listRevisionSummaries(plan.id);
+  const chosen = latest(revisions, "approved") ?? latest(revisions, "completed");
+  if (!chosen) {
     const working = revisions.find((r) => r.id === plan.currentRevisionId);
     return { ok: false, status: 409, message: notPrintable(working), planId };
   }
+  const row = await getPlanRevision(plan.id, chosen.id);
+  if (!row) return { ok: false, status: 404, message: "There is no such plan in your organisation.", planId };
   const sealed = readSealed(row.sealed);
   if (!sealed || !row.fingerprint || !row.verifyToken) {
     return {

@@ -1,14 +1,15 @@
 // Where a plan stands, for its pages: the working revision, the approved (or completed) one with its
 // gear state now, acknowledgements, comments, the lift record and what the user may do next.
-import { listAuditEvents } from "~/models/audit-event.server";
+import { listAuditEvents, listAuditEventsPage } from "~/models/audit-event.server";
 import { getOrganisation } from "~/models/organisation.server";
 import { getLiftRecord } from "~/models/lift-record.server";
 import { listLiftRecordPhotoIds } from "~/models/lift-record-photo.server";
 import { listAcknowledgements } from "~/models/plan-acknowledgement.server";
 import { listPlanComments } from "~/models/plan-comment.server";
 import {
+  getPlanRevision,
   getPlanRow,
-  listPlanRevisions,
+  listRevisionSummaries,
   readRevision,
   type Plan,
   type PlanForWorkflow,
@@ -26,6 +27,7 @@ import { liveStateOf } from "~/plans/live-state.server";
 import { readSealed, type SealedPlan } from "~/plans/sealed";
 import { permission, type WorkflowAction } from "~/plans/workflow";
 import { ENTITY, workflowContext } from "~/plans/workflow-context.server";
+import type { Page, PageRequest } from "~/utils/keyset.server";
 
 export type WorkflowView = {
   working: RevisionView;
@@ -71,13 +73,20 @@ export async function getWorkflowView(
   if (!Number.isSafeInteger(planId)) return null;
   const plan = found?.plan ?? (await getPlanRow(organisationId, planId));
   if (!plan?.currentRevisionId || plan.organisationId !== organisationId) return null;
-  // Every revision in one read: the working one, the current approved one, a completed one, and their numbers.
-  const revisions = await listPlanRevisions(plan.id);
-  const current = revisions.find((r) => r.id === plan.currentRevisionId);
+  // Where every revision stands (no documents), then in full only the working one (already read with the plan
+  // when the page read it) and the current approved or completed one.
+  const revisions = await listRevisionSummaries(plan.id);
+  if (!revisions.some((r) => r.id === plan.currentRevisionId)) return null;
+  const inFull = async (summary: PlanRevision | null, known?: PlanRevision | null) =>
+    !summary ? null : known?.id === summary.id ? known : await getPlanRevision(plan.id, summary.id);
+  const current = await inFull(
+    revisions.find((r) => r.id === plan.currentRevisionId)!,
+    plan.currentRevision ?? null,
+  );
   if (!current) return null;
-  const loaded: PlanForWorkflow = { plan, current, approved: latestWith(revisions, "approved") };
+  const loaded: PlanForWorkflow = { plan, current, approved: await inFull(latestWith(revisions, "approved"), current) };
   const working = found && found.revision.id === current.id ? found.revision : readRevision(current);
-  const approvedRow = loaded.approved ?? latestWith(revisions, "completed");
+  const approvedRow = loaded.approved ?? (await inFull(latestWith(revisions, "completed"), current));
   const approved = approvedRow
     ? {
         ...(approvedRow.id === working.id ? working : readRevision(approvedRow)),
@@ -153,14 +162,26 @@ export async function getWorkflowView(
   };
 }
 
-/** The plan's audit trail, oldest first, with who did each thing and each editing session as one entry. Never editable. */
-export async function listPlanHistory(organisationId: number, planId: number) {
-  const events = await listAuditEvents(organisationId, ENTITY, planId);
+/**
+ * The plan's audit trail, oldest first, a page of events at a time (all of them when no page is asked for), with who
+ * did each thing and each editing session as one entry. Never editable.
+ */
+export async function listPlanHistory(organisationId: number, planId: number): Promise<HistoryEntry[]>;
+export async function listPlanHistory(
+  organisationId: number,
+  planId: number,
+  request: PageRequest,
+): Promise<Page<HistoryEntry>>;
+export async function listPlanHistory(organisationId: number, planId: number, request?: PageRequest) {
+  const page = request
+    ? await listAuditEventsPage(organisationId, ENTITY, planId, request)
+    : { rows: await listAuditEvents(organisationId, ENTITY, planId), next: null, previous: null };
+  const events = page.rows;
   const users = await userNames(
     organisationId,
     events.map((e) => e.userId).filter((id): id is number => id !== null),
   );
-  return collapseEditingSessions(
+  const entries = collapseEditingSessions(
     events.map((e) => ({
       id: e.id,
       at: e.createdAt.toISOString(),
@@ -170,7 +191,9 @@ export async function listPlanHistory(organisationId: number, planId: number) {
       details: e.details ? (JSON.parse(e.details) as Record<string, unknown>) : {},
     })),
   );
+  return request ? { ...page, rows: entries } : entries;
 }
+type HistoryEntry = ReturnType<typeof collapseEditingSessions>[number];
 
 /**
  * What the plan page shows of its working revision: once that revision is approved (or completed),

@@ -1,10 +1,10 @@
 import type { Route } from "./+types/_index";
 import { Card, EmptyState, PageHeader } from "~/components/ui/form";
-import { listJobs } from "~/models/job.server";
-import { listOrganisationUsers } from "~/models/user.server";
+import { countOpenJobs, listJobsPage } from "~/models/job.server";
+import { listPendingInvitations } from "~/models/user.server";
 import { plannerQueue, reviewQueue, riggerQueue, type QueueRow } from "~/models/plan-queue.server";
-import { listGearNeedingAttention } from "~/models/gear-item.server";
-import { ATTENTION_GROUP_TITLES, ATTENTION_GROUPS, groupForAttention } from "~/gear/attention";
+import { gearAttentionSummary } from "~/models/gear-item-reads.server";
+import { ATTENTION_GROUP_TITLES, ATTENTION_GROUPS } from "~/gear/attention";
 import { DUE_SOON_DAYS } from "~/gear/due";
 import { addDays } from "~/utils/dates";
 import { getOrganisationToday } from "~/models/organisation.server";
@@ -14,39 +14,35 @@ import { requireUser } from "~/utils/session.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Dashboard · Plumbline" }];
 
+/** The open jobs the dashboard lists; the jobs page has the rest. */
+const DASHBOARD_JOBS = 12;
+
 /** The admin's view of the register: the same named groups the reminder mail carries, a few items each. */
 async function gearAttention(organisationId: number, today: string) {
-  const items = await listGearNeedingAttention(addDays(today, DUE_SOON_DAYS), organisationId);
-  const groups = groupForAttention(items, today);
-  return ATTENTION_GROUPS.map((group) => ({
-    group,
-    title: ATTENTION_GROUP_TITLES[group],
-    count: groups[group].length,
-    items: groups[group].slice(0, 8).map((g) => ({
-      id: g.id,
-      itemCode: g.itemCode,
-      description: g.description,
-      nextDueOn: g.nextDueOn,
-    })),
-  }));
+  const groups = await gearAttentionSummary(organisationId, today, addDays(today, DUE_SOON_DAYS), ATTENTION_GROUPS, 8);
+  return groups.map(({ group, count, items }) => ({ group, title: ATTENTION_GROUP_TITLES[group], count, items }));
 }
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request);
-  const jobs = await listJobs(user.organisationId);
-  const openJobs = jobs
-    .filter((j) => j.status === "open")
-    .map((j) => ({ id: j.id, workOrder: j.workOrder, title: j.title, site: j.site?.name ?? "", startsOn: j.startsOn }));
-  const pendingInvites = user.roles.includes("admin")
-    ? (await listOrganisationUsers(user.organisationId))
-        .filter((u) => u.active && !u.hasPassword)
-        .map((u) => ({ id: u.id, name: u.name, email: u.email }))
-    : [];
   const roles = user.roles;
+  const showsJobs = roles.includes("planner") || roles.includes("rigger");
+  const openJobs = showsJobs
+    ? (
+        await listJobsPage(
+          user.organisationId,
+          { cursor: null, towards: "next", limit: DASHBOARD_JOBS },
+          { status: "open" },
+        )
+      ).rows.map((j) => ({ id: j.id, workOrder: j.workOrder, title: j.title, site: j.site, startsOn: j.startsOn }))
+    : [];
+  const openJobCount = openJobs.length < DASHBOARD_JOBS ? openJobs.length : await countOpenJobs(user.organisationId);
+  const pendingInvites = roles.includes("admin") ? await listPendingInvitations(user.organisationId, 20) : [];
   const today = roles.includes("admin") ? await getOrganisationToday(user.organisationId) : "";
   return {
-    user,
+    user: { name: user.name, roles, organisationName: user.organisationName },
     openJobs,
+    openJobCount,
     pendingInvites,
     drafts: roles.includes("planner") ? await plannerQueue(user.organisationId) : [],
     toReview: roles.includes("approver") ? await reviewQueue(user.organisationId) : [],
@@ -74,7 +70,7 @@ function PlanList({ rows, empty }: { rows: QueueRow[]; empty: React.ReactNode })
 }
 
 export default function Dashboard({ loaderData }: Route.ComponentProps) {
-  const { user, openJobs, pendingInvites, drafts, toReview, lifts, gearAttention } = loaderData;
+  const { user, openJobs, openJobCount, pendingInvites, drafts, toReview, lifts, gearAttention } = loaderData;
   const roles = user.roles;
   return (
     <>
@@ -112,6 +108,11 @@ export default function Dashboard({ loaderData }: Route.ComponentProps) {
                 ))}
               </ul>
             )}
+            {openJobCount > openJobs.length && (
+              <p className="mt-3 text-sm">
+                <a href="/jobs">All {openJobCount} open jobs</a>
+              </p>
+            )}
           </Card>
         )}
         {roles.includes("approver") && (
@@ -145,7 +146,7 @@ export default function Dashboard({ loaderData }: Route.ComponentProps) {
             )}
             {openJobs.length > 0 && (
               <p className="mt-3 text-sm">
-                Open jobs: <a href="/jobs">{openJobs.length} in progress</a>.
+                Open jobs: <a href="/jobs">{openJobCount} in progress</a>.
               </p>
             )}
           </Card>

@@ -1,7 +1,9 @@
 import type { Route } from "./+types/admin._index";
 import { PageHeader } from "~/components/ui/form";
 import { isMailCaught } from "~/utils/mail.server";
-import { listOrganisationUsers } from "~/models/user.server";
+import { Pager } from "~/components/ui/pager";
+import { listUsersPage, USER_LIST_KEYS } from "~/models/user.server";
+import { pageLinks, readPageRequest } from "~/utils/keyset.server";
 import { ROLE_LABELS } from "~/utils/roles";
 import { requireUserWithRole } from "~/utils/session.server";
 
@@ -9,15 +11,18 @@ export const meta: Route.MetaFunction = () => [{ title: "Admin · Plumbline" }];
 
 export async function loader({ request }: Route.LoaderArgs) {
   const admin = await requireUserWithRole(request, "admin");
+  const url = new URL(request.url);
+  const page = await listUsersPage(admin.organisationId, readPageRequest(url, USER_LIST_KEYS));
   return {
-    users: await listOrganisationUsers(admin.organisationId),
+    users: page.rows,
+    pages: pageLinks(url, page),
     mailCaught: isMailCaught(),
     organisationName: admin.organisationName,
   };
 }
 
 export default function AdminHome({ loaderData }: Route.ComponentProps) {
-  const { users, mailCaught, organisationName } = loaderData;
+  const { users, pages, mailCaught, organisationName } = loaderData;
   return (
     <>
       <PageHeader
@@ -70,6 +75,7 @@ export default function AdminHome({ loaderData }: Route.ComponentProps) {
           </tbody>
         </table>
       </div>
+      <Pager label="Pages of users" {...pages} />
     </>
   );
 }

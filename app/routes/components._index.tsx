@@ -3,7 +3,9 @@ import type { Route } from "./+types/components._index";
 import { EmptyState, PageHeader } from "~/components/ui/form";
 import { MASS_SOURCE_LABELS } from "~/loads/component-definition";
 import { withoutControlCharacters } from "~/utils/forms";
-import { listComponents } from "~/models/component.server";
+import { COMPONENT_LIST_KEYS, listComponentsPage } from "~/models/component.server";
+import { Pager } from "~/components/ui/pager";
+import { pageLinks, readPageRequest } from "~/utils/keyset.server";
 import { hasAnyRole } from "~/utils/roles";
 import { requireUser } from "~/utils/session.server";
 import { formatMass } from "~/utils/format";
@@ -17,25 +19,22 @@ export async function loader({ request }: Route.LoaderArgs) {
   const query = withoutControlCharacters(url.searchParams.get("q") ?? "")
     .trim()
     .slice(0, 100);
-  const components = await listComponents(user.organisationId, { archived, query });
+  const page = await listComponentsPage(user.organisationId, readPageRequest(url, COMPONENT_LIST_KEYS), {
+    archived,
+    query,
+  });
   return {
     units: user.units,
     archived,
     query,
     canEdit: hasAnyRole(user, "planner", "admin"),
-    components: components.map((c) => ({
-      id: c.id,
-      name: c.name,
-      massKg: c.massKg,
-      massSource: c.massSource,
-      contingencyPct: c.contingencyPct,
-      liftPoints: (c.liftPoints ?? []).length,
-    })),
+    components: page.rows,
+    pages: pageLinks(url, page),
   };
 }
 
 export default function Components({ loaderData }: Route.ComponentProps) {
-  const { components, canEdit, units, archived, query } = loaderData;
+  const { components, pages, canEdit, units, archived, query } = loaderData;
   return (
     <>
       <PageHeader
@@ -70,7 +69,7 @@ export default function Components({ loaderData }: Route.ComponentProps) {
           Search
         </button>
       </Form>
-      {components.length === 0 ? (
+      {components.length === 0 && !pages.previous ? (
         <EmptyState title={query ? "Nothing matches" : archived ? "Nothing archived" : "No components yet"}>
           {canEdit && !archived && !query
             ? "Add the component you will lift: its mass, CoG and lift points."
@@ -104,6 +103,7 @@ export default function Components({ loaderData }: Route.ComponentProps) {
           </table>
         </div>
       )}
+      <Pager label="Pages of components" {...pages} />
     </>
   );
 }

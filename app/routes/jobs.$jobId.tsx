@@ -2,9 +2,11 @@ import { data } from "react-router";
 import type { Route } from "./+types/jobs.$jobId";
 import { Card, EmptyState, PageHeader } from "~/components/ui/form";
 import { getJob } from "~/models/job.server";
-import { listPlans } from "~/models/plan.server";
+import { Pager } from "~/components/ui/pager";
+import { listPlansPage, PLAN_LIST_KEYS } from "~/models/plan.server";
 import { PLAN_STATUS_LABELS } from "~/plans/document";
 import { hasAnyRole } from "~/utils/roles";
+import { pageLinks, readPageRequest } from "~/utils/keyset.server";
 import { requireUser } from "~/utils/session.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.job.workOrder ?? "Job"} · Plumbline` }];
@@ -14,9 +16,11 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const id = Number(params.jobId);
   const job = Number.isInteger(id) ? await getJob(user.organisationId, id) : null;
   if (!job) throw data({ message: "There is no such job in your organisation." }, { status: 404 });
-  const plans = await listPlans(user.organisationId, { jobId: job.id });
+  const url = new URL(request.url);
+  const page = await listPlansPage(user.organisationId, readPageRequest(url, PLAN_LIST_KEYS), { jobId: job.id });
   return {
-    plans: plans.map((p) => ({ id: p.id, title: p.title, status: p.status, revision: p.revision })),
+    plans: page.rows.map((p) => ({ id: p.id, title: p.title, status: p.status, revision: p.revision })),
+    pages: pageLinks(url, page),
     canEdit: hasAnyRole(user, "planner", "admin"),
     job: {
       id: job.id,
@@ -37,7 +41,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 }
 
 export default function JobPage({ loaderData }: Route.ComponentProps) {
-  const { job, canEdit, plans } = loaderData;
+  const { job, canEdit, plans, pages } = loaderData;
   return (
     <>
       <PageHeader title={`${job.workOrder}: ${job.title}`} lead={`${job.site.name} · ${job.site.customer}`}>
@@ -52,7 +56,7 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
       </PageHeader>
       <div className="grid gap-6 md:grid-cols-3">
         <Card title="Lifts" className="md:col-span-2">
-          {plans.length === 0 ? (
+          {plans.length === 0 && !pages.previous ? (
             <EmptyState title="No lift plans yet">
               {canEdit ? (
                 <a href={`/plans/new?jobId=${job.id}`}>Plan a lift</a>
@@ -74,6 +78,7 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
                   </li>
                 ))}
               </ul>
+              <Pager label="Pages of lift plans" {...pages} />
               {canEdit && (
                 <a
                   href={`/plans/new?jobId=${job.id}`}

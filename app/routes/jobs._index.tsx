@@ -1,6 +1,8 @@
 import type { Route } from "./+types/jobs._index";
 import { EmptyState, PageHeader } from "~/components/ui/form";
-import { listJobs } from "~/models/job.server";
+import { Pager } from "~/components/ui/pager";
+import { JOB_LIST_KEYS, listJobsPage } from "~/models/job.server";
+import { pageLinks, readPageRequest } from "~/utils/keyset.server";
 import { hasAnyRole } from "~/utils/roles";
 import { requireUser } from "~/utils/session.server";
 
@@ -8,23 +10,17 @@ export const meta: Route.MetaFunction = () => [{ title: "Jobs · Plumbline" }];
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request);
-  const jobs = await listJobs(user.organisationId);
+  const url = new URL(request.url);
+  const page = await listJobsPage(user.organisationId, readPageRequest(url, JOB_LIST_KEYS));
   return {
     canEdit: hasAnyRole(user, "planner", "admin"),
-    jobs: jobs.map((j) => ({
-      id: j.id,
-      workOrder: j.workOrder,
-      title: j.title,
-      status: j.status,
-      startsOn: j.startsOn,
-      site: j.site?.name ?? "",
-      customer: j.site?.customer ?? "",
-    })),
+    jobs: page.rows,
+    pages: pageLinks(url, page),
   };
 }
 
 export default function Jobs({ loaderData }: Route.ComponentProps) {
-  const { jobs, canEdit } = loaderData;
+  const { jobs, canEdit, pages } = loaderData;
   return (
     <>
       <PageHeader title="Jobs" lead="Work orders at customer sites; each holds the lifts planned for it.">
@@ -37,7 +33,7 @@ export default function Jobs({ loaderData }: Route.ComponentProps) {
           </a>
         )}
       </PageHeader>
-      {jobs.length === 0 ? (
+      {jobs.length === 0 && !pages.previous ? (
         <EmptyState title="No jobs yet">
           {canEdit
             ? "Open a job for a customer site to start planning its lifts."
@@ -73,6 +69,7 @@ export default function Jobs({ loaderData }: Route.ComponentProps) {
           </table>
         </div>
       )}
+      <Pager label="Pages of jobs" {...pages} />
     </>
   );
 }

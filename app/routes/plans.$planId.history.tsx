@@ -1,20 +1,31 @@
 import { data } from "react-router";
 import type { Route } from "./+types/plans.$planId.history";
 import { EmptyState, PageHeader } from "~/components/ui/form";
-import { getPlan } from "~/models/plan.server";
+import { getPlanRow } from "~/models/plan.server";
 import { listPlanHistory } from "~/plans/workflow-view.server";
+import { Pager } from "~/components/ui/pager";
+import { AUDIT_LIST_KEYS } from "~/models/audit-event.server";
+import { pageLinks, readPageRequest } from "~/utils/keyset.server";
 import { requireUser } from "~/utils/session.server";
+
+/** Events read per page (an editing session's saves then fold into one entry). */
+const HISTORY_PAGE = 200;
 
 export const meta: Route.MetaFunction = () => [{ title: "History · Plumbline" }];
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUser(request);
-  const found = await getPlan(user.organisationId, Number(params.planId));
-  if (!found) throw data({ message: "There is no such plan in your organisation." }, { status: 404 });
+  // The plan row alone: the page shows its title, never a revision.
+  const plan = await getPlanRow(user.organisationId, Number(params.planId));
+  if (!plan) throw data({ message: "There is no such plan in your organisation." }, { status: 404 });
+  const url = new URL(request.url);
+  const page = readPageRequest(url, AUDIT_LIST_KEYS, HISTORY_PAGE);
+  const history = await listPlanHistory(user.organisationId, plan.id, page);
   return {
-    plan: { id: found.plan.id, title: found.plan.title },
+    plan: { id: plan.id, title: plan.title },
+    pages: pageLinks(url, history),
     // Photos taken at the lift are shown with the event that recorded them.
-    events: (await listPlanHistory(user.organisationId, found.plan.id)).map((e) => ({
+    events: history.rows.map((e) => ({
       ...e,
       photos: Array.isArray(e.details.photos)
         ? e.details.photos.filter((id): id is number => Number.isInteger(id))
@@ -34,7 +45,7 @@ function describe(details: Record<string, unknown>) {
 }
 
 export default function PlanHistory({ loaderData }: Route.ComponentProps) {
-  const { plan, events } = loaderData;
+  const { plan, events, pages } = loaderData;
   return (
     <>
       <PageHeader
@@ -86,6 +97,7 @@ export default function PlanHistory({ loaderData }: Route.ComponentProps) {
           </table>
         </div>
       )}
+      <Pager label="Pages of the plan's history" {...pages} />
     </>
   );
 }

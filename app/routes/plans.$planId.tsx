@@ -9,9 +9,9 @@ import { parseForm, requireFormData, safeText } from "~/utils/forms";
 import { EDITABLE_STATUSES, getPlan } from "~/models/plan.server";
 import { compareWithComponent, pullComponentVersion } from "~/plans/revisions.server";
 import { assignRigger, cancelPlan, startNewRevision } from "~/plans/workflow.server";
-import { getWorkflowView, shownRevision } from "~/plans/workflow-view.server";
+import { getWorkflowView, shownRevision, type WorkflowView } from "~/plans/workflow-view.server";
 import { listUsersWithRole } from "~/models/user.server";
-import { WorkflowPanel } from "~/components/plan-workflow-panel";
+import { WorkflowPanel, type WorkflowPanelData } from "~/components/plan-workflow-panel";
 import { ArrivedFromPhonePanel, type ArrivedFromPhone } from "~/components/arrived-from-phone";
 import { listPlanSubmissions } from "~/models/offline-submission.server";
 import { HITCH_LABELS, PERSON_ROLE_LABELS, PLAN_CAUTION, PLAN_STATUS_LABELS, type PlanResults } from "~/plans/document";
@@ -46,6 +46,28 @@ async function requirePlan(organisationId: number, rawId: string) {
   return found;
 }
 
+function panelData(workflow: WorkflowView): WorkflowPanelData {
+  const { working, approved } = workflow;
+  return {
+    working: { revision: working.revision, status: working.status },
+    approved: approved && {
+      revision: approved.revision,
+      status: approved.status,
+      approverName: approved.approverName,
+      approvedAt: approved.approvedAt,
+      approvalComment: approved.approvalComment,
+      selfApproved: approved.selfApproved,
+      fingerprint: approved.fingerprint,
+    },
+    acknowledgements: workflow.acknowledgements,
+    comments: workflow.comments,
+    liftRecord: workflow.liftRecord,
+    assignedRigger: workflow.assignedRigger,
+    live: workflow.live,
+    permissions: workflow.permissions,
+  };
+}
+
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUser(request);
   const { plan, revision } = await requirePlan(user.organisationId, params.planId);
@@ -60,7 +82,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     comparison,
     units: user.units,
     canEdit: hasAnyRole(user, "planner", "admin") && EDITABLE_STATUSES.includes(revision.status),
-    workflow,
+    // What the panel shows of where the plan stands; never the revisions' documents or the sealed record again.
+    workflow: workflow ? panelData(workflow) : null,
     // Only the assignment form lists the riggers.
     riggers: workflow?.permissions["assign-rigger"].allowed
       ? (await listUsersWithRole(user.organisationId, "rigger")).map((r) => ({ id: r.id, name: r.name }))

@@ -3,8 +3,8 @@ import { z } from "zod";
 import type { Route } from "./+types/plans.new";
 import { Button, Card, EmptyState, Field, FormError, PageHeader, SelectField } from "~/components/ui/form";
 import { parseForm, requiredText, requireFormData } from "~/utils/forms";
-import { listComponents } from "~/models/component.server";
-import { listJobs } from "~/models/job.server";
+import { listComponentChoices } from "~/models/component.server";
+import { getJob, listJobsPage } from "~/models/job.server";
 import { createPlanFromComponent } from "~/plans/revisions.server";
 import { MAX_TITLE } from "~/plans/document";
 import { flashNotice, requireUserWithRole } from "~/utils/session.server";
@@ -20,19 +20,22 @@ const schema = z.object({
 
 export const meta: Route.MetaFunction = () => [{ title: "Plan a lift · Plumbline" }];
 
+/** The open jobs offered (in the jobs list's order); a job opened from its own page is always offered. */
+const JOB_CHOICES = 500;
+
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUserWithRole(request, "planner", "admin");
-  const [jobs, components] = await Promise.all([listJobs(user.organisationId), listComponents(user.organisationId)]);
-  const jobId = Number(new URL(request.url).searchParams.get("jobId")) || undefined;
-  return {
-    jobId: jobs.some((j) => j.id === jobId) ? jobId : undefined,
-    jobs: jobs
-      .filter((j) => j.status === "open" || j.id === jobId)
-      .map((j) => ({ id: j.id, label: `${j.workOrder}: ${j.title}` })),
-    components: components
-      .filter((c) => (c.liftPoints?.length ?? 0) > 0)
-      .map((c) => ({ id: c.id, name: c.name, liftPoints: c.liftPoints?.length ?? 0, massKg: c.massKg })),
-  };
+  const rawJobId = Number(new URL(request.url).searchParams.get("jobId"));
+  const [open, chosen, components] = await Promise.all([
+    listJobsPage(user.organisationId, { cursor: null, towards: "next", limit: JOB_CHOICES }, { status: "open" }),
+    Number.isSafeInteger(rawJobId) && rawJobId > 0 ? getJob(user.organisationId, rawJobId) : null,
+    listComponentChoices(user.organisationId),
+  ]);
+  const jobs = open.rows.map((j) => ({ id: j.id, label: `${j.workOrder}: ${j.title}` }));
+  // The job the page was opened from is offered even when closed or beyond the first open ones.
+  if (chosen && !jobs.some((j) => j.id === chosen.id))
+    jobs.unshift({ id: chosen.id, label: `${chosen.workOrder}: ${chosen.title}` });
+  return { jobId: chosen?.id, jobs, components };
 }
 
 export async function action({ request }: Route.ActionArgs) {

@@ -3,7 +3,9 @@ import type { Route } from "./+types/sites.$siteId";
 import { SiteForm } from "~/components/site-form";
 import { Card, EmptyState, PageHeader } from "~/components/ui/form";
 import { parseForm, requireFormData } from "~/utils/forms";
-import { listJobs } from "~/models/job.server";
+import { Pager } from "~/components/ui/pager";
+import { JOB_LIST_KEYS, listJobsPage } from "~/models/job.server";
+import { pageLinks, readPageRequest } from "~/utils/keyset.server";
 import { getSite, updateSite } from "~/models/site.server";
 import { flashNotice, requireUserWithRole } from "~/utils/session.server";
 import { siteSchema } from "~/sites-and-jobs/site-schema";
@@ -20,7 +22,8 @@ async function requireSite(organisationId: number, rawId: string) {
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUserWithRole(request, "planner", "admin");
   const site = await requireSite(user.organisationId, params.siteId);
-  const jobs = await listJobs(user.organisationId, { siteId: site.id });
+  const url = new URL(request.url);
+  const page = await listJobsPage(user.organisationId, readPageRequest(url, JOB_LIST_KEYS), { siteId: site.id });
   return {
     site: {
       id: site.id,
@@ -30,7 +33,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       siteContact: site.siteContact,
       notes: site.notes,
     },
-    jobs: jobs.map((j) => ({ id: j.id, workOrder: j.workOrder, title: j.title, status: j.status })),
+    jobs: page.rows.map((j) => ({ id: j.id, workOrder: j.workOrder, title: j.title, status: j.status })),
+    pages: pageLinks(url, page),
   };
 }
 
@@ -44,7 +48,7 @@ export async function action({ request, params }: Route.ActionArgs) {
 }
 
 export default function SitePage({ loaderData, actionData }: Route.ComponentProps) {
-  const { site, jobs } = loaderData;
+  const { site, jobs, pages } = loaderData;
   return (
     <>
       <PageHeader title={site.name} lead={site.customer}>
@@ -57,7 +61,7 @@ export default function SitePage({ loaderData, actionData }: Route.ComponentProp
       </PageHeader>
       <div className="grid gap-6 md:grid-cols-2">
         <Card title="Jobs at this site">
-          {jobs.length === 0 ? (
+          {jobs.length === 0 && !pages.previous ? (
             <EmptyState title="No jobs yet">Open a job (a work order) to plan its lifts.</EmptyState>
           ) : (
             <ul className="space-y-1 text-sm">
@@ -71,6 +75,7 @@ export default function SitePage({ loaderData, actionData }: Route.ComponentProp
               ))}
             </ul>
           )}
+          <Pager label="Pages of this site's jobs" {...pages} />
         </Card>
         <Card title="Site details">
           <SiteForm values={site} errors={actionData?.errors ?? {}} submitLabel="Save site" />

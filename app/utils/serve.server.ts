@@ -16,11 +16,12 @@ import cluster from "node:cluster";
 import fs from "node:fs";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
+import { isMainThread, workerData } from "node:worker_threads";
 import { createRequestHandler } from "@react-router/express";
 import compression from "compression";
 import express, { type RequestHandler } from "express";
-import morgan from "morgan";
 import type { ServerBuild } from "react-router";
+import { PDF_WORKER_ROLE, registerPdfWorkerFile } from "~/plans/pdf/off-thread.server";
 
 type Settings = { port: number; host: string | undefined; webConcurrency: number };
 
@@ -48,6 +49,29 @@ function buildFiles(): RequestHandler {
   const known = new Set(listFiles(CLIENT_DIR).filter((p) => !p.startsWith("/assets/")));
   const serve = express.static(CLIENT_DIR, { maxAge: "1h", index: false, setHeaders: setStaticHeaders });
   return (req, res, next) => (known.has(req.path) ? serve(req, res, next) : next());
+}
+
+/**
+ * One line per request, as morgan's "tiny" format wrote it (method, URL, status, length, time), for less: no format
+ * compiled per line, the time taken from the monotonic clock once, and the lines of a busy moment written to stdout
+ * together at the end of the event loop's turn.
+ */
+function requestLog(): RequestHandler {
+  let pending: string[] = [];
+  const flush = () => {
+    process.stdout.write(pending.join(""));
+    pending = [];
+  };
+  return (req, res, next) => {
+    const start = performance.now();
+    res.once("finish", () => {
+      const length = res.getHeader("Content-Length") ?? "-";
+      const ms = (performance.now() - start).toFixed(3);
+      if (pending.length === 0) setImmediate(flush);
+      pending.push(`${req.method} ${req.originalUrl} ${res.statusCode} ${length} - ${ms} ms\n`);
+    });
+    next();
+  };
 }
 
 /** The methods Plumbline takes anywhere; pages take GET, HEAD and POST, the JSON API also PUT (routes say which). */
@@ -81,6 +105,8 @@ async function startWorker(settings: Settings) {
   process.setSourceMapsEnabled(false);
   // A chunk of its own: the primary never loads the app, its models or the database.
   const build = (await import("virtual:react-router/server-build")) as ServerBuild;
+  // Printed plans are built on a thread started from this file.
+  registerPdfWorkerFile(ENTRY_FILE);
   const app = express();
   app.disable("x-powered-by");
   app.use(compression());
@@ -94,7 +120,7 @@ async function startWorker(settings: Settings) {
     }),
   );
   app.use(buildFiles());
-  app.use(morgan("tiny"));
+  app.use(requestLog());
   app.use(refuseUnknownMethods);
   // This file serves only the production build: errors reach the browser without their details.
   app.all("*", createRequestHandler({ build, mode: "production" }));
@@ -177,8 +203,12 @@ async function runCommand(command: string, argument: string | undefined) {
   }
 }
 
-// Only when node runs this file, never when something imports it.
-if (process.argv[1] && path.resolve(process.argv[1]) === ENTRY_FILE) {
+// A thread this file was started as by the server (the PDF builder) does that job only.
+if (!isMainThread && (workerData as { role?: string } | null)?.role === PDF_WORKER_ROLE) {
+  const { servePdfJobs } = await import("~/plans/pdf/worker.server");
+  servePdfJobs();
+} else if (process.argv[1] && path.resolve(process.argv[1]) === ENTRY_FILE) {
+  // Only when node runs this file, never when something imports it.
   const command = process.argv[2] ?? "serve";
   if (command === "serve") await serve();
   else await runCommand(command, process.argv[3]);

@@ -2,6 +2,7 @@
 // route on the same built server in the same run. A benchmark, never a timed test: it prints.
 import { startBuiltServer, signInCookie } from "../support/built-server";
 import { runLoadBench } from "./load";
+import { runPagesBench } from "./pages";
 import { runPdfBench } from "./pdf";
 import { runStaticsBench, type BenchResult } from "./statics";
 
@@ -68,7 +69,7 @@ async function runHttpBench(): Promise<BenchResult[]> {
 function print(results: BenchResult[]) {
   for (const r of results) {
     const value = r.unit === "solves/s" ? Math.round(r.value).toLocaleString("en-GB") : r.value.toFixed(3);
-    const atMost = r.unit === "x" || r.unit === "ms" || r.unit === "KB";
+    const atMost = r.unit === "x" || r.unit === "ms" || r.unit === "KB" || r.unit === "MB";
     const target = Number.isNaN(r.target)
       ? ""
       : ` (target ${atMost ? "<=" : ">="} ${r.target.toLocaleString("en-GB")})`;
@@ -76,10 +77,16 @@ function print(results: BenchResult[]) {
   }
 }
 
-const results = [
-  ...(await runStaticsBench()),
-  ...(await runPdfBench()),
-  ...(await runHttpBench()),
-  ...(await runLoadBench()),
-];
+// Quick by default: the printed plan and every role's pages on a mid-sized organisation (under a minute after the
+// build). `npm run bench -- --full`: the statics core, the 10,000-plan / 50,000-item organisation and the long load.
+const full = process.argv.includes("--full");
+const results = full
+  ? [
+      ...(await runStaticsBench()),
+      ...(await runPdfBench()),
+      ...(await runHttpBench()),
+      ...(await runLoadBench()),
+      ...(await runPagesBench("full")),
+    ]
+  : [...(await runPdfBench()), ...(await runPagesBench("quick"))];
 print(results);

@@ -57,11 +57,9 @@ async function firstLink(page: Page, listPath: string, pattern: RegExp) {
 }
 
 async function planByTitle(page: Page, start: string) {
-  const plans = (await (await page.request.get("/api/plans")).json()) as Array<{
-    id: number;
-    title: string;
-    status: string;
-  }>;
+  const { plans } = (await (await page.request.get("/api/plans")).json()) as {
+    plans: Array<{ id: number; title: string; status: string }>;
+  };
   const plan = plans.find((p) => p.title.startsWith(start));
   if (!plan) throw new Error(`no plan titled ${start}…`);
   return plan;

@@ -12,7 +12,9 @@ afterAll(async () => {
 async function planIdByTitle(start: string) {
   const { page } = desk;
   const res = await page.request.get("/api/plans");
-  const plans = (await res.json()) as Array<{ id: number; title: string; status: string; revision: number }>;
+  const { plans } = (await res.json()) as {
+    plans: Array<{ id: number; title: string; status: string; revision: number }>;
+  };
   const plan = plans.find((p) => p.title.startsWith(start));
   if (!plan) throw new Error(`no plan ${start}`);
   return plan;

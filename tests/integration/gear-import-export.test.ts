@@ -2,7 +2,11 @@ import { describe, expect, it } from "vitest";
 import * as importPage from "~/routes/gear.import";
 import * as exportCsv from "~/routes/gear.export.csv";
 import { AuditEvent } from "~/models/audit-event.server";
-import { GearItem } from "~/models/gear-item.server";
+import { GearItem, listAllGearItems } from "~/models/gear-item.server";
+import { CSV_HEADERS, exportRow, toCsv } from "~/gear/csv";
+import { dueState } from "~/gear/due";
+import { gearRegisterCsv } from "~/gear/export.server";
+import { DEFAULT_TIME_ZONE, todayIn } from "~/utils/dates";
 import { StoredFile } from "~/models/stored-file.server";
 import { callRoute, getRequest, makeUser, postForm } from "../support/factories";
 import { adminWithSite, ELF_BYTES, makeGearItem, PNG_BYTES, postMultipart } from "../support/gear";
@@ -102,6 +106,38 @@ describe("CSV export", () => {
     expect(text).toContain("'-2 leg, grade 8");
     expect(text).not.toMatch(/[,\n]=cmd/);
     expect(text).toContain("Fernbrook Brewery, compressor house");
+  });
+
+  it("streams, a batch at a time, exactly the file built from the whole register at once", async () => {
+    const { admin, site } = await registerOfThree();
+    const today = todayIn(DEFAULT_TIME_ZONE);
+    for (let i = 0; i < 23; i++)
+      await makeGearItem(admin, {
+        itemCode: `ST-${String((i * 7) % 23).padStart(2, "0")}${i % 3 ? "" : "b"}`,
+        description: i % 4 ? `Web sling, "green", ${i} m` : "line one\nline two, with a comma",
+        manufacturer: i % 5 ? "Tarnwick Forge" : " padded ",
+        massKg: i % 2 ? 1.5 + i : null,
+        homeSiteId: i % 3 ? site.id : null,
+      });
+    // The export as it was built before it streamed: every item read at once, one string.
+    const items = await listAllGearItems(admin.organisationId);
+    const whole = toCsv([
+      CSV_HEADERS,
+      ...items.map((item) =>
+        exportRow({
+          ...item.get({ plain: true }),
+          homeSiteName: item.homeSite?.name ?? null,
+          dueState: dueState(item.nextDueOn, today),
+        }),
+      ),
+    ]);
+    // Decoded keeping the byte order mark, which Response.text() would drop.
+    const streamed = async (batch: number) =>
+      new TextDecoder("utf-8", { ignoreBOM: true }).decode(
+        await new Response(gearRegisterCsv(admin.organisationId, today, batch)).arrayBuffer(),
+      );
+    for (const batch of [1, 4, 26, 1000]) expect(await streamed(batch), `batch of ${batch}`).toBe(whole);
+    expect(await exportText(admin)).toBe(whole.slice(1));
   });
 
   it("exports only the signed-in user's organisation", async () => {

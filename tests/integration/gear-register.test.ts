@@ -289,3 +289,42 @@ describe("the register's filters, search, sort and pages", () => {
     expect(beyond.headers.get("Location")).toBe("/gear?q=P-&page=2");
   });
 });
+
+describe("the register's text search index", () => {
+  it("finds the same items as reading every row, and follows each edit and delete", async () => {
+    const { admin } = await adminWithSite("Harrowgate");
+    const other = await makeUser(["admin"]);
+    await makeGearItem(other, { itemCode: "OTHER-DEE", description: "Dee shackle of another firm" });
+    const items = [
+      await makeGearItem(admin, { itemCode: "S-001", description: "Dee shackle, galvanised", serial: "KW-4471" }),
+      await makeGearItem(admin, { itemCode: "S-002", description: "Bow shackle", manufacturer: "Ãlvik Smede" }),
+      await makeGearItem(admin, { itemCode: "S-003", description: 'Bow "heavy" shackle', serial: "kw-9912" }),
+      await makeGearItem(admin, { itemCode: "DEE-04", description: "Spare", manufacturer: "Tarnwick Forge" }),
+    ];
+    const codes = async (q: string) =>
+      (await registerAs(admin, `?q=${encodeURIComponent(q)}`)).rows.map((r) => r.itemCode).sort();
+    // What the column scan gives: the text anywhere in one of the four columns, letter case aside.
+    const scan = (q: string) =>
+      GearItem.findAll({ where: { organisationId: admin.organisationId } }).then((all) =>
+        all
+          .filter((g) =>
+            [g.itemCode, g.description, g.manufacturer, g.serial].some((v) =>
+              v.toLowerCase().includes(q.toLowerCase()),
+            ),
+          )
+          .map((g) => g.itemCode)
+          .sort(),
+      );
+    for (const q of ["dee", "DEE", "kw-", "KW-4471", "shackle", "ãlvik", '"heavy"', 'bow "', "zzz", "e", "s-"])
+      expect(await codes(q), q).toEqual(await scan(q));
+    expect(await codes("dee")).toEqual(["DEE-04", "S-001"]);
+
+    await items[1]!.update({ description: "Dee shackle, new" });
+    expect(await codes("dee")).toEqual(["DEE-04", "S-001", "S-002"]);
+    await items[0]!.update({ serial: "QQ-1" });
+    expect(await codes("kw-")).toEqual(["S-003"]);
+    await items[3]!.destroy();
+    expect(await codes("dee")).toEqual(["S-001", "S-002"]);
+    expect((await registerAs(admin, "?q=dee")).total).toBe(2);
+  });
+});

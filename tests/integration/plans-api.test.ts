@@ -188,7 +188,7 @@ describe("plans API", () => {
     expect((await put(plan.id, { ...documentOf(body), title: "Hijack" }, stranger)).status).toBe(404);
     expect((await getPlanBody(plan.id, planner)).title).toBe("Lift the element out");
     const list = await callRoute(planList.loader, await getRequest("/api/plans", stranger));
-    expect(list.data).toEqual([]);
+    expect(list.data).toEqual({ plans: [], next: null });
   });
 
   it("anonymous requests get 401 JSON", async () => {
@@ -351,7 +351,7 @@ describe("plans API", () => {
     const second = await makePlan(planner);
     const res = await callRoute(planList.loader, await getRequest("/api/plans", planner));
     expect(res.status).toBe(200);
-    expect(res.data).toEqual(
+    expect((res.data as { plans: unknown[] }).plans).toEqual(
       expect.arrayContaining([
         { id: plan.id, title: "Lift the element out", status: "draft", revision: 1, version: 1, jobId: job.id },
         {
@@ -365,7 +365,7 @@ describe("plans API", () => {
       ]),
     );
     const forJob = await callRoute(planList.loader, await getRequest(`/api/plans?jobId=${job.id}`, planner));
-    expect((forJob.data as Array<{ id: number }>).map((p) => p.id)).toEqual([plan.id]);
+    expect((forJob.data as { plans: Array<{ id: number }> }).plans.map((p) => p.id)).toEqual([plan.id]);
     expect((await callRoute(planList.loader, await getRequest("/api/plans?jobId=x", planner))).status).toBe(400);
   });
 });

@@ -43,6 +43,8 @@ export type StartOptions = {
    * beside it, and stop() leaves its folder alone (the caller made it, the caller removes it).
    */
   databasePath?: string;
+  /** How long the server may take to answer its first request (default 30 s; a loaded machine may need more). */
+  startSeconds?: number;
 };
 
 export async function startBuiltServer(options: StartOptions = {}): Promise<BuiltServer> {
@@ -79,7 +81,7 @@ export async function startBuiltServer(options: StartOptions = {}): Promise<Buil
   child.stdout?.on("data", (d) => (output += d));
   child.stderr?.on("data", (d) => (output += d));
   const baseUrl = `http://127.0.0.1:${port}`;
-  const deadline = Date.now() + 30_000;
+  const deadline = Date.now() + (options.startSeconds ?? 30) * 1000;
   for (;;) {
     try {
       if ((await fetch(`${baseUrl}/login`)).ok) break;

@@ -1,0 +1,103 @@
+// Reads of the register that must cost the same at 50,000 items as at 50: the export a batch at a time, and the
+// dashboard's count of what needs attention with the first few items of each group.
+import { QueryTypes } from "sequelize";
+import type { AttentionGroup } from "~/gear/attention";
+import type { GearKind, GearStatus } from "~/gear/kinds";
+import type { MassUnit } from "~/statics/units";
+import { sequelize } from "~/utils/db.server";
+
+export type GearExportRow = {
+  itemCode: string;
+  kind: GearKind;
+  description: string;
+  manufacturer: string;
+  serial: string;
+  wllValue: number;
+  wllUnit: MassUnit;
+  wllKg: number;
+  thread: string | null;
+  eyeboltFamily: string | null;
+  shackleType: string | null;
+  pinType: string | null;
+  chainGrade: number | null;
+  diameterMm: number | null;
+  legs: number | null;
+  lengthM: number | null;
+  hookHeightM: number | null;
+  beamMassKg: number | null;
+  massKg: number | null;
+  homeSiteName: string | null;
+  status: GearStatus;
+  lastExaminedOn: string | null;
+  nextDueOn: string | null;
+};
+
+const EXPORT_COLUMNS = `g.item_code AS itemCode, g.kind AS kind, g.description AS description,
+  g.manufacturer AS manufacturer, g.serial AS serial, g.wll_value AS wllValue, g.wll_unit AS wllUnit,
+  g.wll_kg AS wllKg, g.thread AS thread, g.eyebolt_family AS eyeboltFamily, g.shackle_type AS shackleType,
+  g.pin_type AS pinType, g.chain_grade AS chainGrade, g.diameter_mm AS diameterMm, g.legs AS legs,
+  g.length_m AS lengthM, g.hook_height_m AS hookHeightM, g.beam_mass_kg AS beamMassKg, g.mass_kg AS massKg,
+  s.name AS homeSiteName, g.status AS status, g.last_examined_on AS lastExaminedOn, g.next_due_on AS nextDueOn`;
+
+/**
+ * Up to `limit` items of the organisation in item id order, after `afterItemCode` (from the first when null): the
+ * export's next batch, read through the (organisation, item id) index.
+ */
+export async function readGearExportBatch(organisationId: number, afterItemCode: string | null, limit: number) {
+  return sequelize.query<GearExportRow>(
+    `SELECT ${EXPORT_COLUMNS}
+       FROM gear_items g LEFT JOIN sites s ON s.id = g.home_site_id
+      WHERE g.organisation_id = ? ${afterItemCode === null ? "" : "AND g.item_code > ?"}
+      ORDER BY g.item_code LIMIT ?`,
+    {
+      replacements: [organisationId, ...(afterItemCode === null ? [] : [afterItemCode]), limit],
+      type: QueryTypes.SELECT,
+    },
+  );
+}
+
+export type AttentionPreview = { id: number; itemCode: string; description: string; nextDueOn: string | null };
+
+/** Each attention group's condition (attentionGroup in gear/attention.ts, as SQL), and its order. */
+function groupSql(group: AttentionGroup): string {
+  const usable = "g.status NOT IN ('withdrawn', 'quarantined')";
+  switch (group) {
+    case "quarantined":
+      return "g.status = 'quarantined'";
+    case "never_examined":
+      return `${usable} AND g.next_due_on IS NULL`;
+    case "overdue":
+      return `${usable} AND g.next_due_on < :today`;
+    case "due_soon":
+      return `${usable} AND g.next_due_on >= :today AND g.next_due_on <= :until`;
+  }
+}
+
+/**
+ * How many items fall in each attention group on `today` (due soon: by `until`), and the first `perGroup` of each
+ * in due date and item id order: counted in the database, never read whole.
+ */
+export async function gearAttentionSummary(
+  organisationId: number,
+  today: string,
+  until: string,
+  groups: readonly AttentionGroup[],
+  perGroup: number,
+) {
+  const replacements = { organisationId, today, until, perGroup };
+  return Promise.all(
+    groups.map(async (group) => {
+      const where = `g.organisation_id = :organisationId AND ${groupSql(group)}`;
+      const [counted] = await sequelize.query<{ n: number }>(`SELECT COUNT(*) AS n FROM gear_items g WHERE ${where}`, {
+        replacements,
+        type: QueryTypes.SELECT,
+      });
+      const items = await sequelize.query<AttentionPreview>(
+        `SELECT g.id AS id, g.item_code AS itemCode, g.description AS description, g.next_due_on AS nextDueOn
+           FROM gear_items g WHERE ${where} ORDER BY g.next_due_on, g.item_code LIMIT :perGroup`,
+        { replacements, type: QueryTypes.SELECT },
+      );
+      return { group, count: counted?.n ?? 0, items };
+    }),
+  );
+}

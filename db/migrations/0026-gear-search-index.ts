@@ -1,0 +1,37 @@
+import type { Migration } from "../umzug";
+
+/**
+ * A full-text index of the register's searched columns (item id, description, manufacturer, serial), so a search of
+ * 50,000 items reads the index instead of every row. The trigram tokenizer matches any run of three or more
+ * characters anywhere in a column, case-insensitively: the same items the column scan found. It holds no copy of
+ * the text (external content: gear_items), and the triggers keep it in step with every insert, update and delete.
+ * A migration that rebuilds gear_items (SQLite's ALTER of a column copies the table) must recreate the triggers.
+ */
+const COLUMNS = ["item_code", "description", "manufacturer", "serial"];
+const cols = COLUMNS.join(", ");
+const values = (row: "new" | "old") => COLUMNS.map((c) => `${row}.${c}`).join(", ");
+
+const STATEMENTS = [
+  `CREATE VIRTUAL TABLE gear_items_search USING fts5(${cols}, content='gear_items', content_rowid='id', tokenize='trigram')`,
+  `CREATE TRIGGER gear_items_search_insert AFTER INSERT ON gear_items BEGIN
+     INSERT INTO gear_items_search(rowid, ${cols}) VALUES (new.id, ${values("new")});
+   END`,
+  `CREATE TRIGGER gear_items_search_delete AFTER DELETE ON gear_items BEGIN
+     INSERT INTO gear_items_search(gear_items_search, rowid, ${cols}) VALUES ('delete', old.id, ${values("old")});
+   END`,
+  `CREATE TRIGGER gear_items_search_update AFTER UPDATE OF ${cols} ON gear_items BEGIN
+     INSERT INTO gear_items_search(gear_items_search, rowid, ${cols}) VALUES ('delete', old.id, ${values("old")});
+     INSERT INTO gear_items_search(rowid, ${cols}) VALUES (new.id, ${values("new")});
+   END`,
+  `INSERT INTO gear_items_search(gear_items_search) VALUES ('rebuild')`,
+];
+
+export const up: Migration = async ({ context: qi }) => {
+  for (const sql of STATEMENTS) await qi.sequelize.query(sql);
+};
+
+export const down: Migration = async ({ context: qi }) => {
+  for (const name of ["gear_items_search_update", "gear_items_search_delete", "gear_items_search_insert"])
+    await qi.sequelize.query(`DROP TRIGGER IF EXISTS ${name}`);
+  await qi.sequelize.query("DROP TABLE IF EXISTS gear_items_search");
+};
