@@ -13,6 +13,7 @@ import {
   formatUtilisation,
   type Units,
 } from "~/utils/format";
+import { levelLegsText, tiltRuleFigures, tiltSentence } from "./check-text-tilt";
 
 /** A check as stored before checks were structured: only the old fields. */
 export type LegacyCheck = {
@@ -134,6 +135,10 @@ export function fixText(fix: Fix, units: Units, check: Check | null = null): str
       return `use ${largerItem(check, formatLoad(fix.minWllKg, units))}`;
     case "tapped-size":
       return `use ${/^[aefhilmnorsx]/i.test(fix.thread) ? "an" : "a"} ${fix.thread} eyebolt to fit the tapped hole`;
+    case "tapped-size-limit":
+      return `eyebolt ${fix.thread} is the tapped size: use a lifting point of higher WLL (at least ${formatLoad(fix.minWllKg, units)} in line) or more legs`;
+    case "level-legs":
+      return levelLegsText(fix.legs, units);
     case "hitch":
       return `use a ${list(fix.allowed.map(hitchWord))} hitch, the only ${fix.allowed.length === 1 ? "one" : "ones"} this sling and attachment can make`;
     case "state-wll":
@@ -359,6 +364,9 @@ export function checkSentence(check: AnyCheck, units: Units, options: { withUtil
       return `${check.item} carries ${load} of its ${capacity} ${capacityName(check)}${pct}.${eyeNote(check)} The lift point's thread is not recorded: ${fixText({ kind: "confirm-thread" }, units)}.`;
     case "masses-unrecorded":
       return `${check.item} carries ${load} of its ${capacity} ${capacityName(check)}${pct}, not counting ${list(i.gross?.unrecorded ?? [])}, whose mass is not recorded: record it on the item.`;
+    case "tilt-ok":
+    case "tilt-over":
+      return tiltSentence(check, check.fix ? fixText(check.fix, units, check) : null);
     case "within":
       if (check.kind === "crane-headroom") {
         return `Crane hook headroom: the hook must reach ${formatLengthUp(i.neededHookHeightM ?? 0, units)} above the floor and can reach ${formatLengthDown(i.maxHookHeightM ?? 0, units)}.`;
@@ -427,6 +435,9 @@ export function ruleText(check: AnyCheck, units: Units): string {
       if (i.gross)
         figures.push(`${check.kind === "crane-load" ? "gross load" : "hook load"} = ${grossText(i.gross, units)}`);
       if (wll) figures.push(`${check.kind === "crane-load" ? "SWL" : "WLL"} ${wll}`);
+      break;
+    case "load-tilt":
+      figures.push(...tiltRuleFigures(check));
       break;
     case "leg-angle":
       if (i.limits)
