@@ -50,9 +50,11 @@ export function worstVerdict(checks: readonly AnyCheck[]): Verdict {
   return checks.reduce<Verdict>((worst, c) => (RANK[verdictOf(c)] > RANK[worst] ? verdictOf(c) : worst), "pass");
 }
 
-/** Whether a check rates an item of gear (anything but a sling angle, which the geometry alone decides). */
+/** Whether a check rates an item of gear (not a sling angle or the load's tilt, which the geometry alone decides). */
 export function isGearCheck(check: AnyCheck): boolean {
-  return isStructured(check) ? check.kind !== "leg-angle" : !check.id.startsWith("angle-");
+  return isStructured(check)
+    ? check.kind !== "leg-angle" && check.kind !== "load-tilt"
+    : !check.id.startsWith("angle-");
 }
 
 /**
