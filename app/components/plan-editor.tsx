@@ -16,6 +16,7 @@ import { TracingPanel, useTracing } from "~/components/plan-editor/tracing";
 import { useAutosave } from "~/components/plan-editor/use-autosave";
 import { useLiveSolve, type LiveSolution } from "~/components/plan-editor/use-live-solve";
 import { standing } from "~/plans/check-text";
+import { LEVELLING_STEP_M } from "~/plans/check-text-tilt";
 
 /** Grey until the leg's gear is checked; a failing or warning angle shows at once. */
 const legTone = (s: ReturnType<typeof standing>): LegFigure["tone"] => (s === "unchecked" ? "none" : s);
@@ -115,9 +116,15 @@ export function PlanEditor({
   const hook =
     solution?.hook ??
     (edit.arrangement.mode === "level" ? { x: edit.cog.x, y: edit.cog.y, z: edit.arrangement.hookHeightM } : null);
+  const levelChange = (id: string) => {
+    const change = solution?.levelling?.legs.find((l) => l.liftPointId === id)?.changeM ?? 0;
+    return solution && solution.tiltDeg >= 0.05 && Math.abs(change) >= LEVELLING_STEP_M
+      ? ` · to level: ${change < 0 ? "shorten" : "lengthen"} ${formatLength(Math.abs(change), units)}`
+      : "";
+  };
   const legFigures: LegFigure[] = (solution?.legs ?? []).map((leg) => ({
     label: leg.liftPointId,
-    text: `${leg.liftPointId}: ${tensionText(leg.tensionKn, leg.tensionKg, units)} · ${leg.angleFromVerticalDeg.toFixed(1)}°`,
+    text: `${leg.liftPointId}: ${tensionText(leg.tensionKn, leg.tensionKg, units)} · ${leg.angleFromVerticalDeg.toFixed(1)}°${levelChange(leg.liftPointId)}`,
     tone: legTone(standing(solution?.checks ?? [], leg.liftPointId)),
     slack: leg.slack,
   }));

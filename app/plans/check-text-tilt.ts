@@ -1,7 +1,11 @@
 // The load's tilt for fitting, and the leg changes that would level it, in words. Pure and shared with
 // the browser; check-text.ts calls these for the fit-tilt check and its fix.
 import type { Check } from "~/statics/check-types";
+import { SMALLEST_LEG_CHANGE_M } from "~/statics/tilt";
 import { formatAngle, formatLength, type Units } from "~/utils/format";
+
+/** Leg changes smaller than this (m) are shown as no change: below what a rigger can set. */
+export const LEVELLING_STEP_M = SMALLEST_LEG_CHANGE_M;
 
 /** A leg change as an instruction: "shorten leg C by 12 mm", "lengthen leg A by 3 mm" (nearest mm or 0.01 in). */
 export function legChangeText(legId: string, changeM: number, units: Units): string {

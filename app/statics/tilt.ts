@@ -83,7 +83,7 @@ export interface FitTolerance {
 }
 
 /** Leg changes shorter than this (m) are left out of the fix: below what a rigger can set. */
-const SMALLEST_CHANGE_M = 0.0005;
+export const SMALLEST_LEG_CHANGE_M = 0.0005;
 
 /**
  * The load's tilt in each of its planes (deg) against its fit tolerance (deg). Utilisation is the larger
@@ -105,7 +105,7 @@ export function checkFitTilt(
   let fix: Fix | null = null;
   if (over && levelling?.ok) {
     const legs = levelling.legs
-      .filter((l) => Math.abs(l.changeM) >= SMALLEST_CHANGE_M)
+      .filter((l) => Math.abs(l.changeM) >= SMALLEST_LEG_CHANGE_M)
       .map((l) => ({ legId: l.liftPointId, changeM: l.changeM }));
     if (legs.length > 0) fix = { kind: "level-legs", legs };
   }
