@@ -34,7 +34,7 @@ import {
   type Handle,
 } from "~/plans/editor-state";
 import type { GearPick } from "~/plans/rigging";
-import type { RuleSetId } from "~/statics/reference";
+import type { ReferenceTables, RuleSetId } from "~/statics/reference";
 import { formatLength, type Units } from "~/utils/format";
 
 const PlanCanvas = lazy(() => import("~/components/plan-canvas.client"));
@@ -60,6 +60,7 @@ export function PlanEditor({
   files,
   canEdit,
   ruleSet,
+  tables = null,
 }: {
   plan: EditorPlan;
   units: Units;
@@ -67,6 +68,8 @@ export function PlanEditor({
   files: EditorFile[];
   canEdit: boolean;
   ruleSet: RuleSetId;
+  /** The reference tables, so the hook-height chart can run the plan's own checks at each height. */
+  tables?: ReferenceTables | null;
 }) {
   const [state, dispatch] = useReducer(editorReducer, plan, (p) => initialEditorState(toEdit(p)));
   const edit = state.present;
@@ -344,7 +347,15 @@ export function PlanEditor({
         <HookHeightChart
           massKg={plan.snapshot.massKg}
           cog={edit.cog}
-          points={usedPoints.map((p) => ({ id: p.label, position: p.position, axis: p.axis }))}
+          points={usedPoints.map((p) => ({
+            id: p.label,
+            position: p.position,
+            axis: p.axis,
+            ...(p.thread ? { thread: p.thread } : {}),
+          }))}
+          rigging={body?.rigging}
+          tables={tables}
+          ruleSet={ruleSet}
           currentHookZM={hook?.z ?? edit.arrangement.hookHeightM}
           units={units}
         />
