@@ -341,6 +341,8 @@ export function PlanEditor({
         usedPoints={usedPoints}
         picks={picks}
         addPick={addPick}
+        body={body}
+        tables={tables}
       />
 
       {edit.arrangement.kind === "bridle" && (
