@@ -2,10 +2,17 @@
 // the browser; check-text.ts calls these for the fit-tilt check and its fix.
 import type { Check } from "~/statics/check-types";
 import { SMALLEST_LEG_CHANGE_M } from "~/statics/tilt";
-import { formatAngle, formatLength, type Units } from "~/utils/format";
+import { formatAngle, formatLength, formatLengthUp, type Units } from "~/utils/format";
 
 /** Leg changes smaller than this (m) are shown as no change: below what a rigger can set. */
 export const LEVELLING_STEP_M = SMALLEST_LEG_CHANGE_M;
+
+/** A level lift's other way out of an item over its rating: ", or raise the hook point to at least 1,482 mm". */
+export function orRaise(hookZM: number | undefined, units: Units): string {
+  return hookZM === undefined
+    ? ""
+    : `, or raise the hook point to at least ${formatLengthUp(hookZM, units)} (component frame)`;
+}
 
 /** A leg change as an instruction: "shorten leg C by 12 mm", "lengthen leg A by 3 mm" (nearest mm or 0.01 in). */
 export function legChangeText(legId: string, changeM: number, units: Units): string {

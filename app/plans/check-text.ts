@@ -13,7 +13,7 @@ import {
   formatUtilisation,
   type Units,
 } from "~/utils/format";
-import { levelLegsText, tiltRuleFigures, tiltSentence } from "./check-text-tilt";
+import { levelLegsText, orRaise, tiltRuleFigures, tiltSentence } from "./check-text-tilt";
 
 /** A check as stored before checks were structured: only the old fields. */
 export type LegacyCheck = {
@@ -134,11 +134,11 @@ export function fixText(fix: Fix, units: Units, check: Check | null = null): str
     case "longer-legs":
       return `lengthen ${fix.legs.map((l) => `leg ${l.legId} to at least ${formatLengthUp(l.minLengthM, units)}`).join(", ")} (roughly: the load re-settles), or use a beam`;
     case "larger-item":
-      return `use ${largerItem(check, formatLoad(fix.minWllKg, units))}`;
+      return `use ${largerItem(check, formatLoad(fix.minWllKg, units))}${orRaise(fix.orRaiseHookToZM, units)}`;
     case "tapped-size":
       return `use ${/^[aefhilmnorsx]/i.test(fix.thread) ? "an" : "a"} ${fix.thread} eyebolt to fit the tapped hole`;
     case "tapped-size-limit":
-      return `eyebolt ${fix.thread} is the tapped size: use a lifting point of higher WLL (at least ${formatLoad(fix.minWllKg, units)} in line) or more legs`;
+      return `eyebolt ${fix.thread} is the tapped size: use a lifting point of higher WLL (at least ${formatLoad(fix.minWllKg, units)} in line) or more legs${orRaise(fix.orRaiseHookToZM, units)}`;
     case "level-legs":
       return levelLegsText(fix.legs, units);
     case "hitch":

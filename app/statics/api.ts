@@ -5,6 +5,7 @@ import { solveGivenLengths, solveLevel, type BridleSolution, type LiftPoint } fr
 import type { Check, CheckResult, RiggingDescription } from "./check-types";
 import { angleChecks, checkRigging } from "./checks";
 import { DEFAULT_RULE_SET, RULE_SET_IDS, type ReferenceTables, type RuleSetId } from "./reference";
+import { lowestPassingHookZ } from "./raise-hook";
 import { checkFitTilt, levellingLengths, planeTilts, type LegLevelling, type PlaneTilts } from "./tilt";
 
 /** Largest load mass accepted, kg (100,000 t: beyond any crane lift). */
@@ -316,6 +317,7 @@ function solveParsed(body: SolveBody, tables: ReferenceTables, context: SolveCon
   if (!outcome.ok) return { status: 422, body: { error: outcome.message, code: outcome.code } };
   const ruleSet = body.ruleSet ?? context.defaultRuleSet ?? DEFAULT_RULE_SET;
   const responseBody = toResponseBody(outcome.solution, ruleSet);
+  const lifted = points.map((p, i) => ({ id: p.id, thread: body.liftPoints[i]!.thread, axis: p.axis }));
   if (levelling) responseBody.levelling = levelling.ok ? { hookZM: levelling.hookZM, legs: levelling.legs } : null;
   const checks =
     body.rigging !== undefined
@@ -323,7 +325,7 @@ function solveParsed(body: SolveBody, tables: ReferenceTables, context: SolveCon
           outcome.solution,
           body.load.massKg,
           body.load.cog,
-          points.map((p, i) => ({ id: p.id, thread: body.liftPoints[i]!.thread, axis: p.axis })),
+          lifted,
           body.rigging as RiggingDescription,
           tables,
           context.todayIso,
@@ -331,6 +333,35 @@ function solveParsed(body: SolveBody, tables: ReferenceTables, context: SolveCon
         )
       : angleChecks(outcome.solution, tables, ruleSet);
   if (body.fit !== undefined) checks.push(checkFitTilt(outcome.solution, body.fit, levelling, ruleSet));
+  if (body.hook !== undefined && body.rigging !== undefined) {
+    // A leg item over its rating in a level lift: the hook height at which the same item would pass.
+    const reach = Math.max(0.1, ...points.map((p) => Math.hypot(p.position.x - load.cog.x, p.position.y - load.cog.y)));
+    const top = Math.max(body.hook.z, ...points.map((p) => p.position.z)) + 5 * reach;
+    for (const c of checks) {
+      if (c.verdict !== "fail" || (c.fix?.kind !== "larger-item" && c.fix?.kind !== "tapped-size-limit")) continue;
+      if (c.kind !== "sling-leg" && c.kind !== "eyebolt" && c.kind !== "shackle") continue;
+      const z = lowestPassingHookZ(
+        (hookZM) => {
+          const level = solveLevel(load, points, hookZM);
+          if (!level.ok) return false;
+          const again = checkRigging(
+            level.solution,
+            load.massKg,
+            load.cog,
+            lifted,
+            body.rigging as RiggingDescription,
+            tables,
+            context.todayIso,
+            { ruleSet, liftDateIso: body.liftDate ?? null },
+          );
+          return again.find((x) => x.id === c.id)?.verdict === "pass";
+        },
+        body.hook.z,
+        top,
+      );
+      if (z !== null) c.fix = { ...c.fix, orRaiseHookToZM: z };
+    }
+  }
   responseBody.checks = checks.map(toCheckResult);
   responseBody.warnings.push(...angleWarnings(checks));
   return { status: 200, body: responseBody };

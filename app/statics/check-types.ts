@@ -60,11 +60,12 @@ export type Fix =
   /** Given lengths: make these legs at least this long (the load re-settles, so roughly), m. */
   | { kind: "longer-legs"; legs: Array<{ legId: string; minLengthM: number }> }
   /** An item marked (or, for an eyebolt, rated axially) for at least this much, kg. */
-  | { kind: "larger-item"; minWllKg: number }
+  /** orRaiseHookToZM: in a level lift, the hook height (m) at which the same item passes. */
+  | { kind: "larger-item"; minWllKg: number; orRaiseHookToZM?: number }
   /** An eyebolt with the tapped hole's thread. */
   | { kind: "tapped-size"; thread: string }
   /** The eyebolt already fills the tapped hole: a lifting point of higher WLL on that thread, or more legs. */
-  | { kind: "tapped-size-limit"; thread: string; minWllKg: number }
+  | { kind: "tapped-size-limit"; thread: string; minWllKg: number; orRaiseHookToZM?: number }
   /** Change these legs by this much to hang the load level (negative: shorten), m. */
   | { kind: "level-legs"; legs: Array<{ legId: string; changeM: number }> }
   /** A hitch the sling and its attachment can make. */
