@@ -20,6 +20,7 @@ import * as liftRecordDocument from "./migrations/0020-lift-record-document";
 import * as organisationTimeZone from "./migrations/0021-organisation-time-zone";
 import * as examinationRecords from "./migrations/0022-examination-records";
 import * as planLoadOverrides from "./migrations/0024-plan-load-overrides";
+import * as componentFitTolerance from "./migrations/0025-component-fit-tolerance";
 import * as gearSearchIndex from "./migrations/0026-gear-search-index";
 import * as offlineSubmissions from "./migrations/0027-offline-submissions";
 
@@ -51,6 +52,7 @@ export const migrations: Array<[name: string, module: MigrationModule]> = [
   ["0021-organisation-time-zone", organisationTimeZone],
   ["0022-examination-records", examinationRecords],
   ["0024-plan-load-overrides", planLoadOverrides],
+  ["0025-component-fit-tolerance", componentFitTolerance],
   ["0026-gear-search-index", gearSearchIndex],
   ["0027-offline-submissions", offlineSubmissions],
 ];

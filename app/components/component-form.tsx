@@ -16,6 +16,7 @@ import {
   type MassSource,
 } from "~/loads/component-definition";
 import type { CompositeResult } from "~/statics/composite";
+import { DEFAULT_FIT_TOLERANCE_DEG } from "~/statics/tilt";
 import { convertLength } from "~/statics/units";
 import {
   fromDisplayLength,
@@ -52,6 +53,8 @@ function initialState(def: ComponentDefinition | null, units: Units) {
       cogZ: def ? len(def.cog.z) : "",
       cogSource: def?.cogSource ?? "manufacturer",
       cogNote: def?.cogNote ?? "",
+      fitTolerance: def?.fitToleranceDeg ? inputNumber(def.fitToleranceDeg, 2) : "",
+      fitToleranceSource: def?.fitToleranceSource ?? "",
       outlineMode: isRectangle ? "rectangle" : "custom",
       outlineElevation: def ? def.outlineElevation.map(([a, b]) => `${len(a)}, ${len(b)}`).join("\n") : "",
       outlinePlan: def ? def.outlinePlan.map(([a, b]) => `${len(a)}, ${len(b)}`).join("\n") : "",
@@ -322,6 +325,23 @@ export function ComponentForm({
                   errors={errors.cogNote}
                 />
               </div>
+              <Field
+                label="Fit tolerance (°, blank if not known)"
+                name="fitTolerance"
+                inputMode="decimal"
+                value={head.fitTolerance}
+                onChange={set("fitTolerance")}
+                hint={`The largest tilt, along its length or across its width, at which it can still be guided onto its spigot or dowels without damaging a seal. Blank: the checks use ${DEFAULT_FIT_TOLERANCE_DEG}° (common practice) and say so.`}
+                errors={errors.fitTolerance}
+              />
+              <Field
+                label="Where the fit tolerance comes from"
+                name="fitToleranceSource"
+                value={head.fitToleranceSource}
+                onChange={set("fitToleranceSource")}
+                hint="The drawing or the maker's fitting instructions."
+                errors={errors.fitToleranceSource}
+              />
             </div>
           </Card>
 

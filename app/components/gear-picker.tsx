@@ -1,6 +1,7 @@
 import { useEffect, useId, useRef, useState } from "react";
 import { nextListIndex } from "~/plans/editor-state";
 import { GEAR_ROLE_LABELS, type GearPick, type GearRole } from "~/plans/rigging";
+import type { CheckResult } from "~/statics/check-types";
 import { formatCapacity, formatLoad, type Units } from "~/utils/format";
 
 function dueNote(pick: GearPick, today = new Date().toISOString().slice(0, 10)) {
@@ -11,8 +12,18 @@ function dueNote(pick: GearPick, today = new Date().toISOString().slice(0, 10)) 
   return { text: `examined, next due ${pick.nextDueOn}`, bad: false };
 }
 
-/** Why an item does or does not fit a position, in words. */
-export function fitNotes(pick: GearPick, thread: string | null, loadKg: number | null, units: Units = "metric") {
+/**
+ * Why an item does or does not fit a position, in words. With `judged` (the plan's own check of the item in
+ * this position, see plans/pick-fit.ts) the load note is that check's: its derated capacity against the design
+ * load with contingency, so the picker and the plan's checks agree. Without it, the marked WLL against `loadKg`.
+ */
+export function fitNotes(
+  pick: GearPick,
+  thread: string | null,
+  loadKg: number | null,
+  units: Units = "metric",
+  judged?: CheckResult | null,
+) {
   const notes: Array<{ text: string; bad: boolean }> = [];
   if (pick.role === "eyebolt" && thread) {
     const matches = (pick.thread ?? "").toUpperCase() === thread.toUpperCase();
@@ -21,7 +32,18 @@ export function fitNotes(pick: GearPick, thread: string | null, loadKg: number |
       bad: !matches,
     });
   }
-  if (loadKg !== null) {
+  if (judged !== undefined) {
+    if (judged && judged.loadKg !== null && judged.capacityKg !== null) {
+      const enough = judged.verdict !== "fail";
+      const here = judged.kind === "eyebolt" || judged.kind === "shackle" ? " at this angle" : "";
+      notes.push({
+        text: enough
+          ? `${formatCapacity(judged.capacityKg, units)}${here} covers the ${formatLoad(judged.loadKg, units)} design load`
+          : `only ${formatCapacity(judged.capacityKg, units)}${here}, below the ${formatLoad(judged.loadKg, units)} design load`,
+        bad: !enough,
+      });
+    }
+  } else if (loadKg !== null) {
     const enough = pick.wllKg >= loadKg;
     notes.push({
       text: enough ? "WLL covers the load" : `WLL below the ${formatLoad(loadKg, units)} load`,
@@ -46,6 +68,7 @@ export function GearPicker({
   disabled,
   onPick,
   units = "metric",
+  judge,
 }: {
   role: GearRole;
   /** What the position is, e.g. "Eyebolt for leg A"; read out before the chosen item. */
@@ -56,6 +79,8 @@ export function GearPicker({
   disabled?: boolean;
   onPick: (pick: GearPick | null) => void;
   units?: Units;
+  /** The plan's own check of an item in this position, so the fit note says what the check will say. */
+  judge?: (pick: GearPick) => CheckResult | null;
 }) {
   const [open, setOpen] = useState(false);
   const [query, setQuery] = useState("");
@@ -125,7 +150,9 @@ export function GearPicker({
     else buttons[next]?.focus();
   }
 
-  const selectedNotes = selected ? fitNotes(selected, thread, loadKg, units).filter((n) => n.bad) : [];
+  const selectedNotes = selected
+    ? fitNotes(selected, thread, loadKg, units, judge?.(selected)).filter((n) => n.bad)
+    : [];
   const plural = `${GEAR_ROLE_LABELS[role].toLowerCase()}s`;
 
   return (
@@ -199,7 +226,7 @@ export function GearPicker({
             )}
             {items?.length === 0 && <li className="px-1 py-1 text-ink-soft">Nothing in the register matches.</li>}
             {items?.map((pick) => {
-              const notes = fitNotes(pick, thread, loadKg, units);
+              const notes = fitNotes(pick, thread, loadKg, units, judge?.(pick));
               const fits = notes.every((n) => !n.bad);
               const chosen = selected?.id === pick.id;
               return (

@@ -7,6 +7,7 @@ import { useMemo, useRef, useState } from "react";
 import { Circle, Group, Image as KonvaImage, Layer, Line, Rect, Stage, Text } from "react-konva";
 import { COLOURS } from "~/components/plan-canvas/colours";
 import { FiguresBox } from "~/components/plan-canvas/figures-box";
+import { boxOnScreen, hangingFrame } from "~/components/plan-canvas/hang";
 import { BeamDrops, BridleLegs } from "~/components/plan-canvas/legs";
 import { project, unproject } from "~/components/plan-canvas/projection";
 import { ScaleBar } from "~/components/plan-canvas/scale-bar";
@@ -29,7 +30,8 @@ import {
   type ViewTransform,
 } from "~/plans/editor-state";
 import { coincidentLabels, placeFiguresBox } from "~/plans/drawing-layout";
-import { formatLength, type Units } from "~/utils/format";
+import { planeTilts } from "~/statics/tilt";
+import { formatAngle, formatLength, type Units } from "~/utils/format";
 
 export type ViewKind = DrawingView;
 
@@ -83,7 +85,11 @@ function describeHandle(handle: Handle, edit: PlanEdit, hook: Vec3 | null, view:
   return point ? `${handleName(handle)}: ${at(point.position)}` : handleName(handle);
 }
 
-/** One view of the plan, drawn to scale; lift points, CoG and (in elevation, level mode) the hook can be dragged. */
+/**
+ * One view of the plan, drawn to scale; lift points, CoG and (in elevation, level mode) the hook can be dragged.
+ * On slings of given lengths the elevation shows the load as it hangs: turned about its CoG so the hook is plumb
+ * above it (an outline drawn as a flat shape through the CoG). The view keeps the hook, load and legs in sight.
+ */
 export default function PlanCanvas(props: PlanCanvasProps) {
   const {
     view,
@@ -106,30 +112,51 @@ export default function PlanCanvas(props: PlanCanvasProps) {
   const stageRef = useRef<Konva.Stage>(null);
   const [focused, setFocused] = useState(false);
 
-  const box = useMemo(() => {
-    const pts = [
-      ...outline.map(([a, b]) => ({ a, b })),
-      ...edit.liftPoints.map((p) => project(p.position, view)),
-      project(edit.cog, view),
-    ];
-    if (hook) pts.push(project(hook, view));
-    const as = pts.map((p) => p.a);
-    const bs = pts.map((p) => p.b);
-    return { minA: Math.min(...as), maxA: Math.max(...as), minB: Math.min(...bs), maxB: Math.max(...bs) };
-    // Fit once per load and view size, not on every drag.
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [outline, view, width, height]);
+  const level = edit.arrangement.mode === "level";
+  // The elevation turns the load to how it hangs on given lengths; the plan view and beams are drawn as set.
+  const frame = useMemo(
+    () =>
+      view === "elevation" && !level && beamZM === null ? hangingFrame(edit.cog, hook) : hangingFrame(edit.cog, null),
+    [view, level, beamZM, edit.cog, hook],
+  );
+  const P = (p: Vec3) => project(frame.toWorld(p), view);
+  const outlineShown = useMemo(
+    () =>
+      outline.map(([a, b]) => {
+        if (!frame.tilted) return { a, b };
+        const p = frame.toWorld({ x: a, y: edit.cog.y, z: b });
+        return project(p, view);
+      }),
+    [outline, frame, edit.cog.y, view],
+  );
+
+  const pts = [...outlineShown, ...edit.liftPoints.map((p) => P(p.position)), P(edit.cog)];
+  if (hook) pts.push(P(hook));
+  const as = pts.map((p) => p.a);
+  const bs = pts.map((p) => p.b);
+  const box = { minA: Math.min(...as), maxA: Math.max(...as), minB: Math.min(...bs), maxB: Math.max(...bs) };
   const [transform, setTransform] = useState<ViewTransform>(() => fitView(box, width, height));
-  // Refit when the load or the view's size changes: adjusted while rendering, not in an effect.
-  const [fittedFor, setFittedFor] = useState({ box, width, height });
-  if (fittedFor.box !== box || fittedFor.width !== width || fittedFor.height !== height) {
-    setFittedFor({ box, width, height });
+  // Refit when the load or the view's size changes, and when an edit or a new solve takes the hook, load or legs
+  // out of a view that showed them all (never against the user's own zoom or pan): adjusted while rendering.
+  const boxKey = [box.minA, box.maxA, box.minB, box.maxB].map((v) => Math.round(v * 1000)).join(",");
+  const [fittedFor, setFittedFor] = useState({ outline, view, width, height, boxKey, box });
+  if (
+    fittedFor.outline !== outline ||
+    fittedFor.view !== view ||
+    fittedFor.width !== width ||
+    fittedFor.height !== height
+  ) {
+    setFittedFor({ outline, view, width, height, boxKey, box });
     setTransform(fitView(box, width, height));
+  } else if (fittedFor.boxKey !== boxKey) {
+    setFittedFor({ ...fittedFor, boxKey, box });
+    if (boxOnScreen(transform, fittedFor.box, width, height, 0) && !boxOnScreen(transform, box, width, height, 0))
+      setTransform(fitView(box, width, height));
   }
 
   const S = (a: number, b: number) => worldToScreen(transform, a, b);
   const usedLabels = new Set(edit.arrangement.liftPointLabels);
-  const candidates = edit.liftPoints.map((p) => project(p.position, view));
+  const candidates = edit.liftPoints.map((p) => P(p.position));
 
   // Grid: the finest multiple of the step that keeps lines at least 12 px apart.
   let step = gridM;
@@ -170,25 +197,27 @@ export default function PlanCanvas(props: PlanCanvasProps) {
 
   const panStart = useRef<{ x: number; y: number; originX: number; originY: number } | null>(null);
 
-  const hookScreen = hook ? S(project(hook, view).a, project(hook, view).b) : null;
-  const pointScreens = edit.liftPoints.map((p) => ({
-    label: p.label,
-    ...S(project(p.position, view).a, project(p.position, view).b),
-  }));
+  const hookScreen = hook ? S(P(hook).a, P(hook).b) : null;
+  const pointScreens = edit.liftPoints.map((p) => ({ label: p.label, ...S(P(p.position).a, P(p.position).b) }));
+  const tilts =
+    frame.tilted && hook
+      ? planeTilts({ x: hook.x - edit.cog.x, y: hook.y - edit.cog.y, z: hook.z - edit.cog.z })
+      : null;
+  /** A point dragged to (a, b) of this view, back in the component frame (the hidden axis kept where it hangs). */
+  const dropAt = (base: Vec3, a: number, b: number) => frame.toComponent(unproject(frame.toWorld(base), view, a, b));
   const pointLabels = coincidentLabels(pointScreens);
   // The leg figures go in the corner that hides the fewest lines (legs, or the beam's drops and top rigging).
-  const figuresSize = { width: Math.min(width - 16, 250), height: legs.length * 17 + 8 };
+  const figuresSize = { width: Math.min(width - 16, 330), height: legs.length * 17 + 8 };
   const lineSegments: Array<[{ x: number; y: number }, { x: number; y: number }]> = hookScreen
     ? pointScreens.filter((p) => usedLabels.has(p.label)).map((p) => [hookScreen, p])
     : [];
   const figuresAt = placeFiguresBox(figuresSize, { width, height }, lineSegments);
-  const level = edit.arrangement.mode === "level";
 
   function handleScreen(handle: Handle) {
     if (handle.kind === "hook") return hookScreen;
     const point = handle.kind === "cog" ? edit.cog : edit.liftPoints.find((p) => p.label === handle.label)?.position;
     if (!point) return null;
-    const at = project(point, view);
+    const at = P(point);
     return S(at.a, at.b);
   }
 
@@ -285,7 +314,8 @@ export default function PlanCanvas(props: PlanCanvasProps) {
             <Line key={i} points={g.points} stroke={g.major ? COLOURS.gridMajor : COLOURS.grid} strokeWidth={1} />
           ))}
           <Line
-            points={outline.flatMap(([a, b]) => {
+            name="load-outline"
+            points={outlineShown.flatMap(({ a, b }) => {
               const s = S(a, b);
               return [s.x, s.y];
             })}
@@ -296,7 +326,15 @@ export default function PlanCanvas(props: PlanCanvasProps) {
             strokeWidth={2}
           />
           {hookScreen && beamZM === null && (
-            <BridleLegs edit={edit} view={view} legs={legs} hookScreen={hookScreen} usedLabels={usedLabels} S={S} />
+            <BridleLegs
+              edit={edit}
+              view={view}
+              legs={legs}
+              hookScreen={hookScreen}
+              usedLabels={usedLabels}
+              S={S}
+              toWorld={frame.toWorld}
+            />
           )}
           {hookScreen && beamZM !== null && (
             <BeamDrops
@@ -308,6 +346,30 @@ export default function PlanCanvas(props: PlanCanvasProps) {
               beamZM={beamZM}
               S={S}
             />
+          )}
+          {hookScreen && tilts && (
+            <Group name="hang-tilt">
+              {/* The plumb line: the hook hangs straight above the CoG. */}
+              <Line
+                points={[
+                  hookScreen.x,
+                  hookScreen.y,
+                  S(P(edit.cog).a, P(edit.cog).b).x,
+                  S(P(edit.cog).a, P(edit.cog).b).y,
+                ]}
+                stroke={COLOURS.ink}
+                strokeWidth={1}
+                dash={[3, 4]}
+              />
+              <Text
+                x={8}
+                y={8}
+                text={`As it hangs: ${formatAngle(Math.abs(tilts.alongLengthDeg))} along its length, ${formatAngle(Math.abs(tilts.acrossWidthDeg))} across its width`}
+                fontSize={12}
+                fontFamily="Barlow, sans-serif"
+                fill={COLOURS.ink}
+              />
+            </Group>
           )}
           {legs.length > 0 && <FiguresBox legs={legs} at={figuresAt} size={figuresSize} />}
           <ScaleBar
@@ -321,7 +383,7 @@ export default function PlanCanvas(props: PlanCanvasProps) {
         </Layer>
         <Layer>
           {edit.liftPoints.map((p) => {
-            const at = project(p.position, view);
+            const at = P(p.position);
             const s = S(at.a, at.b);
             const used = usedLabels.has(p.label);
             return (
@@ -338,7 +400,7 @@ export default function PlanCanvas(props: PlanCanvasProps) {
                   dispatch({
                     type: "move-lift-point",
                     label: p.label,
-                    position: unproject(p.position, view, w.a, w.b),
+                    position: dropAt(p.position, w.a, w.b),
                     transient: true,
                   });
                 }}
@@ -359,7 +421,7 @@ export default function PlanCanvas(props: PlanCanvasProps) {
             );
           })}
           {(() => {
-            const at = project(edit.cog, view);
+            const at = P(edit.cog);
             const s = S(at.a, at.b);
             return (
               // The CoG is not dragged: it is the component's unless overridden with a reason (the panel).

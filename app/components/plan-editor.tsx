@@ -17,6 +17,7 @@ import { TracingPanel, useTracing } from "~/components/plan-editor/tracing";
 import { useAutosave } from "~/components/plan-editor/use-autosave";
 import { useLiveSolve, type LiveSolution } from "~/components/plan-editor/use-live-solve";
 import { standing } from "~/plans/check-text";
+import { LEVELLING_STEP_M } from "~/plans/check-text-tilt";
 
 /** Grey until the leg's gear is checked; a failing or warning angle shows at once. */
 const legTone = (s: ReturnType<typeof standing>): LegFigure["tone"] => (s === "unchecked" ? "none" : s);
@@ -35,7 +36,7 @@ import {
 } from "~/plans/editor-state";
 import type { LoadOverride } from "~/plans/load-override";
 import type { GearPick } from "~/plans/rigging";
-import type { RuleSetId } from "~/statics/reference";
+import type { ReferenceTables, RuleSetId } from "~/statics/reference";
 import { formatLength, type Units } from "~/utils/format";
 
 const PlanCanvas = lazy(() => import("~/components/plan-canvas.client"));
@@ -65,6 +66,7 @@ export function PlanEditor({
   files,
   canEdit,
   ruleSet,
+  tables = null,
 }: {
   plan: EditorPlan;
   units: Units;
@@ -72,6 +74,8 @@ export function PlanEditor({
   files: EditorFile[];
   canEdit: boolean;
   ruleSet: RuleSetId;
+  /** The reference tables, so the hook-height chart can run the plan's own checks at each height. */
+  tables?: ReferenceTables | null;
 }) {
   const [state, dispatch] = useReducer(editorReducer, plan, (p) => initialEditorState(toEdit(p)));
   const edit = state.present;
@@ -129,9 +133,15 @@ export function PlanEditor({
   const hook =
     solution?.hook ??
     (edit.arrangement.mode === "level" ? { x: edit.cog.x, y: edit.cog.y, z: edit.arrangement.hookHeightM } : null);
+  const levelChange = (id: string) => {
+    const change = solution?.levelling?.legs.find((l) => l.liftPointId === id)?.changeM ?? 0;
+    return solution && solution.tiltDeg >= 0.05 && Math.abs(change) >= LEVELLING_STEP_M
+      ? ` · to level: ${change < 0 ? "shorten" : "lengthen"} ${formatLength(Math.abs(change), units)}`
+      : "";
+  };
   const legFigures: LegFigure[] = (solution?.legs ?? []).map((leg) => ({
     label: leg.liftPointId,
-    text: `${leg.liftPointId}: ${tensionText(leg.tensionKn, leg.tensionKg, units)} · ${leg.angleFromVerticalDeg.toFixed(1)}°`,
+    text: `${leg.liftPointId}: ${tensionText(leg.tensionKn, leg.tensionKg, units)} · ${leg.angleFromVerticalDeg.toFixed(1)}°${levelChange(leg.liftPointId)}`,
     tone: legTone(standing(solution?.checks ?? [], leg.liftPointId)),
     slack: leg.slack,
   }));
@@ -352,13 +362,23 @@ export function PlanEditor({
         usedPoints={usedPoints}
         picks={picks}
         addPick={addPick}
+        body={body}
+        tables={tables}
       />
 
       {edit.arrangement.kind === "bridle" && (
         <HookHeightChart
           massKg={planned.massKg}
           cog={edit.cog}
-          points={usedPoints.map((p) => ({ id: p.label, position: p.position, axis: p.axis }))}
+          points={usedPoints.map((p) => ({
+            id: p.label,
+            position: p.position,
+            axis: p.axis,
+            ...(p.thread ? { thread: p.thread } : {}),
+          }))}
+          rigging={body?.rigging}
+          tables={tables}
+          ruleSet={ruleSet}
           currentHookZM={hook?.z ?? edit.arrangement.hookHeightM}
           units={units}
         />

@@ -50,6 +50,10 @@ export const componentDefinitionSchema = z.object({
   cog: vec3,
   cogSource: z.enum(COG_SOURCES),
   cogNote: z.string(),
+  /** Largest tilt (deg) at which it can still be guided onto its spigot or dowels; null or absent: none known. */
+  fitToleranceDeg: finite.positive().nullable().optional(),
+  /** Where the fit tolerance comes from (a drawing, the maker's instructions). */
+  fitToleranceSource: z.string().optional(),
   outlineElevation: z.array(point2),
   outlinePlan: z.array(point2),
   liftPoints: z.array(

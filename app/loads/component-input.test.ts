@@ -206,4 +206,27 @@ describe("the component form", () => {
     const fd = form({ "lp-3-label": "C", "lp-1-label": "A", "lp-2-label": "", "lp-2-x": " " });
     expect(indexedRows(fd, "lp").map((r) => r.values.label)).toEqual(["A", "C"]);
   });
+
+  it("keeps a fit tolerance with its source, leaves it null when blank, and refuses a bad one", () => {
+    const given = parseComponentForm(
+      form(componentFields({ fitTolerance: "0,5°", fitToleranceSource: "Drawing GB-220 note 4" })),
+      "metric",
+    );
+    expect(given.ok && [given.data.fitToleranceDeg, given.data.fitToleranceSource]).toEqual([
+      0.5,
+      "Drawing GB-220 note 4",
+    ]);
+    const blank = parseComponentForm(form(componentFields()), "metric");
+    expect(blank.ok && blank.data.fitToleranceDeg).toBeNull();
+    for (const [fields, key] of [
+      [{ fitTolerance: "0", fitToleranceSource: "drawing" }, "fitTolerance"],
+      [{ fitTolerance: "60", fitToleranceSource: "drawing" }, "fitTolerance"],
+      [{ fitTolerance: "2 mm", fitToleranceSource: "drawing" }, "fitTolerance"],
+      [{ fitTolerance: "1" }, "fitToleranceSource"],
+    ] as const) {
+      const bad = parseComponentForm(form(componentFields(fields)), "metric");
+      expect(bad.ok).toBe(false);
+      if (!bad.ok) expect(Object.keys(bad.errors)).toContain(key);
+    }
+  });
 });

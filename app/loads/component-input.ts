@@ -51,6 +51,14 @@ const headSchema = (units: Units) =>
     cogZ: length("CoG z", units),
     cogSource: z.enum(COG_SOURCES, { error: "Say where the CoG comes from." }),
     cogNote: text(500),
+    // Blank: no fit tolerance known (the checks then use common practice and say so).
+    fitTolerance: z.preprocess(
+      (v) => (typeof v === "string" && v.trim() !== "" ? v : null),
+      typedNumberField("fit tolerance", { suffix: "°" })
+        .refine((v) => v > 0 && v <= 45, "Give a fit tolerance above 0 and at most 45°.")
+        .nullable(),
+    ),
+    fitToleranceSource: text(500),
     outlineMode: z.enum(["rectangle", "custom"]).default("rectangle"),
     outlineElevation: text(20000, { multiline: true }),
     outlinePlan: text(20000, { multiline: true }),
@@ -187,6 +195,8 @@ export function parseComponentForm(formData: FormData, units: Units): FormResult
   const h = head.data;
   const massKg = h.mass;
   if (massKg > MAX_MASS_KG) add("mass", "That mass is over 1,000 t; check the figure and its unit.");
+  if (h.fitTolerance !== null && h.fitToleranceSource === "")
+    add("fitToleranceSource", "Say where the fit tolerance comes from (a drawing, the maker's instructions).");
   if (h.massSource === "estimated" && !(h.contingencyPct > 0))
     add("contingencyPct", "An estimated mass must carry a contingency above 0 %.");
   const dims = { lengthM: h.length, widthM: h.width, heightM: h.height };
@@ -232,6 +242,8 @@ export function parseComponentForm(formData: FormData, units: Units): FormResult
       cog,
       cogSource: h.cogSource,
       cogNote: h.cogNote,
+      fitToleranceDeg: h.fitTolerance,
+      fitToleranceSource: h.fitTolerance === null ? "" : h.fitToleranceSource,
       ...outlines,
       liftPoints,
       parts,

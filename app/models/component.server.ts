@@ -33,6 +33,8 @@ export class Component extends Model<InferAttributes<Component>, InferCreationAt
   declare cogZM: number;
   declare cogSource: CogSource;
   declare cogNote: string;
+  declare fitToleranceDeg: CreationOptional<number | null>;
+  declare fitToleranceSource: CreationOptional<string>;
   declare outlineElevation: string;
   declare outlinePlan: string;
   declare version: CreationOptional<number>;
@@ -92,6 +94,8 @@ Component.init(
     cogZM: { ...double(), field: "cog_z_m" },
     cogSource: { type: DataTypes.STRING(20), allowNull: false },
     cogNote: { type: DataTypes.STRING(500), allowNull: false },
+    fitToleranceDeg: { type: DataTypes.DOUBLE, allowNull: true, defaultValue: null },
+    fitToleranceSource: { type: DataTypes.STRING(500), allowNull: false, defaultValue: "" },
     outlineElevation: { type: DataTypes.TEXT, allowNull: false },
     outlinePlan: { type: DataTypes.TEXT, allowNull: false },
     version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
@@ -152,6 +156,8 @@ export function toDefinition(component: Component): ComponentDefinition {
     cog: { x: component.cogXM, y: component.cogYM, z: component.cogZM },
     cogSource: component.cogSource,
     cogNote: component.cogNote,
+    fitToleranceDeg: component.fitToleranceDeg ?? null,
+    fitToleranceSource: component.fitToleranceSource ?? "",
     outlineElevation: JSON.parse(component.outlineElevation) as Array<[number, number]>,
     outlinePlan: JSON.parse(component.outlinePlan) as Array<[number, number]>,
     liftPoints: [...(component.liftPoints ?? [])]
@@ -185,6 +191,8 @@ function columns(def: ComponentDefinition) {
     cogZM: def.cog.z,
     cogSource: def.cogSource,
     cogNote: def.cogNote,
+    fitToleranceDeg: def.fitToleranceDeg ?? null,
+    fitToleranceSource: def.fitToleranceSource ?? "",
     outlineElevation: JSON.stringify(def.outlineElevation),
     outlinePlan: JSON.stringify(def.outlinePlan),
   };

@@ -148,3 +148,23 @@ describe("a plan with no gear allocated is not yet checked", () => {
     expect(standing([angle("A", "pass"), eyebolt("B", "pass")], "A")).toBe("unchecked");
   });
 });
+
+describe("the fixes for tilt and a tapped size, in words", () => {
+  it("levelling legs: shorten and lengthen with the leg named, in mm or in (1 in = 25.4 mm exactly)", () => {
+    const fix = {
+      kind: "level-legs" as const,
+      legs: [
+        { legId: "C", changeM: -0.012 },
+        { legId: "A", changeM: 0.0254 },
+      ],
+    };
+    expect(fixText(fix, "metric")).toBe("shorten leg C by 12 mm and lengthen leg A by 25 mm to hang the load level");
+    expect(fixText(fix, "imperial")).toContain("shorten leg C by 0.47 in");
+  });
+  it("an eyebolt that fills its tapped hole asks for a lifting point of higher WLL on that thread, or more legs", () => {
+    const text = fixText({ kind: "tapped-size-limit", thread: "M20", minWllKg: 1234.2 }, "metric");
+    expect(text).toBe(
+      "eyebolt M20 is the tapped size: use a lifting point of higher WLL (at least 1,235 kg in line) or more legs",
+    );
+  });
+});

@@ -13,6 +13,7 @@ import {
   formatUtilisation,
   type Units,
 } from "~/utils/format";
+import { levelLegsText, orRaise, tiltRuleFigures, tiltSentence } from "./check-text-tilt";
 
 /** A check as stored before checks were structured: only the old fields. */
 export type LegacyCheck = {
@@ -49,9 +50,11 @@ export function worstVerdict(checks: readonly AnyCheck[]): Verdict {
   return checks.reduce<Verdict>((worst, c) => (RANK[verdictOf(c)] > RANK[worst] ? verdictOf(c) : worst), "pass");
 }
 
-/** Whether a check rates an item of gear (anything but a sling angle, which the geometry alone decides). */
+/** Whether a check rates an item of gear (not a sling angle or the load's tilt, which the geometry alone decides). */
 export function isGearCheck(check: AnyCheck): boolean {
-  return isStructured(check) ? check.kind !== "leg-angle" : !check.id.startsWith("angle-");
+  return isStructured(check)
+    ? check.kind !== "leg-angle" && check.kind !== "load-tilt"
+    : !check.id.startsWith("angle-");
 }
 
 /**
@@ -131,9 +134,13 @@ export function fixText(fix: Fix, units: Units, check: Check | null = null): str
     case "longer-legs":
       return `lengthen ${fix.legs.map((l) => `leg ${l.legId} to at least ${formatLengthUp(l.minLengthM, units)}`).join(", ")} (roughly: the load re-settles), or use a beam`;
     case "larger-item":
-      return `use ${largerItem(check, formatLoad(fix.minWllKg, units))}`;
+      return `use ${largerItem(check, formatLoad(fix.minWllKg, units))}${orRaise(fix.orRaiseHookToZM, units)}`;
     case "tapped-size":
       return `use ${/^[aefhilmnorsx]/i.test(fix.thread) ? "an" : "a"} ${fix.thread} eyebolt to fit the tapped hole`;
+    case "tapped-size-limit":
+      return `eyebolt ${fix.thread} is the tapped size: use a lifting point of higher WLL (at least ${formatLoad(fix.minWllKg, units)} in line) or more legs${orRaise(fix.orRaiseHookToZM, units)}`;
+    case "level-legs":
+      return levelLegsText(fix.legs, units);
     case "hitch":
       return `use a ${list(fix.allowed.map(hitchWord))} hitch, the only ${fix.allowed.length === 1 ? "one" : "ones"} this sling and attachment can make`;
     case "state-wll":
@@ -359,6 +366,9 @@ export function checkSentence(check: AnyCheck, units: Units, options: { withUtil
       return `${check.item} carries ${load} of its ${capacity} ${capacityName(check)}${pct}.${eyeNote(check)} The lift point's thread is not recorded: ${fixText({ kind: "confirm-thread" }, units)}.`;
     case "masses-unrecorded":
       return `${check.item} carries ${load} of its ${capacity} ${capacityName(check)}${pct}, not counting ${list(i.gross?.unrecorded ?? [])}, whose mass is not recorded: record it on the item.`;
+    case "tilt-ok":
+    case "tilt-over":
+      return tiltSentence(check, check.fix ? fixText(check.fix, units, check) : null);
     case "within":
       if (check.kind === "crane-headroom") {
         return `Crane hook headroom: the hook must reach ${formatLengthUp(i.neededHookHeightM ?? 0, units)} above the floor and can reach ${formatLengthDown(i.maxHookHeightM ?? 0, units)}.`;
@@ -427,6 +437,9 @@ export function ruleText(check: AnyCheck, units: Units): string {
       if (i.gross)
         figures.push(`${check.kind === "crane-load" ? "gross load" : "hook load"} = ${grossText(i.gross, units)}`);
       if (wll) figures.push(`${check.kind === "crane-load" ? "SWL" : "WLL"} ${wll}`);
+      break;
+    case "load-tilt":
+      figures.push(...tiltRuleFigures(check));
       break;
     case "leg-angle":
       if (i.limits)

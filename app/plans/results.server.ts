@@ -16,6 +16,7 @@ import type {
   PlanResultsBody,
   RiggingAllocation,
 } from "~/plans/document";
+import { fitOf } from "~/plans/rigging";
 import { handleSolve, toCheckResult, type SolveBody } from "~/statics/api";
 import {
   checkNeverExamined,
@@ -308,6 +309,7 @@ export function buildSolveBody(
           legLengths: Object.fromEntries(arrangement.liftPointLabels.map((l) => [l, arrangement.legLengthsM[l] ?? 0])),
         }),
     rigging,
+    fit: fitOf(snapshot),
     ...(options.ruleSet ? { ruleSet: options.ruleSet } : {}),
     ...(options.liftDate ? { liftDate: options.liftDate } : {}),
   } satisfies Partial<Record<keyof SolveBody, unknown>>;

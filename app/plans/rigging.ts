@@ -1,5 +1,6 @@
 // Gear as the plan editor offers and allocates it, and the rigging description the checks take,
 // assembled from an allocation. Pure and shared: the server makes the picks from its register.
+import type { ComponentDefinition } from "~/loads/component-definition";
 import type { RiggingAllocation } from "~/plans/document";
 import type {
   CraneSpec,
@@ -85,4 +86,12 @@ export function assembleRigging(
     }
   }
   return description;
+}
+
+/** The component's fit tolerance as the solve takes it (null: none recorded, so common practice applies). */
+export function fitOf(snapshot: Pick<ComponentDefinition, "fitToleranceDeg" | "fitToleranceSource">) {
+  return {
+    toleranceDeg: snapshot.fitToleranceDeg ?? null,
+    ...(snapshot.fitToleranceSource ? { source: snapshot.fitToleranceSource } : {}),
+  };
 }

@@ -19,6 +19,7 @@ import { checkUpload, readUploadForm, uploadedFile } from "~/utils/uploads.serve
 import { hasAnyRole } from "~/utils/roles";
 import { flashNotice, requireUser, requireUserWithRole } from "~/utils/session.server";
 import { formatLength, formatMass } from "~/utils/format";
+import { DEFAULT_FIT_TOLERANCE_DEG } from "~/statics/tilt";
 
 const schema = z.discriminatedUnion("intent", [
   z.object({ intent: z.literal("archive") }),
@@ -167,6 +168,13 @@ export default function ComponentPage({ loaderData, actionData }: Route.Componen
                   {COG_SOURCE_LABELS[d.cogSource]}
                   {d.cogNote ? ` · ${d.cogNote}` : ""}
                 </dd>
+              </div>
+              <div>
+                <dt className="text-ink-soft">Fit tolerance (tilt along or across)</dt>
+                <dd className="font-semibold">
+                  {d.fitToleranceDeg ? `${d.fitToleranceDeg}°` : `${DEFAULT_FIT_TOLERANCE_DEG}° (common practice)`}
+                </dd>
+                <dd>{d.fitToleranceDeg ? d.fitToleranceSource : "none recorded for the component"}</dd>
               </div>
               <div>
                 <dt className="text-ink-soft">Overall size (L × W × H)</dt>

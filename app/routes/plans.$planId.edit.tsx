@@ -31,12 +31,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   if (!found) throw data({ message: "There is no such plan in your organisation." }, { status: 404 });
   const plan = await planJson(user.organisationId, found);
   const ruleSet = await getOrganisationRuleSet(user.organisationId);
-  const picks = await gearPicksByIds(
-    user.organisationId,
-    allocatedIds(plan.rigging),
-    await getReferenceTables(),
-    ruleSet,
-  );
+  const tables = await getReferenceTables();
+  const picks = await gearPicksByIds(user.organisationId, allocatedIds(plan.rigging), tables, ruleSet);
   const files = plan.componentId
     ? (await listComponentFiles(plan.componentId))
         .filter((f) => f.storedFile?.contentType.startsWith("image/"))
@@ -47,6 +43,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     picks,
     files,
     ruleSet,
+    tables,
     units: user.units,
     canEdit: plan.status === "draft" || plan.status === "returned",
   };
@@ -64,7 +61,7 @@ function useHydrated() {
 }
 
 export default function EditPlan({ loaderData }: Route.ComponentProps) {
-  const { plan, picks, files, units, canEdit, ruleSet } = loaderData;
+  const { plan, picks, files, units, canEdit, ruleSet, tables } = loaderData;
   const hydrated = useHydrated();
   return (
     <>
@@ -92,7 +89,15 @@ export default function EditPlan({ loaderData }: Route.ComponentProps) {
         </p>
       )}
       {hydrated ? (
-        <PlanEditor plan={plan} units={units} initialPicks={picks} files={files} canEdit={canEdit} ruleSet={ruleSet} />
+        <PlanEditor
+          plan={plan}
+          units={units}
+          initialPicks={picks}
+          files={files}
+          canEdit={canEdit}
+          ruleSet={ruleSet}
+          tables={tables}
+        />
       ) : (
         <p className="rounded border border-dashed border-rule p-6 text-sm text-ink-soft">Loading the editor…</p>
       )}

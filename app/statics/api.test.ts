@@ -32,6 +32,7 @@ describe("200: level and given-lengths answers", () => {
       "rating",
       "ruleSet",
       "tiltDeg",
+      "tiltPlanes",
       "warnings",
       "weightKn",
     ]);

@@ -5,6 +5,8 @@ import { solveGivenLengths, solveLevel, type BridleSolution, type LiftPoint } fr
 import type { Check, CheckResult, RiggingDescription } from "./check-types";
 import { angleChecks, checkRigging } from "./checks";
 import { DEFAULT_RULE_SET, RULE_SET_IDS, type ReferenceTables, type RuleSetId } from "./reference";
+import { lowestPassingHookZ } from "./raise-hook";
+import { checkFitTilt, levellingLengths, planeTilts, type LegLevelling, type PlaneTilts } from "./tilt";
 
 /** Largest load mass accepted, kg (100,000 t: beyond any crane lift). */
 export const MAX_MASS_KG = 1e8;
@@ -145,6 +147,10 @@ export const solveBodySchema = z
     ruleSet: z.enum(RULE_SET_IDS).optional(),
     /** The planned lift date: inspections are judged against it as well as today. */
     liftDate: isoDate.optional(),
+    /** The component's fit tolerance (deg; null: none recorded, common practice applies): asks for the tilt check. */
+    fit: z
+      .object({ toleranceDeg: z.number().gt(0).max(45).nullable(), source: z.string().max(500).optional() })
+      .optional(),
   })
   .superRefine((body, ctx) => {
     const ids = body.liftPoints.map((p) => p.id);
@@ -215,6 +221,10 @@ export interface SolveResponseBody {
   method: "determinate" | "elastic";
   hook: { x: number; y: number; z: number };
   tiltDeg: number;
+  /** The tilt in each of the component's own planes, deg (absent only in results stored before). */
+  tiltPlanes?: PlaneTilts;
+  /** Given lengths: the length each leg would need to hang the load level, and the change; null when no level hang exists. */
+  levelling?: { hookZM: number; legs: LegLevelling[] } | null;
   legs: SolveLegBody[];
   warnings: Array<{ code: string; message: string }>;
   rating: BridleSolution["rating"];
@@ -273,6 +283,7 @@ export function toResponseBody(solution: BridleSolution, ruleSet: RuleSetId = DE
     method: solution.method,
     hook: { x: solution.hook.x, y: solution.hook.y, z: solution.hook.z },
     tiltDeg: solution.tiltDeg,
+    tiltPlanes: planeTilts(solution.vertical),
     legs: solution.legs.map((l) => ({
       liftPointId: l.liftPointId,
       lengthM: l.lengthM,
@@ -294,32 +305,63 @@ function solveParsed(body: SolveBody, tables: ReferenceTables, context: SolveCon
   const points = toLiftPoints(body);
   const load = { massKg: body.load.massKg, cog: body.load.cog };
   let outcome;
+  let levelling = null;
   if (body.hook !== undefined) {
     outcome = solveLevel(load, points, body.hook.z);
   } else {
     const lengths = body.legLengths ?? {};
-    outcome = solveGivenLengths(
-      load,
-      points,
-      points.map((p) => (Object.hasOwn(lengths, p.id) ? (lengths[p.id] ?? 0) : 0)),
-    );
+    const given = points.map((p) => (Object.hasOwn(lengths, p.id) ? (lengths[p.id] ?? 0) : 0));
+    outcome = solveGivenLengths(load, points, given);
+    if (outcome.ok) levelling = levellingLengths(load, points, given);
   }
   if (!outcome.ok) return { status: 422, body: { error: outcome.message, code: outcome.code } };
   const ruleSet = body.ruleSet ?? context.defaultRuleSet ?? DEFAULT_RULE_SET;
   const responseBody = toResponseBody(outcome.solution, ruleSet);
+  const lifted = points.map((p, i) => ({ id: p.id, thread: body.liftPoints[i]!.thread, axis: p.axis }));
+  if (levelling) responseBody.levelling = levelling.ok ? { hookZM: levelling.hookZM, legs: levelling.legs } : null;
   const checks =
     body.rigging !== undefined
       ? checkRigging(
           outcome.solution,
           body.load.massKg,
           body.load.cog,
-          points.map((p, i) => ({ id: p.id, thread: body.liftPoints[i]!.thread, axis: p.axis })),
+          lifted,
           body.rigging as RiggingDescription,
           tables,
           context.todayIso,
           { ruleSet, liftDateIso: body.liftDate ?? null },
         )
       : angleChecks(outcome.solution, tables, ruleSet);
+  if (body.fit !== undefined) checks.push(checkFitTilt(outcome.solution, body.fit, levelling, ruleSet));
+  if (body.hook !== undefined && body.rigging !== undefined) {
+    // A leg item over its rating in a level lift: the hook height at which the same item would pass.
+    const reach = Math.max(0.1, ...points.map((p) => Math.hypot(p.position.x - load.cog.x, p.position.y - load.cog.y)));
+    const top = Math.max(body.hook.z, ...points.map((p) => p.position.z)) + 5 * reach;
+    for (const c of checks) {
+      if (c.verdict !== "fail" || (c.fix?.kind !== "larger-item" && c.fix?.kind !== "tapped-size-limit")) continue;
+      if (c.kind !== "sling-leg" && c.kind !== "eyebolt" && c.kind !== "shackle") continue;
+      const z = lowestPassingHookZ(
+        (hookZM) => {
+          const level = solveLevel(load, points, hookZM);
+          if (!level.ok) return false;
+          const again = checkRigging(
+            level.solution,
+            load.massKg,
+            load.cog,
+            lifted,
+            body.rigging as RiggingDescription,
+            tables,
+            context.todayIso,
+            { ruleSet, liftDateIso: body.liftDate ?? null },
+          );
+          return again.find((x) => x.id === c.id)?.verdict === "pass";
+        },
+        body.hook.z,
+        top,
+      );
+      if (z !== null) c.fix = { ...c.fix, orRaiseHookToZM: z };
+    }
+  }
   responseBody.checks = checks.map(toCheckResult);
   responseBody.warnings.push(...angleWarnings(checks));
   return { status: 200, body: responseBody };

@@ -19,7 +19,8 @@ export type CheckKind =
   | "crane-load"
   | "crane-headroom"
   | "inspection"
-  | "beam";
+  | "beam"
+  | "load-tilt";
 
 /** What the check found, as a code the text module words. */
 export type Finding =
@@ -48,7 +49,9 @@ export type Finding =
   | "overdue-at-lift"
   | "quarantined"
   | "withdrawn"
-  | "no-due-date";
+  | "no-due-date"
+  | "tilt-ok"
+  | "tilt-over";
 
 /** What the product computed would put a failing or warning check right. */
 export type Fix =
@@ -57,9 +60,14 @@ export type Fix =
   /** Given lengths: make these legs at least this long (the load re-settles, so roughly), m. */
   | { kind: "longer-legs"; legs: Array<{ legId: string; minLengthM: number }> }
   /** An item marked (or, for an eyebolt, rated axially) for at least this much, kg. */
-  | { kind: "larger-item"; minWllKg: number }
+  /** orRaiseHookToZM: in a level lift, the hook height (m) at which the same item passes. */
+  | { kind: "larger-item"; minWllKg: number; orRaiseHookToZM?: number }
   /** An eyebolt with the tapped hole's thread. */
   | { kind: "tapped-size"; thread: string }
+  /** The eyebolt already fills the tapped hole: a lifting point of higher WLL on that thread, or more legs. */
+  | { kind: "tapped-size-limit"; thread: string; minWllKg: number; orRaiseHookToZM?: number }
+  /** Change these legs by this much to hang the load level (negative: shorten), m. */
+  | { kind: "level-legs"; legs: Array<{ legId: string; changeM: number }> }
   /** A hitch the sling and its attachment can make. */
   | { kind: "hitch"; allowed: Hitch[] }
   | { kind: "state-wll" }
@@ -139,6 +147,13 @@ export interface CheckInputs {
   maxIncludedDeg?: number;
   gross?: GrossLoad;
   neededHookHeightM?: number;
+  /** The load's tilt in each of its planes and the fit tolerance it is held to, deg. */
+  tilt?: {
+    alongLengthDeg: number;
+    acrossWidthDeg: number;
+    toleranceDeg: number;
+    toleranceFrom: "component" | "common-practice";
+  };
   maxHookHeightM?: number;
   inspection?: {
     status: "in_service" | "quarantined" | "withdrawn";

@@ -193,10 +193,16 @@ export function checkEyebolt(
   // What an eyebolt must be rated (axially) for to carry the load at this angle.
   const ratedKg = stated ?? extra.wllKg ?? capacityKg;
   const fraction = ratedKg > 0 ? capacityKg / ratedKg : 1;
-  const result = ratioCheck({ ...base, rule, source, inputs: { ...base.inputs, ...extra } }, designLoadKg, capacityKg, {
-    kind: "larger-item",
-    minWllKg: designLoadKg / Math.max(fraction, EPS),
-  });
+  // Where the hole's thread is recorded it fixes the eyebolt's size: a larger eyebolt will not fit.
+  const minWllKg = designLoadKg / Math.max(fraction, EPS);
+  const result = ratioCheck(
+    { ...base, rule, source, inputs: { ...base.inputs, ...extra } },
+    designLoadKg,
+    capacityKg,
+    liftPointThread !== undefined
+      ? { kind: "tapped-size-limit", thread: normaliseThread(liftPointThread), minWllKg }
+      : { kind: "larger-item", minWllKg },
+  );
   if (liftPointThread === undefined && result.verdict === "pass") {
     return { ...result, verdict: "warn", finding: "thread-unrecorded", fix: { kind: "confirm-thread" } };
   }

@@ -115,6 +115,12 @@ describe("eyebolt tables by rule set", () => {
     const c = checkEyebolt("A", 480, 30, { family: "collar", thread: "M16" }, "M16", T, { ruleSet: "us" });
     expect(c.capacityKg).toBeCloseTo(455, 9);
     expect(c.verdict).toBe("fail");
+    // The M16 hole fixes the eyebolt's size: the fix asks for a higher-rated lifting point on M16 (or more legs).
+    expect(c.fix).toEqual({ kind: "tapped-size-limit", thread: "M16", minWllKg: expect.closeTo(480 / 0.65, 6) });
+  });
+  it("an eyebolt over its rating where the hole's thread is not recorded asks for a larger eyebolt", () => {
+    const c = checkEyebolt("A", 480, 30, { family: "collar", thread: "M16" }, undefined, T, { ruleSet: "us" });
+    expect(c.verdict).toBe("fail");
     expect(c.fix).toEqual({ kind: "larger-item", minWllKg: expect.closeTo(480 / 0.65, 6) });
   });
   it.each([

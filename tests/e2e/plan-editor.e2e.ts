@@ -286,4 +286,33 @@ describe("a planner lays out a lift from the keyboard alone", () => {
       .toBe(String(Math.round(b0.x * 1000 + 100)));
     expect(await page.getByRole("button", { name: /^Eyebolt for leg A:/ }).innerText()).toContain(codeA);
   });
+
+  it("on slings of given lengths the elevation hangs the load as it tilts and says which leg to shorten", async () => {
+    const { page } = browser;
+    await page.goto("/plans/1/edit");
+    await hydrated(page);
+    await expect.poll(() => page.getByTestId("leg-table").isVisible(), { timeout: 10_000 }).toBe(true);
+    await page.getByLabel("Given sling lengths: find the tilt").check();
+    const a = page.getByLabel("Sling length to A", { exact: true });
+    await a.waitFor();
+    await a.fill(String(Number((await a.inputValue()).replace(/,/g, "")) + 50));
+    await a.press("Tab");
+    // A sling 50 mm longer tilts the load: the core's levelling names the legs to shorten.
+    await expect
+      .poll(() => page.getByTestId("levelling").innerText(), { timeout: 10_000 })
+      .toMatch(/shorten leg \w by \d/);
+    const tilted = await page.evaluate(() => {
+      const konva = (
+        window as unknown as { Konva: { stages: Array<{ name(): string; findOne(sel: string): unknown }> } }
+      ).Konva;
+      return konva.stages.find((s) => s.name() === "view-elevation")?.findOne(".hang-tilt") !== undefined;
+    });
+    expect(tilted).toBe(true);
+    await screenshot(page, "editor-given-lengths-tilted");
+    // Back to a level lift, saved, for the tests that follow.
+    await page.getByLabel("Level lift: the hook height gives the leg lengths").check();
+    await expect
+      .poll(() => page.getByTestId("save-status").innerText(), { timeout: 10_000 })
+      .toMatch(/Saved · version \d+/);
+  });
 });

@@ -4,7 +4,7 @@ import { Group, Line } from "react-konva";
 import type { LegFigure } from "~/components/plan-canvas.client";
 import { COLOURS } from "~/components/plan-canvas/colours";
 import { project } from "~/components/plan-canvas/projection";
-import type { DrawingView, PlanEdit } from "~/plans/editor-state";
+import type { DrawingView, PlanEdit, Vec3 } from "~/plans/editor-state";
 
 type ScreenPoint = { x: number; y: number };
 type ToScreen = (a: number, b: number) => ScreenPoint;
@@ -17,6 +17,7 @@ export function BridleLegs({
   hookScreen,
   usedLabels,
   S,
+  toWorld = (p) => p,
 }: {
   edit: PlanEdit;
   view: DrawingView;
@@ -24,11 +25,14 @@ export function BridleLegs({
   hookScreen: ScreenPoint;
   usedLabels: ReadonlySet<string>;
   S: ToScreen;
+  /** Where a component-frame point hangs (the drawing turned to the load's tilt). */
+  toWorld?: (p: Vec3) => Vec3;
 }) {
   return edit.liftPoints
     .filter((p) => usedLabels.has(p.label))
     .map((p) => {
-      const s = S(project(p.position, view).a, project(p.position, view).b);
+      const at = project(toWorld(p.position), view);
+      const s = S(at.a, at.b);
       const figure = legs.find((l) => l.label === p.label);
       const colour = COLOURS[figure?.tone ?? "none"];
       return (

@@ -1,13 +1,13 @@
 // The arrangement panel: how the load is hung, what is given, the hook and CoG, the lift-point table with
 // sling lengths, and what would level a tilted load.
-import { useMemo, type ReactNode } from "react";
+import type { ReactNode } from "react";
 import { NumberInput } from "~/components/plan-editor/fields";
 import type { LiveSolution } from "~/components/plan-editor/use-live-solve";
 import { Button } from "~/components/ui/form";
 import type { ComponentDefinition } from "~/loads/component-definition";
 import type { EditorAction, PlanEdit } from "~/plans/editor-state";
 import type { GearPick } from "~/plans/rigging";
-import { solveLevel } from "~/statics/bridle";
+import { legChangeText, LEVELLING_STEP_M } from "~/plans/check-text-tilt";
 import { formatLength, lengthUnitLabel, type Units } from "~/utils/format";
 
 export function ArrangementPanel({
@@ -52,19 +52,12 @@ export function ArrangementPanel({
     dispatch({ type: "set-mode", mode: "lengths", legLengthsM: { ...edit.arrangement.legLengthsM, ...lengths } });
   }
 
-  // Given lengths: the change in each leg that would level the load, keeping the hook at the height it settled at.
-  const levelling = useMemo(() => {
-    if (edit.arrangement.mode !== "lengths" || !solution || solution.tiltDeg < 0.05) return null;
-    const points = edit.liftPoints
-      .filter((p) => edit.arrangement.liftPointLabels.includes(p.label))
-      .map((p) => ({ id: p.label, position: p.position, axis: p.axis }));
-    const level = solveLevel({ massKg: snapshot.massKg, cog: edit.cog }, points, solution.hook.z);
-    if (!level.ok) return null;
-    return level.solution.legs.map((l) => ({
-      label: l.liftPointId,
-      changeM: l.lengthM - (edit.arrangement.legLengthsM[l.liftPointId] ?? 0),
-    }));
-  }, [edit, solution, snapshot.massKg]);
+  // Given lengths: the change in each leg that would level the load, from the statics core (one leg kept,
+  // the others shortened: what shorteners can do). Shown once the load tilts measurably.
+  const levelling =
+    edit.arrangement.mode === "lengths" && solution?.levelling && solution.tiltDeg >= 0.05
+      ? solution.levelling.legs
+      : null;
 
   return (
     <section className="space-y-4 rounded border border-rule bg-card p-4" aria-labelledby="arrangement-heading">
@@ -233,14 +226,13 @@ export function ArrangementPanel({
           </Button>
           {levelling && (
             <div className="rounded border border-warn/40 bg-warn-soft p-2" data-testid="levelling">
-              <p className="font-semibold">To hang level (hook kept at the height it settles at):</p>
+              <p className="font-semibold">To hang level:</p>
               <ul>
                 {levelling.map((l) => (
-                  <li key={l.label}>
-                    Leg {l.label}:{" "}
-                    {Math.abs(l.changeM) < 0.0005
-                      ? "no change"
-                      : `${l.changeM > 0 ? "lengthen" : "shorten"} by ${formatLength(Math.abs(l.changeM), units)}`}
+                  <li key={l.liftPointId}>
+                    {Math.abs(l.changeM) < LEVELLING_STEP_M
+                      ? `Leg ${l.liftPointId}: no change`
+                      : `${legChangeText(l.liftPointId, l.changeM, units)} (to ${formatLength(l.levelLengthM, units)})`}
                   </li>
                 ))}
               </ul>

@@ -6,7 +6,10 @@ import type { LiveSolution } from "~/components/plan-editor/use-live-solve";
 import type { ComponentDefinition } from "~/loads/component-definition";
 import { EYE_PLANE_LABELS, EYE_PLANES } from "~/plans/document";
 import type { EditorAction, PlanEdit } from "~/plans/editor-state";
+import { judgePick, type PickSlot } from "~/plans/pick-fit";
 import { GEAR_ROLE_LABELS, type GearPick, type GearRole } from "~/plans/rigging";
+import type { RiggingDescription } from "~/statics/check-types";
+import type { ReferenceTables } from "~/statics/reference";
 import type { Units } from "~/utils/format";
 
 export function GearTable({
@@ -19,6 +22,8 @@ export function GearTable({
   usedPoints,
   picks,
   addPick,
+  body = null,
+  tables = null,
 }: {
   edit: PlanEdit;
   dispatch: (action: EditorAction) => void;
@@ -29,7 +34,12 @@ export function GearTable({
   usedPoints: PlanEdit["liftPoints"];
   picks: ReadonlyMap<number, GearPick>;
   addPick: (pick: GearPick) => void;
+  /** The editor's solve body and the reference tables: each candidate is judged by the plan's own check. */
+  body?: ({ rigging?: RiggingDescription } & Record<string, unknown>) | null;
+  tables?: ReferenceTables | null;
 }) {
+  const judgeFor = (slot: PickSlot) =>
+    body && tables ? (pick: GearPick) => judgePick(body, slot, pick, tables) : undefined;
   const legLoadKg = (label: string) => solution?.legs.find((l) => l.liftPointId === label)?.tensionKg ?? null;
 
   return (
@@ -63,6 +73,11 @@ export function GearTable({
                   selected={leg?.[key] !== undefined ? (picks.get(leg[key]!) ?? null) : null}
                   thread={role === "eyebolt" ? p.thread : null}
                   loadKg={legLoadKg(p.label)}
+                  judge={judgeFor({
+                    role: role as "eyebolt" | "shackle" | "sling",
+                    legId: p.label,
+                    hitch: leg?.hitch ?? "straight",
+                  })}
                   disabled={!canEdit}
                   units={units}
                   onPick={(pick) => {
@@ -124,6 +139,7 @@ export function GearTable({
                   }
                   thread={null}
                   loadKg={snapshot.massKg * (1 + snapshot.contingencyPct / 100)}
+                  judge={judgeFor({ role: "masterLink" })}
                   disabled={!canEdit}
                   units={units}
                   onPick={(pick) => {
@@ -151,6 +167,7 @@ export function GearTable({
                   }
                   thread={null}
                   loadKg={snapshot.massKg * (1 + snapshot.contingencyPct / 100)}
+                  judge={judgeFor({ role: "crane" })}
                   disabled={!canEdit}
                   units={units}
                   onPick={(pick) => {

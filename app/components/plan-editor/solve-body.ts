@@ -1,7 +1,7 @@
 import type { ComponentDefinition } from "~/loads/component-definition";
 import type { PlanDetails } from "~/plans/document";
 import type { PlanEdit } from "~/plans/editor-state";
-import { assembleRigging, type GearPick } from "~/plans/rigging";
+import { assembleRigging, fitOf, type GearPick } from "~/plans/rigging";
 import type { RuleSetId } from "~/statics/reference";
 
 /** The /api/solve body for the edit (bridles only), with the rigging assembled from the picks. */
@@ -35,6 +35,7 @@ export function solveBodyFor(
       floorClearanceM: details.floorClearanceM,
       loadUndersideZM: underside,
     }),
+    fit: fitOf(snapshot),
     ruleSet,
     ...(details.liftDate ? { liftDate: details.liftDate } : {}),
   };

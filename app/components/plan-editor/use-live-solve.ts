@@ -15,6 +15,11 @@ export type LiveSolution = {
   }>;
   checks?: AnyCheck[];
   tiltDeg: number;
+  /** Given lengths: each leg's length to hang level and the change from its given length (negative: shorten), m. */
+  levelling?: {
+    hookZM: number;
+    legs: Array<{ liftPointId: string; givenLengthM: number; levelLengthM: number; changeM: number }>;
+  } | null;
 };
 
 type Answer = { key: string; status: number; body: unknown } | { key: string; failed: string };
