@@ -61,6 +61,8 @@ export type PlanCanvasProps = {
   beamZM?: number | null;
   /** When set, clicks report world points (for setting a drawing's scale) instead of editing. */
   onPick?: ((point: { a: number; b: number; x: number; y: number }) => void) | null;
+  /** Shown, never edited (the review page): nothing can be dragged; wheel and drag still zoom and pan. */
+  readOnly?: boolean;
   /** The handle the arrow keys move (shared by both views); pressing on a handle selects it. */
   selected: Handle | null;
   onSelect: (handle: Handle) => void;
@@ -100,6 +102,7 @@ export default function PlanCanvas(props: PlanCanvasProps) {
     backdrop,
     onPick,
     beamZM = null,
+    readOnly = false,
     selected,
     onSelect,
   } = props;
@@ -330,7 +333,7 @@ export default function PlanCanvas(props: PlanCanvasProps) {
                 name={`lift-point-${p.label}`}
                 x={s.x}
                 y={s.y}
-                draggable={!onPick}
+                draggable={!onPick && !readOnly}
                 onPointerDown={() => onSelect({ kind: "lift-point", label: p.label })}
                 onDragStart={() => dispatch({ type: "checkpoint" })}
                 onDragMove={(e) => {
@@ -365,7 +368,7 @@ export default function PlanCanvas(props: PlanCanvasProps) {
               <Group
                 x={s.x}
                 y={s.y}
-                draggable={!onPick}
+                draggable={!onPick && !readOnly}
                 onPointerDown={() => onSelect({ kind: "cog" })}
                 onDragStart={() => dispatch({ type: "checkpoint" })}
                 onDragMove={(e) => {
@@ -385,7 +388,7 @@ export default function PlanCanvas(props: PlanCanvasProps) {
             <Group
               x={hookScreen.x}
               y={hookScreen.y}
-              draggable={view === "elevation" && level && !onPick}
+              draggable={view === "elevation" && level && !onPick && !readOnly}
               dragBoundFunc={(pos) => ({ x: hookScreen.x, y: Math.min(pos.y, height - 4) })}
               onPointerDown={() => level && onSelect({ kind: "hook" })}
               onDragStart={() => dispatch({ type: "checkpoint" })}
