@@ -187,6 +187,7 @@ export default function ReviewPlan({ loaderData, actionData }: Route.ComponentPr
               </p>
             )}
           </Card>
+          <GearNowCard gear={gear} liftDate={liftDate} units={units} />
           <Card title="Checks">
             <p className="mb-2 text-sm text-ink-soft" data-testid="checks-computed">
               Worked out again as this page opened ({revision.results.computedOn}) from the revision and the gear as the
@@ -209,7 +210,6 @@ export default function ReviewPlan({ loaderData, actionData }: Route.ComponentPr
               </div>
             )}
           </Card>
-          <GearNowCard gear={gear} liftDate={liftDate} units={units} />
           <PlanDetailsCards details={revision.details} units={units} />
         </div>
         <aside className="space-y-6">
