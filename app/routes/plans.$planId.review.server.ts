@@ -10,7 +10,7 @@ import type { SessionUser } from "~/models/user.server";
 import { approvalRefusals, type ReviewGearRow } from "~/plans/approval-readiness";
 import type { PlanResults, RiggingAllocation } from "~/plans/document";
 import { loadPathGaps } from "~/plans/load-path";
-import { judgeLiveState, type LiveProblem } from "~/plans/live-state";
+import { judgeLiveState } from "~/plans/live-state";
 import { gearNow } from "~/plans/live-state.server";
 import { computePlanResults } from "~/plans/results.server";
 import { allocatedSlots } from "~/plans/seal.server";
@@ -29,14 +29,11 @@ async function gearNowFor(
   liftDate: string,
 ) {
   const slots = allocatedSlots(revision.rigging, revision.arrangement.kind === "beam" ? "Drop" : "Leg");
-  const items = new Map(
-    (
-      await listGearItemsByIds(
-        organisationId,
-        slots.map((s) => s.itemId),
-      )
-    ).map((i) => [i.id, i]),
+  const found = await listGearItemsByIds(
+    organisationId,
+    slots.map((s) => s.itemId),
   );
+  const items = new Map(found.map((i) => [i.id, i]));
   const checks = results.status === 200 ? (results.body.checks ?? []) : [];
   // Judged as if sealed now, so the same sentences as on an approved plan say what is wrong (nothing has "changed").
   const asOfNow: SealedItem[] = slots.map((slot) => {
@@ -80,7 +77,7 @@ async function gearNowFor(
       problems: live.problems.filter((p) => p.itemId === sealed.itemId).map((p) => p.message),
     };
   });
-  return { rows, problems: live.problems as LiveProblem[] };
+  return { rows, problems: live.problems };
 }
 
 /** Everything the review page shows, read and worked out now; null when the plan is not the organisation's. */
