@@ -63,6 +63,8 @@ export type PlanCanvasProps = {
   beamZM?: number | null;
   /** When set, clicks report world points (for setting a drawing's scale) instead of editing. */
   onPick?: ((point: { a: number; b: number; x: number; y: number }) => void) | null;
+  /** Shown, never edited (the review page): nothing can be dragged; wheel and drag still zoom and pan. */
+  readOnly?: boolean;
   /** The handle the arrow keys move (shared by both views); pressing on a handle selects it. */
   selected: Handle | null;
   onSelect: (handle: Handle) => void;
@@ -106,6 +108,7 @@ export default function PlanCanvas(props: PlanCanvasProps) {
     backdrop,
     onPick,
     beamZM = null,
+    readOnly = false,
     selected,
     onSelect,
   } = props;
@@ -392,7 +395,7 @@ export default function PlanCanvas(props: PlanCanvasProps) {
                 name={`lift-point-${p.label}`}
                 x={s.x}
                 y={s.y}
-                draggable={!onPick}
+                draggable={!onPick && !readOnly}
                 onPointerDown={() => onSelect({ kind: "lift-point", label: p.label })}
                 onDragStart={() => dispatch({ type: "checkpoint" })}
                 onDragMove={(e) => {
@@ -438,7 +441,7 @@ export default function PlanCanvas(props: PlanCanvasProps) {
             <Group
               x={hookScreen.x}
               y={hookScreen.y}
-              draggable={view === "elevation" && level && !onPick}
+              draggable={view === "elevation" && level && !onPick && !readOnly}
               dragBoundFunc={(pos) => ({ x: hookScreen.x, y: Math.min(pos.y, height - 4) })}
               onPointerDown={() => level && onSelect({ kind: "hook" })}
               onDragStart={() => dispatch({ type: "checkpoint" })}

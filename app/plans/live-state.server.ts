@@ -10,7 +10,7 @@ import { judgeLiveState, type GearNow, type LiveGearState, type LiveProblem } fr
 import { mailNotFitToLift } from "~/plans/notifications.server";
 import { readSealed, type SealedPlan } from "~/plans/sealed";
 
-function gearNow(item: GearItem): GearNow {
+export function gearNow(item: GearItem): GearNow {
   return {
     id: item.id,
     itemCode: item.itemCode,

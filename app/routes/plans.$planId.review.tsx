@@ -6,15 +6,17 @@ import { ChecksList } from "~/components/results/checks-list";
 import { GoverningSummary } from "~/components/results/governing-summary";
 import { LegTable } from "~/components/results/leg-table";
 import { LoadOverrideNotice } from "~/components/load-override-mark";
+import { PlanDrawing } from "~/components/plan-drawing";
+import { ApprovalRefusals, GearNowCard, PlanDetailsCards } from "~/components/review-sections";
 import { Button, Card, Field, FormError, PageHeader, TextAreaField } from "~/components/ui/form";
+import { COG_SOURCE_LABELS, MASS_SOURCE_LABELS } from "~/loads/component-definition";
 import { parseForm, requireFormData, safeText } from "~/utils/forms";
-import { getPlan, planExists } from "~/models/plan.server";
+import { planExists } from "~/models/plan.server";
 import { approveRevision, returnRevision } from "~/plans/workflow.server";
-import { getWorkflowView } from "~/plans/workflow-view.server";
 import { PLAN_CAUTION, PLAN_STATUS_LABELS } from "~/plans/document";
-import { overrideMark } from "~/plans/load-override";
 import { flashNotice, requireUserWithRole } from "~/utils/session.server";
-import { formatLength, formatMass } from "~/utils/format";
+import { formatAngle, formatCapacity, formatLength, formatLoad, formatMass } from "~/utils/format";
+import { loadReview } from "./plans.$planId.review.server";
 
 const schema = z.discriminatedUnion("intent", [
   z.object({
@@ -31,27 +33,16 @@ const schema = z.discriminatedUnion("intent", [
 
 export const meta: Route.MetaFunction = () => [{ title: "Review · Plumbline" }];
 
+/**
+ * The whole revision as the approver signs for it. Its results and the gear's state are worked out as the
+ * page opens, never read from what was stored on the last save, and every reason approval would be refused
+ * comes with them.
+ */
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUserWithRole(request, "approver");
-  const found = await getPlan(user.organisationId, Number(params.planId));
-  if (!found) throw data({ message: "There is no such plan in your organisation." }, { status: 404 });
-  const workflow = (await getWorkflowView(user.organisationId, found.plan.id, user, found))!;
-  const r = found.revision;
-  return {
-    plan: { id: found.plan.id, title: found.plan.title },
-    revision: {
-      revision: r.revision,
-      status: r.status,
-      snapshot: r.snapshot,
-      results: r.results,
-      details: r.details,
-      loadOverride: overrideMark(r.componentSnapshot, r.loadOverride),
-    },
-    acknowledgements: workflow.acknowledgements,
-    permissions: { approve: workflow.permissions.approve, return: workflow.permissions.return },
-    approverName: user.name,
-    units: user.units,
-  };
+  const review = await loadReview(user, Number(params.planId));
+  if (!review) throw data({ message: "There is no such plan in your organisation." }, { status: 404 });
+  return { ...review, approverName: user.name, units: user.units };
 }
 
 export async function action({ request, params }: Route.ActionArgs) {
@@ -85,8 +76,10 @@ export async function action({ request, params }: Route.ActionArgs) {
 }
 
 export default function ReviewPlan({ loaderData, actionData }: Route.ComponentProps) {
-  const { plan, revision, acknowledgements, permissions, approverName, units } = loaderData;
+  const { plan, job, revision, liftDate, gear, acknowledgements, permissions, refusals, approverName, units } =
+    loaderData;
   const s = revision.snapshot;
+  const a = revision.arrangement;
   const results = revision.results.status === 200 ? revision.results.body : null;
   const checks = results?.checks ?? [];
   const fieldError = (name: string) =>
@@ -95,13 +88,13 @@ export default function ReviewPlan({ loaderData, actionData }: Route.ComponentPr
     <>
       <PageHeader
         title={`Review ${plan.title}`}
-        lead={`Revision ${revision.revision} · ${PLAN_STATUS_LABELS[revision.status]}`}
+        lead={`${job.workOrder}: ${job.title}${job.site ? ` · ${job.site}` : ""} · revision ${revision.revision} · ${PLAN_STATUS_LABELS[revision.status]}`}
       >
         <a href={`/plans/${plan.id}`} className="px-2 py-2 text-sm">
-          The whole plan
+          The plan&apos;s page
         </a>
-        <a href={`/plans/${plan.id}/edit`} className="px-2 py-2 text-sm">
-          See the layout
+        <a href={`/plans/${plan.id}/history`} className="px-2 py-2 text-sm">
+          History
         </a>
       </PageHeader>
       <p role="note" className="mb-4 rounded border border-brass/40 bg-brass-soft px-3 py-2 text-sm">
@@ -109,17 +102,61 @@ export default function ReviewPlan({ loaderData, actionData }: Route.ComponentPr
       </p>
       <FormError message={actionData && !actionData.field ? actionData.error : null} />
       <div className="grid gap-6 lg:grid-cols-[minmax(0,1fr)_26rem]">
-        <div className="space-y-6">
+        <div className="min-w-0 space-y-6">
+          <Card title="The drawing">
+            <PlanDrawing
+              snapshot={s}
+              arrangement={a}
+              rigging={revision.rigging}
+              results={revision.results}
+              units={units}
+            />
+          </Card>
           <Card title="The load">
-            <p className="text-sm">
-              {s.name}: {formatMass(s.massKg, units)} (
-              {revision.loadOverride?.mass ? "planner's override" : s.massSource}), contingency {s.contingencyPct} %,
-              CoG ({formatLength(s.cog.x, units)}, {formatLength(s.cog.y, units)}, {formatLength(s.cog.z, units)}) (
-              {revision.loadOverride?.cog ? "planner's override" : s.cogSource}).
-            </p>
+            <dl className="grid gap-x-6 gap-y-2 text-sm sm:grid-cols-2" data-testid="review-load">
+              <div>
+                <dt className="text-ink-soft">Component</dt>
+                <dd className="font-semibold">{s.name}</dd>
+              </div>
+              <div>
+                <dt className="text-ink-soft">Mass</dt>
+                <dd className="font-semibold">{formatMass(s.massKg, units)}</dd>
+                <dd>
+                  {revision.loadOverride?.mass ? "planner's override" : MASS_SOURCE_LABELS[s.massSource]}
+                  {s.massNote ? ` · ${s.massNote}` : ""}
+                </dd>
+                <dd>
+                  with {s.contingencyPct} % contingency: {formatMass(s.massKg * (1 + s.contingencyPct / 100), units)}
+                </dd>
+              </div>
+              <div>
+                <dt className="text-ink-soft">Centre of gravity (x, y, z)</dt>
+                <dd className="font-semibold">
+                  {formatLength(s.cog.x, units)}, {formatLength(s.cog.y, units)}, {formatLength(s.cog.z, units)}
+                </dd>
+                <dd>
+                  {revision.loadOverride?.cog ? "planner's override" : COG_SOURCE_LABELS[s.cogSource]}
+                  {s.cogNote ? ` · ${s.cogNote}` : ""}
+                </dd>
+              </div>
+            </dl>
             <LoadOverrideNotice mark={revision.loadOverride} units={units} />
+          </Card>
+          <Card title="The figures">
             {results ? (
-              <div className="mt-2 space-y-2">
+              <div className="space-y-2">
+                <p className="text-sm">
+                  {revision.results.kind === "beam"
+                    ? "Vertical drops from a lifting beam"
+                    : a.mode === "level"
+                      ? "Level lift from one hook"
+                      : "Given sling lengths"}
+                  {" · "}
+                  {results.method === "elastic"
+                    ? "share of a rigid load on equally stretchy legs (four legs are statically indeterminate)"
+                    : "statically determinate"}
+                  {results.tiltDeg > 0.05 ? ` · the load tilts ${formatAngle(results.tiltDeg)}` : ""}
+                </p>
                 <LegTable
                   legs={results.legs}
                   design={results.rating.legs}
@@ -131,6 +168,13 @@ export default function ReviewPlan({ loaderData, actionData }: Route.ComponentPr
                   Rating: {results.rating.rule} ({results.rating.source}). Tensions are before contingency; the checks
                   add it.
                 </p>
+                {results.beam && (
+                  <p className="text-sm">
+                    Beam {formatMass(results.beam.massKg, units)}, marked WLL{" "}
+                    {formatCapacity(results.beam.wllKg, units)}; the hook carries{" "}
+                    {formatLoad(results.beam.hookMassKg, units)} before contingency.
+                  </p>
+                )}
                 {warningsBesideChecks(results.warnings).map((w, i) => (
                   <p key={i} className="text-sm text-warn">
                     ⚠ {w.message}
@@ -138,12 +182,17 @@ export default function ReviewPlan({ loaderData, actionData }: Route.ComponentPr
                 ))}
               </div>
             ) : (
-              <p role="alert" className="mt-2 text-sm text-fail">
-                {revision.results.status !== 200 ? revision.results.body.error : ""}
+              <p role="alert" className="text-sm text-fail">
+                The lift cannot be worked out now: {revision.results.status !== 200 ? revision.results.body.error : ""}
               </p>
             )}
           </Card>
+          <GearNowCard gear={gear} liftDate={liftDate} units={units} />
           <Card title="Checks">
+            <p className="mb-2 text-sm text-ink-soft" data-testid="checks-computed">
+              Worked out again as this page opened ({revision.results.computedOn}) from the revision and the gear as the
+              register has it now.
+            </p>
             <GoverningSummary checks={checks} units={units} ruleSet={results?.ruleSet} />
             <div className="mt-3">
               <ChecksList checks={checks} units={units} empty="No checks: no gear was allocated." />
@@ -152,27 +201,21 @@ export default function ReviewPlan({ loaderData, actionData }: Route.ComponentPr
               <div className="mt-3 text-sm">
                 <p className="font-semibold">Warnings the planner acknowledged</p>
                 <ul>
-                  {acknowledgements.map((a, i) => (
+                  {acknowledgements.map((ack, i) => (
                     <li key={i}>
-                      {a.checkItem}: “{a.reason}” ({a.by})
+                      {ack.checkItem}: “{ack.reason}” ({ack.by})
                     </li>
                   ))}
                 </ul>
               </div>
             )}
           </Card>
-          <Card title="Sequence and hold points">
-            <ol className="list-decimal pl-5 text-sm">
-              {revision.details.sequence.map((step, i) => (
-                <li key={i}>
-                  {step.title} {step.holdPoint && <span className="font-semibold text-brass-deep">(hold point)</span>}
-                </li>
-              ))}
-            </ol>
-          </Card>
+          <PlanDetailsCards details={revision.details} units={units} />
         </div>
         <aside className="space-y-6">
-          {permissions.approve.allowed ? (
+          {refusals.length > 0 ? (
+            <ApprovalRefusals refusals={refusals} />
+          ) : (
             <Card title="Approve and sign">
               <Form method="post" className="space-y-3">
                 <input type="hidden" name="intent" value="approve" />
@@ -199,10 +242,6 @@ export default function ReviewPlan({ loaderData, actionData }: Route.ComponentPr
                 <TextAreaField label="Comments for the rigger and planner (optional)" name="comment" />
                 <Button type="submit">Approve this revision</Button>
               </Form>
-            </Card>
-          ) : (
-            <Card title="Approval">
-              <p className="text-sm">{permissions.approve.reason}</p>
             </Card>
           )}
           {permissions.return.allowed && (
