@@ -19,6 +19,7 @@ import * as revisionAuthors from "./migrations/0019-revision-authors";
 import * as liftRecordDocument from "./migrations/0020-lift-record-document";
 import * as organisationTimeZone from "./migrations/0021-organisation-time-zone";
 import * as examinationRecords from "./migrations/0022-examination-records";
+import * as beamGeometry from "./migrations/0023-beam-geometry";
 
 export type Migration = (params: { context: QueryInterface }) => Promise<void>;
 type MigrationModule = { up: Migration; down: Migration };
@@ -47,6 +48,7 @@ export const migrations: Array<[name: string, module: MigrationModule]> = [
   ["0020-lift-record-document", liftRecordDocument],
   ["0021-organisation-time-zone", organisationTimeZone],
   ["0022-examination-records", examinationRecords],
+  ["0023-beam-geometry", beamGeometry],
 ];
 
 /** The umzug runner over `sequelize`, recording applied migrations in SequelizeMeta. */

@@ -1,3 +1,4 @@
+import { beamLine } from "~/plans/beam-text";
 import { data, Form, redirect } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/plans.$planId";
@@ -316,10 +317,7 @@ export default function PlanPage({ loaderData, actionData }: Route.ComponentProp
               {a.beam && (
                 <div>
                   <dt className="text-ink-soft">Beam</dt>
-                  <dd>
-                    {formatLength(a.beam.lengthM, units)} long, {formatMass(a.beam.massKg, units)}, WLL{" "}
-                    {formatMass(a.beam.wllKg, units)}, drops {formatLength(a.beam.dropLengthM, units)}
-                  </dd>
+                  <dd>{beamLine(a, revision.results.status === 200 ? revision.results.body.beam : undefined, units)}</dd>
                 </div>
               )}
               <div>
