@@ -2,6 +2,7 @@
 // outline, CoG, lift points, legs and hook, to scale with a grid and scale bar. Browser only:
 // loaded with lazy() after hydration, never rendered on the server. The drawing is one tab stop:
 // with focus, the arrow keys move the selected handle, + and - zoom, 0 fits the view, G snaps.
+import type { BeamPlacement } from "~/statics/beam-placement";
 import type Konva from "konva";
 import { useMemo, useRef, useState } from "react";
 import { Circle, Group, Image as KonvaImage, Layer, Line, Rect, Stage, Text } from "react-konva";
@@ -57,8 +58,8 @@ export type PlanCanvasProps = {
   snap: boolean;
   dispatch: (action: EditorAction) => void;
   backdrop?: Backdrop | null;
-  /** A lifting beam: its height (z, component frame); drops hang vertically from it to the lift points, its lug sits over the CoG. */
-  beamZM?: number | null;
+  /** A beam arrangement: where the beam hangs (null placement when it cannot be placed yet); absent for a bridle. */
+  beam?: { placement: BeamPlacement | null; problem: string | null } | null;
   /** When set, clicks report world points (for setting a drawing's scale) instead of editing. */
   onPick?: ((point: { a: number; b: number; x: number; y: number }) => void) | null;
   /** The handle the arrow keys move (shared by both views); pressing on a handle selects it. */
@@ -99,7 +100,7 @@ export default function PlanCanvas(props: PlanCanvasProps) {
     dispatch,
     backdrop,
     onPick,
-    beamZM = null,
+    beam = null,
     selected,
     onSelect,
   } = props;
@@ -295,19 +296,11 @@ export default function PlanCanvas(props: PlanCanvasProps) {
             stroke={COLOURS.outline}
             strokeWidth={2}
           />
-          {hookScreen && beamZM === null && (
+          {hookScreen && beam === null && (
             <BridleLegs edit={edit} view={view} legs={legs} hookScreen={hookScreen} usedLabels={usedLabels} S={S} />
           )}
-          {hookScreen && beamZM !== null && (
-            <BeamDrops
-              edit={edit}
-              view={view}
-              legs={legs}
-              hookScreen={hookScreen}
-              usedLabels={usedLabels}
-              beamZM={beamZM}
-              S={S}
-            />
+          {hookScreen && beam?.placement && (
+            <BeamDrops edit={edit} view={view} legs={legs} hookScreen={hookScreen} placement={beam.placement} S={S} />
           )}
           {legs.length > 0 && <FiguresBox legs={legs} at={figuresAt} size={figuresSize} />}
           <ScaleBar

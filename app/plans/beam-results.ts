@@ -4,8 +4,8 @@ import type { Arrangement, PlanLeg, PlanResultsBody } from "~/plans/document";
 import type { ComponentDefinition } from "~/loads/component-definition";
 import { toCheckResult } from "~/statics/api";
 import { solveBeamLift } from "~/statics/beam";
-import { placeBeam, type BeamGeometry, type BeamPlacement } from "~/statics/beam-placement";
-import type { Vec3 } from "~/statics/vector";
+import type { BeamGeometry } from "~/statics/beam-placement";
+import { placeBeamForPlan } from "~/plans/beam-geometry";
 import type { LiftPoint } from "~/statics/bridle";
 import type { Check, InspectionRecord, RiggingDescription } from "~/statics/check-types";
 import { grossLoads } from "~/statics/checks";
@@ -41,44 +41,6 @@ function beamInUse(arrangement: Arrangement, item: BeamItemSpec | null) {
   if (typed?.massKg !== undefined && typed.wllKg !== undefined && typed.lengthM !== undefined)
     return { ok: true as const, massKg: typed.massKg, wllKg: typed.wllKg, lengthM: typed.lengthM, item: null };
   return { ok: false as const };
-}
-
-/**
- * A plan without a register beam (typed figures): the beam along the line of the lift points, centred on
- * them, its lug over the load's CoG as an adjustable lifting beam; drops drawn from above each point.
- */
-export function typedBeamPlacement(
-  points: ReadonlyArray<{ id: string; position: Vec3 }>,
-  cog: Vec3,
-  lengthM: number,
-  dropLengthM: number,
-): BeamPlacement | null {
-  if (points.length < 2) return null;
-  let best = -1;
-  let a = points[0]!.position;
-  let b = points[1]!.position;
-  for (const p of points)
-    for (const q of points) {
-      const d = Math.hypot(p.position.x - q.position.x, p.position.y - q.position.y);
-      if (d > best) [best, a, b] = [d, p.position, q.position];
-    }
-  if (!(best > 1e-6)) return null;
-  const ex = (b.x - a.x) / best;
-  const ey = (b.y - a.y) / best;
-  const ts = points.map((p) => (p.position.x - a.x) * ex + (p.position.y - a.y) * ey);
-  const start = Math.min(...ts) - (lengthM - (Math.max(...ts) - Math.min(...ts))) / 2;
-  const beamZM = Math.max(...points.map((p) => p.position.z)) + dropLengthM;
-  const at = (t: number): Vec3 => ({ x: a.x + t * ex, y: a.y + t * ey, z: beamZM });
-  // As these plans were always solved: each drop hangs plumb from above its lift point.
-  const drops = points.map((p, i) => ({
-    liftPointId: p.id,
-    lugIndex: i,
-    lug: { x: p.position.x, y: p.position.y, z: beamZM },
-    lengthM: beamZM - p.position.z,
-    angleFromVerticalDeg: 0,
-  }));
-  const lug = { x: cog.x, y: cog.y, z: beamZM };
-  return { axis: { x: ex, y: ey, z: 0 }, endA: at(start), endB: at(start + lengthM), drops, topLugs: [lug], cog: lug, beamZM };
 }
 
 export function beamResults(
@@ -120,25 +82,9 @@ export function beamResults(
       },
     };
   }
-  let placement: BeamPlacement;
-  if (beam.item) {
-    const geometry = {
-      lengthM: beam.item.lengthM,
-      dropLugsM: [...beam.item.dropLugsM].sort((a, b) => a - b),
-      topLugsM: beam.item.topLugsM,
-    };
-    const placed = placeBeam(geometry, points, beam.dropLengthM);
-    if (!placed.ok) return { status: 422, body: { error: placed.message, code: placed.code } };
-    placement = placed.placement;
-  } else {
-    const typed = typedBeamPlacement(points, snapshot.cog, beam.lengthM, beam.dropLengthM);
-    if (!typed)
-      return {
-        status: 422,
-        body: { code: "DEGENERATE_LIFT_POINTS", error: "A beam carries the load on at least two drops, apart in plan." },
-      };
-    placement = typed;
-  }
+  const placed = placeBeamForPlan(points, snapshot.cog, beam.dropLengthM, beam.item ?? { lengthM: beam.lengthM });
+  if (!placed.ok) return { status: 422, body: { error: placed.message, code: placed.code } };
+  const placement = placed.placement;
   const beamZ = placement.beamZM;
   if (!(arrangement.hookHeightM > beamZ + 1e-6)) {
     return {
