@@ -63,7 +63,9 @@ describe("a beam's geometry in the register", () => {
   });
 
   it("refuses lug positions on an item that is not a beam", () => {
-    expect(messages({ ...beam, kind: "shackle", shackleType: "bow", pinType: "bolt", lengthM: "", beamMassKg: "" })).toEqual([
+    expect(
+      messages({ ...beam, kind: "shackle", shackleType: "bow", pinType: "bolt", lengthM: "", beamMassKg: "" }),
+    ).toEqual([
       "dropLugsM: Drop lugs (m from end) does not apply to a shackle; leave it empty.",
       "topLugsM: Top lugs (m from end) does not apply to a shackle; leave it empty.",
     ]);

@@ -61,9 +61,16 @@ function typedBeamPlacement(
     angleFromVerticalDeg: 0,
   }));
   const lug = { x: cog.x, y: cog.y, z: beamZM };
-  return { axis: { x: ex, y: ey, z: 0 }, endA: at(start), endB: at(start + lengthM), drops, topLugs: [lug], cog: lug, beamZM };
+  return {
+    axis: { x: ex, y: ey, z: 0 },
+    endA: at(start),
+    endB: at(start + lengthM),
+    drops,
+    topLugs: [lug],
+    cog: lug,
+    beamZM,
+  };
 }
-
 
 /**
  * The editor's beam as it would hang now: null for a bridle; for a beam arrangement the placement, or the

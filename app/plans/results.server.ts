@@ -383,11 +383,16 @@ export async function computePlanResults(
     const beamSpec = beamItem ? beamItemSpec(beamItem) : null;
     if (beamItem && beamSpec && !beamSpec.inspection)
       extraChecks.push(
-        checkNeverExamined(beamItem.kind === "spreader" ? "Spreader beam" : "Lifting beam", beamItem.itemCode, todayIso, {
-          ruleSet,
-          tables,
-          liftDateIso: liftDate ?? null,
-        }),
+        checkNeverExamined(
+          beamItem.kind === "spreader" ? "Spreader beam" : "Lifting beam",
+          beamItem.itemCode,
+          todayIso,
+          {
+            ruleSet,
+            tables,
+            liftDateIso: liftDate ?? null,
+          },
+        ),
       );
     const beam = beamResults(snapshot, arrangement, description, extraChecks, notes, tables, {
       todayIso,

@@ -317,7 +317,9 @@ export default function PlanPage({ loaderData, actionData }: Route.ComponentProp
               {a.beam && (
                 <div>
                   <dt className="text-ink-soft">Beam</dt>
-                  <dd>{beamLine(a, revision.results.status === 200 ? revision.results.body.beam : undefined, units)}</dd>
+                  <dd>
+                    {beamLine(a, revision.results.status === 200 ? revision.results.body.beam : undefined, units)}
+                  </dd>
                 </div>
               )}
               <div>

@@ -90,7 +90,14 @@ export function placeBeam(
     const off = Math.hypot(p.position.x - lug.x, p.position.y - lug.y);
     const lengthV = beamZM - p.position.z;
     const angleFromVerticalDeg = (Math.atan2(off, lengthV) * 180) / Math.PI;
-    return { liftPointId: p.id, lugIndex: pairing[i]!, lug, lengthM: Math.hypot(off, lengthV), angleFromVerticalDeg, off };
+    return {
+      liftPointId: p.id,
+      lugIndex: pairing[i]!,
+      lug,
+      lengthM: Math.hypot(off, lengthV),
+      angleFromVerticalDeg,
+      off,
+    };
   });
   const worst = drops.reduce((a, b) => (b.angleFromVerticalDeg > a.angleFromVerticalDeg ? b : a));
   if (worst.angleFromVerticalDeg > DROP_VERTICAL_LIMIT_DEG) {

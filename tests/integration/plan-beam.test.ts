@@ -37,8 +37,20 @@ async function setup(beamOverrides: Partial<GearItem> = {}) {
   const org = planner.organisationId;
   const { plan } = await makePlan(planner, element);
   const beam = await makeGear(org, "beam", { ...beamFields, ...beamOverrides });
-  const slingA = await makeGear(org, "chain_sling", { wllKg: 3150, chainGrade: 8, diameterMm: 10, legs: 1, lengthM: 1 });
-  const slingB = await makeGear(org, "chain_sling", { wllKg: 3150, chainGrade: 8, diameterMm: 10, legs: 1, lengthM: 1 });
+  const slingA = await makeGear(org, "chain_sling", {
+    wllKg: 3150,
+    chainGrade: 8,
+    diameterMm: 10,
+    legs: 1,
+    lengthM: 1,
+  });
+  const slingB = await makeGear(org, "chain_sling", {
+    wllKg: 3150,
+    chainGrade: 8,
+    diameterMm: 10,
+    legs: 1,
+    lengthM: 1,
+  });
   // M30 collar eyebolts (DIN 580 M30: 3.2 t axial), as in tests/support/workflow.ts.
   const eyebolt = { wllKg: 3200, thread: "M30", eyeboltFamily: "collar" };
   const eyeboltA = await makeGear(org, "eyebolt", eyebolt);
@@ -169,7 +181,9 @@ describe("a lifting beam from the register", () => {
       "not a lifting beam or spreader",
     );
     const bridle: Arrangement = { ...arrangement, kind: "bridle", beam: undefined };
-    expect(JSON.stringify(await save(s, rigging(s), bridle))).toContain("A beam is allocated but the legs go to one hook");
+    expect(JSON.stringify(await save(s, rigging(s), bridle))).toContain(
+      "A beam is allocated but the legs go to one hook",
+    );
   });
 
   it("a plan with the beam's figures typed in (made before) still works out, its check marked not from the register", async () => {

@@ -92,17 +92,22 @@ export function BeamDrops({
       {placement.topLugs.map((lug, i) => {
         const s = at(lug);
         return (
-          <Line
-            key={`top-${i}`}
-            points={[hookScreen.x, hookScreen.y, s.x, s.y]}
-            stroke={COLOURS.ink}
-            strokeWidth={3}
-          />
+          <Line key={`top-${i}`} points={[hookScreen.x, hookScreen.y, s.x, s.y]} stroke={COLOURS.ink} strokeWidth={3} />
         );
       })}
       {[...placement.drops.map((d) => d.lug), ...placement.topLugs].map((lug, i) => {
         const s = at(lug);
-        return <Circle key={`lug-${i}`} x={s.x} y={s.y} radius={3} fill={COLOURS.fill} stroke={COLOURS.ink} strokeWidth={1.5} />;
+        return (
+          <Circle
+            key={`lug-${i}`}
+            x={s.x}
+            y={s.y}
+            radius={3}
+            fill={COLOURS.fill}
+            stroke={COLOURS.ink}
+            strokeWidth={1.5}
+          />
+        );
       })}
     </Group>
   );

@@ -144,8 +144,9 @@ export function ArrangementPanel({
       </div>
       {edit.arrangement.kind === "beam" && edit.arrangement.beam && (
         <p className="text-sm text-ink-soft">
-          Drops {formatLength(edit.arrangement.beam.dropLengthM, units)}; the beam&apos;s length, lugs, mass and WLL come
-          from the register item allocated as the beam (Gear). Beam figures are worked out by the server on each save.
+          Drops {formatLength(edit.arrangement.beam.dropLengthM, units)}; the beam&apos;s length, lugs, mass and WLL
+          come from the register item allocated as the beam (Gear). Beam figures are worked out by the server on each
+          save.
         </p>
       )}
       <div className="overflow-x-auto">

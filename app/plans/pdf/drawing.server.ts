@@ -103,7 +103,8 @@ function viewGeometry(plan: PrintablePlan, view: ViewKind): ViewGeometry {
       for (const l of results.legs) {
         const p = point(l.liftPointId);
         const drop = placement.drops.find((d) => d.liftPointId === l.liftPointId);
-        if (p && drop) legs.push({ name: `Drop ${l.liftPointId}`, from: project(drop.lug, view), to: project(p, view), leg: l });
+        if (p && drop)
+          legs.push({ name: `Drop ${l.liftPointId}`, from: project(drop.lug, view), to: project(p, view), leg: l });
       }
       beam = { from: project(placement.endA, view), to: project(placement.endB, view) };
       const topLegs = results.beam?.topLegs ?? [];
