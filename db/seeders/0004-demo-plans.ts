@@ -87,7 +87,7 @@ const DEMO_PLANS: DemoPlan[] = [
   {
     workOrder: "KR-24130",
     componentName: "P4 drive motor, 75 kW",
-    title: "Lift the P4 drive motor on the spreader beam",
+    title: "Lift the P4 drive motor on the lifting beam",
     sling: { kinds: ["web_sling", "round_sling"] },
     masterLink: false,
     hazards: [
