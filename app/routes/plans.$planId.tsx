@@ -325,7 +325,10 @@ export default function PlanPage({ loaderData, actionData }: Route.ComponentProp
               <div>
                 <dt className="text-ink-soft">Gear allocated</dt>
                 <dd>
-                  {Object.keys(rigging.legs).length === 0 && !rigging.craneItemId && !rigging.masterLinkItemId
+                  {Object.keys(rigging.legs).length === 0 &&
+                  !rigging.craneItemId &&
+                  !rigging.masterLinkItemId &&
+                  !rigging.beamItemId
                     ? "None yet"
                     : Object.entries(rigging.legs)
                         .map(
@@ -335,6 +338,7 @@ export default function PlanPage({ loaderData, actionData }: Route.ComponentProp
                         .concat(
                           rigging.masterLinkItemId ? ["master link"] : [],
                           rigging.craneItemId ? ["crane or hoist"] : [],
+                          rigging.beamItemId ? ["lifting beam or spreader"] : [],
                         )
                         .join(" · ")}
                 </dd>
