@@ -19,6 +19,7 @@ import * as revisionAuthors from "./migrations/0019-revision-authors";
 import * as liftRecordDocument from "./migrations/0020-lift-record-document";
 import * as organisationTimeZone from "./migrations/0021-organisation-time-zone";
 import * as examinationRecords from "./migrations/0022-examination-records";
+import * as beamGeometry from "./migrations/0023-beam-geometry";
 import * as planLoadOverrides from "./migrations/0024-plan-load-overrides";
 import * as componentFitTolerance from "./migrations/0025-component-fit-tolerance";
 import * as gearSearchIndex from "./migrations/0026-gear-search-index";
@@ -51,6 +52,7 @@ export const migrations: Array<[name: string, module: MigrationModule]> = [
   ["0020-lift-record-document", liftRecordDocument],
   ["0021-organisation-time-zone", organisationTimeZone],
   ["0022-examination-records", examinationRecords],
+  ["0023-beam-geometry", beamGeometry],
   ["0024-plan-load-overrides", planLoadOverrides],
   ["0025-component-fit-tolerance", componentFitTolerance],
   ["0026-gear-search-index", gearSearchIndex],

@@ -29,6 +29,8 @@ const SPEC_HINTS: Partial<Record<SpecField, string>> = {
   lengthM: "Effective working length, bearing point to bearing point.",
   hookHeightM: "Highest hook position above the floor.",
   beamMassKg: "The beam's own mass, added to the load.",
+  dropLugsM: "Where the drops hang, metres from end A along the beam, e.g. 0.25, 2.75.",
+  topLugsM: "Where the beam hangs: one lug for a lifting beam, two for a spreader, metres from end A.",
 };
 
 function SpecInput({ field, value, errors }: { field: SpecField; value: string; errors?: string[] }) {
@@ -48,6 +50,9 @@ function SpecInput({ field, value, errors }: { field: SpecField; value: string; 
       return <SelectField {...common} options={choices([1, 2, 3, 4])} />;
     case "thread":
       return <Field {...common} hint={hint} maxLength={20} autoComplete="off" />;
+    case "dropLugsM":
+    case "topLugsM":
+      return <Field {...common} hint={hint} maxLength={200} autoComplete="off" inputMode="decimal" />;
     default:
       return <Field {...common} hint={hint} type="number" inputMode="decimal" step="any" min="0" />;
   }

@@ -2,6 +2,7 @@
 // outline, CoG, lift points, legs and hook, to scale with a grid and scale bar. Browser only:
 // loaded with lazy() after hydration, never rendered on the server. The drawing is one tab stop:
 // with focus, the arrow keys move the selected handle, + and - zoom, 0 fits the view, G snaps.
+import type { BeamPlacement } from "~/statics/beam-placement";
 import type Konva from "konva";
 import { useMemo, useRef, useState } from "react";
 import { Circle, Group, Image as KonvaImage, Layer, Line, Rect, Stage, Text } from "react-konva";
@@ -59,8 +60,8 @@ export type PlanCanvasProps = {
   snap: boolean;
   dispatch: (action: EditorAction) => void;
   backdrop?: Backdrop | null;
-  /** A lifting beam: its height (z, component frame); drops hang vertically from it to the lift points, its lug sits over the CoG. */
-  beamZM?: number | null;
+  /** A beam arrangement: where the beam hangs (null placement when it cannot be placed yet); absent for a bridle. */
+  beam?: { placement: BeamPlacement | null; problem: string | null } | null;
   /** When set, clicks report world points (for setting a drawing's scale) instead of editing. */
   onPick?: ((point: { a: number; b: number; x: number; y: number }) => void) | null;
   /** Shown, never edited (the review page): nothing can be dragged; wheel and drag still zoom and pan. */
@@ -107,7 +108,7 @@ export default function PlanCanvas(props: PlanCanvasProps) {
     dispatch,
     backdrop,
     onPick,
-    beamZM = null,
+    beam = null,
     readOnly = false,
     selected,
     onSelect,
@@ -119,8 +120,8 @@ export default function PlanCanvas(props: PlanCanvasProps) {
   // The elevation turns the load to how it hangs on given lengths; the plan view and beams are drawn as set.
   const frame = useMemo(
     () =>
-      view === "elevation" && !level && beamZM === null ? hangingFrame(edit.cog, hook) : hangingFrame(edit.cog, null),
-    [view, level, beamZM, edit.cog, hook],
+      view === "elevation" && !level && beam === null ? hangingFrame(edit.cog, hook) : hangingFrame(edit.cog, null),
+    [view, level, beam, edit.cog, hook],
   );
   const P = (p: Vec3) => project(frame.toWorld(p), view);
   const outlineShown = useMemo(
@@ -328,7 +329,7 @@ export default function PlanCanvas(props: PlanCanvasProps) {
             stroke={COLOURS.outline}
             strokeWidth={2}
           />
-          {hookScreen && beamZM === null && (
+          {hookScreen && beam === null && (
             <BridleLegs
               edit={edit}
               view={view}
@@ -339,16 +340,8 @@ export default function PlanCanvas(props: PlanCanvasProps) {
               toWorld={frame.toWorld}
             />
           )}
-          {hookScreen && beamZM !== null && (
-            <BeamDrops
-              edit={edit}
-              view={view}
-              legs={legs}
-              hookScreen={hookScreen}
-              usedLabels={usedLabels}
-              beamZM={beamZM}
-              S={S}
-            />
+          {hookScreen && beam?.placement && (
+            <BeamDrops edit={edit} view={view} legs={legs} hookScreen={hookScreen} placement={beam.placement} S={S} />
           )}
           {hookScreen && tilts && (
             <Group name="hang-tilt">

@@ -55,10 +55,11 @@ export function PlanDrawing({
       slack: leg.slack,
     };
   });
-  const used = edit.liftPoints.filter((p) => arrangement.liftPointLabels.includes(p.label));
-  const beamZM =
-    arrangement.kind === "beam" && arrangement.beam && used.length
-      ? Math.max(...used.map((p) => p.position.z)) + arrangement.beam.dropLengthM
+  // A beam is drawn where the results placed it (from its register lugs, or the typed beam of an older plan).
+  const placement = body?.beam?.placement ?? null;
+  const beam =
+    arrangement.kind === "beam"
+      ? { placement, problem: placement ? null : "The beam's position is not in these results." }
       : null;
   const viewWidth = width >= 900 ? Math.floor((width - 16) / 2) : width;
   const viewHeight = Math.max(240, Math.min(420, Math.round(viewWidth * 0.7)));
@@ -84,7 +85,7 @@ export function PlanDrawing({
                   gridM={gridStepM(units)}
                   snap={false}
                   dispatch={ignore}
-                  beamZM={beamZM}
+                  beam={beam}
                   readOnly
                   selected={null}
                   onSelect={ignore}

@@ -36,6 +36,7 @@ import {
 } from "~/plans/editor-state";
 import type { LoadOverride } from "~/plans/load-override";
 import type { GearPick } from "~/plans/rigging";
+import { editorBeamPlacement } from "~/plans/beam-geometry";
 import type { ReferenceTables, RuleSetId } from "~/statics/reference";
 import { formatLength, type Units } from "~/utils/format";
 
@@ -189,12 +190,7 @@ export function PlanEditor({
     return () => window.removeEventListener("keydown", onKey);
   }, [onKey]);
 
-  const beamZM =
-    edit.arrangement.kind === "beam" && edit.arrangement.beam
-      ? Math.max(
-          ...edit.liftPoints.filter((p) => edit.arrangement.liftPointLabels.includes(p.label)).map((p) => p.position.z),
-        ) + edit.arrangement.beam.dropLengthM
-      : null;
+  const beam = useMemo(() => editorBeamPlacement(edit, picks), [edit, picks]);
   const viewWidth = viewsWidth >= 900 ? Math.floor((viewsWidth - 16) / 2) : viewsWidth;
   const viewHeight = Math.max(260, Math.min(460, Math.round(viewWidth * 0.75)));
   const usedPoints = edit.liftPoints.filter((p) => edit.arrangement.liftPointLabels.includes(p.label));
@@ -306,7 +302,7 @@ export function PlanEditor({
                   snap={snap}
                   dispatch={canEdit ? dispatch : () => undefined}
                   backdrop={view === "elevation" ? tracing.backdrop : null}
-                  beamZM={beamZM}
+                  beam={beam}
                   onPick={tracing.calibration && view === "elevation" ? tracing.pickForCalibration : null}
                   selected={canEdit ? selected : null}
                   onSelect={selectHandle}
@@ -321,6 +317,11 @@ export function PlanEditor({
           </figure>
         ))}
       </div>
+      {beam?.problem && (
+        <p className="text-sm text-warn" role="status">
+          The beam cannot be drawn yet: {beam.problem}
+        </p>
+      )}
       <p className="text-xs text-ink-soft">
         Leg colours follow the worst check on each leg, always with the figures written beside it:{" "}
         <span className="font-semibold text-pass">green pass</span>,{" "}

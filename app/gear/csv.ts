@@ -27,6 +27,8 @@ export const EDITABLE_COLUMNS: readonly EditableColumn[] = [
   { header: "length_m", field: "lengthM" },
   { header: "hook_height_m", field: "hookHeightM" },
   { header: "beam_mass_kg", field: "beamMassKg" },
+  { header: "drop_lugs_m", field: "dropLugsM" },
+  { header: "top_lugs_m", field: "topLugsM" },
   { header: "mass_kg", field: "massKg" },
   { header: "home_site", field: "homeSite" },
 ];

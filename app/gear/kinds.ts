@@ -10,6 +10,7 @@ export const GEAR_KINDS = [
   "round_sling",
   "master_link",
   "beam",
+  "spreader",
   "chain_block",
   "lever_hoist",
   "hoist",
@@ -29,6 +30,8 @@ export const SPEC_FIELDS = [
   "lengthM",
   "hookHeightM",
   "beamMassKg",
+  "dropLugsM",
+  "topLugsM",
 ] as const;
 export type SpecField = (typeof SPEC_FIELDS)[number];
 
@@ -72,8 +75,14 @@ export const GEAR_KIND_INFO: Record<GearKind, KindInfo> = {
   beam: {
     label: "Lifting beam",
     accessory: true,
-    fields: ["lengthM", "beamMassKg"],
-    required: ["lengthM", "beamMassKg"],
+    fields: ["lengthM", "beamMassKg", "dropLugsM", "topLugsM"],
+    required: ["lengthM", "beamMassKg", "dropLugsM", "topLugsM"],
+  },
+  spreader: {
+    label: "Spreader beam",
+    accessory: true,
+    fields: ["lengthM", "beamMassKg", "dropLugsM", "topLugsM"],
+    required: ["lengthM", "beamMassKg", "dropLugsM", "topLugsM"],
   },
   chain_block: {
     label: "Chain block",
@@ -102,7 +111,42 @@ export const SPEC_FIELD_LABELS: Record<SpecField, string> = {
   lengthM: "Length (m)",
   hookHeightM: "Hook height (m)",
   beamMassKg: "Beam mass (kg)",
+  dropLugsM: "Drop lugs (m from end)",
+  topLugsM: "Top lugs (m from end)",
 };
+
+/** Kinds that are beams: a straight member with drop lugs below and top lug(s) above. */
+export const BEAM_KINDS = ["beam", "spreader"] as const satisfies readonly GearKind[];
+export function isBeamKind(kind: string): kind is (typeof BEAM_KINDS)[number] {
+  return (BEAM_KINDS as readonly string[]).includes(kind);
+}
+/** How many top lugs each beam kind hangs from: a lifting beam from one, a spreader from a 2-leg bridle. */
+export const TOP_LUG_COUNT: Record<(typeof BEAM_KINDS)[number], number> = { beam: 1, spreader: 2 };
+/** Drops a beam may carry: at least 2, at most the 4 lift points a plan uses. */
+export const MAX_DROP_LUGS = 4;
+
+/**
+ * Lug positions as written ("0.25, 2.75"): metres along the beam from its end A, separated by commas,
+ * semicolons or spaces. Null for text that is not a list of finite numbers.
+ */
+export function parseLugPositions(text: string | null | undefined): number[] | null {
+  if (text === null || text === undefined) return null;
+  const parts = text
+    .trim()
+    .split(/[\s,;]+/)
+    .filter((p) => p !== "");
+  if (parts.length === 0) return null;
+  const values = parts.map((p) => (/^[-+]?(\d+\.?\d*|\.\d+)$/.test(p) ? Number(p) : NaN));
+  return values.every((v) => Number.isFinite(v)) ? values : null;
+}
+
+/** The stored form of lug positions: ascending, comma-separated, as few digits as they need (0.1 mm). */
+export function formatLugPositions(values: readonly number[]): string {
+  return [...values]
+    .sort((a, b) => a - b)
+    .map((v) => String(Math.round(v * 10_000) / 10_000))
+    .join(", ");
+}
 
 export const EYEBOLT_FAMILIES = ["collar", "shoulder", "plain"] as const;
 export const SHACKLE_TYPES = ["bow", "dee"] as const;
@@ -145,6 +189,8 @@ type SizeFields = {
   lengthM?: number | null;
   hookHeightM?: number | null;
   beamMassKg?: number | null;
+  dropLugsM?: string | null;
+  topLugsM?: string | null;
 };
 
 /** A short size line for lists: "M16 collar", "bow, screw pin, 13 mm", "grade 8, 8 mm, 2 legs, 1.5 m". */
@@ -160,5 +206,6 @@ export function sizeSummary(item: SizeFields): string {
   if (item.lengthM) parts.push(`${item.lengthM} m`);
   if (item.hookHeightM) parts.push(`hook ${item.hookHeightM} m`);
   if (item.beamMassKg) parts.push(`beam ${item.beamMassKg} kg`);
+  if (item.dropLugsM) parts.push(`drops at ${item.dropLugsM} m`);
   return parts.join(", ");
 }

@@ -1,6 +1,6 @@
 // Register items as the plan editor's picker offers them (GearPick), with the spec the checks need.
 import { Op } from "sequelize";
-import type { GearKind } from "~/gear/kinds";
+import { isBeamKind, parseLugPositions, type GearKind } from "~/gear/kinds";
 import { GearItem } from "~/models/gear-item.server";
 import type { GearPick, GearRole } from "~/plans/rigging";
 import type { EyeboltFamily, SlingSpec, Wll } from "~/statics/checks";
@@ -19,6 +19,7 @@ export const ROLE_KINDS: Record<GearRole, readonly GearKind[]> = {
   sling: ["chain_sling", "wire_rope_sling", "web_sling", "round_sling"],
   masterLink: ["master_link"],
   crane: ["crane", "hoist", "chain_block", "lever_hoist"],
+  beam: ["beam", "spreader"],
 };
 
 export function roleOfKind(kind: GearKind): GearRole | null {
@@ -37,7 +38,7 @@ function describe(item: GearItem) {
 }
 
 /**
- * The pick for a register item, or null for kinds a bridle leg does not use (beams). A multi-leg
+ * The pick for a register item, or null for a kind no plan allocates. A multi-leg
  * sling is marked with the assembly's WLL for legs up to 45 deg; one leg is taken as that over the
  * rule set's mode factor (via the reference tables).
  */
@@ -112,6 +113,28 @@ export function toGearPick(
     }
     case "masterLink":
       return { ...base, spec: { role, masterLink: { wll: marked, ...identity } } };
+    case "beam": {
+      const dropLugsM = parseLugPositions(item.dropLugsM);
+      const topLugsM = parseLugPositions(item.topLugsM);
+      const complete =
+        isBeamKind(item.kind) && dropLugsM && topLugsM && item.lengthM !== null && item.beamMassKg !== null;
+      return {
+        ...base,
+        massKg: item.beamMassKg ?? null,
+        spec: {
+          role,
+          beam: complete
+            ? {
+                kind: item.kind as "beam" | "spreader",
+                lengthM: item.lengthM!,
+                dropLugsM,
+                topLugsM,
+                massKg: item.beamMassKg!,
+              }
+            : null,
+        },
+      };
+    }
     case "crane":
       return {
         ...base,
@@ -141,7 +164,9 @@ export async function searchGearPicks(
     where: {
       organisationId,
       status: { [Op.ne]: "withdrawn" },
-      ...(options.role ? { kind: { [Op.in]: [...ROLE_KINDS[options.role]] } } : { kind: { [Op.ne]: "beam" } }),
+      ...(options.role
+        ? { kind: { [Op.in]: [...ROLE_KINDS[options.role]] } }
+        : { kind: { [Op.notIn]: [...ROLE_KINDS.beam] } }),
       ...(q
         ? {
             [Op.or]: [

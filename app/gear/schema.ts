@@ -3,6 +3,11 @@ import { isIsoDate } from "~/utils/dates";
 import {
   CHAIN_GRADES,
   EYEBOLT_FAMILIES,
+  MAX_DROP_LUGS,
+  TOP_LUG_COUNT,
+  formatLugPositions,
+  isBeamKind,
+  parseLugPositions,
   GEAR_KIND_INFO,
   GEAR_KINDS,
   GEAR_STATUSES,
@@ -52,6 +57,77 @@ function optionalChoice<T extends readonly [string, ...string[]]>(label: string,
   );
 }
 
+/** Lug positions along a beam, m from its end A: a list of numbers, stored ascending as "0.25, 2.75". */
+function lugPositions(label: string) {
+  return z.preprocess(
+    blankToNull,
+    safeText()
+      .max(200, "At most 200 characters.")
+      .transform((t, ctx) => {
+        const values = parseLugPositions(t);
+        if (!values) {
+          ctx.addIssue({
+            code: "custom",
+            message: `Give the ${label} as metres from end A, separated by commas, e.g. 0.25, 2.75.`,
+          });
+          return z.NEVER;
+        }
+        return formatLugPositions(values);
+      })
+      .nullable(),
+  );
+}
+
+/** Smallest distance between two drop lugs, m: two drops on one point are one drop (common practice). */
+const MIN_LUG_GAP_M = 0.01;
+
+/** What is wrong with a beam's geometry: lugs within its length, enough drops, its own count of top lugs. */
+export function beamGeometryIssues(item: {
+  kind: "beam" | "spreader";
+  lengthM: number | null;
+  dropLugsM: string | null;
+  topLugsM: string | null;
+}): Array<{ path: "dropLugsM" | "topLugsM"; message: string }> {
+  const issues: Array<{ path: "dropLugsM" | "topLugsM"; message: string }> = [];
+  const length = item.lengthM;
+  const drops = parseLugPositions(item.dropLugsM);
+  const tops = parseLugPositions(item.topLugsM);
+  const outside = (values: number[]) => values.filter((v) => v < 0 || (length !== null && v > length + 1e-9));
+  if (drops) {
+    if (drops.length < 2 || drops.length > MAX_DROP_LUGS)
+      issues.push({ path: "dropLugsM", message: `Give from 2 to ${MAX_DROP_LUGS} drop lug positions.` });
+    const off = outside(drops);
+    if (off.length)
+      issues.push({
+        path: "dropLugsM",
+        message: `Drop lug${off.length > 1 ? "s" : ""} at ${off.join(", ")} m ${off.length > 1 ? "are" : "is"} off the beam: every lug lies from 0 to ${length ?? "its length"} m from end A.`,
+      });
+    const sorted = [...drops].sort((a, b) => a - b);
+    if (sorted.some((v, i) => i > 0 && v - sorted[i - 1]! < MIN_LUG_GAP_M))
+      issues.push({ path: "dropLugsM", message: "Two drop lugs are at the same place: give each lug once." });
+  }
+  if (tops) {
+    const count = TOP_LUG_COUNT[item.kind];
+    if (tops.length !== count)
+      issues.push({
+        path: "topLugsM",
+        message:
+          item.kind === "beam"
+            ? "A lifting beam hangs from one top lug: give its one position."
+            : "A spreader beam hangs from a 2-leg sling: give its two top lug positions.",
+      });
+    const off = outside(tops);
+    if (off.length)
+      issues.push({
+        path: "topLugsM",
+        message: `Top lug${off.length > 1 ? "s" : ""} at ${off.join(", ")} m ${off.length > 1 ? "are" : "is"} off the beam: every lug lies from 0 to ${length ?? "its length"} m from end A.`,
+      });
+    if (tops.length === 2 && Math.abs(tops[1]! - tops[0]!) < MIN_LUG_GAP_M)
+      issues.push({ path: "topLugsM", message: "The two top lugs are at the same place: give each lug once." });
+  }
+  return issues;
+}
+
 function withArticle(noun: string) {
   return `${/^[aeiou]/.test(noun) ? "an" : "a"} ${noun}`;
 }
@@ -91,6 +167,8 @@ const specShape = {
   lengthM: optionalNumber("length", { min: 0.05, max: 200 }),
   hookHeightM: optionalNumber("hook height", { min: 0.5, max: 200 }),
   beamMassKg: optionalNumber("beam mass", { min: 0.1, max: 100_000 }),
+  dropLugsM: lugPositions("drop lug positions"),
+  topLugsM: lugPositions("top lug positions"),
 } satisfies Record<SpecField, z.ZodType>;
 
 /** The fields of a gear item as a form or a CSV row gives them (strings), checked against its kind. */
@@ -152,6 +230,16 @@ export const gearItemSchema = z
           message: `Enter the ${SPEC_FIELD_LABELS[field].replace(/ \(.*\)$/, "").toLowerCase()} for ${what}.`,
         });
       }
+    }
+    if (isBeamKind(item.kind)) {
+      for (const issue of beamGeometryIssues({ ...item, kind: item.kind }))
+        ctx.addIssue({ code: "custom", path: [issue.path], message: issue.message });
+      if (item.massKg !== null && item.beamMassKg !== null && item.massKg !== item.beamMassKg)
+        ctx.addIssue({
+          code: "custom",
+          path: ["massKg"],
+          message: "A beam's own mass is its beam mass: leave the item's own mass empty or give the same figure.",
+        });
     }
   });
 
@@ -264,6 +352,8 @@ export const BLANK_GEAR_FIELDS: Omit<GearItemInput, "itemCode" | "kind" | "wllVa
   lengthM: null,
   hookHeightM: null,
   beamMassKg: null,
+  dropLugsM: null,
+  topLugsM: null,
   massKg: null,
   homeSiteId: null,
 };

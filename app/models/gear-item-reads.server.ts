@@ -26,6 +26,8 @@ export type GearExportRow = {
   hookHeightM: number | null;
   beamMassKg: number | null;
   massKg: number | null;
+  dropLugsM: string | null;
+  topLugsM: string | null;
   homeSiteName: string | null;
   status: GearStatus;
   lastExaminedOn: string | null;
@@ -37,6 +39,7 @@ const EXPORT_COLUMNS = `g.item_code AS itemCode, g.kind AS kind, g.description A
   g.wll_kg AS wllKg, g.thread AS thread, g.eyebolt_family AS eyeboltFamily, g.shackle_type AS shackleType,
   g.pin_type AS pinType, g.chain_grade AS chainGrade, g.diameter_mm AS diameterMm, g.legs AS legs,
   g.length_m AS lengthM, g.hook_height_m AS hookHeightM, g.beam_mass_kg AS beamMassKg, g.mass_kg AS massKg,
+  g.drop_lugs_m AS dropLugsM, g.top_lugs_m AS topLugsM,
   s.name AS homeSiteName, g.status AS status, g.last_examined_on AS lastExaminedOn, g.next_due_on AS nextDueOn`;
 
 /**

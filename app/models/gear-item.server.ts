@@ -41,6 +41,10 @@ export class GearItem extends Model<InferAttributes<GearItem>, InferCreationAttr
   declare lengthM: number | null;
   declare hookHeightM: number | null;
   declare beamMassKg: number | null;
+  /** A beam's drop lugs, m along it from end A ("0.25, 2.75"). */
+  declare dropLugsM: string | null;
+  /** A beam's top lug(s), m along it from end A: one for a lifting beam, two for a spreader. */
+  declare topLugsM: string | null;
   /** The item's own mass, kg (null until recorded): the crane carries it with the load. */
   declare massKg: number | null;
   declare homeSiteId: number | null;
@@ -78,6 +82,8 @@ GearItem.init(
     lengthM: { type: DataTypes.DOUBLE, allowNull: true },
     hookHeightM: { type: DataTypes.DOUBLE, allowNull: true },
     beamMassKg: { type: DataTypes.DOUBLE, allowNull: true },
+    dropLugsM: { type: DataTypes.STRING(200), allowNull: true },
+    topLugsM: { type: DataTypes.STRING(200), allowNull: true },
     massKg: { type: DataTypes.DOUBLE, allowNull: true },
     homeSiteId: { type: DataTypes.INTEGER, allowNull: true },
     status: { type: DataTypes.STRING(15), allowNull: false, defaultValue: "in_service" },
@@ -158,6 +164,8 @@ export type GearRow = {
   lengthM: number | null;
   hookHeightM: number | null;
   beamMassKg: number | null;
+  dropLugsM: string | null;
+  topLugsM: string | null;
   status: GearStatus;
   siteName: string | null;
   lastExaminedOn: string | null;
@@ -230,6 +238,8 @@ const ROW_ATTRIBUTES = [
   "lengthM",
   "hookHeightM",
   "beamMassKg",
+  "dropLugsM",
+  "topLugsM",
   "status",
   "lastExaminedOn",
   "nextDueOn",
@@ -254,6 +264,8 @@ function toRow(item: GearItem, today: string): GearRow {
     lengthM: item.lengthM,
     hookHeightM: item.hookHeightM,
     beamMassKg: item.beamMassKg,
+    dropLugsM: item.dropLugsM,
+    topLugsM: item.topLugsM,
     status: item.status,
     siteName: item.homeSite?.name ?? null,
     lastExaminedOn: item.lastExaminedOn,

@@ -4,6 +4,8 @@ import type { Arrangement, PlanLeg, PlanResultsBody } from "~/plans/document";
 import type { ComponentDefinition } from "~/loads/component-definition";
 import { toCheckResult } from "~/statics/api";
 import { solveBeamLift } from "~/statics/beam";
+import type { BeamGeometry } from "~/statics/beam-placement";
+import { placeBeamForPlan } from "~/plans/beam-geometry";
 import type { LiftPoint } from "~/statics/bridle";
 import type { Check, InspectionRecord, RiggingDescription } from "~/statics/check-types";
 import { grossLoads } from "~/statics/checks";
@@ -23,6 +25,24 @@ export function uniqueById<T extends { id: string }>(items: T[]): T[] {
 
 type BeamOutcome = { status: 200; body: PlanResultsBody } | { status: 422; body: { error: string; code: string } };
 
+/** The allocated beam as the checks take it: from the register item. */
+export type BeamItemSpec = BeamGeometry & {
+  itemCode: string;
+  kind: "beam" | "spreader";
+  massKg: number;
+  wllKg: number;
+  inspection?: InspectionRecord;
+};
+
+/** The beam the plan uses: the register item, else the figures typed on a plan made before (not from the register). */
+function beamInUse(arrangement: Arrangement, item: BeamItemSpec | null) {
+  if (item) return { ok: true as const, massKg: item.massKg, wllKg: item.wllKg, lengthM: item.lengthM, item };
+  const typed = arrangement.beam;
+  if (typed?.massKg !== undefined && typed.wllKg !== undefined && typed.lengthM !== undefined)
+    return { ok: true as const, massKg: typed.massKg, wllKg: typed.wllKg, lengthM: typed.lengthM, item: null };
+  return { ok: false as const };
+}
+
 export function beamResults(
   snapshot: ComponentDefinition,
   arrangement: Arrangement,
@@ -30,10 +50,19 @@ export function beamResults(
   extraChecks: Check[],
   notes: Array<{ code: string; message: string }>,
   tables: ReferenceTables,
-  context: { todayIso: string; ruleSet: RuleSetId; liftDateIso: string | null },
+  context: { todayIso: string; ruleSet: RuleSetId; liftDateIso: string | null; beamItem?: BeamItemSpec | null },
 ): BeamOutcome {
   const { ruleSet } = context;
-  const beam = arrangement.beam!;
+  const used = beamInUse(arrangement, context.beamItem ?? null);
+  if (!used.ok)
+    return {
+      status: 422,
+      body: {
+        code: "NO_BEAM",
+        error: "Allocate the lifting beam or spreader from the register: its mass, WLL and lugs come from there.",
+      },
+    };
+  const beam = { ...used, dropLengthM: arrangement.beam!.dropLengthM };
   const byLabel = new Map(snapshot.liftPoints.map((p) => [p.label, p]));
   const chosen = arrangement.liftPointLabels.map((l) => byLabel.get(l)!);
   const points: LiftPoint[] = chosen.map((p) => {
@@ -53,8 +82,10 @@ export function beamResults(
       },
     };
   }
-  // The beam hangs level with its drops; its lug is set plumb over the load's CoG (an adjustable lifting beam).
-  const beamZ = Math.max(...points.map((p) => p.position.z)) + beam.dropLengthM;
+  const placed = placeBeamForPlan(points, snapshot.cog, beam.dropLengthM, beam.item ?? { lengthM: beam.lengthM });
+  if (!placed.ok) return { status: 422, body: { error: placed.message, code: placed.code } };
+  const placement = placed.placement;
+  const beamZ = placement.beamZM;
   if (!(arrangement.hookHeightM > beamZ + 1e-6)) {
     return {
       status: 422,
@@ -64,13 +95,12 @@ export function beamResults(
       },
     };
   }
-  const dropLengths = points.map((p) => beamZ - p.position.z);
-  const lug = { x: snapshot.cog.x, y: snapshot.cog.y, z: beamZ };
+  const dropLengths = placement.drops.map((d) => d.lengthM);
   const outcome = solveBeamLift(
     snapshot.massKg,
     snapshot.cog,
     points,
-    { massKg: beam.massKg, cog: lug, topLugs: [lug] },
+    { massKg: beam.massKg, cog: placement.cog, topLugs: placement.topLugs },
     arrangement.hookHeightM,
     dropLengths,
   );
@@ -84,7 +114,7 @@ export function beamResults(
       lengthM: dropLengths[i]!,
       tensionKn: d.tensionKn,
       tensionKg: d.tensionKg,
-      angleFromVerticalDeg: 0,
+      angleFromVerticalDeg: placement.drops[i]!.angleFromVerticalDeg,
       axisAngleDeg: (Math.acos(Math.max(-1, Math.min(1, axis.z))) * 180) / Math.PI,
       verticalShare: d.share,
       slack: d.slack,
@@ -127,17 +157,20 @@ export function beamResults(
     }
   });
   const designLoadKg = snapshot.massKg * factor;
+  const beamName = beam.item ? (beam.item.kind === "spreader" ? "Spreader beam" : "Lifting beam") : "Lifting beam";
   checks.push(
     ratioCheck(
       {
         id: "beam",
         kind: "beam",
-        item: "Lifting beam",
-        itemCode: null,
+        item: beam.item ? beamName : "Lifting beam (typed on the plan, not from the register)",
+        itemCode: beam.item?.itemCode ?? null,
         position: { legs: [] },
         rule: "Load with contingency against the beam's marked WLL",
         ruleSet,
-        source: "marked WLL of the beam",
+        source: beam.item
+          ? "marked WLL of the beam (register); LOLER reg 8 / ASME B30.20 (common practice)"
+          : "WLL typed on the plan, not from the register",
         inputs: { wllKg: beam.wllKg },
       },
       designLoadKg,
@@ -145,6 +178,7 @@ export function beamResults(
       { kind: "larger-item", minWllKg: designLoadKg },
     ),
   );
+  if (beam.item?.inspection) inspections.push({ name: beamName, record: beam.item.inspection });
   const loads = grossLoads(snapshot.massKg, rigging, beam.massKg);
   if (rigging.masterLink) {
     checks.push(checkMasterLink(loads.masterLink.kg, rigging.masterLink, { ruleSet, gross: loads.masterLink.gross }));
@@ -187,7 +221,14 @@ export function beamResults(
     rating: dropRating,
     ruleSet,
     checks: unique,
-    beam: { massKg: beam.massKg, wllKg: beam.wllKg, hookMassKg: s.hookMassKg, topLegs },
+    beam: {
+      massKg: beam.massKg,
+      wllKg: beam.wllKg,
+      hookMassKg: s.hookMassKg,
+      topLegs,
+      ...(beam.item ? { itemCode: beam.item.itemCode } : {}),
+      placement,
+    },
   };
   return { status: 200, body };
 }

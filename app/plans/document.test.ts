@@ -57,7 +57,7 @@ describe("plan document schemas", () => {
       [{ ...level, legLengthsM: { A: 0 } }, /longer than zero/],
       [{ ...level, hookHeightM: Number.POSITIVE_INFINITY }, /hook height/],
       [{ ...level, hookHeightM: 5000 }, /out of range/],
-      [{ ...level, kind: "beam" }, /needs the beam's mass/],
+      [{ ...level, kind: "beam" }, /needs the length of its drops/],
       [
         { ...level, kind: "beam", mode: "lengths", beam: { massKg: 50, wllKg: 1000, lengthM: 1, dropLengthM: 0.5 } },
         /use the level mode/,

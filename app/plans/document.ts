@@ -3,6 +3,7 @@
 import { z } from "zod";
 import type { ComponentDefinition } from "~/loads/component-definition";
 import type { SolveResponseBody } from "~/statics/api";
+import type { BeamPlacement } from "~/statics/beam-placement";
 import { safeText } from "~/utils/forms";
 import {
   effectiveOverride,
@@ -53,12 +54,24 @@ const gearItemId = z
 
 // ----- arrangement -----
 
+/**
+ * The beam in a beam arrangement: the drops' length is the plan's; the beam itself is the register item
+ * allocated as `rigging.beamItemId`. Mass, WLL and length typed on the plan are kept only for plans made
+ * before beams were allocated from the register, and are used only when no beam is allocated.
+ */
 export const beamSchema = z.object({
   massKg: finite("beam's mass")
     .min(0, "The beam's mass cannot be negative.")
-    .max(100_000, "The beam's mass is at most 100,000 kg."),
-  wllKg: finite("beam's WLL").gt(0, "Give the beam's marked WLL.").max(1e8, "The beam's WLL is at most 100,000 t."),
-  lengthM: finite("beam's length").gt(0, "Give the beam's length.").max(100, "The beam is at most 100 m long."),
+    .max(100_000, "The beam's mass is at most 100,000 kg.")
+    .optional(),
+  wllKg: finite("beam's WLL")
+    .gt(0, "Give the beam's marked WLL.")
+    .max(1e8, "The beam's WLL is at most 100,000 t.")
+    .optional(),
+  lengthM: finite("beam's length")
+    .gt(0, "Give the beam's length.")
+    .max(100, "The beam is at most 100 m long.")
+    .optional(),
   dropLengthM: finite("drop length")
     .gt(0, "Give the length of the vertical drops.")
     .max(100, "A drop is at most 100 m long."),
@@ -102,7 +115,7 @@ export const arrangementSchema = z
         ctx.addIssue({
           code: "custom",
           path: ["beam"],
-          message: "A beam arrangement needs the beam's mass, WLL, length and drop length.",
+          message: "A beam arrangement needs the length of its drops.",
         });
       if (a.mode !== "level")
         ctx.addIssue({
@@ -164,6 +177,8 @@ export const riggingAllocationSchema = z.object({
   /** No master link: the planner states the crane hook takes the legs (or the beam's top rigging) directly. */
   hookTakesLegs: z.boolean({ error: "Say whether the crane hook takes the legs directly (true or false)." }).optional(),
   craneItemId: gearItemId.optional(),
+  /** The lifting beam or spreader from the register (beam arrangements). */
+  beamItemId: gearItemId.optional(),
 });
 export type RiggingAllocation = z.infer<typeof riggingAllocationSchema>;
 
@@ -347,6 +362,11 @@ export function snapshotIssues(
     if (!known.has(label))
       issues.push({ path: ["arrangement", "liftPointLabels", i], message: `The load has no lift point ${label}.` });
   });
+  if (doc.rigging.beamItemId !== undefined && doc.arrangement.kind !== "beam")
+    issues.push({
+      path: ["rigging", "beamItemId"],
+      message: "A beam is allocated but the legs go to one hook: choose the beam arrangement or remove the beam.",
+    });
   const used = new Set(doc.arrangement.liftPointLabels);
   for (const label of Object.keys(doc.rigging.legs)) {
     if (!used.has(label))
@@ -365,7 +385,16 @@ export type PlanLeg = SolveResponseBody["legs"][number];
 
 export type PlanResultsBody = SolveResponseBody & {
   /** Beam arrangements only: the beam and what it adds at the hook. */
-  beam?: { massKg: number; wllKg: number; hookMassKg: number; topLegs: PlanLeg[] };
+  beam?: {
+    massKg: number;
+    wllKg: number;
+    hookMassKg: number;
+    topLegs: PlanLeg[];
+    /** The register item the figures come from; absent on a plan whose beam was typed in (not from the register). */
+    itemCode?: string;
+    /** Where the beam hangs, component frame, m; absent on results stored before beams were placed. */
+    placement?: BeamPlacement;
+  };
 };
 
 /** Results computed by the server on every save; never taken from the browser. */

@@ -44,7 +44,7 @@ export type EditorAction =
   | {
       type: "allocate";
       label: string | null;
-      slot: "eyeboltItemId" | "shackleItemId" | "slingItemId" | "masterLinkItemId" | "craneItemId";
+      slot: "eyeboltItemId" | "shackleItemId" | "slingItemId" | "masterLinkItemId" | "craneItemId" | "beamItemId";
       itemId: number | null;
     }
   | { type: "set-hitch"; label: string; hitch: "straight" | "choke" | "basket" }
@@ -101,7 +101,9 @@ function apply(edit: PlanEdit, action: EditorAction): PlanEdit {
           legLengthsM: action.legLengthsM ?? edit.arrangement.legLengthsM,
         },
       };
-    case "set-kind":
+    case "set-kind": {
+      // A bridle hangs from no beam: the beam's allocation goes with the beam arrangement.
+      const { beamItemId: _beam, ...withoutBeam } = edit.rigging;
       return {
         ...edit,
         arrangement: {
@@ -110,7 +112,9 @@ function apply(edit: PlanEdit, action: EditorAction): PlanEdit {
           mode: action.kind === "beam" ? "level" : edit.arrangement.mode,
           beam: action.beam ?? edit.arrangement.beam,
         },
+        rigging: action.kind === "beam" ? edit.rigging : withoutBeam,
       };
+    }
     case "toggle-lift-point": {
       const used = edit.arrangement.liftPointLabels;
       const isUsed = used.includes(action.label);
@@ -151,7 +155,7 @@ function apply(edit: PlanEdit, action: EditorAction): PlanEdit {
       };
     }
     case "allocate": {
-      if (action.slot === "masterLinkItemId" || action.slot === "craneItemId") {
+      if (action.slot === "masterLinkItemId" || action.slot === "craneItemId" || action.slot === "beamItemId") {
         const rigging = { ...edit.rigging };
         if (action.itemId === null) delete rigging[action.slot];
         else rigging[action.slot] = action.itemId;

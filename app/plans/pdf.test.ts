@@ -364,6 +364,60 @@ describe("what the print says in particular cases", () => {
     expect(t).toContain("Top leg: 20.80 kN · 2,120 kg");
     expect(t).toContain("the hook carries 2,120 kg");
   });
+
+  it("draws a register spreader: two top legs from its top lugs, the beam named as the register item", async () => {
+    const base = printablePlanFixture();
+    const leg = (id: string, kg: number, deg: number) => ({
+      liftPointId: id,
+      lengthM: 0.6,
+      tensionKn: (kg * 9.80665) / 1000,
+      tensionKg: kg,
+      angleFromVerticalDeg: deg,
+      axisAngleDeg: 0,
+      verticalShare: 0.5,
+      slack: false,
+    });
+    const lug = (x: number) => ({ x, y: 0, z: 1.5 });
+    const plan = printablePlanFixture({
+      arrangement: {
+        kind: "beam",
+        mode: "level",
+        hookHeightM: 2.6,
+        legLengthsM: {},
+        liftPointLabels: ["A", "B"],
+        beam: { dropLengthM: 0.6 },
+      },
+      results: {
+        ...base.results,
+        hook: { x: 0, y: 0, z: 2.6 },
+        legs: [leg("A", 1000, 0), leg("B", 1000, 0)],
+        beam: {
+          massKg: 85,
+          wllKg: 3000,
+          hookMassKg: 2085,
+          itemCode: "SB-TEST-1",
+          topLegs: [leg("lug 1", 1100, 40), leg("lug 2", 1100, 40)],
+          placement: {
+            axis: { x: 1, y: 0, z: 0 },
+            endA: lug(-1),
+            endB: lug(1),
+            drops: [
+              { liftPointId: "A", lugIndex: 0, lug: lug(-0.8), lengthM: 0.6, angleFromVerticalDeg: 0 },
+              { liftPointId: "B", lugIndex: 1, lug: lug(0.8), lengthM: 0.6, angleFromVerticalDeg: 0 },
+            ],
+            topLugs: [lug(-0.9), lug(0.9)],
+            cog: lug(0),
+            beamZM: 1.5,
+          },
+        },
+      },
+    });
+    const { file } = await writePdf("spreader", plan);
+    const t = flat(allText(file));
+    expect(t).toContain("Top leg 1: 10.79 kN · 1,100 kg");
+    expect(t).toContain("Top leg 2: 10.79 kN · 1,100 kg");
+    expect(t).toContain("Beam: SB-TEST-1 from the register: own mass 85 kg, marked WLL 3,000 kg");
+  });
 });
 
 describe("drawingScale", () => {

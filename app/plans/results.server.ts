@@ -6,8 +6,8 @@ import type { ComponentDefinition } from "~/loads/component-definition";
 import { GearItem } from "~/models/gear-item.server";
 import { getOrganisationRuleSet } from "~/models/organisation.server";
 import { getReferenceTables } from "~/models/reference-row.server";
-import type { GearKind } from "~/gear/kinds";
-import { beamResults, uniqueById } from "~/plans/beam-results";
+import { isBeamKind, parseLugPositions, type GearKind } from "~/gear/kinds";
+import { beamResults, uniqueById, type BeamItemSpec } from "~/plans/beam-results";
 import type {
   Arrangement,
   PlanDetails,
@@ -44,7 +44,7 @@ const CRANE_KINDS: readonly GearKind[] = ["crane", "hoist", "chain_block", "leve
 type Slot = {
   path: Array<string | number>;
   itemId: number;
-  role: "eyebolt" | "shackle" | "sling" | "master link" | "crane or hoist";
+  role: "eyebolt" | "shackle" | "sling" | "master link" | "crane or hoist" | "lifting beam or spreader";
   leg?: string;
 };
 
@@ -62,6 +62,8 @@ function slotsOf(rigging: RiggingAllocation): Slot[] {
     slots.push({ path: ["rigging", "masterLinkItemId"], itemId: rigging.masterLinkItemId, role: "master link" });
   if (rigging.craneItemId !== undefined)
     slots.push({ path: ["rigging", "craneItemId"], itemId: rigging.craneItemId, role: "crane or hoist" });
+  if (rigging.beamItemId !== undefined)
+    slots.push({ path: ["rigging", "beamItemId"], itemId: rigging.beamItemId, role: "lifting beam or spreader" });
   return slots;
 }
 
@@ -79,6 +81,8 @@ function fitsRole(kind: GearKind, role: Slot["role"]): boolean {
       return kind === "master_link";
     case "crane or hoist":
       return CRANE_KINDS.includes(kind);
+    case "lifting beam or spreader":
+      return isBeamKind(kind);
   }
 }
 
@@ -121,6 +125,13 @@ export function allocationIssues(rigging: RiggingAllocation, items: ReadonlyMap<
       });
       continue;
     }
+    if (slot.role === "lifting beam or spreader" && !beamItemSpec(item)) {
+      issues.push({
+        path: slot.path,
+        message: `${item.itemCode} has no lug positions in the register: record its drop and top lugs before allocating it.`,
+      });
+      continue;
+    }
     uses.set(item.id, [...(uses.get(item.id) ?? []), slot]);
   }
   for (const [id, slots] of uses) {
@@ -135,6 +146,25 @@ export function allocationIssues(rigging: RiggingAllocation, items: ReadonlyMap<
     }
   }
   return issues;
+}
+
+/** A register beam as the beam checks take it, or null when its geometry is not recorded. */
+export function beamItemSpec(item: GearItem): BeamItemSpec | null {
+  if (!isBeamKind(item.kind)) return null;
+  const dropLugsM = parseLugPositions(item.dropLugsM);
+  const topLugsM = parseLugPositions(item.topLugsM);
+  if (!dropLugsM || !topLugsM || item.lengthM === null || item.beamMassKg === null) return null;
+  const inspection = inspectionOf(item);
+  return {
+    itemCode: item.itemCode,
+    kind: item.kind,
+    lengthM: item.lengthM,
+    dropLugsM,
+    topLugsM,
+    massKg: item.beamMassKg,
+    wllKg: item.wllKg,
+    ...(inspection ? { inspection } : {}),
+  };
 }
 
 function inspectionOf(item: GearItem): InspectionRecord | undefined {
@@ -351,10 +381,26 @@ export async function computePlanResults(
     todayIso,
   });
   if (arrangement.kind === "beam") {
+    const beamItem = rigging.beamItemId !== undefined ? items.get(rigging.beamItemId) : undefined;
+    const beamSpec = beamItem ? beamItemSpec(beamItem) : null;
+    if (beamItem && beamSpec && !beamSpec.inspection)
+      extraChecks.push(
+        checkNeverExamined(
+          beamItem.kind === "spreader" ? "Spreader beam" : "Lifting beam",
+          beamItem.itemCode,
+          todayIso,
+          {
+            ruleSet,
+            tables,
+            liftDateIso: liftDate ?? null,
+          },
+        ),
+      );
     const beam = beamResults(snapshot, arrangement, description, extraChecks, notes, tables, {
       todayIso,
       ruleSet,
       liftDateIso: liftDate ?? null,
+      beamItem: beamSpec,
     });
     return beam.status === 200 ? { ...base, status: 200, body: beam.body } : { ...base, status: 422, body: beam.body };
   }

@@ -13,7 +13,7 @@ import type {
   SlingSpec,
 } from "~/statics/check-types";
 
-export type GearRole = "eyebolt" | "shackle" | "sling" | "masterLink" | "crane";
+export type GearRole = "eyebolt" | "shackle" | "sling" | "masterLink" | "crane" | "beam";
 
 export const GEAR_ROLE_LABELS: Record<GearRole, string> = {
   eyebolt: "Eyebolt",
@@ -21,6 +21,7 @@ export const GEAR_ROLE_LABELS: Record<GearRole, string> = {
   sling: "Sling",
   masterLink: "Master link",
   crane: "Crane or hoist",
+  beam: "Lifting beam or spreader",
 };
 
 /** A register item as the editor's picker shows it, with the spec the checks need. */
@@ -43,7 +44,18 @@ export type GearPick = {
     | { role: "shackle"; shackle: Omit<ShackleSpec, "inspection"> }
     | { role: "sling"; sling: Omit<SlingSpec, "inspection" | "hitch"> }
     | { role: "masterLink"; masterLink: Omit<MasterLinkSpec, "inspection"> }
-    | { role: "crane"; crane: Omit<CraneSpec, "inspection"> };
+    | { role: "crane"; crane: Omit<CraneSpec, "inspection"> }
+    | {
+        role: "beam";
+        /** The beam's geometry from the register (null where its lugs are not recorded), m from end A; kg. */
+        beam: {
+          kind: "beam" | "spreader";
+          lengthM: number;
+          dropLugsM: number[];
+          topLugsM: number[];
+          massKg: number;
+        } | null;
+      };
 };
 
 function inspection(pick: GearPick): InspectionRecord | undefined {

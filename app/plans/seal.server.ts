@@ -80,6 +80,8 @@ export function allocatedSlots(rigging: RiggingAllocation, legWord = "Leg"): Slo
       itemId: rigging.craneItemId,
       checkId: "crane-load",
     });
+  if (rigging.beamItemId)
+    slots.push({ position: "Lifting beam", slot: "beam", leg: null, itemId: rigging.beamItemId, checkId: "beam" });
   return slots;
 }
 

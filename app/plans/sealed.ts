@@ -5,7 +5,7 @@ import type { ComponentDefinition } from "~/loads/component-definition";
 import type { LoadOverrideMark } from "~/plans/load-override";
 import type { Arrangement, PlanDetails, PlanResultsBody, RiggingAllocation } from "~/plans/document";
 
-export type GearSlot = "eyebolt" | "shackle" | "sling" | "masterLink" | "crane";
+export type GearSlot = "eyebolt" | "shackle" | "sling" | "masterLink" | "crane" | "beam";
 
 /** One allocated item as it was when the revision was approved, with what it carries in the plan. */
 export type SealedItem = {

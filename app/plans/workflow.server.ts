@@ -62,7 +62,12 @@ function hasAllocatedGear(rigging: RiggingAllocation): boolean {
   const legItems = Object.values(rigging.legs).some(
     (leg) => leg.eyeboltItemId !== undefined || leg.shackleItemId !== undefined || leg.slingItemId !== undefined,
   );
-  return legItems || rigging.masterLinkItemId !== undefined || rigging.craneItemId !== undefined;
+  return (
+    legItems ||
+    rigging.masterLinkItemId !== undefined ||
+    rigging.craneItemId !== undefined ||
+    rigging.beamItemId !== undefined
+  );
 }
 
 function checksOf(results: PlanResults): CheckResult[] {

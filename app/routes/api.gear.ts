@@ -9,8 +9,8 @@ import { requireUser } from "~/utils/session.server";
 const querySchema = z.object({
   query: searchText().pipe(safeText().max(100, "The search is at most 100 characters.")).default(""),
   role: z
-    .enum(["eyebolt", "shackle", "sling", "masterLink", "crane"], {
-      error: "role is one of eyebolt, shackle, sling, masterLink, crane.",
+    .enum(["eyebolt", "shackle", "sling", "masterLink", "crane", "beam"], {
+      error: "role is one of eyebolt, shackle, sling, masterLink, crane, beam.",
     })
     .optional(),
   limit: z.coerce.number().int().min(1).max(200).default(50),

@@ -22,6 +22,7 @@ function allocatedIds(rigging: RiggingAllocation) {
     for (const id of [leg.eyeboltItemId, leg.shackleItemId, leg.slingItemId]) if (id !== undefined) ids.push(id);
   if (rigging.masterLinkItemId !== undefined) ids.push(rigging.masterLinkItemId);
   if (rigging.craneItemId !== undefined) ids.push(rigging.craneItemId);
+  if (rigging.beamItemId !== undefined) ids.push(rigging.beamItemId);
   return ids;
 }
 

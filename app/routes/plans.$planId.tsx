@@ -1,3 +1,4 @@
+import { beamLine } from "~/plans/beam-text";
 import { data, Form, redirect } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/plans.$planId";
@@ -355,15 +356,17 @@ export default function PlanPage({ loaderData, actionData }: Route.ComponentProp
                 <div>
                   <dt className="text-ink-soft">Beam</dt>
                   <dd>
-                    {formatLength(a.beam.lengthM, units)} long, {formatMass(a.beam.massKg, units)}, WLL{" "}
-                    {formatMass(a.beam.wllKg, units)}, drops {formatLength(a.beam.dropLengthM, units)}
+                    {beamLine(a, revision.results.status === 200 ? revision.results.body.beam : undefined, units)}
                   </dd>
                 </div>
               )}
               <div>
                 <dt className="text-ink-soft">Gear allocated</dt>
                 <dd>
-                  {Object.keys(rigging.legs).length === 0 && !rigging.craneItemId && !rigging.masterLinkItemId
+                  {Object.keys(rigging.legs).length === 0 &&
+                  !rigging.craneItemId &&
+                  !rigging.masterLinkItemId &&
+                  !rigging.beamItemId
                     ? "None yet"
                     : Object.entries(rigging.legs)
                         .map(
@@ -373,6 +376,7 @@ export default function PlanPage({ loaderData, actionData }: Route.ComponentProp
                         .concat(
                           rigging.masterLinkItemId ? ["master link"] : [],
                           rigging.craneItemId ? ["crane or hoist"] : [],
+                          rigging.beamItemId ? ["lifting beam or spreader"] : [],
                         )
                         .join(" · ")}
                 </dd>

@@ -57,6 +57,12 @@ export interface BeamLiftSolution {
   warnings: SolveWarning[];
 }
 
+/**
+ * Most a beam on one top lug may hang out of level and still be planned as level, deg (common practice:
+ * a beam is set level by eye within about a degree; beyond that choose a lug above the CoG).
+ */
+export const BEAM_TILT_LIMIT_DEG = 1;
+
 export type BeamOutcome<T> = { ok: true; solution: T } | { ok: false; code: string; message: string };
 
 /**
@@ -283,7 +289,28 @@ export function solveBeamLift(
     y: (massKg * cog.y + beam.massKg * beam.cog.y) / hookMassKg,
     z: (massKg * cog.z + beam.massKg * beam.cog.z) / hookMassKg,
   };
-  const lugs: LiftPoint[] = beam.topLugs.map((p, i) => ({
+  const warnings: SolveWarning[] = [];
+  let topLugs = beam.topLugs;
+  if (topLugs.length === 1) {
+    // One top lug: the beam and load swing about it until their CoG hangs below it.
+    const lug = topLugs[0]!;
+    const off = Math.hypot(lug.x - combinedCog.x, lug.y - combinedCog.y);
+    const tiltDeg = (Math.atan2(off, Math.max(lug.z - combinedCog.z, 0)) * 180) / Math.PI;
+    if (tiltDeg > BEAM_TILT_LIMIT_DEG) {
+      return {
+        ok: false,
+        code: "BEAM_NOT_BALANCED",
+        message: `The beam's top lug is ${Math.round(off * 1000)} mm from above the CoG of beam and load, so they would hang about ${tiltDeg.toFixed(1)}° out of level: use a beam whose top lug sits above the CoG, or one with an adjustable lug.`,
+      };
+    }
+    if (off > 0.001)
+      warnings.push({
+        code: "BEAM_TILTS",
+        message: `The beam's top lug is ${Math.round(off * 1000)} mm from above the CoG of beam and load: the beam hangs about ${tiltDeg.toFixed(1)}° out of level.`,
+      });
+    topLugs = [{ x: combinedCog.x, y: combinedCog.y, z: lug.z }];
+  }
+  const lugs: LiftPoint[] = topLugs.map((p, i) => ({
     id: `lug ${i + 1}`,
     position: p,
     axis: { x: 0, y: 0, z: 1 },
@@ -299,7 +326,7 @@ export function solveBeamLift(
       hookMassKg,
       combinedCog,
       top: top.solution,
-      warnings: [...drops.solution.warnings, ...top.solution.warnings],
+      warnings: [...drops.solution.warnings, ...warnings, ...top.solution.warnings],
     },
   };
 }

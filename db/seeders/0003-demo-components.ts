@@ -100,7 +100,7 @@ export const DEMO_COMPONENTS: ComponentDefinition[] = [
   {
     name: "P4 drive motor, 75 kW",
     description:
-      "Foot-mounted induction motor driving pump P4; lifted from a spreader beam to keep the slings off the terminal box.",
+      "Foot-mounted induction motor driving pump P4; lifted from a lifting beam to keep the slings off the terminal box.",
     massKg: 520,
     massSource: "certified",
     massNote: "Rating plate",

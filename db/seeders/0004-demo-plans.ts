@@ -87,7 +87,7 @@ const DEMO_PLANS: DemoPlan[] = [
   {
     workOrder: "KR-24130",
     componentName: "P4 drive motor, 75 kW",
-    title: "Lift the P4 drive motor on the spreader beam",
+    title: "Lift the P4 drive motor on the lifting beam",
     sling: { kinds: ["web_sling", "round_sling"] },
     masterLink: false,
     hazards: [
@@ -137,14 +137,13 @@ export async function up() {
     const found = (await getPlan(organisationId, created.plan.id))!;
     const snapshot = found.revision.snapshot;
     let arrangement = found.revision.arrangement;
-    const beamItem = demo.workOrder === "KR-24130" ? take(await findItems(organisationId, ["beam"])) : undefined;
+    const beamItem =
+      demo.workOrder === "KR-24130"
+        ? take(await findItems(organisationId, ["beam"]), (b) => b.itemCode === "KR-LB-100")
+        : undefined;
     if (demo.workOrder === "KR-24130") {
-      const beam = {
-        massKg: beamItem?.beamMassKg ?? 85,
-        wllKg: beamItem?.wllKg ?? 3000,
-        lengthM: beamItem?.lengthM ?? 2,
-        dropLengthM: 0.6,
-      };
+      // The beam's length, lugs, mass and WLL come from the register item allocated below.
+      const beam = { dropLengthM: 0.6 };
       const top = Math.max(...snapshot.liftPoints.map((p) => p.position.z)) + beam.dropLengthM;
       arrangement = { ...arrangement, kind: "beam", mode: "level", hookHeightM: Number((top + 0.8).toFixed(3)), beam };
     }
@@ -152,7 +151,7 @@ export async function up() {
     const eyebolts = await findItems(organisationId, ["eyebolt"]);
     const shackles = await findItems(organisationId, ["shackle"], { shackleType: "bow" });
     const slings = await findItems(organisationId, demo.sling.kinds);
-    const rigging: RiggingAllocation = { legs: {} };
+    const rigging: RiggingAllocation = { legs: {}, ...(beamItem ? { beamItemId: beamItem.id } : {}) };
     // Size each leg's shackle and sling for its design tension with contingency from the first solve (a beam drop for the whole load).
     const factor = 1 + snapshot.contingencyPct / 100;
     const first = found.revision.results;

@@ -350,16 +350,34 @@ export const DEMO_GEAR: DemoItem[] = [
   {
     item: {
       itemCode: "KR-BM-300",
-      kind: "beam",
+      kind: "spreader",
       description: "Spreader beam 3 t, 2 m span",
       wllValue: 3,
       wllUnit: "t",
       lengthM: 2,
       beamMassKg: 85,
+      dropLugsM: "0.1, 1.9",
+      topLugsM: "0.1, 1.9",
       manufacturer: "Kestrel workshop",
       serial: "KRW-SB-003",
     },
     dueInDays: 120,
+  },
+  {
+    item: {
+      itemCode: "KR-LB-100",
+      kind: "beam",
+      description: "Lifting beam 1 t, 0.8 m, drop lugs 520 mm apart, top lug at mid-length",
+      wllValue: 1,
+      wllUnit: "t",
+      lengthM: 0.8,
+      beamMassKg: 38,
+      dropLugsM: "0.14, 0.66",
+      topLugsM: "0.4",
+      manufacturer: "Kestrel workshop",
+      serial: "KRW-LB-011",
+    },
+    dueInDays: 200,
   },
   {
     item: {

@@ -1,10 +1,11 @@
-// The rigging drawn between the hook and the used lift points: straight legs to one hook, or a lifting beam
-// with vertical drops. Each leg or drop takes the colour of its worst check.
-import { Group, Line } from "react-konva";
+// The rigging drawn between the hook and the used lift points: straight legs to one hook, or a beam placed
+// true with its drops and top rigging. Each leg or drop takes the colour of its worst check.
+import { Circle, Group, Line } from "react-konva";
 import type { LegFigure } from "~/components/plan-canvas.client";
 import { COLOURS } from "~/components/plan-canvas/colours";
 import { project } from "~/components/plan-canvas/projection";
 import type { DrawingView, PlanEdit, Vec3 } from "~/plans/editor-state";
+import type { BeamPlacement } from "~/statics/beam-placement";
 
 type ScreenPoint = { x: number; y: number };
 type ToScreen = (a: number, b: number) => ScreenPoint;
@@ -47,55 +48,71 @@ export function BridleLegs({
     });
 }
 
-/** A lifting beam at beamZM: its lug over the CoG, a vertical drop to each used lift point. */
+/**
+ * The beam drawn true: along its axis at its length and height, a drop from each of its drop lugs to the lift
+ * point it carries, the top rigging from the hook to its top lug(s). In the view along its axis the beam is
+ * seen end on, as it is.
+ */
 export function BeamDrops({
   edit,
   view,
   legs,
   hookScreen,
-  usedLabels,
-  beamZM,
+  placement,
   S,
 }: {
   edit: PlanEdit;
   view: DrawingView;
   legs: LegFigure[];
   hookScreen: ScreenPoint;
-  usedLabels: ReadonlySet<string>;
-  beamZM: number;
+  placement: BeamPlacement;
   S: ToScreen;
 }) {
-  const used = edit.liftPoints.filter((p) => usedLabels.has(p.label));
-  const lug = project({ x: edit.cog.x, y: edit.cog.y, z: beamZM }, view);
-  const lugScreen = S(lug.a, lug.b);
-  const ends = used.map((p) => project({ ...p.position, z: beamZM }, view));
-  const as = ends.map((e) => e.a);
-  const beamStart =
-    view === "elevation" ? S(Math.min(...as, lug.a), lug.b) : S(ends[0]?.a ?? lug.a, ends[0]?.b ?? lug.b);
-  const beamEnd =
-    view === "elevation" ? S(Math.max(...as, lug.a), lug.b) : S(ends.at(-1)?.a ?? lug.a, ends.at(-1)?.b ?? lug.b);
+  const at = (p: { x: number; y: number; z: number }) => {
+    const v = project(p, view);
+    return S(v.a, v.b);
+  };
+  const endA = at(placement.endA);
+  const endB = at(placement.endB);
   return (
     <Group>
-      {used.map((p) => {
-        const figure = legs.find((l) => l.label === p.label);
-        const bottom = S(project(p.position, view).a, project(p.position, view).b);
-        const top = S(project({ ...p.position, z: beamZM }, view).a, project({ ...p.position, z: beamZM }, view).b);
+      {placement.drops.map((d) => {
+        const point = edit.liftPoints.find((p) => p.label === d.liftPointId);
+        if (!point) return null;
+        const figure = legs.find((l) => l.label === d.liftPointId);
+        const top = at(d.lug);
+        const bottom = at(point.position);
         return (
           <Line
-            key={`drop-${p.label}`}
+            key={`drop-${d.liftPointId}`}
             points={[top.x, top.y, bottom.x, bottom.y]}
             stroke={COLOURS[figure?.tone ?? "none"]}
-            strokeWidth={3}
+            strokeWidth={figure?.tone === "fail" ? 4 : 3}
+            dash={figure?.slack ? [8, 6] : undefined}
           />
         );
       })}
-      <Line
-        points={[beamStart.x, beamStart.y, beamEnd.x, beamEnd.y]}
-        stroke={COLOURS.ink}
-        strokeWidth={8}
-        lineCap="round"
-      />
-      <Line points={[hookScreen.x, hookScreen.y, lugScreen.x, lugScreen.y]} stroke={COLOURS.ink} strokeWidth={3} />
+      <Line points={[endA.x, endA.y, endB.x, endB.y]} stroke={COLOURS.ink} strokeWidth={8} lineCap="round" />
+      {placement.topLugs.map((lug, i) => {
+        const s = at(lug);
+        return (
+          <Line key={`top-${i}`} points={[hookScreen.x, hookScreen.y, s.x, s.y]} stroke={COLOURS.ink} strokeWidth={3} />
+        );
+      })}
+      {[...placement.drops.map((d) => d.lug), ...placement.topLugs].map((lug, i) => {
+        const s = at(lug);
+        return (
+          <Circle
+            key={`lug-${i}`}
+            x={s.x}
+            y={s.y}
+            radius={3}
+            fill={COLOURS.fill}
+            stroke={COLOURS.ink}
+            strokeWidth={1.5}
+          />
+        );
+      })}
     </Group>
   );
 }

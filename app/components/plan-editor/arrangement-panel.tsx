@@ -84,12 +84,7 @@ export function ArrangementPanel({
               dispatch({
                 type: "set-kind",
                 kind: "beam",
-                beam: edit.arrangement.beam ?? {
-                  massKg: 60,
-                  wllKg: 2000,
-                  lengthM: Math.max(snapshot.lengthM, 0.5),
-                  dropLengthM: 0.6,
-                },
+                beam: edit.arrangement.beam ?? { dropLengthM: 0.6 },
               })
             }
           />{" "}
@@ -145,9 +140,9 @@ export function ArrangementPanel({
       </p>
       {edit.arrangement.kind === "beam" && edit.arrangement.beam && (
         <p className="text-sm text-ink-soft">
-          Beam: {formatLength(edit.arrangement.beam.lengthM, units)} long, drops{" "}
-          {formatLength(edit.arrangement.beam.dropLengthM, units)}, its mass and WLL as on the plan&apos;s details. Beam
-          figures are worked out by the server on each save.
+          Drops {formatLength(edit.arrangement.beam.dropLengthM, units)}; the beam&apos;s length, lugs, mass and WLL
+          come from the register item allocated as the beam (Gear). Beam figures are worked out by the server on each
+          save.
         </p>
       )}
       <div className="overflow-x-auto">

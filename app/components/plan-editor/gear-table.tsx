@@ -125,6 +125,31 @@ export function GearTable({
                 </tr>
               );
             })}
+            {edit.arrangement.kind === "beam" && (
+              <tr>
+                <td className="font-semibold">Beam</td>
+                <td colSpan={5}>
+                  <span className="block text-xs text-ink-soft">
+                    Lifting beam or spreader: its length, lugs, own mass and WLL come from the register
+                  </span>
+                  <GearPicker
+                    role="beam"
+                    label="Lifting beam or spreader"
+                    selected={
+                      edit.rigging.beamItemId !== undefined ? (picks.get(edit.rigging.beamItemId) ?? null) : null
+                    }
+                    thread={null}
+                    loadKg={snapshot.massKg * (1 + snapshot.contingencyPct / 100)}
+                    disabled={!canEdit}
+                    units={units}
+                    onPick={(pick) => {
+                      if (pick) addPick(pick);
+                      dispatch({ type: "allocate", label: null, slot: "beamItemId", itemId: pick?.id ?? null });
+                    }}
+                  />
+                </td>
+              </tr>
+            )}
             <tr>
               <td className="font-semibold">Top</td>
               <td colSpan={2}>

@@ -1,4 +1,6 @@
 // The rigging drawing: elevation and plan to one stated scale, with the legs' figures labelled.
+import { placeBeamForPlan } from "~/plans/beam-geometry";
+import type { BeamPlacement } from "~/statics/beam-placement";
 import type { PlanLeg } from "~/plans/document";
 import { degText, knText, tensionMassNumber } from "~/plans/pdf/format";
 import {
@@ -61,9 +63,23 @@ type ViewGeometry = {
   /** Leg lines with the figures they carry. */
   legs: Array<{ name: string; from: V2; to: V2; leg: PlanLeg | null; note?: string }>;
   beam: Seg | null;
-  /** Points that do not carry figures (the beam's lug). */
+  /** Points that do not carry figures (the beam's lugs). */
   extra: V2[];
 };
+
+/** Where a beam typed on a plan (results stored before beams were placed) hangs, as those plans were solved. */
+function storedPlanPlacement(plan: PrintablePlan): BeamPlacement | null {
+  const { snapshot, arrangement } = plan;
+  if (!arrangement.beam || arrangement.beam.lengthM === undefined) return null;
+  const points = arrangement.liftPointLabels.flatMap((label) => {
+    const p = snapshot.liftPoints.find((q) => q.label === label);
+    return p ? [{ id: label, position: p.position }] : [];
+  });
+  const placed = placeBeamForPlan(points, snapshot.cog, arrangement.beam.dropLengthM, {
+    lengthM: arrangement.beam.lengthM,
+  });
+  return placed.ok ? placed.placement : null;
+}
 
 function viewGeometry(plan: PrintablePlan, view: ViewKind): ViewGeometry {
   const { snapshot, arrangement, results } = plan;
@@ -81,29 +97,29 @@ function viewGeometry(plan: PrintablePlan, view: ViewKind): ViewGeometry {
   const extra: V2[] = [];
   const point = (label: string) => snapshot.liftPoints.find((p) => p.label === label)?.position;
   if (arrangement.kind === "beam" && arrangement.beam) {
-    const tops = results.legs.map((l) => point(l.liftPointId)).filter((p) => p !== undefined);
-    const beamZ = Math.max(...tops.map((p) => p.z)) + arrangement.beam.dropLengthM;
-    for (const l of results.legs) {
-      const p = point(l.liftPointId);
-      if (p)
+    // Drawn true: the beam along its axis at its length, drops from its lugs, top rigging from its top lug(s).
+    const placement = results.beam?.placement ?? storedPlanPlacement(plan);
+    if (placement) {
+      for (const l of results.legs) {
+        const p = point(l.liftPointId);
+        const drop = placement.drops.find((d) => d.liftPointId === l.liftPointId);
+        if (p && drop)
+          legs.push({ name: `Drop ${l.liftPointId}`, from: project(drop.lug, view), to: project(p, view), leg: l });
+      }
+      beam = { from: project(placement.endA, view), to: project(placement.endB, view) };
+      const topLegs = results.beam?.topLegs ?? [];
+      placement.topLugs.forEach((lug, i) => {
+        const at = project(lug, view);
+        extra.push(at);
         legs.push({
-          name: `Drop ${l.liftPointId}`,
-          from: project({ ...p, z: beamZ }, view),
-          to: project(p, view),
-          leg: l,
+          name: placement.topLugs.length > 1 ? `Top leg ${i + 1}` : "Top leg",
+          from: hook,
+          to: at,
+          leg: topLegs[i] ?? null,
         });
+      });
+      for (const d of placement.drops) extra.push(project(d.lug, view));
     }
-    const lug = project({ x: snapshot.cog.x, y: snapshot.cog.y, z: beamZ }, view);
-    const ends = tops.map((p) => project({ ...p, z: beamZ }, view));
-    if (view === "elevation") {
-      const as = [...ends.map((e) => e.a), lug.a];
-      beam = { from: { a: Math.min(...as), b: lug.b }, to: { a: Math.max(...as), b: lug.b } };
-    } else if (ends.length > 0) {
-      beam = { from: ends[0]!, to: ends.at(-1)! };
-    }
-    extra.push(lug);
-    const top = results.beam?.topLegs[0] ?? null;
-    legs.push({ name: "Top leg", from: hook, to: lug, leg: top });
   } else {
     for (const l of results.legs) {
       const p = point(l.liftPointId);
@@ -235,12 +251,20 @@ function drawView(
   if (g.beam) {
     const s = P(g.beam.from);
     const e = P(g.beam.to);
-    const pad = g.kind === "elevation" ? 6 : 0;
-    page.drawLine({ start: { x: s.x - pad, y: s.y }, end: { x: e.x + pad, y: e.y }, thickness: 5, color: STEEL });
-    segments.push(
-      { x1: s.x - pad, y1: s.y - 3, x2: e.x + pad, y2: e.y - 3 },
-      { x1: s.x - pad, y1: s.y + 3, x2: e.x + pad, y2: e.y + 3 },
-    );
+    if (Math.hypot(e.x - s.x, e.y - s.y) < 2) {
+      // Seen end on: the beam's section, a small square.
+      page.drawRectangle({ x: s.x - 3, y: s.y - 3, width: 6, height: 6, color: STEEL });
+      segments.push({ x1: s.x - 3, y1: s.y - 3, x2: s.x + 3, y2: s.y + 3 });
+    } else {
+      page.drawLine({ start: s, end: e, thickness: 5, color: STEEL });
+      const len = Math.hypot(e.x - s.x, e.y - s.y);
+      const nx = (-(e.y - s.y) / len) * 3;
+      const ny = ((e.x - s.x) / len) * 3;
+      segments.push(
+        { x1: s.x + nx, y1: s.y + ny, x2: e.x + nx, y2: e.y + ny },
+        { x1: s.x - nx, y1: s.y - ny, x2: e.x - nx, y2: e.y - ny },
+      );
+    }
   }
   for (const v of g.extra) {
     const p = P(v);

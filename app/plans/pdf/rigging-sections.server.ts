@@ -1,5 +1,6 @@
 // Sections 3 to 5 of the printed plan: the rigging arrangement with its drawing and leg loads, the
 // rigging schedule, and the checks.
+import { beamLine } from "~/plans/beam-text";
 import type { PlanLeg } from "~/plans/document";
 import { riggingDrawing, VIEW_MAX_H } from "~/plans/pdf/drawing.server";
 import { degText, knText, loadText, percentUp, tensionMassNumber, utcText, VERDICT } from "~/plans/pdf/format";
@@ -67,7 +68,7 @@ export function riggingSection(flow: Flow, plan: PrintablePlan) {
       ? `Hook set ${formatLength(plan.results.hook.z, units)} above the load's datum (z = 0), plumb over the CoG.`
       : `Legs of the given lengths; the load hangs ${degText(plan.results.tiltDeg)} from level.`,
     beam
-      ? `Beam: own mass ${formatMass(beam.massKg, units)}, marked WLL ${formatMass(beam.wllKg, units)}, drops ${formatLength(beam.dropLengthM, units)}; the hook carries ${loadText(plan.results.beam?.hookMassKg ?? 0, units)}.`
+      ? `Beam: ${beamLine(plan.arrangement, plan.results.beam, units)}; the hook carries ${loadText(plan.results.beam?.hookMassKg ?? 0, units)}.`
       : "",
     `Worked out under the ${RULE_SET_TITLES[plan.results.ruleSet ?? DEFAULT_RULE_SET]} rule set: its hitch and multi-leg factors, angle limits, eyebolt and shackle tables and examination intervals. Local lifting regulations and the appointed person decide.`,
     `${plan.results.method === "elastic" ? "Shared between the legs elastically (a rigid load on equal slings)" : "Found by statics alone (the legs' share is fixed by the geometry)"}. ${plan.results.rating.rule}`,
