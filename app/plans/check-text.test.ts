@@ -2,7 +2,7 @@
 import { describe, expect, it } from "vitest";
 import { REFERENCE_TABLES } from "../../db/seeders/reference-data";
 import { checkCraneLoad, checkLegAngle, checkShackle, checkSlingLeg } from "~/statics/checks";
-import { toCheckResult } from "~/statics/api";
+import { toCheckResult } from "~/statics/response";
 import {
   checkSentence,
   fixText,

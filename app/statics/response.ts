@@ -1,0 +1,76 @@
+// The shape of a solved arrangement as /api/solve answers it and plans store it.
+import { checkSentence } from "~/plans/check-text";
+import type { BridleSolution } from "./bridle";
+import type { Check, CheckResult } from "./check-types";
+import { DEFAULT_RULE_SET, type RuleSetId } from "./reference";
+
+export interface SolveLegBody {
+  liftPointId: string;
+  lengthM: number;
+  tensionKn: number;
+  tensionKg: number;
+  angleFromVerticalDeg: number;
+  axisAngleDeg: number;
+  verticalShare: number;
+  slack: boolean;
+}
+
+export interface SolveResponseBody {
+  mode: "level" | "lengths";
+  weightKn: number;
+  method: "determinate" | "elastic";
+  hook: { x: number; y: number; z: number };
+  tiltDeg: number;
+  legs: SolveLegBody[];
+  warnings: Array<{ code: string; message: string }>;
+  rating: BridleSolution["rating"];
+  /** The rule set the checks applied (absent only in results stored before rule sets). */
+  ruleSet?: RuleSetId;
+  /** Every solve answers with the leg-angle checks; rigging adds a check per item (optional only for results stored before). */
+  checks?: CheckResult[];
+}
+
+/** A solved arrangement: a bridle's body, and for a beam the beam and what it adds at the hook. */
+export type ArrangementBody = SolveResponseBody & {
+  beam?: { massKg: number; wllKg: number; hookMassKg: number; topLegs: SolveLegBody[] };
+};
+
+/** The arrangement hangs (200) or cannot hang as given (422, with the reason's code). */
+export type ArrangementOutcome =
+  { status: 200; body: ArrangementBody } | { status: 422; body: { error: string; code: string } };
+
+/** A structured check as the API answers it: with the older `status` and a metric `message`, so existing clients keep working. */
+export function toCheckResult(check: Check): CheckResult {
+  return { ...check, status: check.verdict, message: checkSentence(check, "metric", { withUtilisation: true }) };
+}
+
+/** One check per id: a multi-leg sling on several legs is inspected once. */
+export function uniqueById<T extends { id: string }>(items: T[]): T[] {
+  const seen = new Set<string>();
+  return items.filter((c) => (seen.has(c.id) ? false : (seen.add(c.id), true)));
+}
+
+/** Maps a core solution to the 200 body of /api/solve (checks added by the caller). */
+export function toResponseBody(solution: BridleSolution, ruleSet: RuleSetId = DEFAULT_RULE_SET): SolveResponseBody {
+  return {
+    mode: solution.mode,
+    weightKn: solution.weightKn,
+    method: solution.method,
+    hook: { x: solution.hook.x, y: solution.hook.y, z: solution.hook.z },
+    tiltDeg: solution.tiltDeg,
+    legs: solution.legs.map((l) => ({
+      liftPointId: l.liftPointId,
+      lengthM: l.lengthM,
+      tensionKn: l.tensionKn,
+      tensionKg: l.tensionKg,
+      angleFromVerticalDeg: l.angleFromVerticalDeg,
+      axisAngleDeg: l.axisAngleDeg,
+      verticalShare: l.verticalShare,
+      slack: l.slack,
+    })),
+    warnings: solution.warnings.map((w) => ({ code: w.code, message: w.message })),
+    rating: solution.rating,
+    ruleSet,
+    checks: [],
+  };
+}
