@@ -10,6 +10,7 @@ import {
   SHACKLE_TYPES,
   SPEC_FIELD_LABELS,
   SPEC_FIELDS,
+  WLL_UNIT_LABELS,
   WLL_UNITS,
   type GearKind,
   type GearStatus,
@@ -17,6 +18,8 @@ import {
 } from "~/gear/kinds";
 import type { MassUnit } from "~/statics/units";
 import { safeText } from "~/utils/forms";
+import { readTypedQuantity } from "~/utils/numbers";
+import { optionalAmountField, readMarkedAmount } from "~/utils/quantities";
 
 const trimmed = (v: unknown) => (typeof v === "string" ? v.trim() : v == null ? "" : v);
 const blankToNull = (v: unknown) => {
@@ -86,11 +89,11 @@ const specShape = {
       )
       .nullable(),
   ),
-  diameterMm: optionalNumber("diameter", { min: 1, max: 500 }),
+  diameterMm: optionalAmountField("diameter", "length", "mm", "mm", { min: 1, max: 500 }),
   legs: optionalNumber("number of legs", { min: 1, max: 4, integer: true }),
-  lengthM: optionalNumber("length", { min: 0.05, max: 200 }),
-  hookHeightM: optionalNumber("hook height", { min: 0.5, max: 200 }),
-  beamMassKg: optionalNumber("beam mass", { min: 0.1, max: 100_000 }),
+  lengthM: optionalAmountField("length", "length", "m", "m", { min: 0.05, max: 200 }),
+  hookHeightM: optionalAmountField("hook height", "length", "m", "m", { min: 0.5, max: 200 }),
+  beamMassKg: optionalAmountField("beam mass", "mass", "kg", "kg", { min: 0.1, max: 100_000 }),
 } satisfies Record<SpecField, z.ZodType>;
 
 /** The fields of a gear item as a form or a CSV row gives them (strings), checked against its kind. */
@@ -110,20 +113,27 @@ export const gearItemSchema = z
     description: text(300),
     manufacturer: text(120),
     serial: text(80),
-    wllValue: z.preprocess(
-      (v) => {
-        const t = blankToNull(v);
-        return typeof t === "string" ? Number(t.replace(/,/g, "")) : t;
-      },
-      z
-        .number({ error: "Enter the WLL marked on the item, as a number." })
-        .refine((n) => Number.isFinite(n), "Enter the WLL marked on the item, as a number.")
-        .refine((n) => n > 0, "The WLL must be more than zero.")
-        .refine(
-          (n) => n <= 1_000_000,
-          "That WLL is beyond anything the register holds; check the figure and its unit.",
-        ),
-    ),
+    // Read here for its number (so a mistyped figure is named at once); its unit is checked against wllUnit below.
+    wllValue: z
+      .preprocess((v) => (typeof v === "number" ? String(v) : typeof v === "string" ? v.trim() : ""), z.string())
+      .transform((text, ctx): string => {
+        const input = text;
+        // Text that is no figure at all gets the field's own sentence; a figure is read, or refused saying why.
+        const read = /^[+\-\u2212]?[\d.,]/.test(text) ? readTypedQuantity(text) : null;
+        const message =
+          read === null
+            ? "Enter the WLL marked on the item, as a number."
+            : !read.ok
+              ? read.message
+              : !(read.value > 0)
+                ? "The WLL must be more than zero."
+                : read.value > 1_000_000
+                  ? "That WLL is beyond anything the register holds; check the figure and its unit."
+                  : null;
+        if (message === null) return text;
+        ctx.issues.push({ code: "custom", input, message });
+        return z.NEVER;
+      }),
     wllUnit: z.preprocess(
       (v) => {
         const t = trimmed(v);
@@ -132,7 +142,7 @@ export const gearItemSchema = z
       z.enum(WLL_UNITS, { error: "Choose the WLL's unit as marked: kg, t, lb or shortTon." }),
     ),
     ...specShape,
-    massKg: optionalNumber("item's own mass", { min: 0, max: 100_000 }),
+    massKg: optionalAmountField("item's own mass", "mass", "kg", "kg", { min: 0, max: 100_000 }),
   })
   .superRefine((item, ctx) => {
     const info = GEAR_KIND_INFO[item.kind];
@@ -153,6 +163,14 @@ export const gearItemSchema = z
         });
       }
     }
+  })
+  .transform((item, ctx) => {
+    const wll = readMarkedAmount(item.wllValue, item.wllUnit, WLL_UNIT_LABELS[item.wllUnit]);
+    if (!wll.ok) {
+      ctx.issues.push({ code: "custom", path: ["wllValue"], input: item.wllValue, message: wll.message });
+      return z.NEVER;
+    }
+    return { ...item, wllValue: wll.value };
   });
 
 export type GearItemFields = z.output<typeof gearItemSchema>;
