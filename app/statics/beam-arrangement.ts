@@ -11,6 +11,7 @@ import { checkSlingLeg } from "./checks-sling";
 import type { ReferenceTables } from "./reference";
 import {
   toCheckResult,
+  toLegBody,
   uniqueById,
   type ArrangementBody,
   type ArrangementOutcome,
@@ -155,16 +156,7 @@ export function solveBeamArrangement(
   checks.push(...(input.extra?.checks ?? []));
   const unique = uniqueById(checks).map(toCheckResult);
   const dropRating = s.drops.rating;
-  const topLegs: SolveLegBody[] = s.top.legs.map((l) => ({
-    liftPointId: l.liftPointId,
-    lengthM: l.lengthM,
-    tensionKn: l.tensionKn,
-    tensionKg: l.tensionKg,
-    angleFromVerticalDeg: l.angleFromVerticalDeg,
-    axisAngleDeg: l.axisAngleDeg,
-    verticalShare: l.verticalShare,
-    slack: l.slack,
-  }));
+  const topLegs: SolveLegBody[] = s.top.legs.map(toLegBody);
   const body: ArrangementBody = {
     mode: "level",
     weightKn: (load.massKg * STANDARD_GRAVITY_MS2) / 1000,

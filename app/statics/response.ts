@@ -1,19 +1,10 @@
 // The shape of a solved arrangement as /api/solve answers it and plans store it.
 import { checkSentence } from "~/plans/check-text";
-import type { BridleSolution } from "./bridle";
+import type { BridleSolution, LegResult } from "./bridle";
 import type { Check, CheckResult } from "./check-types";
 import { DEFAULT_RULE_SET, type RuleSetId } from "./reference";
 
-export interface SolveLegBody {
-  liftPointId: string;
-  lengthM: number;
-  tensionKn: number;
-  tensionKg: number;
-  angleFromVerticalDeg: number;
-  axisAngleDeg: number;
-  verticalShare: number;
-  slack: boolean;
-}
+export type SolveLegBody = Omit<LegResult, "direction">;
 
 export interface SolveResponseBody {
   mode: "level" | "lengths";
@@ -50,6 +41,20 @@ export function uniqueById<T extends { id: string }>(items: T[]): T[] {
   return items.filter((c) => (seen.has(c.id) ? false : (seen.add(c.id), true)));
 }
 
+/** A solved leg as the API answers it (without its direction). */
+export function toLegBody(leg: LegResult): SolveLegBody {
+  return {
+    liftPointId: leg.liftPointId,
+    lengthM: leg.lengthM,
+    tensionKn: leg.tensionKn,
+    tensionKg: leg.tensionKg,
+    angleFromVerticalDeg: leg.angleFromVerticalDeg,
+    axisAngleDeg: leg.axisAngleDeg,
+    verticalShare: leg.verticalShare,
+    slack: leg.slack,
+  };
+}
+
 /** Maps a core solution to the 200 body of /api/solve (checks added by the caller). */
 export function toResponseBody(solution: BridleSolution, ruleSet: RuleSetId = DEFAULT_RULE_SET): SolveResponseBody {
   return {
@@ -58,16 +63,7 @@ export function toResponseBody(solution: BridleSolution, ruleSet: RuleSetId = DE
     method: solution.method,
     hook: { x: solution.hook.x, y: solution.hook.y, z: solution.hook.z },
     tiltDeg: solution.tiltDeg,
-    legs: solution.legs.map((l) => ({
-      liftPointId: l.liftPointId,
-      lengthM: l.lengthM,
-      tensionKn: l.tensionKn,
-      tensionKg: l.tensionKg,
-      angleFromVerticalDeg: l.angleFromVerticalDeg,
-      axisAngleDeg: l.axisAngleDeg,
-      verticalShare: l.verticalShare,
-      slack: l.slack,
-    })),
+    legs: solution.legs.map(toLegBody),
     warnings: solution.warnings.map((w) => ({ code: w.code, message: w.message })),
     rating: solution.rating,
     ruleSet,
