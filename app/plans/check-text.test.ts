@@ -10,6 +10,7 @@ import {
   marginText,
   ruleText,
   standing,
+  warningSentence,
   type LegacyCheck,
 } from "~/plans/check-text";
 import { formatCapacity, formatForce, formatLoad, formatMarkedWll, formatUtilisation } from "~/utils/format";
@@ -146,5 +147,19 @@ describe("a plan with no gear allocated is not yet checked", () => {
     expect(standing([angle("A", "pass"), eyebolt("A", "pass")])).toBe("pass");
     expect(standing([angle("A", "pass"), eyebolt("A", "fail")], "A")).toBe("fail");
     expect(standing([angle("A", "pass"), eyebolt("B", "pass")], "A")).toBe("unchecked");
+  });
+});
+
+describe("a solver's warning in the reader's units", () => {
+  const fourLegs = {
+    message: "Rate each leg for its design tension, up to 1190 kg: 4-leg sling, not symmetric.",
+  };
+
+  it("keeps the metric sentence and writes loads in lb, rounded up (1 lb = 0.45359237 kg exact, NIST SP 811)", () => {
+    expect(warningSentence(fourLegs, "metric")).toBe(fourLegs.message);
+    // 1190 / 0.45359237 = 2623.5 lb, rounded up: never a smaller load than the metric figure.
+    expect(warningSentence(fourLegs, "imperial")).toBe(
+      "Rate each leg for its design tension, up to 2,624 lb: 4-leg sling, not symmetric.",
+    );
   });
 });

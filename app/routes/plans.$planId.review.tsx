@@ -120,7 +120,7 @@ export default function ReviewPlan({ loaderData, actionData }: Route.ComponentPr
                   Rating: {results.rating.rule} ({results.rating.source}). Tensions are before contingency; the checks
                   add it.
                 </p>
-                {warningsBesideChecks(results.warnings).map((w, i) => (
+                {warningsBesideChecks(results.warnings, units).map((w, i) => (
                   <p key={i} className="text-sm text-warn">
                     ⚠ {w.message}
                   </p>
