@@ -2,6 +2,8 @@ import { z } from "zod";
 import { isIsoDate } from "~/utils/dates";
 import {
   CHAIN_GRADES,
+  DEFECT_URGENCIES,
+  EXAMINATION_KINDS,
   EYEBOLT_FAMILIES,
   GEAR_KIND_INFO,
   GEAR_KINDS,
@@ -184,25 +186,6 @@ const isoDate = (label: string) =>
   z.preprocess(trimmed, safeText().refine(isIsoDate, `Give the ${label} as a date (YYYY-MM-DD).`));
 
 /** A thorough examination as the form gives it; the next due date may be left empty for the default. */
-/** What kind of thorough examination this was (LOLER 1998 reg 9; ASME B30.9 / B30.26 inspections). */
-export const EXAMINATION_KINDS = ["initial", "periodic", "exceptional", "scheme"] as const;
-export type ExaminationKind = (typeof EXAMINATION_KINDS)[number];
-export const EXAMINATION_KIND_LABELS: Record<ExaminationKind, string> = {
-  initial: "Initial, before first use",
-  periodic: "Periodic, within the statutory interval",
-  exceptional: "After exceptional circumstances or repair",
-  scheme: "Under a written examination scheme",
-};
-
-/** How soon the defects found must be put right (LOLER 1998 Schedule 1 paras 6 and 7). */
-export const DEFECT_URGENCIES = ["none", "immediate", "by_date"] as const;
-export type DefectUrgency = (typeof DEFECT_URGENCIES)[number];
-export const DEFECT_URGENCY_LABELS: Record<DefectUrgency, string> = {
-  none: "No defect found",
-  immediate: "Immediate danger: take out of use now",
-  by_date: "Must be put right by a date",
-};
-
 export const examinationSchema = z
   .object({
     kind: z.enum(EXAMINATION_KINDS, { error: "Choose the kind of examination." }).default("periodic"),

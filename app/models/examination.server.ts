@@ -8,7 +8,7 @@ import {
   type Transaction,
 } from "sequelize";
 import { sequelize } from "~/utils/db.server";
-import type { DefectUrgency, ExaminationKind } from "~/gear/schema";
+import type { DefectUrgency, ExaminationKind } from "~/gear/kinds";
 import { GearItem } from "~/models/gear-item.server";
 import { StoredFile } from "~/models/stored-file.server";
 import { User } from "~/models/user.server";

@@ -1,6 +1,7 @@
 import type { Route } from "./+types/gear.export.csv";
 import { getOrganisationToday } from "~/models/organisation.server";
-import { CSV_HEADERS, exportRow, toCsv } from "~/gear/csv";
+import { CSV_HEADERS } from "~/gear/csv-columns";
+import { exportRow, toCsv } from "~/gear/csv";
 import { dueState } from "~/gear/due";
 import { listAllGearItems } from "~/models/gear-item.server";
 import { requireUser } from "~/utils/session.server";
