@@ -5,7 +5,6 @@ import { useState } from "react";
 import { Form, useNavigation } from "react-router";
 import { Button, Field, SelectField, TextAreaField } from "~/components/ui/form";
 import { defaultNextDue, examinationIntervalMonths, type ExaminationIntervals } from "~/gear/due";
-import { GEAR_KIND_INFO, type GearKind } from "~/gear/kinds";
 import {
   DEFECT_URGENCIES,
   DEFECT_URGENCY_LABELS,
@@ -13,7 +12,9 @@ import {
   EXAMINATION_KINDS,
   type DefectUrgency,
   type ExaminationKind,
-} from "~/gear/schema";
+  GEAR_KIND_INFO,
+  type GearKind,
+} from "~/gear/kinds";
 import { guardFileSize } from "~/components/ui/file-size";
 import { MAX_UPLOAD_BYTES } from "~/utils/file-type";
 import { isIsoDate } from "~/utils/dates";

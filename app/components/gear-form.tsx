@@ -54,7 +54,8 @@ function SpecInput({ field, value, errors }: { field: SpecField; value: string; 
     case "topLugsM":
       return <Field {...common} hint={hint} maxLength={200} autoComplete="off" inputMode="decimal" />;
     default:
-      return <Field {...common} hint={hint} type="number" inputMode="decimal" step="any" min="0" />;
+      // Text, not type="number": the server reads "2,5", "1 240" or "12 in" and says why it refuses anything else.
+      return <Field {...common} hint={hint} inputMode="decimal" autoComplete="off" />;
   }
 }
 
@@ -126,12 +127,11 @@ export function GearItemForm({
           <Field
             label="WLL"
             name="wllValue"
-            type="number"
             inputMode="decimal"
-            step="any"
-            min="0"
+            autoComplete="off"
             defaultValue={text("wllValue")}
             errors={errors.wllValue}
+            hint="The figure in the unit chosen beside it, e.g. 2.5 or 1 240."
             required
           />
           <SelectField
@@ -156,10 +156,8 @@ export function GearItemForm({
       <Field
         label="Own mass (kg)"
         name="massKg"
-        type="number"
         inputMode="decimal"
-        step="any"
-        min="0"
+        autoComplete="off"
         defaultValue={text("massKg")}
         errors={errors.massKg}
         hint="What the item itself weighs: the crane check adds it to the load."

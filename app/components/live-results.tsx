@@ -1,7 +1,7 @@
 import { ChecksList } from "~/components/results/checks-list";
 import { GoverningSummary } from "~/components/results/governing-summary";
 import { LegTable, type LegRow } from "~/components/results/leg-table";
-import type { AnyCheck } from "~/plans/check-text";
+import { warningSentence, type AnyCheck } from "~/plans/check-text";
 import type { RuleSetId } from "~/statics/reference";
 import { formatAngle, formatForce, type Units } from "~/utils/format";
 
@@ -28,9 +28,11 @@ type Body = {
   checks?: AnyCheck[];
 };
 
-/** Warnings the checks already show (leg angles) are not repeated. */
-export function warningsBesideChecks(warnings: ReadonlyArray<{ code: string; message: string }>) {
-  return warnings.filter((w) => !w.code.startsWith("LEG_ANGLE_"));
+/** Warnings the checks already show (leg angles) are not repeated; the rest read in the user's units. */
+export function warningsBesideChecks(warnings: ReadonlyArray<{ code: string; message: string }>, units: Units) {
+  return warnings
+    .filter((w) => !w.code.startsWith("LEG_ANGLE_"))
+    .map((w) => ({ code: w.code, message: warningSentence(w, units) }));
 }
 
 /** Leg figures, warnings and every check with its verdict in words, as worked out by the statics core. */
@@ -72,7 +74,7 @@ export function LiveResults({ state, units }: { state: ResultState; units: Units
 
 function Figures({ body, units }: { body: Body; units: Units }) {
   const checks = body.checks ?? [];
-  const warnings = warningsBesideChecks(body.warnings);
+  const warnings = warningsBesideChecks(body.warnings, units);
   return (
     <>
       <p className="text-sm">

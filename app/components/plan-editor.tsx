@@ -336,7 +336,6 @@ export function PlanEditor({
           dispatch={dispatch}
           canEdit={canEdit}
           units={units}
-          snapshot={planned}
           solution={solution}
           picks={picks}
         >

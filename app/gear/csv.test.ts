@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { CSV_HEADERS, exportRow, neutraliseCell, parseCsv, restoreCell, toCsv, validateGearRows } from "~/gear/csv";
+import { CSV_HEADERS } from "~/gear/csv-columns";
+import { exportRow, neutraliseCell, parseCsv, restoreCell, toCsv, validateGearRows } from "~/gear/csv";
 
 const HEAD = "item_code,kind,wll,wll_unit,thread,eyebolt_family,shackle_type,pin_type,home_site";
 const sites = new Map([["fernbrook", 7]]);

@@ -1,6 +1,7 @@
 // The register as CSV, streamed: a batch of items is read, written and let go before the next is read, so an export
 // of 50,000 items holds one batch in memory, and other requests are served between batches.
-import { CSV_BOM, CSV_HEADERS, csvLines, exportRow } from "~/gear/csv";
+import { CSV_HEADERS } from "~/gear/csv-columns";
+import { CSV_BOM, csvLines, exportRow } from "~/gear/csv";
 import { dueState } from "~/gear/due";
 import { readGearExportBatch } from "~/models/gear-item-reads.server";
 

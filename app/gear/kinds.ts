@@ -209,3 +209,22 @@ export function sizeSummary(item: SizeFields): string {
   if (item.dropLugsM) parts.push(`drops at ${item.dropLugsM} m`);
   return parts.join(", ");
 }
+
+/** What kind of thorough examination this was (LOLER 1998 reg 9; ASME B30.9 / B30.26 inspections). */
+export const EXAMINATION_KINDS = ["initial", "periodic", "exceptional", "scheme"] as const;
+export type ExaminationKind = (typeof EXAMINATION_KINDS)[number];
+export const EXAMINATION_KIND_LABELS: Record<ExaminationKind, string> = {
+  initial: "Initial, before first use",
+  periodic: "Periodic, within the statutory interval",
+  exceptional: "After exceptional circumstances or repair",
+  scheme: "Under a written examination scheme",
+};
+
+/** How soon the defects found must be put right (LOLER 1998 Schedule 1 paras 6 and 7). */
+export const DEFECT_URGENCIES = ["none", "immediate", "by_date"] as const;
+export type DefectUrgency = (typeof DEFECT_URGENCIES)[number];
+export const DEFECT_URGENCY_LABELS: Record<DefectUrgency, string> = {
+  none: "No defect found",
+  immediate: "Immediate danger: take out of use now",
+  by_date: "Must be put right by a date",
+};

@@ -2,6 +2,8 @@ import { z } from "zod";
 import { isIsoDate } from "~/utils/dates";
 import {
   CHAIN_GRADES,
+  DEFECT_URGENCIES,
+  EXAMINATION_KINDS,
   EYEBOLT_FAMILIES,
   MAX_DROP_LUGS,
   TOP_LUG_COUNT,
@@ -15,6 +17,7 @@ import {
   SHACKLE_TYPES,
   SPEC_FIELD_LABELS,
   SPEC_FIELDS,
+  WLL_UNIT_LABELS,
   WLL_UNITS,
   type GearKind,
   type GearStatus,
@@ -22,6 +25,8 @@ import {
 } from "~/gear/kinds";
 import type { MassUnit } from "~/statics/units";
 import { safeText } from "~/utils/forms";
+import { readTypedQuantity } from "~/utils/numbers";
+import { optionalAmountField, readMarkedAmount } from "~/utils/quantities";
 
 const trimmed = (v: unknown) => (typeof v === "string" ? v.trim() : v == null ? "" : v);
 const blankToNull = (v: unknown) => {
@@ -162,11 +167,11 @@ const specShape = {
       )
       .nullable(),
   ),
-  diameterMm: optionalNumber("diameter", { min: 1, max: 500 }),
+  diameterMm: optionalAmountField("diameter", "length", "mm", "mm", { min: 1, max: 500 }),
   legs: optionalNumber("number of legs", { min: 1, max: 4, integer: true }),
-  lengthM: optionalNumber("length", { min: 0.05, max: 200 }),
-  hookHeightM: optionalNumber("hook height", { min: 0.5, max: 200 }),
-  beamMassKg: optionalNumber("beam mass", { min: 0.1, max: 100_000 }),
+  lengthM: optionalAmountField("length", "length", "m", "m", { min: 0.05, max: 200 }),
+  hookHeightM: optionalAmountField("hook height", "length", "m", "m", { min: 0.5, max: 200 }),
+  beamMassKg: optionalAmountField("beam mass", "mass", "kg", "kg", { min: 0.1, max: 100_000 }),
   dropLugsM: lugPositions("drop lug positions"),
   topLugsM: lugPositions("top lug positions"),
 } satisfies Record<SpecField, z.ZodType>;
@@ -188,20 +193,27 @@ export const gearItemSchema = z
     description: text(300),
     manufacturer: text(120),
     serial: text(80),
-    wllValue: z.preprocess(
-      (v) => {
-        const t = blankToNull(v);
-        return typeof t === "string" ? Number(t.replace(/,/g, "")) : t;
-      },
-      z
-        .number({ error: "Enter the WLL marked on the item, as a number." })
-        .refine((n) => Number.isFinite(n), "Enter the WLL marked on the item, as a number.")
-        .refine((n) => n > 0, "The WLL must be more than zero.")
-        .refine(
-          (n) => n <= 1_000_000,
-          "That WLL is beyond anything the register holds; check the figure and its unit.",
-        ),
-    ),
+    // Read here for its number (so a mistyped figure is named at once); its unit is checked against wllUnit below.
+    wllValue: z
+      .preprocess((v) => (typeof v === "number" ? String(v) : typeof v === "string" ? v.trim() : ""), z.string())
+      .transform((text, ctx): string => {
+        const input = text;
+        // Text that is no figure at all gets the field's own sentence; a figure is read, or refused saying why.
+        const read = /^[+\-\u2212]?[\d.,]/.test(text) ? readTypedQuantity(text) : null;
+        const message =
+          read === null
+            ? "Enter the WLL marked on the item, as a number."
+            : !read.ok
+              ? read.message
+              : !(read.value > 0)
+                ? "The WLL must be more than zero."
+                : read.value > 1_000_000
+                  ? "That WLL is beyond anything the register holds; check the figure and its unit."
+                  : null;
+        if (message === null) return text;
+        ctx.issues.push({ code: "custom", input, message });
+        return z.NEVER;
+      }),
     wllUnit: z.preprocess(
       (v) => {
         const t = trimmed(v);
@@ -210,7 +222,7 @@ export const gearItemSchema = z
       z.enum(WLL_UNITS, { error: "Choose the WLL's unit as marked: kg, t, lb or shortTon." }),
     ),
     ...specShape,
-    massKg: optionalNumber("item's own mass", { min: 0, max: 100_000 }),
+    massKg: optionalAmountField("item's own mass", "mass", "kg", "kg", { min: 0, max: 100_000 }),
   })
   .superRefine((item, ctx) => {
     const info = GEAR_KIND_INFO[item.kind];
@@ -241,6 +253,14 @@ export const gearItemSchema = z
           message: "A beam's own mass is its beam mass: leave the item's own mass empty or give the same figure.",
         });
     }
+  })
+  .transform((item, ctx) => {
+    const wll = readMarkedAmount(item.wllValue, item.wllUnit, WLL_UNIT_LABELS[item.wllUnit]);
+    if (!wll.ok) {
+      ctx.issues.push({ code: "custom", path: ["wllValue"], input: item.wllValue, message: wll.message });
+      return z.NEVER;
+    }
+    return { ...item, wllValue: wll.value };
   });
 
 export type GearItemFields = z.output<typeof gearItemSchema>;
@@ -254,25 +274,6 @@ const isoDate = (label: string) =>
   z.preprocess(trimmed, safeText().refine(isIsoDate, `Give the ${label} as a date (YYYY-MM-DD).`));
 
 /** A thorough examination as the form gives it; the next due date may be left empty for the default. */
-/** What kind of thorough examination this was (LOLER 1998 reg 9; ASME B30.9 / B30.26 inspections). */
-export const EXAMINATION_KINDS = ["initial", "periodic", "exceptional", "scheme"] as const;
-export type ExaminationKind = (typeof EXAMINATION_KINDS)[number];
-export const EXAMINATION_KIND_LABELS: Record<ExaminationKind, string> = {
-  initial: "Initial, before first use",
-  periodic: "Periodic, within the statutory interval",
-  exceptional: "After exceptional circumstances or repair",
-  scheme: "Under a written examination scheme",
-};
-
-/** How soon the defects found must be put right (LOLER 1998 Schedule 1 paras 6 and 7). */
-export const DEFECT_URGENCIES = ["none", "immediate", "by_date"] as const;
-export type DefectUrgency = (typeof DEFECT_URGENCIES)[number];
-export const DEFECT_URGENCY_LABELS: Record<DefectUrgency, string> = {
-  none: "No defect found",
-  immediate: "Immediate danger: take out of use now",
-  by_date: "Must be put right by a date",
-};
-
 export const examinationSchema = z
   .object({
     kind: z.enum(EXAMINATION_KINDS, { error: "Choose the kind of examination." }).default("periodic"),

@@ -2,7 +2,7 @@
 import { describe, expect, it } from "vitest";
 import { REFERENCE_TABLES } from "../../db/seeders/reference-data";
 import { checkCraneLoad, checkLegAngle, checkShackle, checkSlingLeg } from "~/statics/checks";
-import { toCheckResult } from "~/statics/api";
+import { toCheckResult } from "~/statics/response";
 import {
   checkSentence,
   fixText,
@@ -10,6 +10,7 @@ import {
   marginText,
   ruleText,
   standing,
+  warningSentence,
   type LegacyCheck,
 } from "~/plans/check-text";
 import { formatCapacity, formatForce, formatLoad, formatMarkedWll, formatUtilisation } from "~/utils/format";
@@ -165,6 +166,20 @@ describe("the fixes for tilt and a tapped size, in words", () => {
     const text = fixText({ kind: "tapped-size-limit", thread: "M20", minWllKg: 1234.2 }, "metric");
     expect(text).toBe(
       "eyebolt M20 is the tapped size: use a lifting point of higher WLL (at least 1,235 kg in line) or more legs",
+    );
+  });
+});
+
+describe("a solver's warning in the reader's units", () => {
+  const fourLegs = {
+    message: "Rate each leg for its design tension, up to 1190 kg: 4-leg sling, not symmetric.",
+  };
+
+  it("keeps the metric sentence and writes loads in lb, rounded up (1 lb = 0.45359237 kg exact, NIST SP 811)", () => {
+    expect(warningSentence(fourLegs, "metric")).toBe(fourLegs.message);
+    // 1190 / 0.45359237 = 2623.5 lb, rounded up: never a smaller load than the metric figure.
+    expect(warningSentence(fourLegs, "imperial")).toBe(
+      "Rate each leg for its design tension, up to 2,624 lb: 4-leg sling, not symmetric.",
     );
   });
 });

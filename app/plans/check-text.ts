@@ -237,6 +237,12 @@ function inspectionText(check: Check, units: Units): string {
   }
 }
 
+/** A solver's warning in the reader's units: the core writes its figures as loads in whole kg ("up to 1190 kg"). */
+export function warningSentence(warning: { message: string }, units: Units): string {
+  if (units === "metric") return warning.message;
+  return warning.message.replace(/(\d+(?:\.\d+)?) kg\b/g, (_, kg: string) => formatLoad(Number(kg), units));
+}
+
 /**
  * The check's finding as a sentence in the user's units, naming the item, with the fix where it
  * fails or warns. withUtilisation adds "(n %)" for places that show no separate utilisation.
@@ -412,7 +418,10 @@ export function ruleText(check: AnyCheck, units: Units): string {
       if (i.wllKg !== undefined) figures.push(`lowest leg WLL x hitch ${formatCapacity(i.wllKg, units)}`);
       if (i.modeFactor !== undefined)
         figures.push(`mode factor ${i.modeFactor} (${i.effectiveLegs} carrying, up to ${i.modeUpToDeg}°)`);
-      if (i.publishedCapT !== undefined) figures.push(`capped at the published table value ${i.publishedCapT} t`);
+      if (i.publishedCapT !== undefined)
+        figures.push(
+          `capped at the published table value ${units === "metric" ? `${i.publishedCapT} t` : formatMarkedWll({ value: i.publishedCapT, unit: "t" }, units)}`,
+        );
       if (i.ratingRule) figures.push(i.ratingRule);
       break;
     case "eyebolt":

@@ -2,7 +2,7 @@
 // the load snapshot. Pure and shared with the browser: no I/O, no server imports.
 import { z } from "zod";
 import type { ComponentDefinition } from "~/loads/component-definition";
-import type { SolveResponseBody } from "~/statics/api";
+import type { SolveResponseBody } from "~/statics/response";
 import type { BeamPlacement } from "~/statics/beam-placement";
 import { safeText } from "~/utils/forms";
 import {

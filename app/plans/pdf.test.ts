@@ -325,7 +325,10 @@ describe("what the print says in particular cases", () => {
     const t = flat(allText(file));
     // 2,000 kg / 0.45359237 kg per lb = 4,409.2 lb; 1,649.24 kg = 3,635.9 lb, rounded up to 3,636.
     expect(t).toContain("4,409 lb");
-    expect(t).toMatch(/Leg A 32\.\d\d in 16\.18 kN 3,636 14\.0°/);
+    // 16.18 kN / 4.4482216152605 N per lbf (NIST SP 811) = 3,635.9 lbf, rounded up: the tension in lbf, never kN.
+    expect(t).toMatch(/Leg A 32\.\d\d in 3,636 lbf 3,636 14\.0°/);
+    expect(t).toContain("Tension (lbf)");
+    expect(t).not.toMatch(/\d kN/);
   });
 
   it("draws a beam lift: vertical drops, the beam and its top leg", async () => {

@@ -7,17 +7,11 @@ import { GearItem } from "~/models/gear-item.server";
 import { getOrganisationRuleSet } from "~/models/organisation.server";
 import { getReferenceTables } from "~/models/reference-row.server";
 import { isBeamKind, parseLugPositions, type GearKind } from "~/gear/kinds";
-import { beamResults, uniqueById, type BeamItemSpec } from "~/plans/beam-results";
-import type {
-  Arrangement,
-  PlanDetails,
-  PlanIssue,
-  PlanResults,
-  PlanResultsBody,
-  RiggingAllocation,
-} from "~/plans/document";
+import { arrangementInput } from "~/plans/arrangement-input";
+import type { Arrangement, PlanDetails, PlanIssue, PlanResults, RiggingAllocation } from "~/plans/document";
 import { fitOf } from "~/plans/rigging";
-import { handleSolve, toCheckResult, type SolveBody } from "~/statics/api";
+import { solveArrangement } from "~/statics/arrangement";
+import type { BeamItemSpec } from "~/statics/beam-arrangement";
 import {
   checkNeverExamined,
   type Check,
@@ -317,34 +311,6 @@ function undersideZ(snapshot: ComponentDefinition): number {
   return zs.length ? Math.min(...zs) : 0;
 }
 
-/** The /api/solve body for a bridle arrangement of the snapshot. */
-export function buildSolveBody(
-  snapshot: ComponentDefinition,
-  arrangement: Arrangement,
-  rigging: RiggingDescription,
-  options: { ruleSet?: RuleSetId; liftDate?: string } = {},
-): unknown {
-  const byLabel = new Map(snapshot.liftPoints.map((p) => [p.label, p]));
-  const liftPoints = arrangement.liftPointLabels.map((label) => {
-    const p = byLabel.get(label);
-    if (!p) return { id: label };
-    return { id: label, ...p.position, axis: p.axis, ...(p.thread ? { thread: p.thread } : {}) };
-  });
-  return {
-    load: { massKg: snapshot.massKg, cog: snapshot.cog },
-    liftPoints,
-    ...(arrangement.mode === "level"
-      ? { hook: { z: arrangement.hookHeightM } }
-      : {
-          legLengths: Object.fromEntries(arrangement.liftPointLabels.map((l) => [l, arrangement.legLengthsM[l] ?? 0])),
-        }),
-    rigging,
-    fit: fitOf(snapshot),
-    ...(options.ruleSet ? { ruleSet: options.ruleSet } : {}),
-    ...(options.liftDate ? { liftDate: options.liftDate } : {}),
-  } satisfies Partial<Record<keyof SolveBody, unknown>>;
-}
-
 export type ComputeOptions = {
   details?: Pick<PlanDetails, "floorClearanceM" | "liftDate">;
   tables?: ReferenceTables;
@@ -354,9 +320,8 @@ export type ComputeOptions = {
 };
 
 /**
- * The plan's results under the organisation's rule set: a bridle goes through handleSolve exactly as
- * /api/solve would; a beam through the beam solver with the same checks. Allocation problems come
- * back as a 400 with their issues.
+ * The plan's results under the organisation's rule set: bridle and beam alike go through the core's
+ * one entry, as /api/solve's bodies do. Allocation problems come back as a 400 with their issues.
  */
 export async function computePlanResults(
   snapshot: ComponentDefinition,
@@ -380,38 +345,27 @@ export async function computePlanResults(
     ruleSet,
     todayIso,
   });
-  if (arrangement.kind === "beam") {
-    const beamItem = rigging.beamItemId !== undefined ? items.get(rigging.beamItemId) : undefined;
-    const beamSpec = beamItem ? beamItemSpec(beamItem) : null;
-    if (beamItem && beamSpec && !beamSpec.inspection)
-      extraChecks.push(
-        checkNeverExamined(
-          beamItem.kind === "spreader" ? "Spreader beam" : "Lifting beam",
-          beamItem.itemCode,
-          todayIso,
-          {
-            ruleSet,
-            tables,
-            liftDateIso: liftDate ?? null,
-          },
-        ),
-      );
-    const beam = beamResults(snapshot, arrangement, description, extraChecks, notes, tables, {
-      todayIso,
+  const beamItem =
+    arrangement.kind === "beam" && rigging.beamItemId !== undefined ? items.get(rigging.beamItemId) : undefined;
+  const beamSpec = beamItem ? beamItemSpec(beamItem) : null;
+  if (beamItem && beamSpec && !beamSpec.inspection)
+    extraChecks.push(
+      checkNeverExamined(beamItem.kind === "spreader" ? "Spreader beam" : "Lifting beam", beamItem.itemCode, todayIso, {
+        ruleSet,
+        tables,
+        liftDateIso: liftDate ?? null,
+      }),
+    );
+  const solved = solveArrangement(
+    arrangementInput(snapshot, arrangement, description, {
       ruleSet,
-      liftDateIso: liftDate ?? null,
+      todayIso,
+      liftDate,
+      extra: { checks: extraChecks, notes },
+      fit: fitOf(snapshot),
       beamItem: beamSpec,
-    });
-    return beam.status === 200 ? { ...base, status: 200, body: beam.body } : { ...base, status: 422, body: beam.body };
-  }
-  const solved = handleSolve(buildSolveBody(snapshot, arrangement, description, { ruleSet, liftDate }), tables, {
-    todayIso,
-  });
-  if (solved.status !== 200) return { ...base, ...solved };
-  const body: PlanResultsBody = {
-    ...solved.body,
-    warnings: [...solved.body.warnings, ...notes],
-    checks: uniqueById([...(solved.body.checks ?? []), ...extraChecks.map(toCheckResult)]),
-  };
-  return { ...base, status: 200, body };
+    }),
+    tables,
+  );
+  return { ...base, ...solved };
 }

@@ -7,14 +7,8 @@ import { ComponentViews } from "~/components/component-views";
 import { Button, Card, FormError, PageHeader, SelectField } from "~/components/ui/form";
 import { COG_SOURCE_LABELS, MASS_SOURCE_LABELS } from "~/loads/component-definition";
 import { parseForm, safeText } from "~/utils/forms";
-import {
-  addComponentFile,
-  getComponent,
-  listComponentFiles,
-  removeComponentFile,
-  setComponentArchived,
-  toDefinition,
-} from "~/models/component.server";
+import { addComponentFile, removeComponentFile } from "~/loads/component-files.server";
+import { getComponent, listComponentFiles, setComponentArchived, toDefinition } from "~/models/component.server";
 import { checkUpload, readUploadForm, uploadedFile } from "~/utils/uploads.server";
 import { hasAnyRole } from "~/utils/roles";
 import { flashNotice, requireUser, requireUserWithRole } from "~/utils/session.server";

@@ -4,7 +4,7 @@ import { parseForm } from "~/utils/forms";
 import { GEAR_STATUS_LABELS } from "~/gear/kinds";
 import { sendDefectReportMail } from "~/gear/mail.server";
 import { defectReportSchema, examinationSchema, statusChangeSchema } from "~/gear/schema";
-import { recordExamination } from "~/models/examination.server";
+import { recordExamination } from "~/gear/examinations.server";
 import { changeGearStatus, reportGearDefect } from "~/gear/lifecycle.server";
 import { getGearItem, type GearItem } from "~/models/gear-item.server";
 import type { SessionUser } from "~/models/user.server";

@@ -10,10 +10,14 @@ import {
   EXAMINATION_KIND_LABELS,
   type DefectUrgency,
   type ExaminationKind,
-} from "~/gear/schema";
+  GEAR_KIND_INFO,
+  GEAR_STATUS_LABELS,
+  GEAR_STATUSES,
+  SPEC_FIELD_LABELS,
+  type GearStatus,
+} from "~/gear/kinds";
 import { formatDateTime } from "~/utils/dates";
 import { getOrganisationRuleSet, getOrganisationTimeZone, getOrganisationToday } from "~/models/organisation.server";
-import { GEAR_KIND_INFO, GEAR_STATUS_LABELS, GEAR_STATUSES, SPEC_FIELD_LABELS, type GearStatus } from "~/gear/kinds";
 import { listExaminations } from "~/models/examination.server";
 import { listGearHistory, type GearHistoryEntry } from "~/gear/history.server";
 import { getReferenceTables } from "~/models/reference-row.server";

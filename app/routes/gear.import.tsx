@@ -3,7 +3,13 @@ import { z } from "zod";
 import { guardFileSize } from "~/components/ui/file-size";
 import type { Route } from "./+types/gear.import";
 import { Button, Card, FormError, PageHeader } from "~/components/ui/form";
-import { CSV_HEADERS, MAX_IMPORT_BYTES, MAX_IMPORT_ROWS, READ_ONLY_COLUMNS, REQUIRED_HEADERS } from "~/gear/csv";
+import {
+  CSV_HEADERS,
+  MAX_IMPORT_BYTES,
+  MAX_IMPORT_ROWS,
+  READ_ONLY_COLUMNS,
+  REQUIRED_HEADERS,
+} from "~/gear/csv-columns";
 import { confirmGearImport, stageGearImport, type ImportPreview } from "~/gear/import.server";
 import { watchAllocatedGear } from "~/plans/live-state.server";
 import type { ImportCounts } from "~/models/gear-item.server";

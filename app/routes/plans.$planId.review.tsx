@@ -175,7 +175,7 @@ export default function ReviewPlan({ loaderData, actionData }: Route.ComponentPr
                     {formatLoad(results.beam.hookMassKg, units)} before contingency.
                   </p>
                 )}
-                {warningsBesideChecks(results.warnings).map((w, i) => (
+                {warningsBesideChecks(results.warnings, units).map((w, i) => (
                   <p key={i} className="text-sm text-warn">
                     ⚠ {w.message}
                   </p>

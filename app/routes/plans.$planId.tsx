@@ -174,7 +174,7 @@ function Results({ results, units }: { results: PlanResults; units: Units }) {
   }
   const r = results.body;
   const checks = r.checks ?? [];
-  const warnings = warningsBesideChecks(r.warnings);
+  const warnings = warningsBesideChecks(r.warnings, units);
   return (
     <div className="space-y-4">
       <p className="text-sm">

@@ -1,12 +1,10 @@
 // The /api/solve contract: body schema, and a handler that never throws for any input.
 import { z } from "zod";
-import { checkSentence } from "~/plans/check-text";
-import { solveGivenLengths, solveLevel, type BridleSolution, type LiftPoint } from "./bridle";
-import type { Check, CheckResult, RiggingDescription } from "./check-types";
-import { angleChecks, checkRigging } from "./checks";
+import { solveArrangement, type ArrangementInput } from "./arrangement";
+import type { LiftPoint } from "./bridle";
+import type { RiggingDescription } from "./check-types";
 import { DEFAULT_RULE_SET, RULE_SET_IDS, type ReferenceTables, type RuleSetId } from "./reference";
-import { lowestPassingHookZ } from "./raise-hook";
-import { checkFitTilt, levellingLengths, planeTilts, type LegLevelling, type PlaneTilts } from "./tilt";
+import type { ArrangementOutcome } from "./response";
 
 /** Largest load mass accepted, kg (100,000 t: beyond any crane lift). */
 export const MAX_MASS_KG = 1e8;
@@ -204,40 +202,7 @@ export const solveBodySchema = z
 
 export type SolveBody = z.infer<typeof solveBodySchema>;
 
-export interface SolveLegBody {
-  liftPointId: string;
-  lengthM: number;
-  tensionKn: number;
-  tensionKg: number;
-  angleFromVerticalDeg: number;
-  axisAngleDeg: number;
-  verticalShare: number;
-  slack: boolean;
-}
-
-export interface SolveResponseBody {
-  mode: "level" | "lengths";
-  weightKn: number;
-  method: "determinate" | "elastic";
-  hook: { x: number; y: number; z: number };
-  tiltDeg: number;
-  /** The tilt in each of the component's own planes, deg (absent only in results stored before). */
-  tiltPlanes?: PlaneTilts;
-  /** Given lengths: the length each leg would need to hang the load level, and the change; null when no level hang exists. */
-  levelling?: { hookZM: number; legs: LegLevelling[] } | null;
-  legs: SolveLegBody[];
-  warnings: Array<{ code: string; message: string }>;
-  rating: BridleSolution["rating"];
-  /** The rule set the checks applied (absent only in results stored before rule sets). */
-  ruleSet?: RuleSetId;
-  /** Every solve answers with the leg-angle checks; rigging adds a check per item (optional only for results stored before). */
-  checks?: CheckResult[];
-}
-
-export type SolveResponse =
-  | { status: 200; body: SolveResponseBody }
-  | { status: 400; body: { error: string; issues: unknown[] } }
-  | { status: 422; body: { error: string; code: string } };
+export type SolveResponse = ArrangementOutcome | { status: 400; body: { error: string; issues: unknown[] } };
 
 export interface SolveContext {
   /** Today's date YYYY-MM-DD for inspection checks (server clock; never taken from the body). */
@@ -260,111 +225,51 @@ export function toLiftPoints(body: SolveBody): LiftPoint[] {
   });
 }
 
-/** A structured check as the API answers it: with the older `status` and a metric `message`, so existing clients keep working. */
-export function toCheckResult(check: Check): CheckResult {
-  return { ...check, status: check.verdict, message: checkSentence(check, "metric", { withUtilisation: true }) };
-}
-
-/** Warnings for legs past the rule set's angles, so a bare solve says so too. */
-function angleWarnings(checks: readonly Check[]): Array<{ code: string; message: string }> {
-  return checks
-    .filter((c) => c.kind === "leg-angle" && c.verdict !== "pass")
-    .map((c) => ({
-      code: c.verdict === "fail" ? "LEG_ANGLE_OVER_MAX" : "LEG_ANGLE_OVER_WARN",
-      message: checkSentence(c, "metric"),
-    }));
-}
-
-/** Maps a core solution to the 200 body of /api/solve (checks added by the caller). */
-export function toResponseBody(solution: BridleSolution, ruleSet: RuleSetId = DEFAULT_RULE_SET): SolveResponseBody {
+/** The core's input for a parsed body: the rule set from the body, else the organisation's, else the default. */
+export function toArrangementInput(body: SolveBody, context: SolveContext = {}): ArrangementInput {
+  const liftPoints = toLiftPoints(body).map((p, i) => {
+    const thread = body.liftPoints[i]!.thread;
+    return thread !== undefined ? { ...p, thread } : p;
+  });
+  const lengths = body.legLengths ?? {};
   return {
-    mode: solution.mode,
-    weightKn: solution.weightKn,
-    method: solution.method,
-    hook: { x: solution.hook.x, y: solution.hook.y, z: solution.hook.z },
-    tiltDeg: solution.tiltDeg,
-    tiltPlanes: planeTilts(solution.vertical),
-    legs: solution.legs.map((l) => ({
-      liftPointId: l.liftPointId,
-      lengthM: l.lengthM,
-      tensionKn: l.tensionKn,
-      tensionKg: l.tensionKg,
-      angleFromVerticalDeg: l.angleFromVerticalDeg,
-      axisAngleDeg: l.axisAngleDeg,
-      verticalShare: l.verticalShare,
-      slack: l.slack,
-    })),
-    warnings: solution.warnings.map((w) => ({ code: w.code, message: w.message })),
-    rating: solution.rating,
-    ruleSet,
-    checks: [],
+    load: { massKg: body.load.massKg, cog: body.load.cog },
+    liftPoints,
+    hanging:
+      body.hook !== undefined
+        ? { kind: "level", hookZM: body.hook.z }
+        : {
+            kind: "lengths",
+            legLengthsM: liftPoints.map((p) => (Object.hasOwn(lengths, p.id) ? (lengths[p.id] ?? 0) : 0)),
+          },
+    ...(body.rigging !== undefined ? { rigging: body.rigging as RiggingDescription } : {}),
+    ruleSet: body.ruleSet ?? context.defaultRuleSet ?? DEFAULT_RULE_SET,
+    ...(context.todayIso !== undefined ? { todayIso: context.todayIso } : {}),
+    liftDateIso: body.liftDate ?? null,
+    ...(body.fit !== undefined ? { fit: body.fit } : {}),
   };
 }
 
-function solveParsed(body: SolveBody, tables: ReferenceTables, context: SolveContext): SolveResponse {
-  const points = toLiftPoints(body);
-  const load = { massKg: body.load.massKg, cog: body.load.cog };
-  let outcome;
-  let levelling = null;
-  if (body.hook !== undefined) {
-    outcome = solveLevel(load, points, body.hook.z);
-  } else {
-    const lengths = body.legLengths ?? {};
-    const given = points.map((p) => (Object.hasOwn(lengths, p.id) ? (lengths[p.id] ?? 0) : 0));
-    outcome = solveGivenLengths(load, points, given);
-    if (outcome.ok) levelling = levellingLengths(load, points, given);
-  }
-  if (!outcome.ok) return { status: 422, body: { error: outcome.message, code: outcome.code } };
-  const ruleSet = body.ruleSet ?? context.defaultRuleSet ?? DEFAULT_RULE_SET;
-  const responseBody = toResponseBody(outcome.solution, ruleSet);
-  const lifted = points.map((p, i) => ({ id: p.id, thread: body.liftPoints[i]!.thread, axis: p.axis }));
-  if (levelling) responseBody.levelling = levelling.ok ? { hookZM: levelling.hookZM, legs: levelling.legs } : null;
-  const checks =
-    body.rigging !== undefined
-      ? checkRigging(
-          outcome.solution,
-          body.load.massKg,
-          body.load.cog,
-          lifted,
-          body.rigging as RiggingDescription,
-          tables,
-          context.todayIso,
-          { ruleSet, liftDateIso: body.liftDate ?? null },
-        )
-      : angleChecks(outcome.solution, tables, ruleSet);
-  if (body.fit !== undefined) checks.push(checkFitTilt(outcome.solution, body.fit, levelling, ruleSet));
-  if (body.hook !== undefined && body.rigging !== undefined) {
-    // A leg item over its rating in a level lift: the hook height at which the same item would pass.
-    const reach = Math.max(0.1, ...points.map((p) => Math.hypot(p.position.x - load.cog.x, p.position.y - load.cog.y)));
-    const top = Math.max(body.hook.z, ...points.map((p) => p.position.z)) + 5 * reach;
-    for (const c of checks) {
-      if (c.verdict !== "fail" || (c.fix?.kind !== "larger-item" && c.fix?.kind !== "tapped-size-limit")) continue;
-      if (c.kind !== "sling-leg" && c.kind !== "eyebolt" && c.kind !== "shackle") continue;
-      const z = lowestPassingHookZ(
-        (hookZM) => {
-          const level = solveLevel(load, points, hookZM);
-          if (!level.ok) return false;
-          const again = checkRigging(
-            level.solution,
-            load.massKg,
-            load.cog,
-            lifted,
-            body.rigging as RiggingDescription,
-            tables,
-            context.todayIso,
-            { ruleSet, liftDateIso: body.liftDate ?? null },
-          );
-          return again.find((x) => x.id === c.id)?.verdict === "pass";
-        },
-        body.hook.z,
-        top,
-      );
-      if (z !== null) c.fix = { ...c.fix, orRaiseHookToZM: z };
-    }
-  }
-  responseBody.checks = checks.map(toCheckResult);
-  responseBody.warnings.push(...angleWarnings(checks));
-  return { status: 200, body: responseBody };
+/** The /api/solve body for a bridle's input (the inverse of toArrangementInput); null for a beam, which the API does not take. */
+export function toSolveBody(input: ArrangementInput): SolveBody | null {
+  const { hanging } = input;
+  if (hanging.kind === "beam") return null;
+  return {
+    load: { massKg: input.load.massKg, cog: input.load.cog },
+    liftPoints: input.liftPoints.map((p) => ({
+      id: p.id,
+      ...p.position,
+      axis: p.axis,
+      ...(p.thread !== undefined ? { thread: p.thread } : {}),
+    })),
+    ...(hanging.kind === "level"
+      ? { hook: { z: hanging.hookZM } }
+      : { legLengths: Object.fromEntries(input.liftPoints.map((p, i) => [p.id, hanging.legLengthsM[i] ?? 0])) }),
+    ...(input.rigging !== undefined ? { rigging: input.rigging as SolveBody["rigging"] } : {}),
+    ruleSet: input.ruleSet,
+    ...(input.liftDateIso ? { liftDate: input.liftDateIso } : {}),
+    ...(input.fit !== undefined ? { fit: input.fit } : {}),
+  };
 }
 
 function isRecord(v: unknown): v is Record<string, unknown> {
@@ -411,7 +316,7 @@ export function handleSolve(body: unknown, tables: ReferenceTables, context: Sol
         },
       };
     }
-    return solveParsed(parsed.data, tables, context);
+    return solveArrangement(toArrangementInput(parsed.data, context), tables);
   } catch {
     // Defence in depth: the contract is never a 500. The tests assert this path is not reached.
     return {

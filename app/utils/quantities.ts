@@ -39,6 +39,8 @@ const USUAL_SPELLINGS = new Map<string, string>(
     "short ton": "ton",
     "short tons": "ton",
     "sh tn": "ton",
+    "us ton": "ton",
+    "us tons": "ton",
   }),
 );
 
@@ -134,4 +136,50 @@ export function amountField<Q extends Quantity>(label: string, quantity: Q, unit
     ctx.issues.push({ code: "custom", input, message: read.message });
     return z.NEVER;
   });
+}
+
+/**
+ * As amountField, for a field that may be left empty: empty comes out as null, anything typed is read the same way
+ * and must lie from `min` to `max` (in `into`).
+ */
+export function optionalAmountField<Q extends Quantity>(
+  label: string,
+  quantity: Q,
+  unitIfNone: UnitOf<Q>,
+  into: UnitOf<Q>,
+  range: { min: number; max: number },
+) {
+  // Through preprocess, so a field left out of the form (or the CSV row) is read as empty, not as missing.
+  const asText = (v: unknown) => (typeof v === "string" ? v : v == null ? "" : String(v));
+  return z.preprocess(asText, z.string()).transform((text, ctx): number | null => {
+    const input = text;
+    if (text.trim() === "") return null;
+    const read = readTypedAmount(text, quantity, unitIfNone, into);
+    if (!read.ok) {
+      ctx.issues.push({ code: "custom", input, message: read.message });
+      return z.NEVER;
+    }
+    if (!(read.value >= range.min && read.value <= range.max)) {
+      ctx.issues.push({ code: "custom", input, message: `The ${label} must be from ${range.min} to ${range.max}.` });
+      return z.NEVER;
+    }
+    return read.value;
+  });
+}
+
+/**
+ * Reads a figure as marked on lifting gear in the unit chosen beside it: a bare number is in that unit, and a unit
+ * typed after the number must be that same unit ("2.5 t" with t chosen), so the marking is kept as marked and never
+ * silently converted. Any other unit, or a number read two ways, is refused with a sentence.
+ */
+export function readMarkedAmount(text: string, unit: MassUnit, unitLabel: string): TypedNumber {
+  const read = readTypedQuantity(text);
+  if (!read.ok || read.unit === null) return read;
+  const factor = readTypedAmount(`1 ${read.unit}`, "mass", unit, unit);
+  if (!factor.ok) return factor;
+  if (Math.abs(factor.value - 1) > 1e-9)
+    return refuse(
+      `“${text.trim()}” is not in ${unitLabel}, the unit chosen for it: choose the unit the item is marked in, or type the figure without a unit.`,
+    );
+  return { ok: true, value: read.value };
 }

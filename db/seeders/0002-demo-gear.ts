@@ -3,7 +3,7 @@
 import { examinationIntervalMonths } from "~/gear/due";
 import { DEFAULT_TIME_ZONE, addDays, addMonths, todayIn } from "~/utils/dates";
 import { type ExaminationFields, type GearItemInput } from "~/gear/schema";
-import { recordExamination } from "~/models/examination.server";
+import { recordExamination } from "~/gear/examinations.server";
 import { changeGearStatus, reportGearDefect } from "~/gear/lifecycle.server";
 import { createGearItem, GearItem } from "~/models/gear-item.server";
 import { listSites } from "~/models/site.server";

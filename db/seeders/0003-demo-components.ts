@@ -1,5 +1,6 @@
 import { rectangleOutlines, type ComponentDefinition } from "~/loads/component-definition";
-import { addComponentFile, Component, createComponent } from "~/models/component.server";
+import { addComponentFile } from "~/loads/component-files.server";
+import { Component, createComponent } from "~/models/component.server";
 import { drawElevation, drawPlan } from "./demo-drawing";
 import { findUserByEmail } from "~/models/user.server";
 import { compositeMassAndCog } from "~/statics/composite";

@@ -2,7 +2,7 @@
 import { describe, expect, it } from "vitest";
 import * as adminSettings from "~/routes/admin.settings";
 import * as solve from "~/routes/api.solve";
-import { recordExamination } from "~/models/examination.server";
+import { recordExamination } from "~/gear/examinations.server";
 import { GearItem } from "~/models/gear-item.server";
 import { getOrganisation, updateOrganisationSettings } from "~/models/organisation.server";
 import { getPlan } from "~/models/plan.server";

@@ -4,7 +4,6 @@ import type { ReactNode } from "react";
 import { NumberInput } from "~/components/plan-editor/fields";
 import type { LiveSolution } from "~/components/plan-editor/use-live-solve";
 import { Button } from "~/components/ui/form";
-import type { ComponentDefinition } from "~/loads/component-definition";
 import type { EditorAction, PlanEdit } from "~/plans/editor-state";
 import type { GearPick } from "~/plans/rigging";
 import { legChangeText, LEVELLING_STEP_M } from "~/plans/check-text-tilt";
@@ -15,7 +14,6 @@ export function ArrangementPanel({
   dispatch,
   canEdit,
   units,
-  snapshot,
   solution,
   picks,
   children,
@@ -24,7 +22,6 @@ export function ArrangementPanel({
   dispatch: (action: EditorAction) => void;
   canEdit: boolean;
   units: Units;
-  snapshot: ComponentDefinition;
   solution: LiveSolution | null;
   picks: ReadonlyMap<number, GearPick>;
   /** Shown at the foot of the panel (the drawing to trace over). */

@@ -19,7 +19,7 @@ import {
 } from "~/plans/pdf/layout.server";
 import { LabelPlacer, type Box, type Candidate, type LabelLines, type Point } from "~/plans/pdf/labels.server";
 import type { PrintablePlan } from "~/plans/printable";
-import { formatLength, massUnitLabel, type Units } from "~/utils/format";
+import { formatForce, formatLength, massUnitLabel, type Units } from "~/utils/format";
 
 type V2 = { a: number; b: number };
 type Seg = { from: V2; to: V2 };
@@ -159,7 +159,7 @@ function legLabelLines(flow: Flow, name: string, leg: PlanLeg | null, units: Uni
   if (leg.slack) return [{ text: `${name}: slack`, style: bold }];
   return [
     {
-      text: `${name}: ${knText(leg.tensionKn)} · ${tensionMassNumber(leg.tensionKg, units)} ${massUnitLabel(units)}`,
+      text: `${name}: ${units === "metric" ? knText(leg.tensionKn) : formatForce(leg.tensionKn, units)} · ${tensionMassNumber(leg.tensionKg, units)} ${massUnitLabel(units)}`,
       style: bold,
     },
     { text: `${degText(leg.angleFromVerticalDeg)} from vertical`, style: small },

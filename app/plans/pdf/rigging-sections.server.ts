@@ -7,7 +7,7 @@ import { degText, knText, loadText, percentUp, tensionMassNumber, utcText, VERDI
 import { CONTENT_W, INK, INK_SOFT, LEFT, STEEL, TONE, type Flow } from "~/plans/pdf/layout.server";
 import { cell, heading, table, type Column } from "~/plans/pdf/tables.server";
 import type { PrintablePlan } from "~/plans/printable";
-import { checkSentence, itemText, ruleText } from "~/plans/check-text";
+import { checkSentence, itemText, ruleText, warningSentence } from "~/plans/check-text";
 import { DEFAULT_RULE_SET, type RuleSetId } from "~/statics/reference";
 
 /** How the printed plan names each rule set. */
@@ -16,7 +16,7 @@ const RULE_SET_TITLES: Record<RuleSetId, string> = {
   us: "US (OSHA 29 CFR 1910.184, ASME B30.9, B30.26, B30.20, ASME B18.15)",
 };
 import { ceilTo } from "~/statics/units";
-import { formatLength, formatMass, massUnitLabel } from "~/utils/format";
+import { formatForce, formatLength, formatMass, massUnitLabel } from "~/utils/format";
 
 function legRows(plan: PrintablePlan): Array<{ name: string; leg: PlanLeg }> {
   const rows = plan.results.legs.map((leg) => ({
@@ -42,7 +42,7 @@ export function riggingSection(flow: Flow, plan: PrintablePlan) {
   const cols: Column[] = [
     { title: "Leg", width: 90 },
     { title: "Length", width: 80, align: "right" },
-    { title: "Tension (kN)", width: 80, align: "right" },
+    { title: `Tension (${units === "metric" ? "kN" : "lbf"})`, width: 80, align: "right" },
     { title: `Tension (${massUnitLabel(units)})`, width: 90, align: "right" },
     { title: "Angle from vertical", width: 95, align: "right" },
     { title: "Vertical share", width: CONTENT_W - 435, align: "right" },
@@ -51,7 +51,12 @@ export function riggingSection(flow: Flow, plan: PrintablePlan) {
     cells: [
       cell(flow, cols[0]!.width, [{ text: name, style: strong }]),
       cell(flow, cols[1]!.width, [{ text: formatLength(leg.lengthM, units), style: body }]),
-      cell(flow, cols[2]!.width, [{ text: leg.slack ? "slack" : knText(leg.tensionKn), style: body }]),
+      cell(flow, cols[2]!.width, [
+        {
+          text: leg.slack ? "slack" : units === "metric" ? knText(leg.tensionKn) : formatForce(leg.tensionKn, units),
+          style: body,
+        },
+      ]),
       cell(flow, cols[3]!.width, [
         { text: leg.slack ? "slack" : tensionMassNumber(leg.tensionKg, units), style: body },
       ]),
@@ -77,7 +82,11 @@ export function riggingSection(flow: Flow, plan: PrintablePlan) {
   if (plan.results.warnings.length > 0) {
     flow.y -= 3;
     for (const w of plan.results.warnings)
-      flow.paragraph(`Note: ${w.message}`, { font: flow.fonts.semibold, size: 7.5, color: TONE.warn }, { gapAfter: 1 });
+      flow.paragraph(
+        `Note: ${warningSentence(w, units)}`,
+        { font: flow.fonts.semibold, size: 7.5, color: TONE.warn },
+        { gapAfter: 1 },
+      );
   }
 }
 

@@ -1,29 +1,26 @@
-// A plan's results for a lifting beam: vertical drops to the load, the beam (with its own mass) hung
-// from the hook, and the same checks a bridle gets, under the organisation's rule set. Pure.
-import type { Arrangement, PlanLeg, PlanResultsBody } from "~/plans/document";
-import type { ComponentDefinition } from "~/loads/component-definition";
-import { toCheckResult } from "~/statics/api";
-import { solveBeamLift } from "~/statics/beam";
-import type { BeamGeometry } from "~/statics/beam-placement";
+// A lifting beam arrangement: vertical drops from the beam's lugs to the load, the beam (with its own mass)
+// hung from the hook, and the same checks a bridle gets, under the given rule set. Pure.
+import type { ArrangementInput, BeamHanging } from "./arrangement";
 import { placeBeamForPlan } from "~/plans/beam-geometry";
-import type { LiftPoint } from "~/statics/bridle";
-import type { Check, InspectionRecord, RiggingDescription } from "~/statics/check-types";
-import { grossLoads } from "~/statics/checks";
-import { contingencyFactor, ratioCheck } from "~/statics/checks-common";
-import { checkEyebolt, checkShackle, shackleSideLoad } from "~/statics/checks-fittings";
-import { checkCraneLoad, checkHeadroom, checkInspection, checkMasterLink } from "~/statics/checks-hook";
-import { checkSlingLeg } from "~/statics/checks-sling";
-import type { ReferenceTables, RuleSetId } from "~/statics/reference";
-import { allowedHitches } from "~/statics/rule-sets";
-import { STANDARD_GRAVITY_MS2 } from "~/statics/units";
-
-/** One check per id: a multi-leg sling on several legs is inspected once. */
-export function uniqueById<T extends { id: string }>(items: T[]): T[] {
-  const seen = new Set<string>();
-  return items.filter((c) => (seen.has(c.id) ? false : (seen.add(c.id), true)));
-}
-
-type BeamOutcome = { status: 200; body: PlanResultsBody } | { status: 422; body: { error: string; code: string } };
+import { solveBeamLift } from "./beam";
+import type { BeamGeometry } from "./beam-placement";
+import type { Check, InspectionRecord } from "./check-types";
+import { grossLoads } from "./checks";
+import { contingencyFactor, ratioCheck } from "./checks-common";
+import { checkEyebolt, checkShackle, shackleSideLoad } from "./checks-fittings";
+import { checkCraneLoad, checkHeadroom, checkInspection, checkMasterLink } from "./checks-hook";
+import { checkSlingLeg } from "./checks-sling";
+import type { ReferenceTables } from "./reference";
+import {
+  toCheckResult,
+  toLegBody,
+  uniqueById,
+  type ArrangementBody,
+  type ArrangementOutcome,
+  type SolveLegBody,
+} from "./response";
+import { allowedHitches } from "./rule-sets";
+import { STANDARD_GRAVITY_MS2 } from "./units";
 
 /** The allocated beam as the checks take it: from the register item. */
 export type BeamItemSpec = BeamGeometry & {
@@ -34,26 +31,36 @@ export type BeamItemSpec = BeamGeometry & {
   inspection?: InspectionRecord;
 };
 
-/** The beam the plan uses: the register item, else the figures typed on a plan made before (not from the register). */
-function beamInUse(arrangement: Arrangement, item: BeamItemSpec | null) {
+/**
+ * The beam of a beam arrangement: the drops' length, and the register item allocated; mass, WLL and length
+ * typed on a plan made before beams came from the register are used only when no item is given.
+ */
+export type BeamSpec = {
+  dropLengthM: number;
+  item?: BeamItemSpec | null;
+  massKg?: number;
+  wllKg?: number;
+  lengthM?: number;
+};
+
+/** The beam in use: the register item, else the typed figures (not from the register). */
+function beamInUse(spec: BeamSpec) {
+  const item = spec.item ?? null;
   if (item) return { ok: true as const, massKg: item.massKg, wllKg: item.wllKg, lengthM: item.lengthM, item };
-  const typed = arrangement.beam;
-  if (typed?.massKg !== undefined && typed.wllKg !== undefined && typed.lengthM !== undefined)
-    return { ok: true as const, massKg: typed.massKg, wllKg: typed.wllKg, lengthM: typed.lengthM, item: null };
+  if (spec.massKg !== undefined && spec.wllKg !== undefined && spec.lengthM !== undefined)
+    return { ok: true as const, massKg: spec.massKg, wllKg: spec.wllKg, lengthM: spec.lengthM, item: null };
   return { ok: false as const };
 }
 
-export function beamResults(
-  snapshot: ComponentDefinition,
-  arrangement: Arrangement,
-  rigging: RiggingDescription,
-  extraChecks: Check[],
-  notes: Array<{ code: string; message: string }>,
+/** Solves a beam arrangement and checks its rigging (the drops' and the hook's). */
+export function solveBeamArrangement(
+  input: ArrangementInput & { hanging: BeamHanging },
   tables: ReferenceTables,
-  context: { todayIso: string; ruleSet: RuleSetId; liftDateIso: string | null; beamItem?: BeamItemSpec | null },
-): BeamOutcome {
-  const { ruleSet } = context;
-  const used = beamInUse(arrangement, context.beamItem ?? null);
+): ArrangementOutcome {
+  const { ruleSet, load, liftPoints: points } = input;
+  const { hookZM: hookHeightM } = input.hanging;
+  const rigging = input.rigging ?? {};
+  const used = beamInUse(input.hanging.beam);
   if (!used.ok)
     return {
       status: 422,
@@ -62,13 +69,7 @@ export function beamResults(
         error: "Allocate the lifting beam or spreader from the register: its mass, WLL and lugs come from there.",
       },
     };
-  const beam = { ...used, dropLengthM: arrangement.beam!.dropLengthM };
-  const byLabel = new Map(snapshot.liftPoints.map((p) => [p.label, p]));
-  const chosen = arrangement.liftPointLabels.map((l) => byLabel.get(l)!);
-  const points: LiftPoint[] = chosen.map((p) => {
-    const n = Math.hypot(p.axis.x, p.axis.y, p.axis.z) || 1;
-    return { id: p.label, position: p.position, axis: { x: p.axis.x / n, y: p.axis.y / n, z: p.axis.z / n } };
-  });
+  const beam = { ...used, dropLengthM: input.hanging.beam.dropLengthM };
   const span = Math.max(
     0,
     ...points.flatMap((a) => points.map((b) => Math.hypot(a.position.x - b.position.x, a.position.y - b.position.y))),
@@ -82,11 +83,11 @@ export function beamResults(
       },
     };
   }
-  const placed = placeBeamForPlan(points, snapshot.cog, beam.dropLengthM, beam.item ?? { lengthM: beam.lengthM });
+  const placed = placeBeamForPlan(points, load.cog, beam.dropLengthM, beam.item ?? { lengthM: beam.lengthM });
   if (!placed.ok) return { status: 422, body: { error: placed.message, code: placed.code } };
   const placement = placed.placement;
   const beamZ = placement.beamZM;
-  if (!(arrangement.hookHeightM > beamZ + 1e-6)) {
+  if (!(hookHeightM > beamZ + 1e-6)) {
     return {
       status: 422,
       body: {
@@ -97,17 +98,17 @@ export function beamResults(
   }
   const dropLengths = placement.drops.map((d) => d.lengthM);
   const outcome = solveBeamLift(
-    snapshot.massKg,
-    snapshot.cog,
+    load.massKg,
+    load.cog,
     points,
     { massKg: beam.massKg, cog: placement.cog, topLugs: placement.topLugs },
-    arrangement.hookHeightM,
+    hookHeightM,
     dropLengths,
   );
   if (!outcome.ok) return { status: 422, body: { error: outcome.message, code: outcome.code } };
   const s = outcome.solution;
   const factor = contingencyFactor(rigging.contingencyPct);
-  const legs: PlanLeg[] = s.drops.drops.map((d, i) => {
+  const legs: SolveLegBody[] = s.drops.drops.map((d, i) => {
     const axis = points[i]!.axis;
     return {
       liftPointId: d.liftPointId,
@@ -145,7 +146,7 @@ export function beamResults(
         inspections.push({ name: `Shackle at ${leg.liftPointId}`, record: lr.shackle.inspection });
     }
     if (lr.eyebolt) {
-      const thread = byLabel.get(leg.liftPointId)?.thread || undefined;
+      const thread = point.thread || undefined;
       checks.push(
         checkEyebolt(leg.liftPointId, loadKg, leg.axisAngleDeg, lr.eyebolt, thread, tables, {
           ruleSet,
@@ -156,7 +157,7 @@ export function beamResults(
         inspections.push({ name: `Eyebolt at ${leg.liftPointId}`, record: lr.eyebolt.inspection });
     }
   });
-  const designLoadKg = snapshot.massKg * factor;
+  const designLoadKg = load.massKg * factor;
   const beamName = beam.item ? (beam.item.kind === "spreader" ? "Spreader beam" : "Lifting beam") : "Lifting beam";
   checks.push(
     ratioCheck(
@@ -179,7 +180,7 @@ export function beamResults(
     ),
   );
   if (beam.item?.inspection) inspections.push({ name: beamName, record: beam.item.inspection });
-  const loads = grossLoads(snapshot.massKg, rigging, beam.massKg);
+  const loads = grossLoads(load.massKg, rigging, beam.massKg);
   if (rigging.masterLink) {
     checks.push(checkMasterLink(loads.masterLink.kg, rigging.masterLink, { ruleSet, gross: loads.masterLink.gross }));
     if (rigging.masterLink.inspection) inspections.push({ name: "Master link", record: rigging.masterLink.inspection });
@@ -188,36 +189,29 @@ export function beamResults(
     checks.push(checkCraneLoad(loads.crane.kg, rigging.crane, { ruleSet, gross: loads.crane.gross }));
     if (rigging.crane.inspection) inspections.push({ name: "Crane or hoist", record: rigging.crane.inspection });
     if (rigging.crane.maxHookHeightM !== undefined && rigging.headroom) {
-      const drop = arrangement.hookHeightM - (rigging.headroom.loadUndersideZM ?? 0);
+      const drop = hookHeightM - (rigging.headroom.loadUndersideZM ?? 0);
       checks.push(
         checkHeadroom(rigging.headroom.clearanceAboveFloorM + drop, rigging.crane.maxHookHeightM, { ruleSet }),
       );
     }
   }
   for (const { name, record } of inspections) {
-    checks.push(checkInspection(name, record, context.todayIso, { ruleSet, tables, liftDateIso: context.liftDateIso }));
+    checks.push(
+      checkInspection(name, record, input.todayIso ?? "", { ruleSet, tables, liftDateIso: input.liftDateIso ?? null }),
+    );
   }
-  checks.push(...extraChecks);
+  checks.push(...(input.extra?.checks ?? []));
   const unique = uniqueById(checks).map(toCheckResult);
   const dropRating = s.drops.rating;
-  const topLegs: PlanLeg[] = s.top.legs.map((l) => ({
-    liftPointId: l.liftPointId,
-    lengthM: l.lengthM,
-    tensionKn: l.tensionKn,
-    tensionKg: l.tensionKg,
-    angleFromVerticalDeg: l.angleFromVerticalDeg,
-    axisAngleDeg: l.axisAngleDeg,
-    verticalShare: l.verticalShare,
-    slack: l.slack,
-  }));
-  const body: PlanResultsBody = {
+  const topLegs: SolveLegBody[] = s.top.legs.map(toLegBody);
+  const body: ArrangementBody = {
     mode: "level",
-    weightKn: (snapshot.massKg * STANDARD_GRAVITY_MS2) / 1000,
+    weightKn: (load.massKg * STANDARD_GRAVITY_MS2) / 1000,
     method: s.drops.method,
     hook: { x: s.top.hook.x, y: s.top.hook.y, z: s.top.hook.z },
     tiltDeg: 0,
     legs,
-    warnings: [...s.warnings.map((w) => ({ code: w.code, message: w.message })), ...notes],
+    warnings: [...s.warnings.map((w) => ({ code: w.code, message: w.message })), ...(input.extra?.notes ?? [])],
     rating: dropRating,
     ruleSet,
     checks: unique,
