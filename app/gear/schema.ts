@@ -195,7 +195,7 @@ export const gearItemSchema = z
     serial: text(80),
     // Read here for its number (so a mistyped figure is named at once); its unit is checked against wllUnit below.
     wllValue: z
-      .preprocess((v) => (typeof v === "number" ? String(v) : typeof v === "string" ? v.trim() : ""), z.string())
+      .preprocess((v) => (typeof v === "number" ? String(v) : typeof v === "string" ? v.trim() : ""), safeText())
       .transform((text, ctx): string => {
         const input = text;
         // Text that is no figure at all gets the field's own sentence; a figure is read, or refused saying why.

@@ -22,11 +22,11 @@ import type { LiveProblem } from "~/plans/live-state";
 import { watchAllocatedGear } from "~/plans/live-state.server";
 import { ENTITY } from "~/plans/workflow-context.server";
 import { readLiftForm } from "~/routes/plans.$planId.lift.server";
-import { parseForm } from "~/utils/forms";
+import { parseForm, safeText } from "~/utils/forms";
 import { checkUpload, type CheckedUpload } from "~/utils/uploads.server";
 
 const envelopeSchema = z.object({
-  clientId: z.string().regex(/^[A-Za-z0-9-]{8,64}$/, "The phone's id for this work is not valid."),
+  clientId: safeText().regex(/^[A-Za-z0-9-]{8,64}$/, "The phone's id for this work is not valid."),
   kind: z.enum(["lift", "defect"]),
   madeAt: z.iso.datetime({ offset: true, message: "When the work was made is not a time." }),
   planId: z.coerce.number().int().positive().optional(),

@@ -8,6 +8,7 @@
 import { create, unitDependencies, type MathJsInstance } from "mathjs";
 import { z } from "zod";
 import { convertLength, convertMass, type LengthUnit, type MassUnit } from "~/statics/units";
+import { safeText } from "~/utils/forms";
 import { readTypedQuantity, type TypedNumber } from "~/utils/numbers";
 
 export type Quantity = "mass" | "length";
@@ -151,7 +152,7 @@ export function optionalAmountField<Q extends Quantity>(
 ) {
   // Through preprocess, so a field left out of the form (or the CSV row) is read as empty, not as missing.
   const asText = (v: unknown) => (typeof v === "string" ? v : v == null ? "" : String(v));
-  return z.preprocess(asText, z.string()).transform((text, ctx): number | null => {
+  return z.preprocess(asText, safeText()).transform((text, ctx): number | null => {
     const input = text;
     if (text.trim() === "") return null;
     const read = readTypedAmount(text, quantity, unitIfNone, into);
