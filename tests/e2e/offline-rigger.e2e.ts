@@ -64,11 +64,9 @@ describe("a rigger without signal", () => {
   it("keeps the plan, records the lift and a defect offline, and every record arrives once when signal returns", async () => {
     let page = phone.pages()[0] ?? (await phone.newPage());
     await signIn(page, "rigger@example.com");
-    const plans = (await (await page.request.get("/api/plans")).json()) as Array<{
-      id: number;
-      title: string;
-      status: string;
-    }>;
+    const { plans } = (await (await page.request.get("/api/plans")).json()) as {
+      plans: Array<{ id: number; title: string; status: string }>;
+    };
     const plan = plans.find((p) => p.title.startsWith("Lift the B1 gearbox off") && p.status === "approved");
     expect(plan, "the demo's gearbox plan is approved and assigned to the rigger").toBeDefined();
     const liftUrl = `/plans/${plan!.id}/lift`;

@@ -127,7 +127,9 @@ describe(
     it("the planner lays the lift out like the demo gearbox on that master link and submits it", async () => {
       const { page } = desk;
       await as("planner@example.com");
-      const list = (await (await page.request.get("/api/plans")).json()) as Array<{ id: number; title: string }>;
+      const { plans: list } = (await (await page.request.get("/api/plans")).json()) as {
+        plans: Array<{ id: number; title: string }>;
+      };
       const gearbox = list.find((p) => p.title.startsWith("Lift the B1 gearbox off"))!;
       const model = (await (await page.request.get(`/api/plans/${gearbox.id}`)).json()) as PlanDoc;
 

@@ -33,11 +33,9 @@ async function chooseUnits(page: Page, units: "metric" | "imperial") {
 
 /** The demo plan with this status whose title starts so (ids depend on the seeding order). */
 async function planId(page: Page, status: string, title: RegExp) {
-  const plans = (await (await page.request.get("/api/plans")).json()) as Array<{
-    id: number;
-    title: string;
-    status: string;
-  }>;
+  const { plans } = (await (await page.request.get("/api/plans")).json()) as {
+    plans: Array<{ id: number; title: string; status: string }>;
+  };
   const found = plans.find((p) => p.status === status && title.test(p.title));
   expect(found, `a demo plan ${status}: ${title}`).toBeDefined();
   return found!.id;
