@@ -13,7 +13,15 @@ import type { ComponentDefinition, CogSource, MassSource } from "~/loads/compone
 import { sequelize } from "~/utils/db.server";
 import { recordAudit } from "~/models/audit-event.server";
 import { StoredFile } from "~/models/stored-file.server";
-import { keysetClauses, pageOf, type Page, type PageRequest, type SortKey } from "~/utils/keyset.server";
+import {
+  keysetBind,
+  keysetSql,
+  keysetWay,
+  pageOf,
+  type Page,
+  type PageRequest,
+  type SortKey,
+} from "~/utils/keyset.server";
 
 export class Component extends Model<InferAttributes<Component>, InferCreationAttributes<Component>> {
   declare id: CreationOptional<number>;
@@ -228,6 +236,10 @@ export const COMPONENT_LIST_KEYS: SortKey[] = [
   { sql: "c.name", direction: "ASC" },
   { sql: "c.id", direction: "ASC" },
 ];
+const COMPONENT_KEYSET = keysetSql(COMPONENT_LIST_KEYS);
+
+/** The current components, or the archived ones. */
+const ARCHIVED_CONDITION = { current: "c.archived_at IS NULL", archived: "c.archived_at IS NOT NULL" } as const;
 
 const COMPONENT_LIST_COLUMNS = `c.id AS id, c.name AS name, c.mass_kg AS massKg, c.mass_source AS massSource,
   c.contingency_pct AS contingencyPct,
@@ -239,14 +251,15 @@ export async function listComponentsPage(
   request: PageRequest,
   options: { archived?: boolean; query?: string } = {},
 ): Promise<Page<ComponentListRow>> {
-  const clauses = keysetClauses(COMPONENT_LIST_KEYS, request);
+  const way = keysetWay(request);
   const rows = await sequelize.query<ComponentListRow>(
     `SELECT ${COMPONENT_LIST_COLUMNS} FROM components c
-      WHERE c.organisation_id = ? AND c.archived_at IS ${options.archived ? "NOT NULL" : "NULL"}
-        ${options.query ? "AND instr(lower(c.name), lower(?)) > 0" : ""}
-        AND ${clauses.where} ORDER BY ${clauses.order} LIMIT ?`,
+      WHERE c.organisation_id = $organisationId
+        AND ${ARCHIVED_CONDITION[options.archived ? "archived" : "current"]}
+        AND ($query IS NULL OR instr(lower(c.name), lower($query)) > 0)
+        AND ${COMPONENT_KEYSET[way].where} ORDER BY ${COMPONENT_KEYSET[way].order} LIMIT $limit`,
     {
-      replacements: [organisationId, ...(options.query ? [options.query] : []), ...clauses.values, clauses.limit],
+      bind: { organisationId, query: options.query || null, ...keysetBind(request) },
       type: QueryTypes.SELECT,
     },
   );
@@ -259,10 +272,10 @@ export async function listComponentChoices(organisationId: number) {
     `SELECT c.id AS id, c.name AS name, c.mass_kg AS massKg,
             (SELECT COUNT(*) FROM component_lift_points p WHERE p.component_id = c.id) AS liftPoints
        FROM components c
-      WHERE c.organisation_id = ? AND c.archived_at IS NULL
+      WHERE c.organisation_id = $organisationId AND c.archived_at IS NULL
         AND EXISTS (SELECT 1 FROM component_lift_points p WHERE p.component_id = c.id)
       ORDER BY c.name, c.id`,
-    { replacements: [organisationId], type: QueryTypes.SELECT },
+    { bind: { organisationId }, type: QueryTypes.SELECT },
   );
 }
 

@@ -42,39 +42,46 @@ const EXPORT_COLUMNS = `g.item_code AS itemCode, g.kind AS kind, g.description A
   g.drop_lugs_m AS dropLugsM, g.top_lugs_m AS topLugsM,
   s.name AS homeSiteName, g.status AS status, g.last_examined_on AS lastExaminedOn, g.next_due_on AS nextDueOn`;
 
+const EXPORT_FIRST_BATCH = `SELECT ${EXPORT_COLUMNS}
+   FROM gear_items g LEFT JOIN sites s ON s.id = g.home_site_id
+  WHERE g.organisation_id = $organisationId
+  ORDER BY g.item_code LIMIT $limit`;
+
+const EXPORT_NEXT_BATCH = `SELECT ${EXPORT_COLUMNS}
+   FROM gear_items g LEFT JOIN sites s ON s.id = g.home_site_id
+  WHERE g.organisation_id = $organisationId AND g.item_code > $afterItemCode
+  ORDER BY g.item_code LIMIT $limit`;
+
 /**
  * Up to `limit` items of the organisation in item id order, after `afterItemCode` (from the first when null): the
  * export's next batch, read through the (organisation, item id) index.
  */
 export async function readGearExportBatch(organisationId: number, afterItemCode: string | null, limit: number) {
-  return sequelize.query<GearExportRow>(
-    `SELECT ${EXPORT_COLUMNS}
-       FROM gear_items g LEFT JOIN sites s ON s.id = g.home_site_id
-      WHERE g.organisation_id = ? ${afterItemCode === null ? "" : "AND g.item_code > ?"}
-      ORDER BY g.item_code LIMIT ?`,
-    {
-      replacements: [organisationId, ...(afterItemCode === null ? [] : [afterItemCode]), limit],
+  if (afterItemCode === null)
+    return sequelize.query<GearExportRow>(EXPORT_FIRST_BATCH, {
+      bind: { organisationId, limit },
       type: QueryTypes.SELECT,
-    },
-  );
+    });
+  return sequelize.query<GearExportRow>(EXPORT_NEXT_BATCH, {
+    bind: { organisationId, afterItemCode, limit },
+    type: QueryTypes.SELECT,
+  });
 }
 
 export type AttentionPreview = { id: number; itemCode: string; description: string; nextDueOn: string | null };
 
-/** Each attention group's condition (attentionGroup in gear/attention.ts, as SQL), and its order. */
-function groupSql(group: AttentionGroup): string {
-  const usable = "g.status NOT IN ('withdrawn', 'quarantined')";
-  switch (group) {
-    case "quarantined":
-      return "g.status = 'quarantined'";
-    case "never_examined":
-      return `${usable} AND g.next_due_on IS NULL`;
-    case "overdue":
-      return `${usable} AND g.next_due_on < :today`;
-    case "due_soon":
-      return `${usable} AND g.next_due_on >= :today AND g.next_due_on <= :until`;
-  }
-}
+const USABLE = "g.status NOT IN ('withdrawn', 'quarantined')";
+
+/**
+ * Each attention group's condition (attentionGroup in gear/attention.ts, as SQL) and the dates it binds: `$today`,
+ * and for due soon `$until`.
+ */
+const ATTENTION_GROUP_SQL: Record<AttentionGroup, { where: string; dates: ReadonlyArray<"today" | "until"> }> = {
+  quarantined: { where: "g.status = 'quarantined'", dates: [] },
+  never_examined: { where: `${USABLE} AND g.next_due_on IS NULL`, dates: [] },
+  overdue: { where: `${USABLE} AND g.next_due_on < $today`, dates: ["today"] },
+  due_soon: { where: `${USABLE} AND g.next_due_on >= $today AND g.next_due_on <= $until`, dates: ["today", "until"] },
+};
 
 /**
  * How many items fall in each attention group on `today` (due soon: by `until`), and the first `perGroup` of each
@@ -87,18 +94,21 @@ export async function gearAttentionSummary(
   groups: readonly AttentionGroup[],
   perGroup: number,
 ) {
-  const replacements = { organisationId, today, until, perGroup };
+  const dates = { today, until };
   return Promise.all(
     groups.map(async (group) => {
-      const where = `g.organisation_id = :organisationId AND ${groupSql(group)}`;
-      const [counted] = await sequelize.query<{ n: number }>(`SELECT COUNT(*) AS n FROM gear_items g WHERE ${where}`, {
-        replacements,
-        type: QueryTypes.SELECT,
-      });
+      const condition = ATTENTION_GROUP_SQL[group];
+      const bind = { organisationId, ...Object.fromEntries(condition.dates.map((d) => [d, dates[d]])) };
+      const [counted] = await sequelize.query<{ n: number }>(
+        `SELECT COUNT(*) AS n FROM gear_items g
+          WHERE g.organisation_id = $organisationId AND ${ATTENTION_GROUP_SQL[group].where}`,
+        { bind, type: QueryTypes.SELECT },
+      );
       const items = await sequelize.query<AttentionPreview>(
         `SELECT g.id AS id, g.item_code AS itemCode, g.description AS description, g.next_due_on AS nextDueOn
-           FROM gear_items g WHERE ${where} ORDER BY g.next_due_on, g.item_code LIMIT :perGroup`,
-        { replacements, type: QueryTypes.SELECT },
+           FROM gear_items g WHERE g.organisation_id = $organisationId AND ${ATTENTION_GROUP_SQL[group].where}
+          ORDER BY g.next_due_on, g.item_code LIMIT $perGroup`,
+        { bind: { ...bind, perGroup }, type: QueryTypes.SELECT },
       );
       return { group, count: counted?.n ?? 0, items };
     }),

@@ -184,22 +184,16 @@ function contains(column: string, q: string) {
 
 /**
  * Items with `q` in their item id, description, manufacturer or serial (case-insensitive). Three characters or more
- * are looked up in the trigram index (migration 0026) as one phrase; shorter text, which no trigram holds, is looked
- * for in the columns themselves.
+ * are looked up in the trigram index (migration 0026) as one phrase, bound as `$phrase`; shorter text, which no
+ * trigram holds, is looked for in the columns themselves.
  */
-function searchWhere(q: string): WhereOptions {
-  if ([...q].length >= 3) {
-    const phrase = sequelize.escape(`"${q.replaceAll('"', '""')}"`);
-    return sequelize.literal(
-      `\`GearItem\`.\`id\` IN (SELECT rowid FROM gear_items_search WHERE gear_items_search MATCH ${phrase})`,
-    ) as unknown as WhereOptions;
-  }
-  return {
-    [Op.or]: ["GearItem.item_code", "GearItem.description", "GearItem.manufacturer", "GearItem.serial"].map((c) =>
-      contains(c, q),
-    ),
-  };
+function searchWhere(q: string): { where: WhereOptions; bind?: { phrase: string } } {
+  const phrase = `"${q.replaceAll('"', '""')}"`;
+  if ([...q].length >= 3) return { where: sequelize.literal(FTS_MATCH) as unknown as WhereOptions, bind: { phrase } };
+  const columns = ["GearItem.item_code", "GearItem.description", "GearItem.manufacturer", "GearItem.serial"];
+  return { where: { [Op.or]: columns.map((c) => contains(c, q)) } };
 }
+const FTS_MATCH = "`GearItem`.`id` IN (SELECT rowid FROM gear_items_search WHERE gear_items_search MATCH $phrase)";
 
 function dueWhere(due: DueState, today: string): WhereOptions {
   const soon = addDays(today, DUE_SOON_DAYS);
@@ -276,12 +270,16 @@ export async function searchGearItems(
   else if (search.site) and.push({ homeSiteId: search.site });
   if (search.due) and.push(dueWhere(search.due, today));
   const q = search.q?.trim();
-  if (q) and.push(searchWhere(q));
+  const text = q ? searchWhere(q) : null;
+  if (text) and.push(text.where);
+  const bind = text?.bind;
   const dir = search.dir === "desc" ? "DESC" : "ASC";
   const order: Array<[string, string] | [{ model: typeof Site; as: string }, string, string]> =
     search.sort === "site" ? [[{ model: Site, as: "homeSite" }, "name", dir]] : [[search.sort, dir]];
   if (search.sort !== "itemCode") order.push(["itemCode", "ASC"]);
   const where = { [Op.and]: and };
+  // Count hands `bind` on to its query, though its options type leaves it out.
+  const counting = { where, bind };
   // Counted without the site join (no filter needs it), which findAndCountAll would keep.
   const [rows, count] = await Promise.all([
     // Plain rows of the columns a row shows: building model instances cost more than the query.
@@ -294,8 +292,9 @@ export async function searchGearItems(
       offset: (search.page - 1) * search.pageSize,
       raw: true,
       nest: true,
+      bind,
     }),
-    GearItem.count({ where }),
+    GearItem.count(counting),
   ]);
   return { rows: rows.map((r) => toRow(r, today)), total: count };
 }

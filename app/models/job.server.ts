@@ -11,7 +11,15 @@ import {
 import { sequelize } from "~/utils/db.server";
 import { recordAudit } from "~/models/audit-event.server";
 import { Site } from "~/models/site.server";
-import { keysetClauses, pageOf, type Page, type PageRequest, type SortKey } from "~/utils/keyset.server";
+import {
+  keysetBind,
+  keysetSql,
+  keysetWay,
+  pageOf,
+  type Page,
+  type PageRequest,
+  type SortKey,
+} from "~/utils/keyset.server";
 
 export type JobStatus = "open" | "closed";
 
@@ -87,6 +95,7 @@ export const JOB_LIST_KEYS: SortKey[] = [
   { sql: "j.work_order", direction: "ASC" },
   { sql: "j.id", direction: "ASC" },
 ];
+const JOB_KEYSET = keysetSql(JOB_LIST_KEYS);
 
 /** One page of the organisation's jobs (optionally one site's, or only open ones), with the columns a list shows. */
 export async function listJobsPage(
@@ -94,25 +103,22 @@ export async function listJobsPage(
   request: PageRequest,
   options: { siteId?: number; status?: JobStatus } = {},
 ): Promise<Page<JobListRow>> {
-  const clauses = keysetClauses(JOB_LIST_KEYS, request);
-  const filters: string[] = [];
-  const filterValues: Array<string | number> = [];
-  if (options.siteId !== undefined) {
-    filters.push("AND j.site_id = ?");
-    filterValues.push(options.siteId);
-  }
-  if (options.status !== undefined) {
-    filters.push("AND j.status = ?");
-    filterValues.push(options.status);
-  }
+  const way = keysetWay(request);
   const rows = await sequelize.query<JobListRow>(
     `SELECT j.id AS id, j.work_order AS workOrder, j.title AS title, j.status AS status, j.starts_on AS startsOn,
             COALESCE(s.name, '') AS site, COALESCE(s.customer, '') AS customer
        FROM jobs j LEFT JOIN sites s ON s.id = j.site_id
-      WHERE j.organisation_id = ? ${filters.join(" ")} AND ${clauses.where}
-      ORDER BY ${clauses.order} LIMIT ?`,
+      WHERE j.organisation_id = $organisationId
+        AND ($siteId IS NULL OR j.site_id = $siteId) AND ($status IS NULL OR j.status = $status)
+        AND ${JOB_KEYSET[way].where}
+      ORDER BY ${JOB_KEYSET[way].order} LIMIT $limit`,
     {
-      replacements: [organisationId, ...filterValues, ...clauses.values, clauses.limit],
+      bind: {
+        organisationId,
+        siteId: options.siteId ?? null,
+        status: options.status ?? null,
+        ...keysetBind(request),
+      },
       type: QueryTypes.SELECT,
     },
   );

@@ -13,7 +13,15 @@ import { plannedLoad, readStoredLoad } from "~/plans/load-override";
 import { sequelize } from "~/utils/db.server";
 import { Job } from "~/models/job.server";
 import { Site } from "~/models/site.server";
-import { keysetClauses, pageOf, type Page, type PageRequest, type SortKey } from "~/utils/keyset.server";
+import {
+  keysetBind,
+  keysetSql,
+  keysetWay,
+  pageOf,
+  type Page,
+  type PageRequest,
+  type SortKey,
+} from "~/utils/keyset.server";
 import {
   arrangementSchema,
   detailsSchema,
@@ -182,6 +190,7 @@ export type PlanListRow = {
 
 /** Plans newest first: the id alone orders them. */
 export const PLAN_LIST_KEYS: SortKey[] = [{ sql: "p.id", direction: "DESC" }];
+const PLAN_KEYSET = keysetSql(PLAN_LIST_KEYS);
 
 /**
  * One page of the organisation's plans (optionally one job's), newest first, with their current revision's status:
@@ -192,16 +201,16 @@ export async function listPlansPage(
   request: PageRequest,
   options: { jobId?: number } = {},
 ): Promise<Page<PlanListRow>> {
-  const clauses = keysetClauses(PLAN_LIST_KEYS, request);
-  const byJob = options.jobId !== undefined;
+  const way = keysetWay(request);
   const rows = await sequelize.query<PlanListRow & { status: PlanStatus | null }>(
     `SELECT p.id AS id, p.title AS title, p.job_id AS jobId,
             r.status AS status, r.revision AS revision, r.version AS version
        FROM plans p LEFT JOIN plan_revisions r ON r.id = p.current_revision_id
-      WHERE p.organisation_id = ? ${byJob ? "AND p.job_id = ?" : ""} AND ${clauses.where}
-      ORDER BY ${clauses.order} LIMIT ?`,
+      WHERE p.organisation_id = $organisationId AND ($jobId IS NULL OR p.job_id = $jobId)
+        AND ${PLAN_KEYSET[way].where}
+      ORDER BY ${PLAN_KEYSET[way].order} LIMIT $limit`,
     {
-      replacements: [organisationId, ...(byJob ? [options.jobId!] : []), ...clauses.values, clauses.limit],
+      bind: { organisationId, jobId: options.jobId ?? null, ...keysetBind(request) },
       type: QueryTypes.SELECT,
     },
   );

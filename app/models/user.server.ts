@@ -20,7 +20,15 @@ import {
   type SessionUserRow,
 } from "~/models/session.server";
 import { Organisation } from "~/models/organisation.server";
-import { keysetClauses, pageOf, type Page, type PageRequest, type SortKey } from "~/utils/keyset.server";
+import {
+  keysetBind,
+  keysetSql,
+  keysetWay,
+  pageOf,
+  type Page,
+  type PageRequest,
+  type SortKey,
+} from "~/utils/keyset.server";
 import { ROLES, type Role } from "~/utils/roles";
 
 export type Units = "metric" | "imperial";
@@ -170,6 +178,7 @@ export const USER_LIST_KEYS: SortKey[] = [
   { sql: "u.name", direction: "ASC" },
   { sql: "u.id", direction: "ASC" },
 ];
+const USER_KEYSET = keysetSql(USER_LIST_KEYS);
 
 type UserListSqlRow = {
   id: number;
@@ -200,11 +209,12 @@ const USER_LIST_COLUMNS = `u.id AS id, u.name AS name, u.email AS email, u.activ
 
 /** One page of the organisation's users, active first, by name. */
 export async function listUsersPage(organisationId: number, request: PageRequest): Promise<Page<UserRow>> {
-  const clauses = keysetClauses(USER_LIST_KEYS, request);
+  const way = keysetWay(request);
   const rows = await sequelize.query<UserListSqlRow>(
     `SELECT ${USER_LIST_COLUMNS} FROM users u
-      WHERE u.organisation_id = ? AND ${clauses.where} ORDER BY ${clauses.order} LIMIT ?`,
-    { replacements: [organisationId, ...clauses.values, clauses.limit], type: QueryTypes.SELECT },
+      WHERE u.organisation_id = $organisationId AND ${USER_KEYSET[way].where}
+      ORDER BY ${USER_KEYSET[way].order} LIMIT $limit`,
+    { bind: { organisationId, ...keysetBind(request) }, type: QueryTypes.SELECT },
   );
   return pageOf(rows.map(toUserRow), request, (u) => [u.active ? 1 : 0, u.name, u.id]);
 }
@@ -213,8 +223,9 @@ export async function listUsersPage(organisationId: number, request: PageRequest
 export async function listPendingInvitations(organisationId: number, limit: number) {
   return sequelize.query<{ id: number; name: string; email: string }>(
     `SELECT u.id AS id, u.name AS name, u.email AS email FROM users u
-      WHERE u.organisation_id = ? AND u.active = 1 AND u.password_hash IS NULL ORDER BY u.name, u.id LIMIT ?`,
-    { replacements: [organisationId, limit], type: QueryTypes.SELECT },
+      WHERE u.organisation_id = $organisationId AND u.active = 1 AND u.password_hash IS NULL
+      ORDER BY u.name, u.id LIMIT $limit`,
+    { bind: { organisationId, limit }, type: QueryTypes.SELECT },
   );
 }
 

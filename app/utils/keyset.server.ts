@@ -37,29 +37,51 @@ export function readPageRequest(url: URL, keys: readonly SortKey[], limit = PAGE
   return { cursor: null, towards: "next", limit };
 }
 
+/** How a page is read: from the start, after the cursor, or before it (backwards, turned round by `pageOf`). */
+export type KeysetWay = "first" | "next" | "previous";
+
+/** Each way's WHERE condition and ORDER BY: SQL fixed when the list is defined, the cursor's values bound. */
+export type KeysetSql = Record<KeysetWay, { where: string; order: string }>;
+
 /**
- * The WHERE condition (with its `?` values) for rows beyond the cursor, the ORDER BY and the LIMIT (one row more than
- * the page, to learn whether there is another). Reading backwards reverses the order; `pageOf` turns it round again.
+ * The fixed SQL for a list's sort keys: for each way of reading, the condition for rows beyond the cursor (its
+ * values bound as `$key0`, `$key1`, ... in key order) and the order. Reading backwards reverses the order.
+ * Made once per list, at load time, from the list's own constant keys: no value ever reaches this text.
  */
-export function keysetClauses(keys: readonly SortKey[], request: PageRequest) {
-  const backwards = request.towards === "previous";
-  const order = keys.map((k) => `${k.sql} ${(k.direction === "ASC") !== backwards ? "ASC" : "DESC"}`).join(", ");
-  if (!request.cursor) return { where: "1 = 1", values: [] as KeyValue[], order, limit: request.limit + 1 };
-  const cursor = request.cursor;
-  const values: KeyValue[] = [];
-  const alternatives = keys.map((key, i) => {
-    const equal = keys.slice(0, i).map((k, j) => {
-      values.push(cursor[j]!);
-      return `${k.sql} = ?`;
+export function keysetSql(keys: readonly SortKey[]): KeysetSql {
+  const orderBy = (backwards: boolean) =>
+    keys.map((k) => `${k.sql} ${(k.direction === "ASC") !== backwards ? "ASC" : "DESC"}`).join(", ");
+  const beyond = (backwards: boolean) => {
+    const alternatives = keys.map((key, i) => {
+      const equal = keys.slice(0, i).map((k, j) => `${k.sql} = $key${j}`);
+      const past = `${key.sql} ${(key.direction === "ASC") !== backwards ? ">" : "<"} $key${i}`;
+      return `(${[...equal, past].join(" AND ")})`;
     });
-    values.push(cursor[i]!);
-    const beyond = `${key.sql} ${(key.direction === "ASC") !== backwards ? ">" : "<"} ?`;
-    return `(${[...equal, beyond].join(" AND ")})`;
-  });
-  return { where: `(${alternatives.join(" OR ")})`, values, order, limit: request.limit + 1 };
+    return `(${alternatives.join(" OR ")})`;
+  };
+  return {
+    first: { where: "1 = 1", order: orderBy(false) },
+    next: { where: beyond(false), order: orderBy(false) },
+    previous: { where: beyond(true), order: orderBy(true) },
+  };
 }
 
-/** The page from the rows read with `keysetClauses` (up to limit + 1, in reading order), with its links' cursors. */
+/** Which of `keysetSql`'s statements reads the requested page. */
+export function keysetWay(request: PageRequest): KeysetWay {
+  return request.cursor ? request.towards : "first";
+}
+
+/**
+ * The bound values for `keysetSql`'s condition and the LIMIT (`$limit`: one row more than the page, to learn
+ * whether there is another).
+ */
+export function keysetBind(request: PageRequest): Record<string, KeyValue> {
+  const bind: Record<string, KeyValue> = { limit: request.limit + 1 };
+  (request.cursor ?? []).forEach((value, i) => (bind[`key${i}`] = value));
+  return bind;
+}
+
+/** The page from the rows read with `keysetSql` (up to limit + 1, in reading order), with its links' cursors. */
 export function pageOf<T>(rows: readonly T[], request: PageRequest, keyOf: (row: T) => KeyValue[]): Page<T> {
   const more = rows.length > request.limit;
   const shown = rows.slice(0, request.limit);

@@ -8,7 +8,7 @@ import type { Migration } from "../umzug";
  * component's gets that CoG as an override saying so (the planner confirms or removes it); the copy goes back
  * to the component's CoG. Approved and older revisions keep their copies as sealed. No schema change.
  */
-const EDITABLE = ["draft", "returned", "in_review"];
+const EDITABLE = "'draft', 'returned', 'in_review'";
 const TOL_M = 5e-4;
 const REASON =
   "Moved in the plan editor before an override needed a reason: confirm it with the reason, or use the component's CoG.";
@@ -25,8 +25,8 @@ export const up: Migration = async ({ context: qi }) => {
   const rows = await qi.sequelize.query<Row>(
     `SELECT r.id, r.load_snapshot, c.cog_x_m, c.cog_y_m, c.cog_z_m
        FROM plan_revisions r JOIN components c ON c.id = r.component_id AND c.version = r.component_version
-      WHERE r.status IN (:editable)`,
-    { type: QueryTypes.SELECT, replacements: { editable: EDITABLE } },
+      WHERE r.status IN (${EDITABLE})`,
+    { type: QueryTypes.SELECT },
   );
   for (const row of rows) {
     const load = JSON.parse(row.load_snapshot) as { cog?: { x: number; y: number; z: number }; override?: unknown };
@@ -35,8 +35,8 @@ export const up: Migration = async ({ context: qi }) => {
     const moved = Math.hypot(load.cog.x - component.x, load.cog.y - component.y, load.cog.z - component.z);
     if (!(moved > TOL_M)) continue;
     const next = { ...load, cog: component, override: { massKg: null, cog: load.cog, reason: REASON } };
-    await qi.sequelize.query("UPDATE plan_revisions SET load_snapshot = :json WHERE id = :id", {
-      replacements: { json: JSON.stringify(next), id: row.id },
+    await qi.sequelize.query("UPDATE plan_revisions SET load_snapshot = $json WHERE id = $id", {
+      bind: { json: JSON.stringify(next), id: row.id },
     });
   }
 };
@@ -55,8 +55,8 @@ export const down: Migration = async ({ context: qi }) => {
     };
     if (!override) continue;
     const next = { ...load, massKg: override.massKg ?? load.massKg, cog: override.cog ?? load.cog };
-    await qi.sequelize.query("UPDATE plan_revisions SET load_snapshot = :json WHERE id = :id", {
-      replacements: { json: JSON.stringify(next), id: row.id },
+    await qi.sequelize.query("UPDATE plan_revisions SET load_snapshot = $json WHERE id = $id", {
+      bind: { json: JSON.stringify(next), id: row.id },
     });
   }
 };

@@ -7,21 +7,23 @@ import type { Migration } from "../umzug";
  * the text (external content: gear_items), and the triggers keep it in step with every insert, update and delete.
  * A migration that rebuilds gear_items (SQLite's ALTER of a column copies the table) must recreate the triggers.
  */
-const COLUMNS = ["item_code", "description", "manufacturer", "serial"];
-const cols = COLUMNS.join(", ");
-const values = (row: "new" | "old") => COLUMNS.map((c) => `${row}.${c}`).join(", ");
-
 const STATEMENTS = [
-  `CREATE VIRTUAL TABLE gear_items_search USING fts5(${cols}, content='gear_items', content_rowid='id', tokenize='trigram')`,
+  `CREATE VIRTUAL TABLE gear_items_search USING fts5(item_code, description, manufacturer, serial,
+     content='gear_items', content_rowid='id', tokenize='trigram')`,
   `CREATE TRIGGER gear_items_search_insert AFTER INSERT ON gear_items BEGIN
-     INSERT INTO gear_items_search(rowid, ${cols}) VALUES (new.id, ${values("new")});
+     INSERT INTO gear_items_search(rowid, item_code, description, manufacturer, serial)
+       VALUES (new.id, new.item_code, new.description, new.manufacturer, new.serial);
    END`,
   `CREATE TRIGGER gear_items_search_delete AFTER DELETE ON gear_items BEGIN
-     INSERT INTO gear_items_search(gear_items_search, rowid, ${cols}) VALUES ('delete', old.id, ${values("old")});
+     INSERT INTO gear_items_search(gear_items_search, rowid, item_code, description, manufacturer, serial)
+       VALUES ('delete', old.id, old.item_code, old.description, old.manufacturer, old.serial);
    END`,
-  `CREATE TRIGGER gear_items_search_update AFTER UPDATE OF ${cols} ON gear_items BEGIN
-     INSERT INTO gear_items_search(gear_items_search, rowid, ${cols}) VALUES ('delete', old.id, ${values("old")});
-     INSERT INTO gear_items_search(rowid, ${cols}) VALUES (new.id, ${values("new")});
+  `CREATE TRIGGER gear_items_search_update AFTER UPDATE OF item_code, description, manufacturer, serial
+     ON gear_items BEGIN
+     INSERT INTO gear_items_search(gear_items_search, rowid, item_code, description, manufacturer, serial)
+       VALUES ('delete', old.id, old.item_code, old.description, old.manufacturer, old.serial);
+     INSERT INTO gear_items_search(rowid, item_code, description, manufacturer, serial)
+       VALUES (new.id, new.item_code, new.description, new.manufacturer, new.serial);
    END`,
   `INSERT INTO gear_items_search(gear_items_search) VALUES ('rebuild')`,
 ];

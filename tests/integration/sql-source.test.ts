@@ -7,6 +7,10 @@ import { describe, expect, it } from "vitest";
 import { startSignInAttempt } from "~/models/sign-in-attempt.server";
 import { findSession } from "~/models/session.server";
 import { sessionLifetimes } from "~/utils/session.server";
+import { listComponentsPage } from "~/models/component.server";
+import { searchGearItems } from "~/models/gear-item.server";
+import { listUsersPage } from "~/models/user.server";
+import { adminWithSite, makeGearItem } from "../support/gear";
 
 function sourceFiles(dir: string): string[] {
   return fs.readdirSync(dir, { withFileTypes: true }).flatMap((entry) => {
@@ -65,5 +69,34 @@ describe("SQL in the source", () => {
       expect(attempt.ok, JSON.stringify(email)).toBe(true);
     }
     expect(await findSession("\u0000' OR '1'='1", sessionLifetimes())).toBeNull();
+  });
+
+  it("a search text or a cursor value reaching the list queries is only a value, never SQL or a bound name", async () => {
+    const { admin } = await adminWithSite();
+    const item = await makeGearItem(admin, { description: "Bow shackle for the pump lift" });
+    const search = (q: string) =>
+      searchGearItems(admin.organisationId, { q, sort: "itemCode", dir: "asc", page: 1, pageSize: 5 }, "2026-01-01");
+    expect((await search(item.itemCode)).total).toBe(1);
+    const users = (await listUsersPage(admin.organisationId, { cursor: null, towards: "next", limit: 5 })).rows;
+    expect(users.length).toBe(2);
+    for (const text of ["x'\u0000", "') OR 1=1 --", "$limit", '"$phrase" OR 1', "pump' OR '1'='1"]) {
+      // The register's search text passes the text rule first (no NUL reaches the full-text phrase parser).
+      if (!text.includes("\u0000")) expect((await search(text)).total, JSON.stringify(text)).toBe(0);
+      const components = await listComponentsPage(
+        admin.organisationId,
+        { cursor: null, towards: "next", limit: 5 },
+        {
+          query: text,
+        },
+      );
+      expect(components.rows, JSON.stringify(text)).toEqual([]);
+      // Active first, then by name and id: the users after (active, `text`, 0) are those named after `text`.
+      const after = await listUsersPage(admin.organisationId, { cursor: [1, text, 0], towards: "next", limit: 5 });
+      const expected = users.filter((u) => u.name > text).map((u) => u.id);
+      expect(
+        after.rows.map((u) => u.id),
+        JSON.stringify(text),
+      ).toEqual(expected);
+    }
   });
 });
