@@ -191,6 +191,8 @@ export type PlanListRow = {
 /** Plans newest first: the id alone orders them. */
 export const PLAN_LIST_KEYS: SortKey[] = [{ sql: "p.id", direction: "DESC" }];
 const PLAN_KEYSET = keysetSql(PLAN_LIST_KEYS);
+/** A job's plans or all of them, as fixed SQL (a job's plans read through the (organisation, job) index). */
+const PLAN_SCOPE = { all: "1 = 1", job: "p.job_id = $jobId" } as const;
 
 /**
  * One page of the organisation's plans (optionally one job's), newest first, with their current revision's status:
@@ -206,11 +208,15 @@ export async function listPlansPage(
     `SELECT p.id AS id, p.title AS title, p.job_id AS jobId,
             r.status AS status, r.revision AS revision, r.version AS version
        FROM plans p LEFT JOIN plan_revisions r ON r.id = p.current_revision_id
-      WHERE p.organisation_id = $organisationId AND ($jobId IS NULL OR p.job_id = $jobId)
+      WHERE p.organisation_id = $organisationId AND ${PLAN_SCOPE[options.jobId === undefined ? "all" : "job"]}
         AND ${PLAN_KEYSET[way].where}
       ORDER BY ${PLAN_KEYSET[way].order} LIMIT $limit`,
     {
-      bind: { organisationId, jobId: options.jobId ?? null, ...keysetBind(request) },
+      bind: {
+        organisationId,
+        ...(options.jobId === undefined ? {} : { jobId: options.jobId }),
+        ...keysetBind(request),
+      },
       type: QueryTypes.SELECT,
     },
   );
