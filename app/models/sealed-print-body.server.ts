@@ -1,6 +1,7 @@
 import {
   DataTypes,
   Model,
+  Op,
   UniqueConstraintError,
   type CreationOptional,
   type InferAttributes,
@@ -13,6 +14,8 @@ export class SealedPrintBody extends Model<InferAttributes<SealedPrintBody>, Inf
   declare id: CreationOptional<number>;
   declare revisionId: number;
   declare bodyKey: string;
+  /** Which build of the PDF code made it. */
+  declare builder: string;
   declare body: Buffer;
   declare createdAt: CreationOptional<Date>;
 }
@@ -22,6 +25,7 @@ SealedPrintBody.init(
     id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
     revisionId: { type: DataTypes.INTEGER, allowNull: false },
     bodyKey: { type: DataTypes.STRING(64), allowNull: false, unique: true },
+    builder: { type: DataTypes.STRING(64), allowNull: false },
     body: { type: DataTypes.BLOB, allowNull: false },
     createdAt: DataTypes.DATE,
   },
@@ -34,10 +38,14 @@ export async function getSealedPrintBody(bodyKey: string): Promise<Uint8Array | 
   return row ? new Uint8Array(row.body) : null;
 }
 
-/** Keeps a body; when two first prints race, the one kept first stays (both are the same sealed content). */
-export async function keepSealedPrintBody(revisionId: number, bodyKey: string, body: Uint8Array) {
+/**
+ * Keeps a body, dropping the revision's bodies made by other builds (never asked for again); when two first
+ * prints race, the one kept first stays (both are the same sealed content).
+ */
+export async function keepSealedPrintBody(revisionId: number, builder: string, bodyKey: string, body: Uint8Array) {
+  await SealedPrintBody.destroy({ where: { revisionId, builder: { [Op.ne]: builder } } });
   try {
-    await SealedPrintBody.create({ revisionId, bodyKey, body: Buffer.from(body) });
+    await SealedPrintBody.create({ revisionId, builder, bodyKey, body: Buffer.from(body) });
   } catch (error) {
     if (!(error instanceof UniqueConstraintError)) throw error;
   }

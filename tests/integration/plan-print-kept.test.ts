@@ -8,6 +8,7 @@ import path from "node:path";
 import { describe, expect, it } from "vitest";
 import * as print from "~/routes/plans.$planId.print.pdf";
 import * as itemPage from "~/routes/gear.$itemId";
+import { PlanRevision } from "~/models/plan.server";
 import { SealedPrintBody } from "~/models/sealed-print-body.server";
 import { sealedBodiesBuilt } from "~/plans/pdf/build.server";
 import { approveRevision, submitRevision } from "~/plans/workflow.server";
@@ -41,10 +42,19 @@ describe("printing a sealed revision again", () => {
     await submitRevision(org, plan.id, planner, {});
     await approveRevision(org, plan.id, approver, { password: TEST_PASSWORD, typedName: approver.name, comment: "" });
 
+    // A body an older build kept for this revision is not used, and goes when the new one is kept.
+    const revision = (await PlanRevision.findOne({ where: { planId: plan.id, status: "approved" } }))!;
+    await SealedPrintBody.create({
+      revisionId: revision.id,
+      builder: "an-older-build",
+      bodyKey: "0".repeat(64),
+      body: Buffer.from("%PDF-1.7 not this one"),
+    });
     const builtBefore = sealedBodiesBuilt();
     const first = await printPdf(plan.id, rigger);
     expect(sealedBodiesBuilt()).toBe(builtBefore + 1);
     expect(await SealedPrintBody.count()).toBe(1);
+    expect(await SealedPrintBody.count({ where: { builder: "an-older-build" } })).toBe(0);
     const firstText = flatText(first);
     const pages = pageCount(first);
     expect(count(firstText, "FIT TO LIFT as checked")).toBe(pages);

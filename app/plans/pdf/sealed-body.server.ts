@@ -21,6 +21,6 @@ export async function printSealedPlan(plan: PrintablePlan, revisionId: number): 
   const key = sealedBodyKey(plan);
   const kept = await getSealedPrintBody(key);
   const { bytes, body } = await printPlanPdfOffThread(plan, kept);
-  if (body) await keepSealedPrintBody(revisionId, key, body);
+  if (body) await keepSealedPrintBody(revisionId, pdfBuilderVersion(), key, body);
   return bytes;
 }
