@@ -24,6 +24,7 @@ import * as planLoadOverrides from "./migrations/0024-plan-load-overrides";
 import * as componentFitTolerance from "./migrations/0025-component-fit-tolerance";
 import * as gearSearchIndex from "./migrations/0026-gear-search-index";
 import * as offlineSubmissions from "./migrations/0027-offline-submissions";
+import * as sealedPrintBodies from "./migrations/0028-sealed-print-bodies";
 
 export type Migration = (params: { context: QueryInterface }) => Promise<void>;
 type MigrationModule = { up: Migration; down: Migration };
@@ -57,6 +58,7 @@ export const migrations: Array<[name: string, module: MigrationModule]> = [
   ["0025-component-fit-tolerance", componentFitTolerance],
   ["0026-gear-search-index", gearSearchIndex],
   ["0027-offline-submissions", offlineSubmissions],
+  ["0028-sealed-print-bodies", sealedPrintBodies],
 ];
 
 /** The umzug runner over `sequelize`, recording applied migrations in SequelizeMeta. */

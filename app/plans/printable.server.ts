@@ -11,7 +11,7 @@ import { readSealed, type SealedPlan } from "~/plans/sealed";
 import { absoluteUrl } from "~/utils/mail.server";
 
 export type PrintableOutcome =
-  | { ok: true; printable: PrintablePlan; revision: number }
+  | { ok: true; printable: PrintablePlan; revision: number; revisionId: number }
   | { ok: false; status: 404 | 409; message: string; planId: number };
 
 const latest = (rows: PlanRevision[], status: PlanRevision["status"]) =>
@@ -57,6 +57,7 @@ export async function buildPrintablePlan(
   return {
     ok: true,
     revision: row.revision,
+    revisionId: row.id,
     printable: printableFrom(user, row, sealed, request, {
       live,
       liftRecord: record ? { liftedAt: record.liftedAt.toISOString(), by: recorder ?? "unknown" } : null,

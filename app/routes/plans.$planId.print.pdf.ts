@@ -1,7 +1,7 @@
 import { redirect } from "react-router";
 import type { Route } from "./+types/plans.$planId.print.pdf";
 import { recordAudit } from "~/models/audit-event.server";
-import { buildPlanPdfOffThread } from "~/plans/pdf/off-thread.server";
+import { printSealedPlan } from "~/plans/pdf/sealed-body.server";
 import { buildPrintablePlan } from "~/plans/printable.server";
 import { requireUser } from "~/utils/session.server";
 
@@ -18,7 +18,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       return new Response(outcome.message, { status: 404, headers: { "Content-Type": "text/plain; charset=utf-8" } });
     throw redirect(`/plans/${planId}/print`);
   }
-  const bytes = await buildPlanPdfOffThread(outcome.printable);
+  const bytes = await printSealedPlan(outcome.printable, outcome.revisionId);
   await recordAudit({
     organisationId: user.organisationId,
     userId: user.id,

@@ -1,34 +1,42 @@
 // The printed lift plan: an A4 PDF built from a PrintablePlan and nothing else; the figures are
-// printed as the server decided them.
+// printed as the server decided them. It is made in two parts: the sealed body (everything the sealed
+// record decides, the same on every print of the revision, so it is built once and kept) and the
+// stamp of each print (the live band and who printed it when), drawn over the kept body.
 import { PDFDocument } from "pdf-lib";
 import QRCode from "qrcode";
-import { chromeFor, headerAndFooter } from "~/plans/pdf/chrome.server";
+import { chromeFor, liveHeaderAndFooter, sealedHeaderAndFooter } from "~/plans/pdf/chrome.server";
 import { embedBarlow } from "~/plans/pdf/fonts.server";
 import { A4_HEIGHT_PT, Flow, MARGIN_BOTTOM, MARGIN_TOP, Typesetter } from "~/plans/pdf/layout.server";
 import { hazardsSection, checklistSection, sequenceSection, siteSection } from "~/plans/pdf/lift-sections.server";
 import { checksSection, riggingSection, scheduleSection } from "~/plans/pdf/rigging-sections.server";
+import { embedStampFonts } from "~/plans/pdf/stamp-fonts.server";
 import { loadSection, titleBlock } from "~/plans/pdf/title-block.server";
 import type { PrintablePlan } from "~/plans/printable";
 
-/** The printed plan as an A4 PDF (every page: header, the caution, page numbers, the fingerprint). */
-export async function buildPlanPdf(plan: PrintablePlan): Promise<Uint8Array> {
+/** How many sealed bodies this process has built (a print that reuses a kept body builds none). */
+let bodiesBuilt = 0;
+export const sealedBodiesBuilt = () => bodiesBuilt;
+
+/**
+ * The sealed body of the printed plan: every page with its header, the caution, page numbers and the
+ * fingerprint, leaving blank the places of the live band and the printed line. Depends only on what
+ * `sealedBodyKey` names.
+ */
+export async function buildSealedBody(plan: PrintablePlan): Promise<Uint8Array> {
+  bodiesBuilt += 1;
   const pdf = await PDFDocument.create();
   const { fonts, codePoints, files } = await embedBarlow(pdf, plan.fingerprint);
   const ts = new Typesetter(codePoints, files);
   const qrPng = await QRCode.toBuffer(plan.verifyUrl, { errorCorrectionLevel: "M", margin: 2, scale: 6 });
   const qr = await pdf.embedPng(qrPng);
 
-  const printedAt = new Date(plan.printedAt);
   pdf.setTitle(ts.clean(`${plan.title} (revision ${plan.revision})`));
   pdf.setAuthor(ts.clean(plan.organisationName));
   pdf.setSubject(ts.clean(`Lift plan, job ${plan.job.workOrder}, ${plan.site.name}`));
   pdf.setCreator("Plumbline");
   pdf.setProducer("Plumbline");
-  if (!Number.isNaN(printedAt.getTime())) {
-    pdf.setCreationDate(printedAt);
-    pdf.setModificationDate(printedAt);
-  }
 
+  // The band's presence sets the header's height; what it says is stamped on each print.
   const chrome = chromeFor(plan, fonts, ts);
   const top = A4_HEIGHT_PT - MARGIN_TOP - chrome.headerH - 4;
   const bottom = MARGIN_BOTTOM + chrome.footerH + 8;
@@ -44,6 +52,40 @@ export async function buildPlanPdf(plan: PrintablePlan): Promise<Uint8Array> {
   siteSection(flow, plan);
   checklistSection(flow);
 
-  headerAndFooter(pdf, flow.pages, fonts, ts, plan, chrome);
+  sealedHeaderAndFooter(flow.pages, fonts, ts, plan, chrome);
   return pdf.save();
+}
+
+/**
+ * One print: the kept sealed body with the live band and the printed line drawn on every page. Its own
+ * subset of Barlow (only the characters stamped) is embedded once and shared by the pages.
+ */
+export async function stampPrint(body: Uint8Array, plan: PrintablePlan): Promise<Uint8Array> {
+  const pdf = await PDFDocument.load(body, { updateMetadata: false });
+  const { fonts, codePoints, files } = await embedStampFonts(pdf);
+  const ts = new Typesetter(codePoints, files);
+  const chrome = chromeFor(plan, fonts, ts);
+  for (const page of pdf.getPages()) liveHeaderAndFooter(page, fonts, ts, plan, chrome);
+  const printedAt = new Date(plan.printedAt);
+  if (!Number.isNaN(printedAt.getTime())) {
+    pdf.setCreationDate(printedAt);
+    pdf.setModificationDate(printedAt);
+  }
+  // Without object streams: written as they are, the stamp's few objects cost no compressing of the rest.
+  return pdf.save({ objectsPerTick: Infinity, useObjectStreams: false });
+}
+
+/** The printed plan as an A4 PDF (every page: header, the caution, page numbers, the fingerprint). */
+export async function buildPlanPdf(plan: PrintablePlan): Promise<Uint8Array> {
+  return stampPrint(await buildSealedBody(plan), plan);
+}
+
+/** A print from the kept body when there is one; otherwise the body is built and handed back to be kept. */
+export async function printPlanPdf(
+  plan: PrintablePlan,
+  kept: Uint8Array | null,
+): Promise<{ bytes: Uint8Array; body: Uint8Array | null }> {
+  if (kept) return { bytes: await stampPrint(kept, plan), body: null };
+  const body = await buildSealedBody(plan);
+  return { bytes: await stampPrint(body, plan), body };
 }

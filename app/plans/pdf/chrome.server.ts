@@ -26,8 +26,56 @@ import {
 import { drawLiveBand, LIVE_BAND_H, liveBand, type LiveBand } from "~/plans/pdf/live-band.server";
 import type { PrintablePlan } from "~/plans/printable";
 
+/** Text drawn on `page` aligned at x. */
+function drawer(page: PDFPage, ts: Typesetter) {
+  return (raw: string, x: number, y: number, style: Style, align: "left" | "right" | "center" = "left") => {
+    const text = ts.clean(raw);
+    const w = ts.width(text, style.font, style.size);
+    page.drawText(text, {
+      x: align === "left" ? x : align === "right" ? x - w : x - w / 2,
+      y,
+      size: style.size,
+      font: style.font,
+      color: style.color,
+    });
+  };
+}
+
+/** Where the rule under the header lies (pt from the bottom), the band's top sits 4 pt below it. */
+function headerRuleY(chrome: Chrome) {
+  return A4_HEIGHT_PT - MARGIN_TOP - 12 - chrome.titleLines.length * 14 - 11 - 5;
+}
+
+/** Every page's header and footer, with the live band and who printed it when. */
 export function headerAndFooter(
   pdf: PDFDocument,
+  pages: PDFPage[],
+  fonts: Fonts,
+  ts: Typesetter,
+  plan: PrintablePlan,
+  chrome: Chrome,
+) {
+  sealedHeaderAndFooter(pages, fonts, ts, plan, chrome);
+  pages.forEach((page) => liveHeaderAndFooter(page, fonts, ts, plan, chrome));
+  void pdf;
+}
+
+/**
+ * What a page shows now rather than what was sealed: the live band under the header and the
+ * "Printed <when> by <whom>" line at the foot. Drawn last, over the sealed page, in the places
+ * the sealed layout leaves for them.
+ */
+export function liveHeaderAndFooter(page: PDFPage, fonts: Fonts, ts: Typesetter, plan: PrintablePlan, chrome: Chrome) {
+  if (chrome.band) drawLiveBand(page, chrome.band, headerRuleY(chrome) - 4, fonts);
+  drawer(page, ts)(`Printed ${utcText(plan.printedAt)} by ${plan.printedBy}`, LEFT, MARGIN_BOTTOM, {
+    font: fonts.regular,
+    size: 6.5,
+    color: INK_SOFT,
+  });
+}
+
+/** Every page's header and footer without the live band and the printed line (the same on every print). */
+export function sealedHeaderAndFooter(
   pages: PDFPage[],
   fonts: Fonts,
   ts: Typesetter,
@@ -37,17 +85,7 @@ export function headerAndFooter(
   const n = pages.length;
   const { regular, semibold } = fonts;
   pages.forEach((page, i) => {
-    const draw = (raw: string, x: number, y: number, style: Style, align: "left" | "right" | "center" = "left") => {
-      const text = ts.clean(raw);
-      const w = ts.width(text, style.font, style.size);
-      page.drawText(text, {
-        x: align === "left" ? x : align === "right" ? x - w : x - w / 2,
-        y,
-        size: style.size,
-        font: style.font,
-        color: style.color,
-      });
-    };
+    const draw = drawer(page, ts);
     // Header.
     let y = A4_HEIGHT_PT - MARGIN_TOP;
     draw(ts.fit(plan.organisationName, semibold, 8, CONTENT_W - 120), LEFT, y - 8, {
@@ -68,15 +106,9 @@ export function headerAndFooter(
     draw(chrome.metaLine, LEFT, y + 1, { font: regular, size: 8, color: INK });
     y -= 5;
     page.drawLine({ start: { x: LEFT, y }, end: { x: RIGHT, y }, thickness: 1.2, color: BRASS });
-    if (chrome.band) drawLiveBand(page, chrome.band, y - 4, fonts);
 
-    // Footer: the caution, then print details, fingerprint and page number.
+    // Footer: the caution, then (left to the live part) print details, fingerprint and page number.
     let fy = MARGIN_BOTTOM;
-    draw(`Printed ${utcText(plan.printedAt)} by ${plan.printedBy}`, LEFT, fy, {
-      font: regular,
-      size: 6.5,
-      color: INK_SOFT,
-    });
     draw(
       `Fingerprint ${plan.fingerprint.slice(0, 16)}…`,
       A4_WIDTH_PT / 2,
@@ -108,7 +140,6 @@ export function headerAndFooter(
       });
     }
   });
-  void pdf;
 }
 
 const CAUTION_SIZE = 7;

@@ -1,0 +1,26 @@
+// Prints of a sealed revision reuse its sealed body: the PDF of everything the sealed record decides is
+// built on the first print, kept in the database, and each later print only stamps the live band and the
+// printed line on it (see build.server.ts).
+import { createHash } from "node:crypto";
+import { getSealedPrintBody, keepSealedPrintBody } from "~/models/sealed-print-body.server";
+import { pdfBuilderVersion, printPlanPdfOffThread } from "~/plans/pdf/off-thread.server";
+import type { PrintablePlan } from "~/plans/printable";
+
+/**
+ * The key of a plan's sealed body: everything the body depends on besides the sealed record's fingerprint
+ * (the reader's units, the status, the QR code's address, whether the header holds a band) and the builder.
+ */
+export function sealedBodyKey(plan: PrintablePlan): string {
+  const band = plan.liftRecord ? "lift" : plan.live ? "live" : "none";
+  const parts = [pdfBuilderVersion(), plan.fingerprint, plan.units, plan.status, plan.verifyUrl, band];
+  return createHash("sha256").update(JSON.stringify(parts)).digest("hex");
+}
+
+/** The PDF of one print of a sealed revision, from its kept body when there is one (and keeping a new one). */
+export async function printSealedPlan(plan: PrintablePlan, revisionId: number): Promise<Uint8Array> {
+  const key = sealedBodyKey(plan);
+  const kept = await getSealedPrintBody(key);
+  const { bytes, body } = await printPlanPdfOffThread(plan, kept);
+  if (body) await keepSealedPrintBody(revisionId, pdfBuilderVersion(), key, body);
+  return bytes;
+}
