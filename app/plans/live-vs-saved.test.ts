@@ -30,9 +30,9 @@ describe("figureDifferences", () => {
     const live = solved();
     const saved = solved();
     expect(saved.status).toBe(200);
-    saved.body.legs[0].tensionKn += 1e-7;
+    saved.body.legs[0]!.tensionKn += 1e-7;
     expect(figureDifferences(live, saved, "metric")).toEqual([]);
-    saved.body.legs[0].tensionKn += 0.5;
+    saved.body.legs[0]!.tensionKn += 0.5;
     const out = figureDifferences(live, saved, "metric");
     expect(out).toHaveLength(1);
     expect(out[0]).toMatch(/^leg A carries .* kN \(here: .* kN\)$/);
