@@ -116,6 +116,8 @@ describe("a planner lays out a lift in the editor", () => {
         .toMatch(/Saved · version \d+/);
       await page.waitForTimeout(1500);
       expect(requests).toEqual(["PUT /api/plans/1"]);
+      // The server worked the saved plan out to the same figures as the editor, so no note says otherwise.
+      expect(await page.getByTestId("figures-differ").count()).toBe(0);
       // Ten undo steps bring the layout back, saved once more.
       for (let i = 0; i < 10; i++) await page.keyboard.press("Control+z");
       await expect.poll(() => legTension(page, "A"), { timeout: 10_000 }).toBeCloseTo(before, 2);
