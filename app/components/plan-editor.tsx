@@ -1,6 +1,6 @@
 // The plan editor: two linked views of the load drawn to scale (Konva, browser only), a
-// properties panel for exact values, live results from /api/solve, gear allocation, the
-// hook-height chart and autosave through PUT /api/plans/:planId.
+// properties panel for exact values, live results worked out in the browser by the statics core,
+// gear allocation, the hook-height chart and autosave through PUT /api/plans/:planId.
 import { lazy, Suspense, useCallback, useEffect, useId, useMemo, useReducer, useState } from "react";
 import type { ComponentDefinition } from "~/loads/component-definition";
 import type { LegFigure } from "~/components/plan-canvas.client";
@@ -12,10 +12,12 @@ import { ArrangementPanel } from "~/components/plan-editor/arrangement-panel";
 import { toEdit, useElementWidth } from "~/components/plan-editor/fields";
 import { GearTable } from "~/components/plan-editor/gear-table";
 import { LoadOverridePanel } from "~/components/plan-editor/load-override-panel";
-import { solveBodyFor } from "~/components/plan-editor/solve-body";
+import { FiguresDiffer } from "~/components/plan-editor/figures-differ";
 import { TracingPanel, useTracing } from "~/components/plan-editor/tracing";
 import { useAutosave } from "~/components/plan-editor/use-autosave";
 import { useLiveSolve, type LiveSolution } from "~/components/plan-editor/use-live-solve";
+import { editorArrangementInput } from "~/plans/editor-input";
+import { toSolveBody } from "~/statics/api";
 import { standing } from "~/plans/check-text";
 import { LEVELLING_STEP_M } from "~/plans/check-text-tilt";
 
@@ -67,7 +69,8 @@ export function PlanEditor({
   files,
   canEdit,
   ruleSet,
-  tables = null,
+  todayIso,
+  tables,
 }: {
   plan: EditorPlan;
   units: Units;
@@ -75,8 +78,10 @@ export function PlanEditor({
   files: EditorFile[];
   canEdit: boolean;
   ruleSet: RuleSetId;
-  /** The reference tables, so the hook-height chart can run the plan's own checks at each height. */
-  tables?: ReferenceTables | null;
+  /** The organisation's calendar day, YYYY-MM-DD: the live checks judge examinations against it, as saving does. */
+  todayIso: string;
+  /** The reference tables: the live figures, the hook-height chart and the gear picker run the core with them. */
+  tables: ReferenceTables;
 }) {
   const [state, dispatch] = useReducer(editorReducer, plan, (p) => initialEditorState(toEdit(p)));
   const edit = state.present;
@@ -96,11 +101,17 @@ export function PlanEditor({
     () => ({ ...plan.snapshot, massKg: edit.override?.massKg ?? plan.componentLoad.massKg, cog: edit.cog }),
     [plan.snapshot, plan.componentLoad.massKg, edit.override, edit.cog],
   );
-  const body = useMemo(
-    () => solveBodyFor(edit, planned, picks, plan.details, ruleSet),
-    [edit, planned, picks, plan.details, ruleSet],
+  // The core's input as the server builds it on save, and its solve: figures in the render of the move.
+  const input = useMemo(
+    () => editorArrangementInput(edit, planned, { picks, details: plan.details, ruleSet, todayIso, tables }),
+    [edit, planned, picks, plan.details, ruleSet, todayIso, tables],
   );
-  const live = useLiveSolve(body);
+  const live = useLiveSolve(input, tables);
+  // The /api/solve body of a bridle: the gear picker judges each candidate by the plan's own check with it.
+  const body = useMemo(
+    () => (edit.arrangement.kind === "bridle" && input.liftPoints.length > 0 ? toSolveBody(input) : null),
+    [edit.arrangement.kind, input],
+  );
 
   const doc = useMemo(
     () => ({
@@ -117,18 +128,8 @@ export function PlanEditor({
   );
   const [save, saveNow] = useAutosave(plan.id, plan.version, doc, canEdit, setSavedResults);
 
-  // The figures on the drawing: the live answer for bridles, the saved server result for beams.
-  const shown: ResultState =
-    edit.arrangement.kind === "bridle"
-      ? live
-      : savedResults
-        ? {
-            kind: "done",
-            status: savedResults.status,
-            body: savedResults.body,
-            stale: save.kind === "pending" || save.kind === "saving",
-          }
-        : { kind: "idle" };
+  // The figures on the drawing, bridle and beam alike: the live solve in the browser.
+  const shown: ResultState = live;
   const solution = shown.kind === "done" && shown.status === 200 ? (shown.body as LiveSolution) : null;
 
   const hook =
@@ -349,7 +350,10 @@ export function PlanEditor({
           <TracingPanel files={files} units={units} tracing={tracing} />
         </ArrangementPanel>
 
-        <LiveResults state={shown} units={units} />
+        <div className="space-y-2">
+          <FiguresDiffer live={live} saved={savedResults} save={save} units={units} />
+          <LiveResults state={shown} units={units} />
+        </div>
       </div>
 
       <GearTable

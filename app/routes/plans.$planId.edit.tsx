@@ -5,7 +5,7 @@ import { PlanEditor } from "~/components/plan-editor";
 import { PageHeader } from "~/components/ui/form";
 import { gearPicksByIds } from "~/gear/picks.server";
 import { listComponentFiles } from "~/models/component.server";
-import { getOrganisationRuleSet } from "~/models/organisation.server";
+import { getOrganisationRuleSet, getOrganisationToday } from "~/models/organisation.server";
 import { getPlan } from "~/models/plan.server";
 import { getReferenceTables } from "~/models/reference-row.server";
 import { planJson } from "~/plans/api.server";
@@ -33,6 +33,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const plan = await planJson(user.organisationId, found);
   const ruleSet = await getOrganisationRuleSet(user.organisationId);
   const tables = await getReferenceTables();
+  // The organisation's day: the editor's live checks judge examinations against it, as the save does.
+  const todayIso = await getOrganisationToday(user.organisationId);
   const picks = await gearPicksByIds(user.organisationId, allocatedIds(plan.rigging), tables, ruleSet);
   const files = plan.componentId
     ? (await listComponentFiles(plan.componentId))
@@ -44,6 +46,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     picks,
     files,
     ruleSet,
+    todayIso,
     tables,
     units: user.units,
     canEdit: plan.status === "draft" || plan.status === "returned",
@@ -62,7 +65,7 @@ function useHydrated() {
 }
 
 export default function EditPlan({ loaderData }: Route.ComponentProps) {
-  const { plan, picks, files, units, canEdit, ruleSet, tables } = loaderData;
+  const { plan, picks, files, units, canEdit, ruleSet, todayIso, tables } = loaderData;
   const hydrated = useHydrated();
   return (
     <>
@@ -97,6 +100,7 @@ export default function EditPlan({ loaderData }: Route.ComponentProps) {
           files={files}
           canEdit={canEdit}
           ruleSet={ruleSet}
+          todayIso={todayIso}
           tables={tables}
         />
       ) : (

@@ -80,6 +80,57 @@ describe("a planner lays out a lift in the editor", () => {
     expect(version).toMatch(/Version \d+/);
   });
 
+  it("figures follow a move in the next frame with nothing sent, and a run of moves is one save after the pause", async () => {
+    const { page } = browser;
+    await page.goto("/plans/1/edit");
+    await hydrated(page);
+    await page.locator("[data-testid=view-elevation] canvas").first().waitFor();
+    await expect.poll(() => page.getByTestId("leg-table").isVisible(), { timeout: 10_000 }).toBe(true);
+    const requests: string[] = [];
+    const listener = (request: { method(): string; url(): string }) => {
+      const { pathname } = new URL(request.url());
+      if (pathname.startsWith("/api/")) requests.push(`${request.method()} ${pathname}`);
+    };
+    page.on("request", listener);
+    try {
+      const before = await legTension(page, "A");
+      const elevation = page.getByRole("application", { name: /^Elevation drawing/ });
+      await elevation.focus();
+      // One move (lift point A ten grid steps away from the CoG) and the leg table read back by the next frame.
+      const frame = await page.evaluate(async () => {
+        const table = () => document.querySelector("[data-testid=leg-table] tbody")?.textContent ?? "";
+        const was = table();
+        const t0 = performance.now();
+        document.activeElement!.dispatchEvent(
+          new KeyboardEvent("keydown", { key: "ArrowLeft", shiftKey: true, bubbles: true, cancelable: true }),
+        );
+        await new Promise((resolve) => requestAnimationFrame(resolve));
+        return { changed: table() !== was, ms: performance.now() - t0 };
+      });
+      expect(frame.changed).toBe(true);
+      // A run of nine more moves of one grid step, quicker than the pause: the plan is saved once.
+      for (let i = 0; i < 9; i++) await page.keyboard.press("ArrowLeft", { delay: 20 });
+      expect(await legTension(page, "A")).not.toBeCloseTo(before, 2);
+      await expect
+        .poll(() => page.getByTestId("save-status").innerText(), { timeout: 10_000 })
+        .toMatch(/Saved · version \d+/);
+      await page.waitForTimeout(1500);
+      expect(requests).toEqual(["PUT /api/plans/1"]);
+      // The server worked the saved plan out to the same figures as the editor, so no note says otherwise.
+      expect(await page.getByTestId("figures-differ").count()).toBe(0);
+      // Ten undo steps bring the layout back, saved once more.
+      for (let i = 0; i < 10; i++) await page.keyboard.press("Control+z");
+      await expect.poll(() => legTension(page, "A"), { timeout: 10_000 }).toBeCloseTo(before, 2);
+      await expect
+        .poll(() => page.getByTestId("save-status").innerText(), { timeout: 10_000 })
+        .toMatch(/Saved · version \d+/);
+      await page.waitForTimeout(1200);
+      expect(requests).toEqual(["PUT /api/plans/1", "PUT /api/plans/1"]);
+    } finally {
+      page.off("request", listener);
+    }
+  });
+
   it("fits a tablet width", async () => {
     const tablet = await openBrowser({ width: 820, height: 1180 });
     try {

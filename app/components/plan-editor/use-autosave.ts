@@ -1,4 +1,5 @@
 import { useCallback, useEffect, useRef, useState } from "react";
+import { createSaveCoalescer, type SaveCoalescer } from "~/components/plan-editor/save-coalescer";
 import type { PlanResults } from "~/plans/document";
 
 export type SaveState =
@@ -7,8 +8,15 @@ export type SaveState =
   | { kind: "conflict"; version: number; message: string }
   | { kind: "error"; version: number; message: string };
 
+/** How long the planner pauses before the plan is saved, ms. */
+export const AUTOSAVE_IDLE_MS = 800;
+
+/** Bodies up to this size go with keepalive, so a save sent as the page goes away still arrives. */
+const KEEPALIVE_LIMIT = 60_000;
+
 /**
- * Saves the plan a moment after the last change; a stale version stops saving and says so. Also
+ * Saves the plan once the planner pauses, and at once when the page is left, hidden or loses focus: one
+ * save for a run of moves or keypresses, never one each. A stale version stops saving and says so. Also
  * returns `saveNow`, which sends a waiting change at once (the Save now button, Ctrl+S).
  */
 export function useAutosave(
@@ -20,33 +28,47 @@ export function useAutosave(
 ) {
   const [save, setSave] = useState<SaveState>({ kind: "saved", version: initialVersion, at: null });
   const versionRef = useRef(initialVersion);
-  const first = useRef(true);
   const blocked = useRef(false);
-  const flush = useRef<(() => void) | null>(null);
   const key = JSON.stringify(doc);
+  const keyRef = useRef(key);
+  const savedKey = useRef(key);
+  const onSavedRef = useRef(onSaved);
+  const coalescer = useRef<SaveCoalescer | null>(null);
+
   useEffect(() => {
-    if (first.current) {
-      first.current = false;
-      return;
-    }
-    if (!enabled || blocked.current) return;
-    setSave({ kind: "pending", version: versionRef.current });
+    onSavedRef.current = onSaved;
+  }, [onSaved]);
+
+  useEffect(() => {
     const send = async () => {
-      flush.current = null;
+      const sending = keyRef.current;
+      if (blocked.current || sending === savedKey.current) {
+        setSave((s) => (s.kind === "pending" ? { kind: "saved", version: versionRef.current, at: null } : s));
+        return;
+      }
       setSave({ kind: "saving", version: versionRef.current });
+      const body = JSON.stringify({ ...(JSON.parse(sending) as object), version: versionRef.current });
       try {
         const res = await fetch(`/api/plans/${planId}`, {
           method: "PUT",
           headers: { "Content-Type": "application/json" },
-          body: JSON.stringify({ ...(JSON.parse(key) as object), version: versionRef.current }),
+          body,
+          keepalive: body.length < KEEPALIVE_LIMIT,
         });
         const json = (await res.json()) as { version?: number; error?: string; results?: PlanResults | null };
         if (res.ok && typeof json.version === "number") {
           versionRef.current = json.version;
-          setSave({ kind: "saved", version: json.version, at: new Date() });
-          onSaved(json.results ?? null);
+          savedKey.current = sending;
+          const more = coalescer.current?.pending ?? false;
+          setSave(
+            more
+              ? { kind: "pending", version: json.version }
+              : { kind: "saved", version: json.version, at: new Date() },
+          );
+          onSavedRef.current(json.results ?? null);
         } else if (res.status === 409) {
           blocked.current = true;
+          coalescer.current?.cancel();
           setSave({
             kind: "conflict",
             version: versionRef.current,
@@ -67,18 +89,33 @@ export function useAutosave(
         });
       }
     };
-    const timer = setTimeout(send, 900);
-    flush.current = () => {
-      clearTimeout(timer);
-      void send();
+    const c = createSaveCoalescer(send, AUTOSAVE_IDLE_MS);
+    coalescer.current = c;
+    const flush = () => c.flush();
+    const onVisibility = () => {
+      if (document.visibilityState === "hidden") c.flush();
     };
+    window.addEventListener("pagehide", flush);
+    window.addEventListener("blur", flush);
+    document.addEventListener("visibilitychange", onVisibility);
     return () => {
-      clearTimeout(timer);
-      flush.current = null;
+      window.removeEventListener("pagehide", flush);
+      window.removeEventListener("blur", flush);
+      document.removeEventListener("visibilitychange", onVisibility);
+      // Leaving the editor inside the app: what waits is sent, not dropped.
+      c.flush();
+      c.cancel();
+      coalescer.current = null;
     };
-    // onSaved is stable enough; saving follows the document only.
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [key, enabled, planId]);
-  const saveNow = useCallback(() => flush.current?.(), []);
+  }, [planId]);
+
+  useEffect(() => {
+    keyRef.current = key;
+    if (!enabled || blocked.current || key === savedKey.current) return;
+    setSave((s) => (s.kind === "saving" ? s : { kind: "pending", version: versionRef.current }));
+    coalescer.current?.changed();
+  }, [key, enabled]);
+
+  const saveNow = useCallback(() => coalescer.current?.flush(), []);
   return [save, saveNow] as const;
 }

@@ -1,8 +1,10 @@
-import { useEffect, useRef, useState } from "react";
+import { useMemo } from "react";
 import type { ResultState } from "~/components/live-results";
 import type { AnyCheck } from "~/plans/check-text";
+import { solveArrangement, type ArrangementInput } from "~/statics/arrangement";
+import type { ReferenceTables } from "~/statics/reference";
 
-/** The parts of a 200 answer from /api/solve the editor draws and works from. */
+/** The parts of a solved arrangement's body the editor draws and works from. */
 export type LiveSolution = {
   hook: { x: number; y: number; z: number };
   legs: Array<{
@@ -22,43 +24,25 @@ export type LiveSolution = {
   } | null;
 };
 
-type Answer = { key: string; status: number; body: unknown } | { key: string; failed: string };
+/** The input solved and checked in the browser by the statics core, with the reference tables. */
+export function solveLive(input: ArrangementInput | null, tables: ReferenceTables | null): ResultState {
+  if (input === null || input.liftPoints.length === 0) return { kind: "idle" };
+  if (tables === null) return { kind: "failed", message: "The reference tables did not arrive: reload the editor." };
+  try {
+    const outcome = solveArrangement(input, tables);
+    return { kind: "done", status: outcome.status, body: outcome.body, stale: false };
+  } catch (error) {
+    return {
+      kind: "failed",
+      message: `The figures could not be worked out: ${error instanceof Error ? error.message : String(error)}`,
+    };
+  }
+}
 
 /**
- * Fetches /api/solve for the body, debounced; answers to superseded bodies are dropped. While a newer
- * body is on its way the last answer is shown marked stale (derived from the keys, not set in the effect).
+ * Live figures worked out in the render that follows a change: the same core and tables as the server's
+ * results, so a move and its figures land in one frame with nothing on the network in between.
  */
-export function useLiveSolve(body: unknown | null): ResultState {
-  const [answer, setAnswer] = useState<Answer | null>(null);
-  const key = body === null ? null : JSON.stringify(body);
-  const sequence = useRef(0);
-  useEffect(() => {
-    if (key === null) return;
-    const id = ++sequence.current;
-    const controller = new AbortController();
-    const timer = setTimeout(async () => {
-      try {
-        const res = await fetch("/api/solve", {
-          method: "POST",
-          body: key,
-          headers: { "Content-Type": "application/json" },
-          signal: controller.signal,
-        });
-        const json = (await res.json()) as unknown;
-        if (id !== sequence.current) return;
-        setAnswer({ key, status: res.status, body: json });
-      } catch (error) {
-        if (controller.signal.aborted || id !== sequence.current) return;
-        setAnswer({ key, failed: error instanceof Error ? error.message : "The figures could not be fetched." });
-      }
-    }, 180);
-    return () => {
-      clearTimeout(timer);
-      controller.abort();
-    };
-  }, [key]);
-  if (key === null) return { kind: "idle" };
-  if (answer === null) return { kind: "loading" };
-  if ("failed" in answer) return answer.key === key ? { kind: "failed", message: answer.failed } : { kind: "loading" };
-  return { kind: "done", status: answer.status, body: answer.body, stale: answer.key !== key };
+export function useLiveSolve(input: ArrangementInput | null, tables: ReferenceTables | null): ResultState {
+  return useMemo(() => solveLive(input, tables), [input, tables]);
 }
