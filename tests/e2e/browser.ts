@@ -29,8 +29,11 @@ export type BrowserSession = {
 };
 
 /** A fresh Chromium profile at the given viewport; records any request that leaves the app's origin. */
-export async function openBrowser(viewport = { width: 1280, height: 860 }): Promise<BrowserSession> {
-  const baseUrl = inject("baseUrl");
+/** Chromium on the run's shared server, or on `baseUrl` (a server of the test file's own). */
+export async function openBrowser(
+  viewport = { width: 1280, height: 860 },
+  baseUrl: string = inject("baseUrl"),
+): Promise<BrowserSession> {
   const profile = fs.mkdtempSync(path.join(os.tmpdir(), "plumbline-chromium-"));
   const context = await chromium.launchPersistentContext(profile, {
     executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium",

@@ -7,20 +7,19 @@ import os from "node:os";
 import path from "node:path";
 import type { Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { startBuiltServer, type BuiltServer } from "../support/built-server";
 import { hydrated, openBrowser, signIn, type BrowserSession } from "./browser";
 
+// Its own server on a fresh demo database: the shared one's demo plans move on as other files approve and record them.
+let server: BuiltServer;
 let browser: BrowserSession;
 beforeAll(async () => {
-  browser = await openBrowser();
-});
+  server = await startBuiltServer();
+  browser = await openBrowser(undefined, server.baseUrl);
+}, 120_000);
 afterAll(async () => {
-  // Other browser files read these users' figures in metric: put them back whatever happened here.
-  for (const email of ["planner@example.com", "approver@example.com"]) {
-    await browser.context.clearCookies();
-    await signIn(browser.page, email);
-    await chooseUnits(browser.page, "metric");
-  }
-  await browser.close();
+  await browser?.close();
+  await server?.stop();
 });
 
 async function chooseUnits(page: Page, units: "metric" | "imperial") {
