@@ -3,16 +3,8 @@ import { describe, expect, it } from "vitest";
 import { REFERENCE_TABLES } from "../../db/seeders/reference-data";
 import { checkCraneLoad, checkLegAngle, checkShackle, checkSlingLeg } from "~/statics/checks";
 import { toCheckResult } from "~/statics/response";
-import {
-  checkSentence,
-  fixText,
-  governingCheck,
-  marginText,
-  ruleText,
-  standing,
-  warningSentence,
-  type LegacyCheck,
-} from "~/plans/check-text";
+import { checkSentence, fixText, ruleText, standing, warningSentence, type LegacyCheck } from "~/plans/check-text";
+import { governingCheck, marginText } from "~/plans/governing";
 import { formatCapacity, formatForce, formatLoad, formatMarkedWll, formatUtilisation } from "~/utils/format";
 
 const T = REFERENCE_TABLES;

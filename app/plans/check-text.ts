@@ -35,7 +35,7 @@ export const VERDICT_LABELS: Record<Verdict, string> = { pass: "Pass", warn: "Wa
 
 export const RULE_SET_NAMES: Record<RuleSetId, string> = { "uk-eu": "UK / EU rules", us: "US rules" };
 
-const RANK: Record<Verdict, number> = { pass: 0, warn: 1, fail: 2 };
+export const RANK: Record<Verdict, number> = { pass: 0, warn: 1, fail: 2 };
 
 export function isStructured(check: AnyCheck): check is Check {
   return "kind" in check && "verdict" in check;
@@ -470,37 +470,4 @@ export function ruleText(check: AnyCheck, units: Units): string {
 export function itemText(check: AnyCheck): string {
   if (!isStructured(check) || !check.itemCode || check.item.includes(check.itemCode)) return check.item;
   return `${check.item} · ${check.itemCode}`;
-}
-
-export type Governing = {
-  check: AnyCheck;
-  verdict: Verdict;
-  utilisation: number | null;
-  /** Capacity left (negative: over by), kg; null where the check is not a load ratio. */
-  marginKg: number | null;
-  fix: string | null;
-};
-
-/** The check that governs: the worst verdict, then the highest utilisation. Null when there are none. */
-export function governingCheck(checks: readonly AnyCheck[], units: Units): Governing | null {
-  let best: AnyCheck | null = null;
-  const score = (c: AnyCheck) => [RANK[verdictOf(c)], c.utilisation ?? -1] as const;
-  for (const c of checks) {
-    if (!best) {
-      best = c;
-      continue;
-    }
-    const [v, u] = score(c);
-    const [bv, bu] = score(best);
-    if (v > bv || (v === bv && u > bu)) best = c;
-  }
-  if (!best) return null;
-  const marginKg = best.loadKg !== null && best.capacityKg !== null ? best.capacityKg - best.loadKg : null;
-  const fix = isStructured(best) && best.fix ? fixText(best.fix, units, best) : null;
-  return { check: best, verdict: verdictOf(best), utilisation: best.utilisation, marginKg, fix };
-}
-
-/** The margin in words: "1,234 kg to spare" (rounded down) or "over by 56 kg" (rounded up). */
-export function marginText(marginKg: number, units: Units): string {
-  return marginKg >= 0 ? `${formatCapacity(marginKg, units)} to spare` : `over by ${formatLoad(-marginKg, units)}`;
 }

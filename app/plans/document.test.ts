@@ -1,12 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { rectangleOutlines, type ComponentDefinition } from "~/loads/component-definition";
-import {
-  arrangementSchema,
-  detailsSchema,
-  diffComponentDefinitions,
-  planPutSchema,
-  snapshotIssues,
-} from "~/plans/document";
+import { arrangementSchema, detailsSchema, planPutSchema, snapshotIssues } from "~/plans/document";
+import { diffComponentDefinitions } from "~/loads/component-changes";
 import { defaultArrangement, defaultDetails, defaultSequence, fitToSnapshot } from "~/plans/defaults";
 
 function element(overrides: Partial<ComponentDefinition> = {}): ComponentDefinition {

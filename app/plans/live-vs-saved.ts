@@ -2,7 +2,8 @@
 // Both come from the same core; they part when the server knows more (the register as it stands now, an
 // allocation it refuses, checks it adds) or its day has moved on. A difference counts only where it shows:
 // figures are compared as the pages print them (rounded up), so rounding alone never makes one.
-import { governingCheck, itemText, verdictOf, VERDICT_LABELS, type AnyCheck } from "~/plans/check-text";
+import { itemText, verdictOf, VERDICT_LABELS, type AnyCheck } from "~/plans/check-text";
+import { governingCheck } from "~/plans/governing";
 import { formatForce, formatUtilisation, type Units } from "~/utils/format";
 
 export type SolvedFigures = { status: number; body: unknown };

@@ -20,15 +20,14 @@ import { recordRevisionAuthor } from "~/models/plan-revision-author.server";
 import { getReferenceTables } from "~/models/reference-row.server";
 import {
   applyLoadEdit,
-  diffComponentDefinitions,
   snapshotIssues,
-  type ComponentChange,
   type LoadEdit,
   type PlanDocument,
   type PlanIssue,
   type PlanStatus,
   type RiggingAllocation,
 } from "~/plans/document";
+import { diffComponentDefinitions, type ComponentChange } from "~/loads/component-changes";
 import { defaultArrangement, defaultDetails, fitToSnapshot } from "~/plans/defaults";
 import { overrideAuditDetails, overrideIssues, plannedLoad, storedLoadJson } from "~/plans/load-override";
 import { computePlanResults } from "~/plans/results.server";

@@ -1,14 +1,6 @@
 import { StatusBadge } from "~/components/results/status-badge";
-import {
-  checkSentence,
-  governingCheck,
-  itemText,
-  marginText,
-  RULE_SET_NAMES,
-  verdictOf,
-  worstVerdict,
-  type AnyCheck,
-} from "~/plans/check-text";
+import { checkSentence, itemText, RULE_SET_NAMES, verdictOf, worstVerdict, type AnyCheck } from "~/plans/check-text";
+import { governingCheck, marginText } from "~/plans/governing";
 import type { RuleSetId } from "~/statics/reference";
 import { formatUtilisation, type Units } from "~/utils/format";
 
