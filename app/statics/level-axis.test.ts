@@ -92,13 +92,21 @@ describe("level mode: a leg that would pull against its lift point's axis", () =
         const named = points.findIndex((p) => level.message.includes(pullsFromBelowSurface(p.id)));
         expect(named).toBeGreaterThanOrEqual(0);
         expect(outward[named]).toBe(false);
-        // Given lengths never hangs those legs level either (it keeps every taut leg outward).
+        // Given lengths keeps every taut leg outward: if it hangs the load level on those lengths, each leg that
+        // would pull inward is slack there (a fourth leg can be; it then carries nothing).
         const given = solveGivenLengths(
           load,
           points,
           points.map((p) => distance(p.position, hook)),
         );
-        if (given.ok) expect(given.solution.tiltDeg).toBeGreaterThan(1e-6);
+        if (given.ok && given.solution.tiltDeg <= 1e-6) {
+          for (const [i, p] of points.entries()) {
+            if (outward[i]) continue;
+            expect(given.solution.legs.find((l) => l.liftPointId === p.id)?.slack, `leg ${p.id} pulls inward`).toBe(
+              true,
+            );
+          }
+        }
       }),
       { numRuns: RUNS },
     );
