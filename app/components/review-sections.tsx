@@ -96,41 +96,9 @@ export function PlanDetailsCards({ details, units }: { details: PlanDetails; uni
         {details.hazards.length === 0 ? (
           <EmptyState title="No hazards recorded">Every lift has some: return the plan if they are missing.</EmptyState>
         ) : (
-          <table data-testid="review-hazards">
-            <thead>
-              <tr>
-                <th scope="col">Hazard</th>
-                <th scope="col">Control</th>
-              </tr>
-            </thead>
-            <tbody>
-              {details.hazards.map((h, i) => (
-                <tr key={i}>
-                  <td>{h.hazard}</td>
-                  <td>{h.control}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
+          <HazardTable hazards={details.hazards} testId="review-hazards" />
         )}
-        <dl className="mt-4 grid gap-x-6 gap-y-2 text-sm sm:grid-cols-2">
-          <div>
-            <dt className="text-ink-soft">Exclusion zone</dt>
-            <dd className="whitespace-pre-line">{details.exclusionZone || "—"}</dd>
-          </div>
-          <div>
-            <dt className="text-ink-soft">Communication</dt>
-            <dd className="whitespace-pre-line">{details.communication || "—"}</dd>
-          </div>
-          <div>
-            <dt className="text-ink-soft">Underside clear of the floor by</dt>
-            <dd>{formatLength(details.floorClearanceM, units)}</dd>
-          </div>
-          <div>
-            <dt className="text-ink-soft">Planned lift date</dt>
-            <dd>{details.liftDate ?? "not set"}</dd>
-          </div>
-        </dl>
+        <LiftConditions details={details} units={units} />
       </Card>
       <Card title="People">
         {details.people.length === 0 ? (
@@ -169,5 +137,51 @@ export function ApprovalRefusals({ refusals }: { refusals: ApprovalRefusal[] }) 
         </p>
       </div>
     </Card>
+  );
+}
+
+/** Each hazard beside its control, as the plan and review pages list them. */
+export function HazardTable({ hazards, testId }: { hazards: PlanDetails["hazards"]; testId?: string }) {
+  return (
+    <table data-testid={testId}>
+      <thead>
+        <tr>
+          <th scope="col">Hazard</th>
+          <th scope="col">Control</th>
+        </tr>
+      </thead>
+      <tbody>
+        {hazards.map((h, i) => (
+          <tr key={i}>
+            <td>{h.hazard}</td>
+            <td>{h.control}</td>
+          </tr>
+        ))}
+      </tbody>
+    </table>
+  );
+}
+
+/** The exclusion zone, communication, floor clearance and planned lift date. */
+export function LiftConditions({ details, units }: { details: PlanDetails; units: Units }) {
+  return (
+    <dl className="mt-4 grid gap-x-6 gap-y-2 text-sm sm:grid-cols-2">
+      <div>
+        <dt className="text-ink-soft">Exclusion zone</dt>
+        <dd className="whitespace-pre-line">{details.exclusionZone || "—"}</dd>
+      </div>
+      <div>
+        <dt className="text-ink-soft">Communication</dt>
+        <dd className="whitespace-pre-line">{details.communication || "—"}</dd>
+      </div>
+      <div>
+        <dt className="text-ink-soft">Underside clear of the floor by</dt>
+        <dd>{formatLength(details.floorClearanceM, units)}</dd>
+      </div>
+      <div>
+        <dt className="text-ink-soft">Planned lift date</dt>
+        <dd>{details.liftDate ?? "not set"}</dd>
+      </div>
+    </dl>
   );
 }

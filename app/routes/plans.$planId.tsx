@@ -12,6 +12,7 @@ import { compareWithComponent, pullComponentVersion } from "~/plans/revisions.se
 import { assignRigger, cancelPlan, startNewRevision } from "~/plans/workflow.server";
 import { getWorkflowView, shownRevision, type WorkflowView } from "~/plans/workflow-view.server";
 import { listUsersWithRole } from "~/models/user.server";
+import { HazardTable, LiftConditions } from "~/components/review-sections";
 import { WorkflowPanel, type WorkflowPanelData } from "~/components/plan-workflow-panel";
 import { ArrivedFromPhonePanel, type ArrivedFromPhone } from "~/components/arrived-from-phone";
 import { listPlanSubmissions } from "~/models/offline-submission.server";
@@ -407,41 +408,9 @@ export default function PlanPage({ loaderData, actionData }: Route.ComponentProp
                 Every lift has some: list each with its control before the plan goes for review.
               </EmptyState>
             ) : (
-              <table>
-                <thead>
-                  <tr>
-                    <th scope="col">Hazard</th>
-                    <th scope="col">Control</th>
-                  </tr>
-                </thead>
-                <tbody>
-                  {details.hazards.map((h, i) => (
-                    <tr key={i}>
-                      <td>{h.hazard}</td>
-                      <td>{h.control}</td>
-                    </tr>
-                  ))}
-                </tbody>
-              </table>
+              <HazardTable hazards={details.hazards} />
             )}
-            <dl className="mt-4 grid gap-x-6 gap-y-2 text-sm sm:grid-cols-2">
-              <div>
-                <dt className="text-ink-soft">Exclusion zone</dt>
-                <dd className="whitespace-pre-line">{details.exclusionZone || "—"}</dd>
-              </div>
-              <div>
-                <dt className="text-ink-soft">Communication</dt>
-                <dd className="whitespace-pre-line">{details.communication || "—"}</dd>
-              </div>
-              <div>
-                <dt className="text-ink-soft">Underside clear of the floor by</dt>
-                <dd>{formatLength(details.floorClearanceM, units)}</dd>
-              </div>
-              <div>
-                <dt className="text-ink-soft">Planned lift date</dt>
-                <dd>{details.liftDate ?? "not set"}</dd>
-              </div>
-            </dl>
+            <LiftConditions details={details} units={units} />
           </Card>
           <Card title="People">
             {details.people.length === 0 ? (
