@@ -49,6 +49,17 @@ export default defineConfig(({ command, mode }) => ({
         },
       },
       {
+        // The integration tests again, each file on a database of its own on a throwaway PostgreSQL server.
+        extends: true,
+        test: {
+          name: "postgres",
+          include: ["tests/integration/**/*.test.ts"],
+          setupFiles: ["tests/support/database.ts"],
+          globalSetup: ["tests/support/postgres-setup.ts"],
+          hookTimeout: 60000,
+        },
+      },
+      {
         extends: true,
         test: {
           name: "e2e",

@@ -1,6 +1,6 @@
 #!/usr/bin/env bash
-# The whole test suite, as `npm test` and CI run it: lint and format, types, unit and integration tests, the production build, then
-# the build driven in Debian's Chromium. Every stage runs even when an earlier one failed (the browser tests need the
+# The whole test suite, as `npm test` and CI run it: lint and format, types, unit and integration tests on SQLite, the
+# integration tests again on PostgreSQL, the production build, then the build driven in Debian's Chromium. Every stage runs even when an earlier one failed (the browser tests need the
 # build), and the output ends with one line, `N passed, N failed`, summed over all stages by
 # tests/support/test-summary.mjs: each test of a vitest stage counts, and each other stage counts as one.
 # Exits non-zero when anything failed.
@@ -48,11 +48,19 @@ passed() { [ "$(cat "$results"/*-"$1".exit)" = 0 ]; }
 stage lint bash -c "eslint -c .eslint.config.js . && prettier --check ."
 stage types bash -c "react-router typegen && tsc"
 vitest_stage unit unit
+tools=ok
+bash tests/ensure-tools.sh || tools=missing
+# The integration tests again on PostgreSQL (a throwaway server on loopback, stopped at the end).
+if [ "$tools" = ok ]; then
+  vitest_stage postgres postgres
+else
+  not_run postgres "PostgreSQL is missing"
+fi
 stage build react-router build
 if ! passed build; then
   not_run e2e "the build failed"
-elif ! bash tests/ensure-tools.sh; then
-  not_run e2e "Chromium or poppler-utils is missing"
+elif [ "$tools" != ok ]; then
+  not_run e2e "Chromium, poppler-utils or PostgreSQL is missing"
 else
   vitest_stage e2e e2e
 fi

@@ -2,6 +2,8 @@
 import { Op } from "sequelize";
 import { isBeamKind, parseLugPositions, type GearKind } from "~/gear/kinds";
 import { GearItem } from "~/models/gear-item.server";
+import { sequelize } from "~/utils/db.server";
+import { caseInsensitiveLike } from "~/utils/sql-dialect.server";
 import type { GearPick, GearRole } from "~/plans/rigging";
 import type { EyeboltFamily, SlingSpec, Wll } from "~/statics/checks";
 import { DEFAULT_RULE_SET, findModeFactor, type ReferenceTables, type RuleSetId } from "~/statics/reference";
@@ -160,6 +162,7 @@ export async function searchGearPicks(
 ) {
   const q = (options.query ?? "").trim().slice(0, 100);
   const like = `%${q.replace(/[%_\\]/g, (c) => `\\${c}`)}%`;
+  const LIKE = caseInsensitiveLike(sequelize);
   const items = await GearItem.findAll({
     where: {
       organisationId,
@@ -170,10 +173,10 @@ export async function searchGearPicks(
       ...(q
         ? {
             [Op.or]: [
-              { itemCode: { [Op.like]: like } },
-              { description: { [Op.like]: like } },
-              { serial: { [Op.like]: like } },
-              { thread: { [Op.like]: like } },
+              { itemCode: { [LIKE]: like } },
+              { description: { [LIKE]: like } },
+              { serial: { [LIKE]: like } },
+              { thread: { [LIKE]: like } },
             ],
           }
         : {}),

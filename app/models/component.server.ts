@@ -11,6 +11,7 @@ import {
 } from "sequelize";
 import type { ComponentDefinition, CogSource, MassSource } from "~/loads/component-definition";
 import { sequelize } from "~/utils/db.server";
+import { bySqlDialect, caseInsensitiveLike } from "~/utils/sql-dialect.server";
 import { recordAudit } from "~/models/audit-event.server";
 import { StoredFile } from "~/models/stored-file.server";
 import {
@@ -215,7 +216,7 @@ export async function listComponents(organisationId: number, options: { archived
     where: {
       organisationId,
       archivedAt: options.archived ? { [Op.ne]: null } : null,
-      ...(options.query ? { name: { [Op.like]: `%${options.query.replace(/[%_\\]/g, (c) => `\\${c}`)}%` } } : {}),
+      ...(options.query ? { name: { [caseInsensitiveLike(sequelize)]: `%${options.query.replace(/[%_\\]/g, (c) => `\\${c}`)}%` } } : {}),
     },
     include: [{ model: ComponentLiftPoint, as: "liftPoints" }],
     order: [["name", "ASC"]],
@@ -238,12 +239,21 @@ export const COMPONENT_LIST_KEYS: SortKey[] = [
 ];
 const COMPONENT_KEYSET = keysetSql(COMPONENT_LIST_KEYS);
 
+/** Every component, or those whose name holds `$query` (any case). */
+const NAME_FILTER = {
+  any: "TRUE",
+  holds: bySqlDialect(sequelize, {
+    sqlite: "instr(lower(c.name), lower($query)) > 0",
+    postgres: "strpos(lower(c.name), lower($query)) > 0",
+  }),
+};
+
 /** The current components, or the archived ones. */
 const ARCHIVED_CONDITION = { current: "c.archived_at IS NULL", archived: "c.archived_at IS NOT NULL" } as const;
 
-const COMPONENT_LIST_COLUMNS = `c.id AS id, c.name AS name, c.mass_kg AS massKg, c.mass_source AS massSource,
-  c.contingency_pct AS contingencyPct,
-  (SELECT COUNT(*) FROM component_lift_points p WHERE p.component_id = c.id) AS liftPoints`;
+const COMPONENT_LIST_COLUMNS = `c.id AS id, c.name AS name, c.mass_kg AS "massKg", c.mass_source AS "massSource",
+  c.contingency_pct AS "contingencyPct",
+  (SELECT COUNT(*) FROM component_lift_points p WHERE p.component_id = c.id) AS "liftPoints"`;
 
 /** One page of the organisation's current (or archived) components by name, optionally those whose name holds `query`. */
 export async function listComponentsPage(
@@ -256,10 +266,10 @@ export async function listComponentsPage(
     `SELECT ${COMPONENT_LIST_COLUMNS} FROM components c
       WHERE c.organisation_id = $organisationId
         AND ${ARCHIVED_CONDITION[options.archived ? "archived" : "current"]}
-        AND ($query IS NULL OR instr(lower(c.name), lower($query)) > 0)
+        AND ${NAME_FILTER[options.query ? "holds" : "any"]}
         AND ${COMPONENT_KEYSET[way].where} ORDER BY ${COMPONENT_KEYSET[way].order} LIMIT $limit`,
     {
-      bind: { organisationId, query: options.query || null, ...keysetBind(request) },
+      bind: { organisationId, ...(options.query ? { query: options.query } : {}), ...keysetBind(request) },
       type: QueryTypes.SELECT,
     },
   );
@@ -269,8 +279,8 @@ export async function listComponentsPage(
 /** The current components a plan can be made from (those with lift points), by name: the columns a choice shows. */
 export async function listComponentChoices(organisationId: number) {
   return sequelize.query<Pick<ComponentListRow, "id" | "name" | "massKg" | "liftPoints">>(
-    `SELECT c.id AS id, c.name AS name, c.mass_kg AS massKg,
-            (SELECT COUNT(*) FROM component_lift_points p WHERE p.component_id = c.id) AS liftPoints
+    `SELECT c.id AS id, c.name AS name, c.mass_kg AS "massKg",
+            (SELECT COUNT(*) FROM component_lift_points p WHERE p.component_id = c.id) AS "liftPoints"
        FROM components c
       WHERE c.organisation_id = $organisationId AND c.archived_at IS NULL
         AND EXISTS (SELECT 1 FROM component_lift_points p WHERE p.component_id = c.id)

@@ -34,13 +34,13 @@ export type GearExportRow = {
   nextDueOn: string | null;
 };
 
-const EXPORT_COLUMNS = `g.item_code AS itemCode, g.kind AS kind, g.description AS description,
-  g.manufacturer AS manufacturer, g.serial AS serial, g.wll_value AS wllValue, g.wll_unit AS wllUnit,
-  g.wll_kg AS wllKg, g.thread AS thread, g.eyebolt_family AS eyeboltFamily, g.shackle_type AS shackleType,
-  g.pin_type AS pinType, g.chain_grade AS chainGrade, g.diameter_mm AS diameterMm, g.legs AS legs,
-  g.length_m AS lengthM, g.hook_height_m AS hookHeightM, g.beam_mass_kg AS beamMassKg, g.mass_kg AS massKg,
-  g.drop_lugs_m AS dropLugsM, g.top_lugs_m AS topLugsM,
-  s.name AS homeSiteName, g.status AS status, g.last_examined_on AS lastExaminedOn, g.next_due_on AS nextDueOn`;
+const EXPORT_COLUMNS = `g.item_code AS "itemCode", g.kind AS kind, g.description AS description,
+  g.manufacturer AS manufacturer, g.serial AS serial, g.wll_value AS "wllValue", g.wll_unit AS "wllUnit",
+  g.wll_kg AS "wllKg", g.thread AS thread, g.eyebolt_family AS "eyeboltFamily", g.shackle_type AS "shackleType",
+  g.pin_type AS "pinType", g.chain_grade AS "chainGrade", g.diameter_mm AS "diameterMm", g.legs AS legs,
+  g.length_m AS "lengthM", g.hook_height_m AS "hookHeightM", g.beam_mass_kg AS "beamMassKg", g.mass_kg AS "massKg",
+  g.drop_lugs_m AS "dropLugsM", g.top_lugs_m AS "topLugsM",
+  s.name AS "homeSiteName", g.status AS status, g.last_examined_on AS "lastExaminedOn", g.next_due_on AS "nextDueOn"`;
 
 const EXPORT_FIRST_BATCH = `SELECT ${EXPORT_COLUMNS}
    FROM gear_items g LEFT JOIN sites s ON s.id = g.home_site_id
@@ -105,7 +105,7 @@ export async function gearAttentionSummary(
         { bind, type: QueryTypes.SELECT },
       );
       const items = await sequelize.query<AttentionPreview>(
-        `SELECT g.id AS id, g.item_code AS itemCode, g.description AS description, g.next_due_on AS nextDueOn
+        `SELECT g.id AS id, g.item_code AS "itemCode", g.description AS description, g.next_due_on AS "nextDueOn"
            FROM gear_items g WHERE g.organisation_id = $organisationId AND ${ATTENTION_GROUP_SQL[group].where}
           ORDER BY g.next_due_on, g.item_code LIMIT $perGroup`,
         { bind: { ...bind, perGroup }, type: QueryTypes.SELECT },

@@ -10,6 +10,7 @@ import {
   type WhereOptions,
 } from "sequelize";
 import { sequelize } from "~/utils/db.server";
+import { sqlDialectOf } from "~/utils/sql-dialect.server";
 import { dueState, DUE_SOON_DAYS, type DueState } from "~/gear/due";
 import { addDays } from "~/utils/dates";
 import { SPEC_FIELDS, type GearKind, type GearStatus } from "~/gear/kinds";
@@ -188,12 +189,18 @@ function contains(column: string, q: string) {
  * trigram holds, is looked for in the columns themselves.
  */
 function searchWhere(q: string): { where: WhereOptions; bind?: { phrase: string } } {
+  if (sqlDialectOf(sequelize) === "postgres") {
+    // PostgreSQL: ILIKE on each column, served by its trigram index (migration 0026) from three characters on.
+    const pattern = `%${q.replace(/[%_\\]/g, (c) => `\\${c}`)}%`;
+    const attributes = ["itemCode", "description", "manufacturer", "serial"];
+    return { where: { [Op.or]: attributes.map((a) => ({ [a]: { [Op.iLike]: pattern } })) } };
+  }
   const phrase = `"${q.replaceAll('"', '""')}"`;
   if ([...q].length >= 3) return { where: sequelize.literal(FTS_MATCH) as unknown as WhereOptions, bind: { phrase } };
   const columns = ["GearItem.item_code", "GearItem.description", "GearItem.manufacturer", "GearItem.serial"];
   return { where: { [Op.or]: columns.map((c) => contains(c, q)) } };
 }
-const FTS_MATCH = "`GearItem`.`id` IN (SELECT rowid FROM gear_items_search WHERE gear_items_search MATCH $phrase)";
+const FTS_MATCH = '"GearItem"."id" IN (SELECT rowid FROM gear_items_search WHERE gear_items_search MATCH $phrase)';
 
 function dueWhere(due: DueState, today: string): WhereOptions {
   const soon = addDays(today, DUE_SOON_DAYS);
@@ -273,7 +280,8 @@ export async function searchGearItems(
   const text = q ? searchWhere(q) : null;
   if (text) and.push(text.where);
   const bind = text?.bind;
-  const dir = search.dir === "desc" ? "DESC" : "ASC";
+  // Empty cells sort first going up and last going down, on SQLite (its own rule) and PostgreSQL alike.
+  const dir = search.dir === "desc" ? "DESC NULLS LAST" : "ASC NULLS FIRST";
   const order: Array<[string, string] | [{ model: typeof Site; as: string }, string, string]> =
     search.sort === "site" ? [[{ model: Site, as: "homeSite" }, "name", dir]] : [[search.sort, dir]];
   if (search.sort !== "itemCode") order.push(["itemCode", "ASC"]);

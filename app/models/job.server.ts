@@ -72,7 +72,7 @@ export async function listJobs(organisationId: number, options: { siteId?: numbe
     include: [{ model: Site, as: "site" }],
     order: [
       ["status", "DESC"],
-      ["startsOn", "ASC"],
+      ["startsOn", "ASC NULLS FIRST"],
       ["workOrder", "ASC"],
     ],
   });
@@ -91,11 +91,15 @@ export type JobListRow = {
 /** Open jobs first, then by start date (none first), work order and id: the order of `listJobs`. */
 export const JOB_LIST_KEYS: SortKey[] = [
   { sql: "j.status", direction: "DESC" },
-  { sql: "COALESCE(j.starts_on, '')", direction: "ASC" },
+  { sql: "COALESCE(CAST(j.starts_on AS TEXT), '')", direction: "ASC" },
   { sql: "j.work_order", direction: "ASC" },
   { sql: "j.id", direction: "ASC" },
 ];
 const JOB_KEYSET = keysetSql(JOB_LIST_KEYS);
+
+/** Fixed conditions for the list's filters, so each way of listing keeps its own plan (and the index on site). */
+const JOB_SITE_FILTER = { any: "TRUE", one: "j.site_id = $siteId" } as const;
+const JOB_STATUS_FILTER = { any: "TRUE", one: "j.status = $status" } as const;
 
 /** One page of the organisation's jobs (optionally one site's, or only open ones), with the columns a list shows. */
 export async function listJobsPage(
@@ -105,18 +109,19 @@ export async function listJobsPage(
 ): Promise<Page<JobListRow>> {
   const way = keysetWay(request);
   const rows = await sequelize.query<JobListRow>(
-    `SELECT j.id AS id, j.work_order AS workOrder, j.title AS title, j.status AS status, j.starts_on AS startsOn,
+    `SELECT j.id AS id, j.work_order AS "workOrder", j.title AS title, j.status AS status, j.starts_on AS "startsOn",
             COALESCE(s.name, '') AS site, COALESCE(s.customer, '') AS customer
        FROM jobs j LEFT JOIN sites s ON s.id = j.site_id
       WHERE j.organisation_id = $organisationId
-        AND ($siteId IS NULL OR j.site_id = $siteId) AND ($status IS NULL OR j.status = $status)
+        AND ${JOB_SITE_FILTER[options.siteId === undefined ? "any" : "one"]}
+        AND ${JOB_STATUS_FILTER[options.status === undefined ? "any" : "one"]}
         AND ${JOB_KEYSET[way].where}
       ORDER BY ${JOB_KEYSET[way].order} LIMIT $limit`,
     {
       bind: {
         organisationId,
-        siteId: options.siteId ?? null,
-        status: options.status ?? null,
+        ...(options.siteId === undefined ? {} : { siteId: options.siteId }),
+        ...(options.status === undefined ? {} : { status: options.status }),
         ...keysetBind(request),
       },
       type: QueryTypes.SELECT,

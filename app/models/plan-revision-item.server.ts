@@ -52,7 +52,7 @@ export async function listRevisionIdsUsingItems(gearItemIds: readonly number[]) 
 /** The ids of the organisation's items that its approved revisions allocate. */
 export async function listItemIdsInApprovedRevisions(organisationId: number) {
   const rows = await sequelize.query<{ gearItemId: number }>(
-    `SELECT DISTINCT i.gear_item_id AS gearItemId
+    `SELECT DISTINCT i.gear_item_id AS "gearItemId"
      FROM plan_revision_items i
      JOIN plan_revisions r ON r.id = i.revision_id AND r.status = 'approved'
      JOIN plans p ON p.id = r.plan_id AND p.organisation_id = $organisationId`,

@@ -205,7 +205,7 @@ export async function listPlansPage(
 ): Promise<Page<PlanListRow>> {
   const way = keysetWay(request);
   const rows = await sequelize.query<PlanListRow & { status: PlanStatus | null }>(
-    `SELECT p.id AS id, p.title AS title, p.job_id AS jobId,
+    `SELECT p.id AS id, p.title AS title, p.job_id AS "jobId",
             r.status AS status, r.revision AS revision, r.version AS version
        FROM plans p LEFT JOIN plan_revisions r ON r.id = p.current_revision_id
       WHERE p.organisation_id = $organisationId AND ${PLAN_SCOPE[options.jobId === undefined ? "all" : "job"]}

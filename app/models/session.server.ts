@@ -9,6 +9,7 @@ import {
   type Transaction,
 } from "sequelize";
 import { sequelize } from "~/utils/db.server";
+import { bySqlDialect } from "~/utils/sql-dialect.server";
 import type { SessionUser } from "~/models/user.server";
 import { ROLES, type Role } from "~/utils/roles";
 
@@ -38,9 +39,13 @@ Session.init(
   { sequelize, tableName: "sessions", underscored: true, timestamps: false },
 );
 
+/** The user's roles as one comma-separated text (for a statement that names `users u`). */
+const ROLE_LIST = bySqlDialect(sequelize, { sqlite: "group_concat(r.role)", postgres: "string_agg(r.role, ',')" });
+export const ROLES_OF_USER = `(SELECT ${ROLE_LIST} FROM user_roles r WHERE r.user_id = u.id)`;
+
 /** The columns of a session user, for a statement that joins `users u` and `organisations o`. */
-export const SESSION_USER_COLUMNS = `u.id, u.organisation_id AS organisationId, o.name AS organisationName, u.email,
-         u.name, u.units, (SELECT group_concat(r.role) FROM user_roles r WHERE r.user_id = u.id) AS roles`;
+export const SESSION_USER_COLUMNS = `u.id, u.organisation_id AS "organisationId", o.name AS "organisationName", u.email,
+         u.name, u.units, ${ROLES_OF_USER} AS roles`;
 
 export type SessionUserRow = Omit<SessionUser, "roles"> & { roles: string | null };
 
@@ -123,12 +128,12 @@ type FoundRow = SessionUserRow & { sessionId: number; lastSeenAtMs: number };
  */
 export async function findSession(token: string, lifetimes: SessionLifetimes, now = Date.now()) {
   const [row] = await sequelize.query<FoundRow>(
-    `SELECT s.id AS sessionId, s.last_seen_at_ms AS lastSeenAtMs, ${SESSION_USER_COLUMNS}
+    `SELECT s.id AS "sessionId", s.last_seen_at_ms AS "lastSeenAtMs", ${SESSION_USER_COLUMNS}
        FROM sessions s
        JOIN users u ON u.id = s.user_id
        JOIN organisations o ON o.id = u.organisation_id
       WHERE s.token_hash = $tokenHash AND s.expires_at_ms > $now AND s.last_seen_at_ms > $idleCutoff
-        AND u.active = 1`,
+        AND u.active = TRUE`,
     {
       bind: { tokenHash: hashSessionToken(token), now, idleCutoff: now - lifetimes.idleMs },
       type: QueryTypes.SELECT,
@@ -194,7 +199,7 @@ export async function listUserSessions(userId: number, lifetimes: SessionLifetim
     address: string | null;
     userAgent: string | null;
   }>(
-    `SELECT id, created_at_ms AS createdAtMs, last_seen_at_ms AS lastSeenAtMs, address, user_agent AS userAgent
+    `SELECT id, created_at_ms AS "createdAtMs", last_seen_at_ms AS "lastSeenAtMs", address, user_agent AS "userAgent"
        FROM sessions
       WHERE user_id = $userId AND expires_at_ms > $now AND last_seen_at_ms > $idleCutoff
       ORDER BY last_seen_at_ms DESC, id DESC`,

@@ -7,6 +7,7 @@ import {
   type InferCreationAttributes,
 } from "sequelize";
 import { sequelize } from "~/utils/db.server";
+import { insertedIdOf } from "~/utils/sql-dialect.server";
 import { normaliseEmail } from "~/models/user.server";
 
 export type AttemptScope = "sign-in" | "password-reset";
@@ -74,13 +75,13 @@ function refusal(what: string, retryAtMs: number, nowMs: number): AttemptRefusal
 async function insertAttempt(scope: AttemptScope, accountKey: string | null, source: AttemptSource, nowMs: number) {
   const [id] = await sequelize.query(
     `INSERT INTO sign_in_attempts (scope, account_key, address_key, device_key, attempted_at_ms)
-     VALUES ($scope, $accountKey, $addressKey, $deviceKey, $now)`,
+     VALUES ($scope, $accountKey, $addressKey, $deviceKey, $now) RETURNING id`,
     {
       bind: { scope, accountKey, addressKey: source.addressKey, deviceKey: source.deviceKey, now: nowMs },
       type: QueryTypes.INSERT,
     },
   );
-  return Number(id);
+  return insertedIdOf(id);
 }
 
 async function deleteAttempt(id: number) {

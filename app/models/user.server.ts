@@ -12,9 +12,11 @@ import {
 } from "sequelize";
 import { sequelize } from "~/utils/db.server";
 import { env } from "~/utils/env.server";
+import { isoTimeOf } from "~/utils/sql-dialect.server";
 import { recordAudit } from "~/models/audit-event.server";
 import {
   endUserSessions,
+  ROLES_OF_USER,
   SESSION_USER_COLUMNS,
   sessionUserFromRow,
   type SessionUserRow,
@@ -127,7 +129,7 @@ export async function getActiveSessionUser(userId: number): Promise<SessionUser 
   const [row] = await sequelize.query<SessionUserRow>(
     `SELECT ${SESSION_USER_COLUMNS}
        FROM users u JOIN organisations o ON o.id = u.organisation_id
-      WHERE u.id = $userId AND u.active = 1`,
+      WHERE u.id = $userId AND u.active = TRUE`,
     { bind: { userId }, type: QueryTypes.SELECT },
   );
   return row ? sessionUserFromRow(row) : null;
@@ -185,9 +187,9 @@ type UserListSqlRow = {
   name: string;
   email: string;
   roles: string | null;
-  active: number;
-  hasPassword: number;
-  createdAt: string;
+  active: number | boolean;
+  hasPassword: number | boolean;
+  createdAt: string | Date;
 };
 
 function toUserRow(r: UserListSqlRow): UserRow {
@@ -199,13 +201,13 @@ function toUserRow(r: UserListSqlRow): UserRow {
     roles: ((r.roles ? r.roles.split(",") : []) as Role[]).sort((a, b) => order(a) - order(b)),
     active: !!r.active,
     hasPassword: !!r.hasPassword,
-    createdAt: new Date(r.createdAt.replace(" ", "T").replace(/ ?\+00:00$/, "Z")).toISOString(),
+    createdAt: isoTimeOf(r.createdAt),
   };
 }
 
 const USER_LIST_COLUMNS = `u.id AS id, u.name AS name, u.email AS email, u.active AS active,
-  u.password_hash IS NOT NULL AS hasPassword, u.created_at AS createdAt,
-  (SELECT group_concat(r.role) FROM user_roles r WHERE r.user_id = u.id) AS roles`;
+  u.password_hash IS NOT NULL AS "hasPassword", u.created_at AS "createdAt",
+  ${ROLES_OF_USER} AS roles`;
 
 /** One page of the organisation's users, active first, by name. */
 export async function listUsersPage(organisationId: number, request: PageRequest): Promise<Page<UserRow>> {
@@ -223,7 +225,7 @@ export async function listUsersPage(organisationId: number, request: PageRequest
 export async function listPendingInvitations(organisationId: number, limit: number) {
   return sequelize.query<{ id: number; name: string; email: string }>(
     `SELECT u.id AS id, u.name AS name, u.email AS email FROM users u
-      WHERE u.organisation_id = $organisationId AND u.active = 1 AND u.password_hash IS NULL
+      WHERE u.organisation_id = $organisationId AND u.active = TRUE AND u.password_hash IS NULL
       ORDER BY u.name, u.id LIMIT $limit`,
     { bind: { organisationId, limit }, type: QueryTypes.SELECT },
   );

@@ -1,6 +1,7 @@
 import { AsyncLocalStorage } from "node:async_hooks";
 import fs from "node:fs";
 import path from "node:path";
+import pg from "pg";
 import { QueryTypes, Sequelize, Transaction } from "sequelize";
 import sqlite3 from "sqlite3";
 import { env } from "~/utils/env.server";
@@ -129,8 +130,13 @@ function serialiseWrites(db: Sequelize) {
   return db;
 }
 
+/** Whether `target` names a PostgreSQL server (a postgres:// URL) rather than an SQLite file. */
+export function isPostgresUrl(target: string) {
+  return /^postgres(ql)?:\/\//.test(target);
+}
+
 /** Opens (creating its folder if needed) the SQLite file at `storage`. */
-export function openDatabase(storage: string): Sequelize {
+function openSqlite(storage: string): Sequelize {
   if (storage !== ":memory:") fs.mkdirSync(path.dirname(path.resolve(storage)), { recursive: true });
   return serialiseWrites(
     new Sequelize({
@@ -147,9 +153,32 @@ export function openDatabase(storage: string): Sequelize {
   );
 }
 
+// COUNT(*) and BIGINT columns (times in ms) come back from PostgreSQL as int8, which pg hands over as strings to
+// keep their precision; every int8 here is a count or a millisecond time, far inside a double's exact range.
+pg.types.setTypeParser(pg.types.builtins.INT8, (value: string) => Number(value));
+
+/**
+ * Connects to the PostgreSQL database at `url`. The server's own locking serves the app (no write queue, no
+ * pragmas); a pool per process, so several app servers share the database.
+ */
+function openPostgres(url: string): Sequelize {
+  return new Sequelize(url, {
+    dialect: "postgres",
+    dialectModule: pg,
+    logging: false,
+    define: { underscored: true },
+    pool: { max: Number(process.env.DATABASE_POOL_MAX) || 10, min: 0, idle: 10_000, acquire: 30_000 },
+  });
+}
+
+/** Opens the database at `target`: a postgres:// URL, or the path of an SQLite file. */
+export function openDatabase(target: string): Sequelize {
+  return isPostgresUrl(target) ? openPostgres(target) : openSqlite(target);
+}
+
 declare global {
   var __plumblineSequelize: Sequelize | undefined;
 }
 
 /** The application's one connection to its database (kept across dev reloads). */
-export const sequelize: Sequelize = (globalThis.__plumblineSequelize ??= openDatabase(env.databasePath));
+export const sequelize: Sequelize = (globalThis.__plumblineSequelize ??= openDatabase(env.database));

@@ -1,3 +1,4 @@
+import { bySqlDialect } from "~/utils/sql-dialect.server";
 import type { Migration } from "../umzug";
 
 /**
@@ -7,7 +8,7 @@ import type { Migration } from "../umzug";
  * the text (external content: gear_items), and the triggers keep it in step with every insert, update and delete.
  * A migration that rebuilds gear_items (SQLite's ALTER of a column copies the table) must recreate the triggers.
  */
-const STATEMENTS = [
+const SQLITE_STATEMENTS = [
   `CREATE VIRTUAL TABLE gear_items_search USING fts5(item_code, description, manufacturer, serial,
      content='gear_items', content_rowid='id', tokenize='trigram')`,
   `CREATE TRIGGER gear_items_search_insert AFTER INSERT ON gear_items BEGIN
@@ -28,11 +29,29 @@ const STATEMENTS = [
   `INSERT INTO gear_items_search(gear_items_search) VALUES ('rebuild')`,
 ];
 
+const SEARCHED_COLUMNS = ["item_code", "description", "manufacturer", "serial"];
+
+/**
+ * On PostgreSQL, trigram indexes (the pg_trgm extension, shipped with the server) on each searched column serve the
+ * same case-insensitive "contains" search (ILIKE), and PostgreSQL keeps them in step itself.
+ */
+const POSTGRES_STATEMENTS = [
+  "CREATE EXTENSION IF NOT EXISTS pg_trgm",
+  ...SEARCHED_COLUMNS.map(
+    (column) => `CREATE INDEX gear_items_search_${column} ON gear_items USING gin (${column} gin_trgm_ops)`,
+  ),
+];
+
 export const up: Migration = async ({ context: qi }) => {
-  for (const sql of STATEMENTS) await qi.sequelize.query(sql);
+  const statements = bySqlDialect(qi.sequelize, { sqlite: SQLITE_STATEMENTS, postgres: POSTGRES_STATEMENTS });
+  for (const sql of statements) await qi.sequelize.query(sql);
 };
 
 export const down: Migration = async ({ context: qi }) => {
+  if (bySqlDialect(qi.sequelize, { sqlite: false, postgres: true })) {
+    for (const column of SEARCHED_COLUMNS) await qi.sequelize.query(`DROP INDEX IF EXISTS gear_items_search_${column}`);
+    return;
+  }
   for (const name of ["gear_items_search_update", "gear_items_search_delete", "gear_items_search_insert"])
     await qi.sequelize.query(`DROP TRIGGER IF EXISTS ${name}`);
   await qi.sequelize.query("DROP TABLE IF EXISTS gear_items_search");
