@@ -216,7 +216,9 @@ export async function listComponents(organisationId: number, options: { archived
     where: {
       organisationId,
       archivedAt: options.archived ? { [Op.ne]: null } : null,
-      ...(options.query ? { name: { [caseInsensitiveLike(sequelize)]: `%${options.query.replace(/[%_\\]/g, (c) => `\\${c}`)}%` } } : {}),
+      ...(options.query
+        ? { name: { [caseInsensitiveLike(sequelize)]: `%${options.query.replace(/[%_\\]/g, (c) => `\\${c}`)}%` } }
+        : {}),
     },
     include: [{ model: ComponentLiftPoint, as: "liftPoints" }],
     order: [["name", "ASC"]],

@@ -5,6 +5,7 @@
 import fs from "node:fs";
 import fc from "fast-check";
 import { createSession } from "react-router";
+import { QueryTypes } from "sequelize";
 import sqlite3 from "sqlite3";
 import { beforeAll, describe, expect, it, vi } from "vitest";
 import * as adminSettings from "~/routes/admin.settings";
@@ -483,10 +484,29 @@ function jsonText(recipe: JsonRecipe, bases: ReadonlyArray<() => unknown>): stri
  * A connection of the test's own that watches the database file: SQLite bumps its `data_version`
  * whenever any other connection commits a change to any table (insert, update or delete), so a
  * refusal must leave it where it was. Costs the app's own queries nothing.
+ * On PostgreSQL, a row trigger on every table counts committed row changes in a table of the test's own (the
+ * count rolls back with a write that rolls back, as a refused request's must).
  */
 let watcher: sqlite3.Database;
+const ON_POSTGRES = sequelize.getDialect() === "postgres";
+
+const POSTGRES_WRITE_COUNTER = [
+  "CREATE TABLE test_write_count (n bigint NOT NULL)",
+  "INSERT INTO test_write_count VALUES (0)",
+  `CREATE FUNCTION test_count_write() RETURNS trigger LANGUAGE plpgsql AS $f$
+     BEGIN UPDATE test_write_count SET n = n + 1; RETURN NULL; END $f$`,
+  `DO $d$ DECLARE t text; BEGIN
+     FOR t IN SELECT tablename FROM pg_tables WHERE schemaname = 'public' AND tablename <> 'test_write_count' LOOP
+       EXECUTE format('CREATE TRIGGER test_count_write AFTER INSERT OR UPDATE OR DELETE ON %I
+                       FOR EACH ROW EXECUTE FUNCTION test_count_write()', t);
+     END LOOP; END $d$`,
+];
 
 async function openWatcher() {
+  if (ON_POSTGRES) {
+    for (const statement of POSTGRES_WRITE_COUNTER) await sequelize.query(statement);
+    return;
+  }
   watcher = await new Promise<sqlite3.Database>((resolve, reject) => {
     const db: sqlite3.Database = new sqlite3.Database(env.databasePath, sqlite3.OPEN_READONLY, (error) =>
       error ? reject(error) : resolve(db),
@@ -494,7 +514,11 @@ async function openWatcher() {
   });
 }
 
-function writeCount(): Promise<number> {
+async function writeCount(): Promise<number> {
+  if (ON_POSTGRES) {
+    const [row] = await sequelize.query<{ n: number }>("SELECT n FROM test_write_count", { type: QueryTypes.SELECT });
+    return Number(row!.n);
+  }
   return new Promise((resolve, reject) =>
     watcher.get<{ data_version: number }>("PRAGMA data_version", (error, row) =>
       error ? reject(error) : resolve(row.data_version),

@@ -64,7 +64,10 @@ async function waitForConnection(url: string, server: ChildProcess, log: () => s
 
 export async function startPostgres(): Promise<PostgresServer> {
   const bin = postgresBinaries();
-  if (!bin) throw new Error("PostgreSQL is not installed (Debian: apt-get install postgresql); tests/ensure-tools.sh installs it.");
+  if (!bin)
+    throw new Error(
+      "PostgreSQL is not installed (Debian: apt-get install postgresql); tests/ensure-tools.sh installs it.",
+    );
   const folder = fs.mkdtempSync(path.join(os.tmpdir(), "plumbline-pg-"));
   const data = path.join(folder, "data");
   fs.mkdirSync(data);
