@@ -8,6 +8,9 @@ const envSchema = z.object({
   NODE_ENV: z.string().optional(),
   PLUMBLINE_ENV: z.enum(["production", "demo", "development", "test"]).optional(),
   DATABASE_PATH: z.string().min(1).default("data/plumbline.sqlite"),
+  // The folder holding uploaded files' bytes (app/utils/file-store.server.ts). With several app servers it must be
+  // one shared volume (NFS, SMB) mounted at this same path on every server, or a file uploaded through one server
+  // is missing on the others.
   UPLOAD_DIR: z.string().min(1).default("data/uploads"),
   SESSION_SECRET: z.string().min(1).optional(),
   SMTP_URL: z.string().url().optional(),
