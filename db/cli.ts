@@ -14,7 +14,8 @@ export const DATABASE_COMMANDS = "migrate | setup | down | backup [target] | res
  * what the npm scripts run) and runnable from source in development (`npx tsx db/cli.ts <command>`):
  * `migrate` applies pending migrations; `setup` also seeds the demo scenario (refused in production); `down` reverts
  * the last migration; `backup [target]` copies the live database; `restore <file>` puts a backup in place (app
- * stopped); `reminders` mails each organisation's admins the gear needing attention (overdue, quarantined, never examined, due soon).
+ * stopped); `reminders` mails each organisation's admins the gear needing attention (overdue, quarantined, never examined, due soon),
+ * once per organisation and day however many servers run it.
  * Throws with a sentence on a bad command or a failure; closes the database when done.
  */
 export async function runDatabaseCommand(command: string | undefined, argument: string | undefined) {
@@ -76,9 +77,11 @@ async function run(command: string | undefined, argument: string | undefined) {
       const summaries = await sendExaminationReminders();
       if (!summaries.length) console.log("No gear needs attention: no reminders sent.");
       for (const s of summaries) {
-        const to = s.recipients.length
-          ? `sent to ${s.recipients.join(", ")}`
-          : "NOT sent: the organisation has no active admin";
+        const to = {
+          sent: `sent to ${s.recipients.join(", ")}`,
+          "already-sent": "already sent today (another run claimed the day)",
+          "no-admin": "NOT sent: the organisation has no active admin",
+        }[s.outcome];
         const counts = Object.entries(s.counts)
           .map(([group, n]) => `${n} ${group.replace("_", " ")}`)
           .join(", ");

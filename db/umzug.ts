@@ -25,6 +25,7 @@ import * as componentFitTolerance from "./migrations/0025-component-fit-toleranc
 import * as gearSearchIndex from "./migrations/0026-gear-search-index";
 import * as offlineSubmissions from "./migrations/0027-offline-submissions";
 import * as sealedPrintBodies from "./migrations/0028-sealed-print-bodies";
+import * as jobRuns from "./migrations/0029-job-runs";
 
 export type Migration = (params: { context: QueryInterface }) => Promise<void>;
 type MigrationModule = { up: Migration; down: Migration };
@@ -59,6 +60,7 @@ export const migrations: Array<[name: string, module: MigrationModule]> = [
   ["0026-gear-search-index", gearSearchIndex],
   ["0027-offline-submissions", offlineSubmissions],
   ["0028-sealed-print-bodies", sealedPrintBodies],
+  ["0029-job-runs", jobRuns],
 ];
 
 /** The umzug runner over `sequelize`, recording applied migrations in SequelizeMeta. */

@@ -1,10 +1,12 @@
 // The daily reminder to each organisation's admins: every item needing attention, in named groups
 // (overdue, quarantined awaiting examination, never examined, due within 30 days), with a link to the
-// register at the public address.
+// register at the public address. Each organisation's reminder goes out at most once on its day, however many
+// servers run the job (a job_runs claim per organisation and day).
 import { ATTENTION_GROUP_TITLES, ATTENTION_GROUPS, groupForAttention, type AttentionGroup } from "~/gear/attention";
 import { DUE_SOON_DAYS } from "~/gear/due";
 import { kindLabel } from "~/gear/kinds";
 import { escapeHtml } from "~/gear/mail.server";
+import { claimJobRun, releaseJobRun } from "~/models/job-run.server";
 import { getOrganisationTimeZone } from "~/models/organisation.server";
 import { listGearNeedingAttention, type GearItem } from "~/models/gear-item.server";
 import { listUsersWithRole } from "~/models/user.server";
@@ -18,10 +20,13 @@ export type ReminderLine = {
   site: string;
   nextDueOn: string;
 };
+/** sent: mailed now; already-sent: another run mailed this organisation on this day; no-admin: no one to mail. */
+export type ReminderOutcome = "sent" | "already-sent" | "no-admin";
 export type ReminderSummary = {
   organisationId: number;
   counts: Record<AttentionGroup, number>;
   recipients: string[];
+  outcome: ReminderOutcome;
 };
 
 function lineFor(item: GearItem): ReminderLine {
@@ -74,7 +79,8 @@ export function reminderMessage(groups: Record<AttentionGroup, ReminderLine[]>, 
 /**
  * E-mails each organisation's admins every item (not withdrawn) that needs attention on the
  * organisation's today (in its own time zone, or `today` when given). Organisations with nothing to
- * report, or no active admin, get no mail.
+ * report, or no active admin, get no mail. An organisation already mailed on its day, by this run or by another
+ * started at the same time on any server, is not mailed again; a mail that fails gives its day back for a later run.
  */
 export async function sendExaminationReminders(today?: string, now: Date = new Date()): Promise<ReminderSummary[]> {
   // The latest "today" anywhere on Earth is at most one day past UTC's: read that far, then cut per organisation.
@@ -93,21 +99,39 @@ export async function sendExaminationReminders(today?: string, now: Date = new D
       ReminderLine[]
     >;
     const admins = await listUsersWithRole(organisationId, "admin");
-    const message = reminderMessage(lines, orgToday);
-    if (admins.length) {
-      await sendMail({
-        organisationId,
-        to: admins.map((a) => a.email),
-        subject: message.subject,
-        text: message.text,
-        html: message.html,
-      });
-    }
+    const outcome = admins.length ? await mailOnce(organisationId, orgToday, admins, lines, now) : "no-admin";
     summaries.push({
       organisationId,
       counts: Object.fromEntries(ATTENTION_GROUPS.map((g) => [g, grouped[g].length])) as Record<AttentionGroup, number>,
       recipients: admins.map((a) => a.email),
+      outcome,
     });
   }
   return summaries;
+}
+
+/** Claims the organisation's day, then mails; without the claim (another run has it) sends nothing. */
+async function mailOnce(
+  organisationId: number,
+  orgToday: string,
+  admins: Array<{ email: string }>,
+  lines: Record<AttentionGroup, ReminderLine[]>,
+  now: Date,
+): Promise<ReminderOutcome> {
+  const claim = await claimJobRun("examination-reminders", organisationId, orgToday, now);
+  if (claim === null) return "already-sent";
+  const message = reminderMessage(lines, orgToday);
+  try {
+    await sendMail({
+      organisationId,
+      to: admins.map((a) => a.email),
+      subject: message.subject,
+      text: message.text,
+      html: message.html,
+    });
+  } catch (error) {
+    await releaseJobRun(claim);
+    throw error;
+  }
+  return "sent";
 }

@@ -14,6 +14,9 @@ const envSchema = z.object({
     .regex(/^postgres(ql)?:\/\/\S+$/, "must be a postgres:// URL (leave it unset for the SQLite file at DATABASE_PATH)")
     .optional()
     .or(z.literal("").transform(() => undefined)),
+  // The folder holding uploaded files' bytes (app/utils/file-store.server.ts). With several app servers it must be
+  // one shared volume (NFS, SMB) mounted at this same path on every server, or a file uploaded through one server
+  // is missing on the others.
   UPLOAD_DIR: z.string().min(1).default("data/uploads"),
   SESSION_SECRET: z.string().min(1).optional(),
   SMTP_URL: z.string().url().optional(),

@@ -1,6 +1,3 @@
-import { randomBytes } from "node:crypto";
-import fs from "node:fs/promises";
-import path from "node:path";
 import {
   FormDataParseError,
   MaxFilesExceededError,
@@ -11,7 +8,7 @@ import {
 } from "@remix-run/form-data-parser";
 import type { Transaction } from "sequelize";
 import { sequelize } from "~/utils/db.server";
-import { env } from "~/utils/env.server";
+import { fileStore, newStorageKey } from "~/utils/file-store.server";
 import {
   FILE_KIND_CONTENT_TYPES,
   fileKindProblem,
@@ -108,31 +105,24 @@ export async function checkUpload(
   };
 }
 
-const STORAGE_KEY = /^[a-f0-9]{32}$/;
-
-function storagePath(storageKey: string) {
-  if (!STORAGE_KEY.test(storageKey)) throw new Error("Not a storage key.");
-  return path.join(path.resolve(env.uploadDir), storageKey);
-}
-
 export type StoreMeta = { organisationId: number; purpose: FilePurpose; uploadedBy: number | null };
 export type StoreFile = (upload: CheckedUpload, meta: StoreMeta) => Promise<StoredFile>;
 
 /**
- * Runs `work` in one transaction with a `store` function that writes checked uploads under
- * UPLOAD_DIR (random names) and records them in stored_files; if the transaction rolls back,
- * the bytes it wrote are deleted again, so no half-written upload stays behind.
+ * Runs `work` in one transaction with a `store` function that puts checked uploads in the file store (random
+ * keys) and records them in stored_files; if the transaction rolls back, the bytes it stored are removed again,
+ * so no half-written upload stays behind.
  */
 export async function transactionWithFiles<T>(
   work: (transaction: Transaction, store: StoreFile) => Promise<T>,
 ): Promise<T> {
+  const files = fileStore();
   const written: string[] = [];
   try {
     return await sequelize.transaction(async (transaction) => {
       const store: StoreFile = async (upload, meta) => {
-        const storageKey = randomBytes(16).toString("hex");
-        await fs.mkdir(path.resolve(env.uploadDir), { recursive: true });
-        await fs.writeFile(storagePath(storageKey), upload.bytes, { flag: "wx", mode: 0o640 });
+        const storageKey = newStorageKey();
+        await files.put(storageKey, upload.bytes);
         written.push(storageKey);
         return createStoredFileRecord(
           {
@@ -150,16 +140,18 @@ export async function transactionWithFiles<T>(
       return work(transaction, store);
     });
   } catch (error) {
-    await Promise.all(written.map((key) => fs.rm(storagePath(key), { force: true })));
+    await Promise.all(written.map((key) => files.remove(key).catch(() => undefined)));
     throw error;
   }
 }
 
-/** The stored bytes of a file record, or null when they are missing from UPLOAD_DIR. */
+/** The stored bytes of a file record, or null when the file store has none under its key. */
 export async function readStoredBytes(file: Pick<StoredFile, "storageKey">): Promise<Buffer | null> {
   try {
-    return await fs.readFile(storagePath(file.storageKey));
-  } catch {
+    return await fileStore().get(file.storageKey);
+  } catch (error) {
+    // Not a missing file (that is null already): a bad key or the store failing to read; the caller says "missing".
+    console.error("Reading a stored file failed:", error);
     return null;
   }
 }

@@ -56,7 +56,8 @@ async function waitForConnection(url: string, server: ChildProcess, log: () => s
       return;
     } catch (error) {
       await client.end().catch(() => undefined);
-      if (Date.now() > deadline) throw new Error(`PostgreSQL did not accept connections in 30 s: ${String(error)}`);
+      if (Date.now() > deadline)
+        throw new Error(`PostgreSQL did not accept connections in 30 s: ${String(error)}`, { cause: error });
       await new Promise((r) => setTimeout(r, 100));
     }
   }
