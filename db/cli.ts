@@ -26,13 +26,29 @@ export async function runDatabaseCommand(command: string | undefined, argument: 
   }
 }
 
+/** The database the commands work on, for messages: the SQLite file, or the PostgreSQL URL without its password. */
+function whereTheDataIs() {
+  if (!env.databaseUrl) return env.databasePath;
+  const url = new URL(env.databaseUrl);
+  if (url.password) url.password = "***";
+  return url.toString();
+}
+
+/** The SQLite file's own backup and restore; a PostgreSQL database is backed up by its server's tools. */
+function refuseOnPostgres(command: string) {
+  if (env.databaseUrl)
+    throw new Error(
+      `${command} copies the SQLite file; with DATABASE_URL set, back up with pg_dump and restore with pg_restore (see the README).`,
+    );
+}
+
 async function run(command: string | undefined, argument: string | undefined) {
   const migrator = createMigrator(sequelize);
   switch (command) {
     case "migrate": {
       const applied = await migrator.up();
       console.log(
-        `Migrations applied: ${applied.length ? applied.map((m) => m.name).join(", ") : "none pending"} (${env.databasePath})`,
+        `Migrations applied: ${applied.length ? applied.map((m) => m.name).join(", ") : "none pending"} (${whereTheDataIs()})`,
       );
       return;
     }
@@ -41,7 +57,7 @@ async function run(command: string | undefined, argument: string | undefined) {
       const applied = await migrator.up();
       const seeded = await createDemoSeeder(sequelize).up();
       console.log(
-        `Database ready at ${env.databasePath}: ${applied.length} migration(s) applied, ${seeded.length} demo seeder(s) run.`,
+        `Database ready at ${whereTheDataIs()}: ${applied.length} migration(s) applied, ${seeded.length} demo seeder(s) run.`,
       );
       return;
     }
@@ -51,6 +67,7 @@ async function run(command: string | undefined, argument: string | undefined) {
       return;
     }
     case "backup": {
+      refuseOnPostgres("backup");
       const done = await backupDatabase(env.databasePath, argument ?? defaultBackupPath(env.databasePath));
       console.log(
         `Backed up ${env.databasePath} to ${done.file} (${(done.bytes / 1024 / 1024).toFixed(1)} MB, ${done.migrations} migrations, integrity ok)`,
@@ -58,6 +75,7 @@ async function run(command: string | undefined, argument: string | undefined) {
       return;
     }
     case "restore": {
+      refuseOnPostgres("restore");
       if (!argument) throw new Error("Usage: npm run db:restore <backup file> (stop the app first)");
       const done = await restoreDatabase(argument, env.databasePath);
       console.log(
