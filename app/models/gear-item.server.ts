@@ -143,8 +143,6 @@ export type GearSearch = {
   due?: DueState;
   sort: GearSortKey;
   dir: "asc" | "desc";
-  page: number;
-  pageSize: number;
 };
 
 export type GearRow = {
@@ -188,7 +186,7 @@ function contains(column: string, q: string) {
  * are looked up in the trigram index (migration 0026) as one phrase, bound as `$phrase`; shorter text, which no
  * trigram holds, is looked for in the columns themselves.
  */
-function searchWhere(q: string): { where: WhereOptions; bind?: { phrase: string } } {
+export function searchWhere(q: string): { where: WhereOptions; bind?: { phrase: string } } {
   if (sqlDialectOf(sequelize) === "postgres") {
     // PostgreSQL: ILIKE on each column, served by its trigram index (migration 0026) from three characters on.
     const pattern = `%${q.replace(/[%_\\]/g, (c) => `\\${c}`)}%`;
@@ -202,7 +200,7 @@ function searchWhere(q: string): { where: WhereOptions; bind?: { phrase: string 
 }
 const FTS_MATCH = '"GearItem"."id" IN (SELECT rowid FROM gear_items_search WHERE gear_items_search MATCH $phrase)';
 
-function dueWhere(due: DueState, today: string): WhereOptions {
+export function dueWhere(due: DueState, today: string): WhereOptions {
   const soon = addDays(today, DUE_SOON_DAYS);
   switch (due) {
     case "overdue":
@@ -221,7 +219,7 @@ export function toFormValues(item: GearItem): GearItemInput & { id: number } {
   return { id: item.id, ...(Object.fromEntries(COMPARED_FIELDS.map((f) => [f, item[f]])) as GearItemInput) };
 }
 
-const ROW_ATTRIBUTES = [
+export const ROW_ATTRIBUTES = [
   "id",
   "itemCode",
   "kind",
@@ -235,7 +233,7 @@ const ROW_ATTRIBUTES = [
   "nextDueOn",
 ] as const satisfies ReadonlyArray<keyof GearItem>;
 
-function toRow(item: GearItem, today: string): GearRow {
+export function toRow(item: GearItem, today: string): GearRow {
   return {
     id: item.id,
     itemCode: item.itemCode,
@@ -262,49 +260,6 @@ function toRow(item: GearItem, today: string): GearRow {
     nextDueOn: item.nextDueOn,
     dueState: dueState(item.nextDueOn, today),
   };
-}
-
-/** One page of the organisation's register, filtered and sorted in the database. */
-export async function searchGearItems(
-  organisationId: number,
-  search: GearSearch,
-  today: string,
-): Promise<{ rows: GearRow[]; total: number }> {
-  const and: WhereOptions[] = [{ organisationId }];
-  if (search.kind) and.push({ kind: search.kind });
-  if (search.status) and.push({ status: search.status });
-  if (search.site === "none") and.push({ homeSiteId: null });
-  else if (search.site) and.push({ homeSiteId: search.site });
-  if (search.due) and.push(dueWhere(search.due, today));
-  const q = search.q?.trim();
-  const text = q ? searchWhere(q) : null;
-  if (text) and.push(text.where);
-  const bind = text?.bind;
-  // Empty cells sort first going up and last going down, on SQLite (its own rule) and PostgreSQL alike.
-  const dir = search.dir === "desc" ? "DESC NULLS LAST" : "ASC NULLS FIRST";
-  const order: Array<[string, string] | [{ model: typeof Site; as: string }, string, string]> =
-    search.sort === "site" ? [[{ model: Site, as: "homeSite" }, "name", dir]] : [[search.sort, dir]];
-  if (search.sort !== "itemCode") order.push(["itemCode", "ASC"]);
-  const where = { [Op.and]: and };
-  // Count hands `bind` on to its query, though its options type leaves it out.
-  const counting = { where, bind };
-  // Counted without the site join (no filter needs it), which findAndCountAll would keep.
-  const [rows, count] = await Promise.all([
-    // Plain rows of the columns a row shows: building model instances cost more than the query.
-    GearItem.findAll({
-      where,
-      attributes: [...ROW_ATTRIBUTES],
-      include: [{ model: Site, as: "homeSite", required: false, attributes: ["name"] }],
-      order: order as never,
-      limit: search.pageSize,
-      offset: (search.page - 1) * search.pageSize,
-      raw: true,
-      nest: true,
-      bind,
-    }),
-    GearItem.count(counting),
-  ]);
-  return { rows: rows.map((r) => toRow(r, today)), total: count };
 }
 
 /** How many items not withdrawn are overdue, and due within DUE_SOON_DAYS, on `today`. */

@@ -14,18 +14,13 @@ import { safeText, searchText } from "~/utils/forms";
 import { DUE_SOON_DAYS, DUE_STATE_LABELS, DUE_STATES } from "~/gear/due";
 import { getOrganisationToday } from "~/models/organisation.server";
 import { GEAR_KIND_INFO, GEAR_KINDS, GEAR_STATUS_LABELS, GEAR_STATUSES, kindLabel, sizeSummary } from "~/gear/kinds";
-import {
-  countGearDue,
-  GEAR_SORT_KEYS,
-  searchGearItems,
-  type GearRow,
-  type GearSortKey,
-} from "~/models/gear-item.server";
+import { gearPageKeys, searchGearItems } from "~/models/gear-item-reads.server";
+import { countGearDue, GEAR_SORT_KEYS, type GearRow, type GearSortKey } from "~/models/gear-item.server";
 import { listSites } from "~/models/site.server";
 import { hasAnyRole } from "~/utils/roles";
+import { Pager } from "~/components/ui/pager";
+import { pageLinks, readPageRequest } from "~/utils/keyset.server";
 import { requireUser } from "~/utils/session.server";
-
-const PAGE_SIZE = 50;
 
 // Unknown or malformed parameters fall back to "no filter" rather than failing the page.
 const searchSchema = z.object({
@@ -39,7 +34,6 @@ const searchSchema = z.object({
   due: z.enum(DUE_STATES).optional().catch(undefined),
   sort: z.enum(GEAR_SORT_KEYS).catch("itemCode"),
   dir: z.enum(["asc", "desc"]).catch("asc"),
-  page: z.coerce.number().int().min(1).max(100_000).catch(1),
 });
 
 export const meta: Route.MetaFunction = () => [{ title: "Gear register · Plumbline" }];
@@ -50,21 +44,22 @@ export async function loader({ request }: Route.LoaderArgs) {
   const raw = Object.fromEntries([...url.searchParams].filter(([, v]) => v !== ""));
   const search = searchSchema.parse(raw);
   const today = await getOrganisationToday(user.organisationId);
-  const query = { ...search, q: search.q || undefined, pageSize: PAGE_SIZE };
-  const [{ rows, total }, sites, due] = await Promise.all([
-    searchGearItems(user.organisationId, query, today),
+  const query = { ...search, q: search.q || undefined };
+  const pageRequest = readPageRequest(url, gearPageKeys(search.sort));
+  const [page, sites, due] = await Promise.all([
+    searchGearItems(user.organisationId, query, today, pageRequest),
     listSites(user.organisationId),
     countGearDue(user.organisationId, today),
   ]);
-  const pageCount = Math.max(1, Math.ceil(total / PAGE_SIZE));
-  if (search.page > pageCount) {
-    url.searchParams.set("page", String(pageCount));
+  // A page link whose items have since gone (or a cursor of another sort) starts the list again.
+  if (page.rows.length === 0 && pageRequest.cursor) {
+    url.searchParams.delete("after");
+    url.searchParams.delete("before");
     throw redirect(url.pathname + url.search);
   }
   return {
-    rows,
-    total,
-    pageCount,
+    rows: page.rows,
+    pages: pageLinks(url, page),
     search,
     today,
     due,
@@ -82,7 +77,6 @@ function searchHref(search: Search, change: Partial<Record<keyof Search, string 
     if (
       value === undefined ||
       value === "" ||
-      (key === "page" && value === 1) ||
       (key === "sort" && value === "itemCode") ||
       (key === "dir" && value === "asc")
     )
@@ -157,7 +151,7 @@ const columns = [
 type ColumnMeta = { sortKey?: GearSortKey; className?: string };
 
 export default function GearRegister({ loaderData }: Route.ComponentProps) {
-  const { rows, total, pageCount, search, sites, canEdit, due } = loaderData;
+  const { rows, pages, search, sites, canEdit, due } = loaderData;
   const sorting: SortingState = [
     { id: search.sort === "site" ? "siteName" : search.sort, desc: search.dir === "desc" },
   ];
@@ -170,12 +164,9 @@ export default function GearRegister({ loaderData }: Route.ComponentProps) {
     manualSorting: true,
     manualPagination: true,
     manualFiltering: true,
-    pageCount,
-    state: { sorting, pagination: { pageIndex: search.page - 1, pageSize: PAGE_SIZE } },
+    state: { sorting },
   });
   const filtered = !!(search.q || search.kind || search.status || search.site || search.due);
-  const first = total === 0 ? 0 : (search.page - 1) * PAGE_SIZE + 1;
-  const last = Math.min(total, search.page * PAGE_SIZE);
   return (
     <>
       <PageHeader
@@ -210,7 +201,7 @@ export default function GearRegister({ loaderData }: Route.ComponentProps) {
         <p className="mb-4 flex flex-wrap gap-2 text-sm" aria-label="Examinations falling due">
           {due.overdue > 0 && (
             <Link
-              to={searchHref(search, { due: "overdue", page: 1 })}
+              to={searchHref(search, { due: "overdue" })}
               className="rounded border border-fail/50 bg-fail-soft px-2 py-1 font-bold text-fail no-underline"
             >
               ! {due.overdue} OVERDUE
@@ -218,7 +209,7 @@ export default function GearRegister({ loaderData }: Route.ComponentProps) {
           )}
           {due.dueSoon > 0 && (
             <Link
-              to={searchHref(search, { due: "due_soon", page: 1 })}
+              to={searchHref(search, { due: "due_soon" })}
               className="rounded border border-warn/50 bg-warn-soft px-2 py-1 font-semibold text-warn no-underline"
             >
               ◷ {due.dueSoon} due within {DUE_SOON_DAYS} days
@@ -280,7 +271,7 @@ export default function GearRegister({ loaderData }: Route.ComponentProps) {
         </div>
       </Form>
 
-      {total === 0 ? (
+      {rows.length === 0 ? (
         <EmptyState title={filtered ? "No items match" : "The register is empty"}>
           {filtered
             ? "Change or clear the filters."
@@ -291,8 +282,8 @@ export default function GearRegister({ loaderData }: Route.ComponentProps) {
       ) : (
         <>
           <p className="mb-2 text-sm text-ink-soft" aria-live="polite">
-            Showing {first.toLocaleString("en-GB")}–{last.toLocaleString("en-GB")} of {total.toLocaleString("en-GB")}{" "}
-            items
+            Showing {rows.length.toLocaleString("en-GB")} {rows.length === 1 ? "item" : "items"}
+            {pages.previous || pages.next ? " on this page" : ""}
           </p>
           <div className="overflow-x-auto rounded border border-rule bg-card">
             <table>
@@ -315,7 +306,6 @@ export default function GearRegister({ loaderData }: Route.ComponentProps) {
                               to={searchHref(search, {
                                 sort: meta.sortKey,
                                 dir: sorted === "asc" ? "desc" : "asc",
-                                page: 1,
                               })}
                               className="whitespace-nowrap text-ink-soft"
                             >
@@ -344,23 +334,7 @@ export default function GearRegister({ loaderData }: Route.ComponentProps) {
               </tbody>
             </table>
           </div>
-          {pageCount > 1 && (
-            <nav aria-label="Pages of the register" className="mt-3 flex flex-wrap items-center gap-3 text-sm">
-              {table.getCanPreviousPage() ? (
-                <Link to={searchHref(search, { page: search.page - 1 })}>← Previous</Link>
-              ) : (
-                <span className="text-ink-soft">← Previous</span>
-              )}
-              <span>
-                Page {search.page} of {pageCount}
-              </span>
-              {table.getCanNextPage() ? (
-                <Link to={searchHref(search, { page: search.page + 1 })}>Next →</Link>
-              ) : (
-                <span className="text-ink-soft">Next →</span>
-              )}
-            </nav>
-          )}
+          <Pager label="Pages of the register" {...pages} />
         </>
       )}
     </>

@@ -35,14 +35,18 @@ export function isTimeZone(timeZone: string): boolean {
   }
 }
 
+/** One day formatter per time zone: making one costs about 0.4 ms, using it a fiftieth of that. */
+const dayFormats = new Map<string, Intl.DateTimeFormat>();
+
 /** The calendar day (YYYY-MM-DD) it is at `now` in `timeZone`. */
 export function todayIn(timeZone: string, now: Date = new Date()): string {
-  const parts = new Intl.DateTimeFormat("en-GB", {
-    timeZone,
-    year: "numeric",
-    month: "2-digit",
-    day: "2-digit",
-  }).formatToParts(now);
+  let format = dayFormats.get(timeZone);
+  if (!format) {
+    format = new Intl.DateTimeFormat("en-GB", { timeZone, year: "numeric", month: "2-digit", day: "2-digit" });
+    // Only zones that formed a formatter are kept (an unknown zone throws above), so the map stays small.
+    dayFormats.set(timeZone, format);
+  }
+  const parts = format.formatToParts(now);
   const part = (type: string) => parts.find((p) => p.type === type)?.value ?? "";
   return `${part("year")}-${part("month")}-${part("day")}`;
 }
@@ -81,21 +85,28 @@ export function formatDate(value: string | Date | null | undefined): string {
   return isIsoDate(day) ? day : value;
 }
 
+const dateTimeFormats = new Map<string, Intl.DateTimeFormat>();
+
 /** An instant as a local date and time in `timeZone`, with the zone named: "2026-12-03 14:05 GMT". */
 export function formatDateTime(instant: Date | string | null | undefined, timeZone: string): string {
   if (instant === null || instant === undefined || instant === "") return "";
   const date = instant instanceof Date ? instant : new Date(instant);
   if (Number.isNaN(date.getTime())) return String(instant);
-  const parts = new Intl.DateTimeFormat("en-GB", {
-    timeZone,
-    year: "numeric",
-    month: "2-digit",
-    day: "2-digit",
-    hour: "2-digit",
-    minute: "2-digit",
-    hourCycle: "h23",
-    timeZoneName: "short",
-  }).formatToParts(date);
+  let format = dateTimeFormats.get(timeZone);
+  if (!format) {
+    format = new Intl.DateTimeFormat("en-GB", {
+      timeZone,
+      year: "numeric",
+      month: "2-digit",
+      day: "2-digit",
+      hour: "2-digit",
+      minute: "2-digit",
+      hourCycle: "h23",
+      timeZoneName: "short",
+    });
+    dateTimeFormats.set(timeZone, format);
+  }
+  const parts = format.formatToParts(date);
   const part = (type: string) => parts.find((p) => p.type === type)?.value ?? "";
   return `${part("year")}-${part("month")}-${part("day")} ${part("hour")}:${part("minute")} ${part("timeZoneName")}`;
 }

@@ -17,7 +17,9 @@ export const LOAD_CONNECTIONS = 50;
 export const P95_TARGET_MS = 100;
 export const PLAN_PAGE_RATIO_TARGET = 0.5;
 export const EDITOR_JS_TARGET_KB = 200;
-const GEAR_PAGES = Math.floor(LOAD_GEAR_ITEMS / 50);
+/** The register's page cursor after the load seed's item `n` (load-seed.ts names them LD-00001...). */
+const gearCursor = (n: number) =>
+  Buffer.from(JSON.stringify([`LD-${String(n).padStart(5, "0")}`])).toString("base64url");
 
 // autocannon ships no type declarations: the part of its API used here.
 type AutocannonRequest = {
@@ -249,10 +251,11 @@ export async function runLoadBench(): Promise<BenchResult[]> {
         body: SOLVE_BODY,
       },
       {
-        name: "GET /gear?page=N",
+        name: "GET /gear?after=N",
         method: "GET",
         path: "/gear",
-        setupRequest: (r) => ({ ...r, path: `/gear?page=${randomInt(1, GEAR_PAGES)}` }),
+        // A page from anywhere in the register: the one after a random item (its id is the page's cursor).
+        setupRequest: (r) => ({ ...r, path: `/gear?after=${gearCursor(randomInt(1, LOAD_GEAR_ITEMS))}` }),
       },
     ];
     // Warm the JIT and SQLite's page cache before anything is counted.

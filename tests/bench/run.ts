@@ -80,6 +80,7 @@ function print(results: BenchResult[]) {
 // Quick by default: the printed plan and every role's pages on a mid-sized organisation (under a minute after the
 // build). `npm run bench -- --full`: the statics core, the 10,000-plan / 50,000-item organisation and the long load.
 const full = process.argv.includes("--full");
+const benchStarted = performance.now();
 const results = full
   ? [
       ...(await runStaticsBench()),
@@ -90,3 +91,6 @@ const results = full
     ]
   : [...(await runPdfBench()), ...(await runPagesBench("quick"))];
 print(results);
+console.log(
+  `bench (${full ? "full" : "quick"}) took ${((performance.now() - benchStarted) / 1000).toFixed(0)} s after the build`,
+);

@@ -8,7 +8,7 @@ import { startSignInAttempt } from "~/models/sign-in-attempt.server";
 import { findSession } from "~/models/session.server";
 import { sessionLifetimes } from "~/utils/session.server";
 import { listComponentsPage } from "~/models/component.server";
-import { searchGearItems } from "~/models/gear-item.server";
+import { searchGearItems } from "~/models/gear-item-reads.server";
 import { listUsersPage } from "~/models/user.server";
 import { adminWithSite, makeGearItem } from "../support/gear";
 
@@ -74,14 +74,30 @@ describe("SQL in the source", () => {
   it("a search text or a cursor value reaching the list queries is only a value, never SQL or a bound name", async () => {
     const { admin } = await adminWithSite();
     const item = await makeGearItem(admin, { description: "Bow shackle for the pump lift" });
-    const search = (q: string) =>
-      searchGearItems(admin.organisationId, { q, sort: "itemCode", dir: "asc", page: 1, pageSize: 5 }, "2026-01-01");
-    expect((await search(item.itemCode)).total).toBe(1);
+    const search = async (q: string) =>
+      (
+        await searchGearItems(admin.organisationId, { q, sort: "itemCode", dir: "asc" }, "2026-01-01", {
+          cursor: null,
+          towards: "next",
+          limit: 5,
+        })
+      ).rows;
+    expect((await search(item.itemCode)).length).toBe(1);
     const users = (await listUsersPage(admin.organisationId, { cursor: null, towards: "next", limit: 5 })).rows;
     expect(users.length).toBe(2);
     for (const text of ["x'\u0000", "') OR 1=1 --", "$limit", '"$phrase" OR 1', "pump' OR '1'='1"]) {
       // The register's search text passes the text rule first (no NUL reaches the full-text phrase parser).
-      if (!text.includes("\u0000")) expect((await search(text)).total, JSON.stringify(text)).toBe(0);
+      if (!text.includes("\u0000")) expect((await search(text)).length, JSON.stringify(text)).toBe(0);
+      // A register cursor holding the text: the items after it by item id, nothing else.
+      const afterText = await searchGearItems(admin.organisationId, { sort: "itemCode", dir: "asc" }, "2026-01-01", {
+        cursor: [text],
+        towards: "next",
+        limit: 5,
+      });
+      expect(
+        afterText.rows.map((r) => r.itemCode),
+        JSON.stringify(text),
+      ).toEqual(item.itemCode > text ? [item.itemCode] : []);
       const components = await listComponentsPage(
         admin.organisationId,
         { cursor: null, towards: "next", limit: 5 },

@@ -16,11 +16,19 @@ export function sealedBodyKey(plan: PrintablePlan): string {
   return createHash("sha256").update(JSON.stringify(parts)).digest("hex");
 }
 
-/** The PDF of one print of a sealed revision, from its kept body when there is one (and keeping a new one). */
+/**
+ * The PDF of one print of a sealed revision. With a kept body only the stamp runs, here on the request's
+ * thread (a few milliseconds: no hop to the builder thread, which a process may not have started yet);
+ * without one the body is built on the builder thread and kept.
+ */
 export async function printSealedPlan(plan: PrintablePlan, revisionId: number): Promise<Uint8Array> {
   const key = sealedBodyKey(plan);
   const kept = await getSealedPrintBody(key);
-  const { bytes, body } = await printPlanPdfOffThread(plan, kept);
+  if (kept) {
+    const { stampPrint } = await import("~/plans/pdf/build.server");
+    return stampPrint(kept, plan);
+  }
+  const { bytes, body } = await printPlanPdfOffThread(plan, null);
   if (body) await keepSealedPrintBody(revisionId, pdfBuilderVersion(), key, body);
   return bytes;
 }

@@ -41,6 +41,14 @@ async function embedStampFont(pdf: PDFDocument, file: Uint8Array, postscriptName
     }
     return context.register(context.stream(kept.deflated, { Filter: "FlateDecode" }));
   };
+  // Every page carries the same band and printed line: each text is shaped once per print, not once per page.
+  const encodeFresh = font.encodeText.bind(font);
+  const encoded = new Map<string, ReturnType<PDFFont["encodeText"]>>();
+  font.encodeText = (text: string) => {
+    let hex = encoded.get(text);
+    if (!hex) encoded.set(text, (hex = encodeFresh(text)));
+    return hex;
+  };
   return font;
 }
 
