@@ -188,16 +188,18 @@ function contains(column: string, q: string) {
  */
 export function searchWhere(q: string): { where: WhereOptions; bind?: { phrase: string } } {
   if (sqlDialectOf(sequelize) === "postgres") {
-    // PostgreSQL: ILIKE on each column, served by its trigram index (migration 0026) from three characters on.
-    const pattern = `%${q.replace(/[%_\\]/g, (c) => `\\${c}`)}%`;
-    const attributes = ["itemCode", "description", "manufacturer", "serial"];
-    return { where: { [Op.or]: attributes.map((a) => ({ [a]: { [Op.iLike]: pattern } })) } };
+    // PostgreSQL: ILIKE on each column, served by its trigram index (migration 0026) from three characters on. The
+    // pattern is bound, like every value reaching a statement that carries bound values.
+    const phrase = `%${q.replace(/[%_\\]/g, (c) => `\\${c}`)}%`;
+    return { where: sequelize.literal(ILIKE_ANY_COLUMN) as unknown as WhereOptions, bind: { phrase } };
   }
   const phrase = `"${q.replaceAll('"', '""')}"`;
   if ([...q].length >= 3) return { where: sequelize.literal(FTS_MATCH) as unknown as WhereOptions, bind: { phrase } };
   const columns = ["GearItem.item_code", "GearItem.description", "GearItem.manufacturer", "GearItem.serial"];
   return { where: { [Op.or]: columns.map((c) => contains(c, q)) } };
 }
+const ILIKE_ANY_COLUMN = `("GearItem"."item_code" ILIKE $phrase OR "GearItem"."description" ILIKE $phrase
+  OR "GearItem"."manufacturer" ILIKE $phrase OR "GearItem"."serial" ILIKE $phrase)`;
 const FTS_MATCH = '"GearItem"."id" IN (SELECT rowid FROM gear_items_search WHERE gear_items_search MATCH $phrase)';
 
 export function dueWhere(due: DueState, today: string): WhereOptions {
