@@ -407,11 +407,37 @@ async function copyInto(source: Sequelize, sourceTables: string[], target: Seque
     await sourceSnapshot.commit();
   }
 
-  const tables: TableCheck[] = [];
-  for (const table of order) {
-    const shape = shapes.get(table)!;
-    const [s, t] = [await checksumOf(source, shape.source), await checksumOf(target, shape.target)];
-    tables.push({
+  const tables = await compareDatabases(source, target, order);
+  return {
+    from: describe(from),
+    to: describe(to),
+    tables,
+    differing: tables.filter((t) => !t.same).map((t) => t.table),
+  };
+}
+
+/**
+ * Row count and checksum of each of `tables` (by default every table the copy carries) in `source` and in `target`,
+ * each side read and normalised on its own: what the copy reports, and a check of any two Plumbline databases.
+ */
+export async function compareDatabases(source: Sequelize, target: Sequelize, tables?: string[]): Promise<TableCheck[]> {
+  const meta = bookkeepingTable(source, "SequelizeMeta").table;
+  const names = tables ?? (await tablesOf(source)).filter((t) => !isIndexTable(t) && t !== meta);
+  const targetTables = new Set(await tablesOf(target));
+  const checks: TableCheck[] = [];
+  for (const table of names) {
+    const sourceShape = await shapeOf(source, table);
+    const s = await checksumOf(source, sourceShape);
+    let t = { rows: 0, checksum: "(no such table)" };
+    if (targetTables.has(table)) {
+      const targetShape = await shapeOf(target, table);
+      // Compared over the source's columns, each read as its own side declares it.
+      const columns = sourceShape.columns.map(
+        (c) => targetShape.columns.find((tc) => tc.name === c.name) ?? { name: c.name, kind: c.kind },
+      );
+      t = await checksumOf(target, { ...targetShape, columns });
+    }
+    checks.push({
       table,
       sourceRows: s.rows,
       targetRows: t.rows,
@@ -420,12 +446,7 @@ async function copyInto(source: Sequelize, sourceTables: string[], target: Seque
       same: s.rows === t.rows && s.checksum === t.checksum,
     });
   }
-  return {
-    from: describe(from),
-    to: describe(to),
-    tables,
-    differing: tables.filter((t) => !t.same).map((t) => t.table),
-  };
+  return checks;
 }
 
 /** The copy's report: a line per table (rows and checksum on each side), then the verdict. */
