@@ -82,7 +82,7 @@ async function run(command: string | undefined, argument: string | undefined, se
     case "copy": {
       if (!argument || !secondArgument)
         throw new Error("Usage: npm run db:copy -- <from> <to> (each an SQLite file path or a postgres:// URL)");
-      const result = await copyDatabase(argument, secondArgument);
+      const result = await copyDatabase(argument, secondArgument, { progress: (line) => console.log(line) });
       for (const line of copyReport(result)) console.log(line);
       if (result.differing.length)
         throw new Error(`The copy differs from the source in ${result.differing.join(", ")}.`);

@@ -6,6 +6,7 @@ import { SequelizeStorage } from "umzug";
 import { isPostgresUrl, openDatabase } from "~/utils/db.server";
 import { sqlDialectOf } from "~/utils/sql-dialect.server";
 import { createMigrator, migrations } from "./umzug";
+import { columnKind, convertFor, normalised, type Column } from "./copy-values";
 
 /** Rows read from the source per query, and the most bound values one INSERT carries (both engines allow more). */
 const BATCH_ROWS = 1000;
@@ -17,9 +18,6 @@ const MAX_BOUND_VALUES = 20_000;
  */
 export const FILLED_BY_MIGRATIONS = ["reference_rows"];
 
-/** How a column's values are compared and converted between the engines. */
-type ColumnKind = "boolean" | "time" | "number" | "binary" | "text";
-type Column = { name: string; kind: ColumnKind };
 type TableShape = { name: string; columns: Column[]; key: string[] };
 
 export type TableCheck = {
@@ -32,6 +30,13 @@ export type TableCheck = {
 };
 
 export type CopyResult = { from: string; to: string; tables: TableCheck[]; differing: string[] };
+
+export type CopyOptions = {
+  /** Rows read per query (default 1000). */
+  batchRows?: number;
+  /** Told of each step as it is done (the command prints them). */
+  progress?: (line: string) => void;
+};
 
 /** A copy refused before anything was written: the message says why and what to do. */
 export class CopyRefused extends Error {}
@@ -78,15 +83,6 @@ async function countRows(db: Sequelize, table: string, transaction?: Transaction
   return Number(row?.n ?? 0);
 }
 
-export function columnKind(declared: string): ColumnKind {
-  const type = declared.toUpperCase();
-  if (type === "BOOLEAN" || type === "TINYINT(1)") return "boolean";
-  if (type.startsWith("TIMESTAMP") || type.startsWith("DATETIME")) return "time";
-  if (/^(INTEGER|INT|BIGINT|SMALLINT|DOUBLE|REAL|FLOAT|NUMERIC|DECIMAL)/.test(type)) return "number";
-  if (type === "BLOB" || type === "BYTEA") return "binary";
-  return "text";
-}
-
 async function shapeOf(db: Sequelize, table: string): Promise<TableShape> {
   const described = await db.getQueryInterface().describeTable(table);
   const columns = Object.entries(described).map(([name, c]) => ({ name, kind: columnKind(c.type) }));
@@ -128,8 +124,8 @@ async function parentsFirst(db: Sequelize, tables: string[]): Promise<string[]> 
   return ordered;
 }
 
-/** Reads `shape`'s rows from `db` in primary-key order, BATCH_ROWS at a time (keyset paging: memory stays flat). */
-async function* batchesOf(db: Sequelize, shape: TableShape, transaction?: Transaction) {
+/** Reads `shape`'s rows from `db` in primary-key order, `limit` at a time (keyset paging: memory stays flat). */
+async function* batchesOf(db: Sequelize, shape: TableShape, limit: number, transaction?: Transaction) {
   const postgres = sqlDialectOf(db) === "postgres";
   const kinds = new Map(shape.columns.map((c) => [c.name, c.kind]));
   // Text keys in byte order on both engines, so both sides list the rows alike.
@@ -145,78 +141,22 @@ async function* batchesOf(db: Sequelize, shape: TableShape, transaction?: Transa
         ? `WHERE ${keyExpr[0]} > ${marks[0]}`
         : `WHERE (${keyExpr.join(", ")}) > (${marks.join(", ")})`;
     const rows = await db.query<Record<string, unknown>>(
-      `SELECT ${columns} FROM ${quote(shape.name)} ${after} ORDER BY ${order} LIMIT ${BATCH_ROWS}`,
+      `SELECT ${columns} FROM ${quote(shape.name)} ${after} ORDER BY ${order} LIMIT ${limit}`,
       { type: QueryTypes.SELECT, raw: true, bind: last ?? [], transaction },
     );
     if (!rows.length) return;
     yield rows;
-    if (rows.length < BATCH_ROWS) return;
+    if (rows.length < limit) return;
     const tail = rows[rows.length - 1]!;
     last = shape.key.map((k) => tail[k]);
   }
 }
 
-/** A time as read from either engine: a Date (PostgreSQL), or SQLite's text ("2026-12-03 14:50:02.123 +00:00"). */
-function timeOf(value: unknown, where: string): Date {
-  const time =
-    value instanceof Date
-      ? value
-      : typeof value === "number"
-        ? new Date(value)
-        : new Date(
-            String(value)
-              .trim()
-              .replace(" ", "T")
-              .replace(/ ?([+-]\d\d:?\d\d|Z)$/i, "$1"),
-          );
-  if (Number.isNaN(time.getTime())) throw new Error(`${where} holds ${JSON.stringify(value)}, which is not a time.`);
-  return time;
-}
-
-/** `value` (read from either engine) as `target` stores a column of this kind. */
-function convertFor(target: Sequelize, kind: ColumnKind, value: unknown, where: string): unknown {
-  if (value === null || value === undefined) return null;
-  const postgres = sqlDialectOf(target) === "postgres";
-  switch (kind) {
-    case "boolean": {
-      const truth = value === true || value === 1 || value === "1" || value === "true";
-      if (!truth && !(value === false || value === 0 || value === "0" || value === "false"))
-        throw new Error(`${where} holds ${JSON.stringify(value)}, which is not a yes/no value.`);
-      return postgres ? truth : truth ? 1 : 0;
-    }
-    case "time": {
-      const time = timeOf(value, where);
-      return postgres ? time : time.toISOString().replace("T", " ").replace("Z", " +00:00");
-    }
-    case "number":
-      return typeof value === "string" ? Number(value) : value;
-    default:
-      return value;
-  }
-}
-
-/** One value as the checksum sees it, whichever engine it came from. */
-function normalised(kind: ColumnKind, value: unknown, where: string): unknown {
-  if (value === null || value === undefined) return null;
-  switch (kind) {
-    case "boolean":
-      return value === true || value === 1 || value === "1" || value === "true" ? 1 : 0;
-    case "time":
-      return timeOf(value, where).toISOString();
-    case "number":
-      return Number(value);
-    case "binary":
-      return Buffer.isBuffer(value) ? `base64:${value.toString("base64")}` : `text:${String(value)}`;
-    default:
-      return value instanceof Date ? value.toISOString() : String(value);
-  }
-}
-
 /** Row count and SHA-256 over the rows in primary-key order, each value normalised (see `normalised`). */
-async function checksumOf(db: Sequelize, shape: TableShape) {
+async function checksumOf(db: Sequelize, shape: TableShape, batchRows: number) {
   const hash = createHash("sha256");
   let rows = 0;
-  for await (const batch of batchesOf(db, shape)) {
+  for await (const batch of batchesOf(db, shape, batchRows)) {
     for (const row of batch) {
       const values = shape.columns.map((c) => normalised(c.kind, row[c.name], `${shape.name}.${c.name}`));
       hash.update(JSON.stringify(values) + "\n");
@@ -227,7 +167,7 @@ async function checksumOf(db: Sequelize, shape: TableShape) {
 }
 
 async function insertRows(target: Sequelize, shape: TableShape, rows: Record<string, unknown>[], tx: Transaction) {
-  const perInsert = Math.max(1, Math.min(BATCH_ROWS, Math.floor(MAX_BOUND_VALUES / shape.columns.length)));
+  const perInsert = Math.max(1, Math.floor(MAX_BOUND_VALUES / shape.columns.length));
   const columns = shape.columns.map((c) => quote(c.name)).join(", ");
   for (let start = 0; start < rows.length; start += perInsert) {
     const chunk = rows.slice(start, start + perInsert);
@@ -314,7 +254,7 @@ async function checkTargetEmpty(target: Sequelize, to: string) {
  * search index or moves PostgreSQL's id sequences past the copied ids, then compares each table on both sides.
  * The app should be stopped while it runs: rows written to the source meanwhile may be missed.
  */
-export async function copyDatabase(from: string, to: string): Promise<CopyResult> {
+export async function copyDatabase(from: string, to: string, options: CopyOptions = {}): Promise<CopyResult> {
   if (!from || !to)
     throw new CopyRefused("Usage: npm run db:copy -- <from> <to> (each an SQLite file or a postgres:// URL)");
   const same = isPostgresUrl(from) || isPostgresUrl(to) ? from === to : path.resolve(from) === path.resolve(to);
@@ -328,7 +268,10 @@ export async function copyDatabase(from: string, to: string): Promise<CopyResult
     const target = openDatabase(to);
     try {
       await checkTargetEmpty(target, to);
-      return await copyInto(source, sourceTables, target, from, to);
+      return await copyInto(
+        { source, sourceTables, target, from, to },
+        { batchRows: options.batchRows ?? BATCH_ROWS, progress: options.progress ?? (() => undefined) },
+      );
     } finally {
       await target.close();
     }
@@ -337,8 +280,12 @@ export async function copyDatabase(from: string, to: string): Promise<CopyResult
   }
 }
 
-async function copyInto(source: Sequelize, sourceTables: string[], target: Sequelize, from: string, to: string) {
-  await createMigrator(target).up();
+type Ends = { source: Sequelize; sourceTables: string[]; target: Sequelize; from: string; to: string };
+
+async function copyInto({ source, sourceTables, target, from, to }: Ends, options: Required<CopyOptions>) {
+  const { batchRows, progress } = options;
+  const applied = await createMigrator(target).up();
+  progress(`Target migrated (${applied.length} migrations applied).`);
   const meta = bookkeepingTable(source, "SequelizeMeta").table;
   const seeded = bookkeepingTable(target, "SequelizeData");
   // The record of the demo seeders is not made by a migration: made here when the source has one.
@@ -349,7 +296,7 @@ async function copyInto(source: Sequelize, sourceTables: string[], target: Seque
   const unknown = copied.filter((t) => !targetTables.has(t));
   if (unknown.length)
     throw new Error(
-      `${describe(from)} has tables this build's schema lacks (${unknown.join(", ")}): nothing was copied.`,
+      `${describe(from)} has tables this build's schema lacks (${unknown.join(", ")}): no rows were copied (the target has this build's empty schema).`,
     );
 
   const order = await parentsFirst(target, copied);
@@ -380,8 +327,12 @@ async function copyInto(source: Sequelize, sourceTables: string[], target: Seque
       for (const table of order) {
         const shape = shapes.get(table)!;
         current = table;
-        for await (const rows of batchesOf(source, shape.source, sourceSnapshot))
-          await insertRows(target, shape.target, rows, tx);
+        let rows = 0;
+        for await (const batch of batchesOf(source, shape.source, batchRows, sourceSnapshot)) {
+          await insertRows(target, shape.target, batch, tx);
+          rows += batch.length;
+        }
+        progress(`Copied ${table}: ${rows} rows.`);
       }
       current = "";
       if (postgresTarget) {
@@ -407,7 +358,8 @@ async function copyInto(source: Sequelize, sourceTables: string[], target: Seque
     await sourceSnapshot.commit();
   }
 
-  const tables = await compareDatabases(source, target, order);
+  progress("Copy committed; comparing every table on both sides.");
+  const tables = await compareDatabases(source, target, order, batchRows);
   return {
     from: describe(from),
     to: describe(to),
@@ -420,14 +372,19 @@ async function copyInto(source: Sequelize, sourceTables: string[], target: Seque
  * Row count and checksum of each of `tables` (by default every table the copy carries) in `source` and in `target`,
  * each side read and normalised on its own: what the copy reports, and a check of any two Plumbline databases.
  */
-export async function compareDatabases(source: Sequelize, target: Sequelize, tables?: string[]): Promise<TableCheck[]> {
+export async function compareDatabases(
+  source: Sequelize,
+  target: Sequelize,
+  tables?: string[],
+  batchRows = BATCH_ROWS,
+): Promise<TableCheck[]> {
   const meta = bookkeepingTable(source, "SequelizeMeta").table;
   const names = tables ?? (await tablesOf(source)).filter((t) => !isIndexTable(t) && t !== meta);
   const targetTables = new Set(await tablesOf(target));
   const checks: TableCheck[] = [];
   for (const table of names) {
     const sourceShape = await shapeOf(source, table);
-    const s = await checksumOf(source, sourceShape);
+    const s = await checksumOf(source, sourceShape, batchRows);
     let t = { rows: 0, checksum: "(no such table)" };
     if (targetTables.has(table)) {
       const targetShape = await shapeOf(target, table);
@@ -435,7 +392,7 @@ export async function compareDatabases(source: Sequelize, target: Sequelize, tab
       const columns = sourceShape.columns.map(
         (c) => targetShape.columns.find((tc) => tc.name === c.name) ?? { name: c.name, kind: c.kind },
       );
-      t = await checksumOf(target, { ...targetShape, columns });
+      t = await checksumOf(target, { ...targetShape, columns }, batchRows);
     }
     checks.push({
       table,
