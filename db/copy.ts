@@ -105,7 +105,11 @@ async function parentsFirst(db: Sequelize, tables: string[]): Promise<string[]> 
     }>;
     parents.set(
       table,
-      new Set(references.map((r) => r.referencedTableName).filter((p): p is string => !!p && p !== table)),
+      new Set(
+        references
+          .map((r) => r.referencedTableName)
+          .filter((p): p is string => !!p && p !== table && tables.includes(p)),
+      ),
     );
   }
   const ordered: string[] = [];
@@ -114,7 +118,7 @@ async function parentsFirst(db: Sequelize, tables: string[]): Promise<string[]> 
     const ready = tables.filter((t) => !placed.has(t) && [...parents.get(t)!].every((p) => placed.has(p)));
     if (!ready.length) {
       const stuck = tables.filter((t) => !placed.has(t));
-      throw new Error(`The foreign keys of ${stuck.join(", ")} form a cycle (or name a missing table): no copy order.`);
+      throw new Error(`The foreign keys of ${stuck.join(", ")} form a cycle: no order copies parents first.`);
     }
     for (const t of ready) {
       ordered.push(t);
@@ -332,7 +336,7 @@ async function copyInto({ source, sourceTables, target, from, to }: Ends, option
           await insertRows(target, shape.target, batch, tx);
           rows += batch.length;
         }
-        progress(`Copied ${table}: ${rows} rows.`);
+        progress(`Copied ${table}: ${rows} row${rows === 1 ? "" : "s"}.`);
       }
       current = "";
       if (postgresTarget) {

@@ -299,4 +299,24 @@ describe.skipIf(!serverUrl)("copying a database between SQLite and PostgreSQL", 
     const again = await copyDatabase(source, target);
     expect(again.differing).toEqual([]);
   });
+
+  it("undoes a copy that fails part way (a name too long for PostgreSQL's column), leaving no rows behind", async () => {
+    // SQLite does not hold text to a VARCHAR's length; PostgreSQL refuses the row.
+    const long = path.join(folder, "long.sqlite");
+    fs.copyFileSync(source, long);
+    const db = openDatabase(long);
+    opened.push(db);
+    await db.query(`UPDATE sites SET name = '${"x".repeat(250)}' WHERE id = ${sourceIds.site}`);
+    await close(db);
+    const target = await newPostgres();
+    await expect(copyDatabase(long, target)).rejects.toThrow(/failed in sites and was undone.*too long/);
+    const left = openDatabase(target);
+    opened.push(left);
+    for (const table of ["organisations", "users", "sites", "gear_items"]) {
+      const [row] = await left.query<{ n: number }>(`SELECT COUNT(*) AS n FROM ${table}`, { type: QueryTypes.SELECT });
+      expect(row!.n, table).toBe(0);
+    }
+    await close(left);
+    expect((await copyDatabase(source, target)).differing).toEqual([]);
+  });
 });
