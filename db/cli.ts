@@ -6,21 +6,28 @@ import { sequelize } from "~/utils/db.server";
 import { createMigrator } from "./umzug";
 import { createDemoSeeder } from "./seeders";
 import { backupDatabase, defaultBackupPath, restoreDatabase } from "./backup";
+import { copyDatabase, copyReport } from "./copy";
 
-export const DATABASE_COMMANDS = "migrate | setup | down | backup [target] | restore <file> | reminders";
+export const DATABASE_COMMANDS =
+  "migrate | setup | down | backup [target] | restore <file> | copy <from> <to> | reminders";
 
 /**
  * The database and maintenance commands, built into the production bundle (`node build/server/index.js <command>`,
  * what the npm scripts run) and runnable from source in development (`npx tsx db/cli.ts <command>`):
  * `migrate` applies pending migrations; `setup` also seeds the demo scenario (refused in production); `down` reverts
  * the last migration; `backup [target]` copies the live database; `restore <file>` puts a backup in place (app
- * stopped); `reminders` mails each organisation's admins the gear needing attention (overdue, quarantined, never examined, due soon),
- * once per organisation and day however many servers run it.
+ * stopped); `copy <from> <to>` copies a whole database between SQLite files and PostgreSQL URLs (its own two
+ * connections, not the app's); `reminders` mails each organisation's admins the gear needing attention (overdue,
+ * quarantined, never examined, due soon), once per organisation and day however many servers run it.
  * Throws with a sentence on a bad command or a failure; closes the database when done.
  */
-export async function runDatabaseCommand(command: string | undefined, argument: string | undefined) {
+export async function runDatabaseCommand(
+  command: string | undefined,
+  argument: string | undefined,
+  secondArgument?: string,
+) {
   try {
-    await run(command, argument);
+    await run(command, argument, secondArgument);
   } finally {
     await sequelize.close();
   }
@@ -42,7 +49,7 @@ function refuseOnPostgres(command: string) {
     );
 }
 
-async function run(command: string | undefined, argument: string | undefined) {
+async function run(command: string | undefined, argument: string | undefined, secondArgument: string | undefined) {
   const migrator = createMigrator(sequelize);
   switch (command) {
     case "migrate": {
@@ -91,6 +98,15 @@ async function run(command: string | undefined, argument: string | undefined) {
       );
       return;
     }
+    case "copy": {
+      if (!argument || !secondArgument)
+        throw new Error("Usage: npm run db:copy -- <from> <to> (each an SQLite file path or a postgres:// URL)");
+      const result = await copyDatabase(argument, secondArgument, { progress: (line) => console.log(line) });
+      for (const line of copyReport(result)) console.log(line);
+      if (result.differing.length)
+        throw new Error(`The copy differs from the source in ${result.differing.join(", ")}.`);
+      return;
+    }
     case "reminders": {
       const summaries = await sendExaminationReminders();
       if (!summaries.length) console.log("No gear needs attention: no reminders sent.");
@@ -114,7 +130,7 @@ async function run(command: string | undefined, argument: string | undefined) {
 
 // Run from source (`npx tsx db/cli.ts migrate`); the production bundle calls runDatabaseCommand itself.
 if (process.argv[1] && import.meta.url === pathToFileURL(path.resolve(process.argv[1])).href) {
-  runDatabaseCommand(process.argv[2], process.argv[3]).then(
+  runDatabaseCommand(process.argv[2], process.argv[3], process.argv[4]).then(
     // The local mail catcher (outside production) would keep the process alive.
     () => process.exit(0),
     (error: unknown) => {

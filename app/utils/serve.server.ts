@@ -227,10 +227,10 @@ async function serve() {
   else await startWorker(settings);
 }
 
-async function runCommand(command: string, argument: string | undefined) {
+async function runCommand(command: string, argument: string | undefined, secondArgument: string | undefined) {
   try {
     const { runDatabaseCommand } = await import("../../db/cli");
-    await runDatabaseCommand(command, argument);
+    await runDatabaseCommand(command, argument, secondArgument);
     process.exit(0);
   } catch (error) {
     console.error(error instanceof Error ? error.message : error);
@@ -246,5 +246,5 @@ if (!isMainThread && (workerData as { role?: string } | null)?.role === PDF_WORK
   // Only when node runs this file, never when something imports it.
   const command = process.argv[2] ?? "serve";
   if (command === "serve") await serve();
-  else await runCommand(command, process.argv[3]);
+  else await runCommand(command, process.argv[3], process.argv[4]);
 }
