@@ -36,7 +36,7 @@ function sqliteRows(db: sqlite3.Database, sql: string): Promise<Array<Record<str
  * every table both databases have from the SQLite file, keeping ids, and moves each id sequence past the copied
  * rows. Foreign keys are not checked while copying (the rows come from a database that checked them).
  */
-async function copySqliteToPostgres(sqlitePath: string, url: string) {
+export async function copySqliteToPostgres(sqlitePath: string, url: string) {
   const migrated = spawnSync(process.execPath, [SERVER_ENTRY, "migrate"], {
     env: { ...process.env, NODE_ENV: "production", PLUMBLINE_ENV: "demo", DATABASE_URL: url },
     encoding: "utf8",
@@ -107,7 +107,14 @@ async function copySqliteToPostgres(sqlitePath: string, url: string) {
   return rowCount;
 }
 
-type Figures = { planP50: number; planVsPing: number; pingP50: number; p95: Record<number, number>; bad: number };
+type Figures = {
+  planP50: number;
+  planVsPing: number;
+  pingP50: number;
+  p95: Record<number, number>;
+  answered: Record<number, number>;
+  bad: number;
+};
 
 type Target = {
   label: string;
@@ -173,7 +180,7 @@ export async function runPostgresBench(mode: Mode): Promise<BenchResult[]> {
       `postgres (${mode}): ${copied.toLocaleString("en-GB")} rows copied from the SQLite benchmark database; ` +
         `ready in ${((performance.now() - started) / 1000).toFixed(0)} s`,
     );
-    const empty = (): Figures => ({ planP50: NaN, planVsPing: NaN, pingP50: NaN, p95: {}, bad: 0 });
+    const empty = (): Figures => ({ planP50: NaN, planVsPing: NaN, pingP50: NaN, p95: {}, answered: {}, bad: 0 });
     const targets: Target[] = [];
     for (const [label, server] of [
       ["SQLite", sqliteServer],
@@ -218,7 +225,9 @@ export async function runPostgresBench(mode: Mode): Promise<BenchResult[]> {
             cannonAsync(t.server.baseUrl, cookie, connections / 2, sizes.mixed, mixed),
           ),
         );
-        t.figures.p95[connections] = Math.max(...runs.map((r) => r.p95));
+        // A run in which no request finished inside its seconds has no percentiles: shown as NaN, never as 0.
+        t.figures.p95[connections] = Math.max(...runs.map((r) => r.p95 ?? Number.NaN));
+        t.figures.answered[connections] = runs.reduce((n, r) => n + r.count, 0);
         t.figures.bad += sumBad(runs);
       }
 
@@ -230,13 +239,15 @@ export async function runPostgresBench(mode: Mode): Promise<BenchResult[]> {
     console.log(`  ${"".padEnd(34)}${targets.map((t) => t.label.padStart(12)).join("")}`);
     const row = (name: string, unit: string, pick: (f: Figures) => number, digits = 1) =>
       console.log(
-        `  ${name.padEnd(34)}${targets.map((t) => `${pick(t.figures).toFixed(digits)} ${unit}`.padStart(12)).join("")}`,
+        `  ${name.padEnd(34)}${targets.map((t) => `${pick(t.figures).toFixed(digits)} ${unit}`.trim().padStart(12)).join("")}`,
       );
     row("ping p50", "ms", (f) => f.pingP50);
     row("plan page p50 (1 connection)", "ms", (f) => f.planP50);
     row("plan page vs ping (req/s)", "x", (f) => f.planVsPing, 2);
     row("mixed p95 at 10 connections", "ms", (f) => f.p95[10]!, 0);
     row("mixed p95 at 50 connections", "ms", (f) => f.p95[50]!, 0);
+    row(`answered in ${sizes.mixed} s at 10 connections`, "", (f) => f.answered[10]!, 0);
+    row(`answered in ${sizes.mixed} s at 50 connections`, "", (f) => f.answered[50]!, 0);
     row("errors", "", (f) => f.bad, 0);
     const pgFigures = targets[1]!.figures;
     const note = (name: string, value: number, unit: string): BenchResult => ({
