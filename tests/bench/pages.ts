@@ -400,3 +400,5 @@ if (import.meta.url === `file://${process.argv[1]}`) {
   const results = await runPagesBench(process.argv.includes("--full") ? "full" : "quick");
   for (const r of results) console.log(`${r.name}: ${r.value.toFixed(2)} ${r.unit}`);
 }
+
+export { cachedDatabase, cannon, cannonAsync, seedShaped, SIZES, type CannonRequest, type CannonResult };

@@ -4,6 +4,7 @@ import { startBuiltServer, signInCookie } from "../support/built-server";
 import { runLoadBench } from "./load";
 import { runPagesBench } from "./pages";
 import { runPdfBench } from "./pdf";
+import { runPostgresBench } from "./postgres";
 import { runStaticsBench, type BenchResult } from "./statics";
 
 function median(values: number[]) {
@@ -88,8 +89,9 @@ const results = full
       ...(await runHttpBench()),
       ...(await runLoadBench()),
       ...(await runPagesBench("full")),
+      ...(await runPostgresBench("full")),
     ]
-  : [...(await runPdfBench()), ...(await runPagesBench("quick"))];
+  : [...(await runPdfBench()), ...(await runPagesBench("quick")), ...(await runPostgresBench("quick"))];
 print(results);
 console.log(
   `bench (${full ? "full" : "quick"}) took ${((performance.now() - benchStarted) / 1000).toFixed(0)} s after the build`,

@@ -1,6 +1,6 @@
 // Serves the production build (as `npm run demo` does) on a free loopback port over a fresh
-// database seeded with the demo scenario (or an existing database). Used by the browser tests,
-// the durability tests and the benchmarks.
+// database seeded with the demo scenario (or an existing database, or the PostgreSQL one named by
+// DATABASE_URL). Used by the browser tests, the durability tests and the benchmarks.
 import { spawn, spawnSync } from "node:child_process";
 import fs from "node:fs";
 import net from "node:net";
@@ -43,6 +43,12 @@ export type StartOptions = {
    * beside it, and stop() leaves its folder alone (the caller made it, the caller removes it).
    */
   databasePath?: string;
+  /**
+   * Whether to seed the demo scenario before serving (default: yes, unless databasePath is given). No: serve a
+   * database another server already set up, such as a second app server on the PostgreSQL database named by
+   * DATABASE_URL in extraEnv.
+   */
+  seed?: boolean;
   /** How long the server may take to answer its first request (default 30 s; a loaded machine may need more). */
   startSeconds?: number;
 };
@@ -62,7 +68,7 @@ export async function startBuiltServer(options: StartOptions = {}): Promise<Buil
     HOST: "127.0.0.1",
     ...options.extraEnv,
   };
-  if (!existing) {
+  if (options.seed ?? !existing) {
     const seeded = spawnSync(process.execPath, [SERVER_ENTRY, "setup"], {
       env,
       encoding: "utf8",
