@@ -9,6 +9,10 @@ import { findUserByEmail } from "~/models/user.server";
 import { runInBackground } from "~/utils/background.server";
 import { clientAddressKey } from "~/utils/security.server";
 
+/** A refused try's Retry-After reaches the browser (a route's action headers are dropped unless it passes them on). */
+export const headers: Route.HeadersFunction = ({ actionHeaders, loaderHeaders }) =>
+  actionHeaders.has("Retry-After") ? actionHeaders : loaderHeaders;
+
 const schema = z.object({
   email: safeText({ error: "Enter your e-mail address." }).trim().email("Enter a valid e-mail address.").max(320),
 });

@@ -15,6 +15,10 @@ import { findUserByEmail } from "~/models/user.server";
 import { clientAddressKey } from "~/utils/security.server";
 import { getUser, newSessionCookie, safeRedirectPath } from "~/utils/session.server";
 
+/** A refused try's Retry-After reaches the browser (a route's action headers are dropped unless it passes them on). */
+export const headers: Route.HeadersFunction = ({ actionHeaders, loaderHeaders }) =>
+  actionHeaders.has("Retry-After") ? actionHeaders : loaderHeaders;
+
 export const meta: Route.MetaFunction = () => [{ title: "Sign in · Plumbline" }];
 
 export async function loader({ request }: Route.LoaderArgs) {

@@ -127,6 +127,7 @@ describe("two app servers on one PostgreSQL database", () => {
     expect(onB.status).toBe(429);
     expect(await onB.text()).toMatch(/sign-ins to this account have failed; wait \d+ seconds? and try again/);
     expect(onB.headers.get("set-cookie")).toBeNull();
+    expect(Number(onB.headers.get("Retry-After"))).toBeGreaterThan(0);
   });
 
   it("a file uploaded through A downloads through B, byte for byte", async () => {
