@@ -3,7 +3,7 @@ import { pathToFileURL } from "node:url";
 import { sendExaminationReminders } from "~/gear/reminders.server";
 import { env } from "~/utils/env.server";
 import { sequelize } from "~/utils/db.server";
-import { createMigrator } from "./umzug";
+import { applyMigrations, createMigrator } from "./umzug";
 import { createDemoSeeder } from "./seeders";
 import { backupDatabase, defaultBackupPath, restoreDatabase } from "./backup";
 import { copyDatabase, copyReport } from "./copy";
@@ -53,7 +53,7 @@ async function run(command: string | undefined, argument: string | undefined, se
   const migrator = createMigrator(sequelize);
   switch (command) {
     case "migrate": {
-      const applied = await migrator.up();
+      const applied = await applyMigrations(sequelize);
       console.log(
         `Migrations applied: ${applied.length ? applied.map((m) => m.name).join(", ") : "none pending"} (${whereTheDataIs()})`,
       );
@@ -61,7 +61,7 @@ async function run(command: string | undefined, argument: string | undefined, se
     }
     case "setup": {
       if (env.isProduction) throw new Error("db:setup seeds demo users and is refused in production; run db:migrate.");
-      const applied = await migrator.up();
+      const applied = await applyMigrations(sequelize);
       const seeded = await createDemoSeeder(sequelize).up();
       console.log(
         `Database ready at ${whereTheDataIs()}: ${applied.length} migration(s) applied, ${seeded.length} demo seeder(s) run.`,

@@ -1,5 +1,6 @@
 import type { QueryInterface, Sequelize } from "sequelize";
 import { SequelizeStorage, Umzug } from "umzug";
+import { sqlDialectOf } from "~/utils/sql-dialect.server";
 import * as organisationsAndUsers from "./migrations/0001-organisations-and-users";
 import * as sitesAndJobs from "./migrations/0002-sites-and-jobs";
 import * as components from "./migrations/0003-components";
@@ -74,5 +75,23 @@ export function createMigrator(sequelize: Sequelize) {
     context: sequelize.getQueryInterface(),
     storage: new SequelizeStorage({ sequelize, modelName: "SequelizeMeta" }),
     logger: undefined,
+  });
+}
+
+/** Any fixed number, the same in every release: the PostgreSQL advisory lock the migrations run under. */
+const MIGRATION_LOCK = 7_351_640_218;
+
+/**
+ * Applies the pending migrations. On PostgreSQL several app servers may start at once: each takes one advisory lock
+ * first (held by a transaction that stays open on its own connection while the migrations run on others), so one
+ * migrates and the rest wait, then find nothing pending. SQLite takes its own write lock per migration and runs on
+ * one machine.
+ */
+export async function applyMigrations(sequelize: Sequelize) {
+  const migrator = createMigrator(sequelize);
+  if (sqlDialectOf(sequelize) !== "postgres") return migrator.up();
+  return sequelize.transaction(async (transaction) => {
+    await sequelize.query("SELECT pg_advisory_xact_lock($key)", { bind: { key: MIGRATION_LOCK }, transaction });
+    return migrator.up();
   });
 }
