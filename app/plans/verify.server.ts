@@ -6,6 +6,7 @@ import type { PlanStatus } from "~/plans/document";
 import type { LiveGearState } from "~/plans/live-state";
 import { liveStateOf } from "~/plans/live-state.server";
 import { fingerprintOf } from "~/plans/seal.server";
+import type { LoadOverrideMark } from "~/plans/load-override";
 import { readSealed } from "~/plans/sealed";
 
 export type VerifiedRevision = {
@@ -19,6 +20,8 @@ export type VerifiedRevision = {
   fingerprint: string | null;
   /** The stored record still hashes to the fingerprint printed on the copy. */
   intact: boolean;
+  /** The planner's override of the component's mass or CoG, as approved (the printed copy carries it too). */
+  loadOverride: LoadOverrideMark | null;
   /** The gear judged now, for a revision that is still the current approved one. */
   live: LiveGearState | null;
   organisationId: number;
@@ -42,6 +45,7 @@ export async function verifyRevision(token: string): Promise<VerifiedRevision | 
     approverName: sealed?.approval.name ?? revision.approverName ?? null,
     fingerprint: revision.fingerprint ?? null,
     intact: sealed !== null && fingerprintOf(sealed) === revision.fingerprint,
+    loadOverride: sealed?.loadOverride ?? null,
     live,
     organisationId: plan.organisationId,
     planId: plan.id,

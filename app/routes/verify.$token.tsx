@@ -1,5 +1,6 @@
 import type { Route } from "./+types/verify.$token";
 import { LiftFitness } from "~/components/lift-fitness";
+import { LoadOverrideNotice } from "~/components/load-override-mark";
 import { OfflineCurrency } from "~/components/offline-currency";
 import { sinceText } from "~/plans/live-state";
 import { verifyRevision } from "~/plans/verify.server";
@@ -29,6 +30,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       supersededByRevision: found.supersededByRevision,
       planId: found.planId,
       intact: found.intact,
+      loadOverride: found.loadOverride,
       live: found.live
         ? {
             fit: found.live.fit,
@@ -39,6 +41,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
         : null,
     },
     canOpen,
+    units: user?.units ?? "metric",
   };
 }
 
@@ -68,7 +71,7 @@ const VERDICTS = {
 const when = (iso: string) => sinceText(iso);
 
 export default function Verify({ loaderData }: Route.ComponentProps) {
-  const { found, canOpen } = loaderData;
+  const { found, canOpen, units } = loaderData;
   if (!found) {
     return (
       <section className="mx-auto max-w-lg py-8" role="alert">
@@ -128,6 +131,7 @@ export default function Verify({ loaderData }: Route.ComponentProps) {
           <dd className="inline">{found.revision}</dd>
         </div>
       </dl>
+      <LoadOverrideNotice mark={found.loadOverride} units={units} />
       {canOpen && (
         <p className="mt-4">
           <a href={`/plans/${found.planId}`}>Open the plan</a>

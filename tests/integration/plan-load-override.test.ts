@@ -16,6 +16,7 @@ import { getComponent } from "~/models/component.server";
 import { PlanRevision } from "~/models/plan.server";
 import { fingerprintOf } from "~/plans/seal.server";
 import { readSealed } from "~/plans/sealed";
+import * as verify from "~/routes/verify.$token";
 import { approveRevision, submitRevision } from "~/plans/workflow.server";
 import { callRoute, getRequest, TEST_PASSWORD } from "../support/factories";
 import { jsonRequest } from "../support/plans";
@@ -205,6 +206,12 @@ describe("overriding the component's mass and CoG in a plan", () => {
     );
     expect(text).toContain(`Reason for the override: ${REASON}`);
     expect(text).not.toContain("Nameplate or manufacturer's certificate");
+
+    // The printed code's page says the same to whoever scans it, signed in or not.
+    const scanned = await callRoute(verify.loader, new Request(`http://localhost/verify/${row.verifyToken}`), {
+      token: row.verifyToken!,
+    });
+    expect((scanned.data as { found: { loadOverride: unknown } }).found.loadOverride).toEqual(pageMark);
   });
 
   it("removing the override returns the plan to the component's figures, and says so in the audit trail", async () => {
