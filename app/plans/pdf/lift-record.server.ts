@@ -19,6 +19,7 @@ import {
   TONE,
   Typesetter,
 } from "~/plans/pdf/layout.server";
+import { overrideSentences } from "~/plans/load-override";
 import { cell, facts, heading, table, type Column, type Fact } from "~/plans/pdf/tables.server";
 import { siteTimeText, type LiftRecordDocument } from "~/plans/lift-record";
 import type { PrintablePlan } from "~/plans/printable";
@@ -73,6 +74,8 @@ export async function buildLiftRecordPdf(record: PrintableLiftRecord): Promise<U
     ["Landed", `${site(record.liftedAt)}; ${utcText(record.liftedAt)}`],
     ["Recorded by", record.recordedBy],
     ["Site", [plan.site.name, plan.site.customer].filter((s) => s.trim() !== "").join(", ")],
+    // A load lifted on figures the planner overrode carries the approved mark here too.
+    ...(plan.loadOverride ? [["Load", overrideSentences(plan.loadOverride, plan.units).join(" ")] satisfies Fact] : []),
   ];
   flow.ensure(facts(flow, about, LEFT, CONTENT_W, flow.y, false, 80));
   flow.y -= facts(flow, about, LEFT, CONTENT_W, flow.y, true, 80) + 4;
