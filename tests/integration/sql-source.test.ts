@@ -41,13 +41,26 @@ function templates(text: string): string[] {
   return [...text.matchAll(/`((?:[^`\\]|\\.)*)`/g)].map((m) => m[1]!);
 }
 
+/**
+ * `db:copy` (db/copy.ts) copies whatever tables the database has, so it must splice names: each read from the
+ * database's own schema and written through its `quote()`, the `$n` placeholders of bound values, and its batch size.
+ * Nothing else may be spliced there either.
+ */
+const COPY_SPLICES = new Set(["columns", "after", "order", "limit", 'tuples.join(", ")']);
+function copySplice(file: string, expression: string) {
+  return (
+    file === path.join("db", "copy.ts") && (/^quote\(\w+(\.\w+)?\)$/.test(expression) || COPY_SPLICES.has(expression))
+  );
+}
+
 describe("SQL in the source", () => {
   it("splices nothing but fixed fragments (capitalised constants) into statements", () => {
     const offenders: string[] = [];
     for (const { file, text } of FILES) {
       for (const template of templates(text).filter((t) => SQL.test(t))) {
         for (const [, expression] of template.matchAll(/\$\{([^}]*)\}/g)) {
-          if (!/^[A-Z][A-Z0-9_]*\b/.test(expression!.trim())) offenders.push(`${file}: \${${expression}}`);
+          if (!/^[A-Z][A-Z0-9_]*\b/.test(expression!.trim()) && !copySplice(file, expression!.trim()))
+            offenders.push(`${file}: \${${expression}}`);
         }
       }
     }
