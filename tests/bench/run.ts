@@ -1,6 +1,7 @@
 // `npm run bench`: the statics core's solves per second, and /api/solve against a trivial JSON
 // route on the same built server in the same run. A benchmark, never a timed test: it prints.
 import { startBuiltServer, signInCookie } from "../support/built-server";
+import { runEditorBench } from "./editor";
 import { runLoadBench } from "./load";
 import { runPagesBench } from "./pages";
 import { runPdfBench } from "./pdf";
@@ -92,7 +93,7 @@ const results = full
       ...(await runPostgresBench("full")),
     ]
   : [...(await runPdfBench()), ...(await runPagesBench("quick")), ...(await runPostgresBench("quick"))];
-print(results);
+print([...results, ...(await runEditorBench())]);
 console.log(
   `bench (${full ? "full" : "quick"}) took ${((performance.now() - benchStarted) / 1000).toFixed(0)} s after the build`,
 );
