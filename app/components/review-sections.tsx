@@ -78,19 +78,7 @@ export function PlanDetailsCards({ details, units }: { details: PlanDetails; uni
   return (
     <>
       <Card title="Sequence and hold points">
-        <ol className="list-decimal space-y-2 pl-5 text-sm" data-testid="review-sequence">
-          {details.sequence.map((step, i) => (
-            <li key={i}>
-              <span className="font-semibold">{step.title}</span>
-              {step.holdPoint && (
-                <span className="ml-2 rounded bg-brass-soft px-2 py-0.5 text-xs font-semibold text-brass-deep">
-                  Hold point: stop until cleared
-                </span>
-              )}
-              {step.notes && <span className="block text-ink-soft">{step.notes}</span>}
-            </li>
-          ))}
-        </ol>
+        <SequenceList sequence={details.sequence} testId="review-sequence" />
       </Card>
       <Card title="Hazards and controls">
         {details.hazards.length === 0 ? (
@@ -101,19 +89,42 @@ export function PlanDetailsCards({ details, units }: { details: PlanDetails; uni
         <LiftConditions details={details} units={units} />
       </Card>
       <Card title="People">
-        {details.people.length === 0 ? (
-          <p className="text-sm text-ink-soft">Nobody named.</p>
-        ) : (
-          <ul className="space-y-1 text-sm" data-testid="review-people">
-            {details.people.map((p, i) => (
-              <li key={i}>
-                <span className="font-semibold">{p.name}</span> · {PERSON_ROLE_LABELS[p.role]}
-              </li>
-            ))}
-          </ul>
-        )}
+        <PeopleList people={details.people} none="Nobody named." testId="review-people" />
       </Card>
     </>
+  );
+}
+
+/** The steps of the lift in order, each hold point marked. */
+export function SequenceList({ sequence, testId }: { sequence: PlanDetails["sequence"]; testId?: string }) {
+  return (
+    <ol className="list-decimal space-y-2 pl-5 text-sm" data-testid={testId}>
+      {sequence.map((step, i) => (
+        <li key={i}>
+          <span className="font-semibold">{step.title}</span>
+          {step.holdPoint && (
+            <span className="ml-2 rounded bg-brass-soft px-2 py-0.5 text-xs font-semibold text-brass-deep">
+              Hold point: stop until cleared
+            </span>
+          )}
+          {step.notes && <span className="block text-ink-soft">{step.notes}</span>}
+        </li>
+      ))}
+    </ol>
+  );
+}
+
+/** The people named for the lift, each with their part in it; `none` when nobody is. */
+export function PeopleList({ people, none, testId }: { people: PlanDetails["people"]; none: string; testId?: string }) {
+  if (people.length === 0) return <p className="text-sm text-ink-soft">{none}</p>;
+  return (
+    <ul className="space-y-1 text-sm" data-testid={testId}>
+      {people.map((p, i) => (
+        <li key={i}>
+          <span className="font-semibold">{p.name}</span> · {PERSON_ROLE_LABELS[p.role]}
+        </li>
+      ))}
+    </ul>
   );
 }
 

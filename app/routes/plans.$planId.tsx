@@ -12,11 +12,11 @@ import { compareWithComponent, pullComponentVersion } from "~/plans/revisions.se
 import { assignRigger, cancelPlan, startNewRevision } from "~/plans/workflow.server";
 import { getWorkflowView, shownRevision, type WorkflowView } from "~/plans/workflow-view.server";
 import { listUsersWithRole } from "~/models/user.server";
-import { HazardTable, LiftConditions } from "~/components/review-sections";
+import { HazardTable, LiftConditions, PeopleList, SequenceList } from "~/components/review-sections";
 import { WorkflowPanel, type WorkflowPanelData } from "~/components/plan-workflow-panel";
 import { ArrivedFromPhonePanel, type ArrivedFromPhone } from "~/components/arrived-from-phone";
 import { listPlanSubmissions } from "~/models/offline-submission.server";
-import { HITCH_LABELS, PERSON_ROLE_LABELS, PLAN_CAUTION, PLAN_STATUS_LABELS, type PlanResults } from "~/plans/document";
+import { HITCH_LABELS, PLAN_CAUTION, PLAN_STATUS_LABELS, type PlanResults } from "~/plans/document";
 import { hasAnyRole } from "~/utils/roles";
 import { flashNotice, requireUser, requireUserWithRole } from "~/utils/session.server";
 import { warningsBesideChecks } from "~/components/live-results";
@@ -388,19 +388,7 @@ export default function PlanPage({ loaderData, actionData }: Route.ComponentProp
             <Results results={revision.results} units={units} />
           </Card>
           <Card title="Sequence of the lift">
-            <ol className="list-decimal space-y-2 pl-5 text-sm">
-              {details.sequence.map((step, i) => (
-                <li key={i}>
-                  <span className="font-semibold">{step.title}</span>
-                  {step.holdPoint && (
-                    <span className="ml-2 rounded bg-brass-soft px-2 py-0.5 text-xs font-semibold text-brass-deep">
-                      Hold point: stop until cleared
-                    </span>
-                  )}
-                  {step.notes && <span className="block text-ink-soft">{step.notes}</span>}
-                </li>
-              ))}
-            </ol>
+            <SequenceList sequence={details.sequence} />
           </Card>
           <Card title="Hazards and controls">
             {details.hazards.length === 0 ? (
@@ -413,17 +401,7 @@ export default function PlanPage({ loaderData, actionData }: Route.ComponentProp
             <LiftConditions details={details} units={units} />
           </Card>
           <Card title="People">
-            {details.people.length === 0 ? (
-              <p className="text-sm text-ink-soft">Nobody named yet.</p>
-            ) : (
-              <ul className="space-y-1 text-sm">
-                {details.people.map((p, i) => (
-                  <li key={i}>
-                    <span className="font-semibold">{p.name}</span> · {PERSON_ROLE_LABELS[p.role]}
-                  </li>
-                ))}
-              </ul>
-            )}
+            <PeopleList people={details.people} none="Nobody named yet." />
           </Card>
         </div>
         <aside>
