@@ -3,7 +3,7 @@
 import { describe, expect, it } from "vitest";
 import { REFERENCE_TABLES } from "../../db/seeders/reference-data";
 import { fitNotes } from "~/components/gear-picker";
-import { judgePick } from "~/plans/pick-fit";
+import { judgePick, judgePicks } from "~/plans/pick-fit";
 import { assembleRigging, type GearPick } from "~/plans/rigging";
 import { handleSolve } from "~/statics/api";
 
@@ -68,4 +68,31 @@ describe("the picker's fit note is the plan's check", () => {
       expect(judged?.loadKg).toBe(check.loadKg);
     },
   );
+});
+
+describe("judging the allocated items together", () => {
+  it.each([0.3, 1, 2.5])(
+    "with the hook at %s m one solve gives each position the check judgePick gives it alone",
+    (z) => {
+      const b = body(z, true);
+      const placed = [
+        { slot: { role: "eyebolt" as const, legId: "A" }, pick: eyebolt },
+        { slot: { role: "eyebolt" as const, legId: "B" }, pick: eyebolt },
+      ];
+      const together = judgePicks(b, placed, REFERENCE_TABLES);
+      for (const { slot, pick } of placed) {
+        const alone = judgePick(b, slot, pick, REFERENCE_TABLES);
+        expect(alone).not.toBeNull();
+        expect(together.get(`eyebolt-${slot.legId}`)).toEqual(alone);
+      }
+    },
+  );
+  it("a pick in a slot of another role is judged null, as alone", () => {
+    const together = judgePicks(
+      body(1, false),
+      [{ slot: { role: "shackle", legId: "A" }, pick: eyebolt }],
+      REFERENCE_TABLES,
+    );
+    expect(together.get("shackle-A")).toBeNull();
+  });
 });

@@ -1,16 +1,23 @@
 // Gear allocation: a picker from the register for each position of each used leg, the leg's hitch and eye
 // plane, and the master link and crane at the top.
+import { useMemo } from "react";
 import { GearPicker } from "~/components/gear-picker";
 import { HitchSelect, hitchesForLeg } from "~/components/hitch-select";
 import type { LiveSolution } from "~/components/plan-editor/use-live-solve";
 import type { ComponentDefinition } from "~/loads/component-definition";
 import { EYE_PLANE_LABELS, EYE_PLANES } from "~/plans/document";
 import type { EditorAction, PlanEdit } from "~/plans/editor-state";
-import { judgePick, type PickSlot } from "~/plans/pick-fit";
+import { checkIdFor, judgePick, judgePicks, type PickSlot } from "~/plans/pick-fit";
 import { GEAR_ROLE_LABELS, type GearPick, type GearRole } from "~/plans/rigging";
 import type { RiggingDescription } from "~/statics/check-types";
 import type { ReferenceTables } from "~/statics/reference";
 import type { Units } from "~/utils/format";
+
+const LEG_SLOTS = [
+  ["eyebolt", "eyeboltItemId"],
+  ["shackle", "shackleItemId"],
+  ["sling", "slingItemId"],
+] as const;
 
 export function GearTable({
   edit,
@@ -38,8 +45,33 @@ export function GearTable({
   body?: ({ rigging?: RiggingDescription } & Record<string, unknown>) | null;
   tables?: ReferenceTables | null;
 }) {
-  const judgeFor = (slot: PickSlot) =>
-    body && tables ? (pick: GearPick) => judgePick(body, slot, pick, tables) : undefined;
+  // The allocated items, each judged in its own position: one solve for them all rather than one each.
+  const allocated = useMemo(() => {
+    const placed: Array<{ slot: PickSlot; pick: GearPick }> = [];
+    const at = (slot: PickSlot, id: number | undefined) => {
+      const pick = id !== undefined ? picks.get(id) : undefined;
+      if (pick) placed.push({ slot, pick });
+    };
+    for (const p of usedPoints) {
+      const leg = edit.rigging.legs[p.label];
+      for (const [role, key] of LEG_SLOTS) at({ role, legId: p.label, hitch: leg?.hitch ?? "straight" }, leg?.[key]);
+    }
+    at({ role: "masterLink" }, edit.rigging.masterLinkItemId);
+    at({ role: "crane" }, edit.rigging.craneItemId);
+    return placed;
+  }, [usedPoints, edit.rigging, picks]);
+  const judged = useMemo(
+    () => (body && tables ? judgePicks(body, allocated, tables) : null),
+    [body, tables, allocated],
+  );
+  const judgeFor = (slot: PickSlot) => {
+    if (!body || !tables) return undefined;
+    const here = allocated.find((a) => checkIdFor(a.slot) === checkIdFor(slot));
+    return (pick: GearPick) =>
+      here && here.pick === pick && judged
+        ? (judged.get(checkIdFor(slot)) ?? null)
+        : judgePick(body, slot, pick, tables);
+  };
   const legLoadKg = (label: string) => solution?.legs.find((l) => l.liftPointId === label)?.tensionKg ?? null;
 
   return (
