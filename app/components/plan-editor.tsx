@@ -1,18 +1,7 @@
 // The plan editor: two linked views of the load drawn to scale (Konva, browser only), a
 // properties panel for exact values, live results worked out in the browser by the statics core,
 // gear allocation, the hook-height chart and autosave through PUT /api/plans/:planId.
-import {
-  lazy,
-  memo,
-  Suspense,
-  useCallback,
-  useDeferredValue,
-  useEffect,
-  useId,
-  useMemo,
-  useReducer,
-  useState,
-} from "react";
+import { lazy, memo, Suspense, useCallback, useEffect, useId, useMemo, useReducer, useState } from "react";
 import type { ComponentDefinition } from "~/loads/component-definition";
 import type { LegFigure } from "~/components/plan-canvas.client";
 import { Button } from "~/components/ui/form";
@@ -26,6 +15,7 @@ import { LoadOverridePanel } from "~/components/plan-editor/load-override-panel"
 import { FiguresDiffer } from "~/components/plan-editor/figures-differ";
 import { TracingPanel, useTracing } from "~/components/plan-editor/tracing";
 import { useAutosave } from "~/components/plan-editor/use-autosave";
+import { useSettledValue } from "~/components/plan-editor/use-settled-value";
 import { useLiveSolve, type LiveSolution } from "~/components/plan-editor/use-live-solve";
 import { editorArrangementInput } from "~/plans/editor-input";
 import { toSolveBody } from "~/statics/api";
@@ -60,6 +50,8 @@ const MemoLiveResults = memo(LiveResults);
 const MemoFiguresDiffer = memo(FiguresDiffer);
 const MemoGearTable = memo(GearTable);
 const noDispatch = () => undefined;
+/** How long the layout must rest before the hook-height chart sweeps it again, ms. */
+const CHART_SETTLE_MS = 150;
 /** The hook-height chart sweeps the layout: drawn again only when its inputs change. */
 const MemoHookHeightChart = memo(HookHeightChart);
 
@@ -222,7 +214,7 @@ export function PlanEditor({
     () => edit.liftPoints.filter((p) => edit.arrangement.liftPointLabels.includes(p.label)),
     [edit.liftPoints, edit.arrangement.liftPointLabels],
   );
-  // The chart follows a move in the render after the figures', so the sweep never holds up the move's frame.
+  // The chart sweeps the layout at 80 hook heights: it follows once the planner pauses, never in a move's frame.
   const chartPoints = useMemo(
     () =>
       usedPoints.map((p) => ({
@@ -233,11 +225,12 @@ export function PlanEditor({
       })),
     [usedPoints],
   );
-  const chart = useDeferredValue(
+  const chart = useSettledValue(
     useMemo(
       () => ({ massKg: planned.massKg, cog: edit.cog, points: chartPoints, rigging: body?.rigging }),
       [planned.massKg, edit.cog, chartPoints, body],
     ),
+    CHART_SETTLE_MS,
   );
 
   return (
