@@ -3,7 +3,7 @@
 import { describe, expect, it } from "vitest";
 import { REFERENCE_TABLES } from "../../db/seeders/reference-data";
 import { fitNotes } from "~/components/gear-picker";
-import { judgePick, judgePicks } from "~/plans/pick-fit";
+import { judgePick } from "~/plans/pick-fit";
 import { assembleRigging, type GearPick } from "~/plans/rigging";
 import { handleSolve } from "~/statics/api";
 
@@ -70,29 +70,18 @@ describe("the picker's fit note is the plan's check", () => {
   );
 });
 
-describe("judging the allocated items together", () => {
+describe("an allocated item's note can be read from the plan's own solve", () => {
   it.each([0.3, 1, 2.5])(
-    "with the hook at %s m one solve gives each position the check judgePick gives it alone",
+    "with the hook at %s m the allocated eyebolt's check in the plan's solve is judgePick's, field for field",
     (z) => {
-      const b = body(z, true);
-      const placed = [
-        { slot: { role: "eyebolt" as const, legId: "A" }, pick: eyebolt },
-        { slot: { role: "eyebolt" as const, legId: "B" }, pick: eyebolt },
-      ];
-      const together = judgePicks(b, placed, REFERENCE_TABLES);
-      for (const { slot, pick } of placed) {
-        const alone = judgePick(b, slot, pick, REFERENCE_TABLES);
-        expect(alone).not.toBeNull();
-        expect(together.get(`eyebolt-${slot.legId}`)).toEqual(alone);
-      }
+      // The plan's rigging carries the item's inspection record; judgePick puts in the bare register spec.
+      // The inspection is judged apart from the position's rating, so the position's check is the same either way.
+      const planned = handleSolve(body(z, true), REFERENCE_TABLES);
+      if (planned.status !== 200) throw new Error("solve failed");
+      expect(body(z, true).rigging.legs?.A?.eyebolt?.inspection).toBeDefined();
+      const judged = judgePick(body(z, true), { role: "eyebolt", legId: "A" }, eyebolt, REFERENCE_TABLES);
+      expect(judged).not.toBeNull();
+      expect(planned.body.checks!.find((c) => c.id === "eyebolt-A")).toEqual(judged);
     },
   );
-  it("a pick in a slot of another role is judged null, as alone", () => {
-    const together = judgePicks(
-      body(1, false),
-      [{ slot: { role: "shackle", legId: "A" }, pick: eyebolt }],
-      REFERENCE_TABLES,
-    );
-    expect(together.get("shackle-A")).toBeNull();
-  });
 });

@@ -41,14 +41,6 @@ export function judgePick(
 ): CheckResult | null {
   if (!body || pick.spec.role !== slot.role) return null;
   const rigging: RiggingDescription = { ...(body.rigging ?? {}), legs: { ...(body.rigging?.legs ?? {}) } };
-  putInSlot(rigging, slot, pick);
-  const answer = handleSolve({ ...body, rigging }, tables);
-  if (answer.status !== 200) return null;
-  return answer.body.checks?.find((c) => c.id === checkIdFor(slot)) ?? null;
-}
-
-/** Puts the pick's spec (as the register gives it) in the slot of a copied rigging, as judgePick does. */
-function putInSlot(rigging: RiggingDescription, slot: PickSlot, pick: GearPick) {
   const spec = pick.spec;
   if (slot.role === "eyebolt" || slot.role === "shackle" || slot.role === "sling") {
     const leg: LegRigging = { ...(rigging.legs![slot.legId] ?? {}) };
@@ -61,31 +53,7 @@ function putInSlot(rigging: RiggingDescription, slot: PickSlot, pick: GearPick) 
   } else if (spec.role === "crane") {
     rigging.crane = { ...spec.crane };
   }
-}
-
-/**
- * judgePick for many picks at once, each in its own slot (the items allocated now), from one solve: every
- * slot holds its pick as judgePick puts it there, and each slot's check is read from the same answer. A
- * check rates one position's item, so it comes out as judgePick's one by one. Keyed by checkIdFor(slot).
- */
-export function judgePicks(
-  body: BodyWithRigging | null,
-  placed: ReadonlyArray<{ slot: PickSlot; pick: GearPick }>,
-  tables: ReferenceTables,
-): Map<string, CheckResult | null> {
-  const out = new Map<string, CheckResult | null>();
-  const fitting = placed.filter(({ slot, pick }) => body && pick.spec.role === slot.role);
-  for (const { slot } of placed) out.set(checkIdFor(slot), null);
-  if (!body || fitting.length === 0) return out;
-  const rigging: RiggingDescription = { ...(body.rigging ?? {}), legs: { ...(body.rigging?.legs ?? {}) } };
-  for (const { slot, pick } of fitting) putInSlot(rigging, slot, pick);
   const answer = handleSolve({ ...body, rigging }, tables);
-  if (answer.status !== 200) {
-    // One item may stop the solve where the others would not: judge each alone, as the picker would.
-    for (const { slot, pick } of fitting) out.set(checkIdFor(slot), judgePick(body, slot, pick, tables));
-    return out;
-  }
-  for (const { slot } of fitting)
-    out.set(checkIdFor(slot), answer.body.checks?.find((c) => c.id === checkIdFor(slot)) ?? null);
-  return out;
+  if (answer.status !== 200) return null;
+  return answer.body.checks?.find((c) => c.id === checkIdFor(slot)) ?? null;
 }

@@ -7,17 +7,11 @@ import type { LiveSolution } from "~/components/plan-editor/use-live-solve";
 import type { ComponentDefinition } from "~/loads/component-definition";
 import { EYE_PLANE_LABELS, EYE_PLANES } from "~/plans/document";
 import type { EditorAction, PlanEdit } from "~/plans/editor-state";
-import { checkIdFor, judgePick, judgePicks, type PickSlot } from "~/plans/pick-fit";
+import { checkIdFor, judgePick, type PickSlot } from "~/plans/pick-fit";
 import { GEAR_ROLE_LABELS, type GearPick, type GearRole } from "~/plans/rigging";
-import type { RiggingDescription } from "~/statics/check-types";
+import type { CheckResult, RiggingDescription } from "~/statics/check-types";
 import type { ReferenceTables } from "~/statics/reference";
 import type { Units } from "~/utils/format";
-
-const LEG_SLOTS = [
-  ["eyebolt", "eyeboltItemId"],
-  ["shackle", "shackleItemId"],
-  ["sling", "slingItemId"],
-] as const;
 
 export function GearTable({
   edit,
@@ -45,33 +39,16 @@ export function GearTable({
   body?: ({ rigging?: RiggingDescription } & Record<string, unknown>) | null;
   tables?: ReferenceTables | null;
 }) {
-  // The allocated items, each judged in its own position: one solve for them all rather than one each.
-  const allocated = useMemo(() => {
-    const placed: Array<{ slot: PickSlot; pick: GearPick }> = [];
-    const at = (slot: PickSlot, id: number | undefined) => {
-      const pick = id !== undefined ? picks.get(id) : undefined;
-      if (pick) placed.push({ slot, pick });
-    };
-    for (const p of usedPoints) {
-      const leg = edit.rigging.legs[p.label];
-      for (const [role, key] of LEG_SLOTS) at({ role, legId: p.label, hitch: leg?.hitch ?? "straight" }, leg?.[key]);
-    }
-    at({ role: "masterLink" }, edit.rigging.masterLinkItemId);
-    at({ role: "crane" }, edit.rigging.craneItemId);
-    return placed;
-  }, [usedPoints, edit.rigging, picks]);
-  const judged = useMemo(
-    () => (body && tables ? judgePicks(body, allocated, tables) : null),
-    [body, tables, allocated],
-  );
-  const judgeFor = (slot: PickSlot) => {
-    if (!body || !tables) return undefined;
-    const here = allocated.find((a) => checkIdFor(a.slot) === checkIdFor(slot));
-    return (pick: GearPick) =>
-      here && here.pick === pick && judged
-        ? (judged.get(checkIdFor(slot)) ?? null)
-        : judgePick(body, slot, pick, tables);
-  };
+  // An allocated item's note is its own check in the live solve (the plan's check, as judgePick would give it:
+  // pick-fit.test.ts), so the move costs no solve per item; other candidates are judged one by one as listed.
+  const liveChecks = useMemo(() => new Map((solution?.checks ?? []).map((c) => [c.id, c as CheckResult])), [solution]);
+  const judgeFor = (slot: PickSlot, allocated: GearPick | null) =>
+    body && tables
+      ? (pick: GearPick) =>
+          pick === allocated && pick.spec.role === slot.role
+            ? (liveChecks.get(checkIdFor(slot)) ?? null)
+            : judgePick(body, slot, pick, tables)
+      : undefined;
   const legLoadKg = (label: string) => solution?.legs.find((l) => l.liftPointId === label)?.tensionKg ?? null;
 
   return (
@@ -98,26 +75,32 @@ export function GearTable({
           <tbody>
             {usedPoints.map((p) => {
               const leg = edit.rigging.legs[p.label];
-              const slot = (role: GearRole, key: "eyeboltItemId" | "shackleItemId" | "slingItemId") => (
-                <GearPicker
-                  role={role}
-                  label={`${GEAR_ROLE_LABELS[role]} for leg ${p.label}`}
-                  selected={leg?.[key] !== undefined ? (picks.get(leg[key]!) ?? null) : null}
-                  thread={role === "eyebolt" ? p.thread : null}
-                  loadKg={legLoadKg(p.label)}
-                  judge={judgeFor({
-                    role: role as "eyebolt" | "shackle" | "sling",
-                    legId: p.label,
-                    hitch: leg?.hitch ?? "straight",
-                  })}
-                  disabled={!canEdit}
-                  units={units}
-                  onPick={(pick) => {
-                    if (pick) addPick(pick);
-                    dispatch({ type: "allocate", label: p.label, slot: key, itemId: pick?.id ?? null });
-                  }}
-                />
-              );
+              const slot = (role: GearRole, key: "eyeboltItemId" | "shackleItemId" | "slingItemId") => {
+                const allocated = leg?.[key] !== undefined ? (picks.get(leg[key]!) ?? null) : null;
+                return (
+                  <GearPicker
+                    role={role}
+                    label={`${GEAR_ROLE_LABELS[role]} for leg ${p.label}`}
+                    selected={allocated}
+                    thread={role === "eyebolt" ? p.thread : null}
+                    loadKg={legLoadKg(p.label)}
+                    judge={judgeFor(
+                      {
+                        role: role as "eyebolt" | "shackle" | "sling",
+                        legId: p.label,
+                        hitch: leg?.hitch ?? "straight",
+                      },
+                      allocated,
+                    )}
+                    disabled={!canEdit}
+                    units={units}
+                    onPick={(pick) => {
+                      if (pick) addPick(pick);
+                      dispatch({ type: "allocate", label: p.label, slot: key, itemId: pick?.id ?? null });
+                    }}
+                  />
+                );
+              };
               return (
                 <tr key={p.label}>
                   <td className="font-semibold">{p.label}</td>
@@ -196,7 +179,12 @@ export function GearTable({
                   }
                   thread={null}
                   loadKg={snapshot.massKg * (1 + snapshot.contingencyPct / 100)}
-                  judge={judgeFor({ role: "masterLink" })}
+                  judge={judgeFor(
+                    { role: "masterLink" },
+                    edit.rigging.masterLinkItemId !== undefined
+                      ? (picks.get(edit.rigging.masterLinkItemId) ?? null)
+                      : null,
+                  )}
                   disabled={!canEdit}
                   units={units}
                   onPick={(pick) => {
@@ -224,7 +212,10 @@ export function GearTable({
                   }
                   thread={null}
                   loadKg={snapshot.massKg * (1 + snapshot.contingencyPct / 100)}
-                  judge={judgeFor({ role: "crane" })}
+                  judge={judgeFor(
+                    { role: "crane" },
+                    edit.rigging.craneItemId !== undefined ? (picks.get(edit.rigging.craneItemId) ?? null) : null,
+                  )}
                   disabled={!canEdit}
                   units={units}
                   onPick={(pick) => {
