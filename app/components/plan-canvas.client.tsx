@@ -162,20 +162,44 @@ export default function PlanCanvas(props: PlanCanvasProps) {
   const usedLabels = new Set(edit.arrangement.liftPointLabels);
   const candidates = edit.liftPoints.map((p) => P(p.position));
 
-  // Grid: the finest multiple of the step that keeps lines at least 12 px apart.
-  let step = gridM;
-  while (step * transform.scalePxPerM < 12) step *= 5;
-  const topLeft = screenToWorld(transform, 0, 0);
-  const bottomRight = screenToWorld(transform, width, height);
-  const gridLines: Array<{ points: number[]; major: boolean }> = [];
-  for (let a = Math.floor(topLeft.a / step) * step; a <= bottomRight.a; a += step) {
-    const x = S(a, 0).x;
-    gridLines.push({ points: [x, 0, x, height], major: Math.abs(a) < step / 2 });
-  }
-  for (let b = Math.floor(bottomRight.b / step) * step; b <= topLeft.b; b += step) {
-    const y = S(0, b).y;
-    gridLines.push({ points: [0, y, width, y], major: Math.abs(b) < step / 2 });
-  }
+  // The paper, backdrop and grid change only with the view (zoom, pan, size), never with a move: their own
+  // layer, built once per view, so Konva draws the moved figures without drawing the grid again.
+  const paper = useMemo(() => {
+    const S = (a: number, b: number) => worldToScreen(transform, a, b);
+    // Grid: the finest multiple of the step that keeps lines at least 12 px apart.
+    let step = gridM;
+    while (step * transform.scalePxPerM < 12) step *= 5;
+    const topLeft = screenToWorld(transform, 0, 0);
+    const bottomRight = screenToWorld(transform, width, height);
+    const gridLines: Array<{ points: number[]; major: boolean }> = [];
+    for (let a = Math.floor(topLeft.a / step) * step; a <= bottomRight.a; a += step) {
+      const x = S(a, 0).x;
+      gridLines.push({ points: [x, 0, x, height], major: Math.abs(a) < step / 2 });
+    }
+    for (let b = Math.floor(bottomRight.b / step) * step; b <= topLeft.b; b += step) {
+      const y = S(0, b).y;
+      gridLines.push({ points: [0, y, width, y], major: Math.abs(b) < step / 2 });
+    }
+    return (
+      <Layer listening={false}>
+        <Rect x={0} y={0} width={width} height={height} fill="#ffffff" />
+        {backdrop && (
+          <KonvaImage
+            name="backdrop"
+            image={backdrop.image}
+            x={S(backdrop.originA, backdrop.originB).x}
+            y={S(backdrop.originA, backdrop.originB).y}
+            scaleX={backdrop.metresPerPixel * transform.scalePxPerM}
+            scaleY={backdrop.metresPerPixel * transform.scalePxPerM}
+            opacity={backdrop.opacity}
+          />
+        )}
+        {gridLines.map((g, i) => (
+          <Line key={i} points={g.points} stroke={g.major ? COLOURS.gridMajor : COLOURS.grid} strokeWidth={1} />
+        ))}
+      </Layer>
+    );
+  }, [transform, width, height, gridM, backdrop]);
 
   const bar = scaleBarLengthM((width * 0.3) / transform.scalePxPerM);
 
@@ -301,22 +325,8 @@ export default function PlanCanvas(props: PlanCanvasProps) {
         onMouseLeave={() => (panStart.current = null)}
         style={{ cursor: onPick ? "crosshair" : "grab" }}
       >
+        {paper}
         <Layer listening={false}>
-          <Rect x={0} y={0} width={width} height={height} fill="#ffffff" />
-          {backdrop && (
-            <KonvaImage
-              name="backdrop"
-              image={backdrop.image}
-              x={S(backdrop.originA, backdrop.originB).x}
-              y={S(backdrop.originA, backdrop.originB).y}
-              scaleX={backdrop.metresPerPixel * transform.scalePxPerM}
-              scaleY={backdrop.metresPerPixel * transform.scalePxPerM}
-              opacity={backdrop.opacity}
-            />
-          )}
-          {gridLines.map((g, i) => (
-            <Line key={i} points={g.points} stroke={g.major ? COLOURS.gridMajor : COLOURS.grid} strokeWidth={1} />
-          ))}
           <Line
             name="load-outline"
             points={outlineShown.flatMap(({ a, b }) => {

@@ -1,7 +1,7 @@
 // The plan editor: two linked views of the load drawn to scale (Konva, browser only), a
 // properties panel for exact values, live results worked out in the browser by the statics core,
 // gear allocation, the hook-height chart and autosave through PUT /api/plans/:planId.
-import { lazy, Suspense, useCallback, useEffect, useId, useMemo, useReducer, useState } from "react";
+import { lazy, memo, Suspense, useCallback, useEffect, useId, useMemo, useReducer, useState } from "react";
 import type { ComponentDefinition } from "~/loads/component-definition";
 import type { LegFigure } from "~/components/plan-canvas.client";
 import { Button } from "~/components/ui/form";
@@ -15,6 +15,7 @@ import { LoadOverridePanel } from "~/components/plan-editor/load-override-panel"
 import { FiguresDiffer } from "~/components/plan-editor/figures-differ";
 import { TracingPanel, useTracing } from "~/components/plan-editor/tracing";
 import { useAutosave } from "~/components/plan-editor/use-autosave";
+import { useSettledValue } from "~/components/plan-editor/use-settled-value";
 import { useLiveSolve, type LiveSolution } from "~/components/plan-editor/use-live-solve";
 import { editorArrangementInput } from "~/plans/editor-input";
 import { toSolveBody } from "~/statics/api";
@@ -42,7 +43,17 @@ import { editorBeamPlacement } from "~/plans/beam-geometry";
 import type { ReferenceTables, RuleSetId } from "~/statics/reference";
 import { formatLength, type Units } from "~/utils/format";
 
-const PlanCanvas = lazy(() => import("~/components/plan-canvas.client"));
+// The drawings, the results and the gear table are drawn again only when their props change: a move
+// changes the figures, but a render for something else (a save's status, the chart catching up) leaves them.
+const PlanCanvas = lazy(() => import("~/components/plan-canvas.client").then((m) => ({ default: memo(m.default) })));
+const MemoLiveResults = memo(LiveResults);
+const MemoFiguresDiffer = memo(FiguresDiffer);
+const MemoGearTable = memo(GearTable);
+const noDispatch = () => undefined;
+/** How long the layout must rest before the hook-height chart sweeps it again, ms. */
+const CHART_SETTLE_MS = 150;
+/** The hook-height chart sweeps the layout: drawn again only when its inputs change. */
+const MemoHookHeightChart = memo(HookHeightChart);
 
 export type EditorPlan = {
   id: number;
@@ -97,6 +108,7 @@ export function PlanEditor({
   const addPick = useCallback((pick: GearPick) => setPicks((m) => new Map(m).set(pick.id, pick)), []);
 
   // The load as planned now: the component's mass unless the override (in the editor's state) gives another.
+  const component = useMemo(() => ({ ...plan.snapshot, ...plan.componentLoad }), [plan.snapshot, plan.componentLoad]);
   const planned = useMemo(
     () => ({ ...plan.snapshot, massKg: edit.override?.massKg ?? plan.componentLoad.massKg, cog: edit.cog }),
     [plan.snapshot, plan.componentLoad.massKg, edit.override, edit.cog],
@@ -132,24 +144,28 @@ export function PlanEditor({
   const shown: ResultState = live;
   const solution = shown.kind === "done" && shown.status === 200 ? (shown.body as LiveSolution) : null;
 
-  const hook =
-    solution?.hook ??
-    (edit.arrangement.mode === "level" ? { x: edit.cog.x, y: edit.cog.y, z: edit.arrangement.hookHeightM } : null);
-  const levelChange = (id: string) => {
-    const change = solution?.levelling?.legs.find((l) => l.liftPointId === id)?.changeM ?? 0;
-    return solution && solution.tiltDeg >= 0.05 && Math.abs(change) >= LEVELLING_STEP_M
-      ? ` · to level: ${change < 0 ? "shorten" : "lengthen"} ${formatLength(Math.abs(change), units)}`
-      : "";
-  };
-  const legFigures: LegFigure[] = (solution?.legs ?? []).map((leg) => ({
-    label: leg.liftPointId,
-    text: `${leg.liftPointId}: ${tensionText(leg.tensionKn, leg.tensionKg, units)} · ${leg.angleFromVerticalDeg.toFixed(1)}°${levelChange(leg.liftPointId)}`,
-    tone: legTone(standing(solution?.checks ?? [], leg.liftPointId)),
-    slack: leg.slack,
-  }));
+  const levelHookZ = edit.arrangement.mode === "level" ? edit.arrangement.hookHeightM : null;
+  const hook = useMemo(
+    () => solution?.hook ?? (levelHookZ !== null ? { x: edit.cog.x, y: edit.cog.y, z: levelHookZ } : null),
+    [solution, levelHookZ, edit.cog],
+  );
+  const legFigures = useMemo((): LegFigure[] => {
+    const levelChange = (id: string) => {
+      const change = solution?.levelling?.legs.find((l) => l.liftPointId === id)?.changeM ?? 0;
+      return solution && solution.tiltDeg >= 0.05 && Math.abs(change) >= LEVELLING_STEP_M
+        ? ` · to level: ${change < 0 ? "shorten" : "lengthen"} ${formatLength(Math.abs(change), units)}`
+        : "";
+    };
+    return (solution?.legs ?? []).map((leg) => ({
+      label: leg.liftPointId,
+      text: `${leg.liftPointId}: ${tensionText(leg.tensionKn, leg.tensionKg, units)} · ${leg.angleFromVerticalDeg.toFixed(1)}°${levelChange(leg.liftPointId)}`,
+      tone: legTone(standing(solution?.checks ?? [], leg.liftPointId)),
+      slack: leg.slack,
+    }));
+  }, [solution, units]);
 
   // The handle the arrow keys move in a focused drawing; the first lift point until another is chosen.
-  const handles = movableHandles(edit);
+  const handles = useMemo(() => movableHandles(edit), [edit]);
   const selected = handles.find((h) => handleKey(h) === selectedKey) ?? handles[0] ?? null;
   const selectHandle = useCallback((h: Handle) => setSelectedKey(handleKey(h)), []);
   const toggleSnap = useCallback(() => setSnap((s) => !s), []);
@@ -194,7 +210,28 @@ export function PlanEditor({
   const beam = useMemo(() => editorBeamPlacement(edit, picks), [edit, picks]);
   const viewWidth = viewsWidth >= 900 ? Math.floor((viewsWidth - 16) / 2) : viewsWidth;
   const viewHeight = Math.max(260, Math.min(460, Math.round(viewWidth * 0.75)));
-  const usedPoints = edit.liftPoints.filter((p) => edit.arrangement.liftPointLabels.includes(p.label));
+  const usedPoints = useMemo(
+    () => edit.liftPoints.filter((p) => edit.arrangement.liftPointLabels.includes(p.label)),
+    [edit.liftPoints, edit.arrangement.liftPointLabels],
+  );
+  // The chart sweeps the layout at 80 hook heights: it follows once the planner pauses, never in a move's frame.
+  const chartPoints = useMemo(
+    () =>
+      usedPoints.map((p) => ({
+        id: p.label,
+        position: p.position,
+        axis: p.axis,
+        ...(p.thread ? { thread: p.thread } : {}),
+      })),
+    [usedPoints],
+  );
+  const chart = useSettledValue(
+    useMemo(
+      () => ({ massKg: planned.massKg, cog: edit.cog, points: chartPoints, rigging: body?.rigging }),
+      [planned.massKg, edit.cog, chartPoints, body],
+    ),
+    CHART_SETTLE_MS,
+  );
 
   return (
     <div className="space-y-4">
@@ -301,7 +338,7 @@ export function PlanEditor({
                   units={units}
                   gridM={gridM}
                   snap={snap}
-                  dispatch={canEdit ? dispatch : () => undefined}
+                  dispatch={canEdit ? dispatch : noDispatch}
                   backdrop={view === "elevation" ? tracing.backdrop : null}
                   beam={beam}
                   onPick={tracing.calibration && view === "elevation" ? tracing.pickForCalibration : null}
@@ -340,23 +377,17 @@ export function PlanEditor({
           solution={solution}
           picks={picks}
         >
-          <LoadOverridePanel
-            edit={edit}
-            dispatch={dispatch}
-            canEdit={canEdit}
-            units={units}
-            component={{ ...plan.snapshot, ...plan.componentLoad }}
-          />
+          <LoadOverridePanel edit={edit} dispatch={dispatch} canEdit={canEdit} units={units} component={component} />
           <TracingPanel files={files} units={units} tracing={tracing} />
         </ArrangementPanel>
 
         <div className="space-y-2">
-          <FiguresDiffer live={live} saved={savedResults} save={save} units={units} />
-          <LiveResults state={shown} units={units} />
+          <MemoFiguresDiffer live={live} saved={savedResults} save={save} units={units} />
+          <MemoLiveResults state={shown} units={units} />
         </div>
       </div>
 
-      <GearTable
+      <MemoGearTable
         edit={edit}
         dispatch={dispatch}
         canEdit={canEdit}
@@ -371,16 +402,11 @@ export function PlanEditor({
       />
 
       {edit.arrangement.kind === "bridle" && (
-        <HookHeightChart
-          massKg={planned.massKg}
-          cog={edit.cog}
-          points={usedPoints.map((p) => ({
-            id: p.label,
-            position: p.position,
-            axis: p.axis,
-            ...(p.thread ? { thread: p.thread } : {}),
-          }))}
-          rigging={body?.rigging}
+        <MemoHookHeightChart
+          massKg={chart.massKg}
+          cog={chart.cog}
+          points={chart.points}
+          rigging={chart.rigging}
           tables={tables}
           ruleSet={ruleSet}
           currentHookZM={hook?.z ?? edit.arrangement.hookHeightM}

@@ -69,3 +69,19 @@ describe("the picker's fit note is the plan's check", () => {
     },
   );
 });
+
+describe("an allocated item's note can be read from the plan's own solve", () => {
+  it.each([0.3, 1, 2.5])(
+    "with the hook at %s m the allocated eyebolt's check in the plan's solve is judgePick's, field for field",
+    (z) => {
+      // The plan's rigging carries the item's inspection record; judgePick puts in the bare register spec.
+      // The inspection is judged apart from the position's rating, so the position's check is the same either way.
+      const planned = handleSolve(body(z, true), REFERENCE_TABLES);
+      if (planned.status !== 200) throw new Error("solve failed");
+      expect(body(z, true).rigging.legs?.A?.eyebolt?.inspection).toBeDefined();
+      const judged = judgePick(body(z, true), { role: "eyebolt", legId: "A" }, eyebolt, REFERENCE_TABLES);
+      expect(judged).not.toBeNull();
+      expect(planned.body.checks!.find((c) => c.id === "eyebolt-A")).toEqual(judged);
+    },
+  );
+});

@@ -1,14 +1,15 @@
 // Gear allocation: a picker from the register for each position of each used leg, the leg's hitch and eye
 // plane, and the master link and crane at the top.
+import { useMemo } from "react";
 import { GearPicker } from "~/components/gear-picker";
 import { HitchSelect, hitchesForLeg } from "~/components/hitch-select";
 import type { LiveSolution } from "~/components/plan-editor/use-live-solve";
 import type { ComponentDefinition } from "~/loads/component-definition";
 import { EYE_PLANE_LABELS, EYE_PLANES } from "~/plans/document";
 import type { EditorAction, PlanEdit } from "~/plans/editor-state";
-import { judgePick, type PickSlot } from "~/plans/pick-fit";
+import { checkIdFor, judgePick, type PickSlot } from "~/plans/pick-fit";
 import { GEAR_ROLE_LABELS, type GearPick, type GearRole } from "~/plans/rigging";
-import type { RiggingDescription } from "~/statics/check-types";
+import type { CheckResult, RiggingDescription } from "~/statics/check-types";
 import type { ReferenceTables } from "~/statics/reference";
 import type { Units } from "~/utils/format";
 
@@ -38,8 +39,16 @@ export function GearTable({
   body?: ({ rigging?: RiggingDescription } & Record<string, unknown>) | null;
   tables?: ReferenceTables | null;
 }) {
-  const judgeFor = (slot: PickSlot) =>
-    body && tables ? (pick: GearPick) => judgePick(body, slot, pick, tables) : undefined;
+  // An allocated item's note is its own check in the live solve (the plan's check, as judgePick would give it:
+  // pick-fit.test.ts), so the move costs no solve per item; other candidates are judged one by one as listed.
+  const liveChecks = useMemo(() => new Map((solution?.checks ?? []).map((c) => [c.id, c as CheckResult])), [solution]);
+  const judgeFor = (slot: PickSlot, allocated: GearPick | null) =>
+    body && tables
+      ? (pick: GearPick) =>
+          pick === allocated && pick.spec.role === slot.role
+            ? (liveChecks.get(checkIdFor(slot)) ?? null)
+            : judgePick(body, slot, pick, tables)
+      : undefined;
   const legLoadKg = (label: string) => solution?.legs.find((l) => l.liftPointId === label)?.tensionKg ?? null;
 
   return (
@@ -66,26 +75,32 @@ export function GearTable({
           <tbody>
             {usedPoints.map((p) => {
               const leg = edit.rigging.legs[p.label];
-              const slot = (role: GearRole, key: "eyeboltItemId" | "shackleItemId" | "slingItemId") => (
-                <GearPicker
-                  role={role}
-                  label={`${GEAR_ROLE_LABELS[role]} for leg ${p.label}`}
-                  selected={leg?.[key] !== undefined ? (picks.get(leg[key]!) ?? null) : null}
-                  thread={role === "eyebolt" ? p.thread : null}
-                  loadKg={legLoadKg(p.label)}
-                  judge={judgeFor({
-                    role: role as "eyebolt" | "shackle" | "sling",
-                    legId: p.label,
-                    hitch: leg?.hitch ?? "straight",
-                  })}
-                  disabled={!canEdit}
-                  units={units}
-                  onPick={(pick) => {
-                    if (pick) addPick(pick);
-                    dispatch({ type: "allocate", label: p.label, slot: key, itemId: pick?.id ?? null });
-                  }}
-                />
-              );
+              const slot = (role: GearRole, key: "eyeboltItemId" | "shackleItemId" | "slingItemId") => {
+                const allocated = leg?.[key] !== undefined ? (picks.get(leg[key]!) ?? null) : null;
+                return (
+                  <GearPicker
+                    role={role}
+                    label={`${GEAR_ROLE_LABELS[role]} for leg ${p.label}`}
+                    selected={allocated}
+                    thread={role === "eyebolt" ? p.thread : null}
+                    loadKg={legLoadKg(p.label)}
+                    judge={judgeFor(
+                      {
+                        role: role as "eyebolt" | "shackle" | "sling",
+                        legId: p.label,
+                        hitch: leg?.hitch ?? "straight",
+                      },
+                      allocated,
+                    )}
+                    disabled={!canEdit}
+                    units={units}
+                    onPick={(pick) => {
+                      if (pick) addPick(pick);
+                      dispatch({ type: "allocate", label: p.label, slot: key, itemId: pick?.id ?? null });
+                    }}
+                  />
+                );
+              };
               return (
                 <tr key={p.label}>
                   <td className="font-semibold">{p.label}</td>
@@ -164,7 +179,12 @@ export function GearTable({
                   }
                   thread={null}
                   loadKg={snapshot.massKg * (1 + snapshot.contingencyPct / 100)}
-                  judge={judgeFor({ role: "masterLink" })}
+                  judge={judgeFor(
+                    { role: "masterLink" },
+                    edit.rigging.masterLinkItemId !== undefined
+                      ? (picks.get(edit.rigging.masterLinkItemId) ?? null)
+                      : null,
+                  )}
                   disabled={!canEdit}
                   units={units}
                   onPick={(pick) => {
@@ -192,7 +212,10 @@ export function GearTable({
                   }
                   thread={null}
                   loadKg={snapshot.massKg * (1 + snapshot.contingencyPct / 100)}
-                  judge={judgeFor({ role: "crane" })}
+                  judge={judgeFor(
+                    { role: "crane" },
+                    edit.rigging.craneItemId !== undefined ? (picks.get(edit.rigging.craneItemId) ?? null) : null,
+                  )}
                   disabled={!canEdit}
                   units={units}
                   onPick={(pick) => {
