@@ -4,7 +4,7 @@
 import { Card, EmptyState } from "~/components/ui/form";
 import type { ApprovalRefusal, ReviewGearRow } from "~/plans/approval-readiness";
 import { PERSON_ROLE_LABELS, type PlanDetails } from "~/plans/document";
-import { formatLength, formatLoad, formatUtilisation, type Units } from "~/utils/format";
+import { formatAngle, formatLength, formatLoad, formatUtilisation, type Units } from "~/utils/format";
 
 const STATUS_TEXT: Record<ReviewGearRow["status"], string> = {
   in_service: "In service",
@@ -126,6 +126,20 @@ export function PeopleList({ people, none, testId }: { people: PlanDetails["peop
       ))}
     </ul>
   );
+}
+
+/** How the figures were found: the arrangement, whether the legs' shares are determinate, and the load's tilt. */
+export function figuresBasis(f: { beam: boolean; mode: string; method: string; tiltDeg: number }): string {
+  const arrangement = f.beam
+    ? "Vertical drops from a lifting beam"
+    : f.mode === "level"
+      ? "Level lift from one hook"
+      : "Given sling lengths";
+  const method =
+    f.method === "elastic"
+      ? "share of a rigid load on equally stretchy legs (four legs are statically indeterminate)"
+      : "statically determinate";
+  return `${arrangement} · ${method}${f.tiltDeg > 0.05 ? ` · the load tilts ${formatAngle(f.tiltDeg)}` : ""}`;
 }
 
 /** Why the approver cannot approve now: shown in place of the signature form, so no password is asked for. */

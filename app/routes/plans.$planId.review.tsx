@@ -7,7 +7,7 @@ import { GoverningSummary } from "~/components/results/governing-summary";
 import { LegTable } from "~/components/results/leg-table";
 import { LoadOverrideNotice } from "~/components/load-override-mark";
 import { PlanDrawing } from "~/components/plan-drawing";
-import { ApprovalRefusals, GearNowCard, PlanDetailsCards } from "~/components/review-sections";
+import { ApprovalRefusals, figuresBasis, GearNowCard, PlanDetailsCards } from "~/components/review-sections";
 import { Button, Card, Field, FormError, PageHeader, TextAreaField } from "~/components/ui/form";
 import { COG_SOURCE_LABELS, MASS_SOURCE_LABELS } from "~/loads/component-definition";
 import { parseForm, requireFormData, safeText } from "~/utils/forms";
@@ -15,7 +15,7 @@ import { planExists } from "~/models/plan.server";
 import { approveRevision, returnRevision } from "~/plans/workflow.server";
 import { PLAN_CAUTION, PLAN_STATUS_LABELS } from "~/plans/document";
 import { flashNotice, requireUserWithRole } from "~/utils/session.server";
-import { formatAngle, formatCapacity, formatLength, formatLoad, formatMass } from "~/utils/format";
+import { formatCapacity, formatLength, formatLoad, formatMass } from "~/utils/format";
 import { loadReview } from "./plans.$planId.review.server";
 
 const schema = z.discriminatedUnion("intent", [
@@ -146,16 +146,12 @@ export default function ReviewPlan({ loaderData, actionData }: Route.ComponentPr
             {results ? (
               <div className="space-y-2">
                 <p className="text-sm">
-                  {revision.results.kind === "beam"
-                    ? "Vertical drops from a lifting beam"
-                    : a.mode === "level"
-                      ? "Level lift from one hook"
-                      : "Given sling lengths"}
-                  {" · "}
-                  {results.method === "elastic"
-                    ? "share of a rigid load on equally stretchy legs (four legs are statically indeterminate)"
-                    : "statically determinate"}
-                  {results.tiltDeg > 0.05 ? ` · the load tilts ${formatAngle(results.tiltDeg)}` : ""}
+                  {figuresBasis({
+                    beam: revision.results.kind === "beam",
+                    mode: a.mode,
+                    method: results.method,
+                    tiltDeg: results.tiltDeg,
+                  })}
                 </p>
                 <LegTable
                   legs={results.legs}

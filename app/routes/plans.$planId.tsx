@@ -12,7 +12,7 @@ import { compareWithComponent, pullComponentVersion } from "~/plans/revisions.se
 import { assignRigger, cancelPlan, startNewRevision } from "~/plans/workflow.server";
 import { getWorkflowView, shownRevision, type WorkflowView } from "~/plans/workflow-view.server";
 import { listUsersWithRole } from "~/models/user.server";
-import { HazardTable, LiftConditions, PeopleList, SequenceList } from "~/components/review-sections";
+import { figuresBasis, HazardTable, LiftConditions, PeopleList, SequenceList } from "~/components/review-sections";
 import { WorkflowPanel, type WorkflowPanelData } from "~/components/plan-workflow-panel";
 import { ArrivedFromPhonePanel, type ArrivedFromPhone } from "~/components/arrived-from-phone";
 import { listPlanSubmissions } from "~/models/offline-submission.server";
@@ -25,7 +25,7 @@ import { GoverningSummary } from "~/components/results/governing-summary";
 import { LegTable } from "~/components/results/leg-table";
 import { StatusBadge } from "~/components/results/status-badge";
 import { standing } from "~/plans/check-text";
-import { formatAngle, formatCapacity, formatLength, formatLoad, formatMass, type Units } from "~/utils/format";
+import { formatCapacity, formatLength, formatLoad, formatMass, type Units } from "~/utils/format";
 
 const schema = z.discriminatedUnion("intent", [
   z.object({ intent: z.literal("pull-component"), version: z.coerce.number().int().positive() }),
@@ -179,16 +179,7 @@ function Results({ results, units }: { results: PlanResults; units: Units }) {
   return (
     <div className="space-y-4">
       <p className="text-sm">
-        {results.kind === "beam"
-          ? "Vertical drops from a lifting beam"
-          : r.mode === "level"
-            ? "Level lift from one hook"
-            : "Given sling lengths"}
-        {" · "}
-        {r.method === "elastic"
-          ? "share of a rigid load on equally stretchy legs (four legs are statically indeterminate)"
-          : "statically determinate"}
-        {r.tiltDeg > 0.05 ? ` · the load tilts ${formatAngle(r.tiltDeg)}` : ""}
+        {figuresBasis({ beam: results.kind === "beam", mode: r.mode, method: r.method, tiltDeg: r.tiltDeg })}
         {" · computed on "}
         {results.computedOn}
       </p>
