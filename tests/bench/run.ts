@@ -81,7 +81,13 @@ function print(results: BenchResult[]) {
 
 // Quick by default: the printed plan and every role's pages on a mid-sized organisation (under a minute after the
 // build). `npm run bench -- --full`: the statics core, the 10,000-plan / 50,000-item organisation and the long load.
+// `--only=pdf,pages,postgres,editor` runs just those sections of the quick run (while working on one of them).
 const full = process.argv.includes("--full");
+const only = process.argv
+  .find((arg) => arg.startsWith("--only="))
+  ?.slice("--only=".length)
+  .split(",");
+const wanted = (section: string) => !only || only.includes(section);
 const benchStarted = performance.now();
 const results = full
   ? [
@@ -92,8 +98,12 @@ const results = full
       ...(await runPagesBench("full")),
       ...(await runPostgresBench("full")),
     ]
-  : [...(await runPdfBench()), ...(await runPagesBench("quick")), ...(await runPostgresBench("quick"))];
-print([...results, ...(await runEditorBench())]);
+  : [
+      ...(wanted("pdf") ? await runPdfBench() : []),
+      ...(wanted("pages") ? await runPagesBench("quick") : []),
+      ...(wanted("postgres") ? await runPostgresBench("quick") : []),
+    ];
+print([...results, ...(wanted("editor") ? await runEditorBench() : [])]);
 console.log(
-  `bench (${full ? "full" : "quick"}) took ${((performance.now() - benchStarted) / 1000).toFixed(0)} s after the build`,
+  `bench (${full ? "full" : only ? only.join(", ") : "quick"}) took ${((performance.now() - benchStarted) / 1000).toFixed(0)} s after the build`,
 );
