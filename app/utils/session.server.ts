@@ -1,4 +1,5 @@
-import { createCookieSessionStorage, data, redirect } from "react-router";
+import { AsyncLocalStorage } from "node:async_hooks";
+import { createCookieSessionStorage, data, redirect, type MiddlewareFunction } from "react-router";
 import { env } from "~/utils/env.server";
 import type { SessionUser } from "~/models/user.server";
 import {
@@ -41,14 +42,27 @@ function isApiRequest(request: Request) {
 
 type SignedIn = { user: SessionUser; sessionId: number };
 
-// The root loader and the route's loader both ask for the user of one request; the second gets the first's answer.
+// Code that asks for the user several times with one Request gets the first answer.
 const signedInByRequest = new WeakMap<Request, Promise<SignedIn | null>>();
 
+/**
+ * The root loader and the route's loader of one page each get a Request object of their own (React Router rebuilds
+ * each loader's), so the page's loaders share their session lookup through this scope, which the root middleware
+ * opens for each GET or HEAD: one read of the session user per page. A POST is not shared: its action may change
+ * the user (units, name) before the loaders run again.
+ */
+const pageRequestScope = new AsyncLocalStorage<{ signedIn?: Promise<SignedIn | null> }>();
+
+export const sharedSessionLookupMiddleware: MiddlewareFunction<Response> = ({ request }, next) =>
+  request.method === "GET" || request.method === "HEAD" ? pageRequestScope.run({}, next) : next();
+
 function signedIn(request: Request): Promise<SignedIn | null> {
-  let found = signedInByRequest.get(request);
+  const scope = pageRequestScope.getStore();
+  let found = scope?.signedIn ?? signedInByRequest.get(request);
   if (!found) {
     found = lookUpSession(request);
     signedInByRequest.set(request, found);
+    if (scope) scope.signedIn = found;
   }
   return found;
 }

@@ -15,7 +15,8 @@ import { setUserActive } from "~/models/user.server";
 import { sequelize } from "~/utils/db.server";
 import { env } from "~/utils/env.server";
 import { getUser } from "~/utils/session.server";
-import { callRoute, makeUser, postForm, TEST_PASSWORD } from "../support/factories";
+import { createAppHandler } from "../support/app-handler";
+import { callRoute, makeUser, postForm, sessionCookie, TEST_PASSWORD } from "../support/factories";
 
 const BASE = "http://localhost:3000";
 const T0 = new Date("2030-05-06T07:00:00Z").getTime();
@@ -275,6 +276,37 @@ describe("the user's own sessions in settings", () => {
 });
 
 describe("the cost of a signed-in request", () => {
+  /** The session statements (the user's lookup by token) run while `run` does. */
+  async function sessionLookups(run: () => Promise<unknown>) {
+    const statements: string[] = [];
+    const original = sequelize.query.bind(sequelize) as (sql: unknown, options: unknown) => Promise<unknown>;
+    const query = vi.spyOn(sequelize, "query").mockImplementation(((sql: unknown, options: unknown) => {
+      statements.push(String(sql));
+      return original(sql, options);
+    }) as typeof sequelize.query);
+    try {
+      await run();
+    } finally {
+      query.mockRestore();
+    }
+    return statements.filter((sql) => /FROM sessions s/.test(sql)).length;
+  }
+
+  it("a page's root loader and its own loader share one read of the session user", async () => {
+    const handle = await createAppHandler();
+    const user = await makeUser(["planner"]);
+    const cookie = await sessionCookie(user);
+    const page = (path: string) => handle(new Request(`${BASE}${path}`, { headers: { Cookie: cookie } }));
+    let res: Response | undefined;
+    expect(await sessionLookups(async () => (res = await page("/components")))).toBe(1);
+    expect(res?.status).toBe(200);
+    // The same for a client navigation's data request, which runs both loaders too.
+    expect(await sessionLookups(async () => (res = await page("/components.data")))).toBe(1);
+    expect(res?.status).toBe(200);
+    // Each request reads afresh: a session ended between two pages is not carried from one to the next.
+    expect(await sessionLookups(() => page("/components"))).toBe(1);
+  });
+
   it("is one statement, found through the token's index; the last-seen time is written at most every few minutes", async () => {
     const user = await makeUser(["planner"]);
     setClock(T0);
