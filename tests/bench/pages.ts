@@ -9,6 +9,7 @@ import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { signInCookie, startBuiltServer } from "../support/built-server";
+import { pingsDuring, type Stall } from "./stall";
 import type { BenchResult } from "./statics";
 
 export type Mode = "quick" | "full";
@@ -26,7 +27,14 @@ export const TARGETS = {
   smallVsBigRegister: 1.2,
   p95At50Ms: 100,
   sealedPdfMs: 20,
+  /** No request delayed by more than this by an export running beside it. */
+  stallMs: 50,
 } as const;
+
+/** A stall as a result line: the worst ping's delay over the median ping alone. */
+function delayResult(stall: Stall, target = Number.NaN) {
+  return { value: stall.delayMs, unit: "ms", target, ok: Number.isNaN(target) || stall.delayMs <= target };
+}
 
 type CannonRequest = {
   name: string;
@@ -390,16 +398,31 @@ export async function runPagesBench(mode: Mode): Promise<BenchResult[]> {
       ok: pdfMs <= TARGETS.sealedPdfMs,
     });
 
-    // The register export: time, size, and how far the worker's peak memory rose while it ran.
+    // Other requests beside prints: pings sent while one client prints the sealed plan ten times over.
+    const besidePrints = await pingsDuring(base, cookies.planner, async () => {
+      for (let i = 0; i < 10; i++) await timed(`${base}/plans/${pdfPlan}/print.pdf`, cookies.rigger);
+    });
+    console.log(
+      `pages: ${besidePrints.pings} pings beside 10 sealed prints: worst ${besidePrints.worstMs.toFixed(0)} ms ` +
+        `against ${besidePrints.baselineMs.toFixed(1)} ms alone`,
+    );
+    note({ name: "ping delayed by sealed prints (worst)", ...delayResult(besidePrints) });
+
+    // The register export: time, size, how far the worker's peak memory rose and how long pings waited while it ran.
     const before = workerMemory(server.pid);
-    const exported = await timed(`${base}/gear/export.csv`, cookies.admin);
+    let exported: Awaited<ReturnType<typeof timed>> | undefined;
+    const besideExport = await pingsDuring(base, cookies.planner, async () => {
+      exported = await timed(`${base}/gear/export.csv`, cookies.admin);
+    });
     const after = workerMemory(server.pid);
     const rise = Math.max(...after.map((a) => a.peakMb - (before.find((b) => b.pid === a.pid)?.peakMb ?? a.peakMb)));
     console.log(
-      `pages: export of ${sizes.gear.toLocaleString("en-GB")} items: ${exported.status}, ` +
-        `${(exported.bytes / 1024).toFixed(0)} KB compressed, ${exported.ms.toFixed(0)} ms`,
+      `pages: export of ${sizes.gear.toLocaleString("en-GB")} items: ${exported!.status}, ` +
+        `${(exported!.bytes / 1024).toFixed(0)} KB compressed, ${exported!.ms.toFixed(0)} ms; ` +
+        `${besideExport.pings} pings beside it, worst ${besideExport.worstMs.toFixed(0)} ms`,
     );
     note({ name: "export: worker peak memory rise", value: rise, unit: "MB", target: 50, ok: rise <= 50 });
+    note({ name: "ping delayed by the export (worst)", ...delayResult(besideExport, TARGETS.stallMs) });
     return results;
   } finally {
     await server?.stop();
