@@ -1,6 +1,8 @@
 // The mail a plan's steps send: submitted -> the appointed persons; approved or returned -> the
 // planner; assigned -> the rigger; an allocated item of an approved plan no longer fit -> the planner,
-// the appointed person and the assigned rigger. Each message links to the plan.
+// the appointed person and the assigned rigger; a lift record from a phone that arrived refused, or
+// recorded though the gear changed after the lift -> the planner (and, when refused, the appointed
+// person). Each message links to the plan.
 import type { SessionUser } from "~/models/user.server";
 import type { LiveProblem } from "~/plans/live-state";
 import { absoluteUrl, sendMail } from "~/utils/mail.server";
@@ -132,4 +134,42 @@ export async function mailNotFitToLift(
       plan.id,
       request,
     );
+}
+
+/**
+ * A lift record made on a phone without signal arrived and was refused (the plan could not take it), or was recorded
+ * though the allocated gear changed after the lift was made. The rigger's phone says so; this tells the people who
+ * must follow it up.
+ */
+export async function mailArrivedFromPhone(
+  organisationId: number,
+  to: readonly Recipient[],
+  rigger: SessionUser,
+  plan: PlanRef,
+  arrived: { madeAt: string; refusal?: string; changes: ReadonlyArray<{ message: string }> },
+  request?: Request,
+) {
+  const made = `${rigger.name} recorded the lift to "${plan.title}", revision ${plan.revision}, on a phone without signal (made ${arrived.madeAt}).`;
+  const lines = arrived.refusal
+    ? [
+        made,
+        "When it arrived it could not be recorded:",
+        "",
+        arrived.refusal,
+        "",
+        "The record as typed is kept on the plan's page. Speak to the rigger: if the lift was made, find out with what gear, and have the gear examined before it is used again.",
+      ]
+    : [
+        made,
+        "It is recorded as made, but the gear changed after the lift was made:",
+        "",
+        ...arrived.changes.map((c) => `- ${c.message}`),
+        "",
+        "Check the gear named above before it is used again.",
+      ];
+  const subject = arrived.refusal
+    ? `Lift record from a phone NOT RECORDED: ${plan.title} (revision ${plan.revision})`
+    : `Lift recorded from a phone, gear changed since: ${plan.title} (revision ${plan.revision})`;
+  // One message each: every one of them must act on it, whoever else was told.
+  for (const person of to) await notify(organisationId, [person], subject, lines, plan.id, request);
 }

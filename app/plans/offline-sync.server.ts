@@ -15,13 +15,17 @@ import {
   settleSubmission,
   type OfflineSubmission,
 } from "~/models/offline-submission.server";
-import { planExists } from "~/models/plan.server";
+import { getOrganisation } from "~/models/organisation.server";
+import { getPlan, planExists } from "~/models/plan.server";
+import { getOrganisationUser } from "~/models/user.server";
 import type { SessionUser } from "~/models/user.server";
 import { recordLift } from "~/plans/lift.server";
+import { mailArrivedFromPhone } from "~/plans/notifications.server";
 import type { LiveProblem } from "~/plans/live-state";
 import { watchAllocatedGear } from "~/plans/live-state.server";
 import { ENTITY } from "~/plans/workflow-context.server";
 import { readLiftForm } from "~/routes/plans.$planId.lift.server";
+import { formatDateTime } from "~/utils/dates";
 import { parseForm, safeText } from "~/utils/forms";
 import { checkUpload, type CheckedUpload } from "~/utils/uploads.server";
 
@@ -96,13 +100,19 @@ export async function receiveSubmission(user: SessionUser, form: FormData, reque
       clientId,
       "The phone's clock says this work was made in the future: set the phone's clock and send again.",
     );
-  if (kind === "lift") return receiveLift(user, form, envelope.data.planId, { clientId, madeAt, receivedAt });
+  if (kind === "lift") return receiveLift(user, form, envelope.data.planId, { clientId, madeAt, receivedAt }, request);
   return receiveDefect(user, form, envelope.data.itemId, { clientId, madeAt, receivedAt }, request);
 }
 
 type Stamp = { clientId: string; madeAt: Date; receivedAt: Date };
 
-async function receiveLift(user: SessionUser, form: FormData, planId: number | undefined, stamp: Stamp) {
+async function receiveLift(
+  user: SessionUser,
+  form: FormData,
+  planId: number | undefined,
+  stamp: Stamp,
+  request?: Request,
+) {
   if (!user.roles.includes("rigger"))
     return invalid(
       stamp.clientId,
@@ -160,7 +170,10 @@ async function receiveLift(user: SessionUser, form: FormData, planId: number | u
         );
       },
     });
-    if (result.ok) return answerFrom((await findSubmission(user.organisationId, stamp.clientId))!, false);
+    if (result.ok) {
+      if (changes.length) await tellPlanner(user, planId, stamp, { changes }, request);
+      return answerFrom((await findSubmission(user.organisationId, stamp.clientId))!, false);
+    }
     if (result.status === 400) {
       // Input to put right: nothing was written, the id may come again with the corrected record.
       await releaseSubmission(claim.id);
@@ -182,10 +195,43 @@ async function receiveLift(user: SessionUser, form: FormData, planId: number | u
       action: "lift from phone refused",
       details: { madeAt: stamp.madeAt.toISOString(), reason: result.message },
     });
+    await tellPlanner(user, planId, stamp, { refusal: result.message, changes: [] }, request);
     return answerFrom((await findSubmission(user.organisationId, stamp.clientId))!, false);
   } catch (error) {
     await releaseSubmission(claim.id);
     throw error;
+  }
+}
+
+/**
+ * Mails the plan's planner (and, for a refused record, the appointed person who approved it) about a lift record
+ * that arrived refused or with gear changed since. The record is settled first: a mail that cannot go changes
+ * nothing of it, and the plan page shows the same.
+ */
+async function tellPlanner(
+  rigger: SessionUser,
+  planId: number,
+  stamp: Stamp,
+  arrived: { refusal?: string; changes: readonly ArrivedChange[] },
+  request?: Request,
+) {
+  try {
+    const found = await getPlan(rigger.organisationId, planId);
+    if (!found) return;
+    const { plan, revision } = found;
+    const ids = [revision.plannedBy, ...(arrived.refusal && revision.approvedBy ? [revision.approvedBy] : [])];
+    const people = await Promise.all([...new Set(ids)].map((id) => getOrganisationUser(rigger.organisationId, id)));
+    const timeZone = (await getOrganisation(rigger.organisationId))?.timeZone ?? "UTC";
+    await mailArrivedFromPhone(
+      rigger.organisationId,
+      people.filter((p) => p !== null && p.id !== rigger.id).map((p) => ({ name: p!.name, email: p!.email })),
+      rigger,
+      { id: plan.id, title: plan.title, revision: revision.revision },
+      { ...arrived, madeAt: formatDateTime(stamp.madeAt, timeZone) },
+      request,
+    );
+  } catch {
+    // The record stands as settled; the planner sees it on the plan's page.
   }
 }
 

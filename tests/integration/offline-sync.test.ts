@@ -4,6 +4,7 @@ import { randomUUID } from "node:crypto";
 import { describe, expect, it } from "vitest";
 import * as sync from "~/routes/api.sync";
 import * as planPage from "~/routes/plans.$planId";
+import { CaughtMail } from "~/models/caught-mail.server";
 import { LiftRecord } from "~/models/lift-record.server";
 import { OfflineSubmission } from "~/models/offline-submission.server";
 import { PlanRevision } from "~/models/plan.server";
@@ -46,6 +47,10 @@ function liftFields(gearIds: number[], landed: Date) {
 
 type Answer = { outcome: string; message: string; field?: string | null; changes?: Array<{ kind: string }> };
 
+/** The mail about lift records arriving from phones, as the catcher holds it. */
+const arrivalMail = async (org: number) =>
+  (await CaughtMail.findAll({ where: { organisationId: org } })).filter((m) => /from a phone/.test(m.subject));
+
 async function send(fields: Record<string, string>, user: { id: number }) {
   const result = await callRoute(sync.action, await postMultipart("/api/sync", fields, {}, user));
   return { status: result.status, answer: result.data as Answer };
@@ -53,7 +58,7 @@ async function send(fields: Record<string, string>, user: { id: number }) {
 
 describe("work sent from a phone without signal", () => {
   it("records a lift once however often it arrives, with when it was made and when it arrived", async () => {
-    const { plan, rigger, gear } = await approved();
+    const { plan, rigger, gear, org } = await approved();
     const madeAt = new Date(Date.now() - 20 * 60_000);
     const envelope = { clientId: randomUUID(), kind: "lift", planId: String(plan.id), madeAt: madeAt.toISOString() };
     const fields = {
@@ -80,6 +85,8 @@ describe("work sent from a phone without signal", () => {
     expect(row.madeAt.toISOString()).toBe(madeAt.toISOString());
     expect(row.receivedAt.getTime()).toBeGreaterThan(madeAt.getTime());
     expect(row.liftRecordId).not.toBeNull();
+    // Nothing changed in between: nobody needs a mail about it.
+    expect(await arrivalMail(org)).toHaveLength(0);
   });
 
   it("keeps a record made while the plan was fit, and reports gear quarantined after it was made", async () => {
@@ -112,10 +119,19 @@ describe("work sent from a phone without signal", () => {
       .arrivedFromPhone;
     expect(arrived).toHaveLength(1);
     expect(arrived[0]!.changes).toHaveLength(1);
+
+    // And is told by mail, once, with the item that changed; the appointed person is not troubled with it.
+    await send(fields, rigger);
+    const mail = await arrivalMail(org);
+    expect(mail).toHaveLength(1);
+    expect(mail[0]!.toAddress).toContain(planner.email);
+    expect(mail[0]!.subject).toMatch(/^Lift recorded from a phone, gear changed since/);
+    expect(mail[0]!.textBody).toContain(gear.slingA.itemCode);
+    expect(mail[0]!.textBody).toContain(`/plans/${plan.id}`);
   });
 
   it("refuses a record made after the gear was quarantined, keeps what was typed, and says so once", async () => {
-    const { plan, rigger, planner, gear, org } = await approved();
+    const { plan, rigger, planner, approver, gear, org } = await approved();
     expect((await changeGearStatus(org, gear.slingB.id, { status: "quarantined", reason: "Cut" }, planner.id)).ok).toBe(
       true,
     );
@@ -140,6 +156,18 @@ describe("work sent from a phone without signal", () => {
     expect(await LiftRecord.count({ where: { revisionId: revision.id } })).toBe(0);
     const row = (await OfflineSubmission.findOne({ where: { clientId: fields.clientId } }))!;
     expect(JSON.parse(row.payload!)).toContainEqual(["notes", "Landed without signal in the plant room."]);
+
+    // The planner and the appointed person who approved the plan are each told once, with the reason.
+    const mail = await arrivalMail(org);
+    expect(mail).toHaveLength(2);
+    expect(mail.map((m) => m.toAddress)).toEqual(
+      expect.arrayContaining([expect.stringContaining(planner.email), expect.stringContaining(approver.email)]),
+    );
+    for (const m of mail) {
+      expect(m.subject).toMatch(/^Lift record from a phone NOT RECORDED/);
+      expect(m.textBody).toContain("NOT FIT TO LIFT");
+      expect(m.textBody).toContain(rigger.name);
+    }
   });
 
   it("sends a record with a field to put right back as invalid, writes nothing, and takes it again corrected", async () => {
