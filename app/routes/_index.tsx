@@ -27,27 +27,43 @@ export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request);
   const roles = user.roles;
   const showsJobs = roles.includes("planner") || roles.includes("rigger");
-  const openJobs = showsJobs
-    ? (
-        await listJobsPage(
+  const isAdmin = roles.includes("admin");
+  // Independent reads, started together: each waits on the database while the others' rows are read.
+  const [openJobs, pendingInvites, today, drafts, toReview, lifts] = await Promise.all([
+    showsJobs
+      ? listJobsPage(
           user.organisationId,
           { cursor: null, towards: "next", limit: DASHBOARD_JOBS },
           { status: "open" },
+        ).then((page) =>
+          page.rows.map((j) => ({
+            id: j.id,
+            workOrder: j.workOrder,
+            title: j.title,
+            site: j.site,
+            startsOn: j.startsOn,
+          })),
         )
-      ).rows.map((j) => ({ id: j.id, workOrder: j.workOrder, title: j.title, site: j.site, startsOn: j.startsOn }))
-    : [];
-  const openJobCount = openJobs.length < DASHBOARD_JOBS ? openJobs.length : await countOpenJobs(user.organisationId);
-  const pendingInvites = roles.includes("admin") ? await listPendingInvitations(user.organisationId, 20) : [];
-  const today = roles.includes("admin") ? await getOrganisationToday(user.organisationId) : "";
+      : [],
+    isAdmin ? listPendingInvitations(user.organisationId, 20) : [],
+    isAdmin ? getOrganisationToday(user.organisationId) : "",
+    roles.includes("planner") ? plannerQueue(user.organisationId) : [],
+    roles.includes("approver") ? reviewQueue(user.organisationId) : [],
+    roles.includes("rigger") ? riggerQueue(user.organisationId, user.id) : { mine: [], unassigned: [] },
+  ]);
+  const [openJobCount, gearAttentionNow] = await Promise.all([
+    openJobs.length < DASHBOARD_JOBS ? openJobs.length : countOpenJobs(user.organisationId),
+    isAdmin ? gearAttention(user.organisationId, today) : null,
+  ]);
   return {
     user: { name: user.name, roles, organisationName: user.organisationName },
     openJobs,
     openJobCount,
     pendingInvites,
-    drafts: roles.includes("planner") ? await plannerQueue(user.organisationId) : [],
-    toReview: roles.includes("approver") ? await reviewQueue(user.organisationId) : [],
-    lifts: roles.includes("rigger") ? await riggerQueue(user.organisationId, user.id) : { mine: [], unassigned: [] },
-    gearAttention: roles.includes("admin") ? await gearAttention(user.organisationId, today) : null,
+    drafts,
+    toReview,
+    lifts,
+    gearAttention: gearAttentionNow,
   };
 }
 
