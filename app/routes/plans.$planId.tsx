@@ -73,8 +73,12 @@ function panelData(workflow: WorkflowView): WorkflowPanelData {
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUser(request);
   const { plan, revision } = await requirePlan(user.organisationId, params.planId);
-  const comparison = await compareWithComponent(user.organisationId, revision);
-  const workflow = await getWorkflowView(user.organisationId, plan.id, user, { plan, revision });
+  // Independent reads, started together: each waits on the database while the others' rows are read.
+  const [comparison, workflow, submissions] = await Promise.all([
+    compareWithComponent(user.organisationId, revision),
+    getWorkflowView(user.organisationId, plan.id, user, { plan, revision }),
+    listPlanSubmissions(user.organisationId, plan.id),
+  ]);
   // An approved or completed revision shows its sealed record.
   const shown = shownRevision({ plan, revision }, workflow);
   return {
@@ -90,7 +94,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     riggers: workflow?.permissions["assign-rigger"].allowed
       ? (await listUsersWithRole(user.organisationId, "rigger")).map((r) => ({ id: r.id, name: r.name }))
       : [],
-    arrivedFromPhone: (await listPlanSubmissions(user.organisationId, plan.id)).map((s): ArrivedFromPhone => ({
+    arrivedFromPhone: submissions.map((s): ArrivedFromPhone => ({
       clientId: s.clientId,
       outcome: s.outcome,
       message: s.message,
