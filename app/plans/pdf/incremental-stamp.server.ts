@@ -12,11 +12,11 @@ import {
   drawRectangle,
   lineSplit,
   PDFDocument,
+  PDFHexString,
   PDFName,
   PDFString,
   rgb,
   type PDFFont,
-  type PDFHexString,
   type PDFOperator,
   type PDFPage,
   type PDFPageDrawRectangleOptions,
@@ -122,11 +122,32 @@ function infoWithDates(body: Buffer, frame: Frame, printedAt: string): string | 
   return `<<${kept.trimEnd()}\n/CreationDate ${date}\n/ModDate ${date}\n>>`;
 }
 
-/** The stamp fonts of this process: the same base subsets as in every body, for measuring and glyph ids. */
-type Reference = { fonts: Fonts; ts: Typesetter; base: ReadonlySet<number>; keys: Map<PDFFont, PDFName> };
-let reference: Promise<Reference> | null = null;
+/**
+ * The stamp fonts of this process: the same base subsets as in every body, for measuring, and per weight the base
+ * subset's glyph id (as 4 hex digits) of each character it holds, so a print encodes its text without shaping it.
+ */
+type Reference = {
+  fonts: Fonts;
+  ts: Typesetter;
+  glyphs: Map<PDFFont, Map<string, string>>;
+  keys: Map<PDFFont, PDFName>;
+};
+let reference: Promise<Reference | null> | null = null;
 
-function referenceFonts(): Promise<Reference> {
+/**
+ * Each base character's glyph id in the weight's base subset, as pdf-lib's shaping (features off) gives it; null
+ * if the base text shaped whole differs from its characters one by one (then no character is encoded alone).
+ */
+function baseGlyphs(font: PDFFont, codePoints: ReadonlySet<number>): Map<string, string> | null {
+  const chars = [...new Set(STAMP_BASE_TEXT)].filter((c) => codePoints.has(c.codePointAt(0)!));
+  const glyphs = new Map(chars.map((c) => [c, font.encodeText(c).asString()]));
+  const whole = font.encodeText(chars.join("")).asString();
+  return whole === chars.map((c) => glyphs.get(c)).join("") && [...glyphs.values()].every((g) => g.length === 4)
+    ? glyphs
+    : null;
+}
+
+function referenceFonts(): Promise<Reference | null> {
   reference ??= (async () => {
     const files = loadFontFiles();
     const pdf = await PDFDocument.create({ updateMetadata: false });
@@ -136,12 +157,18 @@ function referenceFonts(): Promise<Reference> {
       [regular, files.regular],
       [semibold, files.semibold],
     ]);
-    const base = new Set([...STAMP_BASE_TEXT].map((c) => c.codePointAt(0)!).filter((cp) => files.codePoints.has(cp)));
+    const regularGlyphs = baseGlyphs(regular, files.codePoints);
+    const semiboldGlyphs = baseGlyphs(semibold, files.codePoints);
+    if (!regularGlyphs || !semiboldGlyphs) return null;
+    const glyphs = new Map([
+      [regular, regularGlyphs],
+      [semibold, semiboldGlyphs],
+    ]);
     const keys = new Map([
       [regular, PDFName.of(FONT_KEYS.regular)],
       [semibold, PDFName.of(FONT_KEYS.semibold)],
     ]);
-    return { fonts: { regular, semibold }, ts: new Typesetter(files.codePoints, fileOf), base, keys };
+    return { fonts: { regular, semibold }, ts: new Typesetter(files.codePoints, fileOf), glyphs, keys };
   })();
   return reference;
 }
@@ -149,24 +176,20 @@ function referenceFonts(): Promise<Reference> {
 /** Thrown while recording when a text needs a glyph the base subset lacks. */
 class BeyondBaseSubset extends Error {}
 
-type Embedder = { subset: { glyphs: unknown[] } };
-
 /** Records what liveHeaderAndFooter draws as the operators pdf-lib's page would write, in the base subset's glyphs. */
 class StampRecorder implements StampCanvas {
   readonly operators: PDFOperator[] = [];
   constructor(private readonly ref: Reference) {}
 
   private encode(font: PDFFont, line: string): PDFHexString {
-    for (const ch of line) if (!this.ref.base.has(ch.codePointAt(0)!)) throw new BeyondBaseSubset();
-    const subset = (font as unknown as { embedder: Embedder }).embedder.subset;
-    const glyphs = subset.glyphs.length;
-    const encoded = font.encodeText(line);
-    if (subset.glyphs.length !== glyphs) {
-      // A glyph the base lacks after all: this process's reference fonts are no longer the bodies' base subsets.
-      reference = null;
-      throw new BeyondBaseSubset();
+    const glyphs = this.ref.glyphs.get(font);
+    let hex = "";
+    for (const ch of line) {
+      const glyph = glyphs?.get(ch);
+      if (glyph === undefined) throw new BeyondBaseSubset();
+      hex += glyph;
     }
-    return encoded;
+    return PDFHexString.of(hex);
   }
 
   drawText(text: string, options: PDFPageDrawTextOptions = {}) {
@@ -216,6 +239,7 @@ class StampRecorder implements StampCanvas {
 /** The stamp's content stream: the live band and the printed line, the same on every page. */
 async function stampContent(plan: PrintablePlan): Promise<string | null> {
   const ref = await referenceFonts();
+  if (!ref) return null;
   const recorder = new StampRecorder(ref);
   try {
     liveHeaderAndFooter(recorder, ref.fonts, ref.ts, plan, chromeFor(plan, ref.fonts, ref.ts));
@@ -256,7 +280,38 @@ export async function stampIncrementally(kept: Uint8Array, plan: PrintablePlan):
   return new Uint8Array(Buffer.concat([body, Buffer.from(update, "latin1")]));
 }
 
-/** Readies this process's stamp (the reference fonts, the code of a print) before the first print needs it. */
+/**
+ * Readies this process's stamp before its first print needs it: the code and the fonts loaded, the reference
+ * subsets made, and one stamp written onto a small marked document, so that the first prints run warm. Yields to
+ * the event loop between the steps.
+ */
 export async function warmIncrementalStamp() {
+  const turn = () => new Promise((resolve) => setImmediate(resolve));
   await referenceFonts();
+  await turn();
+  const pdf = await PDFDocument.create({ updateMetadata: false });
+  pdf.addPage();
+  pdf.setTitle("Stamp check");
+  pdf.context.register(pdf.context.stream("", { [STAMP_MARK]: true }));
+  const body = await pdf.save({ useObjectStreams: false });
+  await turn();
+  const problem = { itemId: 0, itemCode: "X-0", position: "A", kind: "quarantined" as const, since: null, detail: "" };
+  const sample = {
+    title: "Stamp check",
+    status: "approved",
+    revision: 1,
+    job: { workOrder: "W-0" },
+    site: { name: "Site" },
+    printedAt: new Date(0).toISOString(),
+    printedBy: "Stamp check",
+    live: {
+      fit: false,
+      checkedAt: new Date(0).toISOString(),
+      liftDate: "1970-01-01",
+      problems: [{ ...problem, message: "X-0 (A) is quarantined." }],
+    },
+  } as unknown as PrintablePlan;
+  await stampIncrementally(body, sample);
+  await turn();
+  await stampIncrementally(body, { ...sample, live: { ...sample.live!, fit: true, problems: [] } });
 }
