@@ -18,13 +18,18 @@ export function sealedBodyKey(plan: PrintablePlan): string {
 
 /**
  * The PDF of one print of a sealed revision. With a kept body only the stamp runs, here on the request's
- * thread (a few milliseconds: no hop to the builder thread, which a process may not have started yet);
+ * thread (about a millisecond as an incremental update, a few drawn in full; no hop to the builder thread, which a
+ * process may not have started yet);
  * without one the body is built on the builder thread and kept.
  */
 export async function printSealedPlan(plan: PrintablePlan, revisionId: number): Promise<Uint8Array> {
   const key = sealedBodyKey(plan);
   const kept = await getSealedPrintBody(key);
   if (kept) {
+    // The incremental stamp first: its code is small and readied when the server starts (utils/serve.server.ts).
+    const { stampIncrementally } = await import("~/plans/pdf/incremental-stamp.server");
+    const stamped = await stampIncrementally(kept, plan);
+    if (stamped) return stamped;
     const { stampPrint } = await import("~/plans/pdf/build.server");
     return stampPrint(kept, plan);
   }
