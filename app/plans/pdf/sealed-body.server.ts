@@ -62,8 +62,8 @@ export async function printSealedPlan(plan: PrintablePlan, revisionId: number): 
     const { stampIncrementally } = await import("~/plans/pdf/incremental-stamp.server");
     const stamped = await stampIncrementally(kept, plan);
     if (stamped) return stamped;
-    const { stampPrint } = await import("~/plans/pdf/build.server");
-    return stampPrint(kept, plan);
+    const { stampPrintInFull } = await import("~/plans/pdf/build.server");
+    return stampPrintInFull(kept, plan);
   }
   const { bytes, body } = await printPlanPdfOffThread(plan, null);
   if (body) {
