@@ -347,6 +347,24 @@ export async function listRevisionSummaries(planId: number) {
   return PlanRevision.findAll({ where: { planId }, attributes: [...REVISION_SUMMARY] });
 }
 
+/** A revision as a print chooses and names it: where it stands and its seal (never its documents or sealed record). */
+export type RevisionSeal = Pick<PlanRevision, "id" | "planId" | "revision" | "status" | "fingerprint" | "verifyToken">;
+
+/** Every revision of the plan with where it stands and its seal's fingerprint and verify token, as plain rows. */
+export async function listRevisionSeals(planId: number): Promise<RevisionSeal[]> {
+  return PlanRevision.findAll({
+    where: { planId },
+    attributes: ["id", "planId", "revision", "status", "fingerprint", "verifyToken"],
+    raw: true,
+  });
+}
+
+/** The revision's sealed record as stored (JSON), or null. */
+export async function getRevisionSealed(planId: number, revisionId: number): Promise<string | null> {
+  const row = await PlanRevision.findOne({ where: { id: revisionId, planId }, attributes: ["sealed"], raw: true });
+  return row?.sealed ?? null;
+}
+
 /** One revision of the plan in full, or null. */
 export async function getPlanRevision(planId: number, revisionId: number) {
   return PlanRevision.findOne({ where: { id: revisionId, planId } });

@@ -169,9 +169,9 @@ describe("the printed plan of a typical lift (two legs, Furley Engineering 'Slin
       .split("\n")
       .slice(2)
       .filter((l) => l.trim() !== "");
-    // The sealed body's two weights, and the regular weight of the printed line stamped on it (this
-    // fixture has no live band, which would add the stamp's semibold).
-    expect(rows.length).toBe(3);
+    // The sealed body's two weights, and the stamp's two (the printed line and the live band), which the
+    // body holds ready for every print's stamp.
+    expect(rows.length).toBe(4);
     const names = rows.map((row) => {
       const [name, , , , emb, sub] = row.split(/\s+/);
       expect(name).toMatch(/^[A-Z]{6}\+Barlow-(Regular|SemiBold)$/);
@@ -179,7 +179,7 @@ describe("the printed plan of a typical lift (two legs, Furley Engineering 'Slin
       expect(sub).toBe("yes");
       return name!.slice(7);
     });
-    expect(names.sort()).toEqual(["Barlow-Regular", "Barlow-Regular", "Barlow-SemiBold"]);
+    expect(names.sort()).toEqual(["Barlow-Regular", "Barlow-Regular", "Barlow-SemiBold", "Barlow-SemiBold"]);
   });
 
   it("carries a QR code on page 1 that decodes to the verify URL", () => {

@@ -2,7 +2,7 @@
 // completed one, as the record of its lift), with the gear's state now. Nothing is read from the
 // plan's live rows.
 import { getLiftRecord } from "~/models/lift-record.server";
-import { getPlanRevision, getPlanRow, listRevisionSummaries, type PlanRevision } from "~/models/plan.server";
+import { getPlanRow, getRevisionSealed, listRevisionSeals, type RevisionSeal } from "~/models/plan.server";
 import { userNames, type SessionUser } from "~/models/user.server";
 import { PLAN_STATUS_LABELS, type PlanStatus } from "~/plans/document";
 import { liveStateOf } from "~/plans/live-state.server";
@@ -14,15 +14,38 @@ export type PrintableOutcome =
   | { ok: true; printable: PrintablePlan; revision: number; revisionId: number }
   | { ok: false; status: 404 | 409; message: string; planId: number };
 
-const latest = (rows: PlanRevision[], status: PlanRevision["status"]) =>
+const latest = <R extends Pick<RevisionSeal, "status" | "revision">>(rows: R[], status: R["status"]) =>
   rows.filter((r) => r.status === status).sort((a, b) => b.revision - a.revision)[0] ?? null;
 
 /** Why nothing of the plan prints, from where its working revision stands. */
-function notPrintable(working: PlanRevision | undefined): string {
+function notPrintable(working: Pick<RevisionSeal, "status" | "revision"> | undefined): string {
   const status: PlanStatus = working?.status ?? "draft";
   const where = `Revision ${working?.revision ?? 1} is ${status === "draft" ? "a draft" : PLAN_STATUS_LABELS[status].toLowerCase()}`;
   if (status === "cancelled") return `The plan is cancelled, so it is not printed. ${where}.`;
   return `The plan has no approved revision to print yet. ${where}: it prints once an appointed person has approved it.`;
+}
+
+/**
+ * Sealed records read lately, by revision and fingerprint. A revision's sealed record never changes once sealed
+ * (its fingerprint is its hash), so a reprint neither reads nor parses it again in this process.
+ */
+const recentSealed = new Map<string, SealedPlan>();
+const RECENT_SEALED = 64;
+
+async function sealedRecordOf(row: RevisionSeal): Promise<SealedPlan | null> {
+  const key = `${row.id}:${row.fingerprint}`;
+  const known = recentSealed.get(key);
+  if (known) {
+    // Most recently used last: the first is the one to drop.
+    recentSealed.delete(key);
+    recentSealed.set(key, known);
+    return known;
+  }
+  const sealed = readSealed(await getRevisionSealed(row.planId, row.id));
+  if (!sealed) return null;
+  recentSealed.set(key, sealed);
+  if (recentSealed.size > RECENT_SEALED) recentSealed.delete(recentSealed.keys().next().value!);
+  return sealed;
 }
 
 /** The printable plan for the plan's current approved revision, else its completed one; 409 with the reason otherwise. */
@@ -33,16 +56,14 @@ export async function buildPrintablePlan(
 ): Promise<PrintableOutcome> {
   const plan = await getPlanRow(user.organisationId, planId);
   if (!plan) return { ok: false, status: 404, message: "There is no such plan in your organisation.", planId };
-  // Where each revision stands first; then the one printed, in full.
-  const revisions = await listRevisionSummaries(plan.id);
-  const chosen = latest(revisions, "approved") ?? latest(revisions, "completed");
-  if (!chosen) {
+  // Where each revision stands and its seal first; then the sealed record of the one printed.
+  const revisions = await listRevisionSeals(plan.id);
+  const row = latest(revisions, "approved") ?? latest(revisions, "completed");
+  if (!row) {
     const working = revisions.find((r) => r.id === plan.currentRevisionId);
     return { ok: false, status: 409, message: notPrintable(working), planId };
   }
-  const row = await getPlanRevision(plan.id, chosen.id);
-  if (!row) return { ok: false, status: 404, message: "There is no such plan in your organisation.", planId };
-  const sealed = readSealed(row.sealed);
+  const sealed = row.fingerprint && row.verifyToken ? await sealedRecordOf(row) : null;
   if (!sealed || !row.fingerprint || !row.verifyToken) {
     return {
       ok: false,
@@ -68,7 +89,7 @@ export async function buildPrintablePlan(
 /** The printable plan of a sealed revision, printed now by `user` in their units. */
 export function printableFrom(
   user: SessionUser,
-  row: PlanRevision,
+  row: Pick<RevisionSeal, "status" | "fingerprint" | "verifyToken">,
   sealed: SealedPlan,
   request: Request,
   extra: Pick<PrintablePlan, "live" | "liftRecord">,

@@ -162,6 +162,7 @@ async function startWorker(settings: Settings) {
   const onListening = () => {
     if (cluster.isPrimary) console.log(`Plumbline on ${address(settings)}`);
     process.send?.({ listening: true });
+    setImmediate(warmPrinting);
   };
   const { host, port } = settings;
   const server = host ? app.listen(port, host, onListening) : app.listen(port, onListening);
@@ -177,6 +178,18 @@ async function startWorker(settings: Settings) {
   };
   process.once("SIGTERM", stop);
   process.once("SIGINT", stop);
+}
+
+/**
+ * Loads and runs the stamp of a printed plan once while the worker is idle after it starts listening, so that its
+ * first prints of a kept body are not slowed by code and fonts loaded on demand.
+ */
+function warmPrinting() {
+  import("~/plans/pdf/incremental-stamp.server")
+    .then(({ warmIncrementalStamp }) => warmIncrementalStamp())
+    .catch((error: unknown) =>
+      console.error(`The print stamp could not be readied: ${error instanceof Error ? error.message : String(error)}`),
+    );
 }
 
 function startPrimary(settings: Settings) {

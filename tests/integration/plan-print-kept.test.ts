@@ -77,6 +77,9 @@ describe("printing a sealed revision again", () => {
     // Not built again: the kept body was stamped.
     expect(sealedBodiesBuilt()).toBe(builtBefore + 1);
     expect(await SealedPrintBody.count()).toBe(1);
+    // Stamped as an incremental update: the kept body's bytes go out unchanged, the stamp follows them.
+    const kept = (await SealedPrintBody.findOne())!.body;
+    expect(Buffer.from(second.subarray(0, kept.length)).equals(kept)).toBe(true);
     const secondText = flatText(second);
     expect(pageCount(second)).toBe(pages);
     expect(count(secondText, "NOT FIT TO LIFT as checked")).toBe(pages);

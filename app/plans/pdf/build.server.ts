@@ -9,6 +9,7 @@ import { embedBarlow } from "~/plans/pdf/fonts.server";
 import { A4_HEIGHT_PT, Flow, MARGIN_BOTTOM, MARGIN_TOP, Typesetter } from "~/plans/pdf/layout.server";
 import { hazardsSection, checklistSection, sequenceSection, siteSection } from "~/plans/pdf/lift-sections.server";
 import { checksSection, riggingSection, scheduleSection } from "~/plans/pdf/rigging-sections.server";
+import { reserveStamp, stampIncrementally } from "~/plans/pdf/incremental-stamp.server";
 import { embedStampFonts } from "~/plans/pdf/stamp-fonts.server";
 import { loadSection, titleBlock } from "~/plans/pdf/title-block.server";
 import type { PrintablePlan } from "~/plans/printable";
@@ -24,7 +25,8 @@ export const sealedBodiesBuilt = () => bodiesBuilt;
  */
 export async function buildSealedBody(plan: PrintablePlan): Promise<Uint8Array> {
   bodiesBuilt += 1;
-  const pdf = await PDFDocument.create();
+  // No dates of its own: each print's are those of the print, so the body is the same bytes whenever it is built.
+  const pdf = await PDFDocument.create({ updateMetadata: false });
   const { fonts, codePoints, files } = await embedBarlow(pdf, plan.fingerprint);
   const ts = new Typesetter(codePoints, files);
   const qrPng = await QRCode.toBuffer(plan.verifyUrl, { errorCorrectionLevel: "M", margin: 2, scale: 6 });
@@ -53,14 +55,25 @@ export async function buildSealedBody(plan: PrintablePlan): Promise<Uint8Array> 
   checklistSection(flow);
 
   sealedHeaderAndFooter(flow.pages, fonts, ts, plan, chrome);
-  return pdf.save();
+  await reserveStamp(pdf, flow.pages);
+  // A classic xref table and trailer, which each print's incremental update follows.
+  return pdf.save({ useObjectStreams: false });
 }
 
 /**
- * One print: the kept sealed body with the live band and the printed line drawn on every page. Its own
- * subset of Barlow (only the characters stamped) is embedded once and shared by the pages.
+ * One print: the kept sealed body with the live band and the printed line on every page. As an incremental
+ * update of the body when it can be (incremental-stamp.server.ts), else drawn in full.
  */
 export async function stampPrint(body: Uint8Array, plan: PrintablePlan): Promise<Uint8Array> {
+  return (await stampIncrementally(body, plan)) ?? stampPrintInFull(body, plan);
+}
+
+/**
+ * One print drawn in full: the kept sealed body loaded, the live band and the printed line drawn on every page,
+ * and the whole saved again. Its own subset of Barlow (only the characters stamped) is embedded once and shared by
+ * the pages.
+ */
+export async function stampPrintInFull(body: Uint8Array, plan: PrintablePlan): Promise<Uint8Array> {
   const pdf = await PDFDocument.load(body, { updateMetadata: false });
   const { fonts, codePoints, files } = await embedStampFonts(pdf);
   const ts = new Typesetter(codePoints, files);

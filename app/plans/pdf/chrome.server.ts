@@ -23,11 +23,11 @@ import {
   type Tone,
   type Typesetter,
 } from "~/plans/pdf/layout.server";
-import { drawLiveBand, LIVE_BAND_H, liveBand, type LiveBand } from "~/plans/pdf/live-band.server";
+import { drawLiveBand, LIVE_BAND_H, liveBand, type LiveBand, type StampCanvas } from "~/plans/pdf/live-band.server";
 import type { PrintablePlan } from "~/plans/printable";
 
 /** Text drawn on `page` aligned at x. */
-function drawer(page: PDFPage, ts: Typesetter) {
+function drawer(page: StampCanvas, ts: Typesetter) {
   return (raw: string, x: number, y: number, style: Style, align: "left" | "right" | "center" = "left") => {
     const text = ts.clean(raw);
     const w = ts.width(text, style.font, style.size);
@@ -65,7 +65,13 @@ export function headerAndFooter(
  * "Printed <when> by <whom>" line at the foot. Drawn last, over the sealed page, in the places
  * the sealed layout leaves for them.
  */
-export function liveHeaderAndFooter(page: PDFPage, fonts: Fonts, ts: Typesetter, plan: PrintablePlan, chrome: Chrome) {
+export function liveHeaderAndFooter(
+  page: StampCanvas,
+  fonts: Fonts,
+  ts: Typesetter,
+  plan: PrintablePlan,
+  chrome: Chrome,
+) {
   if (chrome.band) drawLiveBand(page, chrome.band, headerRuleY(chrome) - 4, fonts);
   drawer(page, ts)(`Printed ${utcText(plan.printedAt)} by ${plan.printedBy}`, LEFT, MARGIN_BOTTOM, {
     font: fonts.regular,

@@ -11,6 +11,9 @@ import type { PrintablePlan } from "~/plans/printable";
 export const LIVE_BAND_H = 36;
 const PAD_X = 6;
 
+/** What the live parts of a page are drawn on: a pdf-lib page, or the recorder of an incremental stamp. */
+export type StampCanvas = Pick<PDFPage, "drawText" | "drawRectangle">;
+
 export type LiveBand = { tone: "pass" | "fail" | "neutral"; heading: string; detail: string[] };
 
 /** The band for the printed copy, or null when it has nothing to say (a print made without the live state). */
@@ -55,7 +58,7 @@ export function liveBand(plan: PrintablePlan, fonts: Fonts, ts: Typesetter): Liv
 }
 
 /** Draws the band with its top at `yTop` (pt from the bottom of the page). */
-export function drawLiveBand(page: PDFPage, band: LiveBand, yTop: number, fonts: Fonts) {
+export function drawLiveBand(page: StampCanvas, band: LiveBand, yTop: number, fonts: Fonts) {
   const fill = band.tone === "fail" ? TONE.fail : band.tone === "pass" ? hex("#e3f1e8") : hex("#e4edf3");
   const ink = band.tone === "fail" ? WHITE : band.tone === "pass" ? TONE.pass : STEEL;
   page.drawRectangle({

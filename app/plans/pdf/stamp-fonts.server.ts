@@ -18,7 +18,12 @@ type Embedder = {
 /** Per font file: the deflated program of the base subset and how many glyphs it holds. */
 const keptPrograms = new Map<Uint8Array, { glyphs: number; deflated: Uint8Array }>();
 
-async function embedStampFont(pdf: PDFDocument, file: Uint8Array, postscriptName: string): Promise<PDFFont> {
+/**
+ * A weight of Barlow embedded as the stamp's base subset: its glyphs are those of STAMP_BASE_TEXT, numbered in
+ * that order, so the same character has the same glyph id in every document that embeds it this way.
+ */
+export async function embedBaseSubset(pdf: PDFDocument, file: Uint8Array, postscriptName: string): Promise<PDFFont> {
+  pdf.registerFontkit(cachingFontkit);
   const font = await pdf.embedFont(file, {
     subset: true,
     features: PLAIN_GLYPHS,
@@ -26,6 +31,11 @@ async function embedStampFont(pdf: PDFDocument, file: Uint8Array, postscriptName
   });
   const codePoints = loadFontFiles().codePoints;
   font.encodeText([...STAMP_BASE_TEXT].filter((c) => codePoints.has(c.codePointAt(0)!)).join(""));
+  return font;
+}
+
+async function embedStampFont(pdf: PDFDocument, file: Uint8Array, postscriptName: string): Promise<PDFFont> {
+  const font = await embedBaseSubset(pdf, file, postscriptName);
   // pdf-lib's embedder: the font program is written when the document is saved, from the subset's glyphs.
   const embedder = (font as unknown as { embedder: Embedder }).embedder;
   const base = embedder.subset.glyphs.length;
