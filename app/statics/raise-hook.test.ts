@@ -69,9 +69,9 @@ describe("the search's one-item check", () => {
       if (!level.ok) continue;
       const all = checkRigging(level.solution, load.massKg, load.cog, points, rigging, REFERENCE_TABLES, "2026-01-05");
       for (const id of ids) {
-        expect(checkLegItem(level.solution, points, rigging, REFERENCE_TABLES, id)).toEqual(
-          all.find((c) => c.id === id),
-        );
+        const want = all.find((c) => c.id === id);
+        expect(want).toBeDefined();
+        expect(checkLegItem(level.solution, points, rigging, REFERENCE_TABLES, id)).toEqual(want);
         compared++;
       }
       // Not a leg item's check: nothing.
