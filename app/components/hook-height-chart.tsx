@@ -78,11 +78,7 @@ export function HookHeightChart({
     series.map((s, i) => `${i ? "L" : "M"}${X(s.z).toFixed(1)},${f(s).toFixed(1)}`).join(" ");
   const current = Math.min(Math.max(currentHookZM, zMin), zMax);
   return (
-    // At the foot of the editor: while it is off screen, a move does not lay it out or paint it.
-    <section
-      className="rounded border border-rule bg-card p-4 [contain-intrinsic-size:auto_420px] [content-visibility:auto]"
-      aria-labelledby="hook-chart-heading"
-    >
+    <section className="rounded border border-rule bg-card p-4" aria-labelledby="hook-chart-heading">
       <h2 id="hook-chart-heading" className="text-lg">
         Hook height: design load, capacities and sling angle
       </h2>

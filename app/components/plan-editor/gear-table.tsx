@@ -52,11 +52,7 @@ export function GearTable({
   const legLoadKg = (label: string) => solution?.legs.find((l) => l.liftPointId === label)?.tensionKg ?? null;
 
   return (
-    // Below the drawings and the figures: while it is off screen, a move does not lay it out or paint it.
-    <section
-      className="rounded border border-rule bg-card p-4 [contain-intrinsic-size:auto_600px] [content-visibility:auto]"
-      aria-labelledby="gear-heading"
-    >
+    <section className="rounded border border-rule bg-card p-4" aria-labelledby="gear-heading">
       <h2 id="gear-heading" className="text-lg">
         Gear from the register
       </h2>
