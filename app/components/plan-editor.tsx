@@ -11,6 +11,7 @@ import { tensionText } from "~/components/results/leg-table";
 import { ArrangementPanel } from "~/components/plan-editor/arrangement-panel";
 import { toEdit, useElementWidth } from "~/components/plan-editor/fields";
 import { GearTable } from "~/components/plan-editor/gear-table";
+import { HandleRadios } from "~/components/plan-editor/handle-radios";
 import { LoadOverridePanel } from "~/components/plan-editor/load-override-panel";
 import { FiguresDiffer } from "~/components/plan-editor/figures-differ";
 import { TracingPanel, useTracing } from "~/components/plan-editor/tracing";
@@ -49,6 +50,27 @@ const PlanCanvas = lazy(() => import("~/components/plan-canvas.client").then((m)
 const MemoLiveResults = memo(LiveResults);
 const MemoFiguresDiffer = memo(FiguresDiffer);
 const MemoGearTable = memo(GearTable);
+// The override reads the edit's override and CoG only, so a move of a lift point leaves it as it is.
+const MemoLoadOverridePanel = memo(
+  LoadOverridePanel,
+  (a, b) =>
+    a.edit.override === b.edit.override &&
+    a.edit.cog === b.edit.cog &&
+    a.dispatch === b.dispatch &&
+    a.canEdit === b.canEdit &&
+    a.units === b.units &&
+    a.component === b.component,
+);
+// The tracing's actions are built from its state, so the same state draws the same panel.
+const MemoTracingPanel = memo(
+  TracingPanel,
+  (a, b) =>
+    a.files === b.files &&
+    a.units === b.units &&
+    a.tracing.backdrop === b.tracing.backdrop &&
+    a.tracing.calibration === b.tracing.calibration &&
+    a.tracing.calibrationDistance === b.tracing.calibrationDistance,
+);
 const noDispatch = () => undefined;
 /** How long the layout must rest before the hook-height chart sweeps it again, ms. */
 const CHART_SETTLE_MS = 150;
@@ -298,21 +320,7 @@ export function PlanEditor({
         turns snapping on and off; Ctrl+S saves at once. Grid {formatLength(gridM, units)}.
       </p>
       {canEdit && (
-        <fieldset className="no-print flex flex-wrap items-center gap-x-4 gap-y-1 text-sm">
-          <legend className="float-left mr-2 font-semibold">The arrow keys move</legend>
-          {handles.map((h) => (
-            <label key={handleKey(h)} className="flex items-center gap-1">
-              <input
-                type="radio"
-                name="moved-handle"
-                value={handleKey(h)}
-                checked={selected !== null && handleKey(selected) === handleKey(h)}
-                onChange={() => selectHandle(h)}
-              />
-              {handleName(h)}
-            </label>
-          ))}
-        </fieldset>
+        <HandleRadios handles={handles} selectedKey={selected && handleKey(selected)} onSelect={selectHandle} />
       )}
 
       <div ref={viewsRef} className="grid gap-4 xl:grid-cols-2">
@@ -377,8 +385,14 @@ export function PlanEditor({
           solution={solution}
           picks={picks}
         >
-          <LoadOverridePanel edit={edit} dispatch={dispatch} canEdit={canEdit} units={units} component={component} />
-          <TracingPanel files={files} units={units} tracing={tracing} />
+          <MemoLoadOverridePanel
+            edit={edit}
+            dispatch={dispatch}
+            canEdit={canEdit}
+            units={units}
+            component={component}
+          />
+          <MemoTracingPanel files={files} units={units} tracing={tracing} />
         </ArrangementPanel>
 
         <div className="space-y-2">

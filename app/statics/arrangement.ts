@@ -5,7 +5,7 @@ import { checkSentence } from "~/plans/check-text";
 import { solveBeamArrangement, type BeamSpec } from "./beam-arrangement";
 import { solveGivenLengths, solveLevel, type LiftPoint } from "./bridle";
 import type { Check, RiggingDescription } from "./check-types";
-import { angleChecks, checkRigging } from "./checks";
+import { angleChecks, checkLegItem, checkRigging } from "./checks";
 import { lowestPassingHookZ } from "./raise-hook";
 import type { ReferenceTables, RuleSetId } from "./reference";
 import { toCheckResult, toResponseBody, uniqueById, type ArrangementOutcome } from "./response";
@@ -75,7 +75,8 @@ function solveBridle(input: ArrangementInput, hanging: Exclude<Hanging, BeamHang
       : angleChecks(solution, tables, ruleSet);
   const checks = checkAt(outcome.solution);
   if (input.fit !== undefined) checks.push(checkFitTilt(outcome.solution, input.fit, levelling, ruleSet));
-  if (hanging.kind === "level" && input.rigging !== undefined) {
+  const { rigging } = input;
+  if (hanging.kind === "level" && rigging !== undefined) {
     // A leg item over its rating in a level lift: the hook height at which the same item would pass.
     const reach = Math.max(
       0.1,
@@ -88,7 +89,8 @@ function solveBridle(input: ArrangementInput, hanging: Exclude<Hanging, BeamHang
       const z = lowestPassingHookZ(
         (hookZM) => {
           const level = solveLevel(load, liftPoints, hookZM);
-          return level.ok && checkAt(level.solution).find((x) => x.id === c.id)?.verdict === "pass";
+          // The item's own check only: the same verdict checkAt gives it, without every other check each step.
+          return level.ok && checkLegItem(level.solution, lifted, rigging, tables, c.id, ruleSet)?.verdict === "pass";
         },
         hanging.hookZM,
         top,

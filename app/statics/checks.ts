@@ -143,6 +143,79 @@ export function grossLoads(massKg: number, rigging: RiggingDescription, beamMass
 }
 
 /**
+ * The checks of one leg's own items (sling leg, shackle, eyebolt, in that order) under the leg's design
+ * tension with contingency, the sling as the assembly rates it and the items' inspection records; null
+ * for a leg without rigging.
+ */
+function legItemChecks(
+  solution: BridleSolution,
+  i: number,
+  liftPoints: ReadonlyArray<LiftPointInfo & { axis?: Vec3 }>,
+  rigging: RiggingDescription,
+  tables: ReferenceTables,
+  ruleSet: RuleSetId,
+) {
+  const leg = solution.legs[i]!;
+  const id = leg.liftPointId;
+  const legsRigging = rigging.legs ?? {};
+  const lr = Object.hasOwn(legsRigging, id) ? legsRigging[id] : undefined;
+  if (!lr) return null;
+  const legLoadKg =
+    (solution.rating.legs[i]?.designTensionKg ?? leg.tensionKg) * contingencyFactor(rigging.contingencyPct);
+  const checks: Check[] = [];
+  const inspections: Array<{ name: string; record: InspectionRecord }> = [];
+  let slingSpec: SlingSpec | null = null;
+  const point = liftPoints.find((p) => p.id === id);
+  const axis = point?.axis ?? { x: 0, y: 0, z: 1 };
+  if (lr.sling) {
+    const allowed = allowedHitches(lr.sling, lr);
+    // A hitch that cannot be made earns no factor in the sling's rating either.
+    slingSpec = allowed.includes(lr.sling.hitch) ? lr.sling : { ...lr.sling, hitch: "straight" };
+    checks.push(checkSlingLeg(id, legLoadKg, lr.sling, tables, { ruleSet, allowedHitches: allowed }));
+    if (lr.sling.inspection) inspections.push({ name: `Sling leg ${id}`, record: lr.sling.inspection });
+  }
+  if (lr.shackle) {
+    const sideLoad = shackleSideLoad(leg.direction, axis, lr.eyePlane, lr.eyebolt, leg.axisAngleDeg);
+    checks.push(checkShackle(id, legLoadKg, lr.shackle, tables, { ruleSet, sideLoad }));
+    if (lr.shackle.inspection) inspections.push({ name: `Shackle at ${id}`, record: lr.shackle.inspection });
+  }
+  if (lr.eyebolt) {
+    checks.push(
+      checkEyebolt(id, legLoadKg, leg.axisAngleDeg, lr.eyebolt, point?.thread, tables, {
+        ruleSet,
+        geometry: { pull: leg.direction, axis, plane: lr.eyePlane },
+      }),
+    );
+    if (lr.eyebolt.inspection) inspections.push({ name: `Eyebolt at ${id}`, record: lr.eyebolt.inspection });
+  }
+  return { checks, inspections, slingSpec };
+}
+
+/**
+ * The check of one leg item (id "sling-leg-A", "shackle-A", "eyebolt-A") exactly as checkRigging has it for
+ * the same solution and rigging, worked out without the rest: a search that asks after one item's verdict
+ * at many hook heights runs this instead of every check.
+ */
+export function checkLegItem(
+  solution: BridleSolution,
+  liftPoints: ReadonlyArray<LiftPointInfo & { axis?: Vec3 }>,
+  rigging: RiggingDescription,
+  tables: ReferenceTables,
+  checkId: string,
+  ruleSet: RuleSetId = DEFAULT_RULE_SET,
+): Check | undefined {
+  for (let i = 0; i < solution.legs.length; i++) {
+    const id = solution.legs[i]!.liftPointId;
+    if (checkId !== `sling-leg-${id}` && checkId !== `shackle-${id}` && checkId !== `eyebolt-${id}`) continue;
+    const found = legItemChecks(solution, i, liftPoints, rigging, tables, ruleSet)?.checks.find(
+      (c) => c.id === checkId,
+    );
+    if (found) return found;
+  }
+  return undefined;
+}
+
+/**
  * Every check for a solved bridle and its rigging description. Leg loads use the rating's design
  * tensions (elastic or rule, whichever is larger) times the contingency factor.
  */
@@ -161,37 +234,13 @@ export function checkRigging(
   const results: Check[] = angleChecks(solution, tables, ruleSet);
   const factor = contingencyFactor(rigging.contingencyPct);
   const inspections: Array<{ name: string; record: InspectionRecord }> = [];
-  const legsRigging = rigging.legs ?? {};
   const slingSpecs: SlingSpec[] = [];
   for (let i = 0; i < solution.legs.length; i++) {
-    const leg = solution.legs[i]!;
-    const id = leg.liftPointId;
-    const legLoadKg = (solution.rating.legs[i]?.designTensionKg ?? leg.tensionKg) * factor;
-    const lr = Object.hasOwn(legsRigging, id) ? legsRigging[id] : undefined;
-    if (!lr) continue;
-    const point = liftPoints.find((p) => p.id === id);
-    const axis = point?.axis ?? { x: 0, y: 0, z: 1 };
-    if (lr.sling) {
-      const allowed = allowedHitches(lr.sling, lr);
-      // A hitch that cannot be made earns no factor in the sling's rating either.
-      slingSpecs.push(allowed.includes(lr.sling.hitch) ? lr.sling : { ...lr.sling, hitch: "straight" });
-      results.push(checkSlingLeg(id, legLoadKg, lr.sling, tables, { ruleSet, allowedHitches: allowed }));
-      if (lr.sling.inspection) inspections.push({ name: `Sling leg ${id}`, record: lr.sling.inspection });
-    }
-    if (lr.shackle) {
-      const sideLoad = shackleSideLoad(leg.direction, axis, lr.eyePlane, lr.eyebolt, leg.axisAngleDeg);
-      results.push(checkShackle(id, legLoadKg, lr.shackle, tables, { ruleSet, sideLoad }));
-      if (lr.shackle.inspection) inspections.push({ name: `Shackle at ${id}`, record: lr.shackle.inspection });
-    }
-    if (lr.eyebolt) {
-      results.push(
-        checkEyebolt(id, legLoadKg, leg.axisAngleDeg, lr.eyebolt, point?.thread, tables, {
-          ruleSet,
-          geometry: { pull: leg.direction, axis, plane: lr.eyePlane },
-        }),
-      );
-      if (lr.eyebolt.inspection) inspections.push({ name: `Eyebolt at ${id}`, record: lr.eyebolt.inspection });
-    }
+    const items = legItemChecks(solution, i, liftPoints, rigging, tables, ruleSet);
+    if (!items) continue;
+    if (items.slingSpec) slingSpecs.push(items.slingSpec);
+    results.push(...items.checks);
+    inspections.push(...items.inspections);
   }
   if (solution.legs.length >= 2 && slingSpecs.length === solution.legs.length) {
     const { rating } = solution;

@@ -1,10 +1,10 @@
 // The arrangement panel: how the load is hung, what is given, the hook and CoG, the lift-point table with
 // sling lengths, and what would level a tilted load.
-import type { ReactNode } from "react";
+import { memo, type ReactNode } from "react";
 import { NumberInput } from "~/components/plan-editor/fields";
 import type { LiveSolution } from "~/components/plan-editor/use-live-solve";
 import { Button } from "~/components/ui/form";
-import type { EditorAction, PlanEdit } from "~/plans/editor-state";
+import type { EditorAction, PlanEdit, Vec3 } from "~/plans/editor-state";
 import type { GearPick } from "~/plans/rigging";
 import { legChangeText, LEVELLING_STEP_M } from "~/plans/check-text-tilt";
 import { formatLength, lengthUnitLabel, type Units } from "~/utils/format";
@@ -111,27 +111,13 @@ export function ArrangementPanel({
           </label>
         </fieldset>
       )}
-      <div className="grid grid-cols-2 gap-3 sm:grid-cols-4">
-        {edit.arrangement.mode === "level" && (
-          <NumberInput
-            label={`Hook height z (${lu})`}
-            valueM={edit.arrangement.hookHeightM}
-            units={units}
-            disabled={!canEdit}
-            onCommit={(v) => dispatch({ type: "set-hook-height", hookHeightM: v })}
-          />
-        )}
-        {(["x", "y", "z"] as const).map((axis) => (
-          <NumberInput
-            key={axis}
-            label={`CoG ${axis} (${lu})`}
-            valueM={edit.cog[axis]}
-            units={units}
-            disabled
-            onCommit={() => undefined}
-          />
-        ))}
-      </div>
+      <HookAndCog
+        hookHeightM={edit.arrangement.mode === "level" ? edit.arrangement.hookHeightM : null}
+        cog={edit.cog}
+        units={units}
+        canEdit={canEdit}
+        dispatch={dispatch}
+      />
       <p className="text-xs text-ink-soft">
         The CoG and the mass are the component&apos;s; to plan with others, override them with a reason below.
       </p>
@@ -159,55 +145,17 @@ export function ArrangementPanel({
             </tr>
           </thead>
           <tbody>
-            {edit.liftPoints.map((p) => {
-              const used = edit.arrangement.liftPointLabels.includes(p.label);
-              return (
-                <tr key={p.label}>
-                  <td>
-                    <input
-                      type="checkbox"
-                      aria-label={`Use lift point ${p.label}`}
-                      checked={used}
-                      disabled={!canEdit}
-                      onChange={() => dispatch({ type: "toggle-lift-point", label: p.label })}
-                    />
-                  </td>
-                  <td className="font-semibold">
-                    {p.label} {p.thread && <span className="font-normal text-ink-soft">{p.thread}</span>}
-                  </td>
-                  {(["x", "y", "z"] as const).map((axis) => (
-                    <td key={axis}>
-                      <NumberInput
-                        label={`${p.label} ${axis}`}
-                        valueM={p.position[axis]}
-                        units={units}
-                        disabled={!canEdit}
-                        onCommit={(v) =>
-                          dispatch({
-                            type: "move-lift-point",
-                            label: p.label,
-                            position: { ...p.position, [axis]: v },
-                          })
-                        }
-                      />
-                    </td>
-                  ))}
-                  {edit.arrangement.mode === "lengths" && (
-                    <td>
-                      {used && (
-                        <NumberInput
-                          label={`Sling length to ${p.label}`}
-                          valueM={edit.arrangement.legLengthsM[p.label] ?? 0}
-                          units={units}
-                          disabled={!canEdit}
-                          onCommit={(v) => dispatch({ type: "set-leg-length", label: p.label, lengthM: v })}
-                        />
-                      )}
-                    </td>
-                  )}
-                </tr>
-              );
-            })}
+            {edit.liftPoints.map((p) => (
+              <LiftPointRow
+                key={p.label}
+                point={p}
+                used={edit.arrangement.liftPointLabels.includes(p.label)}
+                lengthM={edit.arrangement.mode === "lengths" ? (edit.arrangement.legLengthsM[p.label] ?? 0) : null}
+                units={units}
+                canEdit={canEdit}
+                dispatch={dispatch}
+              />
+            ))}
           </tbody>
         </table>
       </div>
@@ -236,3 +184,111 @@ export function ArrangementPanel({
     </section>
   );
 }
+
+/** The hook height (level lifts) and the CoG: drawn again only when they change, not on each move of a lift point. */
+const HookAndCog = memo(function HookAndCog({
+  hookHeightM,
+  cog,
+  units,
+  canEdit,
+  dispatch,
+}: {
+  hookHeightM: number | null;
+  cog: Vec3;
+  units: Units;
+  canEdit: boolean;
+  dispatch: (action: EditorAction) => void;
+}) {
+  const lu = lengthUnitLabel(units);
+  return (
+    <div className="grid grid-cols-2 gap-3 sm:grid-cols-4">
+      {hookHeightM !== null && (
+        <NumberInput
+          label={`Hook height z (${lu})`}
+          valueM={hookHeightM}
+          units={units}
+          disabled={!canEdit}
+          onCommit={(v) => dispatch({ type: "set-hook-height", hookHeightM: v })}
+        />
+      )}
+      {(["x", "y", "z"] as const).map((axis) => (
+        <NumberInput
+          key={axis}
+          label={`CoG ${axis} (${lu})`}
+          valueM={cog[axis]}
+          units={units}
+          disabled
+          onCommit={() => undefined}
+        />
+      ))}
+    </div>
+  );
+});
+
+/**
+ * One lift point's row: whether it is used, where it is and (given lengths) its sling length. A move redraws
+ * the moved point's row only: the others keep their point object, so their props are the same.
+ */
+const LiftPointRow = memo(function LiftPointRow({
+  point: p,
+  used,
+  lengthM,
+  units,
+  canEdit,
+  dispatch,
+}: {
+  point: PlanEdit["liftPoints"][number];
+  used: boolean;
+  /** The given sling length in given-lengths mode; null in a level lift. */
+  lengthM: number | null;
+  units: Units;
+  canEdit: boolean;
+  dispatch: (action: EditorAction) => void;
+}) {
+  return (
+    <tr>
+      <td>
+        <input
+          type="checkbox"
+          aria-label={`Use lift point ${p.label}`}
+          checked={used}
+          disabled={!canEdit}
+          onChange={() => dispatch({ type: "toggle-lift-point", label: p.label })}
+        />
+      </td>
+      <td className="font-semibold">
+        {p.label} {p.thread && <span className="font-normal text-ink-soft">{p.thread}</span>}
+      </td>
+      {(["x", "y", "z"] as const).map((axis) => (
+        <td key={axis}>
+          <NumberInput
+            label={`${p.label} ${axis}`}
+            valueM={p.position[axis]}
+            units={units}
+            disabled={!canEdit}
+            onCommit={(v) =>
+              dispatch({
+                type: "move-lift-point",
+                label: p.label,
+                position: { ...p.position, [axis]: v },
+              })
+            }
+          />
+        </td>
+      ))}
+      {lengthM !== null && (
+        <td>
+          {used && (
+            <NumberInput
+              label={`Sling length to ${p.label}`}
+              valueM={lengthM}
+              units={units}
+              disabled={!canEdit}
+              onCommit={(v) => dispatch({ type: "set-leg-length", label: p.label, lengthM: v })}
+            />
+          )}
+        </td>
+      )}
+    </tr>
+  );
+});

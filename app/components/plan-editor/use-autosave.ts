@@ -112,7 +112,12 @@ export function useAutosave(
   useEffect(() => {
     keyRef.current = key;
     if (!enabled || blocked.current || key === savedKey.current) return;
-    setSave((s) => (s.kind === "saving" ? s : { kind: "pending", version: versionRef.current }));
+    // Already waiting: the same state, so a run of moves renders the editor once per move, not twice.
+    setSave((s) =>
+      s.kind === "saving" || (s.kind === "pending" && s.version === versionRef.current)
+        ? s
+        : { kind: "pending", version: versionRef.current },
+    );
     coalescer.current?.changed();
   }, [key, enabled]);
 

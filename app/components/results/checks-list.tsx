@@ -1,3 +1,4 @@
+import { memo } from "react";
 import { StatusBadge } from "~/components/results/status-badge";
 import { checkSentence, itemText, ruleText, verdictOf, type AnyCheck } from "~/plans/check-text";
 import { formatUtilisation, type Units } from "~/utils/format";
@@ -22,22 +23,46 @@ export function ChecksList({
   return (
     <ul className="space-y-2 text-sm" data-testid="checks">
       {sorted.map((c) => (
-        <li key={c.id} className="flex gap-2" data-check={c.id}>
-          <span className="shrink-0">
-            <StatusBadge verdict={verdictOf(c)} />
-          </span>
-          <span className="min-w-0">
-            <span className="font-semibold">{itemText(c)}</span>
-            {c.utilisation !== null && (
-              <span className="ml-1 whitespace-nowrap">· {formatUtilisation(c.utilisation)} of capacity</span>
-            )}
-            <span className="block">{checkSentence(c, units)}</span>
-            <span className="block text-xs text-ink-soft">
-              {ruleText(c, units)} Source: {c.source}
-            </span>
-          </span>
-        </li>
+        <CheckRow key={c.id} check={c} units={units} />
       ))}
     </ul>
   );
 }
+
+function CheckRowShown({ check: c, units }: { check: AnyCheck; units: Units }) {
+  return (
+    <li className="flex gap-2" data-check={c.id}>
+      <span className="shrink-0">
+        <StatusBadge verdict={verdictOf(c)} />
+      </span>
+      <span className="min-w-0">
+        <span className="font-semibold">{itemText(c)}</span>
+        {c.utilisation !== null && (
+          <span className="ml-1 whitespace-nowrap">· {formatUtilisation(c.utilisation)} of capacity</span>
+        )}
+        <span className="block">{checkSentence(c, units)}</span>
+        <span className="block text-xs text-ink-soft">
+          {ruleText(c, units)} Source: {c.source}
+        </span>
+      </span>
+    </li>
+  );
+}
+
+/** A check as text, every number exactly (NaN, the infinities and -0 kept apart from null and 0). */
+const checkKey = (check: AnyCheck) =>
+  JSON.stringify(check, (_key, value: unknown) =>
+    typeof value === "number" && (!Number.isFinite(value) || Object.is(value, -0))
+      ? `number:${String(value)}${Object.is(value, -0) ? "-0" : ""}`
+      : value,
+  );
+
+/**
+ * A check's row, drawn again only when the check says something else: each solve builds new check objects, and
+ * on a move most (the examinations, the crane's) come out the same. Checks are plain data, so the same text is
+ * the same check.
+ */
+const CheckRow = memo(
+  CheckRowShown,
+  (a, b) => a.units === b.units && (a.check === b.check || checkKey(a.check) === checkKey(b.check)),
+);
