@@ -142,7 +142,14 @@ async function timed(url: string, cookie: string) {
  */
 function cachedDatabase(mode: Mode, seed: (env: NodeJS.ProcessEnv) => ReturnType<typeof seedShaped>) {
   const schema = createHash("sha256")
-    .update(JSON.stringify([SIZES[mode], fs.readdirSync("db/migrations").sort()]))
+    .update(
+      JSON.stringify([
+        SIZES[mode].plans,
+        SIZES[mode].gear,
+        SIZES[mode].smallGear,
+        fs.readdirSync("db/migrations").sort(),
+      ]),
+    )
     .update(fs.readFileSync("tests/bench/load-seed.ts"))
     .update(fs.readFileSync("tests/bench/shape-seed.ts"))
     .digest("hex")
