@@ -276,8 +276,8 @@ describe("the user's own sessions in settings", () => {
 });
 
 describe("the cost of a signed-in request", () => {
-  /** The session statements (the user's lookup by token) run while `run` does. */
-  async function sessionLookups(run: () => Promise<unknown>) {
+  /** Every statement run while `run` does, in order. */
+  async function statementsWhile(run: () => Promise<unknown>) {
     const statements: string[] = [];
     const original = sequelize.query.bind(sequelize) as (sql: unknown, options: unknown) => Promise<unknown>;
     const query = vi.spyOn(sequelize, "query").mockImplementation(((sql: unknown, options: unknown) => {
@@ -289,8 +289,12 @@ describe("the cost of a signed-in request", () => {
     } finally {
       query.mockRestore();
     }
-    return statements.filter((sql) => /FROM sessions s/.test(sql)).length;
+    return statements;
   }
+
+  /** How many times the session user is looked up by token while `run` runs. */
+  const sessionLookups = async (run: () => Promise<unknown>) =>
+    (await statementsWhile(run)).filter((sql) => /FROM sessions s/.test(sql)).length;
 
   it("a page's root loader and its own loader share one read of the session user", async () => {
     const handle = await createAppHandler();
@@ -311,36 +315,30 @@ describe("the cost of a signed-in request", () => {
     const user = await makeUser(["planner"]);
     setClock(T0);
     const cookie = await signInBrowser(user.email);
-    const statements: string[] = [];
-    const original = sequelize.query.bind(sequelize) as (sql: unknown, options: unknown) => Promise<unknown>;
-    const query = vi.spyOn(sequelize, "query").mockImplementation(((sql: unknown, options: unknown) => {
-      statements.push(String(sql));
-      return original(sql, options);
-    }) as typeof sequelize.query);
-    try {
-      setClock(T0 + TOUCH_INTERVAL_MS - 1000);
-      expect((await getUser(new Request(`${BASE}/`, { headers: { Cookie: cookie } })))?.id).toBe(user.id);
-      expect(statements).toHaveLength(1);
-      setClock(T0 + TOUCH_INTERVAL_MS + 1000);
-      await getUser(new Request(`${BASE}/`, { headers: { Cookie: cookie } }));
-      expect(statements).toHaveLength(3);
-      expect(statements[2]).toMatch(/^UPDATE sessions SET last_seen_at_ms/);
-    } finally {
-      query.mockRestore();
-    }
+    setClock(T0 + TOUCH_INTERVAL_MS - 1000);
+    let found: Awaited<ReturnType<typeof getUser>> = null;
+    const first = await statementsWhile(async () => {
+      found = await getUser(new Request(`${BASE}/`, { headers: { Cookie: cookie } }));
+    });
+    expect(found!.id).toBe(user.id);
+    expect(first).toHaveLength(1);
+    setClock(T0 + TOUCH_INTERVAL_MS + 1000);
+    const later = await statementsWhile(() => getUser(new Request(`${BASE}/`, { headers: { Cookie: cookie } })));
+    expect(later).toHaveLength(2);
+    expect(later[1]).toMatch(/^UPDATE sessions SET last_seen_at_ms/);
     const bind = { tokenHash: "x", now: 0, idleCutoff: 0 };
     if (sequelize.getDialect() === "postgres") {
       // PostgreSQL's plan for a near-empty table may scan it; with sequential scans off it must still find an index.
       const plan = await sequelize.transaction(async (transaction) => {
         await sequelize.query("SET LOCAL enable_seqscan = off", { transaction });
-        return (await sequelize.query(`EXPLAIN ${statements[0]}`, { bind, type: "SELECT", transaction })) as Array<{
+        return (await sequelize.query(`EXPLAIN ${first[0]}`, { bind, type: "SELECT", transaction })) as Array<{
           "QUERY PLAN": string;
         }>;
       });
       expect(plan.map((p) => p["QUERY PLAN"]).join("\n")).toMatch(/Index Scan using \S*token_hash\S* on sessions s/);
       return;
     }
-    const plan = (await sequelize.query(`EXPLAIN QUERY PLAN ${statements[0]}`, {
+    const plan = (await sequelize.query(`EXPLAIN QUERY PLAN ${first[0]}`, {
       bind,
       type: "SELECT",
     })) as Array<{ detail: string }>;
