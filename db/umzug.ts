@@ -27,6 +27,7 @@ import * as gearSearchIndex from "./migrations/0026-gear-search-index";
 import * as offlineSubmissions from "./migrations/0027-offline-submissions";
 import * as sealedPrintBodies from "./migrations/0028-sealed-print-bodies";
 import * as jobRuns from "./migrations/0029-job-runs";
+import * as registerOrderIndexes from "./migrations/0030-register-order-indexes";
 
 export type Migration = (params: { context: QueryInterface }) => Promise<void>;
 type MigrationModule = { up: Migration; down: Migration };
@@ -62,6 +63,7 @@ export const migrations: Array<[name: string, module: MigrationModule]> = [
   ["0027-offline-submissions", offlineSubmissions],
   ["0028-sealed-print-bodies", sealedPrintBodies],
   ["0029-job-runs", jobRuns],
+  ["0030-register-order-indexes", registerOrderIndexes],
 ];
 
 /** The umzug runner over `sequelize`, recording applied migrations in SequelizeMeta. */

@@ -180,10 +180,12 @@ export async function searchGearItems(
   const q = search.q?.trim();
   const text = q ? searchWhere(q) : null;
   if (text) and.push(text.where);
-  // Reading backwards (the previous page) turns every direction round; pageOf puts the rows back in order.
+  // Descending is the ascending order reversed, the item code included, so that one index serves both ways
+  // (migration 0030). Reading backwards (the previous page) turns every direction round; pageOf puts the rows back
+  // in order.
   const backwards = request.cursor !== null && request.towards === "previous";
-  const codeDir = (search.dir === "desc" && search.sort === "itemCode") !== backwards ? "DESC" : "ASC";
   const sortDir = (search.dir === "desc") !== backwards ? "DESC" : "ASC";
+  const codeDir = sortDir;
   const past = (dir: string) => (dir === "ASC" ? Op.gt : Op.lt);
   const sortKey = search.sort === "itemCode" ? null : sortExpression(search.sort);
   const order: Array<[unknown, string]> = sortKey ? [[sortKey, sortDir]] : [];

@@ -1,0 +1,34 @@
+import type { Migration } from "../umzug";
+
+/**
+ * The register's sort orders, each ending in the item code (models/gear-item-reads.server.ts), read from an index
+ * in that order: a page of the register sorted by due date, kind, status or WLL then reads its fifty rows instead of
+ * sorting the whole organisation's register for every page. The due date's index is on the same expression the
+ * query sorts by (a missing date sorts first as 0001-01-01); SQLite and PostgreSQL both index expressions.
+ */
+const INDEXES: ReadonlyArray<readonly [name: string, create: string]> = [
+  [
+    "gear_items_register_due_order",
+    "CREATE INDEX gear_items_register_due_order ON gear_items (organisation_id, (COALESCE(next_due_on, '0001-01-01')), item_code)",
+  ],
+  [
+    "gear_items_register_kind_order",
+    "CREATE INDEX gear_items_register_kind_order ON gear_items (organisation_id, kind, item_code)",
+  ],
+  [
+    "gear_items_register_status_order",
+    "CREATE INDEX gear_items_register_status_order ON gear_items (organisation_id, status, item_code)",
+  ],
+  [
+    "gear_items_register_wll_order",
+    "CREATE INDEX gear_items_register_wll_order ON gear_items (organisation_id, wll_kg, item_code)",
+  ],
+];
+
+export const up: Migration = async ({ context: qi }) => {
+  for (const [, create] of INDEXES) await qi.sequelize.query(create);
+};
+
+export const down: Migration = async ({ context: qi }) => {
+  for (const [name] of [...INDEXES].reverse()) await qi.removeIndex("gear_items", name);
+};
