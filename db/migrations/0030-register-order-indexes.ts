@@ -1,16 +1,13 @@
 import type { Migration } from "../umzug";
 
 /**
- * The register's sort orders, each ending in the item code (models/gear-item-reads.server.ts), read from an index
- * in that order: a page of the register sorted by due date, kind, status or WLL then reads its fifty rows instead of
- * sorting the whole organisation's register for every page. The due date's index is on the same expression the
- * query sorts by (a missing date sorts first as 0001-01-01); SQLite and PostgreSQL both index expressions.
+ * The register's sort orders by kind, status and WLL, each ending in the item code (models/gear-item-reads.server.ts),
+ * read from an index in that order: a page of the register sorted so reads its fifty rows instead of sorting the
+ * whole organisation's register for every page. The due date's order sorts by an expression (a missing date as
+ * 0001-01-01) and has no index of its own: Sequelize's SQLite table description, which the data copy and SQLite's
+ * column changes rely on, cannot read an index on an expression.
  */
 const INDEXES: ReadonlyArray<readonly [name: string, create: string]> = [
-  [
-    "gear_items_register_due_order",
-    "CREATE INDEX gear_items_register_due_order ON gear_items (organisation_id, (COALESCE(next_due_on, '0001-01-01')), item_code)",
-  ],
   [
     "gear_items_register_kind_order",
     "CREATE INDEX gear_items_register_kind_order ON gear_items (organisation_id, kind, item_code)",

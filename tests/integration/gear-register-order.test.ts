@@ -49,12 +49,12 @@ async function planOf({ sql, bind }: Captured): Promise<string> {
 }
 
 /**
- * A cursor as a page link carries it: the sort column's value of the middle item (unless it is the code; items never
- * examined sort as 0001-01-01), then its code, so that both the next and the previous page hold an item.
+ * A cursor as a page link carries it: the sort column's value of the middle item (unless it is the code), then its
+ * code, so that both the next and the previous page hold an item. The due date's and the site's orders are sorted
+ * by the database (migration 0030 says why).
  */
 const CURSORS: Record<string, string> = {
   itemCode: encodeCursor(["ORD-1"]),
-  nextDueOn: encodeCursor(["0001-01-01", "ORD-1"]),
   kind: encodeCursor(["shackle", "ORD-1"]),
   status: encodeCursor(["in_service", "ORD-1"]),
   wllKg: encodeCursor([2000, "ORD-1"]),
