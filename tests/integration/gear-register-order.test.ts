@@ -1,35 +1,27 @@
 // A page of the register in any of its indexed orders reads its rows from an index in that order: the database never
 // sorts the whole organisation's register to show fifty items (the cost of a page does not grow with the register).
-import { describe, expect, it, vi } from "vitest";
+import { describe, expect, it } from "vitest";
 import * as register from "~/routes/gear._index";
 import { sequelize } from "~/utils/db.server";
 import { encodeCursor } from "~/utils/keyset.server";
 import { callRoute, getRequest, makeUser } from "../support/factories";
 import { makeGearItem } from "../support/gear";
-
-type Captured = { sql: string; bind: Record<string, unknown> };
+import { statementsWhile, type Statement } from "../support/statements";
 
 /** The register page's own read of its rows (the statement with the page's LIMIT) for `path`. */
-async function pageStatement(path: string, user: Awaited<ReturnType<typeof makeUser>>): Promise<Captured> {
-  const statements: Captured[] = [];
-  const original = sequelize.query.bind(sequelize) as (sql: unknown, options: unknown) => Promise<unknown>;
-  const query = vi.spyOn(sequelize, "query").mockImplementation(((sql: unknown, options: unknown) => {
-    statements.push({ sql: String(sql), bind: (options as { bind?: Record<string, unknown> })?.bind ?? {} });
-    return original(sql, options);
-  }) as typeof sequelize.query);
-  try {
-    const res = await callRoute(register.loader, await getRequest(path, user));
-    expect(res.status).toBe(200);
-  } finally {
-    query.mockRestore();
-  }
+async function pageStatement(path: string, user: Awaited<ReturnType<typeof makeUser>>): Promise<Statement> {
+  let status = 0;
+  const statements = await statementsWhile(async () => {
+    status = (await callRoute(register.loader, await getRequest(path, user))).status;
+  });
+  expect(status).toBe(200);
   const page = statements.filter((s) => /FROM [`"]gear_items[`"]/.test(s.sql) && /LIMIT/.test(s.sql));
   expect(page).toHaveLength(1);
   return page[0]!;
 }
 
 /** The plan's lines for a statement: SQLite's EXPLAIN QUERY PLAN, or PostgreSQL's EXPLAIN with sorting made dear. */
-async function planOf({ sql, bind }: Captured): Promise<string> {
+async function planOf({ sql, bind }: Statement): Promise<string> {
   if (sequelize.getDialect() === "postgres") {
     return sequelize.transaction(async (transaction) => {
       // On a near-empty table PostgreSQL would rather sort; with sorting and scans made dear it shows what the

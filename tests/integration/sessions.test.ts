@@ -16,6 +16,7 @@ import { sequelize } from "~/utils/db.server";
 import { env } from "~/utils/env.server";
 import { getUser } from "~/utils/session.server";
 import { createAppHandler } from "../support/app-handler";
+import { statementsWhile } from "../support/statements";
 import { callRoute, makeUser, postForm, sessionCookie, TEST_PASSWORD } from "../support/factories";
 
 const BASE = "http://localhost:3000";
@@ -276,25 +277,9 @@ describe("the user's own sessions in settings", () => {
 });
 
 describe("the cost of a signed-in request", () => {
-  /** Every statement run while `run` does, in order. */
-  async function statementsWhile(run: () => Promise<unknown>) {
-    const statements: string[] = [];
-    const original = sequelize.query.bind(sequelize) as (sql: unknown, options: unknown) => Promise<unknown>;
-    const query = vi.spyOn(sequelize, "query").mockImplementation(((sql: unknown, options: unknown) => {
-      statements.push(String(sql));
-      return original(sql, options);
-    }) as typeof sequelize.query);
-    try {
-      await run();
-    } finally {
-      query.mockRestore();
-    }
-    return statements;
-  }
-
   /** How many times the session user is looked up by token while `run` runs. */
   const sessionLookups = async (run: () => Promise<unknown>) =>
-    (await statementsWhile(run)).filter((sql) => /FROM sessions s/.test(sql)).length;
+    (await statementsWhile(run)).filter((s) => /FROM sessions s/.test(s.sql)).length;
 
   it("a page's root loader and its own loader share one read of the session user", async () => {
     const handle = await createAppHandler();
@@ -325,20 +310,20 @@ describe("the cost of a signed-in request", () => {
     setClock(T0 + TOUCH_INTERVAL_MS + 1000);
     const later = await statementsWhile(() => getUser(new Request(`${BASE}/`, { headers: { Cookie: cookie } })));
     expect(later).toHaveLength(2);
-    expect(later[1]).toMatch(/^UPDATE sessions SET last_seen_at_ms/);
+    expect(later[1]!.sql).toMatch(/^UPDATE sessions SET last_seen_at_ms/);
     const bind = { tokenHash: "x", now: 0, idleCutoff: 0 };
     if (sequelize.getDialect() === "postgres") {
       // PostgreSQL's plan for a near-empty table may scan it; with sequential scans off it must still find an index.
       const plan = await sequelize.transaction(async (transaction) => {
         await sequelize.query("SET LOCAL enable_seqscan = off", { transaction });
-        return (await sequelize.query(`EXPLAIN ${first[0]}`, { bind, type: "SELECT", transaction })) as Array<{
+        return (await sequelize.query(`EXPLAIN ${first[0]!.sql}`, { bind, type: "SELECT", transaction })) as Array<{
           "QUERY PLAN": string;
         }>;
       });
       expect(plan.map((p) => p["QUERY PLAN"]).join("\n")).toMatch(/Index Scan using \S*token_hash\S* on sessions s/);
       return;
     }
-    const plan = (await sequelize.query(`EXPLAIN QUERY PLAN ${first[0]}`, {
+    const plan = (await sequelize.query(`EXPLAIN QUERY PLAN ${first[0]!.sql}`, {
       bind,
       type: "SELECT",
     })) as Array<{ detail: string }>;
