@@ -4,6 +4,7 @@ import { z } from "zod";
 import type { ComponentDefinition } from "~/loads/component-definition";
 import type { SolveResponseBody } from "~/statics/response";
 import type { BeamPlacement } from "~/statics/beam-placement";
+import { isIsoDate } from "~/utils/dates";
 import { safeText } from "~/utils/forms";
 import {
   effectiveOverride,
@@ -243,12 +244,7 @@ export const detailsSchema = z.object({
   /** The planned lift date, YYYY-MM-DD: every item must be in date for examination then (and today). */
   liftDate: safeText({ error: "Give the lift date as YYYY-MM-DD." })
     .regex(/^\d{4}-\d{2}-\d{2}$/, "Give the lift date as YYYY-MM-DD.")
-    .refine(
-      (v) => !Number.isNaN(Date.parse(`${v}T00:00:00Z`)) && new Date(`${v}T00:00:00Z`).toISOString().startsWith(v),
-      {
-        message: "The lift date is not a real date.",
-      },
-    )
+    .refine(isIsoDate, "The lift date is not a real date.")
     .optional(),
 });
 export type PlanDetails = z.infer<typeof detailsSchema>;

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { isIsoDate } from "~/utils/dates";
 import { optionalText, requiredText, safeText } from "~/utils/forms";
 
 export const jobSchema = z.object({
@@ -11,7 +12,7 @@ export const jobSchema = z.object({
     (v) => (typeof v === "string" && v.trim() ? v.trim() : null),
     safeText()
       .regex(/^\d{4}-\d{2}-\d{2}$/, "Give the date as YYYY-MM-DD.")
-      .refine((s) => !Number.isNaN(Date.parse(s)), "That is not a date.")
+      .refine(isIsoDate, "That is not a date on the calendar.")
       .nullable(),
   ),
 });

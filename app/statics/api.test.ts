@@ -142,6 +142,29 @@ describe("400: bad input, with zod issues", () => {
   });
 });
 
+describe("400: an examination due date that is not on the calendar", () => {
+  it("30 February is refused with the field named, not judged as a string", () => {
+    const body = {
+      ...furley,
+      rigging: {
+        legs: {
+          A: {
+            sling: {
+              kind: "chain",
+              diameterMm: 8,
+              inspection: { itemId: "CH-7", status: "in_service", examinationDue: "2025-02-30" },
+            },
+          },
+        },
+      },
+    };
+    const r = solve(body, "2025-02-01");
+    expect(r.status).toBe(400);
+    if (r.status !== 400) return;
+    expect(JSON.stringify(r.body.issues)).toMatch(/examinationDue/);
+  });
+});
+
 describe("422: geometry that cannot hang as asked", () => {
   it("2 legs with the CoG off their plane: code and a sentence with the roll", () => {
     const r = solve({ ...furley, load: { massKg: 2000, cog: { x: 0, y: 0.1, z: -0.1 } } });

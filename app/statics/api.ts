@@ -1,5 +1,6 @@
 // The /api/solve contract: body schema, and a handler that never throws for any input.
 import { z } from "zod";
+import { isIsoDate } from "~/utils/dates";
 import { solveArrangement, type ArrangementInput } from "./arrangement";
 import type { LiftPoint } from "./bridle";
 import type { RiggingDescription } from "./check-types";
@@ -26,7 +27,7 @@ const positiveMass = z.number().gt(0).max(MAX_MASS_KG);
 const id = z.string().min(1).max(64);
 
 const wll = z.object({ value: positiveMass, unit: z.enum(["kg", "t", "lb", "shortTon"]) });
-const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, "Use a YYYY-MM-DD date.");
+const isoDate = z.string().refine(isIsoDate, "Use a real calendar date, YYYY-MM-DD.");
 /** An item's identity in the register and its own mass (kg), added to the hook and crane loads. */
 const identity = { itemCode: id.optional(), massKg: z.number().min(0).max(1e6).optional() };
 const inspection = z.object({

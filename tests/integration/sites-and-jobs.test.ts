@@ -62,6 +62,8 @@ describe("sites and jobs", () => {
     const cases: Array<[Record<string, string>, string]> = [
       [{ siteId: String(siteId), workOrder: "WO-2", title: "  " }, "title"],
       [{ siteId: String(siteId), workOrder: "WO-3", title: "T", startsOn: "31/01/2027" }, "startsOn"],
+      // 30 February is shaped like a date; PostgreSQL refuses it, so the form must first.
+      [{ siteId: String(siteId), workOrder: "WO-3", title: "T", startsOn: "2024-02-30" }, "startsOn"],
       [{ siteId: String(siteId), workOrder: "WO-9", title: "Again" }, "workOrder"],
       [{ siteId: String(other.siteId), workOrder: "WO-4", title: "Theirs" }, "siteId"],
       [{ siteId: "abc", workOrder: "WO-5", title: "T" }, "siteId"],
