@@ -21,11 +21,12 @@ import { startSending } from "~/offline/outbox";
 import { registerWorker } from "~/offline/register-worker";
 import { useCspNonce } from "~/utils/csp-nonce";
 import { securityMiddleware } from "~/utils/security.server";
-import { readFlash, getUser, sharedSessionLookupMiddleware } from "~/utils/session.server";
+import { readFlash, getUser } from "~/utils/session.server";
+import { pageReadsMiddleware } from "~/utils/page-reads.server";
 
 // First on every request: refuses cross-site mutations before any action and sets the security headers; then a page's
 // loaders share one read of the session user.
-export const middleware: Route.MiddlewareFunction[] = [securityMiddleware, sharedSessionLookupMiddleware];
+export const middleware: Route.MiddlewareFunction[] = [securityMiddleware, pageReadsMiddleware];
 
 export const meta: Route.MetaFunction = () => [{ title: "Plumbline" }];
 

@@ -8,6 +8,7 @@ import {
 } from "sequelize";
 import { DEFAULT_TIME_ZONE, todayIn } from "~/utils/dates";
 import { sequelize } from "~/utils/db.server";
+import { oncePerPage } from "~/utils/page-reads.server";
 import { DEFAULT_RULE_SET, isRuleSetId, type RuleSetId } from "~/statics/reference";
 
 export class Organisation extends Model<InferAttributes<Organisation>, InferCreationAttributes<Organisation>> {
@@ -50,16 +51,58 @@ export async function updateOrganisationSettings(
   );
 }
 
-/** The rule set the organisation works to (UK / EU when unknown). */
+/** What an organisation has chosen: the settings its pages and checks read. */
+export type OrganisationSettings = {
+  id: number;
+  name: string;
+  allowSelfApproval: boolean;
+  ruleSet: RuleSetId;
+  timeZone: string;
+};
+
+/** Settings as a row gives them (SQLite's booleans are 0 and 1), the rule set UK / EU when unknown. */
+export function organisationSettingsFromRow(row: {
+  id: number;
+  name: string;
+  allowSelfApproval: boolean | number;
+  ruleSet: string;
+  timeZone: string | null;
+}): OrganisationSettings {
+  return {
+    id: Number(row.id),
+    name: row.name,
+    allowSelfApproval: Boolean(row.allowSelfApproval),
+    ruleSet: isRuleSetId(row.ruleSet) ? row.ruleSet : DEFAULT_RULE_SET,
+    timeZone: row.timeZone ?? DEFAULT_TIME_ZONE,
+  };
+}
+
+export const organisationSettingsKey = (organisationId: number) => `organisation-settings:${organisationId}`;
+
+/**
+ * The organisation's settings, read once per page: the session read brings them along with the user, so a page's
+ * loaders ask the database again only for another organisation.
+ */
+export function getOrganisationSettings(organisationId: number): Promise<OrganisationSettings | null> {
+  return oncePerPage(organisationSettingsKey(organisationId), async () => {
+    const row = await Organisation.findByPk(organisationId, {
+      attributes: ["id", "name", "allowSelfApproval", "ruleSet", "timeZone"],
+      raw: true,
+    });
+    return row ? organisationSettingsFromRow(row) : null;
+  });
+}
+
+/** The rule set the organisation works to (UK / EU when unknown); read within `transaction` when one is given. */
 export async function getOrganisationRuleSet(organisationId: number, transaction?: Transaction): Promise<RuleSetId> {
+  if (!transaction) return (await getOrganisationSettings(organisationId))?.ruleSet ?? DEFAULT_RULE_SET;
   const row = await Organisation.findByPk(organisationId, { attributes: ["ruleSet"], transaction });
   return isRuleSetId(row?.ruleSet) ? row.ruleSet : DEFAULT_RULE_SET;
 }
 
 /** The organisation's time zone (the default when the row is missing). */
 export async function getOrganisationTimeZone(organisationId: number): Promise<string> {
-  const row = await Organisation.findByPk(organisationId, { attributes: ["timeZone"], raw: true });
-  return row?.timeZone ?? DEFAULT_TIME_ZONE;
+  return (await getOrganisationSettings(organisationId))?.timeZone ?? DEFAULT_TIME_ZONE;
 }
 
 /** Today's calendar day (YYYY-MM-DD) where the organisation works: the one "today" of due dates, checks and approval. */

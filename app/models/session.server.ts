@@ -11,6 +11,7 @@ import {
 import { sequelize } from "~/utils/db.server";
 import { bySqlDialect } from "~/utils/sql-dialect.server";
 import type { SessionUser } from "~/models/user.server";
+import { organisationSettingsFromRow, type OrganisationSettings } from "~/models/organisation.server";
 import { ROLES, type Role } from "~/utils/roles";
 
 /** A signed-in browser. The cookie holds a random token; the table holds only its SHA-256. */
@@ -117,9 +118,21 @@ export async function startSession(
   return token;
 }
 
-export type FoundSession = { sessionId: number; lastSeenAtMs: number; user: SessionUser };
+export type FoundSession = {
+  sessionId: number;
+  lastSeenAtMs: number;
+  user: SessionUser;
+  /** The user's organisation's settings, read in the same statement. */
+  organisation: OrganisationSettings;
+};
 
-type FoundRow = SessionUserRow & { sessionId: number; lastSeenAtMs: number };
+type FoundRow = SessionUserRow & {
+  sessionId: number;
+  lastSeenAtMs: number;
+  allowSelfApproval: boolean | number;
+  ruleSet: string;
+  timeZone: string | null;
+};
 
 /**
  * The live session of `token` and its active user, in one statement through the token's unique index (every
@@ -128,7 +141,8 @@ type FoundRow = SessionUserRow & { sessionId: number; lastSeenAtMs: number };
  */
 export async function findSession(token: string, lifetimes: SessionLifetimes, now = Date.now()) {
   const [row] = await sequelize.query<FoundRow>(
-    `SELECT s.id AS "sessionId", s.last_seen_at_ms AS "lastSeenAtMs", ${SESSION_USER_COLUMNS}
+    `SELECT s.id AS "sessionId", s.last_seen_at_ms AS "lastSeenAtMs", ${SESSION_USER_COLUMNS},
+            o.allow_self_approval AS "allowSelfApproval", o.rule_set AS "ruleSet", o.time_zone AS "timeZone"
        FROM sessions s
        JOIN users u ON u.id = s.user_id
        JOIN organisations o ON o.id = u.organisation_id
@@ -140,7 +154,13 @@ export async function findSession(token: string, lifetimes: SessionLifetimes, no
     },
   );
   if (!row) return null;
-  return { sessionId: row.sessionId, lastSeenAtMs: Number(row.lastSeenAtMs), user: sessionUserFromRow(row) };
+  const user = sessionUserFromRow(row);
+  return {
+    sessionId: row.sessionId,
+    lastSeenAtMs: Number(row.lastSeenAtMs),
+    user,
+    organisation: organisationSettingsFromRow({ ...row, id: user.organisationId, name: user.organisationName }),
+  };
 }
 
 /** Records that the session was used now, if it was last recorded more than TOUCH_INTERVAL_MS ago. */

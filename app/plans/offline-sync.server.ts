@@ -15,7 +15,7 @@ import {
   settleSubmission,
   type OfflineSubmission,
 } from "~/models/offline-submission.server";
-import { getOrganisation } from "~/models/organisation.server";
+import { getOrganisationSettings } from "~/models/organisation.server";
 import { getPlan, planExists } from "~/models/plan.server";
 import { getOrganisationUser } from "~/models/user.server";
 import type { SessionUser } from "~/models/user.server";
@@ -221,7 +221,7 @@ async function tellPlanner(
     const { plan, revision } = found;
     const ids = [revision.plannedBy, ...(arrived.refusal && revision.approvedBy ? [revision.approvedBy] : [])];
     const people = await Promise.all([...new Set(ids)].map((id) => getOrganisationUser(rigger.organisationId, id)));
-    const timeZone = (await getOrganisation(rigger.organisationId))?.timeZone ?? "UTC";
+    const timeZone = (await getOrganisationSettings(rigger.organisationId))?.timeZone ?? "UTC";
     await mailArrivedFromPhone(
       rigger.organisationId,
       people.filter((p) => p !== null && p.id !== rigger.id).map((p) => ({ name: p!.name, email: p!.email })),

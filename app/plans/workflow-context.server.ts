@@ -1,6 +1,6 @@
 // What a user may do with a revision of a plan, as the workflow steps and the pages judge it: the
 // pure rules of plans/workflow.ts fed with who wrote the revision and whether its gear is fit now.
-import { getOrganisation } from "~/models/organisation.server";
+import { getOrganisationSettings } from "~/models/organisation.server";
 import type { PlanForWorkflow, PlanRevision } from "~/models/plan.server";
 import { listRevisionAuthors } from "~/models/plan-revision-author.server";
 import type { SessionUser } from "~/models/user.server";
@@ -29,7 +29,7 @@ export async function workflowContext(
   options: { allowSelfApproval?: boolean; authors?: readonly Authorship[]; notFitToLift?: string } = {},
 ): Promise<WorkflowContext> {
   const allowSelfApproval =
-    options.allowSelfApproval ?? (await getOrganisation(user.organisationId))?.allowSelfApproval ?? false;
+    options.allowSelfApproval ?? (await getOrganisationSettings(user.organisationId))?.allowSelfApproval ?? false;
   const authors = options.authors ?? (await listRevisionAuthors([revision.id]));
   const reason = authorRefusal(authors, user.id);
   return {

@@ -1,7 +1,7 @@
 // Where a plan stands, for its pages: the working revision, the approved (or completed) one with its
 // gear state now, acknowledgements, comments, the lift record and what the user may do next.
 import { listAuditEvents, listAuditEventsPage } from "~/models/audit-event.server";
-import { getOrganisation } from "~/models/organisation.server";
+import { getOrganisationSettings } from "~/models/organisation.server";
 import { getLiftRecord } from "~/models/lift-record.server";
 import { listLiftRecordPhotoIds } from "~/models/lift-record-photo.server";
 import { listAcknowledgements } from "~/models/plan-acknowledgement.server";
@@ -107,7 +107,7 @@ export async function getWorkflowView(
     ...(record ? [record.recordedBy] : []),
     ...(riggerId ? [riggerId] : []),
   ]);
-  const allowSelfApproval = (await getOrganisation(organisationId))?.allowSelfApproval ?? false;
+  const allowSelfApproval = (await getOrganisationSettings(organisationId))?.allowSelfApproval ?? false;
   const authors = await listRevisionAuthors([loaded.current.id]);
   const workingCtx = await workflowContext(user, loaded, loaded.current, { allowSelfApproval, authors });
   const printableRow = loaded.approved ?? (approvedRow?.status === "completed" ? approvedRow : null);

@@ -1,6 +1,7 @@
-import { AsyncLocalStorage } from "node:async_hooks";
-import { createCookieSessionStorage, data, redirect, type MiddlewareFunction } from "react-router";
+import { createCookieSessionStorage, data, redirect } from "react-router";
 import { env } from "~/utils/env.server";
+import { knownForPage, oncePerPage } from "~/utils/page-reads.server";
+import { organisationSettingsKey } from "~/models/organisation.server";
 import type { SessionUser } from "~/models/user.server";
 import {
   endSessionByToken,
@@ -42,27 +43,15 @@ function isApiRequest(request: Request) {
 
 type SignedIn = { user: SessionUser; sessionId: number };
 
-// Code that asks for the user several times with one Request gets the first answer.
+// Code that asks for the user several times with one Request gets the first answer; the loaders of one page share
+// it through the page's scope (page-reads.server.ts).
 const signedInByRequest = new WeakMap<Request, Promise<SignedIn | null>>();
 
-/**
- * The root loader and the route's loader of one page each get a Request object of their own (React Router rebuilds
- * each loader's), so the page's loaders share their session lookup through this scope, which the root middleware
- * opens for each GET or HEAD: one read of the session user per page. A POST is not shared: its action may change
- * the user (units, name) before the loaders run again.
- */
-const pageRequestScope = new AsyncLocalStorage<{ signedIn?: Promise<SignedIn | null> }>();
-
-export const sharedSessionLookupMiddleware: MiddlewareFunction<Response> = ({ request }, next) =>
-  request.method === "GET" || request.method === "HEAD" ? pageRequestScope.run({}, next) : next();
-
 function signedIn(request: Request): Promise<SignedIn | null> {
-  const scope = pageRequestScope.getStore();
-  let found = scope?.signedIn ?? signedInByRequest.get(request);
+  let found = signedInByRequest.get(request);
   if (!found) {
-    found = lookUpSession(request);
+    found = oncePerPage("signed-in", () => lookUpSession(request));
     signedInByRequest.set(request, found);
-    if (scope) scope.signedIn = found;
   }
   return found;
 }
@@ -91,6 +80,7 @@ async function lookUpSession(request: Request): Promise<SignedIn | null> {
   const found = await findSession(token, sessionLifetimes());
   if (!found) return null;
   await touchSession(found);
+  knownForPage(organisationSettingsKey(found.organisation.id), found.organisation);
   return { user: found.user, sessionId: found.sessionId };
 }
 

@@ -12,6 +12,7 @@ import { AuditEvent } from "~/models/audit-event.server";
 import { issuePasswordToken } from "~/models/password-token.server";
 import { Session, TOUCH_INTERVAL_MS } from "~/models/session.server";
 import { setUserActive } from "~/models/user.server";
+import { getOrganisation, updateOrganisationSettings } from "~/models/organisation.server";
 import { sequelize } from "~/utils/db.server";
 import { env } from "~/utils/env.server";
 import { getUser } from "~/utils/session.server";
@@ -294,6 +295,32 @@ describe("the cost of a signed-in request", () => {
     expect(res?.status).toBe(200);
     // Each request reads afresh: a session ended between two pages is not carried from one to the next.
     expect(await sessionLookups(() => page("/components"))).toBe(1);
+  });
+
+  it("the organisation's settings come with the session user: a page does not read them again, the next page reads them afresh", async () => {
+    const handle = await createAppHandler();
+    const user = await makeUser(["planner"]);
+    const cookie = await sessionCookie(user);
+    const org = (await getOrganisation(user.organisationId))!;
+    // The register judges "overdue" by the organisation's calendar day. These two zones are 25 hours apart, so
+    // their calendar days differ at every instant.
+    const overdueBefore = async (timeZone: string) => {
+      await updateOrganisationSettings(user.organisationId, { name: org.name, allowSelfApproval: false, timeZone });
+      let res: Response | undefined;
+      const statements = await statementsWhile(async () => {
+        res = await handle(new Request(`${BASE}/gear`, { headers: { Cookie: cookie } }));
+      });
+      expect(res?.status).toBe(200);
+      expect(statements.filter((s) => /FROM [`"]?organisations/.test(s.sql) && !/FROM sessions s/.test(s.sql))).toEqual(
+        [],
+      );
+      return /next_due_on[`"]? < '(\d{4}-\d{2}-\d{2})'/.exec(statements.map((s) => s.sql).join("\n"))?.[1];
+    };
+    const east = await overdueBefore("Pacific/Kiritimati");
+    const west = await overdueBefore("Pacific/Pago_Pago");
+    expect(east).toMatch(/^\d{4}-\d{2}-\d{2}$/);
+    expect(west).toMatch(/^\d{4}-\d{2}-\d{2}$/);
+    expect(east! > west!).toBe(true);
   });
 
   it("is one statement, found through the token's index; the last-seen time is written at most every few minutes", async () => {
