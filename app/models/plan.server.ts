@@ -350,13 +350,36 @@ export async function listRevisionSummaries(planId: number) {
 /** A revision as a print chooses and names it: where it stands and its seal (never its documents or sealed record). */
 export type RevisionSeal = Pick<PlanRevision, "id" | "planId" | "revision" | "status" | "fingerprint" | "verifyToken">;
 
-/** Every revision of the plan with where it stands and its seal's fingerprint and verify token, as plain rows. */
-export async function listRevisionSeals(planId: number): Promise<RevisionSeal[]> {
-  return PlanRevision.findAll({
-    where: { planId },
-    attributes: ["id", "planId", "revision", "status", "fingerprint", "verifyToken"],
-    raw: true,
-  });
+/**
+ * The organisation's plan with every revision's standing and seal (fingerprint, verify token), in one statement;
+ * null when the organisation has no such plan.
+ */
+export async function getPlanSeals(
+  organisationId: number,
+  planId: number,
+): Promise<{ currentRevisionId: number | null; revisions: RevisionSeal[] } | null> {
+  if (!Number.isSafeInteger(planId)) return null;
+  const rows = await sequelize.query<RevisionSeal & { currentRevisionId: number | null }>(
+    `SELECT p.current_revision_id AS "currentRevisionId", r.id AS id, r.plan_id AS "planId", r.revision AS revision,
+            r.status AS status, r.fingerprint AS fingerprint, r.verify_token AS "verifyToken"
+       FROM plans p LEFT JOIN plan_revisions r ON r.plan_id = p.id
+      WHERE p.id = $planId AND p.organisation_id = $organisationId`,
+    { bind: { planId, organisationId }, type: QueryTypes.SELECT },
+  );
+  if (rows.length === 0) return null;
+  return {
+    currentRevisionId: rows[0]!.currentRevisionId,
+    revisions: rows
+      .filter((r) => r.id !== null)
+      .map(({ id, planId: plan, revision, status, fingerprint, verifyToken }) => ({
+        id,
+        planId: plan,
+        revision,
+        status,
+        fingerprint,
+        verifyToken,
+      })),
+  };
 }
 
 /** The revision's sealed record as stored (JSON), or null. */

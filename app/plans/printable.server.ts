@@ -2,7 +2,7 @@
 // completed one, as the record of its lift), with the gear's state now. Nothing is read from the
 // plan's live rows.
 import { getLiftRecord } from "~/models/lift-record.server";
-import { getPlanRow, getRevisionSealed, listRevisionSeals, type RevisionSeal } from "~/models/plan.server";
+import { getPlanSeals, getRevisionSealed, type RevisionSeal } from "~/models/plan.server";
 import { userNames, type SessionUser } from "~/models/user.server";
 import { PLAN_STATUS_LABELS, type PlanStatus } from "~/plans/document";
 import { liveStateOf } from "~/plans/live-state.server";
@@ -54,10 +54,10 @@ export async function buildPrintablePlan(
   planId: number,
   request: Request,
 ): Promise<PrintableOutcome> {
-  const plan = await getPlanRow(user.organisationId, planId);
-  if (!plan) return { ok: false, status: 404, message: "There is no such plan in your organisation.", planId };
   // Where each revision stands and its seal first; then the sealed record of the one printed.
-  const revisions = await listRevisionSeals(plan.id);
+  const plan = await getPlanSeals(user.organisationId, planId);
+  if (!plan) return { ok: false, status: 404, message: "There is no such plan in your organisation.", planId };
+  const { revisions } = plan;
   const row = latest(revisions, "approved") ?? latest(revisions, "completed");
   if (!row) {
     const working = revisions.find((r) => r.id === plan.currentRevisionId);
