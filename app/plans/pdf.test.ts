@@ -10,10 +10,13 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { PLAN_CAUTION } from "~/plans/document";
 import { buildPlanPdf } from "~/plans/pdf/build.server";
 import { drawingScale } from "~/plans/pdf/drawing.server";
-import { printableText } from "~/plans/pdf/fonts.server";
+import fontkit from "@pdf-lib/fontkit";
+import { cachingFontkit, loadFontFiles, PLAIN_GLYPHS, printableText } from "~/plans/pdf/fonts.server";
 import { PT_MM } from "~/plans/pdf/layout.server";
 import type { PrintablePlan } from "~/plans/printable";
 import { longPrintablePlan, printablePlanFixture } from "../../tests/support/printable-plan";
+
+type Layout = (text: string, features?: unknown) => { glyphs: Array<{ id: number }> };
 
 const dir = fs.mkdtempSync(path.join(os.tmpdir(), "plumbline-pdf-"));
 afterAll(() => fs.rmSync(dir, { recursive: true, force: true }));
@@ -192,6 +195,19 @@ describe("the printed plan of a typical lift (two legs, Furley Engineering 'Slin
       png.height,
     );
     expect(code?.data).toBe(plan.verifyUrl);
+  });
+
+  it("keeps each text's layout per font, with the glyphs a fresh layout of the font gives", () => {
+    const files = loadFontFiles();
+    for (const bytes of [files.regular, files.semibold]) {
+      const font = cachingFontkit.create(bytes);
+      const fresh = fontkit.create(bytes) as ReturnType<typeof fontkit.create> & { layout: Layout };
+      for (const text of ["Leg A 1,650 kg 16.18 kN", "FIT TO LIFT", "Straße 45° ×"]) {
+        const kept = (font as unknown as { layout: Layout }).layout(text, PLAIN_GLYPHS);
+        expect((font as unknown as { layout: Layout }).layout(text, PLAIN_GLYPHS)).toBe(kept);
+        expect(kept.glyphs.map((g) => g.id)).toEqual(fresh.layout(text, PLAIN_GLYPHS).glyphs.map((g) => g.id));
+      }
+    }
   });
 
   it("is the same file every time it is built from the same revision", async () => {

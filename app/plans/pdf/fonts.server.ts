@@ -18,10 +18,35 @@ const parsedFonts = new Map<Uint8Array, ParsedFont>();
 export const cachingFontkit: Parameters<PDFDocument["registerFontkit"]>[0] = {
   create(bytes: Uint8Array, postscriptName?: string) {
     let font = parsedFonts.get(bytes);
-    if (!font) parsedFonts.set(bytes, (font = fontkit.create(bytes, postscriptName)));
+    if (!font) parsedFonts.set(bytes, (font = withKeptLayouts(fontkit.create(bytes, postscriptName))));
     return font;
   },
 };
+
+/** Texts whose glyphs are kept per font; past this many the kept ones are dropped and kept afresh. */
+const KEPT_LAYOUTS = 20_000;
+
+/**
+ * The font with the glyphs of each text laid out with PLAIN_GLYPHS kept: with every feature off a text's glyphs
+ * are the same each time, and a plan prints the same labels, headings and figures on every page and in every
+ * build. pdf-lib lays out each string it draws or measures; shaping was most of the font library's share of a build.
+ */
+function withKeptLayouts(font: ParsedFont): ParsedFont {
+  type Run = ReturnType<ParsedFont["layout"]>;
+  let kept = new Map<string, Run>();
+  const layout = (text: string, features?: unknown, ...rest: unknown[]): Run => {
+    if (features !== PLAIN_GLYPHS || rest.length > 0)
+      return (font.layout as (...a: unknown[]) => Run)(text, features, ...rest);
+    let run = kept.get(text);
+    if (!run) {
+      run = font.layout(text, PLAIN_GLYPHS);
+      if (kept.size >= KEPT_LAYOUTS) kept = new Map();
+      kept.set(text, run);
+    }
+    return run;
+  };
+  return new Proxy(font, { get: (target, key) => (key === "layout" ? layout : Reflect.get(target, key, target)) });
+}
 
 /**
  * Font features off: plain glyphs with their own advance widths (no kerning or ligatures), so
