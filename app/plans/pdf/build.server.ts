@@ -3,7 +3,6 @@
 // record decides, the same on every print of the revision, so it is built once and kept) and the
 // stamp of each print (the live band and who printed it when), drawn over the kept body.
 import { PDFDocument } from "pdf-lib";
-import QRCode from "qrcode";
 import { chromeFor, liveHeaderAndFooter, sealedHeaderAndFooter } from "~/plans/pdf/chrome.server";
 import { embedBarlow } from "~/plans/pdf/fonts.server";
 import { A4_HEIGHT_PT, Flow, MARGIN_BOTTOM, MARGIN_TOP, Typesetter } from "~/plans/pdf/layout.server";
@@ -13,6 +12,7 @@ import { reserveStamp, stampIncrementally } from "~/plans/pdf/incremental-stamp.
 import { embedStampFonts } from "~/plans/pdf/stamp-fonts.server";
 import { loadSection, titleBlock } from "~/plans/pdf/title-block.server";
 import type { PrintablePlan } from "~/plans/printable";
+import { qrCode } from "~/plans/pdf/qr.server";
 
 /** How many sealed bodies this process has built (a print that reuses a kept body builds none). */
 let bodiesBuilt = 0;
@@ -29,8 +29,7 @@ export async function buildSealedBody(plan: PrintablePlan): Promise<Uint8Array> 
   const pdf = await PDFDocument.create({ updateMetadata: false });
   const { fonts, codePoints, files } = await embedBarlow(pdf, plan.fingerprint);
   const ts = new Typesetter(codePoints, files);
-  const qrPng = await QRCode.toBuffer(plan.verifyUrl, { errorCorrectionLevel: "M", margin: 2, scale: 6 });
-  const qr = await pdf.embedPng(qrPng);
+  const qr = qrCode(plan.verifyUrl);
 
   pdf.setTitle(ts.clean(`${plan.title} (revision ${plan.revision})`));
   pdf.setAuthor(ts.clean(plan.organisationName));

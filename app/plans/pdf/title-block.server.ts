@@ -1,9 +1,9 @@
 // Sections 1 and 2 of the printed plan: the plan and its approval (with the fingerprint and the QR
 // code), and the load.
-import type { PDFImage } from "pdf-lib";
 import { COG_SOURCE_LABELS, MASS_SOURCE_LABELS } from "~/loads/component-definition";
 import { overrideSentences } from "~/plans/load-override";
 import { loadText, statusWords, utcText } from "~/plans/pdf/format";
+import { drawQrCode, type QrCode } from "~/plans/pdf/qr.server";
 import {
   BRASS,
   CONTENT_W,
@@ -23,7 +23,7 @@ import { facts, heading, type Fact } from "~/plans/pdf/tables.server";
 import type { PrintablePlan } from "~/plans/printable";
 import { formatLength, formatMass } from "~/utils/format";
 
-export function titleBlock(flow: Flow, plan: PrintablePlan, qr: PDFImage) {
+export function titleBlock(flow: Flow, plan: PrintablePlan, qr: QrCode) {
   const { regular, semibold } = flow.fonts;
   heading(flow, 1, "Plan and approval", 200);
   const colW = (CONTENT_W - 16) / 2;
@@ -133,7 +133,7 @@ export function titleBlock(flow: Flow, plan: PrintablePlan, qr: PDFImage) {
     thickness: 0.5,
     color: RULE,
   });
-  page.drawImage(qr, { x: qrX, y: top - 6 - qrSize, width: qrSize, height: qrSize });
+  drawQrCode(page, qr, qrX, top - 6 - qrSize, qrSize);
   let cy = top - 6 - qrSize - 2;
   for (const l of caption) {
     cy -= 8.5;
