@@ -2,6 +2,7 @@ import { Organisation } from "~/models/organisation.server";
 import { createUser, findUserByEmail } from "~/models/user.server";
 import { createJob } from "~/models/job.server";
 import { createSite } from "~/models/site.server";
+import { DEFAULT_TIME_ZONE, addDays, todayIn } from "~/utils/dates";
 import type { Role } from "~/utils/roles";
 
 /** The password of every demo account. */
@@ -56,7 +57,7 @@ export async function up() {
       title: "Overhaul of air compressor C2: lift out and refit the compression element",
       description: "Take the element out of the housing for workshop overhaul; refit and align on the dowels after.",
       status: "open",
-      startsOn: "2027-01-11",
+      startsOn: addDays(todayIn(DEFAULT_TIME_ZONE), 38),
     },
     planner.id,
   );
@@ -68,7 +69,7 @@ export async function up() {
       title: "Blower B1: replace the gearbox and its top cover",
       description: "Remove the gearbox top cover, lift the gearbox off its base and set the exchange unit.",
       status: "open",
-      startsOn: "2027-01-25",
+      startsOn: addDays(todayIn(DEFAULT_TIME_ZONE), 52),
     },
     planner.id,
   );

@@ -35,25 +35,20 @@ export async function up() {
     };
     const item = await createGearItem(orgId, input, admin.id);
     if (demo.dueInDays === "never") continue;
-    const nextDueOn = addDays(today, demo.dueInDays);
-    const examinedOn = addMonths(nextDueOn, -examinationIntervalMonths(item.kind));
-    const earlier = addMonths(examinedOn, -examinationIntervalMonths(item.kind));
+    const dates = demoExaminationDates(addDays(today, demo.dueInDays), examinationIntervalMonths(item.kind));
     const examiner = EXAMINERS[n++ % EXAMINERS.length]!;
     // Two examinations each, so the history reads as a register kept over time.
-    await recordExamination(
-      orgId,
-      item.id,
-      examination(earlier, examiner, examinedOn, n === 1 ? "initial" : "periodic", `NIS-${1000 + 2 * n}`),
-      null,
-      admin.id,
-    );
-    await recordExamination(
-      orgId,
-      item.id,
-      examination(examinedOn, examiner, nextDueOn, "periodic", `NIS-${1001 + 2 * n}`),
-      null,
-      admin.id,
-    );
+    const records = [
+      examination(dates.earlier, examiner, dates.earlierDue, n === 1 ? "initial" : "periodic", `NIS-${1000 + 2 * n}`),
+      examination(dates.examinedOn, examiner, dates.nextDueOn, "periodic", `NIS-${1001 + 2 * n}`),
+    ];
+    for (const record of records) {
+      const result = await recordExamination(orgId, item.id, record, null, admin.id);
+      if (!result?.ok)
+        throw new Error(
+          `demo gear: examination of ${demo.item.itemCode} refused: ${result?.message ?? "no such item"}`,
+        );
+    }
   }
 
   const yellowWeb = await GearItem.findOne({ where: { organisationId: orgId, itemCode: "KR-WS-3T-3M" } });
@@ -73,6 +68,23 @@ export async function up() {
     { status: "withdrawn", reason: "Thread worn and collar face dented; cut in half and scrapped." },
     admin.id,
   );
+}
+
+/**
+ * The two examinations of a demo item that falls due about on `target` (YYYY-MM-DD), at `months` intervals.
+ * Each next-due date is its examination plus the interval, never later, so the register's rule accepts it on
+ * any day of seeding: counting back from a month's end and forward again can land a day or three early
+ * (31 Dec less six months is 30 Jun, and 30 Jun plus six months is 30 Dec), never late.
+ */
+export function demoExaminationDates(target: string, months: number) {
+  const examinedOn = addMonths(target, -months);
+  const earlier = addMonths(examinedOn, -months);
+  return {
+    earlier,
+    earlierDue: addMonths(earlier, months),
+    examinedOn,
+    nextDueOn: addMonths(examinedOn, months),
+  };
 }
 
 /** A passed examination as the demo's invented examining body writes it up. */
