@@ -28,6 +28,7 @@ import * as offlineSubmissions from "./migrations/0027-offline-submissions";
 import * as sealedPrintBodies from "./migrations/0028-sealed-print-bodies";
 import * as jobRuns from "./migrations/0029-job-runs";
 import * as registerOrderIndexes from "./migrations/0030-register-order-indexes";
+import * as registerDueOrderIndex from "./migrations/0031-register-due-order-index";
 
 export type Migration = (params: { context: QueryInterface }) => Promise<void>;
 type MigrationModule = { up: Migration; down: Migration };
@@ -64,6 +65,7 @@ export const migrations: Array<[name: string, module: MigrationModule]> = [
   ["0028-sealed-print-bodies", sealedPrintBodies],
   ["0029-job-runs", jobRuns],
   ["0030-register-order-indexes", registerOrderIndexes],
+  ["0031-register-due-order-index", registerDueOrderIndex],
 ];
 
 /** The umzug runner over `sequelize`, recording applied migrations in SequelizeMeta. */

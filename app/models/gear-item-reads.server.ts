@@ -128,15 +128,15 @@ export async function gearAttentionSummary(
 }
 
 /**
- * The register's order: the sort column, then the item id (unique in an organisation). A missing next due date or
- * home site takes a stand-in that sorts first (as NULL does in SQLite), so every row has a key to page from and the
- * order is the same in any database.
+ * The register's order: the sort column, then the item code (unique in an organisation). A missing home site sorts
+ * as "" and a missing next due date as the earliest date (as NULL does in SQLite), so every row has a key to page
+ * from and the order is the same in any database. The cursor carries NEVER_DUE for a missing due date.
  */
 const NEVER_DUE = "0001-01-01";
 function sortExpression(sort: Exclude<GearSortKey, "itemCode">) {
   switch (sort) {
     case "nextDueOn":
-      return sequelize.fn("COALESCE", sequelize.col("GearItem.next_due_on"), NEVER_DUE);
+      return sequelize.col("GearItem.next_due_on");
     case "site":
       return sequelize.fn("COALESCE", sequelize.col("homeSite.name"), "");
     case "kind":
@@ -146,6 +146,32 @@ function sortExpression(sort: Exclude<GearSortKey, "itemCode">) {
     case "status":
       return sequelize.col("GearItem.status");
   }
+}
+
+/**
+ * The due date's direction: with no date first going up and last going down, which PostgreSQL must be told (its
+ * default is the other way) and SQLite does by itself (where saying it could cost the index, migration 0031).
+ */
+function dueDirection(dir: "ASC" | "DESC") {
+  if (sequelize.getDialect() !== "postgres") return dir;
+  return dir === "ASC" ? "ASC NULLS FIRST" : "DESC NULLS LAST";
+}
+
+/**
+ * The rows after the cursor's (`dueKey`, `codeKey` bound) in the due-date order going `dir`, a missing date being the
+ * earliest. SQL's comparisons with NULL are never true, so the missing dates are named.
+ */
+function pastDueKey(dir: "ASC" | "DESC", cursorDue: KeyValue, dueKey: unknown, codeKey: unknown): WhereOptions {
+  const due = sequelize.col("GearItem.next_due_on");
+  const code = { itemCode: { [dir === "ASC" ? Op.gt : Op.lt]: codeKey } };
+  if (cursorDue === NEVER_DUE) {
+    return dir === "ASC"
+      ? { [Op.or]: [{ [Op.and]: [{ nextDueOn: null }, code] }, { nextDueOn: { [Op.ne]: null } }] }
+      : { [Op.and]: [{ nextDueOn: null }, code] };
+  }
+  const beyond = sequelize.where(due, dir === "ASC" ? Op.gt : Op.lt, dueKey);
+  const same = { [Op.and]: [sequelize.where(due, Op.eq, dueKey), code] };
+  return dir === "ASC" ? { [Op.or]: [beyond, same] } : { [Op.or]: [beyond, { nextDueOn: null }, same] };
 }
 
 /** The keys of a register page's edge row (its cursor): the sort column's value (unless it is the item id), the item id. */
@@ -188,12 +214,16 @@ export async function searchGearItems(
   const codeDir = sortDir;
   const past = (dir: string) => (dir === "ASC" ? Op.gt : Op.lt);
   const sortKey = search.sort === "itemCode" ? null : sortExpression(search.sort);
-  const order: Array<[unknown, string]> = sortKey ? [[sortKey, sortDir]] : [];
+  const order: Array<[unknown, string]> = sortKey
+    ? [[sortKey, search.sort === "nextDueOn" ? dueDirection(sortDir) : sortDir]]
+    : [];
   order.push(["itemCode", codeDir]);
   // The cursor's values are bound ($key0, $key1), never written into the statement.
   const key0 = sequelize.literal("$key0");
   const key1 = sequelize.literal("$key1");
-  if (request.cursor && sortKey) {
+  if (request.cursor && search.sort === "nextDueOn") {
+    and.push(pastDueKey(sortDir, request.cursor[0]!, key0, key1));
+  } else if (request.cursor && sortKey) {
     and.push({
       [Op.or]: [
         sequelize.where(sortKey, past(sortDir), key0),
@@ -201,7 +231,11 @@ export async function searchGearItems(
       ],
     });
   } else if (request.cursor) and.push({ itemCode: { [past(codeDir)]: key0 } });
-  const bind = { ...text?.bind, ...Object.fromEntries((request.cursor ?? []).map((v, i) => [`key${i}`, v])) };
+  // A cursor at an item never examined names no date ($key0 is not in the statement, and SQLite refuses a value
+  // bound to nothing).
+  const keys = (request.cursor ?? []).map((v, i) => [`key${i}`, v] as const);
+  const neverDue = search.sort === "nextDueOn" && request.cursor?.[0] === NEVER_DUE;
+  const bind = { ...text?.bind, ...Object.fromEntries(neverDue ? keys.slice(1) : keys) };
   const rows = await GearItem.findAll({
     where: { [Op.and]: and },
     attributes: [...ROW_ATTRIBUTES],

@@ -3,9 +3,9 @@ import type { Migration } from "../umzug";
 /**
  * The register's sort orders by kind, status and WLL, each ending in the item code (models/gear-item-reads.server.ts),
  * read from an index in that order: a page of the register sorted so reads its fifty rows instead of sorting the
- * whole organisation's register for every page. The due date's order sorts by an expression (a missing date as
- * 0001-01-01) and has no index of its own: Sequelize's SQLite table description, which the data copy and SQLite's
- * column changes rely on, cannot read an index on an expression.
+ * whole organisation's register for every page. The due date's order has its own index (migration 0031): a plain
+ * column, since Sequelize's SQLite table description, which the data copy and SQLite's column changes rely on,
+ * cannot read an index on an expression.
  */
 const INDEXES: ReadonlyArray<readonly [name: string, create: string]> = [
   [

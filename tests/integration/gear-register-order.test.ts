@@ -1,6 +1,7 @@
 // A page of the register in any of its indexed orders reads its rows from an index in that order: the database never
 // sorts the whole organisation's register to show fifty items (the cost of a page does not grow with the register).
 import { describe, expect, it } from "vitest";
+import { GearItem } from "~/models/gear-item.server";
 import * as register from "~/routes/gear._index";
 import { sequelize } from "~/utils/db.server";
 import { encodeCursor } from "~/utils/keyset.server";
@@ -42,14 +43,16 @@ async function planOf({ sql, bind }: Statement): Promise<string> {
 
 /**
  * A cursor as a page link carries it: the sort column's value of the middle item (unless it is the code), then its
- * code, so that both the next and the previous page hold an item. The due date's and the site's orders are sorted
- * by the database (migration 0030 says why).
+ * code, so that both the next and the previous page hold an item. The due date's order is read from its own index
+ * (migration 0031); the site's is still sorted by the database (migration 0030 says why).
  */
 const CURSORS: Record<string, string> = {
   itemCode: encodeCursor(["ORD-1"]),
   kind: encodeCursor(["shackle", "ORD-1"]),
   status: encodeCursor(["in_service", "ORD-1"]),
   wllKg: encodeCursor([2000, "ORD-1"]),
+  nextDueOn: encodeCursor(["2027-01-01", "ORD-1"]),
+  "nextDueOn, from an item never examined": encodeCursor(["0001-01-01", "ORD-1"]),
 };
 
 describe("the register's orders", () => {
@@ -57,12 +60,17 @@ describe("the register's orders", () => {
     "sorted by %s, the first page, the next and the previous, either way, are read from an index in their order",
     async (sort) => {
       const admin = await makeUser(["admin"]);
+      // One item never examined (no due date) and two that fall due, so each cursor has rows on both sides.
       for (let i = 0; i < 3; i++) await makeGearItem(admin, { itemCode: `ORD-${i}` });
+      await GearItem.update({ nextDueOn: "2027-01-01" }, { where: { itemCode: "ORD-1" } });
+      await GearItem.update({ nextDueOn: "2027-06-01" }, { where: { itemCode: "ORD-2" } });
       for (const dir of ["asc", "desc"])
         for (const way of ["", `&after=${CURSORS[sort]}`, `&before=${CURSORS[sort]}`]) {
-          const plan = await planOf(await pageStatement(`/gear?sort=${sort}&dir=${dir}${way}`, admin));
+          const plan = await planOf(await pageStatement(`/gear?sort=${sort.split(",")[0]}&dir=${dir}${way}`, admin));
           // A sort of the rows read (SQLite's temporary B-tree, PostgreSQL's Sort node) would grow with the register.
-          expect(plan, `${sort} ${dir}${way}`).not.toMatch(/TEMP B-TREE FOR (RIGHT PART OF )?ORDER BY|\bSort\b/);
+          expect(plan, `${sort} ${dir}${way}`).not.toMatch(
+            /TEMP B-TREE FOR (RIGHT PART OF |LAST TERM OF )?ORDER BY|\bSort\b/,
+          );
         }
     },
   );
