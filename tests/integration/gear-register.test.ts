@@ -298,6 +298,22 @@ describe("the register's filters, search, sort and pages", () => {
     expect(seen).toHaveLength(61);
     expect(new Set(seen).size).toBe(61);
     expect(seen.slice(0, 2)).toEqual(["D-LATER", "B-SOON"]);
+    // Going up, the items never examined come first (the page edge falls among them), then the dates; the
+    // Previous links walk the same pages back.
+    const pagesUp: string[][] = [];
+    let last: Awaited<ReturnType<typeof registerAs>> | null = null;
+    for (let up: string | null = "?sort=nextDueOn"; up; up = last.pages.next?.slice("/gear".length) ?? null) {
+      last = await registerAs(admin, up);
+      pagesUp.push(last.rows.map((r) => r.itemCode));
+    }
+    expect(pagesUp.flat()).toEqual([...seen].reverse());
+    const pagesBack: string[][] = [pagesUp.at(-1)!];
+    for (let down = last!.pages.previous; down;) {
+      const page = await registerAs(admin, down.slice("/gear".length));
+      pagesBack.unshift(page.rows.map((r) => r.itemCode));
+      down = page.pages.previous;
+    }
+    expect(pagesBack).toEqual(pagesUp);
     // A link past the last item (the items gone since) starts the list again.
     const beyondCursor = Buffer.from(JSON.stringify(["P-999"])).toString("base64url");
     const beyond = await callRoute(register.loader, await getRequest(`/gear?q=P-&after=${beyondCursor}`, admin));
