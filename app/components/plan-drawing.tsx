@@ -4,7 +4,7 @@
 // after hydration.
 import { lazy, Suspense } from "react";
 import type { LegFigure } from "~/components/plan-canvas.client";
-import { useElementWidth } from "~/components/plan-editor/fields";
+import { useElementWidth, viewsLayout } from "~/components/plan-editor/fields";
 import { tensionText } from "~/components/results/leg-table";
 import type { ComponentDefinition } from "~/loads/component-definition";
 import { standing } from "~/plans/check-text";
@@ -61,11 +61,12 @@ export function PlanDrawing({
     arrangement.kind === "beam"
       ? { placement, problem: placement ? null : "The beam's position is not in these results." }
       : null;
-  const viewWidth = width >= 900 ? Math.floor((width - 16) / 2) : width;
+  const views = viewsLayout(width);
+  const viewWidth = views.viewWidth;
   const viewHeight = Math.max(240, Math.min(420, Math.round(viewWidth * 0.7)));
   return (
     <div className="space-y-2" data-testid="plan-drawing">
-      <div ref={ref} className="grid gap-4 xl:grid-cols-2">
+      <div ref={ref} className="grid gap-4" style={views.style}>
         {(["elevation", "plan"] as const).map((view) => (
           <figure key={view} className="overflow-hidden rounded border border-rule bg-white">
             <figcaption className="border-b border-rule px-3 py-1 text-sm font-semibold">

@@ -9,7 +9,7 @@ import { HookHeightChart } from "~/components/hook-height-chart";
 import { LiveResults, type ResultState } from "~/components/live-results";
 import { tensionText } from "~/components/results/leg-table";
 import { ArrangementPanel } from "~/components/plan-editor/arrangement-panel";
-import { toEdit, useElementWidth } from "~/components/plan-editor/fields";
+import { toEdit, useElementWidth, viewsLayout } from "~/components/plan-editor/fields";
 import { GearTable } from "~/components/plan-editor/gear-table";
 import { HandleRadios } from "~/components/plan-editor/handle-radios";
 import { LoadOverridePanel } from "~/components/plan-editor/load-override-panel";
@@ -230,7 +230,8 @@ export function PlanEditor({
   }, [onKey]);
 
   const beam = useMemo(() => editorBeamPlacement(edit, picks), [edit, picks]);
-  const viewWidth = viewsWidth >= 900 ? Math.floor((viewsWidth - 16) / 2) : viewsWidth;
+  const views = viewsLayout(viewsWidth);
+  const viewWidth = views.viewWidth;
   const viewHeight = Math.max(260, Math.min(460, Math.round(viewWidth * 0.75)));
   const usedPoints = useMemo(
     () => edit.liftPoints.filter((p) => edit.arrangement.liftPointLabels.includes(p.label)),
@@ -323,7 +324,7 @@ export function PlanEditor({
         <HandleRadios handles={handles} selectedKey={selected && handleKey(selected)} onSelect={selectHandle} />
       )}
 
-      <div ref={viewsRef} className="grid gap-4 xl:grid-cols-2">
+      <div ref={viewsRef} className="grid gap-4" style={views.style}>
         {(["elevation", "plan"] as const).map((view) => (
           <figure
             key={view}

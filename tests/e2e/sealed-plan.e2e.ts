@@ -146,6 +146,16 @@ describe(
       const main = page.locator("main");
       // The drawing to scale, both views, drawn in the browser.
       await poll(() => page.getByTestId("plan-drawing").locator("canvas").count()).toBeGreaterThanOrEqual(2);
+      // Each view's canvas fits the frame that shows it (a canvas laid out for a wider column is cut off, hook and
+      // all, at this desk width).
+      const spill = await page
+        .getByTestId("plan-drawing")
+        .locator("figure")
+        .evaluateAll((figures) =>
+          figures.map((f) => (f.querySelector("canvas")?.getBoundingClientRect().width ?? Infinity) - f.clientWidth),
+        );
+      expect(spill).toHaveLength(2);
+      for (const px of spill) expect(px).toBeLessThanOrEqual(0);
       const gear = await page.getByTestId("review-gear").innerText();
       expect(gear).toContain(LINK_CODE);
       expect(gear).not.toContain("not fit to lift");

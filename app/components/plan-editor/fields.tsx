@@ -19,6 +19,22 @@ export function toEdit(plan: EditorPlan): PlanEdit {
   };
 }
 
+/** The box of the two views must be this wide (CSS px) to show them side by side; narrower, they stack. */
+const TWO_VIEWS_MIN_WIDTH = 900;
+const VIEWS_GAP = 16; // Tailwind's gap-4
+
+/**
+ * How the elevation and the plan view share a box of the measured width: its grid columns and each canvas's width
+ * come from the one measure, so a canvas is never laid out wider than the column that shows it.
+ */
+export function viewsLayout(width: number) {
+  const twoUp = width >= TWO_VIEWS_MIN_WIDTH;
+  return {
+    style: { gridTemplateColumns: twoUp ? "repeat(2, minmax(0, 1fr))" : "minmax(0, 1fr)" },
+    viewWidth: twoUp ? Math.floor((width - VIEWS_GAP) / 2) : width,
+  };
+}
+
 export function useElementWidth<T extends HTMLElement>() {
   const ref = useRef<T>(null);
   const [width, setWidth] = useState(0);
