@@ -203,13 +203,15 @@ export default function PlanCanvas(props: PlanCanvasProps) {
 
   const bar = scaleBarLengthM((width * 0.3) / transform.scalePxPerM);
 
-  function dragToWorld(node: Konva.Node, exclude?: { a: number; b: number }) {
+  /** Where a dragged node lands in the view, snapped; `liftPointIndex` names the lift point being dragged. */
+  function dragToWorld(node: Konva.Node, liftPointIndex?: number) {
     const world = screenToWorld(transform, node.x(), node.y());
     const snapped = snapViewPoint(world, {
       gridM,
       radiusM: 10 / transform.scalePxPerM,
-      candidates: exclude ? candidates.filter((c) => c !== exclude) : candidates,
+      candidates,
       enabled: snap,
+      draggedIndex: liftPointIndex,
     });
     const screen = S(snapped.a, snapped.b);
     node.position(screen);
@@ -388,8 +390,8 @@ export default function PlanCanvas(props: PlanCanvasProps) {
           />
         </Layer>
         <Layer>
-          {edit.liftPoints.map((p) => {
-            const at = P(p.position);
+          {edit.liftPoints.map((p, index) => {
+            const at = candidates[index]!;
             const s = S(at.a, at.b);
             const used = usedLabels.has(p.label);
             return (
@@ -402,7 +404,7 @@ export default function PlanCanvas(props: PlanCanvasProps) {
                 onPointerDown={() => onSelect({ kind: "lift-point", label: p.label })}
                 onDragStart={() => dispatch({ type: "checkpoint" })}
                 onDragMove={(e) => {
-                  const w = dragToWorld(e.target, at);
+                  const w = dragToWorld(e.target, index);
                   dispatch({
                     type: "move-lift-point",
                     label: p.label,

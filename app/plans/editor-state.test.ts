@@ -189,6 +189,21 @@ describe("snapping", () => {
       b: 0.61,
     });
   });
+
+  it("a dragged lift point is not held at its own last place, but still snaps to the others", () => {
+    // Point 0 is being dragged and was last drawn at (0.212, 0.887), off the grid; point 1 stands at (0.5, 0.5).
+    const candidates = [
+      { a: 0.212, b: 0.887 },
+      { a: 0.5, b: 0.5 },
+    ];
+    const options = { gridM: 0.05, radiusM: 0.03, candidates, enabled: true, draggedIndex: 0 };
+    const nudged = snapViewPoint({ a: 0.205, b: 0.895 }, options);
+    expect(nudged.a).toBeCloseTo(0.2, 12);
+    expect(nudged.b).toBeCloseTo(0.9, 12);
+    // Without naming the dragged point its old place would win and the drag could not move it a few pixels.
+    expect(snapViewPoint({ a: 0.205, b: 0.895 }, { ...options, draggedIndex: undefined })).toEqual(candidates[0]);
+    expect(snapViewPoint({ a: 0.51, b: 0.49 }, options)).toEqual(candidates[1]);
+  });
 });
 
 describe("the view", () => {

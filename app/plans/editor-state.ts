@@ -248,13 +248,26 @@ export function nearestWithin(
   return best;
 }
 
-/** Snaps a dragged view point: to a candidate point when within `radiusM`, else to the grid. */
+/**
+ * Snaps a dragged view point: to a candidate point when within `radiusM`, else to the grid. `draggedIndex` names the
+ * candidate being dragged: where it stood is no target (it would hold the point at its old place).
+ */
 export function snapViewPoint(
   point: { a: number; b: number },
-  options: { gridM: number; radiusM: number; candidates: ReadonlyArray<{ a: number; b: number }>; enabled: boolean },
+  options: {
+    gridM: number;
+    radiusM: number;
+    candidates: ReadonlyArray<{ a: number; b: number }>;
+    enabled: boolean;
+    draggedIndex?: number;
+  },
 ) {
   if (!options.enabled) return point;
-  const near = nearestWithin(point, options.candidates, options.radiusM);
+  const targets =
+    options.draggedIndex === undefined
+      ? options.candidates
+      : options.candidates.filter((_, i) => i !== options.draggedIndex);
+  const near = nearestWithin(point, targets, options.radiusM);
   if (near) return { a: near.a, b: near.b };
   return { a: snapToGrid(point.a, options.gridM), b: snapToGrid(point.b, options.gridM) };
 }
