@@ -13,7 +13,15 @@ export type FileStore = {
   get(key: string): Promise<Buffer | null>;
   /** Forgets `key`; nothing happens when it is not stored. */
   remove(key: string): Promise<void>;
+  /**
+   * Removes the partial files of writes that began before `before` (a put takes well under a second, so an old one
+   * is what a crash or a killed server left behind); answers how many it removed.
+   */
+  sweepPartials(before: Date): Promise<number>;
 };
+
+/** How old a partial file must be before it counts as left behind by a write that never finished. */
+export const ABANDONED_PARTIAL_MS = 60 * 60 * 1000;
 
 const STORAGE_KEY = /^[a-f0-9]{32}$/;
 
@@ -88,7 +96,44 @@ export function folderStore(folder: string): FileStore {
     async remove(key) {
       await fs.rm(pathOf(key), { force: true });
     },
+    async sweepPartials(before) {
+      let names: string[];
+      try {
+        names = await fs.readdir(root);
+      } catch (error) {
+        if (isMissing(error)) return 0;
+        throw error;
+      }
+      let removed = 0;
+      for (const name of names.filter(isPartialName)) {
+        const file = path.join(root, name);
+        try {
+          if ((await fs.stat(file)).mtimeMs >= before.getTime()) continue;
+          await fs.rm(file, { force: true });
+          removed++;
+        } catch (error) {
+          // Renamed or removed meanwhile (by its own put or another server's sweep): nothing to do.
+          if (!isMissing(error)) throw error;
+        }
+      }
+      return removed;
+    },
   };
+}
+
+/**
+ * Clears partial files that writes interrupted at least an hour ago left in the app's store; run once as the
+ * server starts. Never fails the start: a store it cannot read is reported and left for the uploads to refuse.
+ */
+export async function sweepAbandonedPartials(now = new Date()) {
+  try {
+    const removed = await fileStore().sweepPartials(new Date(now.getTime() - ABANDONED_PARTIAL_MS));
+    if (removed > 0) console.log(`Removed ${removed} partial upload file(s) left by interrupted writes.`);
+  } catch (error) {
+    console.error(
+      `The upload folder could not be swept of partial files: ${error instanceof Error ? error.message : String(error)}`,
+    );
+  }
 }
 
 /** The app's file store: the folder UPLOAD_DIR. */

@@ -236,6 +236,8 @@ async function serve() {
     console.error("Plumbline stopped before it could serve.");
     process.exit(1);
   }
+  // Once per start, whatever the number of workers: partial upload files that interrupted writes left behind.
+  if (cluster.isPrimary) void import("~/utils/file-store.server").then((store) => store.sweepAbandonedPartials());
   if (cluster.isPrimary && settings.webConcurrency > 1) startPrimary(settings);
   else await startWorker(settings);
 }

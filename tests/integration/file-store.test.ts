@@ -101,3 +101,31 @@ describe("the folder file store", () => {
     expect(fs.existsSync(path.join(env.uploadDir, key))).toBe(false);
   });
 });
+
+describe("partial files left by interrupted writes", () => {
+  const hoursAgo = (hours: number) => new Date(Date.now() - hours * 3_600_000);
+
+  it("are swept once they are older than the cut-off; stored files and young partials stay", async () => {
+    const folder = freshFolder();
+    const store = folderStore(folder);
+    const key = newStorageKey();
+    await store.put(key, bytesOf(1_000, 5));
+    const old = path.join(folder, `.${newStorageKey()}.0a0b0c0d0e0f.partial`);
+    const young = path.join(folder, `.${newStorageKey()}.101112131415.partial`);
+    fs.writeFileSync(old, bytesOf(10, 1));
+    fs.writeFileSync(young, bytesOf(10, 2));
+    // The old one as a crash two hours ago would leave it; the stored file is just as old.
+    fs.utimesSync(old, hoursAgo(2), hoursAgo(2));
+    fs.utimesSync(path.join(folder, key), hoursAgo(2), hoursAgo(2));
+    expect(isPartialName(path.basename(old))).toBe(true);
+
+    expect(await store.sweepPartials(hoursAgo(1))).toBe(1);
+    expect(fs.readdirSync(folder).sort()).toEqual([key, path.basename(young)].sort());
+    expect(new Uint8Array((await store.get(key))!)).toEqual(bytesOf(1_000, 5));
+    expect(await store.sweepPartials(hoursAgo(1))).toBe(0);
+  });
+
+  it("are nothing to sweep in a folder that does not exist yet", async () => {
+    expect(await folderStore(freshFolder()).sweepPartials(new Date())).toBe(0);
+  });
+});
