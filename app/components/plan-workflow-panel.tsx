@@ -1,4 +1,5 @@
 import { Form } from "react-router";
+import { formatDateTime } from "~/utils/dates";
 import { LiftFitness } from "~/components/lift-fitness";
 import { LiftRecordView, type LiftRecordViewData } from "~/components/lift-record-view";
 import { Button } from "~/components/ui/form";
@@ -28,8 +29,8 @@ export type WorkflowPanelData = {
   permissions: Record<WorkflowAction, Permission>;
 };
 
-const when = (iso: Date | string | null) =>
-  iso ? `${new Date(iso).toLocaleString("en-GB", { timeZone: "UTC" })} UTC` : "";
+/** A moment as the rest of the product prints it: 2026-12-04 16:46 UTC (a day-first or month-first date misleads someone). */
+const when = (iso: Date | string | null) => formatDateTime(iso, "UTC");
 
 const linkButton = "rounded bg-steel px-4 py-2 text-sm font-semibold text-white no-underline hover:no-underline";
 const linkSecondary = "rounded border border-rule bg-white px-4 py-2 text-sm font-semibold text-ink no-underline";

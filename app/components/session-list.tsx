@@ -1,4 +1,5 @@
 import { Form } from "react-router";
+import { formatDateTime } from "~/utils/dates";
 import { Button } from "~/components/ui/form";
 
 export type SessionListRow = {
@@ -9,7 +10,7 @@ export type SessionListRow = {
   userAgent: string | null;
 };
 
-const when = (iso: string) => `${new Date(iso).toLocaleString("en-GB", { timeZone: "UTC" })} UTC`;
+const when = (iso: string) => formatDateTime(iso, "UTC");
 
 /** A short name for a browser from its user agent, for a person to recognise, not to decide anything by. */
 function browserName(userAgent: string | null) {

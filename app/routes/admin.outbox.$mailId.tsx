@@ -1,4 +1,5 @@
 import { data } from "react-router";
+import { formatDateTime } from "~/utils/dates";
 import type { Route } from "./+types/admin.outbox.$mailId";
 import { PageHeader } from "~/components/ui/form";
 import { isMailCaught } from "~/utils/mail.server";
@@ -55,7 +56,7 @@ export default function OutboxMessage({ loaderData }: Route.ComponentProps) {
           <dt className="text-ink-soft">To</dt>
           <dd>{m.to}</dd>
           <dt className="text-ink-soft">Received</dt>
-          <dd>{new Date(m.receivedAt).toLocaleString("en-GB", { timeZone: "UTC" })} UTC</dd>
+          <dd>{formatDateTime(m.receivedAt, "UTC")}</dd>
         </dl>
         <pre className="mt-4 whitespace-pre-wrap font-sans text-base" data-testid="mail-body">
           <LinkedText text={m.text} />

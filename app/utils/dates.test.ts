@@ -74,6 +74,8 @@ describe("dates as people read them", () => {
     expect(formatDateTime("2026-12-03T13:05:00Z", "Europe/London")).toBe("2026-12-03 13:05 GMT");
     expect(formatDateTime(new Date("2026-12-03T05:05:00Z"), "America/Chicago")).toBe("2026-12-02 23:05 GMT-6");
     expect(formatDateTime("not a time", "Europe/London")).toBe("not a time");
+    // The moments the plan page, the sessions list and the outbox show: ISO order in UTC, never day-first or month-first.
+    expect(formatDateTime("2026-12-04T16:46:43Z", "UTC")).toBe("2026-12-04 16:46 UTC");
   });
 });
 
