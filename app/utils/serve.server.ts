@@ -237,7 +237,10 @@ async function serve() {
     process.exit(1);
   }
   // Once per start, whatever the number of workers: partial upload files that interrupted writes left behind.
-  if (cluster.isPrimary) void import("~/utils/file-store.server").then((store) => store.sweepAbandonedPartials());
+  if (cluster.isPrimary)
+    import("~/utils/file-store.server")
+      .then((store) => store.sweepAbandonedPartials())
+      .catch((error: unknown) => console.error(`The upload folder was not swept: ${String(error)}`));
   if (cluster.isPrimary && settings.webConcurrency > 1) startPrimary(settings);
   else await startWorker(settings);
 }
