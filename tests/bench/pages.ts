@@ -132,6 +132,7 @@ async function timed(url: string, cookie: string) {
   const headers = { Cookie: cookie, Connection: "close", ...GZIP };
   const start = performance.now();
   const res = await fetch(url, { headers });
+  // fetch undoes the compression: this is the size of the body as sent before it, not of the bytes on the wire.
   const body = new Uint8Array(await res.arrayBuffer());
   return { ms: performance.now() - start, status: res.status, bytes: body.length };
 }
@@ -425,7 +426,7 @@ export async function runPagesBench(mode: Mode): Promise<BenchResult[]> {
     const rise = Math.max(...after.map((a) => a.peakMb - (before.find((b) => b.pid === a.pid)?.peakMb ?? a.peakMb)));
     console.log(
       `pages: export of ${sizes.gear.toLocaleString("en-GB")} items: ${exported!.status}, ` +
-        `${(exported!.bytes / 1024).toFixed(0)} KB compressed, ${exported!.ms.toFixed(0)} ms; ` +
+        `${(exported!.bytes / 1024).toFixed(0)} KB of CSV (sent compressed), ${exported!.ms.toFixed(0)} ms; ` +
         `${besideExport.pings} pings beside it, worst ${besideExport.worstMs.toFixed(0)} ms against ${besideExport.baselineMs.toFixed(0)} ms`,
     );
     note({ name: "export: worker peak memory rise", value: rise, unit: "MB", target: 50, ok: rise <= 50 });
